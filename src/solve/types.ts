@@ -1,0 +1,112 @@
+import type { Polarity } from '../table/types.js';
+import type { Topology } from '../spec/types.js';
+
+export type Role = 'bottom' | 'middle' | 'top';
+
+/** A sized device of the output stack. Voltages are magnitudes except `gate`. */
+export interface DeviceResult {
+  role: Role;
+  w: number;
+  l: number;
+  /** Absolute gate voltage to ground, V. */
+  gate: number;
+  vgs: number;
+  vds: number;
+  vsb: number;
+  gmid: number;
+  id: number;
+  gm: number;
+  gds: number;
+  gmb: number;
+  gain: number;
+  jd: number;
+  ft: number;
+}
+
+/** A diode-connected device that produces one gate voltage. */
+export interface BiasResult {
+  /** Which output-stack gate it drives. */
+  drives: Role;
+  w: number;
+  l: number;
+  current: number;
+  /** Absolute gate voltage to ground it produces, V. */
+  voltage: number;
+  /** Stacked on another bias device (cascode-stacked), by index in `bias`. */
+  stackedOn?: number;
+}
+
+export interface CurvePoint {
+  /** Stack voltage, V. */
+  v: number;
+  /** Output node voltage to ground, V. */
+  vout: number;
+  iout: number;
+  rout: number;
+}
+
+export interface Predicted {
+  /** Output current at mid-span, A. */
+  iout: number;
+  /** Lowest Rout over [headroom, span], Ω. */
+  rout: number;
+  /** Lowest stack voltage where the targets hold, V (Infinity when never). */
+  headroom: number;
+  /** Sum of W·L of the output-stack devices, m². */
+  area: number;
+  /** Sum of W·L of the bias devices, m². */
+  biasArea: number;
+  /** 1-sigma output current mismatch (fraction), when the kit has Pelgrom coefficients. */
+  sigma?: number;
+}
+
+export interface SquareLawCheck {
+  vth: number;
+  /** Square-law VGS of each device at its current and size. */
+  vgs: number[];
+  vov: number[];
+  /** Rule-of-thumb headroom: Vov (single), 2Vov (cascode), VGS+Vov (cascode-stacked), 3Vov (triple). */
+  headroom: number;
+  /** Rout from λ = gds/ID at each device: ro = 1/(λ·I). */
+  rout: number;
+  lambda: number[];
+}
+
+export interface CornerResult {
+  corner: string;
+  feasible: boolean;
+  predicted: Predicted;
+  /** Gate voltages the bias devices produce at this corner, V. */
+  gates: number[];
+  binding?: string;
+}
+
+export interface StackResult {
+  name: string;
+  device: Polarity;
+  topology: Topology;
+  feasible: boolean;
+  /** Which target binds when infeasible (e.g. "rout", "headroom", "mismatch"), with words. */
+  binding?: string;
+  /** Nearest feasible points when infeasible. */
+  nearest?: { headroomAtRout?: number; routAtHeadroom?: number };
+  devices: DeviceResult[];
+  bias: BiasResult[];
+  predicted: Predicted;
+  curve: CurvePoint[];
+  squareLaw?: SquareLawCheck;
+  corners?: CornerResult[];
+  /** Candidates evaluated for this stack. */
+  evaluated: number;
+}
+
+export interface SizeResult {
+  kit: string;
+  corners: string[];
+  supply: number;
+  caution: string;
+  stacks: StackResult[];
+}
+
+export const CAUTION =
+  'Sizes are first-cut estimates from lookup tables. Verify them by simulation with the foundry models across all corners, mismatch and temperature before any tape-out, following your design team\'s sign-off practice.';

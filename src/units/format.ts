@@ -1,0 +1,50 @@
+/** SI prefixes used for printing (not SPICE's: "M" here is mega, as people read it). */
+const PREFIXES: ReadonlyArray<readonly [number, string]> = [
+  [1e12, 'T'],
+  [1e9, 'G'],
+  [1e6, 'M'],
+  [1e3, 'k'],
+  [1, ''],
+  [1e-3, 'm'],
+  [1e-6, 'µ'],
+  [1e-9, 'n'],
+  [1e-12, 'p'],
+  [1e-15, 'f'],
+  [1e-18, 'a'],
+];
+
+/**
+ * Format with an SI prefix and `digits` significant digits: formatEng(4e-5, 'A') = "40 µA".
+ */
+export function formatEng(x: number, unit = '', digits = 3): string {
+  if (!Number.isFinite(x)) return `${x}${unit ? ' ' + unit : ''}`;
+  if (x === 0) return `0${unit ? ' ' + unit : ''}`;
+  const ax = Math.abs(x);
+  let chosen = PREFIXES[PREFIXES.length - 1];
+  for (const p of PREFIXES) {
+    if (ax >= p[0] * 0.9995) {
+      chosen = p;
+      break;
+    }
+  }
+  const scaled = x / chosen[0];
+  const text = Number(scaled.toPrecision(digits)).toString();
+  const suffix = chosen[1] + unit;
+  return suffix ? `${text} ${suffix}` : text;
+}
+
+/**
+ * Format in SPICE3 notation (meg for mega, u for micro), for netlists.
+ */
+export function formatSpice(x: number, digits = 6): string {
+  if (x === 0) return '0';
+  const table: ReadonlyArray<readonly [number, string]> = [
+    [1e12, 't'], [1e9, 'g'], [1e6, 'meg'], [1e3, 'k'], [1, ''],
+    [1e-3, 'm'], [1e-6, 'u'], [1e-9, 'n'], [1e-12, 'p'], [1e-15, 'f'],
+  ];
+  const ax = Math.abs(x);
+  for (const [scale, s] of table) {
+    if (ax >= scale * 0.9999995) return Number((x / scale).toPrecision(digits)).toString() + s;
+  }
+  return x.toExponential(digits - 1);
+}

@@ -1,0 +1,2 @@
+export { parseEng, parseEngValue } from './parse.js';
+export { formatEng, formatSpice } from './format.js';

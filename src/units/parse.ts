@@ -1,0 +1,79 @@
+import { StackwrightError } from '../errors.js';
+
+/**
+ * Scale suffixes of Berkeley SPICE3 (user's manual, "Number formats"):
+ * T=1e12 G=1e9 MEG=1e6 K=1e3 MIL=25.4e-6 M=1e-3 U=1e-6 N=1e-9 P=1e-12 F=1e-15,
+ * matched case-insensitively; letters after a suffix are ignored ("0.18um").
+ * We add the micro sign, and reject a bare upper-case "M" because outside
+ * SPICE it usually means mega.
+ */
+const SCALE: ReadonlyArray<readonly [string, number]> = [
+  ['meg', 1e6],
+  ['mil', 25.4e-6],
+  ['t', 1e12],
+  ['g', 1e9],
+  ['k', 1e3],
+  ['m', 1e-3],
+  ['u', 1e-6],
+  ['µ', 1e-6],
+  ['μ', 1e-6],
+  ['n', 1e-9],
+  ['p', 1e-12],
+  ['f', 1e-15],
+];
+
+const NUMBER = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?/;
+
+/**
+ * Parse an engineering-notation number: `40u`, `50meg`, `0.18um`, `1.8`,
+ * `2.5e-6`, `10µA`. Throws a StackwrightError naming `where` on bad input.
+ *
+ * @example parseEng('0.18um') // 1.8e-7
+ * @example parseEng('50meg')  // 5e7
+ */
+export function parseEng(input: string | number, where?: string): number {
+  if (typeof input === 'number') {
+    if (!Number.isFinite(input)) throw new StackwrightError(`expected a finite number, got ${input}`, { where });
+    return input;
+  }
+  const text = input.trim();
+  const m = NUMBER.exec(text);
+  if (!m) throw new StackwrightError(`expected a number with optional scale suffix (e.g. 40u, 50meg), got "${input}"`, { where });
+  const base = Number(m[0]);
+  const rest = text.slice(m[0].length).trim();
+  if (rest === '') return finite(base, input, where);
+  if (rest.startsWith('M') && !/^(meg|mil)/i.test(rest)) {
+    throw new StackwrightError(
+      `"${input}": a bare upper-case M is ambiguous (SPICE reads milli); write "${m[0]}meg" or "${m[0]}e6" for mega, "${m[0]}m" for milli`,
+      { where },
+    );
+  }
+  const lower = rest.toLowerCase();
+  for (const [suffix, scale] of SCALE) {
+    if (lower.startsWith(suffix)) {
+      const tail = rest.slice(suffix.length);
+      checkUnitTail(tail, input, where);
+      return finite(base * scale, input, where);
+    }
+  }
+  checkUnitTail(rest, input, where);
+  return finite(base, input, where);
+}
+
+// After the number and scale only unit letters may follow (V, A, m, ohm, %, ...).
+function checkUnitTail(tail: string, input: string, where?: string): void {
+  if (!/^[A-Za-zΩ%°/·.\u00b5]*$/.test(tail)) {
+    throw new StackwrightError(`"${input}" has unexpected characters "${tail}" after the number`, { where });
+  }
+}
+
+function finite(x: number, input: string, where?: string): number {
+  if (!Number.isFinite(x)) throw new StackwrightError(`"${input}" is not a finite number`, { where });
+  return x;
+}
+
+/** Parse a value that may be a number (JSON/YAML) or an engineering string. */
+export function parseEngValue(value: unknown, where?: string): number {
+  if (typeof value === 'number' || typeof value === 'string') return parseEng(value, where);
+  throw new StackwrightError(`expected a number, got ${value === null ? 'null' : typeof value}`, { where });
+}
