@@ -1,0 +1,81 @@
+import { describe, expect, it } from 'vitest';
+import { formatEng, formatSpice, parseEng } from '../src/units/index.js';
+
+describe('parseEng', () => {
+  // Scale factors from the Berkeley SPICE3 user's manual (section "General structure and
+  // conventions"): T=1e12 G=1e9 MEG=1e6 K=1e3 MIL=25.4e-6 M=1e-3 U=1e-6 N=1e-9 P=1e-12 F=1e-15,
+  // letters immediately following a number that are not scale factors are ignored.
+  const spice3: Array<[string, number]> = [
+    ['1T', 1e12],
+    ['1G', 1e9],
+    ['1MEG', 1e6],
+    ['1meg', 1e6],
+    ['1K', 1e3],
+    ['1k', 1e3],
+    ['1MIL', 25.4e-6],
+    ['1m', 1e-3],
+    ['1U', 1e-6],
+    ['1u', 1e-6],
+    ['1N', 1e-9],
+    ['1P', 1e-12],
+    ['1F', 1e-15],
+    ['1f', 1e-15],
+  ];
+  for (const [text, value] of spice3) {
+    it(`${text} = ${value} (SPICE3 scale table)`, () => {
+      expect(parseEng(text)).toBeCloseTo(value, 30);
+      expect(parseEng(text) / value).toBeCloseTo(1, 12);
+    });
+  }
+
+  it('ignores trailing unit letters (SPICE3 convention): 0.18um, 10uA, 1.8V, 50megohm', () => {
+    expect(parseEng('0.18um') / 0.18e-6).toBeCloseTo(1, 12);
+    expect(parseEng('10uA') / 10e-6).toBeCloseTo(1, 12);
+    expect(parseEng('1.8V')).toBe(1.8);
+    expect(parseEng('50megohm') / 50e6).toBeCloseTo(1, 12);
+    expect(parseEng('100mV') / 0.1).toBeCloseTo(1, 12);
+  });
+
+  it('accepts the micro sign and Greek mu', () => {
+    expect(parseEng('40µ') / 40e-6).toBeCloseTo(1, 12);
+    expect(parseEng('40μA') / 40e-6).toBeCloseTo(1, 12);
+  });
+
+  it('accepts plain and exponent numbers, signs, leading dot', () => {
+    expect(parseEng('2.5e-6')).toBe(2.5e-6);
+    expect(parseEng('-0.4')).toBe(-0.4);
+    expect(parseEng('.5')).toBe(0.5);
+    expect(parseEng('+3E3')).toBe(3000);
+    expect(parseEng(' 7 ')).toBe(7);
+  });
+
+  it('rejects a bare upper-case M with a hint to write meg or e6', () => {
+    expect(() => parseEng('5M')).toThrow(/meg.*e6/);
+    expect(() => parseEng('5Mohm', 'stacks[0].rout')).toThrow(/^stacks\[0\]\.rout: /);
+  });
+
+  it('rejects junk with a message naming the input and where', () => {
+    expect(() => parseEng('abc', 'x.csv:3:4')).toThrow(/^x\.csv:3:4: .*"abc"/);
+    expect(() => parseEng('')).toThrow();
+    expect(() => parseEng('1.2.3')).toThrow(/unexpected/);
+    expect(() => parseEng('1e999')).toThrow(/finite/);
+    expect(() => parseEng(Number.NaN)).toThrow(/finite/);
+  });
+});
+
+describe('formatEng / formatSpice', () => {
+  it('prints SI prefixes people read', () => {
+    expect(formatEng(4e-5, 'A')).toBe('40 µA');
+    expect(formatEng(5e7, 'Ω')).toBe('50 MΩ');
+    expect(formatEng(0.45, 'V')).toBe('450 mV');
+    expect(formatEng(1.8, 'V')).toBe('1.8 V');
+    expect(formatEng(0, 'V')).toBe('0 V');
+  });
+  it('prints SPICE3 suffixes that parse back to the same value (round trip through parseEng)', () => {
+    for (const x of [5e7, 1.8e-7, 4e-5, 0.45, 1.8, 3.3e-15, 2e9, 12345]) {
+      expect(parseEng(formatSpice(x)) / x).toBeCloseTo(1, 5);
+    }
+    expect(formatSpice(5e7)).toBe('50meg');
+    expect(formatSpice(1.8e-7)).toBe('180n');
+  });
+});
