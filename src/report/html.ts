@@ -1,0 +1,108 @@
+import type { StackSpec } from '../spec/types.js';
+import type { StackResult } from '../solve/types.js';
+import { designCharts } from './design-charts.js';
+import { eng, formatArea, formatMicrons, formatPercent, polarityName } from './format.js';
+import { REPORT_CSS } from './html-style.js';
+import { biasGrid, columnAlign, cornerGrid, deviceGrid, predictedGrid, squareLawGrid, verdict, type Grid } from './rows.js';
+import { stackCharts } from './stack-charts.js';
+import { escapeXml as esc } from './svg.js';
+import type { HtmlReportInput } from './types.js';
+
+export function htmlTable(grid: Grid, caption?: string): string {
+  const align = columnAlign(grid);
+  const cls = (c: number): string => (align[c] === 'right' ? ' class="num"' : '');
+  const head = grid.headers.map((h, c) => `<th${cls(c)}>${esc(h)}</th>`).join('');
+  const body = grid.rows
+    .map((r) => `<tr>${r.map((cell, c) => `<td${cls(c)}>${esc(cell)}</td>`).join('')}</tr>`)
+    .join('\n');
+  return `<div>${caption ? `<h3>${esc(caption)}</h3>` : ''}<table><thead><tr>${head}</tr></thead><tbody>\n${body}\n</tbody></table></div>`;
+}
+
+function figure(svg: string | undefined): string {
+  return svg ? `<figure>${svg}</figure>` : '';
+}
+
+function specGrid(stacks: StackSpec[]): Grid {
+  return {
+    headers: ['stack', 'device', 'topology', 'Iout', 'Rout ≥', 'headroom ≤', 'span', 'L range', 'gm/ID range', 'objective', 'σ(Iout)/Iout ≤', 'bias current'],
+    rows: stacks.map((s) => [
+      s.name, polarityName(s.device), s.topology, eng(s.current, 'A'), eng(s.rout, 'Ω'), eng(s.headroom, 'V'), eng(s.span, 'V'),
+      s.l ? `${formatMicrons(s.l.min)} – ${formatMicrons(s.l.max)}${s.l.step ? ` step ${formatMicrons(s.l.step)}` : ''}` : 'table lengths',
+      s.gmid ? `${eng(s.gmid.min, '/V')} – ${eng(s.gmid.max, '/V')}` : 'any',
+      s.objective, s.mismatch === undefined ? '—' : formatPercent(s.mismatch), eng(s.biasCurrent ?? s.current, 'A'),
+    ]),
+  };
+}
+
+function summaryGrid(stacks: StackResult[], specs: Map<string, StackSpec>): Grid {
+  return {
+    headers: ['stack', 'result', 'Iout', 'Rout (target)', 'headroom (target)', 'area'],
+    rows: stacks.map((s) => {
+      const t = specs.get(s.name);
+      return [
+        s.name, s.feasible ? 'meets targets' : 'INFEASIBLE', eng(s.predicted.iout, 'A'),
+        `${eng(s.predicted.rout, 'Ω')}${t ? ` (≥ ${eng(t.rout, 'Ω')})` : ''}`,
+        `${eng(s.predicted.headroom, 'V')}${t ? ` (≤ ${eng(t.headroom, 'V')})` : ''}`,
+        formatArea(s.predicted.area),
+      ];
+    }),
+  };
+}
+
+function stackSection(s: StackResult, input: HtmlReportInput, spec?: StackSpec): string {
+  const front = input.fronts?.find((f) => f.stack === s.name)?.points;
+  const charts = stackCharts(s, spec, front);
+  const badge = s.feasible ? '<span class="badge ok">FEASIBLE</span>' : '<span class="badge bad">INFEASIBLE</span>';
+  const sq = squareLawGrid(s);
+  const corners = cornerGrid(s);
+  return [
+    `<section class="stack" id="stack-${esc(s.name)}">`,
+    `<h2>${esc(s.name)} — ${esc(polarityName(s.device))} ${esc(s.topology)}${badge}</h2>`,
+    `<p class="verdict${s.feasible ? '' : ' bad'}">${esc(verdict(s))}</p>`,
+    `<div class="tables">${htmlTable(deviceGrid(s), 'output stack (bottom first)')}${s.bias.length ? htmlTable(biasGrid(s), 'bias devices') : ''}</div>`,
+    `<div class="tables">${htmlTable(predictedGrid(s), 'predicted')}${sq ? htmlTable(sq, 'lookup table against square law') : ''}${corners ? htmlTable(corners, 'per corner') : ''}</div>`,
+    `<div class="charts">${figure(charts.rout)}${figure(charts.iout)}${figure(charts.pareto)}${figure(charts.area)}</div>`,
+    '</section>',
+  ].join('\n');
+}
+
+/**
+ * One self-contained HTML page (inline CSS and SVG, no scripts, no network)
+ * presenting a sizing run: the caution first, then spec, per-stack results and charts.
+ */
+export function htmlReport(input: HtmlReportInput): string {
+  const { size, spec } = input;
+  const specs = new Map(spec.parsed.stacks.map((s) => [s.name, s]));
+  const design = (input.designCurves ?? []).map((dc, i) => {
+    const c = designCharts(dc, `d${i}-`);
+    return `<h3>${esc(`${dc.kit} · ${polarityName(dc.device)} · ${dc.corner}`)}</h3><div class="charts">${figure(c.gain)}${figure(c.jd)}${figure(c.ft)}</div>`;
+  });
+  const title = `stackwright sizing report — ${size.kit}`;
+  return `<!DOCTYPE html>
+<html lang="en">
+<head>
+<meta charset="utf-8">
+<meta name="viewport" content="width=device-width, initial-scale=1">
+<meta name="generator" content="${esc(input.generatedBy)}">
+<title>${esc(title)}</title>
+<style>${REPORT_CSS}</style>
+</head>
+<body>
+<main>
+<header class="top">
+<h1>${esc(title)}</h1>
+<p class="meta">kit ${esc(size.kit)} · corners ${esc(size.corners.join(', '))} · supply ${esc(eng(size.supply, 'V'))} · spec ${esc(spec.parsed.file)}</p>
+</header>
+<div class="caution" role="note"><strong>CAUTION</strong>${esc(size.caution)}</div>
+${input.notes?.length ? `<ul class="notes">${input.notes.map((n) => `<li>${esc(n)}</li>`).join('')}</ul>` : ''}
+<section id="summary"><h2>Summary</h2>${htmlTable(summaryGrid(size.stacks, specs))}</section>
+<section id="spec"><h2>Specification</h2>${htmlTable(specGrid(spec.parsed.stacks))}
+<details open><summary>source of ${esc(spec.parsed.file)}</summary><pre class="source">${esc(spec.source)}</pre></details></section>
+${size.stacks.map((s) => stackSection(s, input, specs.get(s.name))).join('\n')}
+${design.length ? `<section id="design"><h2>Design curves of the devices used</h2>${design.join('\n')}</section>` : ''}
+<footer>Generated by ${esc(input.generatedBy)}${input.generatedAt ? ` on ${esc(input.generatedAt)}` : ''}. ${esc(size.caution)}</footer>
+</main>
+</body>
+</html>
+`;
+}

@@ -1,0 +1,18 @@
+export { lineChart, buildChart, axisTitle, targetLabel } from './chart.js';
+export type { AxisSpec, XY, LineSeries, ScatterPoint, ScatterSeries, TargetLine, Region, LineChartOptions, ChartBuild, AnyScale } from './chart.js';
+export { linearTicks, logTicks, prefixOf } from './ticks.js';
+export type { Tick, ScaleKind } from './ticks.js';
+export { escapeXml } from './svg.js';
+export { PALETTE, colorAt } from './palette.js';
+export { designCharts, designTitle } from './design-charts.js';
+export type { DesignChartSet } from './design-charts.js';
+export { stackCharts } from './stack-charts.js';
+export type { StackChartSet } from './stack-charts.js';
+export { renderTable, displayWidth, stripAnsi } from './text.js';
+export type { Align, TableOptions } from './text.js';
+export { renderSizeText } from './size-text.js';
+export type { SizeTextOptions } from './size-text.js';
+export { htmlReport, htmlTable } from './html.js';
+export { formatArea, formatMicrons, formatPercent } from './format.js';
+export type { DesignPoint, LengthCurve, DesignCurves, FrontPoint, StackFront, HtmlReportInput } from './types.js';
+export type { Grid } from './rows.js';

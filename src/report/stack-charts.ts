@@ -1,0 +1,93 @@
+import type { StackSpec } from '../spec/types.js';
+import type { StackResult } from '../solve/types.js';
+import { lineChart, targetLabel, type ScatterSeries, type TargetLine } from './chart.js';
+import { formatArea, polarityName } from './format.js';
+import { slug } from './svg.js';
+import type { FrontPoint } from './types.js';
+
+export interface StackChartSet {
+  rout: string;
+  iout: string;
+  /** Present when a front was given. */
+  pareto?: string;
+  area?: string;
+}
+
+function subtitleOf(stack: StackResult): string {
+  return `${polarityName(stack.device)} ${stack.topology}, stack voltage measured from the ${stack.device === 'n' ? 'ground' : 'supply'} rail`;
+}
+
+function headroomGuides(stack: StackResult, spec?: StackSpec): TargetLine[] {
+  const out: TargetLine[] = [];
+  if (spec) out.push({ axis: 'x', value: spec.headroom, label: targetLabel('headroom target', spec.headroom, 'V') });
+  if (Number.isFinite(stack.predicted.headroom)) {
+    out.push({ axis: 'x', value: stack.predicted.headroom, label: targetLabel('this design', stack.predicted.headroom, 'V'), kind: 'mark' });
+  }
+  return out;
+}
+
+/** Rout and Iout against stack voltage, with the targets, and the Pareto front when given. */
+export function stackCharts(stack: StackResult, spec?: StackSpec, front?: FrontPoint[], idPrefix = ''): StackChartSet {
+  const base = slug(`${idPrefix}stack-${stack.name}`);
+  const sub = subtitleOf(stack);
+  const vAxis = { label: 'stack voltage', unit: 'V' };
+  const region = spec ? [{ x: [spec.headroom, spec.span] as [number, number], label: 'targets must hold here' }] : [];
+
+  const rout = lineChart({
+    id: `${base}-rout`, title: `Rout against stack voltage — ${stack.name}`, subtitle: sub, x: vAxis,
+    y: { label: 'Rout', unit: 'Ω', scale: 'log' },
+    series: [{ name: 'Rout (lookup table)', points: stack.curve.map((c) => ({ x: c.v, y: c.rout })) }],
+    targets: [
+      ...(spec ? [{ axis: 'y' as const, value: spec.rout, label: targetLabel('Rout target', spec.rout, 'Ω') }] : []),
+      ...headroomGuides(stack, spec),
+    ],
+    regions: region,
+  });
+
+  const iout = lineChart({
+    id: `${base}-iout`, title: `Output current against stack voltage — ${stack.name}`, subtitle: sub, x: vAxis,
+    y: { label: 'Iout', unit: 'A', zero: true },
+    series: [{ name: 'Iout (lookup table)', points: stack.curve.map((c) => ({ x: c.v, y: c.iout })) }],
+    targets: [
+      ...(spec ? [{ axis: 'y' as const, value: spec.current, label: targetLabel('Iout target', spec.current, 'A') }] : []),
+      ...headroomGuides(stack, spec),
+    ],
+    regions: region,
+  });
+
+  if (!front || front.length === 0) return { rout, iout };
+  const chosen: ScatterSeries = {
+    name: `chosen (${formatArea(stack.predicted.area)})`,
+    points: [{ x: stack.predicted.headroom, y: stack.predicted.rout, size: stack.predicted.area, highlight: true }],
+    color: '#000000',
+  };
+  const byTopology = new Map<string, FrontPoint[]>();
+  for (const p of front) {
+    const key = p.topology ?? stack.topology;
+    byTopology.set(key, [...(byTopology.get(key) ?? []), p]);
+  }
+  const groups = [...byTopology.entries()];
+  const drawChosen = Number.isFinite(stack.predicted.headroom) && stack.predicted.rout > 0;
+  const spread = (pick: (p: FrontPoint) => number): ScatterSeries[] =>
+    groups.map(([topology, pts]) => ({ name: `front: ${topology}`, points: pts.map((p) => ({ x: p.headroom, y: pick(p), size: p.area })) }));
+  const pareto = lineChart({
+    id: `${base}-pareto`, title: `Pareto front: headroom against Rout — ${stack.name}`, subtitle: 'each point a candidate no other beats on headroom, Rout and area',
+    x: { label: 'headroom', unit: 'V' }, y: { label: 'Rout at headroom', unit: 'Ω', scale: 'log' },
+    scatter: [...spread((p) => p.rout), ...(drawChosen ? [chosen] : [])],
+    targets: spec ? [
+      { axis: 'y', value: spec.rout, label: targetLabel('Rout target', spec.rout, 'Ω') },
+      { axis: 'x', value: spec.headroom, label: targetLabel('headroom target', spec.headroom, 'V') },
+    ] : [],
+    note: 'marker area ∝ device area',
+  });
+  const area = lineChart({
+    id: `${base}-area`, title: `Area against headroom — ${stack.name}`, subtitle: 'the same front; the price of each volt of headroom',
+    x: { label: 'headroom', unit: 'V' }, y: { label: 'area W·L', unit: 'µm²', scale: 'log', si: false },
+    scatter: [
+      ...spread((p) => p.area * 1e12),
+      ...(drawChosen ? [{ ...chosen, points: [{ ...chosen.points[0], y: stack.predicted.area * 1e12 }] }] : []),
+    ],
+    targets: spec ? [{ axis: 'x', value: spec.headroom, label: targetLabel('headroom target', spec.headroom, 'V') }] : [],
+  });
+  return { rout, iout, pareto, area };
+}

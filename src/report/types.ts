@@ -1,0 +1,60 @@
+import type { DesignSpec } from '../spec/types.js';
+import type { Polarity } from '../table/types.js';
+import type { SizeResult } from '../solve/types.js';
+import type { Topology } from '../spec/types.js';
+
+/** One point of a design curve at fixed L, VDS, VSB (SI; ft NaN/absent without capacitances). */
+export interface DesignPoint {
+  vgs: number;
+  gmid: number;
+  gain: number;
+  jd: number;
+  ft?: number;
+}
+
+export interface LengthCurve {
+  l: number;
+  points: DesignPoint[];
+}
+
+/** Design curves of one device of one kit and corner, one curve per length. */
+export interface DesignCurves {
+  kit: string;
+  device: Polarity;
+  corner: string;
+  vds: number;
+  vsb: number;
+  curves: LengthCurve[];
+}
+
+/** One non-dominated candidate of a stack's search. */
+export interface FrontPoint {
+  headroom: number;
+  rout: number;
+  /** Output-stack area W·L summed, m². */
+  area: number;
+  topology?: Topology;
+  /** Lengths of the output devices, bottom first, m. */
+  l?: number[];
+}
+
+export interface StackFront {
+  /** StackResult.name it belongs to. */
+  stack: string;
+  points: FrontPoint[];
+}
+
+export interface HtmlReportInput {
+  /** The parsed spec and the text it was parsed from. */
+  spec: { parsed: DesignSpec; source: string };
+  size: SizeResult;
+  fronts?: StackFront[];
+  /** Design curves of each device used (at the nominal corner). */
+  designCurves?: DesignCurves[];
+  /** Program and version (and command) that made the report. */
+  generatedBy: string;
+  /** Passed in (not read from the clock) so reports are reproducible. */
+  generatedAt?: string;
+  /** Extra lines for the header, e.g. "kit demo180: invented demonstration data, not a real process". */
+  notes?: string[];
+}
