@@ -1,0 +1,10 @@
+export type { LengthSlice, OperatingPoint } from './types.js';
+export { TableSlice, sliceAt } from './slice.js';
+export { lengthPlane, LOG_ALONG_VGS } from './plane.js';
+export type { LengthPlane } from './plane.js';
+export { nodeDerivative } from './difference.js';
+export { solveBracket } from './bracket.js';
+export { probe, vgsFor, defaultVds } from './probe.js';
+export type { ProbeQuery, ProbeResult, VgsTarget } from './probe.js';
+export { designCurves } from './curves.js';
+export type { CurveOptions, DesignCurve, DesignPoint } from './curves.js';

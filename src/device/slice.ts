@@ -1,0 +1,187 @@
+import { AxisLocator } from '../table/axis.js';
+import { rangeError, tableLabel } from '../table/range-error.js';
+import { formatEng } from '../units/index.js';
+import type { DeviceTable, StoredQuantity } from '../table/types.js';
+import type { LengthSlice, OperatingPoint } from './types.js';
+import { LOG_ALONG_VGS, lengthPlane } from './plane.js';
+import type { LengthPlane } from './plane.js';
+
+/**
+ * How a slice reads a table (the README quotes this):
+ *
+ * - Across L, for L between two table lengths: log–log, ln(value) linear in ln L,
+ *   because currents, conductances and capacitances follow power laws in L; the
+ *   result is bounded by the two neighbours. Values ≤ 0 fall back to linear in ln L.
+ *   The merged plane is built once per slice, so a query touches one plane.
+ * - Within the plane: bilinear in (vds, vsb) on the value at the two VGS
+ *   neighbours, then along VGS geometric (ln value linear in VGS) for id, gm,
+ *   gds and gmb when both neighbours are > 0, as they vary exponentially in weak
+ *   inversion; linear otherwise. Capacitances are plain trilinear.
+ * - Missing gm, gds or gmb are estimated from id by central differences in the
+ *   plane (gmb = −∂id/∂vsb), never taken as 0; see `estimated`.
+ * - Out of range on any axis throws StackwrightError kind 'range'; nothing is extrapolated.
+ *
+ * Everything is per metre of width: table value / referenceWidth.
+ */
+export class TableSlice implements LengthSlice {
+  readonly l: number;
+  readonly table: DeviceTable;
+  readonly range: { vgs: [number, number]; vds: [number, number]; vsb: [number, number] };
+  /** Conductances estimated because the table lacks them, with how. */
+  readonly estimated: Partial<Record<StoredQuantity, string>>;
+  private readonly plane: LengthPlane;
+  private readonly perW: number;
+  private readonly lg: AxisLocator;
+  private readonly ld: AxisLocator;
+  private readonly ls: AxisLocator;
+  private readonly sG: number;
+  private readonly sD: number;
+  private readonly sS: number;
+  private readonly label: string;
+  // Cell of the last locate(): base offset and fractions.
+  private base = 0;
+  private tg = 0;
+  private td = 0;
+  private ts = 0;
+  private readonly scratch = new Float64Array(4);
+  // Direct references for the hot path.
+  private readonly pId: Float64Array;
+  private readonly pGm: Float64Array;
+  private readonly pGds: Float64Array;
+  private readonly pGmb: Float64Array;
+
+  constructor(table: DeviceTable, l: number) {
+    this.table = table;
+    this.plane = lengthPlane(table, l);
+    this.l = l;
+    this.label = tableLabel(table.meta);
+    this.estimated = this.plane.estimated;
+    this.perW = 1 / table.meta.referenceWidth;
+    const q = this.plane.q;
+    this.pId = q.id;
+    // plane.ts fills any missing conductance with an estimate, so these exist.
+    this.pGm = q.gm as Float64Array;
+    this.pGds = q.gds as Float64Array;
+    this.pGmb = q.gmb as Float64Array;
+    this.lg = new AxisLocator(table.axes.vgs);
+    this.ld = new AxisLocator(table.axes.vds);
+    this.ls = new AxisLocator(table.axes.vsb);
+    const [, nd, ns] = this.plane.dims;
+    this.sS = this.ls.step;
+    this.sD = this.ld.step * ns;
+    this.sG = this.lg.step * nd * ns;
+    this.range = {
+      vgs: [this.lg.lo, this.lg.hi],
+      vds: [this.ld.lo, this.ld.hi],
+      vsb: [this.ls.lo, this.ls.hi],
+    };
+  }
+
+  /** Whether the table stores (or this slice estimated) a quantity. */
+  has(q: StoredQuantity): boolean {
+    return this.plane.q[q] !== undefined;
+  }
+
+  jd(vgs: number, vds: number, vsb: number): number {
+    this.locate(vgs, vds, vsb);
+    return this.eval(this.pId, true) * this.perW;
+  }
+
+  small(vgs: number, vds: number, vsb: number, out?: Float64Array): Float64Array {
+    const res = out ?? new Float64Array(4);
+    this.locate(vgs, vds, vsb);
+    const k = this.perW;
+    res[0] = this.eval(this.pId, true) * k;
+    res[1] = this.eval(this.pGm, true) * k;
+    res[2] = this.eval(this.pGds, true) * k;
+    res[3] = this.eval(this.pGmb, true) * k;
+    return res;
+  }
+
+  /** One quantity at the reference width (NaN when the table lacks it). */
+  value(q: StoredQuantity, vgs: number, vds: number, vsb: number): number {
+    const block = this.plane.q[q];
+    this.locate(vgs, vds, vsb);
+    return block ? this.eval(block, LOG_ALONG_VGS.has(q)) : NaN;
+  }
+
+  op(vgs: number, vds: number, vsb: number, w: number): OperatingPoint {
+    const s = this.small(vgs, vds, vsb, this.scratch);
+    const q = this.plane.q;
+    const scale = w * this.perW;
+    const cap = (b: Float64Array | undefined): number => (b ? this.eval(b, false) * scale : NaN);
+    const id = s[0] * w;
+    const gm = s[1] * w;
+    const gds = s[2] * w;
+    const cgg = cap(q.cgg);
+    return {
+      l: this.l, w, vgs, vds, vsb,
+      id, gm, gds, gmb: s[3] * w,
+      cgg, cgs: cap(q.cgs), cgd: cap(q.cgd), cdd: cap(q.cdd),
+      gmid: gm / id,
+      jd: s[0],
+      gain: gm / gds,
+      ft: gm / (2 * Math.PI * cgg),
+    };
+  }
+
+  private locate(vgs: number, vds: number, vsb: number): void {
+    const ig = this.lg.locate(vgs);
+    if (ig < 0) throw rangeError('vgs', vgs, this.lg.lo, this.lg.hi, 'V', this.where());
+    const id = this.ld.locate(vds);
+    if (id < 0) throw rangeError('vds', vds, this.ld.lo, this.ld.hi, 'V', this.where());
+    const is = this.ls.locate(vsb);
+    if (is < 0) throw rangeError('vsb', vsb, this.ls.lo, this.ls.hi, 'V', this.where());
+    const [, nd, ns] = this.plane.dims;
+    this.base = (ig * nd + id) * ns + is;
+    this.tg = this.lg.t;
+    this.td = this.ld.t;
+    this.ts = this.ls.t;
+  }
+
+  private where(): string {
+    return `${this.label} at l = ${formatEng(this.l, 'm', 6)}`;
+  }
+
+  // Bilinear in (vds, vsb) at both VGS neighbours, then geometric or linear along VGS.
+  private eval(p: Float64Array, logVgs: boolean): number {
+    const b = this.base;
+    const a = this.bilinear(p, b);
+    const c = this.bilinear(p, b + this.sG);
+    const t = this.tg;
+    if (t === 0) return a;
+    if (t === 1) return c;
+    // a·(c/a)^t is exp((1−t)·ln a + t·ln c) with one log fewer.
+    if (logVgs && a > 0 && c > 0) return a * Math.exp(t * Math.log(c / a));
+    return (1 - t) * a + t * c;
+  }
+
+  private bilinear(p: Float64Array, b: number): number {
+    const u = this.td;
+    const v = this.ts;
+    const sD = this.sD;
+    const sS = this.sS;
+    const lo = (1 - v) * p[b] + v * p[b + sS];
+    const hi = (1 - v) * p[b + sD] + v * p[b + sD + sS];
+    return (1 - u) * lo + u * hi;
+  }
+}
+
+const slices = new WeakMap<DeviceTable, Map<number, TableSlice>>();
+/** Enough for a solver's L sweep; older slices are dropped first. */
+const MAX_SLICES_PER_TABLE = 64;
+
+/** The slice of `table` at channel length `l` (m), cached per table and L. */
+export function sliceAt(table: DeviceTable, l: number): TableSlice {
+  let byL = slices.get(table);
+  if (!byL) {
+    byL = new Map();
+    slices.set(table, byL);
+  }
+  const hit = byL.get(l);
+  if (hit) return hit;
+  const s = new TableSlice(table, l);
+  if (byL.size >= MAX_SLICES_PER_TABLE) byL.delete(byL.keys().next().value as number);
+  byL.set(l, s);
+  return s;
+}

@@ -1,0 +1,13 @@
+export * from './types.js';
+export { AxisLocator } from './axis.js';
+export { RegularGridInterpolator } from './grid.js';
+export type { GridOptions, OutOfBounds } from './grid.js';
+export { rangeError, tableLabel } from './range-error.js';
+export { validateTable, checkAxes, checkMeta, pointName } from './validate.js';
+export { MAGIC, encodeTable, decodeTable, decodeHeader } from './codec.js';
+export type { TableHeader, BlockLayout } from './codec.js';
+export {
+  TABLE_EXT, tablePath, writeTable, readTable, readTableHeader, listKits, listTables, loadTable, clearTableCache,
+} from './store.js';
+export { kitInventory } from './inventory.js';
+export type { KitSummary, TableSummary } from './inventory.js';
