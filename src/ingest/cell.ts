@@ -1,0 +1,36 @@
+import { StackwrightError } from '../errors.js';
+import { parseEng } from '../units/index.js';
+
+/**
+ * A cell to a finite number: plain `Number` first (the common case, fast),
+ * then SPICE scale suffixes (`0.18u`), then a decimal comma when the file is
+ * semicolon-separated. Returns NaN when none applies; the caller reports where.
+ */
+export function readCell(cell: string, decimalComma: boolean): number {
+  const v = +cell;
+  if (v - v === 0 && (v !== 0 || /\d/.test(cell))) return v;
+  return slowCell(cell, decimalComma);
+}
+
+function slowCell(cell: string, decimalComma: boolean): number {
+  const t = cell.trim();
+  if (t === '') return NaN;
+  const text = decimalComma && /^[+-]?\d*,\d/.test(t) ? t.replace(',', '.') : t;
+  try {
+    return parseEng(text);
+  } catch {
+    return NaN;
+  }
+}
+
+export function badCell(cell: string, header: string, where: string): StackwrightError {
+  const t = cell.trim();
+  if (t === '') return new StackwrightError(`column "${header}": empty cell, expected a number`, { where });
+  let why = `"${t}" is not a finite number`;
+  try {
+    parseEng(t);
+  } catch (e) {
+    if (/ambiguous/.test((e as Error).message)) why = (e as Error).message;
+  }
+  return new StackwrightError(`column "${header}": ${why}`, { where });
+}

@@ -1,0 +1,96 @@
+import { StackwrightError } from '../errors.js';
+import { QUANTITIES, type Quantity } from './types.js';
+import { unitExamples, unitScale } from './units.js';
+
+/** Spellings seen in sweep exports, after lower-casing and dropping spaces, '_', '-', '.'. */
+const ALIASES: Record<string, Quantity> = {
+  l: 'l', length: 'l', lg: 'l', lch: 'l',
+  w: 'w', width: 'w', wg: 'w',
+  vgs: 'vgs', vds: 'vds', vsb: 'vsb', vbs: 'vbs',
+  id: 'id', ids: 'id', idrain: 'id',
+  gm: 'gm', gds: 'gds', gmb: 'gmb', gmbs: 'gmb',
+  cgg: 'cgg', cgs: 'cgs', cgd: 'cgd', cdd: 'cdd',
+};
+
+export interface ColumnSpec {
+  index: number;
+  header: string;
+  quantity: Quantity;
+  /** Multiply values by this to get SI. */
+  scale: number;
+  /** Map key that selected this column, if any. */
+  mapKey?: string;
+}
+
+/** Split "L [um]" / "vgs(V)" into name and unit; "@m1[gm]" (simulator op-point names) into the parameter. */
+export function splitHeader(header: string): { name: string; unit?: string } {
+  const h = header.trim();
+  const op = /^@[^[]*\[([^\]]+)\]$/.exec(h);
+  if (op) return { name: op[1] };
+  const m = /^(.*?)\s*[[(]\s*([^\])]*?)\s*[\])]$/.exec(h);
+  if (m && m[1] !== '') return { name: m[1], unit: m[2] };
+  return { name: h };
+}
+
+function squash(name: string): string {
+  return name.toLowerCase().replace(/[\s_.-]+/g, '');
+}
+
+export function checkMap(map: Record<string, string> | undefined): Map<string, Quantity> {
+  const out = new Map<string, Quantity>();
+  for (const [header, value] of Object.entries(map ?? {})) {
+    const q = value.trim().toLowerCase();
+    if (!(QUANTITIES as readonly string[]).includes(q)) {
+      throw new StackwrightError(`unknown quantity "${value}" for header "${header}"; valid quantities: ${QUANTITIES.join(', ')}`, { where: '--map' });
+    }
+    out.set(header.trim().toLowerCase(), q as Quantity);
+  }
+  return out;
+}
+
+/**
+ * Decide which header cell feeds which quantity. Mapped headers win over
+ * recognised names; two columns for one quantity is an error.
+ * `where(i)` gives the location of header cell i for messages.
+ */
+export function matchHeaders(headers: string[], map: Map<string, Quantity>, where: (i: number) => string): ColumnSpec[] {
+  const chosen = new Map<Quantity, ColumnSpec>();
+  const mappedQ = new Set<Quantity>();
+  headers.forEach((header, index) => {
+    const { name, unit } = splitHeader(header);
+    const key = header.trim().toLowerCase();
+    const mapKey = map.has(key) ? key : map.has(name.trim().toLowerCase()) ? name.trim().toLowerCase() : undefined;
+    let quantity: Quantity | undefined;
+    let scale = 1;
+    if (mapKey !== undefined) {
+      quantity = map.get(mapKey)!;
+      // Mapped by full text, brackets may be part of a simulator name (i(vd)): scale only when they read as a unit.
+      if (unit !== undefined) scale = mapKey === key ? unitScale(unit, quantity) ?? 1 : requireUnit(unit, quantity, header, where(index));
+      mappedQ.add(quantity);
+    } else {
+      quantity = ALIASES[squash(name)];
+      if (quantity === undefined) return;
+      if (unit !== undefined) scale = requireUnit(unit, quantity, header, where(index));
+      if (mappedQ.has(quantity)) return;
+    }
+    const prev = chosen.get(quantity);
+    if (prev && !(mapKey !== undefined && prev.mapKey === undefined)) {
+      throw new StackwrightError(`columns "${prev.header}" and "${header}" both give ${quantity}; remove one or use --map`, { where: where(index) });
+    }
+    chosen.set(quantity, { index, header, quantity, scale, mapKey });
+  });
+  const vsb = chosen.get('vsb');
+  const vbs = chosen.get('vbs');
+  if (vsb && vbs) {
+    throw new StackwrightError(`columns "${vsb.header}" and "${vbs.header}" both give the body bias; keep one`, { where: where(vbs.index) });
+  }
+  return [...chosen.values()].sort((a, b) => a.index - b.index);
+}
+
+function requireUnit(unit: string, q: Quantity, header: string, where: string): number {
+  const s = unitScale(unit, q);
+  if (s === undefined) {
+    throw new StackwrightError(`column "${header}": unit "${unit}" does not fit ${q} (use ${unitExamples(q)})`, { where });
+  }
+  return s;
+}

@@ -1,0 +1,134 @@
+import { StackwrightError, at } from '../errors.js';
+import { badCell, readCell } from './cell.js';
+import { cellColumn, detectDelimiter } from './delimiter.js';
+import { checkMap, matchHeaders, type ColumnSpec } from './headers.js';
+import { forEachRow } from './rows.js';
+import { normaliseSigns } from './signs.js';
+import { countLines, decode, findHeader, lineAt } from './text.js';
+import type { Quantity, Samples, SweepOptions } from './types.js';
+
+const REQUIRED: readonly Quantity[] = ['l', 'vgs', 'vds', 'id'];
+const PROGRESS_EVERY = 65536;
+
+/** One long-format sweep file (any column order) to columns in SI magnitudes. */
+export function parseSweep(input: string | Buffer, file: string, opts: SweepOptions): Samples {
+  const { text, sha256 } = decode(input, file);
+  input = ''; // let a large raw buffer go while the text is parsed
+  const head = findHeader(text);
+  if (!head) {
+    throw new StackwrightError(text.trim() === '' ? 'file is empty' : 'no header line (only comments and blank lines)', { where: file });
+  }
+  const delimiter = detectDelimiter(head.text);
+  const map = checkMap(opts.map);
+  const totalLines = countLines(text);
+  const capacity = Math.max(0, totalLines - head.line);
+  const lines = new Int32Array(capacity);
+  let headers: string[] = [];
+  let specs: ColumnSpec[] = [];
+  let store: Float64Array[] = [];
+  let rows = 0;
+  const whereCell = (line: number, index: number): string => at(file, line, cellColumn(lineAt(text, line), delimiter, index));
+
+  // Hot loop: per-column facts in flat arrays, no per-cell closures.
+  let idx = new Int32Array(0);
+  let scale = new Float64Array(0);
+  let positive = new Uint8Array(0);
+  const decimalComma = delimiter === ';';
+  forEachRow(text, delimiter, (fields, line) => {
+    if (line <= head.line) {
+      if (line === head.line) {
+        headers = fields.map((h) => h.trim());
+        specs = matchHeaders(headers, map, (i) => whereCell(line, i));
+        checkRequired(specs, headers, opts.width, at(file, line));
+        store = specs.map(() => new Float64Array(capacity));
+        idx = Int32Array.from(specs, (c) => c.index);
+        scale = Float64Array.from(specs, (c) => c.scale);
+        positive = Uint8Array.from(specs, (c) => (c.quantity === 'l' || c.quantity === 'w' ? 1 : 0));
+      }
+      return;
+    }
+    const f0 = fields[0];
+    let c0 = f0.charCodeAt(0);
+    if (c0 === 32 || c0 === 9) c0 = f0.trimStart().charCodeAt(0);
+    if (c0 === 35 || c0 === 42) return; // '#' or '*' comment
+    if (fields.length !== headers.length) {
+      if (fields.length === 1 && f0.trim() === '') return; // blank line
+      if (!tolerableWidth(fields, headers.length)) {
+        throw new StackwrightError(`expected ${headers.length} cells as in the header, found ${fields.length}`, { where: at(file, line) });
+      }
+    }
+    for (let j = 0; j < idx.length; j++) {
+      const cell = fields[idx[j]];
+      let v = +cell;
+      if (v - v !== 0 || (v === 0 && !hasDigit(cell))) {
+        v = readCell(cell, decimalComma);
+        if (v !== v) throw badCell(cell, specs[j].header, whereCell(line, idx[j]));
+      }
+      v *= scale[j];
+      if (positive[j] === 1 && !(v > 0)) {
+        const what = specs[j].quantity === 'l' ? 'length' : 'width';
+        throw new StackwrightError(`column "${specs[j].header}": ${what} must be positive, got ${cell.trim()}`, { where: whereCell(line, idx[j]) });
+      }
+      store[j][rows] = v;
+    }
+    lines[rows++] = line;
+    if (opts.onProgress && rows % PROGRESS_EVERY === 0) opts.onProgress(line, totalLines);
+  });
+
+  if (rows === 0) throw new StackwrightError('header but no data rows', { where: at(file, head.line) });
+  const columns = {} as Partial<Record<Quantity, Float64Array>>;
+  const source: Partial<Record<Quantity, string>> = {};
+  specs.forEach((s, j) => {
+    columns[s.quantity] = store[j].subarray(0, rows);
+    source[s.quantity] = s.header;
+  });
+  if (columns.vbs) {
+    // vsb = -vbs; PMOS signs are handled below like a vsb column.
+    const vbs = columns.vbs;
+    for (let i = 0; i < rows; i++) vbs[i] = vbs[i] === 0 ? 0 : -vbs[i];
+    columns.vsb = vbs;
+    source.vsb = source.vbs;
+    delete columns.vbs;
+    delete source.vbs;
+  }
+  if (!columns.vsb) columns.vsb = new Float64Array(rows);
+  const cols = columns as Samples['columns'];
+  normaliseSigns(cols, opts.device);
+  opts.onProgress?.(totalLines, totalLines);
+  return {
+    file,
+    sha256,
+    rows,
+    columns: cols,
+    lines: lines.subarray(0, rows),
+    headers,
+    source,
+    mapped: specs.filter((s) => s.mapKey !== undefined).map((s) => s.mapKey!),
+  };
+}
+
+function hasDigit(cell: string): boolean {
+  for (let i = 0; i < cell.length; i++) {
+    const c = cell.charCodeAt(i);
+    if (c >= 48 && c <= 57) return true;
+  }
+  return false;
+}
+
+// A trailing delimiter ("1,2,3,") gives one extra empty cell: accept it.
+function tolerableWidth(fields: string[], n: number): boolean {
+  if (fields.length < n) return false;
+  for (let i = n; i < fields.length; i++) if (fields[i].trim() !== '') return false;
+  return true;
+}
+
+function checkRequired(specs: ColumnSpec[], headers: string[], width: number | undefined, where: string): void {
+  const have = new Set(specs.map((s) => s.quantity));
+  if (have.has('vbs')) have.add('vsb');
+  const need = width === undefined ? [...REQUIRED, 'w' as const] : REQUIRED;
+  const missing = need.filter((q) => !have.has(q));
+  if (missing.length === 0) return;
+  const seen = headers.map((h) => `"${h}"`).join(', ');
+  const hint = missing.includes('w') && missing.length === 1 ? ' (or pass --width)' : ' (use --map HEADER=QUANTITY for other names)';
+  throw new StackwrightError(`missing column ${missing.join(', ')}${hint}; headers seen: ${seen}`, { where });
+}

@@ -1,0 +1,450 @@
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { gzipSync } from 'node:zlib';
+import { describe, expect, it } from 'vitest';
+import { StackwrightError } from '../src/errors.js';
+import { ingestFiles, ingestTexts, parseSweep, pchip, slopeAt, slopeStencil, type IngestOptions } from '../src/ingest/index.js';
+import { flatIndex, type DeviceTable } from '../src/table/types.js';
+
+// All sweep data below is invented for the tests (analytic device laws), not from any process.
+const FIX = join(import.meta.dirname, 'fixtures', 'ingest');
+const REF = JSON.parse(readFileSync(join(FIX, 'scipy-reference.json'), 'utf8')) as {
+  pchip: Array<{ x: number[]; y: number[]; t: number[]; v: number[] }>;
+  savgol: Array<{ h: number; x: number[]; y: number[]; dy: number[] }>;
+};
+const N: IngestOptions = { kit: 'invented', device: 'n' };
+const P: IngestOptions = { kit: 'invented', device: 'p' };
+
+// Square law in saturation, id = K·(vgs−vt)²·(1+λ·vds) (Shichman–Hodges level 1, textbook form).
+const K = 2e-4;
+const VT = 0.45;
+const LAMBDA = 0.1;
+const squareLaw = (vgs: number, vds: number) => K * (vgs - VT) ** 2 * (1 + LAMBDA * vds);
+
+const range = (a: number, b: number, step: number) => {
+  const out: number[] = [];
+  for (let k = 0; a + k * step <= b + 1e-12; k++) out.push(Math.round((a + k * step) * 1e9) / 1e9);
+  return out;
+};
+
+/** Long-format rows l, w, vgs, vds, vsb, id from a law id(l, vgs, vds, vsb). */
+function sweep(ls: number[], vgs: number[], vds: number[], vsb: number[], law: (l: number, g: number, d: number, s: number) => number): number[][] {
+  const rows: number[][] = [];
+  for (const l of ls) for (const g of vgs) for (const d of vds) for (const s of vsb) rows.push([l, 1e-6, g, d, s, law(l, g, d, s)]);
+  return rows;
+}
+
+const csv = (header: string, rows: Array<Array<number | string>>, sep = ',', eol = '\n') =>
+  [header, ...rows.map((r) => r.join(sep))].join(eol) + eol;
+
+function errorOf(fn: () => unknown): StackwrightError {
+  try {
+    fn();
+  } catch (e) {
+    expect(e).toBeInstanceOf(StackwrightError);
+    const err = e as StackwrightError;
+    expect(err.message).not.toMatch(/\n/); // one line
+    return err;
+  }
+  throw new Error('expected a StackwrightError');
+}
+
+const value = (t: DeviceTable, q: 'id' | 'gm' | 'gds' | 'gmb', il: number, ig: number, id: number, is = 0) => t.data[q]![flatIndex(t.axes, il, ig, id, is)];
+
+const BASE_ROWS = sweep([0.18e-6, 0.5e-6], range(0.6, 1.2, 0.1), range(0.6, 1.2, 0.2), [0], (_l, g, d) => squareLaw(g, d));
+const BASE = ingestTexts([{ file: 'base.csv', text: csv('l,w,vgs,vds,vsb,id', BASE_ROWS) }], N);
+
+function expectSameTable(a: DeviceTable, b: DeviceTable) {
+  for (const axis of ['l', 'vgs', 'vds', 'vsb'] as const) expect(Array.from(a.axes[axis])).toEqual(Array.from(b.axes[axis]));
+  const ai = a.data.id;
+  const bi = b.data.id;
+  expect(ai.length).toBe(bi.length);
+  for (let i = 0; i < ai.length; i++) expect(ai[i] / bi[i]).toBeCloseTo(1, 12);
+}
+
+describe('ingest: header names and units', () => {
+  it('reads shuffled columns with units in brackets or parentheses and scales them', () => {
+    // SI prefixes u=1e-6, m=1e-3, f=1e-15 (SI Brochure, BIPM, table of prefixes).
+    const rows = BASE_ROWS.map(([l, w, g, d, , id]) => [id * 1e6, d * 1e3, g, w * 1e6, l * 1e6, 2 * id * 1e6, 1.5e-15 * 1e15]);
+    const text = csv('Id (uA),Vds [mV],VGS(V),W[um],Length (um),gm [uS],cgg [fF]', rows);
+    const t = ingestTexts([{ file: 'units.csv', text }], N);
+    expectSameTable(t, BASE);
+    expect(value(t, 'gm', 0, 0, 0) / (2 * squareLaw(0.6, 0.6))).toBeCloseTo(1, 9);
+    expect(t.data.cgg![0] / 1.5e-15).toBeCloseTo(1, 9);
+    expect(t.meta.derived.gm).toBeUndefined();
+    expect(t.meta.referenceWidth).toBeCloseTo(1e-6, 15);
+  });
+
+  it('recognises simulator op-point names like @m1[gm] and vbs instead of vsb', () => {
+    // vsb = −vbs by definition of the terminal voltages (common practice).
+    const rows = BASE_ROWS.map(([l, w, g, d, , id]) => [l, w, g, d, -0.2, id]);
+    const t = ingestTexts([{ file: 'op.csv', text: csv('@m1[l],@m1[w],@m1[vgs],@m1[vds],@m1[vbs],@m1[id]', rows) }], N);
+    expect(Array.from(t.axes.vsb)).toEqual([0.2]);
+  });
+
+  it('does not guess i(vd)-style names, but takes them through map (and flips a negative NMOS drain current)', () => {
+    const rows = BASE_ROWS.map(([l, w, g, d, s, id]) => [l, w, g, d, s, -id]);
+    const text = csv('l,w,vgs,vds,vsb,i(vd)', rows);
+    const err = errorOf(() => ingestTexts([{ file: 'i.csv', text }], N));
+    expect(err.message).toMatch(/^i\.csv:1: missing column id .*"i\(vd\)"/);
+    // Current measured through the drain source comes out negative for NMOS (SPICE convention, common practice).
+    const t = ingestTexts([{ file: 'i.csv', text }], { ...N, map: { 'i(vd)': 'id' } });
+    expectSameTable(t, BASE);
+  });
+
+  it('rejects a unit that does not fit the quantity, naming the column', () => {
+    const text = csv('l [V],w,vgs,vds,vsb,id', BASE_ROWS);
+    const err = errorOf(() => ingestTexts([{ file: 'u.csv', text }], N));
+    expect(err.message).toMatch(/^u\.csv:1:1: column "l \[V\]": unit "V"/);
+  });
+
+  it('rejects an unknown map quantity listing the valid ones, and a map header found nowhere', () => {
+    const text = csv('l,w,vgs,vds,vsb,id', BASE_ROWS);
+    const err = errorOf(() => ingestTexts([{ file: 'm.csv', text }], { ...N, map: { 'i(vd)': 'drain' } }));
+    expect(err.message).toMatch(/^--map: unknown quantity "drain".*valid quantities: l, w, vgs, vds, vsb, vbs, id, gm/);
+    const err2 = errorOf(() => ingestTexts([{ file: 'm.csv', text }], { ...N, map: { 'i(vx)': 'gm' } }));
+    expect(err2.message).toMatch(/^--map: header "i\(vx\)" is in no input file/);
+  });
+
+  it('rejects two columns for one quantity', () => {
+    const text = csv('l,w,vgs,vds,vsb,id,ids', BASE_ROWS.map((r) => [...r, r[5]]));
+    const err = errorOf(() => ingestTexts([{ file: 'd.csv', text }], N));
+    expect(err.message).toMatch(/^d\.csv:1:20: columns "id" and "ids" both give id/);
+  });
+});
+
+describe('ingest: text formats', () => {
+  const header = 'l,w,vgs,vds,vsb,id';
+  it('reads SPICE scale suffixes in cells', () => {
+    // SPICE3 scale factors: u = 1e-6, n = 1e-9 (Berkeley SPICE3 user's manual, number formats).
+    const rows = BASE_ROWS.map(([l, , g, d, s, id]) => [`${Math.round(l * 1e8) / 100}u`, '1u', g, d, s, `${id * 1e9}n`]);
+    expectSameTable(ingestTexts([{ file: 's.csv', text: csv(header, rows) }], N), BASE);
+  });
+
+  it('reads semicolon, tab and whitespace-run delimiters alike', () => {
+    expectSameTable(ingestTexts([{ file: 'a.csv', text: csv(header.replace(/,/g, ';'), BASE_ROWS, ';') }], N), BASE);
+    expectSameTable(ingestTexts([{ file: 'a.tsv', text: csv(header.replace(/,/g, '\t'), BASE_ROWS, '\t') }], N), BASE);
+    const padded = ['  l   w  vgs vds   vsb id', ...BASE_ROWS.map((r) => '  ' + r.join('   \t '))].join('\n');
+    expectSameTable(ingestTexts([{ file: 'a.txt', text: padded }], N), BASE);
+  });
+
+  it('reads a decimal comma in semicolon files', () => {
+    const rows = BASE_ROWS.map((r) => r.map((x) => String(x).replace('.', ',')));
+    expectSameTable(ingestTexts([{ file: 'eu.csv', text: csv(header.replace(/,/g, ';'), rows, ';') }], N), BASE);
+  });
+
+  it('handles a UTF-8 BOM, CRLF, # and * comments and blank lines, and counts physical lines', () => {
+    const body = csv(header, BASE_ROWS, ',', '\r\n');
+    const text = '\ufeff# invented\r\n* also a comment\r\n\r\n' + body.replace('\r\n', '\r\n\r\n# mid\r\n');
+    expectSameTable(ingestTexts([{ file: 'b.csv', text }], N), BASE);
+    // Line 7 is the first data row after: 2 comments, 1 blank, header (4), blank (5), comment (6).
+    const broken = text.replace(/\r\n# mid\r\n([^,]+),([^,]+),([^,]+),/, '\r\n# mid\r\n$1,$2,x,');
+    const err = errorOf(() => ingestTexts([{ file: 'b.csv', text: broken }], N));
+    const c = `${BASE_ROWS[0][0]},${BASE_ROWS[0][1]},`.length + 1;
+    expect(err.message).toBe(`b.csv:7:${c}: column "vgs": "x" is not a finite number`);
+  });
+
+  it('reads the same table from a gzip file and records the sha256 of the raw bytes', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'ingest-'));
+    try {
+      const file = join(dir, 'sweep.csv.gz');
+      writeFileSync(file, gzipSync(csv(header, BASE_ROWS)));
+      const t = ingestFiles([file], N);
+      expectSameTable(t, BASE);
+      // Independent digest from coreutils sha256sum (FIPS 180-4).
+      const digest = execFileSync('sha256sum', [file], { encoding: 'utf8' }).split(' ')[0];
+      expect(t.meta.sources).toEqual([{ file, sha256: digest, rows: BASE_ROWS.length }]);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+
+  it('reads the committed fixture file and fills the metadata', () => {
+    const file = join(FIX, 'invented-nmos.csv');
+    const t = ingestFiles([file], { ...N, corner: 'ff', temperature: 27, note: 'invented', mismatch: { avt: 5e-9, abeta: 1e-8 } });
+    expectSameTable(t, BASE);
+    expect(t.meta).toMatchObject({
+      format: 'stackwright-table', version: 1, kit: 'invented', device: 'n', corner: 'ff', temperature: 27,
+      note: 'invented', mismatch: { avt: 5e-9, abeta: 1e-8 },
+      units: { l: 'm', vgs: 'V', vds: 'V', vsb: 'V', id: 'A', gm: 'S', gds: 'S' },
+    });
+    expect(ingestTexts([{ file: 'x', text: csv(header, BASE_ROWS) }], N).meta.corner).toBe('tt');
+  });
+
+  it('reports progress up to the total', () => {
+    const rows = sweep([1e-6], range(0, 1.4, 0.01), range(0, 1.4, 0.01), range(0, 0.6, 0.1), () => 1e-6);
+    const calls: Array<[number, number]> = [];
+    const s = parseSweep(csv(header, rows), 'big.csv', { device: 'n', onProgress: (d, t) => calls.push([d, t]) });
+    expect(s.rows).toBe(rows.length);
+    expect(calls.length).toBe(Math.floor(rows.length / 65536) + 1);
+    expect(calls[calls.length - 1]).toEqual([rows.length + 1, rows.length + 1]);
+    expect(calls.every(([d], i) => i === 0 || d > calls[i - 1][0])).toBe(true);
+  });
+});
+
+describe('ingest: large files', () => {
+  it('counts physical lines across the internal pieces of a large CRLF file', () => {
+    const rows = sweep([1e-6], range(0, 1.4, 0.01), range(0, 1.4, 0.01), range(0, 0.4, 0.1), (_l, g, d) => 1e-6 + g * d * 1e-6);
+    const k = 90_000; // well past the first megabyte
+    const lines = csv('l,w,vgs,vds,vsb,id', rows, ',', '\r\n').split('\r\n');
+    const cells = lines[k + 1].split(',');
+    cells[5] = 'oops';
+    lines[k + 1] = cells.join(',');
+    const err = errorOf(() => ingestTexts([{ file: 'big.csv', text: lines.join('\r\n') }], N));
+    const col = cells.slice(0, 5).join(',').length + 2;
+    expect(err.message).toBe(`big.csv:${k + 2}:${col}: column "id": "oops" is not a finite number`);
+    // Intact, every row arrives.
+    const t = ingestTexts([{ file: 'big.csv', text: csv('l,w,vgs,vds,vsb,id', rows, ',', '\r\n') }], N);
+    expect(t.meta.sources[0].rows).toBe(rows.length);
+    expect(value(t, 'id', 0, 140, 140, 4)).toBe(rows[rows.length - 1][5]);
+  });
+
+  it('names a file it cannot read', () => {
+    expect(errorOf(() => ingestFiles(['/nonexistent/sweep.csv'], N)).message).toBe('/nonexistent/sweep.csv: cannot read the file (ENOENT)');
+  });
+});
+
+describe('ingest: PMOS signs', () => {
+  // PMOS in simulator signs: vgs, vds, id < 0, source-to-bulk vsb <= 0, vbs >= 0 (common practice).
+  const rows = BASE_ROWS.map(([l, w, g, d, , id]) => [l, w, -g, -d, -0.3, -id, 2 * id, -id * 0.05, -1e-15]);
+  const header = 'l,w,vgs,vds,vsb,id,gm,gds,cgd';
+  it('turns simulator signs into magnitudes, conductances and capacitances positive', () => {
+    const t = ingestTexts([{ file: 'p.csv', text: csv(header, rows) }], P);
+    expect(Array.from(t.axes.vgs)).toEqual(Array.from(BASE.axes.vgs));
+    expect(Array.from(t.axes.vds)).toEqual(Array.from(BASE.axes.vds));
+    expect(Array.from(t.axes.vsb)).toEqual([0.3]);
+    expect(value(t, 'id', 1, 3, 2) / squareLaw(0.9, 1.0)).toBeCloseTo(1, 12);
+    expect(value(t, 'gds', 1, 3, 2) / (0.05 * squareLaw(0.9, 1.0))).toBeCloseTo(1, 12);
+    expect(t.data.cgd![0]).toBeCloseTo(1e-15, 25);
+  });
+
+  it('takes vbs in simulator signs and accepts an already-positive PMOS file', () => {
+    const vbs = rows.map(([l, w, g, d, s, id]) => [l, w, g, d, -(s as number), id]);
+    expect(Array.from(ingestTexts([{ file: 'p.csv', text: csv('l,w,vgs,vds,vbs,id', vbs) }], P).axes.vsb)).toEqual([0.3]);
+    const positive = ingestTexts([{ file: 'p.csv', text: csv('l,w,vgs,vds,vsb,id', BASE_ROWS) }], P);
+    expectSameTable(positive, BASE);
+  });
+});
+
+describe('ingest: bad input', () => {
+  const header = 'l,w,vgs,vds,vsb,id';
+  const text = csv(header, BASE_ROWS);
+  const lines = text.split('\n');
+  const withLine = (k: number, line: string) => [...lines.slice(0, k), line, ...lines.slice(k + 1)].join('\n');
+
+  it('empty file, comments only, header only', () => {
+    expect(errorOf(() => ingestTexts([{ file: 'e.csv', text: '' }], N)).message).toBe('e.csv: file is empty');
+    expect(errorOf(() => ingestTexts([{ file: 'e.csv', text: '# nothing\n\n' }], N)).message).toMatch(/^e\.csv: no header line/);
+    expect(errorOf(() => ingestTexts([{ file: 'e.csv', text: '# c\n' + header + '\n\n' }], N)).message).toBe('e.csv:2: header but no data rows');
+  });
+
+  it('missing required column names it and lists the headers seen', () => {
+    const err = errorOf(() => ingestTexts([{ file: 'm.csv', text: csv('l,w,vgs,id', [[1e-6, 1e-6, 0.5, 1e-6]]) }], N));
+    expect(err.message).toMatch(/^m\.csv:1: missing column vds .*headers seen: "l", "w", "vgs", "id"$/);
+    const noW = errorOf(() => ingestTexts([{ file: 'm.csv', text: csv('l,vgs,vds,id', [[1e-6, 0.5, 1, 1e-6]]) }], N));
+    expect(noW.message).toMatch(/missing column w \(or pass --width\)/);
+  });
+
+  it('non-numeric, NaN, Inf and empty cells give file:line:column and the column name', () => {
+    // Line 4 holds the third data row; its vds cell starts after three cells and their commas.
+    for (const bad of ['abc', 'NaN', 'Inf', 'Infinity', '-inf', '1e400', '']) {
+      const row = BASE_ROWS[2].map(String);
+      row[3] = bad;
+      const err = errorOf(() => ingestTexts([{ file: 'n.csv', text: withLine(3, row.join(',')) }], N));
+      const col = row.slice(0, 3).join(',').length + 2;
+      expect(err.message).toMatch(new RegExp(`^n\\.csv:4:${col}: column "vds": `));
+    }
+  });
+
+  it('an ambiguous upper-case M suffix is explained', () => {
+    const row = BASE_ROWS[0].map(String);
+    row[5] = '1M';
+    const err = errorOf(() => ingestTexts([{ file: 'n.csv', text: withLine(1, row.join(',')) }], N));
+    expect(err.message).toMatch(/^n\.csv:2:\d+: column "id": .*ambiguous/);
+  });
+
+  it('negative or zero length is an error at its cell', () => {
+    const row = BASE_ROWS[0].map(String);
+    row[0] = '-0.18u';
+    expect(errorOf(() => ingestTexts([{ file: 'l.csv', text: withLine(1, row.join(',')) }], N)).message).toBe(
+      'l.csv:2:1: column "l": length must be positive, got -0.18u',
+    );
+  });
+
+  it('wrong number of cells', () => {
+    expect(errorOf(() => ingestTexts([{ file: 'c.csv', text: withLine(2, '1u,1u,0.5,1') }], N)).message).toBe(
+      'c.csv:3: expected 6 cells as in the header, found 4',
+    );
+  });
+
+  it('mixed widths need --width, which keeps only that width', () => {
+    const two = [...BASE_ROWS, ...BASE_ROWS.map(([l, , g, d, s, id]) => [l, 2e-6, g, d, s, 2 * id])];
+    const err = errorOf(() => ingestTexts([{ file: 'w.csv', text: csv(header, two) }], N));
+    expect(err.message).toMatch(/^w\.csv: mixed widths .*\(1 µm, 2 µm\): pass --width to choose one or split the files$/);
+    const t = ingestTexts([{ file: 'w.csv', text: csv(header, two) }], { ...N, width: 2e-6 });
+    expect(t.meta.referenceWidth).toBe(2e-6);
+    expect(value(t, 'id', 0, 0, 0)).toBeCloseTo(2 * squareLaw(0.6, 0.6), 18);
+    expect(errorOf(() => ingestTexts([{ file: 'w.csv', text: csv(header, two) }], { ...N, width: 3e-6 })).message).toMatch(/^--width: no rows at width 3 µm/);
+  });
+
+  it('a single VGS point per length cannot make a table', () => {
+    const rows = BASE_ROWS.filter((r) => r[2] === 0.8);
+    expect(errorOf(() => ingestTexts([{ file: 'g.csv', text: csv(header, rows) }], N)).message).toMatch(/^g\.csv:2: only one VGS point \(800 mV\) at L=180 nm/);
+  });
+
+  it('conflicting duplicates name both lines; exact duplicates are merged', () => {
+    const dup = [...BASE_ROWS.slice(0, 5), [...BASE_ROWS[3].slice(0, 5), BASE_ROWS[3][5] * 1.001], ...BASE_ROWS.slice(5)];
+    const err = errorOf(() => ingestTexts([{ file: 'd.csv', text: csv(header, dup) }], N));
+    expect(err.message).toMatch(/^d\.csv:7: bias point L=180 nm .* different id .* at d\.csv:5 and d\.csv:7$/);
+    const same = [...BASE_ROWS, BASE_ROWS[3]];
+    expectSameTable(ingestTexts([{ file: 'd.csv', text: csv(header, same) }], N), BASE);
+    // Across files too.
+    const err2 = errorOf(() =>
+      ingestTexts([{ file: 'a.csv', text: csv(header, BASE_ROWS) }, { file: 'b.csv', text: csv(header, dup.slice(5, 6)) }], N),
+    );
+    expect(err2.message).toMatch(/at a\.csv:5 and b\.csv:2$/);
+  });
+
+  it('files split by length are combined', () => {
+    const a = BASE_ROWS.filter((r) => r[0] === 0.18e-6);
+    const b = BASE_ROWS.filter((r) => r[0] !== 0.18e-6);
+    const t = ingestTexts([{ file: 'a.csv', text: csv(header, a) }, { file: 'b.csv', text: csv(header, b) }], N);
+    expectSameTable(t, BASE);
+    expect(t.meta.sources.map((s) => [s.file, s.rows])).toEqual([['a.csv', a.length], ['b.csv', b.length]]);
+  });
+});
+
+describe('ingest: derived conductances', () => {
+  it('gm and gds of the square law match calculus', () => {
+    const vgs = range(0.65, 1.2, 0.01);
+    const vds = range(0.5, 1.5, 0.05);
+    const rows = sweep([1e-6], vgs, vds, [0], (_l, g, d) => squareLaw(g, d));
+    const t = ingestTexts([{ file: 'sq.csv', text: csv('l,w,vgs,vds,vsb,id', rows) }], N);
+    expect(t.meta.derived.gm).toMatch(/local quadratic in ln id, 5 points/);
+    expect(t.meta.derived.gds).toMatch(/id over vds \(local quadratic, 5 points\)/);
+    let worstGm = 0;
+    let worstGds = 0;
+    let interiorGm = 0;
+    vgs.forEach((g, ig) =>
+      vds.forEach((d, id) => {
+        // ∂id/∂vgs = 2K(vgs−vt)(1+λvds), ∂id/∂vds = K(vgs−vt)²λ (calculus on the square law).
+        const e = Math.abs(value(t, 'gm', 0, ig, id) / (2 * K * (g - VT) * (1 + LAMBDA * d)) - 1);
+        worstGm = Math.max(worstGm, e);
+        if (ig >= 2 && ig < vgs.length - 2) interiorGm = Math.max(interiorGm, e);
+        worstGds = Math.max(worstGds, Math.abs(value(t, 'gds', 0, ig, id) / (K * (g - VT) ** 2 * LAMBDA) - 1));
+      }),
+    );
+    // ln id = 2 ln(vgs−vt) + const is not a parabola: the 5-point fit's truncation error is O(h²/(vgs−vt)²),
+    // ~1e-3 here at h = 10 mV, vgs−vt >= 0.2 V, larger in the shifted end windows.
+    // The two points at each end use shifted (one-sided) windows, whose error is a few times larger.
+    expect(worstGm).toBeLessThan(1e-2);
+    expect(interiorGm).toBeLessThan(3e-3);
+    expect(interiorGm).toBeGreaterThan(0); // really derived, not read
+    // id is linear in vds, so a local quadratic reproduces the slope up to rounding of the printed cells.
+    expect(worstGds).toBeLessThan(1e-6);
+  });
+
+  it('gm/id of the weak-inversion exponential is 1/(n·UT)', () => {
+    // id = I0·exp((vgs−vt)/(n·UT))·(1−exp(−vds/UT)) (weak-inversion law, e.g. EKV model, Enz–Krummenacher–Vittoz 1995).
+    const UT = 0.025852; // kT/q at 300 K, from memory
+    const n = 1.3;
+    const vgs = range(0.1, 0.4, 0.025);
+    const vds = range(0.3, 0.6, 0.1);
+    const rows = sweep([1e-6], vgs, vds, [0], (_l, g, d) => 1e-7 * Math.exp((g - 0.45) / (n * UT)) * (1 - Math.exp(-d / UT)));
+    const t = ingestTexts([{ file: 'wi.csv', text: csv('l,w,vgs,vds,vsb,id', rows.map((r) => r.map((x) => x.toPrecision(15)))) }], N);
+    for (let ig = 0; ig < vgs.length; ig++) {
+      // In ln id the law is a straight line, so the local fit is exact.
+      expect(value(t, 'gm', 0, ig, 2) / value(t, 'id', 0, ig, 2) / (1 / (n * UT))).toBeCloseTo(1, 9);
+    }
+  });
+
+  it('gmb along vsb from the body-effect threshold', () => {
+    // vt = vt0 + γ(√(2φF+vsb) − √(2φF)) (body effect, textbook MOSFET level 1); gmb = −∂id/∂vsb = gm·γ/(2√(2φF+vsb)).
+    const gamma = 0.4;
+    const phi2 = 0.8;
+    const vtOf = (s: number) => VT + gamma * (Math.sqrt(phi2 + s) - Math.sqrt(phi2));
+    const vsb = range(0, 1, 0.02);
+    const rows = sweep([1e-6], [1.3, 1.4, 1.5], [1.2], vsb, (_l, g, d, s) => K * (g - vtOf(s)) ** 2 * (1 + LAMBDA * d));
+    const t = ingestTexts([{ file: 'b.csv', text: csv('l,w,vgs,vds,vsb,id', rows) }], N);
+    expect(t.meta.derived.gmb).toMatch(/over vsb/);
+    vsb.forEach((s, is) => {
+      const exact = 2 * K * (1.4 - vtOf(s)) * (1 + LAMBDA * 1.2) * (gamma / (2 * Math.sqrt(phi2 + s)));
+      expect(Math.abs(value(t, 'gmb', 0, 1, 0, is) / exact - 1)).toBeLessThan(2e-3);
+    });
+    // Two vsb points are not enough for gmb: it stays absent.
+    const two = sweep([1e-6], [1.3, 1.4, 1.5], [1.2], [0, 0.5], (_l, g, d, s) => K * (g - vtOf(s)) ** 2);
+    expect(ingestTexts([{ file: 'b.csv', text: csv('l,w,vgs,vds,vsb,id', two) }], N).data.gmb).toBeUndefined();
+  });
+
+  it('the slope stencil equals SciPy savgol_filter(window 5, order 2, deriv 1, mode interp)', () => {
+    // Reference from scipy.signal.savgol_filter, tests/fixtures/ingest/make-reference.py.
+    for (const c of REF.savgol) {
+      const st = slopeStencil(c.x, 5, 2);
+      c.dy.forEach((d, i) => expect(slopeAt(st, i, c.y, 0, 1)).toBeCloseTo(d, 9));
+    }
+  });
+
+  it('PCHIP equals SciPy PchipInterpolator', () => {
+    // Reference from scipy.interpolate.PchipInterpolator, tests/fixtures/ingest/make-reference.py.
+    for (const c of REF.pchip) {
+      const v = pchip(c.x, c.y, c.t);
+      c.v.forEach((ref, i) => expect(v[i]).toBeCloseTo(ref, 12));
+    }
+  });
+});
+
+describe('ingest: ragged grids', () => {
+  // EKV interpolation function id = Ispec·ln²(1+exp((vgs−vt)/(2nUT)))·(1+λvds) (Enz, Krummenacher, Vittoz 1995).
+  const ekv = (l: number, g: number, d: number) =>
+    (2e-6 / (l * 1e6)) * Math.log(1 + Math.exp((g - 0.4) / (2 * 1.3 * 0.0259))) ** 2 * (1 + (0.05 / (l * 1e6)) * d);
+
+  it('resamples lengths with different points onto the shared range and reproduces the surface', () => {
+    const a = sweep([0.2e-6], range(0, 1.2, 0.02), range(0.1, 1.2, 0.1), [0], ekv);
+    const b = sweep([1e-6], range(0.1, 1.0, 0.05), range(0.2, 1.4, 0.2), [0], ekv);
+    const t = ingestTexts([{ file: 'r.csv', text: csv('l,w,vgs,vds,vsb,id', [...a, ...b]) }], N);
+    // Intersection of the ranges at the finest step.
+    expect(Array.from(t.axes.vgs)).toEqual(range(0.1, 1.0, 0.02));
+    expect(Array.from(t.axes.vds)).toEqual(range(0.2, 1.2, 0.1));
+    expect(t.meta.note).toMatch(/resampled onto a common grid/);
+    let worst = 0;
+    t.axes.l.forEach((l, il) =>
+      t.axes.vgs.forEach((g, ig) => t.axes.vds.forEach((d, id) => (worst = Math.max(worst, Math.abs(value(t, 'id', il, ig, id) / ekv(l, g, d) - 1))))),
+    );
+    // PCHIP's error is O(h³) on smooth data (Fritsch & Carlson 1980); at 50 mV steps in ln id this stays well under 1 %.
+    expect(worst).toBeLessThan(5e-3);
+    expect(worst).toBeGreaterThan(0);
+  });
+
+  it('fills missing points of an otherwise shared grid without changing the axes', () => {
+    const rows = sweep([0.2e-6, 1e-6], range(0, 1.2, 0.05), range(0.1, 1.2, 0.1), [0], ekv);
+    const holes = rows.filter((r) => !(r[0] === 1e-6 && (r[2] === 0.5 || (r[2] === 0.8 && r[3] === 0.6))));
+    const t = ingestTexts([{ file: 'h.csv', text: csv('l,w,vgs,vds,vsb,id', holes) }], N);
+    expect(Array.from(t.axes.vgs)).toEqual(range(0, 1.2, 0.05));
+    expect(t.meta.note).toMatch(/; 13 grid points not sampled at their length were interpolated$/);
+    expect(t.meta.note).not.toMatch(/new axes/);
+    const ig = t.axes.vgs.indexOf(0.5);
+    for (let id = 0; id < t.axes.vds.length; id++) {
+      const d = t.axes.vds[id];
+      const truth = ekv(1e-6, 0.5, d);
+      const chord = Math.sqrt(ekv(1e-6, 0.45, d) * ekv(1e-6, 0.55, d)); // straight line in ln id across the hole
+      const err = Math.abs(value(t, 'id', 1, ig, id) / truth - 1);
+      // A 100 mV hole in moderate inversion: the chord's error bound h²·max|f''|/8 (linear interpolation,
+      // standard result) is ~9 % here; the monotone cubic must do far better than the chord.
+      expect(err).toBeLessThan(2e-2);
+      expect(err).toBeLessThan(Math.abs(chord / truth - 1) / 3);
+    }
+    // Points that were present are kept exactly.
+    expect(value(t, 'id', 1, 3, 4)).toBe(ekv(1e-6, 0.15, 0.5));
+  });
+
+  it('refuses to extrapolate a short curve, naming the length and the range', () => {
+    const rows = sweep([0.2e-6, 1e-6], range(0, 1.2, 0.05), range(0.1, 1.2, 0.1), [0], ekv);
+    // Interior gaps are filled along vgs; a gap at the top of the vgs sweep would need extrapolation.
+    const short = rows.filter((r) => !(r[0] === 1e-6 && r[2] === 1.2 && r[3] > 0.85));
+    const err = errorOf(() => ingestTexts([{ file: 'x.csv', text: csv('l,w,vgs,vds,vsb,id', short) }], N));
+    expect(err.message).toBe('x.csv: L=1 µm at vds=0.9: vgs samples span 0..1.15 V but the common grid needs 0..1.2 V; refusing to extrapolate');
+  });
+});
+
