@@ -1,0 +1,23 @@
+export { stackNetlist, designNetlist, DEFAULT_MODELS, SWEEP_SOURCE, SWEEP_NODE, PROBE_PREFIX, type NetlistOptions } from './netlist.js';
+export { characterisationDeck, CHAR_COLUMNS, dataFileName, type CharacterisationOptions, type SweepRange } from './characterise.js';
+export { characterisationCsv } from './characterise-csv.js';
+export { characterise } from './characterise-run.js';
+export { runNgspice, firstError, type NgspiceRun, type RunOptions } from './run.js';
+export { parseWrdata, type WrdataTable } from './wrdata.js';
+export { includeLines } from './include.js';
+export {
+  simulateStacks,
+  simulateSweep,
+  withSweepOutput,
+  probesOf,
+  routOf,
+  sampleAt,
+  midSpan,
+  measuredHeadroom,
+  simulateOp,
+  type OpPoint,
+  type SweepPoint,
+  type RoutPoint,
+  type SimulatedStack,
+  type HeadroomTargets,
+} from './measure.js';
