@@ -98,6 +98,8 @@ export interface StackResult {
   corners?: CornerResult[];
   /** Candidates evaluated for this stack. */
   evaluated: number;
+  /** With topology 'auto': true on the topology picked by the objective. */
+  chosen?: boolean;
 }
 
 export interface SizeResult {

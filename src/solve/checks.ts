@@ -1,0 +1,66 @@
+import type { StackSpec } from '../spec/types.js';
+import { formatEng } from '../units/index.js';
+import type { StackEval } from './stackeval.js';
+
+/** Allowed deviation of the mid-span current from the target. */
+export const CURRENT_WINDOW = 0.01;
+
+export type Target = 'rout' | 'headroom' | 'iout' | 'mismatch';
+
+/** Margin of each target (≥ 0 met, < 0 missed), normalised so they compare. */
+export interface Margins {
+  rout: number;
+  headroom: number;
+  iout: number;
+  mismatch: number;
+}
+
+/** Margins of one evaluated stack (null eval: nothing is met). */
+export function marginsOf(spec: StackSpec, ev: StackEval | null, sigma: number | undefined): Margins {
+  const mismatch = spec.mismatch === undefined || sigma === undefined ? Infinity : 1 - sigma / spec.mismatch;
+  if (!ev) return { rout: -Infinity, headroom: -Infinity, iout: -Infinity, mismatch };
+  return {
+    rout: ev.routAtTarget > 0 ? Math.log(ev.routAtTarget / spec.rout) : -Infinity,
+    headroom: Number.isFinite(ev.headroom) ? (spec.headroom - ev.headroom) / 0.05 : -Infinity,
+    iout: 1 - Math.abs(ev.iout - spec.current) / (CURRENT_WINDOW * spec.current),
+    mismatch,
+  };
+}
+
+export function meetsAll(m: Margins): boolean {
+  return m.rout >= 0 && m.headroom >= 0 && m.iout >= 0 && m.mismatch >= 0;
+}
+
+/** Sum of shortfalls; 0 when every target is met. Infinite shortfalls are capped so designs still rank. */
+export function violation(m: Margins): number {
+  const cap = (x: number) => Math.min(Math.max(0, -x), 50);
+  return cap(m.rout) + cap(m.headroom) + cap(m.iout) + cap(m.mismatch);
+}
+
+/** The target with the smallest margin. */
+export function tightest(m: Margins): Target {
+  const order: Target[] = ['rout', 'headroom', 'iout', 'mismatch'];
+  return order.reduce((a, b) => (m[b] < m[a] ? b : a));
+}
+
+/** Words for a target at one evaluation: "rout 12.3 MΩ < 20 MΩ", "headroom 0.52 V ≤ 0.55 V". */
+export function describe(target: Target, spec: StackSpec, ev: StackEval | null, sigma: number | undefined): string {
+  if (!ev) return `${target}: the table does not cover the mid-span bias`;
+  switch (target) {
+    case 'rout': {
+      const ok = ev.routAtTarget >= spec.rout;
+      return `rout ${formatEng(ev.routAtTarget, 'Ω')} ${ok ? '≥' : '<'} ${formatEng(spec.rout, 'Ω')} at ${spec.headroom.toFixed(3)} V`;
+    }
+    case 'headroom': {
+      const ok = ev.headroom <= spec.headroom;
+      const h = Number.isFinite(ev.headroom) ? `${ev.headroom.toFixed(3)} V` : 'never met';
+      return `headroom ${h} ${ok ? '≤' : '>'} ${spec.headroom.toFixed(3)} V`;
+    }
+    case 'iout': {
+      const dev = (100 * (ev.iout - spec.current)) / spec.current;
+      return `iout ${formatEng(ev.iout, 'A')} is ${dev.toFixed(2)} % off ${formatEng(spec.current, 'A')}`;
+    }
+    case 'mismatch':
+      return `mismatch σ ${((sigma ?? NaN) * 100).toFixed(3)} % vs ${((spec.mismatch ?? NaN) * 100).toFixed(3)} %`;
+  }
+}

@@ -1,0 +1,76 @@
+import type { StackSpec } from '../spec/types.js';
+import type { StackResult } from './types.js';
+
+/** One compared number: old, new and the change in percent (NaN when undefined). */
+export interface Change {
+  what: string;
+  unit: string;
+  from: number;
+  to: number;
+  percent: number;
+}
+
+function change(what: string, unit: string, from: number, to: number): Change {
+  const percent = Number.isFinite(from) && Number.isFinite(to) && from !== 0 ? (100 * (to - from)) / Math.abs(from) : NaN;
+  return { what, unit, from, to, percent };
+}
+
+/** Every size, bias, Rout, headroom, area and mismatch of two designs of one stack, side by side. */
+export function compareResults(from: StackResult, to: StackResult): Change[] {
+  const rows: Change[] = [];
+  const n = Math.max(from.devices.length, to.devices.length);
+  for (let k = 0; k < n; k++) {
+    const a = from.devices[k];
+    const b = to.devices[k];
+    const role = (a ?? b).role;
+    rows.push(change(`${role} W`, 'm', a?.w ?? NaN, b?.w ?? NaN));
+    rows.push(change(`${role} L`, 'm', a?.l ?? NaN, b?.l ?? NaN));
+    rows.push(change(`${role} gm/ID`, '1/V', a?.gmid ?? NaN, b?.gmid ?? NaN));
+    rows.push(change(`${role} gate`, 'V', a?.gate ?? NaN, b?.gate ?? NaN));
+    rows.push(change(`${role} VDS`, 'V', a?.vds ?? NaN, b?.vds ?? NaN));
+  }
+  const m = Math.max(from.bias.length, to.bias.length);
+  for (let k = 0; k < m; k++) {
+    const a = from.bias[k];
+    const b = to.bias[k];
+    const role = (a ?? b).drives;
+    rows.push(change(`bias(${role}) W`, 'm', a?.w ?? NaN, b?.w ?? NaN));
+    rows.push(change(`bias(${role}) L`, 'm', a?.l ?? NaN, b?.l ?? NaN));
+    rows.push(change(`bias(${role}) voltage`, 'V', a?.voltage ?? NaN, b?.voltage ?? NaN));
+  }
+  const p = from.predicted;
+  const q = to.predicted;
+  rows.push(change('Iout', 'A', p.iout, q.iout));
+  rows.push(change('Rout', 'Ω', p.rout, q.rout));
+  rows.push(change('headroom', 'V', p.headroom, q.headroom));
+  rows.push(change('area', 'm²', p.area, q.area));
+  rows.push(change('bias area', 'm²', p.biasArea, q.biasArea));
+  rows.push(change('σ(Iout)/Iout', '', p.sigma ?? NaN, q.sigma ?? NaN));
+  return rows;
+}
+
+/**
+ * Targets whose margin shrank on the new kit: Rout (predicted/target), headroom
+ * (target − provided), mismatch (target/σ), and area growth as a cost.
+ */
+export function harderTargets(spec: StackSpec, from: StackResult, to: StackResult): string[] {
+  const out: string[] = [];
+  const p = from.predicted;
+  const q = to.predicted;
+  if (!to.feasible) out.push(`infeasible on the new kit${to.binding ? `: ${to.binding}` : ''}`);
+  const routMargin = (x: number): number => x / spec.rout;
+  if (routMargin(q.rout) < routMargin(p.rout) * 0.999) {
+    out.push(`rout: margin ${routMargin(p.rout).toFixed(2)}x -> ${routMargin(q.rout).toFixed(2)}x of the target`);
+  }
+  const headMargin = (x: number): number => spec.headroom - x;
+  if (headMargin(q.headroom) < headMargin(p.headroom) - 1e-3) {
+    const fmt = (x: number): string => (Number.isFinite(x) ? `${(x * 1e3).toFixed(0)} mV` : 'none');
+    out.push(`headroom: slack ${fmt(headMargin(p.headroom))} -> ${fmt(headMargin(q.headroom))}`);
+  }
+  if (spec.mismatch !== undefined && p.sigma !== undefined && q.sigma !== undefined && q.sigma > p.sigma * 1.001) {
+    out.push(`mismatch: σ ${(p.sigma * 100).toFixed(3)} % -> ${(q.sigma * 100).toFixed(3)} % (target ${(spec.mismatch * 100).toFixed(3)} %)`);
+  }
+  if (q.area > p.area * 1.2) out.push(`area: ${(q.area / p.area).toFixed(2)}x larger to meet the same targets`);
+  if (from.topology !== to.topology) out.push(`topology: ${from.topology} -> ${to.topology}`);
+  return out;
+}

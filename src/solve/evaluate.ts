@@ -1,0 +1,156 @@
+import { StackwrightError } from '../errors.js';
+import type { LengthSlice } from '../device/types.js';
+import { biasDevices, biasGates, sampleAt, sizeStackDevices, type BiasDevice, type SizedStack, type StackDevice, type StackOp } from '../stack/index.js';
+import type { Candidate } from './candidate.js';
+import type { SolveContext } from './context.js';
+import { CURRENT_WINDOW, marginsOf, meetsAll, violation, type Margins } from './checks.js';
+import { pelgromSigma } from './mismatch.js';
+import { CURVE_INTERVALS, SCAN_INTERVALS, evaluateStack, type StackEval } from './stackeval.js';
+
+/** The same design re-evaluated at another corner with the gates its bias diodes produce there. */
+export interface CornerEval {
+  corner: string;
+  gates: number[];
+  ev: StackEval | null;
+  sigma?: number;
+  margins: Margins;
+  /** True when only the quick rejection test ran (Rout at the target headroom, mid-span current). */
+  quick?: boolean;
+}
+
+/** A candidate sized and evaluated exactly on the nominal corner. */
+export interface Evaluated {
+  cand: Candidate;
+  slices: LengthSlice[];
+  sized: SizedStack;
+  bias: BiasDevice[];
+  nominal: StackEval;
+  area: number;
+  biasArea: number;
+  sigma?: number;
+  margins: Margins;
+  /** Other corners, filled on demand (only for designs that could win). */
+  corners?: CornerEval[];
+  /** Curve intervals the evaluation used (scan while ranking, full for the report). */
+  intervals: number;
+}
+
+function rangeSafe<T>(f: () => T): T | null {
+  try {
+    return f();
+  } catch (e) {
+    if (e instanceof StackwrightError && e.kind === 'range') return null;
+    throw e;
+  }
+}
+
+/** Pelgrom σ of the bottom device at its actual gm/ID, when the kit has coefficients. */
+export function sigmaOf(ctx: SolveContext, ev: StackEval): number | undefined {
+  if (!ctx.coeff) return undefined;
+  const b = ev.mid.devices[0];
+  const d = ev.devices[0];
+  return pelgromSigma(b.gm / b.id, d.w, d.slice.l, ctx.coeff);
+}
+
+/** Size and evaluate one candidate exactly; null when the table cannot realise it. */
+export function evaluateCandidate(ctx: SolveContext, cand: Candidate): Evaluated | null {
+  ctx.count.exact++;
+  return rangeSafe(() => {
+    const slices = cand.l.map((l) => ctx.slice(ctx.nominal, l));
+    const sized = sizeStackDevices({
+      topology: cand.topology, slices, gmid: cand.gmid, setpoints: cand.setpoints, current: ctx.spec.current, vmid: ctx.vmid,
+    });
+    if (!sized) return null;
+    const bias = biasDevices(cand.topology, slices, sized.gates, ctx.ib);
+    const devices: StackDevice[] = slices.map((slice, k) => ({ slice, w: sized.w[k] }));
+    const nominal = evaluateStack(devices, sized.gates, ctx.spec, ctx.vmid, { i: ctx.spec.current, nodes: sized.nodes }, SCAN_INTERVALS);
+    if (!nominal) return null;
+    const sigma = sigmaOf(ctx, nominal);
+    return {
+      cand, slices, sized, bias, nominal, sigma,
+      area: devices.reduce((a, d) => a + d.w * d.slice.l, 0),
+      biasArea: bias.reduce((a, b) => a + b.w * b.l, 0),
+      margins: marginsOf(ctx.spec, nominal, sigma),
+      intervals: SCAN_INTERVALS,
+    };
+  });
+}
+
+/**
+ * Re-evaluate at one other corner: same W, L and bias devices, new gate
+ * voltages. `quick` first tries a cheap rejection (two DC solves: Rout at the
+ * target headroom bounds the worst Rout from above, and the mid-span current)
+ * and stops there when it already fails.
+ */
+export function evaluateCorner(ctx: SolveContext, e: Evaluated, corner: string, quick = false): CornerEval {
+  const slices = e.cand.l.map((l) => ctx.slice(corner, l));
+  const gates = rangeSafe(() => biasGates(e.bias, slices));
+  if (!gates) return { corner, gates: [], ev: null, margins: marginsOf(ctx.spec, null, undefined) };
+  const devices: StackDevice[] = slices.map((slice, k) => ({ slice, w: e.sized.w[k] }));
+  const guess = { i: ctx.spec.current, nodes: e.sized.nodes };
+  if (quick) {
+    const q = quickReject(ctx, devices, gates, guess);
+    if (q) return { corner, gates, ev: null, margins: q, quick: true };
+  }
+  const ev = rangeSafe(() => evaluateStack(devices, gates, ctx.spec, ctx.vmid, guess, e.intervals));
+  const sigma = ev ? sigmaOf(ctx, ev) : undefined;
+  return { corner, gates, ev, sigma, margins: marginsOf(ctx.spec, ev, sigma) };
+}
+
+// Margins from two DC solves when they already show a miss (headroom left unjudged at 0), else null.
+function quickReject(ctx: SolveContext, devices: StackDevice[], gates: number[], guess: { i: number; nodes: number[] }): Margins | null {
+  const s = ctx.spec;
+  const mid = sampleAt(devices, gates, ctx.vmid, solveGuess(guess, ctx.vmid));
+  if (!mid.op) return marginsOf(s, null, undefined);
+  const at = sampleAt(devices, gates, s.headroom, mid.op);
+  const rout = at.op ? Math.log(at.rout / s.rout) : -Infinity;
+  const iout = 1 - Math.abs(mid.i - s.current) / (CURRENT_WINDOW * s.current);
+  if (rout >= 0 && iout >= 0) return null;
+  return { rout, iout, headroom: 0, mismatch: Infinity };
+}
+
+function solveGuess(g: { i: number; nodes: number[] }, v: number): StackOp {
+  return { v, i: g.i, nodes: g.nodes, devices: [] };
+}
+
+/** Fill in the other corners once (quick rejections allowed unless `full`). */
+export function ensureCorners(ctx: SolveContext, e: Evaluated, full = false): CornerEval[] {
+  e.corners ??= ctx.corners.slice(1).map((c) => evaluateCorner(ctx, e, c, !full));
+  if (full) e.corners = e.corners.map((c) => (c.quick ? evaluateCorner(ctx, e, c.corner, false) : c));
+  return e.corners;
+}
+
+export function nominalOk(e: Evaluated): boolean {
+  return meetsAll(e.margins);
+}
+
+/** Meets every target at every corner (computes the corners if needed). */
+export function fullyOk(ctx: SolveContext, e: Evaluated): boolean {
+  return nominalOk(e) && ensureCorners(ctx, e).every((c) => meetsAll(c.margins));
+}
+
+/** Total shortfall over the corners evaluated so far. */
+export function totalViolation(e: Evaluated): number {
+  return violation(e.margins) + (e.corners ?? []).reduce((a, c) => a + violation(c.margins), 0);
+}
+
+/**
+ * Re-evaluate a design on the full reported curve (all corners again), in
+ * place. Returns false when the design no longer meets targets it met on the
+ * ranking scan, so the caller can fall back to the next one.
+ */
+export function finalize(ctx: SolveContext, e: Evaluated): boolean {
+  if (e.intervals === CURVE_INTERVALS) return true;
+  const wasOk = nominalOk(e) && (e.corners === undefined || e.corners.every((c) => meetsAll(c.margins)));
+  const full = evaluateStack(e.nominal.devices, e.nominal.gates, ctx.spec, ctx.vmid, { i: ctx.spec.current, nodes: e.sized.nodes }, CURVE_INTERVALS);
+  e.intervals = CURVE_INTERVALS;
+  if (!full) {
+    e.margins = marginsOf(ctx.spec, null, e.sigma);
+    return false;
+  }
+  e.nominal = full;
+  e.sigma = sigmaOf(ctx, full);
+  e.margins = marginsOf(ctx.spec, full, e.sigma);
+  e.corners = undefined;
+  return !wasOk || fullyOk(ctx, e);
+}

@@ -1,0 +1,10 @@
+export type { KitAccess } from './kit.js';
+export { sizeStack, sizeDesign, type SizeStackResult } from './size.js';
+export { evaluateAtCorner } from './corners.js';
+export { paretoFront, dominates, type FrontPoint } from './pareto.js';
+export { pelgromSigma } from './mismatch.js';
+export { CURRENT_WINDOW } from './checks.js';
+export { CAUTION } from './types.js';
+export type {
+  Role, DeviceResult, BiasResult, CurvePoint, Predicted, SquareLawCheck, CornerResult, StackResult, SizeResult,
+} from './types.js';

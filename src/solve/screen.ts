@@ -1,0 +1,179 @@
+import type { Topology } from '../spec/types.js';
+import type { Candidate } from './candidate.js';
+import { candidateKey } from './candidate.js';
+import type { SolveContext } from './context.js';
+import { setpointGrid } from './grid.js';
+import { prune, stageOptions, type StageOption, type SweepCache } from './options.js';
+import { TopK } from './topk.js';
+
+// Lowest top-device VDS used for the Rout-at-headroom estimate; below it the device is off the knee anyway.
+const VDS_FLOOR = 0.03;
+
+/**
+ * Keeps the few hundred most promising combinations by several measures, so
+ * infeasible specs still get near points: by the objective among those
+ * meeting the targets by estimate (also with 2× Rout margin), by area, by
+ * headroom at the Rout target, by Rout at the headroom target, and by
+ * violation. Written flat because it runs for every combination.
+ */
+class Pools {
+  private obj = new TopK<Candidate>(40);
+  private margin = new TopK<Candidate>(15);
+  private area = new TopK<Candidate>(10);
+  private hr = new TopK<Candidate>(12);
+  private ro = new TopK<Candidate>(12);
+  private viol = new TopK<Candidate>(12);
+  private rout: number;
+  private objective: SolveContext['spec']['objective'];
+  private headroom: number;
+  private mismatch: number;
+  constructor(private ctx: SolveContext) {
+    this.rout = ctx.spec.rout;
+    this.objective = ctx.spec.objective;
+    this.headroom = ctx.spec.headroom;
+    this.mismatch = ctx.spec.mismatch ?? Infinity;
+  }
+
+  private keys = new Float64Array(6);
+  private heaps = [this.obj, this.margin, this.area, this.hr, this.ro, this.viol];
+
+  /** Rate one combination; true when some pool would keep it (then call keep with the candidate). Logs only when needed. */
+  wants(area: number, rout: number, headroom: number, sigma: number): boolean {
+    this.ctx.count.screened++;
+    const routOk = rout >= this.rout;
+    const hrOk = headroom <= this.headroom;
+    const sigOk = sigma <= this.mismatch;
+    const k = this.keys;
+    const h = this.heaps;
+    let any = false;
+    if (routOk && hrOk && sigOk) {
+      const obj = this.objective === 'area' ? area : this.objective === 'headroom' ? headroom : -Math.log(rout);
+      k[0] = obj;
+      k[1] = rout >= 2 * this.rout ? obj : Infinity;
+      k[2] = area;
+      any = h[0].accepts(obj) || h[1].accepts(k[1]) || h[2].accepts(area);
+    } else k[0] = k[1] = k[2] = Infinity;
+    k[3] = routOk && sigOk ? headroom : Infinity;
+    any = h[3].accepts(k[3]) || any;
+    k[4] = hrOk && sigOk && rout > this.roFloor() ? -Math.log(rout) : Infinity;
+    any = h[4].accepts(k[4]) || any;
+    const v = (routOk ? 0 : Math.log(this.rout / rout)) + (hrOk ? 0 : (headroom - this.headroom) / 0.05) + (sigOk ? 0 : 2 * Math.log(sigma / this.mismatch));
+    k[5] = v + 1e-6 * area * 1e12;
+    return h[5].accepts(k[5]) || any;
+  }
+
+  // Rout a combination must beat to enter the Rout pool (avoids a log for the rest).
+  private roFloor(): number {
+    const w = this.ro.worst();
+    if (w !== this.roWorst) {
+      this.roWorst = w;
+      this.roFloorValue = w === undefined ? 0 : Math.exp(-w);
+    }
+    return this.roFloorValue;
+  }
+  private roWorst: number | undefined;
+  private roFloorValue = 0;
+
+  /** Store the combination last rated by `wants`. */
+  keep(c: Candidate): void {
+    for (let j = 0; j < 6; j++) this.heaps[j].push(this.keys[j], c);
+  }
+
+  candidates(): Candidate[] {
+    const seen = new Set<string>();
+    const out: Candidate[] = [];
+    for (const h of this.heaps) {
+      for (const c of h.sorted()) {
+        const k = candidateKey(c);
+        if (!seen.has(k)) {
+          seen.add(k);
+          out.push(c);
+        }
+      }
+    }
+    return out;
+  }
+}
+
+const bottomCrit = (ctx: SolveContext) => (o: StageOption) => (ctx.spec.mismatch === undefined ? [o.area, -o.ro] : [o.area, -o.ro, o.sigma]);
+// The stacked bottom's VGS is also its drain voltage, which adds to the headroom.
+const diodeCrit = (ctx: SolveContext) => (o: StageOption) => [...bottomCrit(ctx)(o), o.vgs];
+const midCrit = (o: StageOption) => [o.area, -o.ro, -o.gmt];
+const topCrit = (o: StageOption) => [o.area, -o.ro, -o.gmt, o.vdsat];
+
+/**
+ * Screen every combination of the grids with saturation small-signal
+ * estimates at nominal bias: Rout ≈ ro_N + (1 + gmt_N·ro_N)·R_below, with the
+ * top device taken at the target headroom; headroom ≈ Σ setpoints + the top
+ * device's VDSsat. Per-stage options another option beats on every criterion
+ * are dropped first (the estimate is monotone in them).
+ */
+export function screen(ctx: SolveContext, topology: Topology): Candidate[] {
+  const pools = new Pools(ctx);
+  const cache: SweepCache = new Map();
+  const s = ctx.spec;
+  const hrTop = (below: number) => Math.max(s.headroom - below, VDS_FLOOR);
+  const top = (below: number, gm = ctx.gmids) => prune(stageOptions(ctx, cache, ctx.vmid - below, below, hrTop(below), gm), topCrit);
+
+  if (topology === 'single') {
+    for (const o of stageOptions(ctx, cache, ctx.vmid, 0, hrTop(0))) {
+      if (pools.wants(o.area, o.ro, o.vdsat, o.sigma)) pools.keep({ topology, l: [o.l], gmid: [o.gmid], setpoints: [] });
+    }
+  } else if (topology === 'cascode') {
+    for (const s1 of setpointGrid(s, ctx.vmid, 0.025)) {
+      const bottom = prune(stageOptions(ctx, cache, s1, 0), bottomCrit(ctx));
+      const tops = top(s1);
+      for (const t of tops) {
+        const a = t.ro;
+        const b = 1 + t.gmt * t.ro;
+        for (const o of bottom) {
+          if (pools.wants(o.area + t.area, a + b * o.ro, s1 + t.vdsat, o.sigma)) pools.keep({ topology, l: [o.l, t.l], gmid: [o.gmid, t.gmid], setpoints: [s1] });
+        }
+      }
+    }
+  } else if (topology === 'cascode-stacked') {
+    // The bottom diode sets x1 = VGS1; group bottoms by x1 (10 mV) so top options are shared.
+    const groups = new Map<number, StageOption[]>();
+    for (const o of prune(stageOptions(ctx, cache, 'diode', 0), diodeCrit(ctx))) {
+      const x1 = Math.round(o.vgs * 100) / 100;
+      if (!groups.has(x1)) groups.set(x1, []);
+      groups.get(x1)!.push(o);
+    }
+    for (const [x1, bottom] of groups) {
+      if (x1 >= ctx.vmid - 0.05) continue;
+      for (const t of top(x1)) {
+        const a = t.ro;
+        const b = 1 + t.gmt * t.ro;
+        for (const o of bottom) {
+          if (pools.wants(o.area + t.area, a + b * o.ro, o.vgs + t.vdsat, o.sigma)) pools.keep({ topology, l: [o.l, t.l], gmid: [o.gmid, t.gmid], setpoints: [] });
+        }
+      }
+    }
+  } else {
+    // Three stages multiply: screen on every other gm/ID value and let refinement fill in.
+    const grid = setpointGrid(s, ctx.vmid, 0.05);
+    const gm = ctx.gmids.filter((_, j) => j % 2 === 0);
+    const bottoms = new Map(grid.map((s1) => [s1, prune(stageOptions(ctx, cache, s1, 0, undefined, gm), bottomCrit(ctx))]));
+    for (const s1 of grid) {
+      for (const s2 of grid) {
+        const below = Math.round((s1 + s2) * 1e6) / 1e6;
+        // The top device needs room for its own saturation voltage (≥ 4·UT).
+        if (below > Math.max(grid[grid.length - 1] - 0.05, grid[0]) + 1e-9) continue;
+        const mids = prune(stageOptions(ctx, cache, s2, s1, undefined, gm), midCrit);
+        const tops = top(below, gm);
+        const bottom = bottoms.get(s1)!;
+        for (const t of tops) {
+          const a3 = 1 + t.gmt * t.ro;
+          for (const m of mids) {
+            const a = t.ro + a3 * m.ro;
+            const b = a3 * (1 + m.gmt * m.ro);
+            for (const o of bottom) {
+              if (pools.wants(o.area + m.area + t.area, a + b * o.ro, below + t.vdsat, o.sigma)) pools.keep({ topology, l: [o.l, m.l, t.l], gmid: [o.gmid, m.gmid, t.gmid], setpoints: [s1, s2] });
+            }
+          }
+        }
+      }
+    }
+  }
+  return pools.candidates();
+}

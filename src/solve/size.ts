@@ -1,0 +1,101 @@
+import { StackwrightError } from '../errors.js';
+import { resolveCorners } from '../spec/index.js';
+import { TOPOLOGIES, type DesignSpec, type StackSpec, type Topology } from '../spec/types.js';
+import { CAUTION, type SizeResult, type StackResult } from './types.js';
+import type { KitAccess } from './kit.js';
+import { makeContext, type SolveContext } from './context.js';
+import { screen } from './screen.js';
+import { evaluateOnce, refine, type Seen } from './refine.js';
+import { finalize, fullyOk, nominalOk, totalViolation, type Evaluated } from './evaluate.js';
+import { objectiveCompare, pickBest } from './rank.js';
+import { emptyResult, stackResult } from './result.js';
+import { paretoFront, type FrontPoint } from './pareto.js';
+
+export interface SizeStackResult {
+  results: StackResult[];
+  front: FrontPoint[];
+  /** Candidates evaluated: screened combinations plus exact evaluations. */
+  evaluated: number;
+}
+
+function frontPoint(ctx: SolveContext, e: Evaluated): FrontPoint {
+  return {
+    topology: e.cand.topology,
+    headroom: e.nominal.headroom,
+    rout: e.nominal.rout,
+    area: e.area,
+    feasible: nominalOk(e) && (e.corners === undefined ? ctx.corners.length === 1 : fullyOk(ctx, e)),
+    devices: e.nominal.mid.devices.map((b, k) => ({ l: e.cand.l[k], gmid: b.gm / b.id, w: e.sized.w[k] })),
+    setpoints: [...e.cand.setpoints],
+  };
+}
+
+/** Seeds for refinement: the best design and the runner-up of the same kind (meeting targets, or nearest). */
+function seedsOf(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[]): Evaluated[] {
+  const ok = nominalOk(best) && fullyOk(ctx, best);
+  const rest = pool
+    .filter((e) => e !== best && (ok ? nominalOk(e) : !nominalOk(e)))
+    .sort((a, b) => (ok ? objectiveCompare(ctx.spec.objective, a, b) : totalViolation(a) - totalViolation(b)));
+  return [best, ...rest.slice(0, 1)];
+}
+
+function sizeTopology(ctx: SolveContext, topology: Topology): { result: StackResult; pool: Evaluated[] } {
+  const before = ctx.count.screened + ctx.count.exact;
+  const seen: Seen = new Map();
+  const pool: Evaluated[] = [];
+  for (const c of screen(ctx, topology)) {
+    const e = evaluateOnce(ctx, c, seen);
+    if (e) pool.push(e);
+  }
+  const first = pickBest(ctx, pool);
+  if (!first) {
+    const n = ctx.count.screened + ctx.count.exact - before;
+    return { result: emptyResult(ctx, topology, n, `${topology}: no candidate could be realised within the table`), pool };
+  }
+  let best = refine(ctx, seedsOf(ctx, first, pool), seen, pool) ?? first;
+  // The report uses the full curve; if that loses a target the scan met, take the next best.
+  for (let tries = 0; tries < 5 && !finalize(ctx, best); tries++) best = pickBest(ctx, pool) ?? best;
+  finalize(ctx, best);
+  const n = ctx.count.screened + ctx.count.exact - before;
+  return { result: stackResult(ctx, best, pool, n), pool };
+}
+
+/**
+ * Size one current source/sink: for its topology (or each of the four for
+ * 'auto') screen the design space cheaply, evaluate the most promising few
+ * hundred exactly, refine locally, and check every corner. Returns one result
+ * per topology tried and the Pareto front of all exactly evaluated designs.
+ *
+ * @example sizeStack(spec, kit, { supply: 1.8, corners: ['tt', 'ss'] }).results[0].feasible
+ */
+export function sizeStack(spec: StackSpec, kit: KitAccess, opts: { supply: number; corners: string[] }): SizeStackResult {
+  const ctx = makeContext(spec, kit, opts.supply, opts.corners);
+  const topologies: readonly Topology[] = spec.topology === 'auto' ? TOPOLOGIES : [spec.topology];
+  const results: StackResult[] = [];
+  const all: Evaluated[] = [];
+  for (const t of topologies) {
+    const { result, pool } = sizeTopology(ctx, t);
+    results.push(result);
+    all.push(...pool);
+  }
+  return { results, front: paretoFront(all.map((e) => frontPoint(ctx, e))), evaluated: ctx.count.screened + ctx.count.exact };
+}
+
+/**
+ * Size every stack of a design spec on the kit, over the spec's corners
+ * (resolved against the kit: default nominal, "all" for every corner).
+ */
+export function sizeDesign(design: DesignSpec, kit: KitAccess): SizeResult & { fronts: Record<string, FrontPoint[]> } {
+  if (design.kit !== kit.kit) {
+    throw new StackwrightError(`spec asks for kit "${design.kit}" but the tables are for "${kit.kit}"`, { where: `${design.file}: kit` });
+  }
+  const corners = resolveCorners(design, kit.corners);
+  const stacks: StackResult[] = [];
+  const fronts: Record<string, FrontPoint[]> = {};
+  for (const s of design.stacks) {
+    const r = sizeStack(s, kit, { supply: design.supply, corners });
+    stacks.push(...r.results);
+    fronts[s.name] = r.front;
+  }
+  return { kit: kit.kit, corners, supply: design.supply, caution: CAUTION, stacks, fronts };
+}

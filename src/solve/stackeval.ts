@@ -1,0 +1,71 @@
+import { StackwrightError } from '../errors.js';
+import type { StackSpec } from '../spec/types.js';
+import {
+  findHeadroom,
+  sampleAt,
+  solveOperatingPoint,
+  stackCurve,
+  type CurveSample,
+  type OpGuess,
+  type StackDevice,
+  type StackOp,
+} from '../stack/index.js';
+
+/** A stack evaluated exactly (DC solves along the whole curve) against one spec. */
+export interface StackEval {
+  gates: number[];
+  devices: StackDevice[];
+  mid: StackOp;
+  curve: CurveSample[];
+  /** Provided headroom, V (Infinity when never met). */
+  headroom: number;
+  /** Lowest Rout over [spec.headroom, span], Ω. */
+  routAtTarget: number;
+  /** Lowest Rout over [max(spec.headroom, headroom), span], Ω. */
+  rout: number;
+  /** Current at mid-span, A. */
+  iout: number;
+}
+
+/** Intervals of the reported curve (≥ 60 points). */
+export const CURVE_INTERVALS = 64;
+/** Intervals of the scan used while ranking candidates; the chosen design is re-evaluated on the full curve. */
+export const SCAN_INTERVALS = 16;
+
+/** Lowest Rout over [lo, span]: the exact point at lo plus every curve point above; uncovered points count as 0. */
+function minRout(devices: readonly StackDevice[], gates: readonly number[], curve: readonly CurveSample[], lo: number): number {
+  let j = curve.findIndex((c) => c.v >= lo);
+  if (j < 0) j = curve.length - 1;
+  const guess = curve[j].op ?? curve.find((c) => c.op)?.op ?? undefined;
+  const at = sampleAt(devices, gates, lo, guess);
+  let r = Number.isFinite(at.rout) ? at.rout : 0;
+  for (let k = j; k < curve.length; k++) r = Math.min(r, Number.isNaN(curve[k].rout) ? 0 : curve[k].rout);
+  return r;
+}
+
+/**
+ * Evaluate a stack with given widths and gates: operating point at mid-span,
+ * the curve from 0 to span, headroom and the Rout figures. Null when the table
+ * cannot cover the mid-span point (the candidate is then infeasible).
+ */
+export function evaluateStack(
+  devices: StackDevice[],
+  gates: number[],
+  spec: StackSpec,
+  vmid: number,
+  guess?: OpGuess,
+  intervals = CURVE_INTERVALS,
+): StackEval | null {
+  let mid: StackOp;
+  try {
+    mid = solveOperatingPoint(devices, gates, vmid, guess);
+  } catch (e) {
+    if (e instanceof StackwrightError && e.kind === 'range') return null;
+    throw e;
+  }
+  const curve = stackCurve(devices, gates, spec.span, { intervals, anchor: mid });
+  const headroom = findHeadroom(devices, gates, curve, { rout: spec.rout, iMid: mid.i });
+  const routAtTarget = minRout(devices, gates, curve, spec.headroom);
+  const rout = Number.isFinite(headroom) && headroom > spec.headroom ? minRout(devices, gates, curve, headroom) : routAtTarget;
+  return { gates, devices, mid, curve, headroom, routAtTarget, rout, iout: mid.i };
+}

@@ -1,0 +1,107 @@
+import type { DeviceBias, StackDevice, StackOp } from './types.js';
+import { emptyBias, evalDevice } from './evaluate-device.js';
+import { covers, rangeError } from './range.js';
+import { StackwrightError } from '../errors.js';
+
+/** Outcome of stacking devices for a trial current: the voltage needed, or which way the current is off. */
+type Trial = { kind: 'ok'; total: number } | { kind: 'high' | 'low'; at: number };
+
+const b = emptyBias();
+
+/**
+ * Drain voltage that lets device `d` carry `i` at the given gate and source,
+ * found by bisection (jd rises monotonically with VDS). 'high': the current
+ * cannot flow within `budget`; 'low': the gate drive is above the table, so the
+ * trial current is below the solution.
+ */
+function vdsFor(d: StackDevice, vgs: number, vsb: number, i: number, budget: number): number | 'high' | 'low' {
+  const r = d.slice.range;
+  if (vsb > r.vsb[1] || vgs < r.vgs[0]) return 'high';
+  if (vgs > r.vgs[1]) return 'low';
+  let lo = Math.max(r.vds[0], 0);
+  let hi = Math.min(r.vds[1], budget);
+  if (hi < lo) return 'high';
+  const f = (vds: number) => d.w * d.slice.jd(vgs, vds, vsb);
+  if (!covers(d.slice, vgs, hi, vsb) || f(hi) < i) return 'high';
+  if (f(lo) > i) return 'low';
+  for (let it = 0; it < 60 && hi - lo > 1e-13; it++) {
+    const mid = 0.5 * (lo + hi);
+    if (f(mid) < i) lo = mid;
+    else hi = mid;
+  }
+  return 0.5 * (lo + hi);
+}
+
+function trial(devices: readonly StackDevice[], gates: readonly number[], v: number, i: number, nodes: number[]): Trial {
+  let x = 0;
+  nodes[0] = 0;
+  for (let k = 0; k < devices.length; k++) {
+    const vds = vdsFor(devices[k], gates[k] - x, x, i, v - x + 1e-12);
+    if (vds === 'high' || vds === 'low') return { kind: vds, at: k };
+    x += vds;
+    nodes[k + 1] = x;
+  }
+  return { kind: 'ok', total: x };
+}
+
+/**
+ * Robust DC solve: bisection on the current (the voltage a current needs rises
+ * monotonically with it), inner monotone solves for each VDS. Slow but sure;
+ * used when Newton fails. Throws kind 'range' when the table cannot cover v.
+ */
+export function bracketedOperatingPoint(devices: readonly StackDevice[], gates: readonly number[], v: number): StackOp {
+  const n = devices.length;
+  const d0 = devices[0];
+  const vTop = Math.min(v, d0.slice.range.vds[1]);
+  if (!evalDevice(d0, gates[0], vTop, 0, b)) throw rangeError(d0.slice, gates[0], vTop, 0, 'bottom device');
+  let lo = 0;
+  let hi = b.id;
+  const nodes = new Array<number>(n + 1).fill(0);
+  if (hi <= 0) return finish(devices, gates, v, 0, lin(n, v));
+  for (let it = 0; it < 200 && hi - lo > 1e-14 * hi; it++) {
+    const mid = 0.5 * (lo + hi);
+    const t = trial(devices, gates, v, mid, nodes);
+    if (t.kind === 'low' || (t.kind === 'ok' && t.total < v)) lo = mid;
+    else hi = mid;
+  }
+  const t = trial(devices, gates, v, lo, nodes);
+  if (t.kind !== 'ok' || Math.abs(t.total - v) > 1e-6) {
+    // The solution sits against a table edge (vsb, vgs or vds): not coverable.
+    const up = trial(devices, gates, v, hi, nodes);
+    throw edgeError(devices, gates, nodes, up.kind === 'ok' ? devices.length - 1 : up.at, v);
+  }
+  nodes[n] = v;
+  return finish(devices, gates, v, lo, nodes);
+}
+
+function lin(n: number, v: number): number[] {
+  return Array.from({ length: n + 1 }, (_, k) => (v * k) / n);
+}
+
+// The solution converged onto a table edge: name the device and the axis it runs into.
+function edgeError(devices: readonly StackDevice[], gates: readonly number[], nodes: number[], k: number, v: number): StackwrightError {
+  const r = devices[k].slice.range;
+  const vsb = nodes[k];
+  const vgs = gates[k] - vsb;
+  const near = (x: number, edge: number) => Math.abs(x - edge) < 1e-6;
+  let axis = 'vds';
+  let lim = r.vds;
+  if (vsb >= r.vsb[1] || near(vsb, r.vsb[1])) [axis, lim] = ['vsb', r.vsb];
+  else if (vgs <= r.vgs[0] || near(vgs, r.vgs[0]) || vgs >= r.vgs[1] || near(vgs, r.vgs[1])) [axis, lim] = ['vgs', r.vgs];
+  return new StackwrightError(
+    `stack at v = ${v.toFixed(3)} V needs device ${k + 1} (L = ${(devices[k].slice.l * 1e6).toPrecision(4)} µm) beyond the table's ${axis} range ${lim[0]}..${lim[1]} V`,
+    { kind: 'range' },
+  );
+}
+
+function finish(devices: readonly StackDevice[], gates: readonly number[], v: number, i: number, nodes: number[]): StackOp {
+  const out: DeviceBias[] = [];
+  for (let k = 0; k < devices.length; k++) {
+    const e = emptyBias();
+    const vgs = gates[k] - nodes[k];
+    const vds = nodes[k + 1] - nodes[k];
+    if (!evalDevice(devices[k], vgs, vds, nodes[k], e)) throw rangeError(devices[k].slice, vgs, vds, nodes[k], `device ${k + 1}`);
+    out.push(e);
+  }
+  return { v, i, nodes, devices: out };
+}

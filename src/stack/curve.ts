@@ -1,0 +1,59 @@
+import { StackwrightError } from '../errors.js';
+import type { StackDevice, StackOp } from './types.js';
+import { solveOperatingPoint } from './operating.js';
+import { routAt } from './rout.js';
+
+/** One point of the I–V curve; `op` is null where the table cannot cover it. */
+export interface CurveSample {
+  v: number;
+  i: number;
+  rout: number;
+  op: StackOp | null;
+}
+
+/**
+ * The stack's I–V curve from v = 0 to `span` in `intervals` equal steps,
+ * solved by continuation outwards from `anchor` (an operating point near the
+ * design bias) so Newton starts close. Points the table cannot cover get
+ * NaN current and Rout rather than failing the whole curve.
+ */
+export function stackCurve(
+  devices: readonly StackDevice[],
+  gates: readonly number[],
+  span: number,
+  opts: { intervals?: number; anchor?: StackOp } = {},
+): CurveSample[] {
+  const n = Math.max(Math.round(opts.intervals ?? 64), 2);
+  if (!(span > 0)) throw new StackwrightError(`span must be positive, got ${span}`, { kind: 'input' });
+  const out: CurveSample[] = new Array(n + 1);
+  const vAt = (j: number) => (span * j) / n;
+  const start = opts.anchor ? Math.min(n, Math.max(0, Math.round((opts.anchor.v / span) * n))) : n;
+  let prev: StackOp | undefined = opts.anchor;
+  for (let j = start; j <= n; j++) prev = fill(j) ?? prev;
+  prev = opts.anchor ?? out[start].op ?? undefined;
+  for (let j = start - 1; j >= 0; j--) prev = fill(j) ?? prev;
+  return out;
+
+  function fill(j: number): StackOp | undefined {
+    const v = vAt(j);
+    out[j] = sampleAt(devices, gates, v, prev);
+    return out[j].op ?? undefined;
+  }
+}
+
+/** One curve sample at v, NaN where the table cannot cover it. */
+export function sampleAt(devices: readonly StackDevice[], gates: readonly number[], v: number, guess?: StackOp): CurveSample {
+  try {
+    const op = solveOperatingPoint(devices, gates, v, guess ? continued(guess, v) : undefined);
+    return { v, i: op.i, rout: routAt(op), op };
+  } catch (e) {
+    if (e instanceof StackwrightError && e.kind === 'range') return { v, i: NaN, rout: NaN, op: null };
+    throw e;
+  }
+}
+
+// Internal nodes barely move in saturation: keep them, shrinking the share above each node with v.
+function continued(op: StackOp, v: number): { i: number; nodes: number[] } {
+  const ratio = op.v > 0 ? Math.min(v / op.v, 1) : 1;
+  return { i: op.i, nodes: op.nodes.map((x) => Math.max(0, Math.min(x, v - (op.v - x) * ratio))) };
+}

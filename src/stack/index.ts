@@ -1,0 +1,11 @@
+export type { StackDevice, DeviceBias, StackOp, OpGuess } from './types.js';
+export { rolesOf, setpointCount } from './topology.js';
+export { covers, rangeError } from './range.js';
+export { solveOperatingPoint } from './operating.js';
+export { routAt, routOf } from './rout.js';
+export { stackCurve, sampleAt, type CurveSample } from './curve.js';
+export { findHeadroom, holds, type HeadroomTarget } from './headroom.js';
+export { gmidAt, vgsForGmid, vgsForCurrent, vgsWindow, type VdsMode } from './invert.js';
+export { sizeStackDevices, type StackDesign, type SizedStack } from './sizing.js';
+export { biasDevices, biasGates, type BiasDevice } from './bias.js';
+export { fitSquareLaw, squareLawCheck, ruleOfThumbHeadroom, type SquareLawFit } from './squarelaw.js';

@@ -1,0 +1,126 @@
+import type { DeviceBias, OpGuess, StackDevice, StackOp } from './types.js';
+import { emptyBias, evalDevice } from './evaluate-device.js';
+import { covers } from './range.js';
+
+const MAX_ITER = 40;
+// A step limit keeps Newton from leaping across the saturation knee, where gds is tiny.
+const MAX_STEP = 0.1;
+
+/**
+ * Newton on KCL of the series chain: unknowns x_1..x_{N−1} and I, residuals
+ * r_k = W_k·jd_k(g_k − x_{k−1}, x_k − x_{k−1}, x_{k−1}) − I. Returns null when
+ * it leaves the table or does not converge, so the caller can fall back.
+ */
+export function newtonOperatingPoint(devices: readonly StackDevice[], gates: readonly number[], v: number, guess: OpGuess): StackOp | null {
+  const n = devices.length;
+  const x = new Array<number>(n + 1);
+  x[0] = 0;
+  x[n] = v;
+  for (let k = 1; k < n; k++) x[k] = Math.min(Math.max(guess.nodes[k] ?? (v * k) / n, x[k - 1]), v);
+  const slope: DeviceBias[] = devices.map(() => emptyBias());
+  let i = guess.i;
+  if (!(i > 0)) {
+    if (!covers(devices[0].slice, gates[0], x[1], 0)) return null;
+    i = devices[0].w * devices[0].slice.jd(gates[0], x[1], 0);
+  }
+  const r = new Float64Array(n);
+  const dx = new Float64Array(n);
+
+  for (let it = 0; it < MAX_ITER; it++) {
+    let rmax = 0;
+    for (let k = 0; k < n; k++) {
+      if (!slopes(devices[k], gates[k] - x[k], x[k + 1] - x[k], x[k], slope[k])) return null;
+      r[k] = slope[k].id - i;
+      rmax = Math.max(rmax, Math.abs(r[k]));
+    }
+    if (rmax <= 1e-10 * Math.abs(i) + 1e-24) return finish(devices, gates, v, i, x);
+    if (!chainStep(slope, r, dx)) return null;
+    // dx[0..n−2] are node steps, dx[n−1] the current step.
+    let scale = 1;
+    for (let k = 0; k < n - 1; k++) scale = Math.min(scale, MAX_STEP / Math.max(Math.abs(dx[k]), 1e-300));
+    const di = dx[n - 1] * scale;
+    if (i + di < 0.2 * i) scale *= (0.8 * i) / Math.max(-di, 1e-300);
+    if (!(scale > 0) || !Number.isFinite(scale)) return null;
+    for (let k = 1; k < n; k++) x[k] = Math.min(Math.max(x[k] + scale * dx[k - 1], x[k - 1]), v);
+    i = Math.max(i + scale * dx[n - 1], 0);
+    if (!Number.isFinite(i)) return null;
+  }
+  return null;
+}
+
+// Finite-difference step: the Jacobian must match the interpolated jd itself
+// (stored gm/gds are not its exact derivatives), or Newton only converges linearly.
+const H = 1e-5;
+
+/** Current and its slopes along VGS, VDS and VSB from jd alone, into `out` (gmb as −∂I/∂VSB). */
+function slopes(d: StackDevice, vgs: number, vds: number, vsb: number, out: DeviceBias): boolean {
+  const s = d.slice;
+  if (!covers(s, vgs, vds, vsb)) return false;
+  const f = (a: number, b: number, c: number) => d.w * s.jd(a, b, c);
+  const id = f(vgs, vds, vsb);
+  const step = (x: number, hi: number) => (x + H <= hi ? H : -H);
+  const r = s.range;
+  const hg = step(vgs, r.vgs[1]);
+  const hd = step(vds, r.vds[1]);
+  const hs = step(vsb, r.vsb[1]);
+  out.vgs = vgs;
+  out.vds = vds;
+  out.vsb = vsb;
+  out.id = id;
+  out.gm = (f(vgs + hg, vds, vsb) - id) / hg;
+  out.gds = (f(vgs, vds + hd, vsb) - id) / hd;
+  out.gmb = -(f(vgs, vds, vsb + hs) - id) / hs;
+  return true;
+}
+
+/** The reported operating point: table small-signal values at the solved bias. */
+function finish(devices: readonly StackDevice[], gates: readonly number[], v: number, i: number, x: number[]): StackOp | null {
+  const out: DeviceBias[] = [];
+  for (let k = 0; k < devices.length; k++) {
+    const b = emptyBias();
+    if (!evalDevice(devices[k], gates[k] - x[k], x[k + 1] - x[k], x[k], b)) return null;
+    out.push(b);
+  }
+  return { v, i, nodes: x, devices: out };
+}
+
+/**
+ * Solve J·dx = −r for the chain Jacobian without forming it: row k has
+ * −(gm+gds+gmb)_k on x_{k−1}, gds_k on x_k and −1 on I. Write x_k = a_k + b_k·dI
+ * and substitute upwards from x_0 = 0; the top row (x_N fixed) gives dI.
+ */
+function chainStep(bias: readonly DeviceBias[], r: Float64Array, dx: Float64Array): boolean {
+  const n = bias.length;
+  let a = 0;
+  let b = 0;
+  for (let k = 0; k < n; k++) {
+    const d = bias[k];
+    const src = d.gm + d.gds + d.gmb;
+    // −src·x_{k−1} + gds·x_k − dI = −r_k
+    const ra = -r[k] + src * a;
+    const rb = 1 + src * b;
+    if (k === n - 1) {
+      // x_N is fixed (step 0): 0 = ra + rb·dI
+      if (!(Math.abs(rb) > 0)) return false;
+      const di = -ra / rb;
+      dx[n - 1] = di;
+      return Number.isFinite(di) && fill(bias, r, dx, di);
+    }
+    if (!(d.gds > 0)) return false;
+    a = ra / d.gds;
+    b = rb / d.gds;
+  }
+  return false;
+}
+
+// Node steps from the current step, by the same forward substitution.
+function fill(bias: readonly DeviceBias[], r: Float64Array, dx: Float64Array, di: number): boolean {
+  let prev = 0;
+  for (let k = 0; k < bias.length - 1; k++) {
+    const d = bias[k];
+    const xk = (-r[k] + (d.gm + d.gds + d.gmb) * prev + di) / d.gds;
+    dx[k] = xk;
+    prev = xk;
+  }
+  return dx.every(Number.isFinite);
+}

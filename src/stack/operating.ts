@@ -1,0 +1,35 @@
+import { StackwrightError } from '../errors.js';
+import type { OpGuess, StackDevice, StackOp } from './types.js';
+import { newtonOperatingPoint } from './newton.js';
+import { bracketedOperatingPoint } from './bracketed.js';
+import { emptyBias, evalDevice } from './evaluate-device.js';
+import { rangeError } from './range.js';
+
+/**
+ * DC operating point of a stack at stack voltage `v` with fixed gate voltages
+ * (stack coordinates). One current flows; device k has source nodes[k-1],
+ * drain nodes[k], VSB = nodes[k-1]. Newton from `guess` first, bracketed
+ * bisection when that fails. Throws kind 'range' when the table cannot cover v.
+ *
+ * @example solveOperatingPoint([{ slice, w: 2e-6 }], [0.65], 0.9).i
+ */
+export function solveOperatingPoint(devices: readonly StackDevice[], gates: readonly number[], v: number, guess?: OpGuess): StackOp {
+  if (devices.length === 0 || devices.length !== gates.length) {
+    throw new StackwrightError(`stack needs one gate voltage per device (got ${devices.length} devices, ${gates.length} gates)`, { kind: 'internal' });
+  }
+  if (!(v >= 0) || !Number.isFinite(v)) throw new StackwrightError(`stack voltage must be ≥ 0 V, got ${v}`, { kind: 'input' });
+  if (devices.length === 1) return singleDevice(devices[0], gates[0], v);
+  const g = guess ?? defaultGuess(devices.length, v);
+  return newtonOperatingPoint(devices, gates, v, g) ?? bracketedOperatingPoint(devices, gates, v);
+}
+
+function defaultGuess(n: number, v: number): OpGuess {
+  return { i: 0, nodes: Array.from({ length: n + 1 }, (_, k) => (v * k) / n) };
+}
+
+// One device: no unknown node, the table gives the current directly.
+function singleDevice(d: StackDevice, gate: number, v: number): StackOp {
+  const b = emptyBias();
+  if (!evalDevice(d, gate, v, 0, b)) throw rangeError(d.slice, gate, v, 0, 'device 1');
+  return { v, i: b.id, nodes: [0, v], devices: [b] };
+}

@@ -1,0 +1,69 @@
+import { StackwrightError } from '../errors.js';
+import type { LengthSlice } from '../device/types.js';
+import type { Topology } from '../spec/types.js';
+import { setpointCount } from './topology.js';
+import { vgsForGmid } from './invert.js';
+
+/** The design variables of one stack. */
+export interface StackDesign {
+  topology: Topology;
+  /** One slice per device, from the rail outwards. */
+  slices: readonly LengthSlice[];
+  /** gm/ID of each device at its design bias, 1/V. */
+  gmid: readonly number[];
+  /** VDS setpoints of the lower devices (cascode: 1, triple: 2, else none), V. */
+  setpoints: readonly number[];
+  /** Design current, A. */
+  current: number;
+  /** Mid-span stack voltage where the design bias holds, V. */
+  vmid: number;
+}
+
+/** Widths, gate voltages (stack coordinates) and design-bias nodes of a stack. */
+export interface SizedStack {
+  w: number[];
+  vgs: number[];
+  gates: number[];
+  /** Node voltages x_0..x_N at v = vmid. */
+  nodes: number[];
+}
+
+/**
+ * Size a stack from its design variables: each device sits at its design
+ * bias at v = vmid, VGS follows from gm/ID there, W = I / jd, and the gate is
+ * VGS plus the source node. Low-voltage biasing puts the lower drains at the
+ * setpoints; the stacked cascode has VDS1 = VGS1 (its bias diode sets x1).
+ * Returns null when the table cannot reach a device's gm/ID at its bias.
+ */
+export function sizeStackDevices(d: StackDesign): SizedStack | null {
+  const n = d.slices.length;
+  if (d.gmid.length !== n) throw new StackwrightError(`need one gm/ID per device (${n}), got ${d.gmid.length}`, { kind: 'internal' });
+  if (d.setpoints.length !== setpointCount(d.topology)) {
+    throw new StackwrightError(`${d.topology} takes ${setpointCount(d.topology)} VDS setpoints, got ${d.setpoints.length}`, { kind: 'internal' });
+  }
+  const nodes = [0];
+  const vgs: number[] = [];
+  const w: number[] = [];
+  for (let k = 0; k < n; k++) {
+    const xs = nodes[k];
+    let g: number | null;
+    let vds: number;
+    if (d.topology === 'cascode-stacked' && k === 0) {
+      g = vgsForGmid(d.slices[0], d.gmid[0], 'diode', 0);
+      vds = g ?? NaN;
+    } else {
+      vds = k < n - 1 ? d.setpoints[k] : d.vmid - xs;
+      if (!(vds > 0)) return null;
+      g = vgsForGmid(d.slices[k], d.gmid[k], vds, xs);
+    }
+    if (g === null) return null;
+    const jd = d.slices[k].jd(g, vds, xs);
+    if (!(jd > 0)) return null;
+    vgs.push(g);
+    w.push(d.current / jd);
+    nodes.push(xs + vds);
+  }
+  if (Math.abs(nodes[n] - d.vmid) > 1e-9) return null;
+  const gates = vgs.map((g, k) => g + nodes[k]);
+  return { w, vgs, gates, nodes };
+}

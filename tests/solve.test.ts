@@ -1,0 +1,240 @@
+import { describe, expect, it } from 'vitest';
+import type { LengthSlice, OperatingPoint } from '../src/device/types.js';
+import { StackwrightError } from '../src/errors.js';
+import type { DesignSpec, StackSpec } from '../src/spec/types.js';
+import { CAUTION, evaluateAtCorner, sizeDesign, sizeStack, type FrontPoint, type KitAccess, type StackResult } from '../src/solve/index.js';
+import { solveOperatingPoint, type StackDevice } from '../src/stack/index.js';
+
+// ---- Analytic kit (invented parameters, not any real process) ----
+
+type Model = (vgs: number, vds: number, vsb: number) => [number, number, number, number];
+
+function sliceOf(l: number, model: Model, vsbMax = 1.2): LengthSlice {
+  const small = (vgs: number, vds: number, vsb: number, out = new Float64Array(4)) => {
+    const r = model(vgs, vds, vsb);
+    out[0] = r[0]; out[1] = r[1]; out[2] = r[2]; out[3] = r[3];
+    return out;
+  };
+  return {
+    l,
+    jd: (vgs, vds, vsb) => model(vgs, vds, vsb)[0],
+    small,
+    op: (vgs, vds, vsb, w): OperatingPoint => {
+      const [jd, gm, gds, gmb] = model(vgs, vds, vsb);
+      return {
+        l, w, vgs, vds, vsb, id: jd * w, gm: gm * w, gds: gds * w, gmb: gmb * w,
+        cgg: NaN, cgs: NaN, cgd: NaN, cdd: NaN, gmid: gm / jd, jd, gain: gm / gds, ft: NaN,
+      };
+    },
+    range: { vgs: [0, 1.8], vds: [0, 1.8], vsb: [0, vsbMax] },
+  };
+}
+
+/**
+ * EKV-style smooth model, bulk-referenced (Enz, Krummenacher & Vittoz, 1995; from memory):
+ * ID = IS·[F(uf) − F(ur)]·(1+λVDS), F(u) = ln²(1+e^{u/2}), uf = (VP−VS)/UT, ur = (VP−VD)/UT,
+ * VP = (VG−VT0)/n, IS = 2nβUT²; hence gmb = (n−1)·gm. Derivatives analytic.
+ */
+function ekv(p: { l: number; vt0: number; kp: number; n: number; lambda: number }): Model {
+  const ut = 0.02585;
+  const is = (2 * p.n * p.kp * ut * ut) / p.l;
+  const lg = (u: number) => (u > 60 ? u / 2 : Math.log1p(Math.exp(u / 2)));
+  const sig = (u: number) => 1 / (1 + Math.exp(-u / 2));
+  return (vgs, vds, vsb) => {
+    const vp = (vgs + vsb - p.vt0) / p.n;
+    const uf = (vp - vsb) / ut;
+    const ur = (vp - vsb - vds) / ut;
+    const lf = lg(uf);
+    const lr = lg(ur);
+    const dF = lf * sig(uf); // F'(uf)
+    const dR = lr * sig(ur);
+    const clm = 1 + p.lambda * vds;
+    const core = is * (lf * lf - lr * lr);
+    const gm = (is * (dF - dR) * clm) / (p.n * ut);
+    return [core * clm, gm, (is * dR * clm) / ut + core * p.lambda, (p.n - 1) * gm];
+  };
+}
+
+
+const LENGTHS = [0.18e-6, 0.25e-6, 0.35e-6, 0.5e-6, 0.7e-6, 1e-6, 1.4e-6, 2e-6];
+// A "slow" corner: higher threshold, lower mobility, stronger channel-length modulation (invented).
+const CORNERS: Record<string, { dv: number; k: number; lam: number }> = {
+  tt: { dv: 0, k: 1, lam: 1 },
+  ss: { dv: 0.06, k: 0.85, lam: 1.4 },
+};
+const AVT = 4e-9; // 4 mV·µm
+const ABETA = 1e-8; // 1 %·µm
+
+function analyticKit(withMismatch = true): KitAccess {
+  return {
+    kit: 'analytic',
+    corners: ['tt', 'ss'],
+    lengths: () => Float64Array.from(LENGTHS),
+    slice: (c, _d, l) => {
+      const p = CORNERS[c];
+      return sliceOf(l, ekv({ l, vt0: 0.45 + p.dv, kp: 250e-6 * p.k, n: 1.35, lambda: (0.05e-6 / l) * p.lam }));
+    },
+    mismatch: () => (withMismatch ? { avt: AVT, abeta: ABETA } : undefined),
+  };
+}
+
+const kit = analyticKit();
+const base: StackSpec = {
+  name: 'sink', device: 'n', topology: 'cascode', current: 20e-6, rout: 50e6, headroom: 0.5, span: 1.8, objective: 'area',
+};
+const size = (spec: Partial<StackSpec>, corners = ['tt']) => sizeStack({ ...base, ...spec }, kit, { supply: 1.8, corners });
+
+// Re-solve a reported design from its W, L and gates, independently of the search's bookkeeping.
+function rebuilt(r: StackResult, corner = 'tt'): { devices: StackDevice[]; gates: number[] } {
+  const devices = r.devices.map((d) => ({ slice: kit.slice(corner, r.device, d.l), w: d.w }));
+  const gates = r.devices.map((d) => (r.device === 'n' ? d.gate : 1.8 - d.gate));
+  return { devices, gates };
+}
+
+describe('sizing search on an analytic kit', () => {
+  const area = size({}).results[0];
+  const hr = size({ objective: 'headroom' }).results[0];
+  const ro = size({ objective: 'rout' }).results[0];
+
+  it('finds a feasible cascode that meets Rout, headroom and current', () => {
+    expect(area.feasible).toBe(true);
+    expect(area.topology).toBe('cascode');
+    expect(area.predicted.rout).toBeGreaterThanOrEqual(base.rout);
+    expect(area.predicted.headroom).toBeLessThanOrEqual(base.headroom);
+    expect(Math.abs(area.predicted.iout - base.current) / base.current).toBeLessThanOrEqual(0.01);
+    expect(area.curve.length).toBeGreaterThanOrEqual(60);
+    expect(area.bias).toHaveLength(2);
+    expect(area.evaluated).toBeGreaterThan(100);
+  });
+
+  it('the reported design really has Rout ≥ target at the headroom target (ΔV/ΔI from two DC solves)', () => {
+    const { devices, gates } = rebuilt(area);
+    const v = base.headroom;
+    const dv = 1e-3;
+    const numeric = (2 * dv) / (solveOperatingPoint(devices, gates, v + dv).i - solveOperatingPoint(devices, gates, v - dv).i);
+    // Definition of small-signal output resistance, from two independent DC solves.
+    expect(numeric).toBeGreaterThan(0.97 * base.rout);
+    // Mid-span current from a fresh solve equals the target (the 1 % window of the spec).
+    const mid = solveOperatingPoint(devices, gates, 0.5 * (base.headroom + base.span));
+    expect(Math.abs(mid.i - base.current) / base.current).toBeLessThan(0.01);
+  });
+
+  it('objective orders hold: each objective is best at its own measure among the three designs', () => {
+    // Definition of a constrained optimum: no other feasible design beats it on its own objective.
+    for (const r of [hr, ro]) expect(r.feasible).toBe(true);
+    expect(area.predicted.area).toBeLessThanOrEqual(hr.predicted.area);
+    expect(area.predicted.area).toBeLessThanOrEqual(ro.predicted.area);
+    expect(hr.predicted.headroom).toBeLessThanOrEqual(area.predicted.headroom + 1e-3);
+    expect(hr.predicted.headroom).toBeLessThanOrEqual(ro.predicted.headroom + 1e-3);
+    expect(ro.predicted.rout).toBeGreaterThanOrEqual(0.99 * area.predicted.rout);
+    expect(ro.predicted.rout).toBeGreaterThanOrEqual(0.99 * hr.predicted.rout);
+    // And the trade-off is real: the headroom design buys its headroom.
+    expect(hr.predicted.headroom).toBeLessThan(area.predicted.headroom - 0.05);
+  });
+
+  it('the square-law comparison extracts a threshold near the model\'s VT0', () => {
+    // Common practice: max-slope sqrt(ID) extrapolation lands near VT0 (+ a few UT for a weak-inversion tail).
+    expect(area.squareLaw).toBeDefined();
+    expect(Math.abs(area.squareLaw!.vth - 0.45)).toBeLessThan(0.1);
+    expect(area.squareLaw!.vov.every((x) => x > 0)).toBe(true);
+  });
+
+  it('an impossible Rout is reported infeasible with the binding target and the nearest points', () => {
+    const r = size({ rout: 1e13 }).results[0];
+    expect(r.feasible).toBe(false);
+    expect(r.binding).toMatch(/^rout: best /);
+    expect(r.nearest?.routAtHeadroom).toBeGreaterThan(base.rout);
+    expect(r.nearest?.routAtHeadroom).toBeLessThan(1e13);
+    expect(r.nearest?.headroomAtRout ?? 0).toBeGreaterThan(base.headroom);
+    expect(r.devices).toHaveLength(2);
+    expect(r.curve.length).toBeGreaterThanOrEqual(60);
+  });
+
+  it('a mismatch target is met and σ matches a hand Pelgrom computation', () => {
+    const target = 0.005;
+    // The unconstrained design misses it, so the constraint is active.
+    expect(area.predicted.sigma!).toBeGreaterThan(target);
+    const r = size({ mismatch: target }).results[0];
+    expect(r.feasible).toBe(true);
+    expect(r.predicted.sigma!).toBeLessThanOrEqual(target);
+    const d = r.devices[0];
+    // Pelgrom, Duinmaijer & Welbers, IEEE JSSC 1989; Kinget, IEEE JSSC 2005: σ² = ((gm/ID)²·AVT² + Aβ²)/(W·L).
+    const hand = Math.sqrt((d.gmid * d.gmid * AVT * AVT + ABETA * ABETA) / (d.w * d.l));
+    expect(r.predicted.sigma! / hand).toBeCloseTo(1, 9);
+    expect(r.predicted.area).toBeGreaterThan(area.predicted.area);
+  });
+
+  it('a mismatch target on a kit without coefficients is an input error naming mismatch', () => {
+    let err: unknown;
+    try {
+      sizeStack({ ...base, mismatch: 0.01 }, analyticKit(false), { supply: 1.8, corners: ['tt'] });
+    } catch (e) {
+      err = e;
+    }
+    expect(err).toBeInstanceOf(StackwrightError);
+    expect((err as StackwrightError).kind).toBe('input');
+    expect((err as Error).message).toMatch(/mismatch/);
+  });
+
+  it('sized for tt alone it fails the slow corner; sized for [tt, ss] it meets both', () => {
+    const ss = evaluateAtCorner(area, base, kit, 'ss', 1.8);
+    expect(ss.feasible).toBe(false);
+    const both = size({}, ['tt', 'ss']).results[0];
+    expect(both.feasible).toBe(true);
+    expect(both.corners?.map((c) => c.corner)).toEqual(['tt', 'ss']);
+    expect(both.corners?.every((c) => c.feasible)).toBe(true);
+    expect(both.binding).toMatch(/^corner (tt|ss) binds/);
+    // Re-checking the sized design independently on ss agrees, and its gates moved with the corner.
+    const again = evaluateAtCorner(both, base, kit, 'ss', 1.8);
+    expect(again.feasible).toBe(true);
+    expect(again.gates[0]).toBeGreaterThan(both.devices[0].gate);
+    // Rout at the headroom target on ss from fresh DC solves with the re-derived gates (definition of Rout).
+    const devices = both.devices.map((d) => ({ slice: kit.slice('ss', 'n', d.l), w: d.w }));
+    const dv = 1e-3;
+    const numeric = (2 * dv) / (solveOperatingPoint(devices, again.gates, 0.5 + dv).i - solveOperatingPoint(devices, again.gates, 0.5 - dv).i);
+    expect(numeric).toBeGreaterThan(0.97 * base.rout);
+  });
+});
+
+describe('auto topology and the Pareto front', () => {
+  const r = size({ topology: 'auto' });
+
+  it('reports one result per topology', () => {
+    expect(r.results.map((x) => x.topology)).toEqual(['single', 'cascode', 'cascode-stacked', 'triple']);
+    // Common practice: one device cannot give 50 MΩ at 20 µA with these L (ro = 1/(λ·I)).
+    expect(r.results[0].feasible).toBe(false);
+    expect(r.results[1].feasible).toBe(true);
+  });
+
+  it('no front point is dominated by another (headroom ↓, Rout ↑, area ↓)', () => {
+    expect(r.front.length).toBeGreaterThan(3);
+    // Pareto dominance, written out independently of the library's helper.
+    const dom = (a: FrontPoint, b: FrontPoint) =>
+      a.headroom <= b.headroom && a.rout >= b.rout && a.area <= b.area && (a.headroom < b.headroom || a.rout > b.rout || a.area < b.area);
+    for (const a of r.front) for (const b of r.front) expect(dom(a, b)).toBe(false);
+    expect(new Set(r.front.map((p) => p.topology)).size).toBeGreaterThan(1);
+    for (const p of r.front) expect(p.devices.every((d) => d.l > 0 && d.gmid > 0)).toBe(true);
+  });
+});
+
+describe('sizeDesign', () => {
+  it('sizes every stack, p-type in supply-referenced coordinates, with the caution text', () => {
+    const design: DesignSpec = {
+      file: 'spec.yaml', kit: 'analytic', corners: ['tt'], supply: 1.8,
+      stacks: [base, { ...base, name: 'source', device: 'p', topology: 'cascode', rout: 30e6, headroom: 0.6 }],
+    };
+    const out = sizeDesign(design, kit);
+    expect(out.caution).toBe(CAUTION);
+    expect(out.stacks.map((s) => s.name)).toEqual(['sink', 'source']);
+    expect(Object.keys(out.fronts)).toEqual(['sink', 'source']);
+    const p = out.stacks[1];
+    expect(p.feasible).toBe(true);
+    // Stack coordinates for a p-type source: v = supply − Vout.
+    for (const c of p.curve) expect(c.vout).toBeCloseTo(1.8 - c.v, 12);
+    expect(p.devices[0].gate).toBeCloseTo(1.8 - p.devices[0].vgs, 9);
+  });
+
+  it('rejects a spec for another kit', () => {
+    expect(() => sizeDesign({ file: 'spec.yaml', kit: 'other', corners: [], supply: 1.8, stacks: [base] }, kit)).toThrow(/spec.yaml: kit/);
+  });
+});

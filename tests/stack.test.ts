@@ -1,0 +1,255 @@
+import { describe, expect, it } from 'vitest';
+import type { LengthSlice, OperatingPoint } from '../src/device/types.js';
+import { StackwrightError } from '../src/errors.js';
+import {
+  biasDevices,
+  biasGates,
+  findHeadroom,
+  fitSquareLaw,
+  routAt,
+  sampleAt,
+  sizeStackDevices,
+  solveOperatingPoint,
+  stackCurve,
+  type StackDevice,
+} from '../src/stack/index.js';
+import { bracketedOperatingPoint } from '../src/stack/bracketed.js';
+
+// ---- Analytic test devices (invented parameters, not any real process) ----
+
+type Model = (vgs: number, vds: number, vsb: number) => [number, number, number, number];
+
+function sliceOf(l: number, model: Model, vsbMax = 1.2): LengthSlice {
+  const small = (vgs: number, vds: number, vsb: number, out = new Float64Array(4)) => {
+    const r = model(vgs, vds, vsb);
+    out[0] = r[0]; out[1] = r[1]; out[2] = r[2]; out[3] = r[3];
+    return out;
+  };
+  return {
+    l,
+    jd: (vgs, vds, vsb) => model(vgs, vds, vsb)[0],
+    small,
+    op: (vgs, vds, vsb, w): OperatingPoint => {
+      const [jd, gm, gds, gmb] = model(vgs, vds, vsb);
+      return {
+        l, w, vgs, vds, vsb, id: jd * w, gm: gm * w, gds: gds * w, gmb: gmb * w,
+        cgg: NaN, cgs: NaN, cgd: NaN, cdd: NaN, gmid: gm / jd, jd, gain: gm / gds, ft: NaN,
+      };
+    },
+    range: { vgs: [0, 1.8], vds: [0, 1.8], vsb: [0, vsbMax] },
+  };
+}
+
+/**
+ * Shichman–Hodges square law with channel-length modulation and body effect
+ * (Razavi, Design of Analog CMOS Integrated Circuits, ch. 2):
+ * ID/W = (k'/2L)·Vov²·(1+λVDS) in saturation, k'/L·(Vov·VDS − VDS²/2)·(1+λVDS) in triode,
+ * Vth = Vth0 + γ(√(2φF+VSB) − √(2φF)).
+ */
+function squareLaw(p: { l: number; vth0: number; kp: number; lambda: number; gamma: number; phi2: number }): Model {
+  const beta = p.kp / p.l;
+  return (vgs, vds, vsb) => {
+    const vth = p.vth0 + p.gamma * (Math.sqrt(p.phi2 + vsb) - Math.sqrt(p.phi2));
+    const dvth = p.gamma / (2 * Math.sqrt(p.phi2 + vsb));
+    const vov = vgs - vth;
+    if (vov <= 0) return [0, 0, 0, 0];
+    const clm = 1 + p.lambda * vds;
+    if (vds >= vov) {
+      const gm = beta * vov * clm;
+      return [0.5 * beta * vov * vov * clm, gm, 0.5 * beta * vov * vov * p.lambda, gm * dvth];
+    }
+    const core = vov * vds - 0.5 * vds * vds;
+    const gm = beta * vds * clm;
+    return [beta * core * clm, gm, beta * (vov - vds) * clm + beta * core * p.lambda, gm * dvth];
+  };
+}
+
+/**
+ * EKV-style smooth model, bulk-referenced (Enz, Krummenacher & Vittoz, 1995; from memory):
+ * ID = IS·[F(uf) − F(ur)]·(1+λVDS), F(u) = ln²(1+e^{u/2}), uf = (VP−VS)/UT, ur = (VP−VD)/UT,
+ * VP = (VG−VT0)/n, IS = 2nβUT²; hence gmb = (n−1)·gm. Derivatives analytic.
+ */
+function ekv(p: { l: number; vt0: number; kp: number; n: number; lambda: number }): Model {
+  const ut = 0.02585;
+  const is = (2 * p.n * p.kp * ut * ut) / p.l;
+  const lg = (u: number) => (u > 60 ? u / 2 : Math.log1p(Math.exp(u / 2)));
+  const sig = (u: number) => 1 / (1 + Math.exp(-u / 2));
+  return (vgs, vds, vsb) => {
+    const vp = (vgs + vsb - p.vt0) / p.n;
+    const uf = (vp - vsb) / ut;
+    const ur = (vp - vsb - vds) / ut;
+    const lf = lg(uf);
+    const lr = lg(ur);
+    const dF = lf * sig(uf); // F'(uf)
+    const dR = lr * sig(ur);
+    const clm = 1 + p.lambda * vds;
+    const core = is * (lf * lf - lr * lr);
+    const gm = (is * (dF - dR) * clm) / (p.n * ut);
+    return [core * clm, gm, (is * dR * clm) / ut + core * p.lambda, (p.n - 1) * gm];
+  };
+}
+
+const ekvSlice = (l: number) => sliceOf(l, ekv({ l, vt0: 0.45, kp: 250e-6, n: 1.35, lambda: 0.08e-6 / l }));
+const slSlice = (l: number, lambda = 0.05) =>
+  sliceOf(l, squareLaw({ l, vth0: 0.4, kp: 200e-6, lambda, gamma: 0.4, phi2: 0.7 }));
+
+function cascodeOn(slices: LengthSlice[], gmid: number[], setpoints: number[], topology: 'cascode' | 'triple' | 'cascode-stacked' = 'cascode') {
+  const sized = sizeStackDevices({ topology, slices, gmid, setpoints, current: 20e-6, vmid: 1.2 });
+  if (!sized) throw new Error('test design not reachable');
+  const devices: StackDevice[] = slices.map((slice, k) => ({ slice, w: sized.w[k] }));
+  return { sized, devices };
+}
+
+describe('Rout of the solved stack', () => {
+  const { sized, devices } = cascodeOn([ekvSlice(0.5e-6), ekvSlice(0.3e-6)], [12, 10], [0.2]);
+
+  for (const v of [0.6, 0.9, 1.5]) {
+    it(`two devices at v = ${v} V: Rout = ro1 + ro2 + (gm2+gmb2)·ro1·ro2`, () => {
+      const op = solveOperatingPoint(devices, sized.gates, v);
+      const [d1, d2] = op.devices;
+      const ro1 = 1 / d1.gds;
+      const ro2 = 1 / d2.gds;
+      // Gray, Hurst, Lewis & Meyer, Analysis and Design of Analog Integrated Circuits, ch. 4;
+      // Razavi, Design of Analog CMOS Integrated Circuits, ch. 5 (cascode output resistance).
+      const textbook = ro1 + ro2 + (d2.gm + d2.gmb) * ro1 * ro2;
+      expect(routAt(op) / textbook).toBeCloseTo(1, 10);
+      expect(d2.vsb).toBeGreaterThan(0.1); // the upper device really has body effect
+    });
+
+    it(`two devices at v = ${v} V: Rout agrees with ΔV/ΔI from two DC solves`, () => {
+      // Independent check: definition of small-signal resistance, finite difference of the DC solution.
+      const dv = 2e-3;
+      const hi = solveOperatingPoint(devices, sized.gates, v + dv);
+      const lo = solveOperatingPoint(devices, sized.gates, v - dv);
+      const numeric = (2 * dv) / (hi.i - lo.i);
+      const op = solveOperatingPoint(devices, sized.gates, v);
+      expect(numeric / routAt(op)).toBeGreaterThan(0.98);
+      expect(numeric / routAt(op)).toBeLessThan(1.02);
+    });
+  }
+
+  it('three devices: Rout agrees with ΔV/ΔI from two DC solves', () => {
+    const t = cascodeOn([ekvSlice(0.5e-6), ekvSlice(0.3e-6), ekvSlice(0.3e-6)], [12, 12, 10], [0.2, 0.2], 'triple');
+    const v = 1.0;
+    const dv = 2e-3;
+    const numeric = (2 * dv) / (solveOperatingPoint(t.devices, t.sized.gates, v + dv).i - solveOperatingPoint(t.devices, t.sized.gates, v - dv).i);
+    // Definition of small-signal resistance (finite difference of the DC solution).
+    expect(numeric / routAt(solveOperatingPoint(t.devices, t.sized.gates, v))).toBeCloseTo(1, 1);
+  });
+});
+
+describe('DC operating point', () => {
+  const { sized, devices } = cascodeOn([ekvSlice(0.5e-6), ekvSlice(0.3e-6)], [12, 10], [0.2]);
+
+  it('KCL: the solved current equals each device\'s own table current at its solved bias', () => {
+    for (const v of [0.05, 0.3, 0.7, 1.2, 1.8]) {
+      const op = solveOperatingPoint(devices, sized.gates, v);
+      expect(op.nodes[2]).toBe(v);
+      for (let k = 0; k < 2; k++) {
+        const xs = op.nodes[k];
+        const id = devices[k].w * devices[k].slice.jd(sized.gates[k] - xs, op.nodes[k + 1] - xs, xs);
+        // Kirchhoff's current law: one current through a series chain.
+        expect(Math.abs(id - op.i) / op.i).toBeLessThan(1e-9);
+      }
+    }
+  });
+
+  it('at the design bias the current is the design current and the lower drain sits at its setpoint', () => {
+    const op = solveOperatingPoint(devices, sized.gates, 1.2);
+    // By the low-voltage biasing definition: g2 = VDS1 + VGS2 pins x1 = VDS1 at v = vmid.
+    expect(op.i / 20e-6).toBeCloseTo(1, 8);
+    expect(op.nodes[1]).toBeCloseTo(0.2, 6);
+  });
+
+  it('Newton and the bracketed bisection agree', () => {
+    for (const v of [0.1, 0.4, 1.0]) {
+      const a = solveOperatingPoint(devices, sized.gates, v);
+      const b = bracketedOperatingPoint(devices, sized.gates, v);
+      expect(a.i / b.i).toBeCloseTo(1, 8);
+      expect(a.nodes[1]).toBeCloseTo(b.nodes[1], 6);
+    }
+  });
+
+  it('the I–V curve is monotone (a passive chain of monotone devices) and starts at zero current', () => {
+    const curve = stackCurve(devices, sized.gates, 1.8, { intervals: 90 });
+    expect(curve).toHaveLength(91);
+    expect(Math.abs(curve[0].i)).toBeLessThan(1e-18);
+    for (let j = 1; j < curve.length; j++) expect(curve[j].i).toBeGreaterThanOrEqual(curve[j - 1].i);
+  });
+
+  it('a bias beyond the table (VSB) is a range error, and a NaN curve point, not a crash', () => {
+    const slices = [sliceOf(0.5e-6, ekv({ l: 0.5e-6, vt0: 0.45, kp: 250e-6, n: 1.35, lambda: 0.16 }), 0.3), sliceOf(0.5e-6, ekv({ l: 0.5e-6, vt0: 0.45, kp: 250e-6, n: 1.35, lambda: 0.16 }), 0.3)];
+    const devs = slices.map((slice) => ({ slice, w: 5e-6 }));
+    let err: unknown;
+    try {
+      solveOperatingPoint(devs, [0.7, 1.6], 1.5);
+    } catch (e) {
+      err = e;
+    }
+    expect(err).toBeInstanceOf(StackwrightError);
+    expect((err as StackwrightError).kind).toBe('range');
+    expect((err as Error).message).toMatch(/vsb/);
+    expect(Number.isNaN(sampleAt(devs, [0.7, 1.6], 1.5).i)).toBe(true);
+  });
+});
+
+describe('headroom on square-law devices (rule of thumb, common practice)', () => {
+  // Square law: gm/ID = 2/Vov in saturation, so gm/ID = 8 /V puts Vov = 0.25 V at the design current.
+  const l = 1e-6;
+  const vth = 0.4;
+  const vov = 0.25;
+  const gmid = 2 / vov;
+
+  function headroomOf(topology: 'cascode' | 'cascode-stacked', setpoints: number[]): number {
+    const slices = [slSlice(l), slSlice(l)];
+    const sized = sizeStackDevices({ topology, slices, gmid: [gmid, gmid], setpoints, current: 20e-6, vmid: 1.35 });
+    if (!sized) throw new Error('unreachable');
+    const devices = slices.map((slice, k) => ({ slice, w: sized.w[k] }));
+    const mid = solveOperatingPoint(devices, sized.gates, 1.35);
+    const curve = stackCurve(devices, sized.gates, 1.8, { anchor: mid });
+    // Rout criterion at half the saturated value: on this model that moves the edge by ~λ·Vov²/2 ≈ 2 mV.
+    return findHeadroom(devices, sized.gates, curve, { rout: 0.5 * routAt(mid), iMid: mid.i });
+  }
+
+  it('stacked-diode cascode needs VGS + Vov = Vth + 2·Vov ≈ 0.9 V, half of a 1.8 V rail', () => {
+    const h = headroomOf('cascode-stacked', []);
+    // Common practice: self-biased cascode mirror headroom Vth + 2Vov (Razavi ch. 5; Gray et al. ch. 4).
+    expect(Math.abs(h - (vth + 2 * vov))).toBeLessThan(0.015); // stated tolerance for the Rout criterion
+    expect(h / 1.8).toBeCloseTo(0.5, 1);
+  });
+
+  it('low-voltage cascode with VDS1 just above Vov needs ≈ 2·Vov = 0.5 V', () => {
+    // VDS1 20 mV above the edge keeps the bottom device saturated, so Rout is flat above the knee.
+    const margin = 0.02;
+    const h = headroomOf('cascode', [vov + margin]);
+    // Common practice: wide-swing cascode headroom VDS1 + Vov2 ≈ 2Vov (Razavi ch. 5).
+    expect(Math.abs(h - (2 * vov + margin))).toBeLessThan(0.015);
+    expect(h).toBeLessThan(headroomOf('cascode-stacked', []) - vth + 0.05);
+  });
+
+  it('max-slope sqrt(ID) extrapolation recovers Vth and k\' of a pure square-law device', () => {
+    const s = slSlice(l, 0);
+    const f0 = fitSquareLaw(s, 0);
+    // Common practice: sqrt(ID) is linear in VGS for a square-law device; intercept Vth, slope sqrt(k'/2L).
+    expect(f0.vth).toBeCloseTo(0.4, 3);
+    expect(f0.kp / 200e-6).toBeCloseTo(1, 3);
+    const f1 = fitSquareLaw(s, 0.5);
+    // Body effect, Vth = Vth0 + γ(√(2φF+VSB) − √(2φF)) (Razavi ch. 2).
+    expect(f1.vth).toBeCloseTo(0.4 + 0.4 * (Math.sqrt(1.2) - Math.sqrt(0.7)), 3);
+  });
+});
+
+describe('bias diodes', () => {
+  it('each diode reproduces its gate voltage at the bias current, stacked diodes included', () => {
+    const slices = [ekvSlice(0.5e-6), ekvSlice(0.3e-6)];
+    const { sized } = cascodeOn(slices, [12, 10], [], 'cascode-stacked');
+    const bias = biasDevices('cascode-stacked', slices, sized.gates, 10e-6);
+    expect(bias[1].stackedOn).toBe(0);
+    // A diode-connected device settles where its own I–V carries the forced current (KCL).
+    const top = bias[1].w * slices[1].jd(sized.gates[1] - sized.gates[0], sized.gates[1] - sized.gates[0], sized.gates[0]);
+    expect(top / 10e-6).toBeCloseTo(1, 9);
+    const again = biasGates(bias, slices);
+    expect(again[0]).toBeCloseTo(sized.gates[0], 7);
+    expect(again[1]).toBeCloseTo(sized.gates[1], 7);
+  });
+});
