@@ -32,3 +32,16 @@ export function writeFileAtomic(path: string, data: string | Uint8Array, opts: {
     throw new StackwrightError(`cannot write ${path}: ${(e as Error).message}`, { kind: 'input' });
   }
 }
+
+/**
+ * Write several files as one step: every target is checked before any is
+ * written, so a refusal leaves none of them half-done.
+ */
+export function writeFilesAtomic(files: ReadonlyArray<readonly [string, string | Uint8Array]>, opts: { force?: boolean } = {}): void {
+  if (!opts.force) {
+    for (const [path] of files) {
+      if (existsSync(path)) throw new StackwrightError(`${path} exists; pass --force to overwrite it`, { kind: 'exists' });
+    }
+  }
+  for (const [path, data] of files) writeFileAtomic(path, data, { force: true });
+}

@@ -16,3 +16,4 @@ export { htmlReport, htmlTable } from './html.js';
 export { formatArea, formatMicrons, formatPercent } from './format.js';
 export type { DesignPoint, LengthCurve, DesignCurves, FrontPoint, StackFront, HtmlReportInput } from './types.js';
 export type { Grid } from './rows.js';
+export { renderPortText } from './port-text.js';

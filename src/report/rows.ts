@@ -92,10 +92,15 @@ export function cornerGrid(stack: StackResult): Grid | undefined {
 
 /** One sentence on feasibility, the binding target and the nearest reachable points. */
 export function verdict(stack: StackResult): string {
-  if (stack.feasible) return 'meets all targets';
+  const tag = stack.chosen === true ? ' (chosen by the objective)' : stack.chosen === false ? ' (alternative)' : '';
+  if (stack.feasible) return `meets all targets${tag}`;
   const parts = [`does not meet the targets${stack.binding ? `: ${stack.binding}` : ''}`];
   const n = stack.nearest;
-  if (n?.headroomAtRout !== undefined) parts.push(`the Rout target needs ${eng(n.headroomAtRout, 'V')} of headroom`);
+  if (n?.headroomAtRout !== undefined) {
+    parts.push(Number.isFinite(n.headroomAtRout)
+      ? `the Rout target needs ${eng(n.headroomAtRout, 'V')} of headroom`
+      : 'no explored design reaches the Rout target at any headroom');
+  }
   if (n?.routAtHeadroom !== undefined) parts.push(`at the headroom target Rout reaches ${eng(n.routAtHeadroom, 'Ω')}`);
-  return parts.join('; ');
+  return parts.join('; ') + tag;
 }

@@ -1,0 +1,148 @@
+/**
+ * The library's front door: the few calls a script needs, the same ones the CLI uses.
+ *
+ * @example
+ *   import { loadKit, sizeSpec, parseSpec } from 'stackwright';
+ *   const spec = parseSpec(text, 'spec.yaml');
+ *   const { result } = sizeSpec(spec, loadKit(spec.kit));
+ */
+import { StackwrightError } from './errors.js';
+import { ingestFiles } from './ingest/index.js';
+import type { IngestOptions } from './ingest/index.js';
+import { listKits, listTables, loadTable } from './table/store.js';
+import type { DeviceTable, Polarity } from './table/types.js';
+import { kitAccessFromTables } from './solve/kit-tables.js';
+import type { KitAccess } from './solve/kit.js';
+import { sizeDesign, sizeStack as sizeOneStack } from './solve/size.js';
+import { chooseResult } from './solve/choose.js';
+import type { FrontPoint } from './solve/pareto.js';
+import type { CornerResult, SizeResult, StackResult } from './solve/types.js';
+import { compareResults, harderTargets, type Change } from './solve/compare.js';
+import { evaluateAtCorner } from './solve/corners.js';
+import type { DesignSpec, StackSpec } from './spec/types.js';
+import { tablesDirFor } from './locate.js';
+
+/** A kit's tables, loaded, with what the search needs. */
+export interface Kit extends KitAccess {
+  /** Folder the tables came from. */
+  dir: string;
+  table(device: Polarity, corner: string): DeviceTable;
+}
+
+/** Read characterisation CSV files into a table (not yet written; see writeTable). */
+export function ingest(paths: string[], opts: IngestOptions): DeviceTable {
+  return ingestFiles(paths, opts);
+}
+
+/**
+ * Load every table of a kit. Without `tables`, looks in ./tables and then in the
+ * package's bundled demo tables.
+ */
+export function loadKit(kit: string, opts: { tables?: string } = {}): Kit {
+  const dir = tablesDirFor(kit, opts.tables);
+  const names = listTables(dir, kit);
+  if (names.length === 0) {
+    const have = listKits(dir);
+    throw new StackwrightError(`kit ${kit} not found in ${dir}` + (have.length ? ` (has ${have.join(', ')})` : ' (no kits there)'));
+  }
+  const tables = names.map((name) => loadTable(dir, kit, name.slice(0, 1) as Polarity, name.slice(2)));
+  const access = kitAccessFromTables(tables);
+  return {
+    ...access,
+    dir,
+    table: (device, corner) => loadTable(dir, kit, device, corner),
+  };
+}
+
+/** Size one stack on a kit; returns one result per topology tried and the Pareto front. */
+export function sizeStack(spec: StackSpec, kit: KitAccess, opts: { supply: number; corners: string[] }) {
+  return sizeOneStack(spec, kit, opts);
+}
+
+export interface SizeRun {
+  result: SizeResult;
+  /** Pareto front per stack name. */
+  fronts: Record<string, FrontPoint[]>;
+}
+
+/**
+ * Size every stack of a spec. With topology 'auto' each topology gets a result
+ * and the one the objective prefers is marked `chosen`.
+ */
+export function sizeSpec(spec: DesignSpec, kit: KitAccess): SizeRun {
+  const { fronts, ...result } = sizeDesign(spec, kit);
+  for (const s of spec.stacks) {
+    if (s.topology !== 'auto') continue;
+    const mine = result.stacks.filter((r) => r.name === s.name);
+    const pick = chooseResult(mine, s.objective);
+    for (const r of mine) r.chosen = r === pick;
+  }
+  return { result, fronts };
+}
+
+/** Results that decide feasibility: every stack's chosen (or only) result. */
+export function decidingResults(result: SizeResult): StackResult[] {
+  return result.stacks.filter((s) => s.chosen !== false);
+}
+
+export interface PortStack {
+  name: string;
+  from: StackResult;
+  to: StackResult;
+  changes: Change[];
+  harder: string[];
+  /** The old sizes as they are, re-evaluated on the new kit's tables (gates from the old bias devices). */
+  asIs: CornerResult | { error: string };
+}
+
+export interface PortRun {
+  from: SizeRun;
+  to: SizeRun;
+  /** Spec as re-targeted to the new kit (supply, spans). */
+  toSpec: DesignSpec;
+  notes: string[];
+  stacks: PortStack[];
+}
+
+/**
+ * Re-size a spec on a new kit and compare. The new kit's supply is `supply`, else
+ * the old one capped at the top of the new tables' vds axis; a span above the
+ * new supply keeps its distance from the far rail (reported in `notes`).
+ */
+export function portSpec(spec: DesignSpec, from: Kit, to: Kit, opts: { supply?: number } = {}): PortRun {
+  const notes: string[] = [];
+  const vdsTop = Math.min(...(['n', 'p'] as Polarity[]).flatMap((d) => to.corners.flatMap((c) => {
+    try {
+      const ax = to.table(d, c).axes.vds;
+      return [ax[ax.length - 1]];
+    } catch {
+      return [];
+    }
+  })));
+  const supply = opts.supply ?? Math.min(spec.supply, vdsTop);
+  if (supply !== spec.supply) notes.push(`supply ${spec.supply} V -> ${supply} V on kit ${to.kit}`);
+  const stacks = spec.stacks.map((s) => {
+    if (s.span <= supply) return s;
+    let span = s.span - (spec.supply - supply);
+    if (!(span > s.headroom + 0.05)) span = (s.span * supply) / spec.supply;
+    notes.push(`${s.name}: span ${s.span} V -> ${Number(span.toFixed(3))} V`);
+    return { ...s, span };
+  });
+  const fromSpec: DesignSpec = { ...spec, kit: from.kit };
+  const toSpec: DesignSpec = { ...spec, kit: to.kit, supply, stacks };
+  const runFrom = sizeSpec(fromSpec, from);
+  const runTo = sizeSpec(toSpec, to);
+  const chosen = (run: SizeRun, name: string): StackResult => decidingResults(run.result).find((r) => r.name === name) as StackResult;
+  const compared = toSpec.stacks.map((s, i) => {
+    const a = chosen(runFrom, s.name);
+    const b = chosen(runTo, s.name);
+    let asIs: PortStack['asIs'];
+    try {
+      asIs = evaluateAtCorner(a, s, to, runTo.result.corners[0], supply);
+    } catch (e) {
+      asIs = { error: (e as Error).message };
+    }
+    return { name: s.name, from: a, to: b, changes: compareResults(a, b), harder: harderTargets(spec.stacks[i], a, b), asIs };
+  });
+  return { from: runFrom, to: runTo, toSpec, notes, stacks: compared };
+}

@@ -1,0 +1,66 @@
+import type { Command } from 'commander';
+import { StackwrightError } from '../../errors.js';
+import { designNetlist } from '../../spice/index.js';
+import type { SizeResult } from '../../solve/types.js';
+import { writeFilesAtomic } from '../../fsutil.js';
+import { note, out, readText } from '../io.js';
+
+interface NetlistFlags {
+  out?: string;
+  modelN: string;
+  modelP: string;
+  include?: string;
+  bias: 'ideal' | 'diodes';
+  force?: boolean;
+}
+
+/** Read a `size --json` result back (nulls stand for non-finite numbers). */
+export function readSizeResult(path: string): SizeResult {
+  let data: unknown;
+  try {
+    data = JSON.parse(readText(path, 'result file'));
+  } catch (e) {
+    if (e instanceof StackwrightError) throw e;
+    throw new StackwrightError(`not valid JSON: ${(e as Error).message}`, { where: path });
+  }
+  const r = data as Partial<SizeResult>;
+  if (!r || typeof r !== 'object' || !Array.isArray(r.stacks) || typeof r.supply !== 'number') {
+    throw new StackwrightError('expected the JSON printed by `stackwright size --json` (with "supply" and "stacks")', { where: path });
+  }
+  r.stacks.forEach((s, i) => {
+    if (!Array.isArray(s.devices) || s.devices.length === 0) throw new StackwrightError('stack has no devices', { where: `${path}: stacks[${i}].devices` });
+    s.devices.forEach((d, k) => {
+      for (const key of ['w', 'l', 'gate'] as const) {
+        if (typeof d[key] !== 'number') throw new StackwrightError(`expected a number`, { where: `${path}: stacks[${i}].devices[${k}].${key}` });
+      }
+    });
+  });
+  // JSON has no Infinity: `size --json` writes null for a headroom never reached.
+  for (const s of r.stacks) if (s.predicted && s.predicted.headroom === null) s.predicted.headroom = Infinity;
+  return r as SizeResult;
+}
+
+export function registerNetlist(program: Command): void {
+  program
+    .command('netlist')
+    .description('write a SPICE3 netlist of sized stacks (from `size --json`) to verify in your simulator')
+    .argument('<result.json>', 'output of `stackwright size SPEC --json`')
+    .option('--out <file.cir>', 'write to a file instead of stdout')
+    .option('--model-n <name>', 'n-type model name', 'nmos_model')
+    .option('--model-p <name>', 'p-type model name', 'pmos_model')
+    .option('--include <file>', 'model file to .include (or a literal .lib/.include line)')
+    .option('--bias <ideal|diodes>', 'gates from ideal sources at the reported voltages, or from the sized diode bias devices', 'ideal')
+    .option('--force', 'overwrite an existing file')
+    .addHelpText('after', '\nExample:\n  stackwright size spec.yaml --json > result.json\n  stackwright netlist result.json --include models.lib --model-n nch --model-p pch --out stacks.cir\n')
+    .action((path: string, f: NetlistFlags) => {
+      if (f.bias !== 'ideal' && f.bias !== 'diodes') throw new StackwrightError(`expected ideal or diodes, got "${f.bias}"`, { where: '--bias' });
+      const result = readSizeResult(path);
+      // With topology 'auto' only the chosen design of each stack goes in.
+      const chosen = { ...result, stacks: result.stacks.filter((s) => s.chosen !== false) };
+      const text = designNetlist(chosen, { supply: result.supply, models: { n: f.modelN, p: f.modelP }, include: f.include, bias: f.bias });
+      if (f.out) {
+        writeFilesAtomic([[f.out, text]], { force: f.force });
+        note(`wrote ${f.out}`);
+      } else out(text);
+    });
+}

@@ -1,0 +1,42 @@
+import type { Command } from 'commander';
+import { loadKit, portSpec } from '../../api.js';
+import { parseSpec } from '../../spec/index.js';
+import { renderPortText } from '../../report/index.js';
+import { EXIT } from '../../errors.js';
+import { engFlag } from '../options.js';
+import { note, out, readText, toJson, useColor } from '../io.js';
+
+interface PortFlags {
+  from?: string;
+  to: string;
+  supply?: number;
+  tables?: string;
+  json?: boolean;
+}
+
+export function registerPort(program: Command): void {
+  program
+    .command('port')
+    .description('re-size a spec on a new kit and show old against new, with what got harder')
+    .argument('<spec>', 'design spec (YAML or JSON)')
+    .option('--from <kit>', 'kit the design was sized on (default: the spec\'s kit)')
+    .requiredOption('--to <kit>', 'new kit')
+    .option('--supply <V>', 'supply on the new kit (default: the spec\'s, capped at the top of the new tables)', engFlag('--supply'))
+    .option('--tables <dir>', 'tables folder')
+    .option('--json', 'print JSON')
+    .addHelpText('after', '\nExit status: 0 every ported stack feasible, 3 one is not.\nExample:\n  stackwright port demo-tables/specs/marsh-wren.yaml --from demo180 --to demo090\n')
+    .action((specPath: string, f: PortFlags) => {
+      const spec = parseSpec(readText(specPath, 'spec file'), specPath);
+      const from = loadKit(f.from ?? spec.kit, { tables: f.tables });
+      const to = loadKit(f.to, { tables: f.tables });
+      const run = portSpec(spec, from, to, { supply: f.supply });
+      if (f.json) {
+        out(toJson({ from: from.kit, to: to.kit, notes: run.notes, supply: { from: spec.supply, to: run.toSpec.supply }, caution: run.to.result.caution, stacks: run.stacks }));
+      } else out(renderPortText(run, { color: useColor() }));
+      const failed = run.stacks.filter((s) => !s.to.feasible);
+      if (failed.length) {
+        note(`infeasible on ${to.kit}: ${failed.map((s) => `${s.name} (${s.to.binding ?? 'targets not met'})`).join('; ')}`);
+        process.exitCode = EXIT.infeasible;
+      }
+    });
+}

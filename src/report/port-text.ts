@@ -1,0 +1,36 @@
+import type { PortRun } from '../api.js';
+import { formatEng } from '../units/index.js';
+import { renderTable } from './text.js';
+import { formatArea } from './format.js';
+
+function value(x: number, unit: string): string {
+  if (Number.isNaN(x)) return '—';
+  if (!Number.isFinite(x)) return 'never';
+  if (unit === 'm²') return formatArea(x);
+  if (unit === '1/V') return `${Number(x.toPrecision(3))} /V`;
+  if (unit === '') return `${Number((x * 100).toPrecision(3))} %`;
+  return formatEng(x, unit);
+}
+
+/** `port` as text: per stack, old against new with the change in percent, then what got harder. */
+export function renderPortText(run: PortRun, opts: { color: boolean }): string {
+  const from = run.from.result.kit;
+  const to = run.to.result.kit;
+  const bold = (s: string): string => (opts.color ? `\x1b[1m${s}\x1b[0m` : s);
+  const lines = [`port ${from} -> ${to}, corners ${run.to.result.corners.join(', ')}`, `CAUTION: ${run.to.result.caution}`];
+  for (const n of run.notes) lines.push(`note: ${n}`);
+  for (const s of run.stacks) {
+    lines.push('', bold(`stack ${s.name}: ${s.from.topology} on ${from} -> ${s.to.topology} on ${to} — ${s.to.feasible ? 'FEASIBLE' : 'INFEASIBLE'}`));
+    const rows = s.changes.map((c) => [
+      c.what, value(c.from, c.unit), value(c.to, c.unit), Number.isFinite(c.percent) ? `${c.percent >= 0 ? '+' : ''}${c.percent.toFixed(1)} %` : '—',
+    ]);
+    lines.push(renderTable(['quantity', from, to, 'change'], rows, { indent: 2 }));
+    lines.push(`  harder on ${to}: ${s.harder.length ? s.harder.join('; ') : 'nothing'}`);
+    if ('error' in s.asIs) lines.push(`  old sizes as they are on ${to}: cannot be evaluated (${s.asIs.error})`);
+    else {
+      const p = s.asIs.predicted;
+      lines.push(`  old sizes as they are on ${to}: Iout ${value(p.iout, 'A')}, Rout ${value(p.rout, 'Ω')}, headroom ${value(p.headroom, 'V')} — ${s.asIs.feasible ? 'still meets the targets' : `fails (${s.asIs.binding ?? 'targets'})`}`);
+    }
+  }
+  return lines.join('\n');
+}
