@@ -1,5 +1,6 @@
 import type { SizeResult } from '../solve/types.js';
-import { polarityName } from './format.js';
+import { formatArea, polarityName } from './format.js';
+import { formatEng } from '../units/index.js';
 import { biasGrid, columnAlign, cornerGrid, deviceGrid, predictedGrid, squareLawGrid, verdict, type Grid } from './rows.js';
 import { ansi, renderTable } from './text.js';
 
@@ -21,6 +22,8 @@ export function renderSizeText(result: SizeResult, opts: SizeTextOptions): strin
     ansi.yellow(`CAUTION: ${result.caution}`, c),
   ];
   for (const s of result.stacks) {
+    // With topology 'auto' the alternatives get one line each; the chosen design gets the full account.
+    if (s.chosen === false) continue;
     const status = s.feasible ? ansi.green('FEASIBLE', c) : ansi.red('INFEASIBLE', c);
     out.push('', ansi.bold(`stack ${s.name}: ${polarityName(s.device)} ${s.topology} — ${status}`, c), `  ${verdict(s)}`);
     out.push(...block('output stack (bottom first)', deviceGrid(s), c));
@@ -28,6 +31,15 @@ export function renderSizeText(result: SizeResult, opts: SizeTextOptions): strin
     out.push(...block('predicted', predictedGrid(s), c));
     out.push(...block('lookup table against square law', squareLawGrid(s), c));
     out.push(...block('per corner', cornerGrid(s), c));
+    const others = result.stacks.filter((x) => x.name === s.name && x.chosen === false);
+    if (others.length > 0) {
+      const rows = [s, ...others].map((x) => [
+        x.topology, x === s ? 'chosen' : x.feasible ? 'feasible' : 'INFEASIBLE', formatEng(x.predicted.rout, 'Ω'),
+        Number.isFinite(x.predicted.headroom) ? formatEng(x.predicted.headroom, 'V') : 'never', formatArea(x.predicted.area),
+        x.feasible ? '' : x.binding ?? '',
+      ]);
+      out.push(...block('topologies tried (auto)', { headers: ['topology', 'status', 'Rout', 'headroom', 'area', 'binding'], rows }, c));
+    }
   }
   return out.join('\n') + '\n';
 }

@@ -1,0 +1,27 @@
+import { spawnSync } from 'node:child_process';
+import { join } from 'node:path';
+import { buildDemoTables } from '../../scripts/build-demo-tables.js';
+
+export const REPO = join(import.meta.dirname, '..', '..');
+
+/** Make sure the demo kits' tables exist (skips when up to date). */
+export function ensureDemoTables(): void {
+  buildDemoTables(REPO, join(REPO, 'tables'), () => {});
+}
+
+export interface CliRun {
+  code: number;
+  stdout: string;
+  stderr: string;
+}
+
+/** Run the CLI from source (tsx), as a user would run the installed command. */
+export function cli(args: string[], opts: { cwd?: string; env?: Record<string, string> } = {}): CliRun {
+  const r = spawnSync(process.execPath, ['--import', 'tsx', join(REPO, 'src', 'cli', 'main.ts'), ...args], {
+    cwd: opts.cwd ?? REPO,
+    env: { ...process.env, NO_COLOR: '1', ...opts.env },
+    encoding: 'utf8',
+    timeout: 120_000,
+  });
+  return { code: r.status ?? -1, stdout: r.stdout, stderr: r.stderr };
+}
