@@ -1,0 +1,84 @@
+import { beforeAll, describe, expect, it } from 'vitest';
+import { join } from 'node:path';
+import { evaluateAtCorner, loadKit, parseSpec, pelgromSigma, portSpec, sizeSpec, type Kit } from '../src/index.js';
+import { ensureDemoTables, REPO } from './helpers/cli.js';
+
+let k180: Kit;
+let k090: Kit;
+beforeAll(() => {
+  ensureDemoTables();
+  k180 = loadKit('demo180', { tables: join(REPO, 'tables') });
+  k090 = loadKit('demo090', { tables: join(REPO, 'tables') });
+});
+
+const sink = (rout: string, headroom: number, current = '20u', span = 1.6) =>
+  parseSpec(`kit: demo180\nsupply: 1.8\nstacks:\n  - {name: s, device: n, topology: cascode, current: ${current}, rout: ${rout}, headroom: ${headroom}, span: ${span}}\n`, 'corner.yaml');
+
+describe('pelgromSigma (worked example)', () => {
+  it('matches a hand computation of Pelgrom\'s relation', () => {
+    // Pelgrom, Duinmaijer & Welbers, IEEE JSSC 24(5), 1989, with the current form of Kinget, IEEE JSSC 40(6), 2005:
+    // σ(ΔI/I)² = (gm/ID)²·A_VT²/(W·L) + A_β²/(W·L). Hand computation: gm/ID = 10 /V, A_VT = 5 mV·µm,
+    // A_β = 1 %·µm, W·L = 10 µm × 1 µm = 10 µm²: (10·0.005)² = 2.5e-3, (0.01)² = 1e-4, sum 2.6e-3 µm²,
+    // divided by 10 µm² = 2.6e-4, σ = 1.6125 %.
+    const sigma = pelgromSigma(10, 10e-6, 1e-6, { avt: 5e-3 * 1e-6, abeta: 0.01 * 1e-6 });
+    expect(sigma).toBeCloseTo(0.016125, 5);
+  });
+});
+
+describe('corners on the demo kit', () => {
+  it('a design sized for tt alone fails the slow corner; sized for [tt, ss] it meets both when re-evaluated', () => {
+    // Built for the case: at ss (higher VT, lower mobility, 125 °C) the narrow cascode-gate diode's VGS rises more
+    // than the wide cascode's, so the bottom device's VDS and with it the headroom grow; 0.45 V is tight at tt.
+    const spec = sink('50meg', 0.45);
+    const tt = sizeSpec(spec, k180).result.stacks[0];
+    expect(tt.feasible).toBe(true);
+    const atSs = evaluateAtCorner(tt, spec.stacks[0], k180, 'ss', spec.supply);
+    expect(atSs.feasible).toBe(false);
+    expect(atSs.predicted.headroom).toBeGreaterThan(0.45);
+
+    const both = sizeSpec({ ...spec, corners: ['tt', 'ss'] }, k180).result;
+    expect(both.corners).toEqual(['tt', 'ss']);
+    const s = both.stacks[0];
+    expect(s.feasible).toBe(true);
+    for (const corner of ['tt', 'ss']) {
+      const re = evaluateAtCorner(s, spec.stacks[0], k180, corner, spec.supply);
+      expect(re.feasible, corner).toBe(true);
+      expect(re.predicted.rout, corner).toBeGreaterThanOrEqual(50e6);
+      expect(re.predicted.headroom, corner).toBeLessThanOrEqual(0.45 + 1e-9);
+    }
+    // The report names each corner with its own gates: the bias devices re-derive them.
+    expect(s.corners?.map((c) => c.corner)).toEqual(['tt', 'ss']);
+    expect(s.corners?.[1].gates[1]).toBeGreaterThan(s.corners?.[0].gates[1] ?? Infinity);
+  });
+});
+
+describe('port demo180 -> demo090', () => {
+  it('every feasible ported design meets its targets when re-evaluated on the new kit\'s tables', () => {
+    const spec = sink('20meg', 0.4, '20u', 1.6);
+    const run = portSpec(spec, k180, k090);
+    expect(run.toSpec.supply).toBeCloseTo(1.2, 9); // capped at the top of demo090's vds axis
+    expect(run.toSpec.stacks[0].span).toBeCloseTo(1.0, 9); // keeps its 0.2 V distance from the far rail
+    const s = run.stacks[0];
+    expect(s.to.feasible).toBe(true);
+    const re = evaluateAtCorner(s.to, run.toSpec.stacks[0], k090, 'tt', run.toSpec.supply);
+    expect(re.feasible).toBe(true);
+    expect(re.predicted.rout).toBeGreaterThanOrEqual(20e6);
+    expect(re.predicted.headroom).toBeLessThanOrEqual(0.4 + 1e-9);
+    expect(Math.abs(re.predicted.iout - 20e-6) / 20e-6).toBeLessThan(0.01);
+    // Side by side: every size has an old and a new value with a percent change.
+    const w = s.changes.find((c) => c.what === 'bottom W');
+    expect(w && Number.isFinite(w.from) && Number.isFinite(w.to)).toBe(true);
+    expect(w?.percent).toBeCloseTo((100 * ((w?.to ?? 0) - (w?.from ?? 0))) / (w?.from ?? 1), 9);
+  });
+
+  it('a spec the new kit cannot meet is reported infeasible with the binding target', () => {
+    // demo090's lower intrinsic gain (shorter Early voltage, stronger DIBL) cannot give 200 MΩ at 0.35 V with 10 µA.
+    const spec = sink('200meg', 0.35, '10u', 1.0);
+    const run = portSpec(spec, k180, k090);
+    const s = run.stacks[0];
+    expect(s.from.feasible).toBe(true);
+    expect(s.to.feasible).toBe(false);
+    expect(s.to.binding).toMatch(/^rout/);
+    expect(s.harder.join(' ')).toMatch(/infeasible on the new kit/);
+  });
+});
