@@ -4,6 +4,7 @@ import { pathToFileURL } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { htmlReport } from '../src/report/index.js';
 import { loadReportInput } from './fixtures/report/load.js';
+import { cli, ensureDemoTables, REPO } from './helpers/cli.js';
 
 const CHROMIUM = '/usr/bin/chromium';
 const present = existsSync(CHROMIUM);
@@ -75,6 +76,32 @@ run('HTML report in a real browser (Debian chromium via playwright-core)', () =>
     // The caution is near the top of the page, before any result.
     expect(caution.text).toContain('Verify them by simulation');
     expect(caution.top).toBeLessThan(250);
+    await page.close();
+  });
+
+  it('the demo report (sized from the demo spec through the CLI) draws every chart, alternatives unfolded', async () => {
+    ensureDemoTables();
+    const demoHtml = join(outDir, 'demo-report.html');
+    const r = cli(['size', join('demo-tables', 'specs', 'marsh-wren.yaml'), '--report', demoHtml, '--force', '--tables', join(REPO, 'tables')]);
+    expect([0, 3]).toContain(r.code);
+    const page = await browser.newPage({ viewport: { width: 1400, height: 1000 } });
+    const errors: string[] = [];
+    page.on('console', (m) => { if (m.type() === 'error' || m.type() === 'warning') errors.push(m.text()); });
+    page.on('pageerror', (e) => errors.push(String(e)));
+    await page.goto(pathToFileURL(demoHtml).href, { waitUntil: 'load' });
+    await page.$$eval('details', (ds) => ds.forEach((d) => { (d as HTMLDetailsElement).open = true; }));
+    const charts = await page.$$eval('svg.chart', (svgs) => svgs.map((svg) => {
+      const drawn = [...svg.querySelectorAll('path')].filter((p) => {
+        const b = p.getBoundingClientRect();
+        return (p.getAttribute('d') ?? '').trim() !== '' && b.width > 0 && b.height > 0;
+      });
+      return { id: svg.id, drawn: drawn.length };
+    }));
+    await page.screenshot({ path: join(outDir, 'demo-report.png'), fullPage: false });
+    expect(errors).toEqual([]);
+    // Every stack result has Rout and Iout charts at least, plus design charts of both polarities.
+    expect(charts.length).toBeGreaterThanOrEqual(20);
+    for (const c of charts) expect(c.drawn, c.id).toBeGreaterThan(0);
     await page.close();
   });
 });
