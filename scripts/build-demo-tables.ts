@@ -19,7 +19,7 @@ interface KitJson {
   files: Record<Polarity, Record<string, string>>;
 }
 
-export function buildDemoTables(root = packageRoot(), outDir = join(root, 'tables'), log = (s: string) => process.stderr.write(s + '\n')): number {
+export function buildDemoTables(root = packageRoot(), outDir = join(root, 'tables'), log: (s: string) => void = (s) => { process.stderr.write(s + '\n'); }): number {
   const src = join(root, 'demo-tables');
   let built = 0;
   for (const kitName of readdirSync(src).sort()) {
