@@ -1,0 +1,59 @@
+/**
+ * `npm run bench`: speed against baselines measured in the same run, medians of
+ * repeated runs (the machines are shared and noisy). MISS is reported, not an
+ * exit failure. Results also go to test-output/bench.json.
+ */
+import { spawnSync } from 'node:child_process';
+import { existsSync, mkdirSync, renameSync, writeFileSync } from 'node:fs';
+import { cpus } from 'node:os';
+import { join } from 'node:path';
+import { packageRoot } from '../src/locate.js';
+import { benchIngest, benchInterp, benchProbe, benchSize, renderRows, type BenchRow } from './bench/index.js';
+import { msSince } from './bench/stats.js';
+
+const log = (s: string) => process.stderr.write(s + '\n');
+
+/** A section that throws becomes one ERROR row, so the others still run. */
+function section(name: string, run: () => BenchRow[]): BenchRow[] {
+  try {
+    return run();
+  } catch (e) {
+    return [{
+      section: name, measured: 'section failed', unit: '', baseline: null, baselineLabel: '', ours: null, ratio: null,
+      target: '', status: 'ERROR', note: (e as Error).message.split('\n')[0],
+    }];
+  }
+}
+
+function ensureDemoTables(root: string): void {
+  if (existsSync(join(root, 'tables', 'demo180', 'n-tt.swtab'))) return;
+  log('bench: building the demo tables first');
+  const compiled = join(root, 'dist', 'scripts', 'build-demo-tables.js');
+  const args = existsSync(compiled) ? [compiled] : ['--import', 'tsx', join(root, 'scripts', 'build-demo-tables.ts')];
+  spawnSync(process.execPath, args, { cwd: root, stdio: 'inherit' });
+}
+
+function main(): void {
+  const root = packageRoot();
+  ensureDemoTables(root);
+  const t0 = process.hrtime.bigint();
+  const rows = [
+    ...section('a ingest', () => benchIngest({ root, log })),
+    ...section('b queries', () => benchInterp({ root, log })),
+    ...section('c probe', () => benchProbe({ root, log })),
+    ...section('d size', () => benchSize({ root, log })),
+  ];
+  const totalS = msSince(t0) / 1000;
+  const machine = `node ${process.version}, ${cpus().length} × ${cpus()[0]?.model ?? 'cpu'}`;
+  process.stdout.write(`\nstackwright benchmarks (${machine}; medians of repeated runs; total ${totalS.toFixed(0)} s)\n\n`);
+  process.stdout.write(renderRows(rows) + '\n');
+  const outDir = join(root, 'test-output');
+  mkdirSync(outDir, { recursive: true });
+  const file = join(outDir, 'bench.json');
+  const tmp = `${file}.${process.pid}.tmp`;
+  writeFileSync(tmp, JSON.stringify({ date: new Date().toISOString(), machine, totalSeconds: totalS, rows }, null, 2) + '\n');
+  renameSync(tmp, file);
+  process.stdout.write(`\nwritten ${join('test-output', 'bench.json')}\n`);
+}
+
+main();

@@ -1,0 +1,16 @@
+export { median, msSince, timeRuns, seededRandom } from './stats.js';
+export type { BenchRow, Status } from './result.js';
+export { verdict } from './result.js';
+export { renderRows, num } from './table.js';
+export { nodeArgsFor, runNode } from './child.js';
+export { timeSpawn } from './spawn-time.js';
+export type { Spawned } from './spawn-time.js';
+export { bareParse } from './bare-parse.js';
+export { BENCH_GRID, benchRows, writeBenchCsv } from './sweep-csv.js';
+export { writeGridFile, readFloat64 } from './grid-file.js';
+export { benchIngest } from './ingest.js';
+export type { IngestBenchOptions } from './ingest.js';
+export { benchInterp, randomPoints, maxRelativeDifference } from './interp.js';
+export type { InterpBenchOptions } from './interp.js';
+export { benchProbe, PROBE_ARGS } from './probe.js';
+export { benchSize, DEMO_SPEC } from './size.js';
