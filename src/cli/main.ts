@@ -2,44 +2,44 @@
 import { Command, CommanderError } from 'commander';
 import { EXIT, exitCodeFor, StackwrightError } from '../errors.js';
 import { note, packageVersion, useColor } from './io.js';
-import { registerSynth } from './commands/synth.js';
-import { registerIngest } from './commands/ingest.js';
-import { registerProbe } from './commands/probe.js';
-import { registerChart } from './commands/chart.js';
-import { registerKits } from './commands/kits.js';
-import { registerSize } from './commands/size.js';
-import { registerNetlist } from './commands/netlist.js';
-import { registerPort } from './commands/port.js';
 
-export function buildProgram(): Command {
+type Register = (program: Command) => void;
+
+/** Command modules, loaded only when needed so a single command starts fast. */
+const COMMANDS: Record<string, () => Promise<Register>> = {
+  synth: async () => (await import('./commands/synth.js')).registerSynth,
+  ingest: async () => (await import('./commands/ingest.js')).registerIngest,
+  probe: async () => (await import('./commands/probe.js')).registerProbe,
+  chart: async () => (await import('./commands/chart.js')).registerChart,
+  kits: async () => (await import('./commands/kits.js')).registerKits,
+  size: async () => (await import('./commands/size.js')).registerSize,
+  netlist: async () => (await import('./commands/netlist.js')).registerNetlist,
+  port: async () => (await import('./commands/port.js')).registerPort,
+};
+
+/** The program with the commands `argv` needs (all of them for top-level help). */
+export async function buildProgram(argv: string[] = process.argv): Promise<Command> {
   const program = new Command('stackwright');
   program
     .description('gm/ID lookup-table sizing of cascode current sources and sinks from characterisation sweeps.\nSizes are first-cut estimates: verify them with the foundry models across corners before tape-out.')
     .version(packageVersion())
-    .showHelpAfterError('(run with --help for usage)')
     .configureOutput({ outputError: () => {} })
     .exitOverride();
-  registerSynth(program);
-  registerIngest(program);
-  registerProbe(program);
-  registerChart(program);
-  registerKits(program);
-  registerSize(program);
-  registerNetlist(program);
-  registerPort(program);
+  const wanted = argv[2] !== undefined && argv[2] in COMMANDS ? [argv[2]] : Object.keys(COMMANDS);
+  for (const name of wanted) (await COMMANDS[name]())(program);
   for (const cmd of program.commands) cmd.exitOverride().configureOutput({ outputError: () => {} });
   return program;
 }
 
 export async function main(argv: string[]): Promise<number> {
-  const program = buildProgram();
   try {
+    const program = await buildProgram(argv);
     await program.parseAsync(argv);
     return process.exitCode === undefined ? EXIT.ok : Number(process.exitCode);
   } catch (e) {
     if (e instanceof CommanderError) {
       if (e.exitCode === 0 || e.code === 'commander.helpDisplayed' || e.code === 'commander.version') return EXIT.ok;
-      note(`stackwright: ${e.message.replace(/^error: /, '')}`);
+      note(`stackwright: ${e.message.replace(/^error: /, '').split('\n')[0]} (see --help)`);
       return EXIT.input;
     }
     const red = useColor(process.stderr) ? (s: string) => `\x1b[31m${s}\x1b[0m` : (s: string) => s;

@@ -2,7 +2,7 @@ import type { Command } from 'commander';
 import { StackwrightError } from '../../errors.js';
 import { probe } from '../../device/index.js';
 import { loadTable } from '../../table/index.js';
-import { renderTable } from '../../report/index.js';
+import { renderTable } from '../../report/text.js';
 import { formatEng } from '../../units/index.js';
 import { engFlag, polarityFlag } from '../options.js';
 import { out, tablesDirFor, toJson } from '../io.js';
