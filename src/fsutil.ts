@@ -9,11 +9,51 @@ import { StackwrightError } from './errors.js';
  * Without `force` an existing file is an error (kind 'exists').
  */
 export function writeFileAtomic(path: string, data: string | Uint8Array, opts: { force?: boolean } = {}): void {
-  if (!opts.force && existsSync(path)) {
-    throw new StackwrightError(`${path} exists; pass --force to overwrite it`, { kind: 'exists' });
+  if (!opts.force) refuseExisting([path]);
+  const tmp = stage(path, data);
+  commit(tmp, path);
+}
+
+/**
+ * Write several files as one step: every target is checked and every temp file
+ * written before any target is replaced, so a refusal or a failing disk leaves
+ * none of them half-done (only a failing rename, after the others, could).
+ */
+export function writeFilesAtomic(files: ReadonlyArray<readonly [string, string | Uint8Array]>, opts: { force?: boolean } = {}): void {
+  if (!opts.force) refuseExisting(files.map(([p]) => p));
+  const staged: Array<[string, string]> = [];
+  try {
+    for (const [path, data] of files) staged.push([stage(path, data), path]);
+  } catch (e) {
+    for (const [tmp] of staged) removeQuietly(tmp);
+    throw e;
   }
+  for (let i = 0; i < staged.length; i++) {
+    try {
+      commit(staged[i][0], staged[i][1]);
+    } catch (e) {
+      for (const [tmp] of staged.slice(i + 1)) removeQuietly(tmp);
+      throw e;
+    }
+  }
+}
+
+function refuseExisting(paths: readonly string[]): void {
+  for (const path of paths) {
+    if (existsSync(path)) throw new StackwrightError(`${path} exists; pass --force to overwrite it`, { kind: 'exists' });
+  }
+}
+
+/** Create the folder and write `data` to a synced temp file beside `path`; returns the temp path. */
+function stage(path: string, data: string | Uint8Array): string {
   const dir = dirname(path);
-  mkdirSync(dir, { recursive: true });
+  try {
+    mkdirSync(dir, { recursive: true });
+  } catch (e) {
+    // mkdir -p reports a plain file at the folder's own name as EEXIST, which reads as if the folder existed.
+    const why = (e as NodeJS.ErrnoException).code === 'EEXIST' ? 'a file of that name is in the way (EEXIST)' : reason(e);
+    throw new StackwrightError(`cannot create folder ${dir}: ${why}`);
+  }
   const tmp = join(dir, `.${basename(path)}.${process.pid}.${randomBytes(4).toString('hex')}.tmp`);
   try {
     const fd = openSync(tmp, 'w');
@@ -25,23 +65,35 @@ export function writeFileAtomic(path: string, data: string | Uint8Array, opts: {
     } finally {
       closeSync(fd);
     }
+  } catch (e) {
+    removeQuietly(tmp);
+    throw new StackwrightError(`cannot write ${path}: ${reason(e)}`);
+  }
+  return tmp;
+}
+
+function commit(tmp: string, path: string): void {
+  try {
     renameSync(tmp, path);
   } catch (e) {
-    rmSync(tmp, { force: true });
-    if (e instanceof StackwrightError) throw e;
-    throw new StackwrightError(`cannot write ${path}: ${(e as Error).message}`, { kind: 'input' });
+    removeQuietly(tmp);
+    throw new StackwrightError(`cannot write ${path}: ${reason(e)}`);
   }
 }
 
-/**
- * Write several files as one step: every target is checked before any is
- * written, so a refusal leaves none of them half-done.
- */
-export function writeFilesAtomic(files: ReadonlyArray<readonly [string, string | Uint8Array]>, opts: { force?: boolean } = {}): void {
-  if (!opts.force) {
-    for (const [path] of files) {
-      if (existsSync(path)) throw new StackwrightError(`${path} exists; pass --force to overwrite it`, { kind: 'exists' });
-    }
+function removeQuietly(tmp: string): void {
+  try {
+    rmSync(tmp, { force: true });
+  } catch {
+    // the original error matters more than a leftover temp file
   }
-  for (const [path, data] of files) writeFileAtomic(path, data, { force: true });
+}
+
+/** "ENOTDIR: not a directory, mkdir '/x'" -> "not a directory (ENOTDIR)": the path is already in our message. */
+function reason(e: unknown): string {
+  const err = e as NodeJS.ErrnoException;
+  const msg = String(err?.message ?? e).split(/\r?\n/)[0];
+  const m = /^[A-Z0-9_]+: ([^,]+)/.exec(msg);
+  if (m && err.code) return `${m[1]} (${err.code})`;
+  return err?.code ? `${msg} (${err.code})` : msg;
 }

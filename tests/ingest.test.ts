@@ -269,7 +269,7 @@ describe('ingest: bad input', () => {
     const row = BASE_ROWS[0].map(String);
     row[0] = '-0.18u';
     expect(errorOf(() => ingestTexts([{ file: 'l.csv', text: withLine(1, row.join(',')) }], N)).message).toBe(
-      'l.csv:2:1: column "l": length must be positive, got -0.18u',
+      'l.csv:2:1: column "l": length must be positive, got "-0.18u"',
     );
   });
 
@@ -448,3 +448,104 @@ describe('ingest: ragged grids', () => {
   });
 });
 
+
+describe('ingest: hostile text', () => {
+  const header = 'l,w,vgs,vds,vsb,id';
+  const rows = BASE_ROWS.map((r) => r.map(String));
+  const join = (rs: string[][], h = header) => [h, ...rs.map((r) => r.join(','))].join('\n') + '\n';
+  /** 1-based column where cell `i` of a plain comma-separated row starts. */
+  const colOf = (r: string[], i: number) => r.slice(0, i).join(',').length + (i > 0 ? 2 : 1);
+
+  it('an unclosed quote is one located error at the opening quote, not the swallowed lines', () => {
+    // RFC 4180 section 2 (rules 5-7): a quoted field runs to the next lone double quote, line breaks included,
+    // so a stray quote swallows the rest of the file; project rule: one line saying where (DEVELOPERS.md).
+    const bad = rows.map((r) => r.slice());
+    bad[4][2] = `"${bad[4][2]}`;
+    const err = errorOf(() => ingestTexts([{ file: 'u.csv', text: join(bad) }], N));
+    expect(err.message).toBe(`u.csv:6:${colOf(bad[4], 2)}: unclosed quote: the quoted cell that starts here runs to the end of the file`);
+    const inHeader = errorOf(() => ingestTexts([{ file: 'u.csv', text: join(rows, `"${header}`) }], N));
+    expect(inHeader.message).toMatch(/^u\.csv:1:1: unclosed quote/);
+  });
+
+  it('quoted cells: numbers are read, notes may span lines, and later errors keep physical line numbers', () => {
+    // RFC 4180 section 2: fields may be enclosed in double quotes, may then contain line breaks, and "" is one quote.
+    const noted = rows.map((r, i) => [...r, i === 1 ? '"two ""lines""\nof note\nhere"' : 'plain']);
+    noted[0][2] = `"${noted[0][2]}"`;
+    expectSameTable(ingestTexts([{ file: 'q.csv', text: join(noted, `${header},note`) }], N), BASE);
+    // Row index 3 is on physical line 1 (header) + 4 (rows 0..3) + 2 (line breaks inside the note) = 7.
+    noted[3][5] = 'bad';
+    const err = errorOf(() => ingestTexts([{ file: 'q.csv', text: join(noted, `${header},note`) }], N));
+    expect(err.message).toBe(`q.csv:7:${colOf(noted[3], 5)}: column "id": "bad" is not a finite number`);
+    // A line break inside a numeric cell is shown escaped, at the cell's opening quote.
+    const broken = rows.map((r) => r.slice());
+    broken[2][3] = '"0.6\n0.8"';
+    const cellErr = errorOf(() => ingestTexts([{ file: 'q.csv', text: join(broken) }], N));
+    expect(cellErr.message).toBe(`q.csv:4:${colOf(broken[2], 3)}: column "vds": "0.6\\n0.8" is not a finite number`);
+  });
+
+  it('text after a closing quote is a located error', () => {
+    // RFC 4180 section 2: a quoted field ends at the closing quote, so only a separator or line end may follow.
+    const bad = rows.map((r) => r.slice());
+    bad[1][3] = '"0.6"x';
+    const err = errorOf(() => ingestTexts([{ file: 'a.csv', text: join(bad) }], N));
+    expect(err.message).toMatch(new RegExp(`^a\\.csv:3:${colOf(bad[1], 3) + 5}: unexpected "x" after the quoted cell that starts at a\\.csv:3:${colOf(bad[1], 3)}`));
+  });
+
+  it('one CRLF line in an LF file reads the same, and later errors point at the right line', () => {
+    // RFC 4180 ends lines with CRLF, POSIX text files with LF; accepting both, mixed, is common practice.
+    const lf = join(rows).split('\n');
+    lf[3] += '\r';
+    expectSameTable(ingestTexts([{ file: 'm.csv', text: lf.join('\n') }], N), BASE);
+    const withBlank = [...lf.slice(0, 5), '\r', ...lf.slice(5)];
+    expectSameTable(ingestTexts([{ file: 'm.csv', text: withBlank.join('\n') }], N), BASE);
+    const bad = rows.map((r) => r.slice());
+    bad[6][2] = 'x';
+    const broken = join(bad).split('\n');
+    broken[2] += '\r';
+    const err = errorOf(() => ingestTexts([{ file: 'm.csv', text: broken.join('\n') }], N));
+    expect(err.message).toBe(`m.csv:8:${colOf(bad[6], 2)}: column "vgs": "x" is not a finite number`);
+  });
+
+  it('huge but finite values are refused at their cell, stating the accepted range', () => {
+    // IEEE 754 binary64 holds 1e308, but 1e308 V times 1e9 (the 1 nV snapping) overflows to Infinity.
+    const cases: Array<[number, string, RegExp]> = [
+      [2, '1e308', /column "vgs": "1e308" \(1e\+308 in SI\) is outside the accepted range for vgs: at most 1000 V in magnitude$/],
+      [3, '-2e3', /for vds: at most 1000 V in magnitude$/],
+      [0, '2', /for l: above 0 and at most 1 m$/],
+      [5, '1.7976931348623157e308', /for id: at most 1000 A in magnitude$/],
+    ];
+    for (const [cell, text, want] of cases) {
+      const bad = rows.map((r) => r.slice());
+      bad[3][cell] = text;
+      const err = errorOf(() => ingestTexts([{ file: 'h.csv', text: join(bad) }], N));
+      expect(err.message.startsWith(`h.csv:5:${colOf(bad[3], cell)}: `), err.message).toBe(true);
+      expect(err.message).toMatch(want);
+    }
+    // Inside the limits the value is taken as written (the check is not a blanket refusal).
+    const big = rows.map((r) => [...r.slice(0, 5), String(Number(r[5]) * 1e6)]);
+    expect(ingestTexts([{ file: 'h.csv', text: join(big) }], N).data.id[0] / (BASE.data.id[0] * 1e6)).toBeCloseTo(1, 12);
+  });
+
+  it('headers seen are listed at most 12, each cut short and escaped', () => {
+    const names = Array.from({ length: 20 }, (_, i) => `column_with_a_long_name_number_${i}`);
+    const text = [names.join(','), names.map(() => '1').join(',')].join('\n') + '\n';
+    const err = errorOf(() => ingestTexts([{ file: 'n.csv', text }], N));
+    expect(err.message).toMatch(/headers seen: "column_with_a_long_name_"…, .*… \(8 more\)$/);
+    expect(err.message.split('"…,').length - 1).toBe(12); // twelve cut names, then the count of the rest
+    const quoted = errorOf(() => ingestTexts([{ file: 'n.csv', text: 'l,"a\nb",c\n1,2,3\n' }], N));
+    expect(quoted.message).toContain('headers seen: "l", "a\\nb", "c"');
+  });
+
+  it('a table with a non-finite value is refused naming the quantity and the bias point', async () => {
+    // DeviceTable contract (src/table/types.ts): stored and derived values are finite.
+    const { checkFinite } = await import('../src/ingest/finite.js');
+    const axes = { l: Float64Array.of(1e-7, 2e-7), vgs: Float64Array.of(0.3, 0.6, 0.9), vds: Float64Array.of(0.5, 1), vsb: Float64Array.of(0) };
+    const gm = new Float64Array(12).fill(1e-4);
+    expect(() => checkFinite(axes, { id: gm, gm }, new Set(), 'f.csv')).not.toThrow();
+    gm[flatIndex(axes, 1, 2, 0, 0)] = Infinity;
+    const err = errorOf(() => checkFinite(axes, { gm }, new Set(['gm']), 'f.csv'));
+    expect(err.message).toBe('f.csv: derived gm is Infinity at bias point L=200 nm vgs=0.9 vds=0.5 vsb=0; check the input rows around it');
+    gm.fill(1e-4)[flatIndex(axes, 0, 1, 1, 0)] = NaN;
+    expect(errorOf(() => checkFinite(axes, { gm }, new Set(), 'f.csv')).message).toMatch(/^f\.csv: gm is NaN at bias point L=100 nm vgs=0.6 vds=1 vsb=0;/);
+  });
+});

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { formatEng, formatSpice, parseEng } from '../src/units/index.js';
+import { formatEng, formatSpice, parseEng, showText } from '../src/units/index.js';
 
 describe('parseEng', () => {
   // Scale factors from the Berkeley SPICE3 user's manual (section "General structure and
@@ -77,5 +77,46 @@ describe('formatEng / formatSpice', () => {
     }
     expect(formatSpice(5e7)).toBe('50meg');
     expect(formatSpice(1.8e-7)).toBe('180n');
+  });
+});
+
+describe('parseEng: blanks and one-line messages', () => {
+  const oneLine = (s: string) => !/[\n\r\u2028\u2029]/.test(s);
+  const messageOf = (input: string): string => {
+    try {
+      parseEng(input, 'spec.yaml: stacks[0].rout');
+    } catch (e) {
+      return (e as Error).message;
+    }
+    throw new Error(`${JSON.stringify(input)} was accepted`);
+  };
+
+  it('accepts one space between number and unit, as people write it', () => {
+    // BIPM SI Brochure (9th ed., 5.4.3, from memory): a space separates the number from the unit; formatEng prints that way.
+    expect(parseEng('10 uA') / 10e-6).toBeCloseTo(1, 12);
+    expect(parseEng('1.8 V')).toBe(1.8);
+    expect(parseEng(formatEng(4e-5, 'A')) / 4e-5).toBeCloseTo(1, 12);
+    expect(parseEng(' 50 meg ') / 50e6).toBeCloseTo(1, 12);
+  });
+
+  it('refuses any other blank inside the text instead of reading the number before it', () => {
+    // Project rule (src/units/parse.ts): "1\nx" must not quietly read as 1.
+    expect(parseEng('1\n')).toBe(1); // blanks around the text are trimmed, as before
+    for (const s of ['1\nx', '10  uA', '10\tuA', '10 \nuA', '1 2', '1\r\nV', '1 u A']) {
+      const msg = messageOf(s);
+      expect(msg.startsWith('spec.yaml: stacks[0].rout: '), msg).toBe(true);
+      expect(oneLine(msg), msg).toBe(true);
+    }
+    expect(messageOf('1\nx')).toBe('spec.yaml: stacks[0].rout: "1\\nx" has unexpected characters "\\nx" after the number');
+  });
+
+  it('shows long or control-laden input escaped and cut to 40 characters', () => {
+    // Project rule (DEVELOPERS.md): messages are one line.
+    const msg = messageOf('x'.repeat(5000));
+    expect(msg).toBe(`spec.yaml: stacks[0].rout: expected a number with optional scale suffix (e.g. 40u, 50meg), got "${'x'.repeat(40)}"…`);
+    expect(showText('a\u2028b\u0085c\u007f\u0000"')).toBe('"a\\u2028b\\u0085c\\u007f\\u0000\\""');
+    expect(showText('short')).toBe('"short"');
+    // Cut by code points, so an astral character is never split (ECMA-262 string iterator).
+    expect(showText('😀'.repeat(3), 2)).toBe('"😀😀"…');
   });
 });

@@ -1,5 +1,5 @@
 import { StackwrightError } from '../errors.js';
-import { parseEng } from '../units/index.js';
+import { parseEng, showText } from '../units/index.js';
 
 /**
  * A cell to a finite number: plain `Number` first (the common case, fast),
@@ -25,12 +25,12 @@ function slowCell(cell: string, decimalComma: boolean): number {
 
 export function badCell(cell: string, header: string, where: string): StackwrightError {
   const t = cell.trim();
-  if (t === '') return new StackwrightError(`column "${header}": empty cell, expected a number`, { where });
-  let why = `"${t}" is not a finite number`;
+  if (t === '') return new StackwrightError(`column ${showText(header)}: empty cell, expected a number`, { where });
+  let why = `${showText(t)} is not a finite number`;
   try {
     parseEng(t);
   } catch (e) {
     if (/ambiguous/.test((e as Error).message)) why = (e as Error).message;
   }
-  return new StackwrightError(`column "${header}": ${why}`, { where });
+  return new StackwrightError(`column ${showText(header)}: ${why}`, { where });
 }

@@ -16,8 +16,8 @@ export function splitBlanks(line: string): string[] {
 }
 
 /**
- * 1-based character column where cell `index` starts in `line` (quote-aware
- * for delimited text, so it agrees with what papaparse split).
+ * 1-based character column where cell `index` starts in `line`. Used for text
+ * without quotes; quoted text gets exact cell places from forEachQuotedRow.
  */
 export function cellColumn(line: string, delimiter: Delimiter, index: number): number {
   if (delimiter === 'space') {

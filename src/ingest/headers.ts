@@ -1,4 +1,5 @@
 import { StackwrightError } from '../errors.js';
+import { showText } from '../units/index.js';
 import { QUANTITIES, type Quantity } from './types.js';
 import { unitExamples, unitScale } from './units.js';
 
@@ -41,7 +42,7 @@ export function checkMap(map: Record<string, string> | undefined): Map<string, Q
   for (const [header, value] of Object.entries(map ?? {})) {
     const q = value.trim().toLowerCase();
     if (!(QUANTITIES as readonly string[]).includes(q)) {
-      throw new StackwrightError(`unknown quantity "${value}" for header "${header}"; valid quantities: ${QUANTITIES.join(', ')}`, { where: '--map' });
+      throw new StackwrightError(`unknown quantity ${showText(value)} for header ${showText(header)}; valid quantities: ${QUANTITIES.join(', ')}`, { where: '--map' });
     }
     out.set(header.trim().toLowerCase(), q as Quantity);
   }
@@ -75,14 +76,14 @@ export function matchHeaders(headers: string[], map: Map<string, Quantity>, wher
     }
     const prev = chosen.get(quantity);
     if (prev && !(mapKey !== undefined && prev.mapKey === undefined)) {
-      throw new StackwrightError(`columns "${prev.header}" and "${header}" both give ${quantity}; remove one or use --map`, { where: where(index) });
+      throw new StackwrightError(`columns ${showText(prev.header)} and ${showText(header)} both give ${quantity}; remove one or use --map`, { where: where(index) });
     }
     chosen.set(quantity, { index, header, quantity, scale, mapKey });
   });
   const vsb = chosen.get('vsb');
   const vbs = chosen.get('vbs');
   if (vsb && vbs) {
-    throw new StackwrightError(`columns "${vsb.header}" and "${vbs.header}" both give the body bias; keep one`, { where: where(vbs.index) });
+    throw new StackwrightError(`columns ${showText(vsb.header)} and ${showText(vbs.header)} both give the body bias; keep one`, { where: where(vbs.index) });
   }
   return [...chosen.values()].sort((a, b) => a.index - b.index);
 }
@@ -90,7 +91,7 @@ export function matchHeaders(headers: string[], map: Map<string, Quantity>, wher
 function requireUnit(unit: string, q: Quantity, header: string, where: string): number {
   const s = unitScale(unit, q);
   if (s === undefined) {
-    throw new StackwrightError(`column "${header}": unit "${unit}" does not fit ${q} (use ${unitExamples(q)})`, { where });
+    throw new StackwrightError(`column ${showText(header)}: unit ${showText(unit)} does not fit ${q} (use ${unitExamples(q)})`, { where });
   }
   return s;
 }

@@ -1,11 +1,14 @@
 import { readFileSync } from 'node:fs';
 import { StackwrightError } from '../errors.js';
 import { AXES, UNITS, type DeviceTable, type StoredQuantity, type TableMeta } from '../table/types.js';
+import { showText } from '../units/index.js';
 import { deriveAlong, describeDerivative } from './derive.js';
+import { checkFinite } from './finite.js';
 import { buildGrid } from './grid.js';
 import { checkMap } from './headers.js';
 import { parseSweep } from './parse-sweep.js';
 import { choosePool } from './pool.js';
+import { showList } from './show.js';
 import type { IngestOptions, Samples } from './types.js';
 
 export interface SweepInput {
@@ -65,6 +68,7 @@ function ingestLazy(inputs: Array<{ file: string; load: () => string | Buffer }>
   checkMapUsed(opts.map, samples);
   const pool = choosePool(samples, opts.width);
   const meta = metaFor(samples, opts, pool.width);
+  const files = pool.files;
   samples.length = 0; // let the per-file columns go before the grid is built
   const grid = buildGrid(pool);
   const data = grid.data;
@@ -78,6 +82,7 @@ function ingestLazy(inputs: Array<{ file: string; load: () => string | Buffer }>
   deriveIfMissing('gds', 'vds', false, 2);
   deriveIfMissing('gmb', 'vsb', true, 3);
   meta.derived = derived;
+  checkFinite(grid.axes, data, new Set(Object.keys(derived)), files.length === 1 ? files[0] : `${files[0]} (+${files.length - 1} more)`);
   meta.units = Object.fromEntries([...AXES, ...(Object.keys(data) as StoredQuantity[])].map((k) => [k, UNITS[k]]));
   const notes = [opts.note, ...pool.notes, ...grid.notes].filter((s): s is string => !!s);
   if (notes.length) meta.note = notes.join('; ');
@@ -89,8 +94,8 @@ function checkMapUsed(map: Record<string, string> | undefined, samples: Samples[
   const used = new Set(samples.flatMap((s) => s.mapped));
   for (const key of Object.keys(map ?? {})) {
     if (!used.has(key.trim().toLowerCase())) {
-      const seen = samples[0].headers.map((h) => `"${h}"`).join(', ');
-      throw new StackwrightError(`header "${key}" is in no input file (headers in ${samples[0].file}: ${seen})`, { where: '--map' });
+      const seen = showList(samples[0].headers);
+      throw new StackwrightError(`header ${showText(key)} is in no input file (headers in ${samples[0].file}: ${seen})`, { where: '--map' });
     }
   }
 }

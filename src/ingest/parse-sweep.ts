@@ -1,8 +1,12 @@
 import { StackwrightError, at } from '../errors.js';
+import { showText } from '../units/index.js';
 import { badCell, readCell } from './cell.js';
 import { cellColumn, detectDelimiter } from './delimiter.js';
 import { checkMap, matchHeaders, type ColumnSpec } from './headers.js';
+import { limitOf, outOfRange } from './limits.js';
+import type { CellPlaces } from './quoted.js';
 import { forEachRow } from './rows.js';
+import { showList } from './show.js';
 import { normaliseSigns } from './signs.js';
 import { countLines, decode, findHeader, lineAt } from './text.js';
 import type { Quantity, Samples, SweepOptions } from './types.js';
@@ -27,23 +31,28 @@ export function parseSweep(input: string | Buffer, file: string, opts: SweepOpti
   let specs: ColumnSpec[] = [];
   let store: Float64Array[] = [];
   let rows = 0;
-  const whereCell = (line: number, index: number): string => at(file, line, cellColumn(lineAt(text, line), delimiter, index));
+  const whereCell = (line: number, index: number, places?: CellPlaces): string =>
+    places && index < places.length >> 1
+      ? at(file, places[2 * index], places[2 * index + 1])
+      : at(file, line, cellColumn(lineAt(text, line), delimiter, index));
 
   // Hot loop: per-column facts in flat arrays, no per-cell closures.
   let idx = new Int32Array(0);
   let scale = new Float64Array(0);
   let positive = new Uint8Array(0);
+  let limit = new Float64Array(0);
   const decimalComma = delimiter === ';';
-  forEachRow(text, delimiter, (fields, line) => {
+  forEachRow(text, delimiter, file, (fields, line, places) => {
     if (line <= head.line) {
       if (line === head.line) {
         headers = fields.map((h) => h.trim());
-        specs = matchHeaders(headers, map, (i) => whereCell(line, i));
+        specs = matchHeaders(headers, map, (i) => whereCell(line, i, places));
         checkRequired(specs, headers, opts.width, at(file, line));
         store = specs.map(() => new Float64Array(capacity));
         idx = Int32Array.from(specs, (c) => c.index);
         scale = Float64Array.from(specs, (c) => c.scale);
         positive = Uint8Array.from(specs, (c) => (c.quantity === 'l' || c.quantity === 'w' ? 1 : 0));
+        limit = Float64Array.from(specs, (c) => limitOf(c.quantity));
       }
       return;
     }
@@ -62,13 +71,15 @@ export function parseSweep(input: string | Buffer, file: string, opts: SweepOpti
       let v = +cell;
       if (v - v !== 0 || (v === 0 && !hasDigit(cell))) {
         v = readCell(cell, decimalComma);
-        if (v !== v) throw badCell(cell, specs[j].header, whereCell(line, idx[j]));
+        if (v !== v) throw badCell(cell, specs[j].header, whereCell(line, idx[j], places));
       }
       v *= scale[j];
       if (positive[j] === 1 && !(v > 0)) {
         const what = specs[j].quantity === 'l' ? 'length' : 'width';
-        throw new StackwrightError(`column "${specs[j].header}": ${what} must be positive, got ${cell.trim()}`, { where: whereCell(line, idx[j]) });
+        throw new StackwrightError(`column ${showText(specs[j].header)}: ${what} must be positive, got ${showText(cell.trim())}`, { where: whereCell(line, idx[j], places) });
       }
+      // Huge but finite values would overflow later (1 nV snapping, ln id): refuse them here, located.
+      if (!(v <= limit[j] && v >= -limit[j])) throw outOfRange(cell, specs[j].header, specs[j].quantity, v, whereCell(line, idx[j], places));
       store[j][rows] = v;
     }
     lines[rows++] = line;
@@ -128,7 +139,7 @@ function checkRequired(specs: ColumnSpec[], headers: string[], width: number | u
   const need = width === undefined ? [...REQUIRED, 'w' as const] : REQUIRED;
   const missing = need.filter((q) => !have.has(q));
   if (missing.length === 0) return;
-  const seen = headers.map((h) => `"${h}"`).join(', ');
+  const seen = showList(headers);
   const hint = missing.includes('w') && missing.length === 1 ? ' (or pass --width)' : ' (use --map HEADER=QUANTITY for other names)';
   throw new StackwrightError(`missing column ${missing.join(', ')}${hint}; headers seen: ${seen}`, { where });
 }

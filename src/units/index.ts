@@ -1,2 +1,3 @@
 export { parseEng, parseEngValue } from './parse.js';
 export { formatEng, formatSpice } from './format.js';
+export { showText } from './show.js';

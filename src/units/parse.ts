@@ -1,4 +1,5 @@
 import { StackwrightError } from '../errors.js';
+import { showText } from './show.js';
 
 /**
  * Scale suffixes of Berkeley SPICE3 (user's manual, "Number formats"):
@@ -26,7 +27,10 @@ const NUMBER = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?/;
 
 /**
  * Parse an engineering-notation number: `40u`, `50meg`, `0.18um`, `1.8`,
- * `2.5e-6`, `10µA`. Throws a StackwrightError naming `where` on bad input.
+ * `2.5e-6`, `10µA`, `10 uA`. Throws a StackwrightError naming `where` on bad input.
+ * After trimming, the only blank allowed is one space between number and unit,
+ * as formatEng prints it; anything else (a line break, a tab, two spaces) is refused
+ * rather than read as the number before it.
  *
  * @example parseEng('0.18um') // 1.8e-7
  * @example parseEng('50meg')  // 5e7
@@ -38,13 +42,13 @@ export function parseEng(input: string | number, where?: string): number {
   }
   const text = input.trim();
   const m = NUMBER.exec(text);
-  if (!m) throw new StackwrightError(`expected a number with optional scale suffix (e.g. 40u, 50meg), got "${input}"`, { where });
+  if (!m) throw new StackwrightError(`expected a number with optional scale suffix (e.g. 40u, 50meg), got ${showText(input)}`, { where });
   const base = Number(m[0]);
-  const rest = text.slice(m[0].length).trim();
+  const rest = text.slice(m[0].length).replace(/^ (?=\S)/, '');
   if (rest === '') return finite(base, input, where);
   if (rest.startsWith('M') && !/^(meg|mil)/i.test(rest)) {
     throw new StackwrightError(
-      `"${input}": a bare upper-case M is ambiguous (SPICE reads milli); write "${m[0]}meg" or "${m[0]}e6" for mega, "${m[0]}m" for milli`,
+      `${showText(input)}: a bare upper-case M is ambiguous (SPICE reads milli); write ${showText(`${m[0]}meg`)} or ${showText(`${m[0]}e6`)} for mega, ${showText(`${m[0]}m`)} for milli`,
       { where },
     );
   }
@@ -63,12 +67,12 @@ export function parseEng(input: string | number, where?: string): number {
 // After the number and scale only unit letters may follow (V, A, m, ohm, %, ...).
 function checkUnitTail(tail: string, input: string, where?: string): void {
   if (!/^[A-Za-zΩ%°/·.\u00b5]*$/.test(tail)) {
-    throw new StackwrightError(`"${input}" has unexpected characters "${tail}" after the number`, { where });
+    throw new StackwrightError(`${showText(input)} has unexpected characters ${showText(tail)} after the number`, { where });
   }
 }
 
 function finite(x: number, input: string, where?: string): number {
-  if (!Number.isFinite(x)) throw new StackwrightError(`"${input}" is not a finite number`, { where });
+  if (!Number.isFinite(x)) throw new StackwrightError(`${showText(input)} is not a finite number`, { where });
   return x;
 }
 
