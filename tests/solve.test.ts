@@ -183,7 +183,10 @@ describe('sizing search on an analytic kit', () => {
     expect(both.feasible).toBe(true);
     expect(both.corners?.map((c) => c.corner)).toEqual(['tt', 'ss']);
     expect(both.corners?.every((c) => c.feasible)).toBe(true);
-    expect(both.binding).toMatch(/^corner (tt|ss) binds/);
+    // A feasible result names its tightest constraint and no binding one (nothing fails).
+    expect(both.binding).toBeUndefined();
+    expect(both.tightest).toMatch(/^corner (tt|ss): /);
+    expect(both.corners?.every((c) => c.binding === undefined && typeof c.tightest === 'string')).toBe(true);
     // Re-checking the sized design independently on ss agrees, and its gates moved with the corner.
     const again = evaluateAtCorner(both, base, kit, 'ss', 1.8);
     expect(again.feasible).toBe(true);
@@ -236,5 +239,91 @@ describe('sizeDesign', () => {
 
   it('rejects a spec for another kit', () => {
     expect(() => sizeDesign({ file: 'spec.yaml', kit: 'other', corners: [], supply: 1.8, stacks: [base] }, kit)).toThrow(/spec.yaml: kit/);
+  });
+});
+
+// Hand EKV relations for the analytic kit (n = 1.35 is a model parameter; UT = kT/q at 27 °C, SciPy CODATA value).
+const UT27 = 0.025864925786328753;
+function handVdsat(gmid: number, n = 1.35): number {
+  // Enz & Vittoz, Charge-Based MOS Transistor Modeling (2006), constants from memory:
+  // gm·n·UT/ID = 2/(1+√(1+4·IC)), VDSsat ≈ 2·UT·√(IC + 1/4) + 3·UT.
+  const g = Math.min(gmid * n * UT27, 1);
+  const ic = ((2 / g - 1) ** 2 - 1) / 4;
+  return 2 * UT27 * Math.sqrt(ic + 0.25) + 3 * UT27;
+}
+
+describe('lower devices saturated, minimum width, binding words', () => {
+  // Low current, high Rout, little room: the old search parked the bottom of a triple in deep triode here.
+  const hard: Partial<StackSpec> = { topology: 'triple', current: 2e-6, rout: 5e9, headroom: 0.45, span: 1.6, objective: 'area' };
+  const r = size(hard).results[0];
+
+  // Strong inversion only (gm/ID ≤ 8 /V, VDSsat ≈ 0.24 V): three saturated devices need ≈ 0.55 V.
+  const strong: Partial<StackSpec> = { topology: 'triple', gmid: { min: 3, max: 8 } };
+
+  it('every device below the top one has VDS ≥ VDSsat at mid-span, with VDSsat from the EKV relations', () => {
+    const ok = size({ ...strong, headroom: 0.6 }).results[0];
+    for (const x of [r, ok]) {
+      expect(x.feasible).toBe(true);
+      for (const d of x.devices) {
+        expect(d.vdsat).toBeDefined();
+        // Reported VDSsat agrees with the hand EKV value (the table's n is within 0.1 % of the model's).
+        expect(Math.abs(d.vdsat! - handVdsat(d.gmid))).toBeLessThan(1e-3);
+      }
+      for (const d of x.devices.slice(0, -1)) {
+        expect(d.vds).toBeGreaterThanOrEqual(handVdsat(d.gmid) - 1e-4);
+        // Common practice: a saturated device has intrinsic gain gm/gds well above 1.
+        expect(d.gain).toBeGreaterThan(5);
+      }
+    }
+  });
+
+  it('when saturated lower devices cannot fit below the headroom target, the nearest design is reported as failing on saturation', () => {
+    // 2·VDSsat(8 /V) ≈ 0.47 V (hand EKV) leaves too little of 0.5 V for the top device.
+    expect(2 * handVdsat(8)).toBeGreaterThan(0.45);
+    const run = size({ ...strong, headroom: 0.5 });
+    const x = run.results[0];
+    expect(x.feasible).toBe(false);
+    expect(x.tightest).toBeUndefined();
+    expect(x.binding).toMatch(/^saturation: (bottom|middle) VDS \S+ \S?V < VDSsat \S+ \S?V at mid-span; no explored triple keeps its lower devices saturated below the 0\.500 V headroom target$/);
+    // The words are true of the reported design: some lower device sits below its hand-computed VDSsat.
+    expect(x.devices.slice(0, -1).some((d) => d.vds < handVdsat(d.gmid))).toBe(true);
+    expect(x.corners?.[0].feasible).toBe(false);
+    // Designs with a lower device in triode never reach the trade-off front.
+    expect(run.front).toHaveLength(0);
+  });
+
+  it('no output device and no bias diode is narrower than the shortest table length', () => {
+    // Common practice: minimum drawn width and length are of the same order; the kit's shortest L is 0.18 µm.
+    for (const x of [r, size({ ...hard, topology: 'cascode' }).results[0]]) {
+      for (const d of x.devices) expect(d.w).toBeGreaterThanOrEqual(0.18e-6 * (1 - 1e-9));
+      for (const b of x.bias) expect(b.w).toBeGreaterThanOrEqual(0.18e-6 * (1 - 1e-9));
+    }
+  });
+
+  it('a lengthened bias diode still produces its gate voltage (KCL through the diode on the model)', () => {
+    const longer = r.bias.filter((b, k) => b.l > r.devices[k].l);
+    expect(longer.length).toBeGreaterThan(0);
+    for (const b of longer) {
+      const m = kit.slice('tt', 'n', b.l);
+      // Diode on the rail: VGS = VDS = its gate voltage; W·jd must equal its current.
+      expect((b.w * m.jd(b.voltage, b.voltage, 0)) / b.current).toBeCloseTo(1, 6);
+    }
+  });
+
+  it('an infeasible Rout reads as words, with no "none" left in them', () => {
+    const x = size({ topology: 'single', rout: 1e13 }).results[0];
+    expect(x.feasible).toBe(false);
+    expect(x.binding).toMatch(/^rout: best \S+ \S?Ω at the 0\.500 V headroom target \(needs 10 TΩ\); no explored design reaches 10 TΩ at any headroom$/);
+    expect(x.binding).not.toMatch(/none/);
+    expect(x.tightest).toBeUndefined();
+    const y = size({ rout: 1e13 }).results[0];
+    expect(y.binding).toMatch(/^rout: best .* \(needs 10 TΩ\); 10 TΩ needs \d\.\d{3} V of headroom at best$|at any headroom$/);
+  });
+
+  it('a feasible result has no binding, only its tightest constraint, at every level', () => {
+    expect(r.binding).toBeUndefined();
+    expect(r.tightest).toMatch(/^(rout|headroom|iout|mismatch|saturation) /);
+    expect(r.corners?.[0].binding).toBeUndefined();
+    expect(r.corners?.[0].tightest).toBe(r.tightest);
   });
 });

@@ -4,6 +4,11 @@ import { StackwrightError } from '../src/errors.js';
 import {
   biasDevices,
   biasGates,
+  ekvVdsat,
+  inversionCoefficient,
+  saturationVoltage,
+  slopeFactor,
+  thermalVoltage,
   findHeadroom,
   fitSquareLaw,
   routAt,
@@ -251,5 +256,86 @@ describe('bias diodes', () => {
     const again = biasGates(bias, slices);
     expect(again[0]).toBeCloseTo(sized.gates[0], 7);
     expect(again[1]).toBeCloseTo(sized.gates[1], 7);
+  });
+});
+
+describe('saturation voltage from the table (EKV interpolation)', () => {
+  const ut = thermalVoltage(27);
+
+  it('kT/q at 27 °C and 125 °C matches SciPy\'s CODATA constants', () => {
+    // scipy.constants.k·T/scipy.constants.e (CODATA 2018), computed once with SciPy 1.x.
+    expect(ut).toBeCloseTo(0.025864925786328753, 15);
+    expect(thermalVoltage(125)).toBeCloseTo(0.03430991238323103, 15);
+  });
+
+  it('the inversion coefficient inverts gm·n·UT/ID = 2/(1+√(1+4·IC)) over five decades', () => {
+    // Enz & Vittoz, Charge-Based MOS Transistor Modeling (2006): the forward relation, evaluated here by hand.
+    const n = 1.3;
+    for (const ic of [0.01, 0.1, 1, 10, 100, 1000]) {
+      const gmid = 2 / (1 + Math.sqrt(1 + 4 * ic)) / (n * ut);
+      expect(inversionCoefficient(gmid, n, ut) / ic).toBeCloseTo(1, 9);
+    }
+  });
+
+  it('VDSsat tends to 4·UT in weak inversion and to (VP − VS) + 3·UT in strong inversion', () => {
+    // Enz & Vittoz 2006 (constants from memory): 2·UT·√(IC+1/4) + 3·UT; weak-inversion limit 4·UT is common practice.
+    expect(ekvVdsat(0, ut) / (4 * ut)).toBeCloseTo(1, 12);
+    // Strong inversion: IC = ((VP − VS)/(2·UT))², so 2·UT·√IC = VP − VS.
+    const pinch = 0.4;
+    const ic = (pinch / (2 * ut)) ** 2;
+    expect(Math.abs(ekvVdsat(ic, ut) - (pinch + 3 * ut))).toBeLessThan(0.1 * ut);
+  });
+
+  it('the slope factor comes back from the weak-inversion ceiling of an EKV device (n = 1.35)', () => {
+    // EKV weak-inversion limit gm/ID = 1/(n·UT) (Enz, Krummenacher & Vittoz 1995); the model uses UT = 25.85 mV.
+    const expected = (1.35 * 0.02585) / ut;
+    for (const vsb of [0, 0.3]) expect(slopeFactor(ekvSlice(0.5e-6), vsb, ut) / expected).toBeCloseTo(1, 2);
+    // A square-law device has no ceiling (gm/ID = 2/Vov grows without bound): n is floored at 1.
+    expect(slopeFactor(slSlice(0.5e-6), 0, ut)).toBe(1);
+  });
+
+  it('at VDS = VDSsat an EKV device carries ≥ 98 % of its saturated current; at half of it clearly less', () => {
+    // Common practice: "saturated" means the current is within a few percent of its flat value.
+    // λ = 0 so the flat value is the large-VDS current; ID is the EKV closed form (Enz, Krummenacher & Vittoz 1995).
+    const flat = sliceOf(0.5e-6, ekv({ l: 0.5e-6, vt0: 0.45, kp: 250e-6, n: 1.35, lambda: 0 }));
+    for (const vgs of [0.3, 0.45, 0.6, 0.9]) {
+      const [jd, gm] = flat.small(vgs, 1.5, 0);
+      const vdsat = saturationVoltage(flat, gm / jd, 0, ut);
+      expect(flat.jd(vgs, vdsat, 0) / jd).toBeGreaterThanOrEqual(0.98);
+      expect(flat.jd(vgs, vdsat / 2, 0) / jd).toBeLessThan(0.95);
+    }
+  });
+});
+
+describe('minimum width', () => {
+  const LS = [0.18e-6, 0.25e-6, 0.35e-6, 0.5e-6, 0.7e-6, 1e-6];
+  const slices = new Map(LS.map((l) => [l, ekvSlice(l)]));
+  const widen = { wmin: 0.18e-6, lengths: LS, slice: (l: number) => slices.get(l)! };
+
+  it('a device narrower than wmin makes sizeStackDevices refuse the design', () => {
+    const d = { topology: 'cascode' as const, slices: [ekvSlice(0.18e-6), ekvSlice(0.18e-6)], gmid: [8, 8], setpoints: [0.3], current: 1e-6, vmid: 1.2 };
+    const free = sizeStackDevices(d)!;
+    expect(Math.min(...free.w)).toBeLessThan(0.18e-6);
+    expect(sizeStackDevices({ ...d, wmin: 0.18e-6 })).toBeNull();
+  });
+
+  it('a too-narrow bias diode takes the next length that reaches wmin and still carries its current at the same VGS', () => {
+    // Gate 0.7 V at 2 µA on L = 0.18 µm would need W ≈ 50 nm (strong inversion, jd ~ 1/L).
+    const gates = [0.45, 0.7];
+    const ib = 2e-6;
+    const plain = biasDevices('cascode', [slices.get(0.18e-6)!, slices.get(0.18e-6)!], gates, ib);
+    expect(plain[1].w).toBeLessThan(widen.wmin);
+    const b = biasDevices('cascode', [slices.get(0.18e-6)!, slices.get(0.18e-6)!], gates, ib, widen)!;
+    expect(b[1].l).toBeGreaterThan(0.18e-6);
+    expect(b[1].w).toBeGreaterThanOrEqual(widen.wmin);
+    // KCL through the diode (gate = drain) with the EKV closed form at its new length.
+    expect((b[1].w * ekvSlice(b[1].l).jd(0.7, 0.7, 0)) / ib).toBeCloseTo(1, 9);
+    // It is the first such length: the one before it is still too narrow.
+    const before = LS[LS.indexOf(b[1].l) - 1];
+    expect(ib / ekvSlice(before).jd(0.7, 0.7, 0)).toBeLessThan(widen.wmin);
+    // The bottom diode was wide enough and keeps its length.
+    expect(b[0].l).toBe(0.18e-6);
+    // With no length long enough the candidate is rejected.
+    expect(biasDevices('cascode', [slices.get(0.18e-6)!, slices.get(0.18e-6)!], gates, ib, { ...widen, wmin: 1e-3 })).toBeNull();
   });
 });

@@ -28,9 +28,10 @@ export interface Grid {
 /** Output-stack devices, bottom first. */
 export function deviceGrid(stack: StackResult): Grid {
   return {
-    headers: ['device', 'W', 'L', 'gate', 'VGS', 'VDS', 'VSB', 'gm/ID', 'ID', 'gm', 'gds', 'gm/gds'],
+    headers: ['device', 'W', 'L', 'gate', 'VGS', 'VDS', 'VDSsat', 'VSB', 'gm/ID', 'ID', 'gm', 'gds', 'gm/gds'],
     rows: stack.devices.map((d) => [
-      d.role, eng(d.w, 'm'), eng(d.l, 'm'), eng(d.gate, 'V'), eng(d.vgs, 'V'), eng(d.vds, 'V'), eng(d.vsb, 'V'),
+      d.role, eng(d.w, 'm'), eng(d.l, 'm'), eng(d.gate, 'V'), eng(d.vgs, 'V'), eng(d.vds, 'V'),
+      d.vdsat === undefined ? '—' : eng(d.vdsat, 'V'), eng(d.vsb, 'V'),
       perVolt(d.gmid), eng(d.id, 'A'), eng(d.gm, 'S'), eng(d.gds, 'S'), eng(d.gain, ''),
     ]),
   };
@@ -82,10 +83,10 @@ export function squareLawGrid(stack: StackResult): Grid | undefined {
 export function cornerGrid(stack: StackResult): Grid | undefined {
   if (!stack.corners || stack.corners.length === 0) return undefined;
   return {
-    headers: ['corner', 'meets targets', 'Iout', 'Rout', 'headroom', 'bias gates', 'binding'],
+    headers: ['corner', 'meets targets', 'Iout', 'Rout', 'headroom', 'bias gates', 'binding / tightest'],
     rows: stack.corners.map((c) => [
       c.corner, c.feasible ? 'yes' : 'NO', eng(c.predicted.iout, 'A'), eng(c.predicted.rout, 'Ω'), eng(c.predicted.headroom, 'V'),
-      c.gates.map((g) => eng(g, 'V')).join(', ') || '—', c.binding ?? '—',
+      c.gates.map((g) => eng(g, 'V')).join(', ') || '—', c.binding ?? c.tightest ?? '—',
     ]),
   };
 }

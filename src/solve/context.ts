@@ -2,6 +2,7 @@ import { StackwrightError } from '../errors.js';
 import type { LengthSlice } from '../device/types.js';
 import type { StackSpec } from '../spec/types.js';
 import type { MismatchCoefficients } from '../table/types.js';
+import { cornerUt } from './temperature.js';
 import type { KitAccess } from './kit.js';
 import { gmidGrid, lengthGrid } from './grid.js';
 
@@ -23,8 +24,28 @@ export interface SolveContext {
   /** Spacing of the gm/ID grid, 1/V (refinement halves it). */
   gmidStep: number;
   slice(corner: string, l: number): LengthSlice;
-  count: { screened: number; exact: number };
+  /** Narrowest drawable width: the kit's shortest table length (common practice: minimum W and L are of the same order). */
+  wmin: number;
+  /** Thermal voltage kT/q at a corner's table temperature (27 °C when unknown), V. */
+  ut(corner: string): number;
+  /**
+   * Lower devices below VDSsat at mid-span: 'require' rejects the candidate; 'report' keeps it as
+   * infeasible (only to show the nearest design when no saturated one exists).
+   */
+  saturation: 'require' | 'report';
+  count: Counts;
 }
+
+/** Work done and candidates turned away, for the report. */
+export interface Counts {
+  screened: number;
+  exact: number;
+  /** Rejected: a lower device below VDSsat at mid-span. */
+  triode: number;
+  /** Rejected: an output device or every length of a bias diode narrower than wmin. */
+  narrow: number;
+}
+
 
 /** Build the context; throws input errors for a spec the kit cannot serve. */
 export function makeContext(spec: StackSpec, kit: KitAccess, supply: number, corners: string[]): SolveContext {
@@ -53,13 +74,21 @@ export function makeContext(spec: StackSpec, kit: KitAccess, supply: number, cor
     return s;
   };
   const nominal = corners[0];
+  const uts = new Map<string, number>();
+  const ut = (corner: string): number => {
+    let u = uts.get(corner);
+    if (u === undefined) uts.set(corner, (u = cornerUt(kit, corner, spec.device)));
+    return u;
+  };
   const vmid = 0.5 * (spec.headroom + spec.span);
   const lengths = lengthGrid(spec, kit.lengths(nominal, spec.device), where);
   const { values: gmids, step: gmidStep } = gmidGrid(spec, lengths.map((l) => slice(nominal, l)), vmid, where);
   return {
     spec, kit, supply, corners, nominal, vmid,
     ib: spec.biasCurrent ?? spec.current,
-    coeff, lengths, gmids, gmidStep, slice,
-    count: { screened: 0, exact: 0 },
+    coeff, lengths, gmids, gmidStep, slice, ut,
+    wmin: kit.lengths(nominal, spec.device)[0],
+    saturation: 'require',
+    count: { screened: 0, exact: 0, triode: 0, narrow: 0 },
   };
 }

@@ -1,11 +1,12 @@
 import { StackwrightError } from '../errors.js';
 import type { StackSpec } from '../spec/types.js';
 import { biasGates, type StackDevice } from '../stack/index.js';
+import { cornerUt } from './temperature.js';
 import type { CornerResult, StackResult } from './types.js';
 import type { KitAccess } from './kit.js';
-import { describe, marginsOf, meetsAll, tightest } from './checks.js';
+import { marginsOf } from './checks.js';
 import { pelgromSigma } from './mismatch.js';
-import { absolute, predictedOf } from './result.js';
+import { cornerResult } from './result.js';
 import { evaluateStack, type StackEval } from './stackeval.js';
 
 /**
@@ -25,7 +26,7 @@ export function evaluateAtCorner(result: StackResult, spec: StackSpec, kit: KitA
   const devices: StackDevice[] = slices.map((slice, k) => ({ slice, w: result.devices[k].w }));
   const vmid = 0.5 * (spec.headroom + spec.span);
   const nodes = [0, ...result.devices.map((d) => d.vsb + d.vds)];
-  const ev: StackEval | null = evaluateStack(devices, gates, spec, vmid, { i: spec.current, nodes });
+  const ev: StackEval | null = evaluateStack(devices, gates, spec, vmid, { i: spec.current, nodes }, undefined, cornerUt(kit, corner, result.device));
   const coeff = kit.mismatch(result.device);
   let sigma: number | undefined;
   if (coeff && ev) {
@@ -35,11 +36,5 @@ export function evaluateAtCorner(result: StackResult, spec: StackSpec, kit: KitA
   const margins = marginsOf(spec, ev, sigma);
   const area = result.devices.reduce((a, d) => a + d.w * d.l, 0);
   const biasArea = result.bias.reduce((a, b) => a + b.w * b.l, 0);
-  return {
-    corner,
-    feasible: meetsAll(margins),
-    predicted: predictedOf(ev, area, biasArea, sigma),
-    gates: gates.map((g) => absolute(result.device, supply, g)),
-    binding: describe(tightest(margins), spec, ev, sigma),
-  };
+  return cornerResult(spec, corner, margins, ev, sigma, { area, biasArea, gates, supply });
 }

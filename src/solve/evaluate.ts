@@ -3,9 +3,9 @@ import type { LengthSlice } from '../device/types.js';
 import { biasDevices, biasGates, sampleAt, sizeStackDevices, type BiasDevice, type SizedStack, type StackDevice, type StackOp } from '../stack/index.js';
 import type { Candidate } from './candidate.js';
 import type { SolveContext } from './context.js';
-import { CURRENT_WINDOW, marginsOf, meetsAll, violation, type Margins } from './checks.js';
+import { CURRENT_WINDOW, marginsOf, meetsAll, saturationMargin, violation, type Margins } from './checks.js';
 import { pelgromSigma } from './mismatch.js';
-import { CURVE_INTERVALS, SCAN_INTERVALS, evaluateStack, type StackEval } from './stackeval.js';
+import { CURVE_INTERVALS, SCAN_INTERVALS, evaluateFrom, evaluateStack, midPoint, type StackEval } from './stackeval.js';
 
 /** The same design re-evaluated at another corner with the gates its bias diodes produce there. */
 export interface CornerEval {
@@ -52,7 +52,11 @@ export function sigmaOf(ctx: SolveContext, ev: StackEval): number | undefined {
   return pelgromSigma(b.gm / b.id, d.w, d.slice.l, ctx.coeff);
 }
 
-/** Size and evaluate one candidate exactly; null when the table cannot realise it. */
+/**
+ * Size and evaluate one candidate exactly; null when the table cannot realise
+ * it, a device would be narrower than the minimum width (bias diodes first try
+ * longer lengths), or a device below the top one is not saturated at mid-span.
+ */
 export function evaluateCandidate(ctx: SolveContext, cand: Candidate): Evaluated | null {
   ctx.count.exact++;
   return rangeSafe(() => {
@@ -61,10 +65,16 @@ export function evaluateCandidate(ctx: SolveContext, cand: Candidate): Evaluated
       topology: cand.topology, slices, gmid: cand.gmid, setpoints: cand.setpoints, current: ctx.spec.current, vmid: ctx.vmid,
     });
     if (!sized) return null;
-    const bias = biasDevices(cand.topology, slices, sized.gates, ctx.ib);
+    if (sized.w.some((w) => w < ctx.wmin * (1 - 1e-9))) return reject(ctx, 'narrow');
     const devices: StackDevice[] = slices.map((slice, k) => ({ slice, w: sized.w[k] }));
-    const nominal = evaluateStack(devices, sized.gates, ctx.spec, ctx.vmid, { i: ctx.spec.current, nodes: sized.nodes }, SCAN_INTERVALS);
-    if (!nominal) return null;
+    const m = midPoint(devices, sized.gates, ctx.vmid, { i: ctx.spec.current, nodes: sized.nodes }, ctx.ut(ctx.nominal));
+    if (!m) return null;
+    if (ctx.saturation === 'require' && saturationMargin(m) < 0) return reject(ctx, 'triode');
+    const bias = biasDevices(cand.topology, slices, sized.gates, ctx.ib, {
+      wmin: ctx.wmin, lengths: ctx.lengths, slice: (l) => ctx.slice(ctx.nominal, l),
+    });
+    if (!bias) return reject(ctx, 'narrow');
+    const nominal = evaluateFrom(devices, sized.gates, ctx.spec, m, SCAN_INTERVALS);
     const sigma = sigmaOf(ctx, nominal);
     return {
       cand, slices, sized, bias, nominal, sigma,
@@ -76,6 +86,11 @@ export function evaluateCandidate(ctx: SolveContext, cand: Candidate): Evaluated
   });
 }
 
+function reject(ctx: SolveContext, why: 'narrow' | 'triode'): null {
+  ctx.count[why]++;
+  return null;
+}
+
 /**
  * Re-evaluate at one other corner: same W, L and bias devices, new gate
  * voltages. `quick` first tries a cheap rejection (two DC solves: Rout at the
@@ -84,7 +99,7 @@ export function evaluateCandidate(ctx: SolveContext, cand: Candidate): Evaluated
  */
 export function evaluateCorner(ctx: SolveContext, e: Evaluated, corner: string, quick = false): CornerEval {
   const slices = e.cand.l.map((l) => ctx.slice(corner, l));
-  const gates = rangeSafe(() => biasGates(e.bias, slices));
+  const gates = rangeSafe(() => biasGates(e.bias, e.bias.map((b) => ctx.slice(corner, b.l))));
   if (!gates) return { corner, gates: [], ev: null, margins: marginsOf(ctx.spec, null, undefined) };
   const devices: StackDevice[] = slices.map((slice, k) => ({ slice, w: e.sized.w[k] }));
   const guess = { i: ctx.spec.current, nodes: e.sized.nodes };
@@ -92,12 +107,12 @@ export function evaluateCorner(ctx: SolveContext, e: Evaluated, corner: string, 
     const q = quickReject(ctx, devices, gates, guess);
     if (q) return { corner, gates, ev: null, margins: q, quick: true };
   }
-  const ev = rangeSafe(() => evaluateStack(devices, gates, ctx.spec, ctx.vmid, guess, e.intervals));
+  const ev = rangeSafe(() => evaluateStack(devices, gates, ctx.spec, ctx.vmid, guess, e.intervals, ctx.ut(corner)));
   const sigma = ev ? sigmaOf(ctx, ev) : undefined;
   return { corner, gates, ev, sigma, margins: marginsOf(ctx.spec, ev, sigma) };
 }
 
-// Margins from two DC solves when they already show a miss (headroom left unjudged at 0), else null.
+// Margins from two DC solves when they already show a miss (headroom and saturation left unjudged at 0), else null.
 function quickReject(ctx: SolveContext, devices: StackDevice[], gates: number[], guess: { i: number; nodes: number[] }): Margins | null {
   const s = ctx.spec;
   const mid = sampleAt(devices, gates, ctx.vmid, solveGuess(guess, ctx.vmid));
@@ -106,7 +121,7 @@ function quickReject(ctx: SolveContext, devices: StackDevice[], gates: number[],
   const rout = at.op ? Math.log(at.rout / s.rout) : -Infinity;
   const iout = 1 - Math.abs(mid.i - s.current) / (CURRENT_WINDOW * s.current);
   if (rout >= 0 && iout >= 0) return null;
-  return { rout, iout, headroom: 0, mismatch: Infinity };
+  return { rout, iout, headroom: 0, mismatch: Infinity, saturation: 0 };
 }
 
 function solveGuess(g: { i: number; nodes: number[] }, v: number): StackOp {
@@ -142,7 +157,7 @@ export function totalViolation(e: Evaluated): number {
 export function finalize(ctx: SolveContext, e: Evaluated): boolean {
   if (e.intervals === CURVE_INTERVALS) return true;
   const wasOk = nominalOk(e) && (e.corners === undefined || e.corners.every((c) => meetsAll(c.margins)));
-  const full = evaluateStack(e.nominal.devices, e.nominal.gates, ctx.spec, ctx.vmid, { i: ctx.spec.current, nodes: e.sized.nodes }, CURVE_INTERVALS);
+  const full = evaluateStack(e.nominal.devices, e.nominal.gates, ctx.spec, ctx.vmid, { i: ctx.spec.current, nodes: e.sized.nodes }, CURVE_INTERVALS, ctx.ut(ctx.nominal));
   e.intervals = CURVE_INTERVALS;
   if (!full) {
     e.margins = marginsOf(ctx.spec, null, e.sigma);

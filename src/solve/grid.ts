@@ -38,6 +38,9 @@ const GMID_POINTS = 12;
 const GMID_FLOOR = 3;
 // Square-law-like tables have unbounded gm/ID near threshold; beyond this W explodes anyway.
 const GMID_CEILING = 30;
+// Share of the weak-inversion ceiling the grid reaches: the last percent is where
+// saturated low-mismatch designs live (W grows fast there, the objective weighs it).
+const REACH_SHARE = 0.99;
 
 /** Highest gm/ID the slices reach at VSB = 0 (sampled over VGS). */
 export function gmidReach(slices: readonly LengthSlice[], vds: number): number {
@@ -56,7 +59,7 @@ export function gmidReach(slices: readonly LengthSlice[], vds: number): number {
 
 /** gm/ID grid: from ~3 /V (or spec.gmid.min) up to what the table reaches (or spec.gmid.max). */
 export function gmidGrid(spec: StackSpec, slices: readonly LengthSlice[], vmid: number, where: string): { values: number[]; step: number } {
-  const reach = Math.min(0.97 * gmidReach(slices, 0.5 * vmid), GMID_CEILING);
+  const reach = Math.min(REACH_SHARE * gmidReach(slices, 0.5 * vmid), GMID_CEILING);
   const lo = spec.gmid?.min ?? GMID_FLOOR;
   const hi = Math.min(spec.gmid?.max ?? Infinity, reach);
   if (!(hi > lo)) {

@@ -10,4 +10,6 @@ export interface KitAccess {
   /** A length slice (may be between table lengths). Throws kind 'range' outside. */
   slice(corner: string, device: Polarity, l: number): LengthSlice;
   mismatch(device: Polarity): MismatchCoefficients | undefined;
+  /** Temperature of a corner's table, °C, when known (optional: else read from the slice's table, else 27 °C). */
+  temperature?(corner: string, device: Polarity): number | undefined;
 }

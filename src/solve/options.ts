@@ -1,7 +1,9 @@
 import type { VdsMode } from '../stack/invert.js';
+import type { LengthSlice } from '../device/types.js';
+import { covers, saturationVoltage } from '../stack/index.js';
 import type { SolveContext } from './context.js';
 import { pelgromSigma } from './mismatch.js';
-import { atGmid, atVgs, sweepVgs, type Sweep } from './sweep.js';
+import { atGmid, sweepVgs, type Sweep } from './sweep.js';
 
 /** One device choice in the screen, with its saturation small-signal estimates. */
 export interface StageOption {
@@ -14,9 +16,22 @@ export interface StageOption {
   ro: number;
   /** gm + gmb, S. */
   gmt: number;
-  /** Saturation VDS estimate 2/(gm/ID), floored at 4·UT (common practice). */
+  /** Saturation VDS estimate 2/(gm/ID), floored at 100 mV (≈ 4·UT, common practice), for the top device's headroom. */
   vdsat: number;
+  /** EKV saturation voltage from gm/ID and the table's slope factor (as the exact check uses), V. */
+  sat: number;
   sigma: number;
+}
+
+/** Where a device sits: its VDS (or diode), VSB, and what the screen asks of it. */
+export interface StageBias {
+  mode: VdsMode;
+  vsb: number;
+  /** Take small-signal values at this VDS (same VGS) instead of at the design bias. */
+  smallAt?: number;
+  gmids?: readonly number[];
+  /** A device below the top one: it must be saturated at its design bias. */
+  lower?: boolean;
 }
 
 export type SweepCache = Map<string, Sweep | null>;
@@ -27,37 +42,51 @@ function sweepOf(ctx: SolveContext, cache: SweepCache, l: number, mode: VdsMode,
   return cache.get(key)!;
 }
 
+const buf = new Float64Array(4);
+
+// Per-width gm, gds, gmb at one bias, null outside the table.
+function smallThere(slice: LengthSlice, vgs: number, vds: number, vsb: number): { gm: number; gds: number; gmb: number } | null {
+  if (!covers(slice, vgs, vds, vsb)) return null;
+  const r = slice.small(vgs, vds, vsb, buf);
+  return { gm: r[1], gds: r[2], gmb: r[3] };
+}
+
 /**
  * Options for one device over the L × gm/ID grid. gm/ID fixes VGS at the
  * design bias (VDS `mode`, `vsb`); W = I / jd. Small-signal values come from
  * the design bias, or from `smallAt` (another VDS at the same VGS) when given.
+ * Options narrower than the minimum width, and lower devices below their
+ * VDSsat, are left out (the exact evaluation would reject them).
  */
-export function stageOptions(
-  ctx: SolveContext,
-  cache: SweepCache,
-  mode: VdsMode,
-  vsb: number,
-  smallAt?: number,
-  gmids: readonly number[] = ctx.gmids,
-): StageOption[] {
+export function stageOptions(ctx: SolveContext, cache: SweepCache, at: StageBias): StageOption[] {
+  const { mode, vsb, smallAt } = at;
+  const gmids = at.gmids ?? ctx.gmids;
   const out: StageOption[] = [];
   const i = ctx.spec.current;
+  const ut = ctx.ut(ctx.nominal);
+  const lower = at.lower === true && ctx.saturation === 'require';
+  // VDSsat ≥ 4·UT at any inversion level: no lower device fits below that.
+  if (lower && typeof mode === 'number' && mode < 4 * ut) return out;
   for (const l of ctx.lengths) {
     const nom = sweepOf(ctx, cache, l, mode, vsb);
     if (!nom) continue;
-    const alt = smallAt === undefined ? null : sweepOf(ctx, cache, l, smallAt, vsb);
-    if (smallAt !== undefined && !alt) continue;
+    const slice = ctx.slice(ctx.nominal, l);
     for (const gmid of gmids) {
       const p = atGmid(nom, gmid);
       if (!p) continue;
-      const q = alt ? atVgs(alt, p.vgs) : p;
+      // One lookup per option at the other VDS beats a shared sweep there (fewer options than sweep points).
+      const q = smallAt === undefined ? p : smallThere(slice, p.vgs, smallAt, vsb);
       if (!q) continue;
       const w = i / p.jd;
+      if (w < ctx.wmin) continue;
+      const sat = saturationVoltage(slice, gmid, vsb, ut);
+      if (lower && sat > (mode === 'diode' ? p.vgs : mode)) continue;
       out.push({
         l, gmid, w, area: w * l, vgs: p.vgs,
         ro: 1 / (q.gds * w),
         gmt: (q.gm + q.gmb) * w,
         vdsat: Math.max(2 / gmid, 0.1),
+        sat,
         sigma: ctx.coeff ? pelgromSigma(gmid, w, l, ctx.coeff) : 0,
       });
     }

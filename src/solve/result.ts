@@ -3,7 +3,8 @@ import { rolesOf, squareLawCheck } from '../stack/index.js';
 import { formatEng } from '../units/index.js';
 import type { BiasResult, CornerResult, CurvePoint, DeviceResult, Predicted, SquareLawCheck, StackResult } from './types.js';
 import type { SolveContext } from './context.js';
-import { describe, meetsAll, tightest, type Margins } from './checks.js';
+import type { StackSpec } from '../spec/types.js';
+import { CURRENT_WINDOW, describe, meetsAll, tightest, type Margins } from './checks.js';
 import { ensureCorners, nominalOk, type Evaluated } from './evaluate.js';
 import type { StackEval } from './stackeval.js';
 
@@ -38,6 +39,7 @@ function devicesOf(e: Evaluated, device: Polarity, supply: number): DeviceResult
       vgs: b.vgs, vds: b.vds, vsb: b.vsb,
       gmid: b.gm / b.id, id: b.id, gm: b.gm, gds: b.gds, gmb: b.gmb,
       gain: b.gm / b.gds, jd: b.id / d.w, ft: op.ft,
+      vdsat: e.nominal.vdsat[k],
     };
   });
 }
@@ -55,26 +57,33 @@ function squareLawOf(ctx: SolveContext, e: Evaluated): SquareLawCheck | undefine
   return Number.isFinite(s.vth) ? s : undefined;
 }
 
+/** One corner's report: why it fails (`binding`) or, when it meets every target, what is tightest. */
+export function cornerResult(
+  spec: StackSpec, corner: string, m: Margins, ev: StackEval | null, sigma: number | undefined,
+  at: { area: number; biasArea: number; gates: readonly number[]; supply: number },
+): CornerResult {
+  const feasible = meetsAll(m);
+  const words = describe(tightest(m), spec, ev, sigma);
+  const r: CornerResult = {
+    corner, feasible,
+    predicted: predictedOf(ev, at.area, at.biasArea, sigma),
+    gates: at.gates.map((g) => absolute(spec.device, at.supply, g)),
+  };
+  if (feasible) r.tightest = words;
+  else r.binding = words;
+  return r;
+}
+
 /** Per-corner report, the nominal corner first. */
 function cornerResults(ctx: SolveContext, e: Evaluated): CornerResult[] {
-  const { device } = ctx.spec;
-  const nominal: CornerResult = {
-    corner: ctx.nominal, feasible: nominalOk(e),
-    predicted: predictedOf(e.nominal, e.area, e.biasArea, e.sigma),
-    gates: e.nominal.gates.map((g) => absolute(device, ctx.supply, g)),
-    binding: describe(tightest(e.margins), ctx.spec, e.nominal, e.sigma),
-  };
-  const others = ensureCorners(ctx, e, true).map((c): CornerResult => ({
-    corner: c.corner, feasible: meetsAll(c.margins),
-    predicted: predictedOf(c.ev, e.area, e.biasArea, c.sigma),
-    gates: c.gates.map((g) => absolute(device, ctx.supply, g)),
-    binding: describe(tightest(c.margins), ctx.spec, c.ev, c.sigma),
-  }));
+  const at = (gates: readonly number[]) => ({ area: e.area, biasArea: e.biasArea, gates, supply: ctx.supply });
+  const nominal = cornerResult(ctx.spec, ctx.nominal, e.margins, e.nominal, e.sigma, at(e.nominal.gates));
+  const others = ensureCorners(ctx, e, true).map((c) => cornerResult(ctx.spec, c.corner, c.margins, c.ev, c.sigma, at(c.gates)));
   return [nominal, ...others];
 }
 
 function smallest(m: Margins): number {
-  return Math.min(m.rout, m.headroom, m.iout, m.mismatch);
+  return Math.min(m.rout, m.headroom, m.iout, m.mismatch, m.saturation);
 }
 
 /** Words for why nothing met the targets, and the nearest points reached. */
@@ -92,7 +101,10 @@ function infeasibility(ctx: SolveContext, best: Evaluated, pool: readonly Evalua
     routAtHeadroom = Math.max(routAtHeadroom, e.nominal.routAtTarget);
   }
   const nearest = { headroomAtRout, routAtHeadroom };
-  const h = Number.isFinite(headroomAtRout) ? `${headroomAtRout.toFixed(3)} V` : 'none';
+  if (!pool.some((e) => e.margins.saturation >= 0)) {
+    const room = `no explored ${best.cand.topology} keeps its lower devices saturated below the ${s.headroom.toFixed(3)} V headroom target`;
+    return { binding: `${describe('saturation', s, best.nominal, best.sigma)}; ${room}`, nearest };
+  }
   if (nominalOk(best)) {
     const c = (best.corners ?? []).find((x) => !meetsAll(x.margins));
     if (c) return { binding: `corner ${c.corner}: ${describe(tightest(c.margins), s, c.ev, c.sigma)}`, nearest };
@@ -105,10 +117,34 @@ function infeasibility(ctx: SolveContext, best: Evaluated, pool: readonly Evalua
   if (physical.some((e) => e.margins.iout < 0) && !physical.some((e) => e.margins.iout >= 0)) {
     return { binding: `iout: ${describe('iout', s, best.nominal, best.sigma)}`, nearest };
   }
-  if (routAtHeadroom > 0) {
-    return { binding: `rout: best ${formatEng(routAtHeadroom, 'Ω')} at ${s.headroom.toFixed(3)} V headroom (target ${formatEng(s.rout, 'Ω')}); best headroom at the rout target ${h}`, nearest };
+  const cornerMiss = pool.find((e) => nominalOk(e) && e.corners?.some((c) => !meetsAll(c.margins)));
+  const c = cornerMiss?.corners?.find((x) => !meetsAll(x.margins));
+  if (c) return { binding: `corner ${c.corner}: ${describe(tightest(c.margins), s, c.ev, c.sigma)} (designs meeting the targets at ${ctx.nominal} miss them there)`, nearest };
+  return { binding: routHeadroomWords(s, nearest), nearest };
+}
+
+/**
+ * Words for a missed Rout/headroom pair from the nearest points:
+ * "rout: best 4.21 MΩ at the 0.500 V headroom target (needs 100 MΩ); no explored design reaches 100 MΩ at any headroom".
+ */
+export function routHeadroomWords(s: StackSpec, nearest: { headroomAtRout: number; routAtHeadroom: number }): string {
+  const need = formatEng(s.rout, 'Ω');
+  const target = `${s.headroom.toFixed(3)} V`;
+  const h = nearest.headroomAtRout;
+  const r = nearest.routAtHeadroom;
+  const anyHeadroom = Number.isFinite(h)
+    ? `${need} needs ${h.toFixed(3)} V of headroom at best`
+    : `no explored design reaches ${need} at any headroom`;
+  if (r >= s.rout && h <= s.headroom) {
+    return `no explored design meets everything at once: Rout reaches ${formatEng(r, 'Ω')} at ${target} and ${h.toFixed(3)} V of headroom is reachable, but not together with the other targets`;
   }
-  return { binding: `headroom: best ${h} at the rout target (target ${s.headroom.toFixed(3)} V)`, nearest };
+  if (r >= s.rout && Number.isFinite(h)) {
+    // Rout is there at the target, so the current window is what pushes the headroom up.
+    const pct = (CURRENT_WINDOW * 100).toFixed(0);
+    return `headroom: best ${h.toFixed(3)} V (needs ${target}); Rout reaches ${formatEng(r, 'Ω')} at ${target} but the current leaves its ${pct} % window below ${h.toFixed(3)} V`;
+  }
+  if (r > 0) return `rout: best ${formatEng(r, 'Ω')} at the ${target} headroom target (needs ${need}); ${anyHeadroom}`;
+  return `rout: no explored design has a usable Rout at the ${target} headroom target (outside the table); ${anyHeadroom}`;
 }
 
 /** The report for one topology: the chosen design, its corners, and why it fails if it does. */
@@ -128,10 +164,11 @@ export function stackResult(ctx: SolveContext, best: Evaluated, pool: readonly E
   const sq = squareLawOf(ctx, best);
   if (sq) r.squareLaw = sq;
   if (!feasible) Object.assign(r, infeasibility(ctx, best, pool));
-  else if (ctx.corners.length > 1) {
+  else {
     const all = [{ corner: ctx.nominal, m: best.margins }, ...(best.corners ?? []).map((c) => ({ corner: c.corner, m: c.margins }))];
     const worst = all.reduce((a, b) => (smallest(b.m) < smallest(a.m) ? b : a));
-    r.binding = `corner ${worst.corner} binds: ${corners.find((c) => c.corner === worst.corner)?.binding ?? ''}`;
+    const words = corners.find((c) => c.corner === worst.corner)?.tightest ?? '';
+    r.tightest = ctx.corners.length > 1 ? `corner ${worst.corner}: ${words}` : words;
   }
   return r;
 }

@@ -10,6 +10,7 @@ import { finalize, fullyOk, nominalOk, totalViolation, type Evaluated } from './
 import { objectiveCompare, pickBest } from './rank.js';
 import { emptyResult, stackResult } from './result.js';
 import { paretoFront, type FrontPoint } from './pareto.js';
+import { formatEng } from '../units/index.js';
 
 export interface SizeStackResult {
   results: StackResult[];
@@ -39,8 +40,8 @@ function seedsOf(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[])
   return [best, ...rest.slice(0, 1)];
 }
 
-function sizeTopology(ctx: SolveContext, topology: Topology): { result: StackResult; pool: Evaluated[] } {
-  const before = ctx.count.screened + ctx.count.exact;
+/** Screen, evaluate, refine: the best design and everything evaluated, or null when nothing could be realised. */
+function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool: Evaluated[] } | null {
   const seen: Seen = new Map();
   const pool: Evaluated[] = [];
   for (const c of screen(ctx, topology)) {
@@ -48,16 +49,49 @@ function sizeTopology(ctx: SolveContext, topology: Topology): { result: StackRes
     if (e) pool.push(e);
   }
   const first = pickBest(ctx, pool);
-  if (!first) {
-    const n = ctx.count.screened + ctx.count.exact - before;
-    return { result: emptyResult(ctx, topology, n, `${topology}: no candidate could be realised within the table`), pool };
-  }
+  if (!first) return null;
   let best = refine(ctx, seedsOf(ctx, first, pool), seen, pool) ?? first;
   // The report uses the full curve; if that loses a target the scan met, take the next best.
   for (let tries = 0; tries < 5 && !finalize(ctx, best); tries++) best = pickBest(ctx, pool) ?? best;
   finalize(ctx, best);
-  const n = ctx.count.screened + ctx.count.exact - before;
-  return { result: stackResult(ctx, best, pool, n), pool };
+  return { best, pool };
+}
+
+function sizeTopology(ctx: SolveContext, topology: Topology): { result: StackResult; pool: Evaluated[] } {
+  const before = ctx.count.screened + ctx.count.exact;
+  const rejected = { triode: ctx.count.triode, narrow: ctx.count.narrow };
+  const run = search(ctx, topology);
+  const counted = () => ctx.count.screened + ctx.count.exact - before;
+  if (run) return { result: stackResult(ctx, run.best, run.pool, counted()), pool: run.pool };
+  // Nothing with saturated lower devices on the screen's grid: search again with them allowed, so refinement
+  // can still reach a saturated design or, failing that, show the nearest one failing on saturation.
+  // Only saturated designs go on the front.
+  ctx.saturation = 'report';
+  let near: ReturnType<typeof search>;
+  try {
+    near = search(ctx, topology);
+  } finally {
+    ctx.saturation = 'require';
+  }
+  if (near) return { result: stackResult(ctx, near.best, near.pool, counted()), pool: near.pool.filter((e) => e.margins.saturation >= 0) };
+  const triode = ctx.count.triode > rejected.triode;
+  return { result: emptyResult(ctx, topology, counted(), triode ? nothingFitsWords(ctx, topology) : noCandidateWords(ctx, topology, rejected)), pool: [] };
+}
+
+/** Why a topology got no design at all, with the rejections counted since `from`. */
+function noCandidateWords(ctx: SolveContext, topology: Topology, from: { triode: number; narrow: number }): string {
+  const triode = ctx.count.triode - from.triode;
+  const narrow = ctx.count.narrow - from.narrow;
+  const why: string[] = [];
+  if (triode > 0) why.push(`${triode} left a lower device below its VDSsat at mid-span`);
+  if (narrow > 0) why.push(`${narrow} needed a device narrower than the minimum width ${formatEng(ctx.wmin, 'm')}`);
+  return `${topology}: no candidate could be realised within the table${why.length ? ` (${why.join('; ')})` : ''}`;
+}
+
+/** Why the screen kept nothing: the lower devices' saturation and the minimum width leave no room. */
+function nothingFitsWords(ctx: SolveContext, topology: Topology): string {
+  const floor = formatEng(4 * ctx.ut(ctx.nominal), 'V');
+  return `${topology}: no combination of grid options keeps every lower device saturated (VDSsat ≥ 4·UT = ${floor} each) with W ≥ ${formatEng(ctx.wmin, 'm')} below the ${ctx.spec.headroom.toFixed(3)} V headroom target`;
 }
 
 /**

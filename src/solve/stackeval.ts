@@ -2,7 +2,10 @@ import { StackwrightError } from '../errors.js';
 import type { StackSpec } from '../spec/types.js';
 import {
   findHeadroom,
+  holds,
   sampleAt,
+  saturationVoltage,
+  thermalVoltage,
   solveOperatingPoint,
   stackCurve,
   type CurveSample,
@@ -25,9 +28,11 @@ export interface StackEval {
   rout: number;
   /** Current at mid-span, A. */
   iout: number;
+  /** Table-derived VDSsat of each device at mid-span (EKV interpolation), V. */
+  vdsat: number[];
 }
 
-/** Intervals of the reported curve (≥ 60 points). */
+/** Intervals of the reported curve (≥ 60 points); the full curve from 0 V is kept only at this resolution. */
 export const CURVE_INTERVALS = 64;
 /** Intervals of the scan used while ranking candidates; the chosen design is re-evaluated on the full curve. */
 export const SCAN_INTERVALS = 16;
@@ -43,6 +48,38 @@ function minRout(devices: readonly StackDevice[], gates: readonly number[], curv
   return r;
 }
 
+/** The mid-span operating point and each device's VDSsat there. */
+export interface MidPoint {
+  mid: StackOp;
+  vdsat: number[];
+}
+
+/** Solve the mid-span point; null when the table cannot cover it. */
+export function midPoint(devices: readonly StackDevice[], gates: readonly number[], vmid: number, guess?: OpGuess, ut = thermalVoltage()): MidPoint | null {
+  let mid: StackOp;
+  try {
+    mid = solveOperatingPoint(devices, gates, vmid, guess);
+  } catch (e) {
+    if (e instanceof StackwrightError && e.kind === 'range') return null;
+    throw e;
+  }
+  const vdsat = mid.devices.map((b, k) => saturationVoltage(devices[k].slice, b.gm / b.id, b.vsb, ut));
+  return { mid, vdsat };
+}
+
+/** Curve, headroom and Rout figures from a solved mid-span point. */
+export function evaluateFrom(devices: StackDevice[], gates: number[], spec: StackSpec, m: MidPoint, intervals = CURVE_INTERVALS): StackEval {
+  const { mid, vdsat } = m;
+  const target = { rout: spec.rout, iMid: mid.i };
+  // While ranking, points below both the headroom target and the first failing point change nothing.
+  const lowest = intervals >= CURVE_INTERVALS ? undefined : (c: CurveSample) => c.v < spec.headroom && !holds(c, target);
+  const curve = stackCurve(devices, gates, spec.span, { intervals, anchor: mid, lowest });
+  const headroom = findHeadroom(devices, gates, curve, target);
+  const routAtTarget = minRout(devices, gates, curve, spec.headroom);
+  const rout = Number.isFinite(headroom) && headroom > spec.headroom ? minRout(devices, gates, curve, headroom) : routAtTarget;
+  return { gates, devices, mid, curve, headroom, routAtTarget, rout, iout: mid.i, vdsat };
+}
+
 /**
  * Evaluate a stack with given widths and gates: operating point at mid-span,
  * the curve from 0 to span, headroom and the Rout figures. Null when the table
@@ -55,17 +92,8 @@ export function evaluateStack(
   vmid: number,
   guess?: OpGuess,
   intervals = CURVE_INTERVALS,
+  ut = thermalVoltage(),
 ): StackEval | null {
-  let mid: StackOp;
-  try {
-    mid = solveOperatingPoint(devices, gates, vmid, guess);
-  } catch (e) {
-    if (e instanceof StackwrightError && e.kind === 'range') return null;
-    throw e;
-  }
-  const curve = stackCurve(devices, gates, spec.span, { intervals, anchor: mid });
-  const headroom = findHeadroom(devices, gates, curve, { rout: spec.rout, iMid: mid.i });
-  const routAtTarget = minRout(devices, gates, curve, spec.headroom);
-  const rout = Number.isFinite(headroom) && headroom > spec.headroom ? minRout(devices, gates, curve, headroom) : routAtTarget;
-  return { gates, devices, mid, curve, headroom, routAtTarget, rout, iout: mid.i };
+  const m = midPoint(devices, gates, vmid, guess, ut);
+  return m ? evaluateFrom(devices, gates, spec, m, intervals) : null;
 }

@@ -21,6 +21,8 @@ export interface DeviceResult {
   gain: number;
   jd: number;
   ft: number;
+  /** Table-derived saturation voltage at mid-span (EKV interpolation from gm/ID), V. */
+  vdsat?: number;
 }
 
 /** A diode-connected device that produces one gate voltage. */
@@ -78,7 +80,10 @@ export interface CornerResult {
   predicted: Predicted;
   /** Gate voltages the bias devices produce at this corner, V. */
   gates: number[];
+  /** Why this corner fails (infeasible corners only). */
   binding?: string;
+  /** The constraint with the least margin (feasible corners only). */
+  tightest?: string;
 }
 
 export interface StackResult {
@@ -88,6 +93,8 @@ export interface StackResult {
   feasible: boolean;
   /** Which target binds when infeasible (e.g. "rout", "headroom", "mismatch"), with words. */
   binding?: string;
+  /** When feasible: the constraint with the least margin, over all corners, with words. */
+  tightest?: string;
   /** Nearest feasible points when infeasible. */
   nearest?: { headroomAtRout?: number; routAtHeadroom?: number };
   devices: DeviceResult[];

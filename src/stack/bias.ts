@@ -20,27 +20,63 @@ export interface BiasDevice {
   stackedOn?: number;
 }
 
+/** How to lengthen a bias diode that would come out narrower than the minimum width. */
+export interface DiodeWidening {
+  /** Narrowest drawable width, m. */
+  wmin: number;
+  /** Lengths a diode may take, ascending, m. */
+  lengths: readonly number[];
+  slice(l: number): LengthSlice;
+}
+
+// W of a diode at one length, or null when the table cannot hold its bias.
+function diodeWidth(slice: LengthSlice, vgs: number, vsb: number, ib: number): number | null {
+  if (!covers(slice, vgs, vgs, vsb)) return null;
+  const jd = slice.jd(vgs, vgs, vsb);
+  return jd > 0 ? ib / jd : null;
+}
+
 /**
  * Diodes (gate = drain) that reproduce each gate voltage at current `ib`, one
  * per output device with the same L. Low-voltage biasing: every diode on the
  * rail (VSB = 0, VDS = VGS = gate). Stacked cascode: the top diode sits on the
  * bottom one (VSB = g1, VGS = g2 − g1). W = ib / jd(VGS, VGS, VSB).
+ * With `widen`, a diode narrower than wmin takes the next longer length until
+ * W ≥ wmin (same VGS, so the same voltage); null when no length does.
  * Throws kind 'range' when a diode bias is outside the table.
  */
-export function biasDevices(topology: Topology, slices: readonly LengthSlice[], gates: readonly number[], ib: number): BiasDevice[] {
+export function biasDevices(topology: Topology, slices: readonly LengthSlice[], gates: readonly number[], ib: number): BiasDevice[];
+export function biasDevices(topology: Topology, slices: readonly LengthSlice[], gates: readonly number[], ib: number, widen: DiodeWidening): BiasDevice[] | null;
+export function biasDevices(
+  topology: Topology,
+  slices: readonly LengthSlice[],
+  gates: readonly number[],
+  ib: number,
+  widen?: DiodeWidening,
+): BiasDevice[] | null {
   const roles = rolesOf(topology);
-  return roles.map((drives, k) => {
+  const out: BiasDevice[] = [];
+  for (let k = 0; k < roles.length; k++) {
+    const drives = roles[k];
     const stacked = topology === 'cascode-stacked' && k === 1;
     const vsb = stacked ? gates[0] : 0;
     const vgs = gates[k] - vsb;
     const slice = slices[k];
     if (!covers(slice, vgs, vgs, vsb)) throw rangeError(slice, vgs, vgs, vsb, `bias diode for the ${drives} gate`);
-    const jd = slice.jd(vgs, vgs, vsb);
-    if (!(jd > 0)) throw new StackwrightError(`bias diode for the ${drives} gate carries no current at VGS = ${vgs.toFixed(3)} V`, { kind: 'range' });
-    const out: BiasDevice = { drives, w: ib / jd, l: slice.l, current: ib, gate: gates[k], vgs, vsb };
-    if (stacked) out.stackedOn = 0;
-    return out;
-  });
+    let w = diodeWidth(slice, vgs, vsb, ib);
+    if (w === null) throw new StackwrightError(`bias diode for the ${drives} gate carries no current at VGS = ${vgs.toFixed(3)} V`, { kind: 'range' });
+    let l = slice.l;
+    if (widen && w < widen.wmin) {
+      const next = widen.lengths.find((x) => x > l * (1 + 1e-9) && (diodeWidth(widen.slice(x), vgs, vsb, ib) ?? 0) >= widen.wmin);
+      if (next === undefined) return null;
+      w = diodeWidth(widen.slice(next), vgs, vsb, ib)!;
+      l = next;
+    }
+    const b: BiasDevice = { drives, w, l, current: ib, gate: gates[k], vgs, vsb };
+    if (stacked) b.stackedOn = 0;
+    out.push(b);
+  }
+  return out;
 }
 
 /**

@@ -15,13 +15,15 @@ export interface CurveSample {
  * The stack's I–V curve from v = 0 to `span` in `intervals` equal steps,
  * solved by continuation outwards from `anchor` (an operating point near the
  * design bias) so Newton starts close. Points the table cannot cover get
- * NaN current and Rout rather than failing the whole curve.
+ * NaN current and Rout rather than failing the whole curve. With `lowest`,
+ * the downward sweep stops after the first sample it accepts and the curve
+ * starts there (callers that only need the top part skip the triode region).
  */
 export function stackCurve(
   devices: readonly StackDevice[],
   gates: readonly number[],
   span: number,
-  opts: { intervals?: number; anchor?: StackOp } = {},
+  opts: { intervals?: number; anchor?: StackOp; lowest?: (s: CurveSample) => boolean } = {},
 ): CurveSample[] {
   const n = Math.max(Math.round(opts.intervals ?? 64), 2);
   if (!(span > 0)) throw new StackwrightError(`span must be positive, got ${span}`, { kind: 'input' });
@@ -31,8 +33,15 @@ export function stackCurve(
   let prev: StackOp | undefined = opts.anchor;
   for (let j = start; j <= n; j++) prev = fill(j) ?? prev;
   prev = opts.anchor ?? out[start].op ?? undefined;
-  for (let j = start - 1; j >= 0; j--) prev = fill(j) ?? prev;
-  return out;
+  let first = 0;
+  for (let j = start - 1; j >= 0; j--) {
+    prev = fill(j) ?? prev;
+    if (opts.lowest?.(out[j])) {
+      first = j;
+      break;
+    }
+  }
+  return first === 0 ? out : out.slice(first);
 
   function fill(j: number): StackOp | undefined {
     const v = vAt(j);

@@ -7,5 +7,6 @@ export { stackCurve, sampleAt, type CurveSample } from './curve.js';
 export { findHeadroom, holds, type HeadroomTarget } from './headroom.js';
 export { gmidAt, vgsForGmid, vgsForCurrent, vgsWindow, type VdsMode } from './invert.js';
 export { sizeStackDevices, type StackDesign, type SizedStack } from './sizing.js';
-export { biasDevices, biasGates, type BiasDevice } from './bias.js';
+export { biasDevices, biasGates, type BiasDevice, type DiodeWidening } from './bias.js';
+export { thermalVoltage, gmidCeiling, slopeFactor, inversionCoefficient, ekvVdsat, saturationVoltage } from './saturation.js';
 export { fitSquareLaw, squareLawCheck, ruleOfThumbHeadroom, type SquareLawFit } from './squarelaw.js';

@@ -29,7 +29,8 @@ export function vgsWindow(slice: LengthSlice, mode: VdsMode, vsb: number): [numb
   return [lo, hi];
 }
 
-const SCAN = 48;
+// Coarse enough to be cheap (gm/ID is monotone above weak inversion), fine enough not to step over a crossing.
+const SCAN = 16;
 
 /**
  * VGS at which gm/ID equals `target` at the given VDS (or diode) and VSB.
@@ -51,12 +52,38 @@ export function vgsForGmid(slice: LengthSlice, target: number, mode: VdsMode, vs
     b = a;
     if (j === 0) return null;
   }
-  for (let it = 0; it < 40 && b - a > 1e-9; it++) {
-    const m = 0.5 * (a + b);
-    if (f(m) >= 0) a = m;
-    else b = m;
+  return illinois(f, a, b, 1e-9);
+}
+
+/**
+ * Root of f in [a, b] with f(a) ≥ 0 > f(b) by the Illinois variant of regula
+ * falsi (superlinear on smooth f, never leaves the bracket; bisection when the
+ * interpolation cannot be used). Stops when the bracket or the step is below `tol`.
+ */
+export function illinois(f: (x: number) => number, a: number, b: number, tol: number): number {
+  let fa = f(a);
+  let fb = f(b);
+  let side = 0;
+  let m = 0.5 * (a + b);
+  for (let it = 0; it < 80 && b - a > tol; it++) {
+    const t = Number.isFinite(fa) && Number.isFinite(fb) && fa !== fb ? fa / (fa - fb) : 0.5;
+    m = a + (b - a) * (t > 0 && t < 1 ? t : 0.5);
+    const fm = f(m);
+    if (fm >= 0) {
+      if (m - a < 0.5 * tol) return m;
+      a = m;
+      fa = fm;
+      if (side === 1) fb *= 0.5;
+      side = 1;
+    } else {
+      if (b - m < 0.5 * tol) return m;
+      b = m;
+      fb = fm;
+      if (side === -1) fa *= 0.5;
+      side = -1;
+    }
   }
-  return 0.5 * (a + b);
+  return m;
 }
 
 /**

@@ -17,23 +17,24 @@ export function newtonOperatingPoint(devices: readonly StackDevice[], gates: rea
   x[0] = 0;
   x[n] = v;
   for (let k = 1; k < n; k++) x[k] = Math.min(Math.max(guess.nodes[k] ?? (v * k) / n, x[k - 1]), v);
-  const slope: DeviceBias[] = devices.map(() => emptyBias());
+  const { slope, r, dx } = scratchFor(n);
   let i = guess.i;
   if (!(i > 0)) {
     if (!covers(devices[0].slice, gates[0], x[1], 0)) return null;
     i = devices[0].w * devices[0].slice.jd(gates[0], x[1], 0);
   }
-  const r = new Float64Array(n);
-  const dx = new Float64Array(n);
 
   for (let it = 0; it < MAX_ITER; it++) {
     let rmax = 0;
     for (let k = 0; k < n; k++) {
-      if (!slopes(devices[k], gates[k] - x[k], x[k + 1] - x[k], x[k], slope[k])) return null;
-      r[k] = slope[k].id - i;
+      const b = slope[k];
+      if (!current(devices[k], gates[k] - x[k], x[k + 1] - x[k], x[k], b)) return null;
+      r[k] = b.id - i;
       rmax = Math.max(rmax, Math.abs(r[k]));
     }
     if (rmax <= 1e-10 * Math.abs(i) + 1e-24) return finish(devices, gates, v, i, x);
+    // Slopes only when another step is needed: the converged pass costs one lookup per device.
+    for (let k = 0; k < n; k++) slopes(devices[k], slope[k]);
     if (!chainStep(slope, r, dx)) return null;
     // dx[0..n−2] are node steps, dx[n−1] the current step.
     let scale = 1;
@@ -52,25 +53,36 @@ export function newtonOperatingPoint(devices: readonly StackDevice[], gates: rea
 // (stored gm/gds are not its exact derivatives), or Newton only converges linearly.
 const H = 1e-5;
 
-/** Current and its slopes along VGS, VDS and VSB from jd alone, into `out` (gmb as −∂I/∂VSB). */
-function slopes(d: StackDevice, vgs: number, vds: number, vsb: number, out: DeviceBias): boolean {
-  const s = d.slice;
-  if (!covers(s, vgs, vds, vsb)) return false;
-  const f = (a: number, b: number, c: number) => d.w * s.jd(a, b, c);
-  const id = f(vgs, vds, vsb);
-  const step = (x: number, hi: number) => (x + H <= hi ? H : -H);
-  const r = s.range;
-  const hg = step(vgs, r.vgs[1]);
-  const hd = step(vds, r.vds[1]);
-  const hs = step(vsb, r.vsb[1]);
+/** Current at a bias into `out` (with the bias), false outside the table. */
+function current(d: StackDevice, vgs: number, vds: number, vsb: number, out: DeviceBias): boolean {
+  if (!covers(d.slice, vgs, vds, vsb)) return false;
   out.vgs = vgs;
   out.vds = vds;
   out.vsb = vsb;
-  out.id = id;
-  out.gm = (f(vgs + hg, vds, vsb) - id) / hg;
-  out.gds = (f(vgs, vds + hd, vsb) - id) / hd;
-  out.gmb = -(f(vgs, vds, vsb + hs) - id) / hs;
+  out.id = d.w * d.slice.jd(vgs, vds, vsb);
   return true;
+}
+
+/** Slopes of the current along VGS, VDS and VSB from jd alone at the bias in `out` (gmb as −∂I/∂VSB). */
+function slopes(d: StackDevice, out: DeviceBias): void {
+  const s = d.slice;
+  const { vgs, vds, vsb, id } = out;
+  const r = s.range;
+  // Forward steps, backward at the table's upper edge.
+  const hg = vgs + H <= r.vgs[1] ? H : -H;
+  const hd = vds + H <= r.vds[1] ? H : -H;
+  const hs = vsb + H <= r.vsb[1] ? H : -H;
+  out.gm = (d.w * s.jd(vgs + hg, vds, vsb) - id) / hg;
+  out.gds = (d.w * s.jd(vgs, vds + hd, vsb) - id) / hd;
+  out.gmb = -(d.w * s.jd(vgs, vds, vsb + hs) - id) / hs;
+}
+
+// Working arrays per chain length, reused across solves (the solver is not re-entrant).
+const scratch = new Map<number, { slope: DeviceBias[]; r: Float64Array; dx: Float64Array }>();
+function scratchFor(n: number): { slope: DeviceBias[]; r: Float64Array; dx: Float64Array } {
+  let s = scratch.get(n);
+  if (!s) scratch.set(n, (s = { slope: Array.from({ length: n }, emptyBias), r: new Float64Array(n), dx: new Float64Array(n) }));
+  return s;
 }
 
 /** The reported operating point: table small-signal values at the solved bias. */

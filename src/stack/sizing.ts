@@ -17,6 +17,8 @@ export interface StackDesign {
   current: number;
   /** Mid-span stack voltage where the design bias holds, V. */
   vmid: number;
+  /** Narrowest drawable width, m: narrower devices make the design unrealisable. */
+  wmin?: number;
 }
 
 /** Widths, gate voltages (stack coordinates) and design-bias nodes of a stack. */
@@ -33,7 +35,8 @@ export interface SizedStack {
  * bias at v = vmid, VGS follows from gm/ID there, W = I / jd, and the gate is
  * VGS plus the source node. Low-voltage biasing puts the lower drains at the
  * setpoints; the stacked cascode has VDS1 = VGS1 (its bias diode sets x1).
- * Returns null when the table cannot reach a device's gm/ID at its bias.
+ * Returns null when the table cannot reach a device's gm/ID at its bias, or a
+ * device would be narrower than `wmin`.
  */
 export function sizeStackDevices(d: StackDesign): SizedStack | null {
   const n = d.slices.length;
@@ -59,8 +62,10 @@ export function sizeStackDevices(d: StackDesign): SizedStack | null {
     if (g === null) return null;
     const jd = d.slices[k].jd(g, vds, xs);
     if (!(jd > 0)) return null;
+    const width = d.current / jd;
+    if (d.wmin !== undefined && width < d.wmin * (1 - 1e-9)) return null;
     vgs.push(g);
-    w.push(d.current / jd);
+    w.push(width);
     nodes.push(xs + vds);
   }
   if (Math.abs(nodes[n] - d.vmid) > 1e-9) return null;
