@@ -74,7 +74,7 @@ export function sizeSpec(spec: DesignSpec, kit: KitAccess): SizeRun {
   for (const s of spec.stacks) {
     if (s.topology !== 'auto') continue;
     const mine = result.stacks.filter((r) => r.name === s.name);
-    const pick = chooseResult(mine, s.objective);
+    const pick = chooseResult(mine, s);
     for (const r of mine) r.chosen = r === pick;
   }
   return { result, fronts };

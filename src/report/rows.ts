@@ -97,10 +97,9 @@ export function verdict(stack: StackResult): string {
   if (stack.feasible) return `meets all targets${tag}`;
   const parts = [`does not meet the targets${stack.binding ? `: ${stack.binding}` : ''}`];
   const n = stack.nearest;
-  if (n?.headroomAtRout !== undefined) {
-    parts.push(Number.isFinite(n.headroomAtRout)
-      ? `the Rout target needs ${eng(n.headroomAtRout, 'V')} of headroom`
-      : 'no explored design reaches the Rout target at any headroom');
+  // An unreachable Rout target is already said by the binding text.
+  if (n?.headroomAtRout !== undefined && Number.isFinite(n.headroomAtRout)) {
+    parts.push(`the Rout target needs ${eng(n.headroomAtRout, 'V')} of headroom`);
   }
   if (n?.routAtHeadroom !== undefined) parts.push(`at the headroom target Rout reaches ${eng(n.routAtHeadroom, 'Ω')}`);
   return parts.join('; ') + tag;

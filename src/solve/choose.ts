@@ -1,4 +1,4 @@
-import type { Objective } from '../spec/types.js';
+import type { Objective, StackSpec } from '../spec/types.js';
 import type { StackResult } from './types.js';
 
 /** Better by the spec's objective: smaller area, lower headroom or higher Rout (then smaller area). */
@@ -11,11 +11,24 @@ function better(objective: Objective, a: StackResult, b: StackResult): boolean {
 }
 
 /**
- * Of the results one stack got (one per topology tried), the one to use: the
- * best feasible by the objective, else the first (nearest) infeasible one.
+ * How far an infeasible result is from its targets: decades of Rout missing plus
+ * headroom excess relative to the target (a never-met headroom counts as far).
  */
-export function chooseResult(results: readonly StackResult[], objective: Objective): StackResult {
+export function shortfall(r: StackResult, spec: StackSpec): number {
+  const p = r.predicted;
+  const rout = p.rout > 0 ? Math.max(0, Math.log10(spec.rout / p.rout)) : 10;
+  const head = Number.isFinite(p.headroom) ? Math.max(0, (p.headroom - spec.headroom) / spec.headroom) : 10;
+  const sigma = spec.mismatch !== undefined && p.sigma !== undefined ? Math.max(0, p.sigma / spec.mismatch - 1) : 0;
+  return rout + head + sigma;
+}
+
+/**
+ * Of the results one stack got (one per topology tried), the one to use: the
+ * best feasible by the objective, else the nearest infeasible one.
+ */
+export function chooseResult(results: readonly StackResult[], spec: StackSpec): StackResult {
   let best: StackResult | undefined;
-  for (const r of results) if (r.feasible && (!best || better(objective, r, best))) best = r;
-  return best ?? results[0];
+  for (const r of results) if (r.feasible && (!best || better(spec.objective, r, best))) best = r;
+  if (best) return best;
+  return results.reduce((a, b) => (shortfall(b, spec) < shortfall(a, spec) ? b : a));
 }

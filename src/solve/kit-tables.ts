@@ -33,6 +33,7 @@ export function kitAccessFromTables(tables: DeviceTable[]): KitAccess {
     corners,
     lengths: (corner, device) => table(corner, device).axes.l,
     slice: (corner, device, l): LengthSlice => sliceAt(table(corner, device), l),
+    temperature: (corner, device) => table(corner, device).meta.temperature,
     mismatch: (device) => {
       const nominal = tables.find((t) => t.meta.device === device && t.meta.mismatch);
       return nominal?.meta.mismatch as MismatchCoefficients | undefined;

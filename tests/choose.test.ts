@@ -1,0 +1,25 @@
+import { describe, expect, it } from 'vitest';
+import { chooseResult, shortfall } from '../src/solve/choose.js';
+import type { StackResult } from '../src/solve/types.js';
+import type { StackSpec } from '../src/spec/types.js';
+
+const spec: StackSpec = { name: 's', device: 'n', topology: 'auto', current: 1e-5, rout: 1e8, headroom: 0.5, span: 1.6, objective: 'area' };
+const result = (topology: StackResult['topology'], feasible: boolean, rout: number, headroom: number, area: number): StackResult => ({
+  name: 's', device: 'n', topology, feasible, devices: [], bias: [], curve: [], evaluated: 0,
+  predicted: { iout: 1e-5, rout, headroom, area, biasArea: 0 },
+});
+
+describe('chooseResult (auto topology)', () => {
+  it('takes the best feasible by the objective', () => {
+    const r = [result('single', false, 1e6, Infinity, 1e-12), result('cascode', true, 2e8, 0.4, 5e-11), result('triple', true, 1.1e8, 0.45, 2e-11)];
+    expect(chooseResult(r, spec).topology).toBe('triple');
+    expect(chooseResult(r, { ...spec, objective: 'headroom' }).topology).toBe('cascode');
+    expect(chooseResult(r, { ...spec, objective: 'rout' }).topology).toBe('cascode');
+  });
+  it('with none feasible, takes the nearest to the targets, not the first', () => {
+    const r = [result('single', false, 1e6, Infinity, 1e-12), result('cascode', false, 0.9e8, 0.5, 5e-11), result('triple', false, 2e8, 0.7, 2e-11)];
+    // shortfall: cascode log10(1e8/0.9e8) = 0.046; triple (0.7-0.5)/0.5 = 0.4; single 2 + 10
+    expect(shortfall(r[1], spec)).toBeCloseTo(Math.log10(1 / 0.9), 12);
+    expect(chooseResult(r, spec).topology).toBe('cascode');
+  });
+});
