@@ -34,6 +34,7 @@ const sized = run(
   ['size', spec, '--report', join(outDir, 'report.html'), '--front', join(outDir, 'front.csv'), '--netlist', join(outDir, 'stacks.cir'), '--force'],
   [0, 3],
 );
+run('size the amplifier sources at every corner (tt, ff, ss)', ['size', join('demo-tables', 'specs', 'marsh-wren-corners.yaml')], [0, 3]);
 run('port the design from demo180 to demo090', ['port', spec, '--from', 'demo180', '--to', 'demo090'], [0, 3]);
 run('design charts of the demo kit', ['chart', '--kit', 'demo180', '--device', 'n', '--out', join(outDir, 'charts'), '--force']);
 process.stdout.write(
