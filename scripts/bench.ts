@@ -8,7 +8,7 @@ import { existsSync, mkdirSync, renameSync, writeFileSync } from 'node:fs';
 import { cpus } from 'node:os';
 import { join } from 'node:path';
 import { packageRoot } from '../src/locate.js';
-import { benchIngest, benchInterp, benchProbe, benchSize, renderRows, type BenchRow } from './bench/index.js';
+import { benchIngest, benchInterp, benchKitLoad, benchProbe, benchSize, renderRows, type BenchRow } from './bench/index.js';
 import { msSince } from './bench/stats.js';
 
 const log = (s: string) => process.stderr.write(s + '\n');
@@ -42,6 +42,7 @@ function main(): void {
     ...section('b queries', () => benchInterp({ root, log })),
     ...section('c probe', () => benchProbe({ root, log })),
     ...section('d size', () => benchSize({ root, log })),
+    ...section('e kit load', () => benchKitLoad({ root, log })),
   ];
   const totalS = msSince(t0) / 1000;
   const machine = `node ${process.version}, ${cpus().length} × ${cpus()[0]?.model ?? 'cpu'}`;

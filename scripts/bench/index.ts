@@ -14,3 +14,4 @@ export { benchInterp, randomPoints, maxRelativeDifference } from './interp.js';
 export type { InterpBenchOptions } from './interp.js';
 export { benchProbe, PROBE_ARGS } from './probe.js';
 export { benchSize, DEMO_SPEC } from './size.js';
+export { benchKitLoad } from './kitload.js';
