@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { LengthSlice, OperatingPoint } from '../src/device/types.js';
+import { sliceOf, type Model } from './helpers/analytic-slice.js';
 import { StackwrightError } from '../src/errors.js';
 import {
   biasDevices,
@@ -22,28 +23,6 @@ import { bracketedOperatingPoint } from '../src/stack/bracketed.js';
 
 // ---- Analytic test devices (invented parameters, not any real process) ----
 
-type Model = (vgs: number, vds: number, vsb: number) => [number, number, number, number];
-
-function sliceOf(l: number, model: Model, vsbMax = 1.2): LengthSlice {
-  const small = (vgs: number, vds: number, vsb: number, out = new Float64Array(4)) => {
-    const r = model(vgs, vds, vsb);
-    out[0] = r[0]; out[1] = r[1]; out[2] = r[2]; out[3] = r[3];
-    return out;
-  };
-  return {
-    l,
-    jd: (vgs, vds, vsb) => model(vgs, vds, vsb)[0],
-    small,
-    op: (vgs, vds, vsb, w): OperatingPoint => {
-      const [jd, gm, gds, gmb] = model(vgs, vds, vsb);
-      return {
-        l, w, vgs, vds, vsb, id: jd * w, gm: gm * w, gds: gds * w, gmb: gmb * w,
-        cgg: NaN, cgs: NaN, cgd: NaN, cdd: NaN, gmid: gm / jd, jd, gain: gm / gds, ft: NaN,
-      };
-    },
-    range: { vgs: [0, 1.8], vds: [0, 1.8], vsb: [0, vsbMax] },
-  };
-}
 
 /**
  * Shichman–Hodges square law with channel-length modulation and body effect
