@@ -1,5 +1,4 @@
 import { describe, expect, it } from 'vitest';
-import type { LengthSlice, OperatingPoint } from '../src/device/types.js';
 import { sliceOf, type Model } from './helpers/analytic-slice.js';
 import { StackwrightError } from '../src/errors.js';
 import type { DesignSpec, StackSpec } from '../src/spec/types.js';

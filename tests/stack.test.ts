@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import type { LengthSlice, OperatingPoint } from '../src/device/types.js';
+import type { LengthSlice } from '../src/device/types.js';
 import { sliceOf, type Model } from './helpers/analytic-slice.js';
 import { StackwrightError } from '../src/errors.js';
 import {
