@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { sliceOf, type Model } from './helpers/analytic-slice.js';
+import { ekv, sliceOf } from './helpers/analytic-slice.js';
 import { StackwrightError } from '../src/errors.js';
 import type { DesignSpec, StackSpec } from '../src/spec/types.js';
 import { CAUTION, evaluateAtCorner, sizeDesign, sizeStack, type FrontPoint, type KitAccess, type StackResult } from '../src/solve/index.js';
@@ -8,30 +8,6 @@ import { solveOperatingPoint, type StackDevice } from '../src/stack/index.js';
 // ---- Analytic kit (invented parameters, not any real process) ----
 
 
-/**
- * EKV-style smooth model, bulk-referenced (Enz, Krummenacher & Vittoz, 1995; from memory):
- * ID = IS·[F(uf) − F(ur)]·(1+λVDS), F(u) = ln²(1+e^{u/2}), uf = (VP−VS)/UT, ur = (VP−VD)/UT,
- * VP = (VG−VT0)/n, IS = 2nβUT²; hence gmb = (n−1)·gm. Derivatives analytic.
- */
-function ekv(p: { l: number; vt0: number; kp: number; n: number; lambda: number }): Model {
-  const ut = 0.02585;
-  const is = (2 * p.n * p.kp * ut * ut) / p.l;
-  const lg = (u: number) => (u > 60 ? u / 2 : Math.log1p(Math.exp(u / 2)));
-  const sig = (u: number) => 1 / (1 + Math.exp(-u / 2));
-  return (vgs, vds, vsb) => {
-    const vp = (vgs + vsb - p.vt0) / p.n;
-    const uf = (vp - vsb) / ut;
-    const ur = (vp - vsb - vds) / ut;
-    const lf = lg(uf);
-    const lr = lg(ur);
-    const dF = lf * sig(uf); // F'(uf)
-    const dR = lr * sig(ur);
-    const clm = 1 + p.lambda * vds;
-    const core = is * (lf * lf - lr * lr);
-    const gm = (is * (dF - dR) * clm) / (p.n * ut);
-    return [core * clm, gm, (is * dR * clm) / ut + core * p.lambda, (p.n - 1) * gm];
-  };
-}
 
 
 const LENGTHS = [0.18e-6, 0.25e-6, 0.35e-6, 0.5e-6, 0.7e-6, 1e-6, 1.4e-6, 2e-6];

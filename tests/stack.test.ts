@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { LengthSlice } from '../src/device/types.js';
-import { sliceOf, type Model } from './helpers/analytic-slice.js';
+import { ekv, sliceOf, type Model } from './helpers/analytic-slice.js';
 import { StackwrightError } from '../src/errors.js';
 import {
   biasDevices,
@@ -48,30 +48,6 @@ function squareLaw(p: { l: number; vth0: number; kp: number; lambda: number; gam
   };
 }
 
-/**
- * EKV-style smooth model, bulk-referenced (Enz, Krummenacher & Vittoz, 1995; from memory):
- * ID = IS·[F(uf) − F(ur)]·(1+λVDS), F(u) = ln²(1+e^{u/2}), uf = (VP−VS)/UT, ur = (VP−VD)/UT,
- * VP = (VG−VT0)/n, IS = 2nβUT²; hence gmb = (n−1)·gm. Derivatives analytic.
- */
-function ekv(p: { l: number; vt0: number; kp: number; n: number; lambda: number }): Model {
-  const ut = 0.02585;
-  const is = (2 * p.n * p.kp * ut * ut) / p.l;
-  const lg = (u: number) => (u > 60 ? u / 2 : Math.log1p(Math.exp(u / 2)));
-  const sig = (u: number) => 1 / (1 + Math.exp(-u / 2));
-  return (vgs, vds, vsb) => {
-    const vp = (vgs + vsb - p.vt0) / p.n;
-    const uf = (vp - vsb) / ut;
-    const ur = (vp - vsb - vds) / ut;
-    const lf = lg(uf);
-    const lr = lg(ur);
-    const dF = lf * sig(uf); // F'(uf)
-    const dR = lr * sig(ur);
-    const clm = 1 + p.lambda * vds;
-    const core = is * (lf * lf - lr * lr);
-    const gm = (is * (dF - dR) * clm) / (p.n * ut);
-    return [core * clm, gm, (is * dR * clm) / ut + core * p.lambda, (p.n - 1) * gm];
-  };
-}
 
 const ekvSlice = (l: number) => sliceOf(l, ekv({ l, vt0: 0.45, kp: 250e-6, n: 1.35, lambda: 0.08e-6 / l }));
 const slSlice = (l: number, lambda = 0.05) =>
