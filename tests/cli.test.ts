@@ -36,7 +36,7 @@ stacks:
 
 describe('cli conventions', () => {
   it('every command has --help with an example', () => {
-    for (const cmd of ['synth', 'ingest', 'probe', 'chart', 'kits', 'size', 'netlist', 'port']) {
+    for (const cmd of ['synth', 'ingest', 'probe', 'chart', 'kits', 'size', 'netlist', 'port', 'characterise']) {
       const r = cli([cmd, '--help']);
       expect(r.code, cmd).toBe(0);
       expect(r.stdout, cmd).toMatch(/Example:\n  stackwright /);

@@ -15,6 +15,7 @@ const COMMANDS: Record<string, () => Promise<Register>> = {
   size: async () => (await import('./commands/size.js')).registerSize,
   netlist: async () => (await import('./commands/netlist.js')).registerNetlist,
   port: async () => (await import('./commands/port.js')).registerPort,
+  characterise: async () => (await import('./commands/characterise.js')).registerCharacterise,
 };
 
 /** The program with the commands `argv` needs (all of them for top-level help). */

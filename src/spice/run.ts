@@ -76,7 +76,11 @@ const ERROR_LINE = /^\s*(error\b.*|.*\berror:.*|.*unknown (?:model|subckt).*|.*c
 /** First line of ngspice output that reports an error, if any. */
 export function firstError(text: string): string | undefined {
   const m = ERROR_LINE.exec(text);
-  return m ? m[0].trim() : undefined;
+  if (!m) return undefined;
+  // ngspice puts the offending line and the reason on the two lines after "Error on line N ...".
+  const after = text.slice((m.index ?? 0) + m[0].length).split(/\r?\n/).map((l) => l.trim()).filter(Boolean).slice(0, 2);
+  const head = m[0].trim();
+  return /:\s*$/.test(head) && after.length ? `${head} ${after.join(' — ')}` : head;
 }
 
 function lastLine(text: string): string {
