@@ -129,6 +129,16 @@ describe('size from the command line', () => {
     expect(j.caution).toMatch(/Verify them by simulation/);
   });
 
+  it('--brief prints one line per stack', () => {
+    const spec = join(dir, 'brief.yaml');
+    writeFileSync(spec, SPEC);
+    const r = cli(['size', spec, '--brief', '--tables', tables()]);
+    expect(r.code, r.stderr).toBe(0);
+    const rows = r.stdout.split('\n').filter((l) => l.startsWith('sink '));
+    expect(rows).toHaveLength(1);
+    expect(rows[0]).toMatch(/n-type cascode\s+feasible\s+\S+ µm\/\S+ [nµ]m \+ /);
+  });
+
   it('exits 3 on an infeasible stack and names the binding target', () => {
     const spec = join(dir, 'hard.yaml');
     writeFileSync(spec, SPEC.replace('rout: 20meg', 'rout: 1t').replace('topology: cascode', 'topology: single'));

@@ -10,7 +10,7 @@ export { stackCharts } from './stack-charts.js';
 export type { StackChartSet } from './stack-charts.js';
 export { renderTable, displayWidth, stripAnsi } from './text.js';
 export type { Align, TableOptions } from './text.js';
-export { renderSizeText } from './size-text.js';
+export { renderSizeText, renderSizeBrief } from './size-text.js';
 export type { SizeTextOptions } from './size-text.js';
 export { htmlReport, htmlTable } from './html.js';
 export { formatArea, formatMicrons, formatPercent } from './format.js';

@@ -43,3 +43,22 @@ export function renderSizeText(result: SizeResult, opts: SizeTextOptions): strin
   }
   return out.join('\n') + '\n';
 }
+
+/** One line per stack (its chosen design): for a quick look at many stacks. */
+export function renderSizeBrief(result: SizeResult, opts: SizeTextOptions): string {
+  const rows = result.stacks.filter((s) => s.chosen !== false).map((s) => [
+    s.name, `${s.device}-type ${s.topology}`, s.feasible ? 'feasible' : 'INFEASIBLE',
+    s.devices.map((d) => `${formatEng(d.w, 'm')}/${formatEng(d.l, 'm')}`).join(' + '),
+    formatEng(s.predicted.iout, 'A'), formatEng(s.predicted.rout, 'Ω'),
+    Number.isFinite(s.predicted.headroom) ? formatEng(s.predicted.headroom, 'V') : 'never',
+    formatArea(s.predicted.area), s.predicted.sigma === undefined ? '—' : `${Number((s.predicted.sigma * 100).toPrecision(3))} %`,
+    s.feasible ? '' : s.binding ?? '',
+  ]);
+  return [
+    `kit ${result.kit}, corners ${result.corners.join(', ')}, supply ${result.supply} V`,
+    ansi.yellow(`CAUTION: ${result.caution}`, opts.color),
+    renderTable(['stack', 'topology', 'status', 'W/L (bottom first)', 'Iout', 'Rout', 'headroom', 'area', 'σ(Iout)/Iout', 'binding'], rows, {
+      color: opts.color, align: ['left', 'left', 'left', 'left', 'right', 'right', 'right', 'right', 'right', 'left'],
+    }),
+  ].join('\n') + '\n';
+}

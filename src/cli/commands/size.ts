@@ -3,7 +3,7 @@ import type { Command } from 'commander';
 import { loadKit, sizeSpec, decidingResults, type SizeRun } from '../../api.js';
 import { parseSpec } from '../../spec/index.js';
 import type { DesignSpec } from '../../spec/types.js';
-import { renderSizeText, stackCharts, htmlReport, type FrontPoint as ReportFront, type DesignCurves } from '../../report/index.js';
+import { renderSizeText, renderSizeBrief, stackCharts, htmlReport, type FrontPoint as ReportFront, type DesignCurves } from '../../report/index.js';
 import { designCurves, defaultVds } from '../../device/index.js';
 import { designNetlist } from '../../spice/index.js';
 import { writeFilesAtomic } from '../../fsutil.js';
@@ -16,6 +16,7 @@ import { note, out, packageVersion, readText, toJson, useColor } from '../io.js'
 interface SizeFlags {
   tables?: string;
   json?: boolean;
+  brief?: boolean;
   front?: string;
   netlist?: string;
   report?: string;
@@ -74,6 +75,7 @@ export function registerSize(program: Command): void {
     .argument('<spec>', 'design spec (YAML or JSON)')
     .option('--tables <dir>', 'tables folder')
     .option('--json', 'print the result as JSON')
+    .option('--brief', 'one line per stack instead of the full account')
     .option('--front <file.csv>', 'write the Pareto front (headroom, Rout, area) as CSV, and an SVG chart per stack beside it')
     .option('--netlist <file.cir>', 'write a SPICE3 netlist of the sized stacks with their bias')
     .option('--report <file.html>', 'write a self-contained HTML report')
@@ -106,7 +108,7 @@ export function registerSize(program: Command): void {
       writeFilesAtomic(files, { force: f.force });
 
       if (f.json) out(toJson({ ...run.result, fronts: run.fronts }));
-      else out(renderSizeText(run.result, { color: useColor() }));
+      else out((f.brief ? renderSizeBrief : renderSizeText)(run.result, { color: useColor() }));
       for (const [path] of files) note(`wrote ${path}`);
       const failed = decidingResults(run.result).filter((s) => !s.feasible);
       if (failed.length > 0) {
