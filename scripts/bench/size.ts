@@ -1,9 +1,9 @@
 /** (d) Sizing the demo spec end to end, in process and through the CLI. */
 import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { parseSpec, resolveCorners } from '../../src/spec/index.js';
+import { parseSpec } from '../../src/spec/index.js';
 import { sizeDesign } from '../../src/solve/index.js';
-import { loadKitAccess } from '../../src/solve/kit-tables.js';
+import { loadKit } from '../../src/api.js';
 import { clearTableCache } from '../../src/table/index.js';
 import { verdict, type BenchRow } from './result.js';
 import { timeSpawn } from './spawn-time.js';
@@ -22,9 +22,9 @@ export function benchSize(opts: { root: string; runs?: number; log?: (s: string)
     clearTableCache();
     const t0 = process.hrtime.bigint();
     const spec = parseSpec(readFileSync(specPath, 'utf8'), DEMO_SPEC);
-    const kit = loadKitAccess(join(opts.root, 'tables'), spec.kit);
-    corners = resolveCorners(spec, kit.corners);
-    const result = sizeDesign({ ...spec, corners }, kit);
+    const kit = loadKit(spec.kit, { tables: join(opts.root, 'tables') });
+    const result = sizeDesign(spec, kit); // resolves the spec's corners against the kit
+    corners = result.corners;
     times.push(msSince(t0));
     evaluated = result.stacks.reduce((s, st) => s + st.evaluated, 0);
   }

@@ -1,7 +1,6 @@
 import { StackwrightError } from '../errors.js';
 import { sliceAt } from '../device/slice.js';
 import type { LengthSlice } from '../device/types.js';
-import { listTables, loadTable } from '../table/store.js';
 import type { DeviceTable, MismatchCoefficients, Polarity } from '../table/types.js';
 import type { KitAccess } from './kit.js';
 
@@ -39,15 +38,4 @@ export function kitAccessFromTables(tables: DeviceTable[]): KitAccess {
       return nominal?.meta.mismatch as MismatchCoefficients | undefined;
     },
   };
-}
-
-/** Load every table of `kit` from a tables folder and adapt it. */
-export function loadKitAccess(dir: string, kit: string): KitAccess {
-  const names = listTables(dir, kit);
-  if (names.length === 0) throw new StackwrightError(`kit ${kit} has no tables in ${dir}`);
-  const tables = names.map((name) => {
-    const device = name.slice(0, 1) as Polarity;
-    return loadTable(dir, kit, device, name.slice(2));
-  });
-  return kitAccessFromTables(tables);
 }
