@@ -14,7 +14,9 @@ import type { DeviceTable, Polarity } from './table/types.js';
 import { kitAccessFromTables } from './solve/kit-tables.js';
 import type { KitAccess } from './solve/kit.js';
 import { sizeDesign, sizeStack as sizeOneStack } from './solve/size.js';
-import { chooseResult } from './solve/choose.js';
+import { chooseResult, decidingResults } from './solve/choose.js';
+
+export { decidingResults };
 import type { FrontPoint } from './solve/pareto.js';
 import type { CornerResult, SizeResult, StackResult } from './solve/types.js';
 import { compareResults, harderTargets, type Change } from './solve/compare.js';
@@ -80,10 +82,6 @@ export function sizeSpec(spec: DesignSpec, kit: KitAccess): SizeRun {
   return { result, fronts };
 }
 
-/** Results that decide feasibility: every stack's chosen (or only) result. */
-export function decidingResults(result: SizeResult): StackResult[] {
-  return result.stacks.filter((s) => s.chosen !== false);
-}
 
 export interface PortStack {
   name: string;

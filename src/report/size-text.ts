@@ -1,4 +1,5 @@
 import type { SizeResult } from '../solve/types.js';
+import { decidingResults } from '../solve/choose.js';
 import { formatArea, polarityName } from './format.js';
 import { formatEng } from '../units/index.js';
 import { biasGrid, columnAlign, cornerGrid, deviceGrid, predictedGrid, squareLawGrid, verdict, type Grid } from './rows.js';
@@ -46,7 +47,7 @@ export function renderSizeText(result: SizeResult, opts: SizeTextOptions): strin
 
 /** One line per stack (its chosen design): for a quick look at many stacks. */
 export function renderSizeBrief(result: SizeResult, opts: SizeTextOptions): string {
-  const rows = result.stacks.filter((s) => s.chosen !== false).map((s) => [
+  const rows = decidingResults(result).map((s) => [
     s.name, `${s.device}-type ${s.topology}`, s.feasible ? 'feasible' : 'INFEASIBLE',
     s.devices.map((d) => `${formatEng(d.w, 'm')}/${formatEng(d.l, 'm')}`).join(' + '),
     formatEng(s.predicted.iout, 'A'), formatEng(s.predicted.rout, 'Ω'),

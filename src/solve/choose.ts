@@ -1,5 +1,5 @@
 import type { Objective, StackSpec } from '../spec/types.js';
-import type { StackResult } from './types.js';
+import type { SizeResult, StackResult } from './types.js';
 
 /** Better by the spec's objective: smaller area, lower headroom or higher Rout (then smaller area). */
 function better(objective: Objective, a: StackResult, b: StackResult): boolean {
@@ -31,4 +31,9 @@ export function chooseResult(results: readonly StackResult[], spec: StackSpec): 
   for (const r of results) if (r.feasible && (!best || better(spec.objective, r, best))) best = r;
   if (best) return best;
   return results.reduce((a, b) => (shortfall(b, spec) < shortfall(a, spec) ? b : a));
+}
+
+/** Results that decide feasibility: every stack's chosen (or only) result. */
+export function decidingResults(result: SizeResult): StackResult[] {
+  return result.stacks.filter((s) => s.chosen !== false);
 }

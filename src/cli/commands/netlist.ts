@@ -1,6 +1,7 @@
 import type { Command } from 'commander';
 import { StackwrightError } from '../../errors.js';
 import { designNetlist } from '../../spice/index.js';
+import { decidingResults } from '../../solve/choose.js';
 import type { SizeResult } from '../../solve/types.js';
 import { writeFilesAtomic } from '../../fsutil.js';
 import { note, out, readText } from '../io.js';
@@ -56,7 +57,7 @@ export function registerNetlist(program: Command): void {
       if (f.bias !== 'ideal' && f.bias !== 'diodes') throw new StackwrightError(`expected ideal or diodes, got "${f.bias}"`, { where: '--bias' });
       const result = readSizeResult(path);
       // With topology 'auto' only the chosen design of each stack goes in.
-      const chosen = { ...result, stacks: result.stacks.filter((s) => s.chosen !== false) };
+      const chosen = { ...result, stacks: decidingResults(result) };
       const text = designNetlist(chosen, { supply: result.supply, models: { n: f.modelN, p: f.modelP }, include: f.include, bias: f.bias });
       if (f.out) {
         writeFilesAtomic([[f.out, text]], { force: f.force });

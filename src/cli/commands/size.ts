@@ -93,7 +93,7 @@ export function registerSize(program: Command): void {
         files.push([f.front, frontCsv(run.fronts)]);
         const stem = f.front.slice(0, f.front.length - extname(f.front).length);
         for (const s of spec.stacks) {
-          const result = run.result.stacks.find((r) => r.name === s.name && r.chosen !== false);
+          const result = decidingResults(run.result).find((r) => r.name === s.name);
           const points = run.fronts[s.name] ?? [];
           if (!result || points.length === 0) continue;
           const charts = stackCharts(result, s, reportFront(points));
