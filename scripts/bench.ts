@@ -3,11 +3,11 @@
  * repeated runs (the machines are shared and noisy). MISS is reported, not an
  * exit failure. Results also go to test-output/bench.json.
  */
-import { spawnSync } from 'node:child_process';
-import { existsSync, mkdirSync, renameSync, writeFileSync } from 'node:fs';
+import { mkdirSync, renameSync, writeFileSync } from 'node:fs';
 import { cpus } from 'node:os';
 import { join } from 'node:path';
 import { packageRoot } from '../src/locate.js';
+import { buildDemoTables } from './build-demo-tables.js';
 import { benchIngest, benchInterp, benchKitLoad, benchProbe, benchSize, renderRows, type BenchRow } from './bench/index.js';
 import { msSince } from './bench/stats.js';
 
@@ -25,17 +25,9 @@ function section(name: string, run: () => BenchRow[]): BenchRow[] {
   }
 }
 
-function ensureDemoTables(root: string): void {
-  if (existsSync(join(root, 'tables', 'demo180', 'n-tt.swtab'))) return;
-  log('bench: building the demo tables first');
-  const compiled = join(root, 'dist', 'scripts', 'build-demo-tables.js');
-  const args = existsSync(compiled) ? [compiled] : ['--import', 'tsx', join(root, 'scripts', 'build-demo-tables.ts')];
-  spawnSync(process.execPath, args, { cwd: root, stdio: 'inherit' });
-}
-
 function main(): void {
   const root = packageRoot();
-  ensureDemoTables(root);
+  buildDemoTables(root, join(root, 'tables'), log);
   const t0 = process.hrtime.bigint();
   const rows = [
     ...section('a ingest', () => benchIngest({ root, log })),
