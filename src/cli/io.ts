@@ -1,6 +1,9 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { StackwrightError } from '../errors.js';
+import { packageRoot } from '../locate.js';
+
+export { packageRoot, tablesDirFor } from '../locate.js';
 
 /** Colour only on a TTY and never with NO_COLOR (https://no-color.org). */
 export function useColor(stream: NodeJS.WriteStream = process.stdout): boolean {
@@ -21,9 +24,6 @@ export function note(text: string): void {
 export function toJson(value: unknown): string {
   return JSON.stringify(value, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v), 2);
 }
-
-export { packageRoot, tablesDirFor } from '../locate.js';
-import { packageRoot } from '../locate.js';
 
 export function readText(path: string, what = 'file'): string {
   try {
