@@ -21,7 +21,7 @@ import type { FrontPoint } from './solve/pareto.js';
 import type { CornerResult, SizeResult, StackResult } from './solve/types.js';
 import { compareResults, harderTargets, type Change } from './solve/compare.js';
 import { evaluateAtCorner } from './solve/corners.js';
-import type { DesignSpec, StackSpec } from './spec/types.js';
+import type { DesignSpec, StackSpec } from './design/types.js';
 import { tablesDirFor } from './locate.js';
 
 /** A kit's tables, loaded, with what the search needs. */

@@ -11,8 +11,8 @@ export { ingestFiles, ingestTexts, parseSweep, QUANTITIES } from './ingest/index
 export type { IngestOptions, Quantity } from './ingest/index.js';
 export { writeTable, readTable, loadTable, listKits, kitInventory, tablePath, RegularGridInterpolator } from './table/index.js';
 export type { DeviceTable, TableMeta, Polarity, MismatchCoefficients, KitSummary, TableSummary } from './table/index.js';
-export { parseSpec, resolveCorners, TOPOLOGIES } from './spec/index.js';
-export type { DesignSpec, StackSpec, Topology, Objective } from './spec/index.js';
+export { parseSpec, resolveCorners, TOPOLOGIES } from './design/index.js';
+export type { DesignSpec, StackSpec, Topology, Objective } from './design/index.js';
 export { sizeDesign, evaluateAtCorner, paretoFront, pelgromSigma, CAUTION } from './solve/index.js';
 export { kitAccessFromTables } from './solve/kit-tables.js';
 export type { KitAccess, SizeResult, StackResult, DeviceResult, BiasResult, CurvePoint, Predicted, CornerResult, FrontPoint } from './solve/index.js';

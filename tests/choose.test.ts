@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { chooseResult, shortfall } from '../src/solve/choose.js';
 import type { StackResult } from '../src/solve/types.js';
-import type { StackSpec } from '../src/spec/types.js';
+import type { StackSpec } from '../src/design/types.js';
 
 const spec: StackSpec = { name: 's', device: 'n', topology: 'auto', current: 1e-5, rout: 1e8, headroom: 0.5, span: 1.6, objective: 'area' };
 const result = (topology: StackResult['topology'], feasible: boolean, rout: number, headroom: number, area: number): StackResult => ({

@@ -7,7 +7,7 @@
  */
 import { beforeAll, describe, expect, it } from 'vitest';
 import type { DeviceTable } from '../src/table/types.js';
-import type { DesignSpec, StackSpec } from '../src/spec/types.js';
+import type { DesignSpec, StackSpec } from '../src/design/types.js';
 import type { SizeResult, StackResult } from '../src/solve/types.js';
 import { ingestTexts } from '../src/ingest/index.js';
 import { sliceAt } from '../src/device/index.js';

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { ekv, sliceOf } from './helpers/analytic-slice.js';
 import { StackwrightError } from '../src/errors.js';
-import type { DesignSpec, StackSpec } from '../src/spec/types.js';
+import type { DesignSpec, StackSpec } from '../src/design/types.js';
 import { CAUTION, evaluateAtCorner, sizeDesign, sizeStack, type FrontPoint, type KitAccess, type StackResult } from '../src/solve/index.js';
 import { solveOperatingPoint, type StackDevice } from '../src/stack/index.js';
 

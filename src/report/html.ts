@@ -1,4 +1,4 @@
-import type { StackSpec } from '../spec/types.js';
+import type { StackSpec } from '../design/types.js';
 import type { StackResult } from '../solve/types.js';
 import { designCharts } from './design-charts.js';
 import { eng, formatArea, formatMicrons, formatPercent, polarityName } from './format.js';

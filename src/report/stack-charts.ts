@@ -1,4 +1,4 @@
-import type { StackSpec } from '../spec/types.js';
+import type { StackSpec } from '../design/types.js';
 import type { StackResult } from '../solve/types.js';
 import { lineChart, targetLabel, type ScatterSeries, type TargetLine } from './chart.js';
 import { formatArea, polarityName } from './format.js';

@@ -1,7 +1,7 @@
-import type { DesignSpec } from '../spec/types.js';
+import type { DesignSpec } from '../design/types.js';
 import type { Polarity } from '../table/types.js';
 import type { SizeResult } from '../solve/types.js';
-import type { Topology } from '../spec/types.js';
+import type { Topology } from '../design/types.js';
 
 /** One point of a design curve at fixed L, VDS, VSB (SI; ft NaN/absent without capacitances). */
 export interface DesignPoint {

@@ -1,4 +1,4 @@
-import type { Topology } from '../spec/types.js';
+import type { Topology } from '../design/types.js';
 
 /** One point in the design space: L and gm/ID per device, plus the VDS setpoints. */
 export interface Candidate {

@@ -1,4 +1,4 @@
-import type { StackSpec } from '../spec/types.js';
+import type { StackSpec } from '../design/types.js';
 import { formatEng } from '../units/index.js';
 import type { StackEval } from './stackeval.js';
 

@@ -1,4 +1,4 @@
-import type { Objective, StackSpec } from '../spec/types.js';
+import type { Objective, StackSpec } from '../design/types.js';
 import type { SizeResult, StackResult } from './types.js';
 
 /** Better by the spec's objective: smaller area, lower headroom or higher Rout (then smaller area). */

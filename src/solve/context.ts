@@ -1,6 +1,6 @@
 import { StackwrightError } from '../errors.js';
 import type { LengthSlice } from '../device/types.js';
-import type { StackSpec } from '../spec/types.js';
+import type { StackSpec } from '../design/types.js';
 import type { MismatchCoefficients } from '../table/types.js';
 import { cornerUt } from './temperature.js';
 import type { KitAccess } from './kit.js';

@@ -1,5 +1,5 @@
 import { StackwrightError } from '../errors.js';
-import type { StackSpec } from '../spec/types.js';
+import type { StackSpec } from '../design/types.js';
 import { biasGates, type StackDevice } from '../stack/index.js';
 import { cornerUt } from './temperature.js';
 import type { CornerResult, StackResult } from './types.js';

@@ -1,4 +1,4 @@
-import type { Topology } from '../spec/types.js';
+import type { Topology } from '../design/types.js';
 
 /** One exactly evaluated design on the trade-off front. */
 export interface FrontPoint {

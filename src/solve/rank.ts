@@ -1,4 +1,4 @@
-import type { Objective } from '../spec/types.js';
+import type { Objective } from '../design/types.js';
 import type { SolveContext } from './context.js';
 import { fullyOk, nominalOk, totalViolation, type Evaluated } from './evaluate.js';
 

@@ -3,7 +3,7 @@ import { rolesOf, squareLawCheck } from '../stack/index.js';
 import { formatEng } from '../units/index.js';
 import type { BiasResult, CornerResult, CurvePoint, DeviceResult, Predicted, SquareLawCheck, StackResult } from './types.js';
 import type { SolveContext } from './context.js';
-import type { StackSpec } from '../spec/types.js';
+import type { StackSpec } from '../design/types.js';
 import { CURRENT_WINDOW, describe, meetsAll, tightest, type Margins } from './checks.js';
 import { ensureCorners, nominalOk, type Evaluated } from './evaluate.js';
 import type { StackEval } from './stackeval.js';

@@ -1,4 +1,4 @@
-import type { Topology } from '../spec/types.js';
+import type { Topology } from '../design/types.js';
 import type { Candidate } from './candidate.js';
 import { candidateKey } from './candidate.js';
 import type { SolveContext } from './context.js';

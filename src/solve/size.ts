@@ -1,6 +1,6 @@
 import { StackwrightError } from '../errors.js';
-import { resolveCorners } from '../spec/index.js';
-import { TOPOLOGIES, type DesignSpec, type StackSpec, type Topology } from '../spec/types.js';
+import { resolveCorners } from '../design/index.js';
+import { TOPOLOGIES, type DesignSpec, type StackSpec, type Topology } from '../design/types.js';
 import { CAUTION, type SizeResult, type StackResult } from './types.js';
 import type { KitAccess } from './kit.js';
 import { makeContext, type SolveContext } from './context.js';

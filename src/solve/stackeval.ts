@@ -1,5 +1,5 @@
 import { StackwrightError } from '../errors.js';
-import type { StackSpec } from '../spec/types.js';
+import type { StackSpec } from '../design/types.js';
 import {
   findHeadroom,
   holds,

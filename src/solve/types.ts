@@ -1,5 +1,5 @@
 import type { Polarity } from '../table/types.js';
-import type { Topology } from '../spec/types.js';
+import type { Topology } from '../design/types.js';
 
 export type Role = 'bottom' | 'middle' | 'top';
 

@@ -1,7 +1,7 @@
 import { StackwrightError } from '../errors.js';
 import { formatEng, formatSpice } from '../units/index.js';
 import { CAUTION, type Role, type SizeResult, type StackResult } from '../solve/types.js';
-import type { StackSpec } from '../spec/types.js';
+import type { StackSpec } from '../design/types.js';
 import { includeLines } from './include.js';
 
 export interface NetlistOptions {

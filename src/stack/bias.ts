@@ -1,5 +1,5 @@
 import type { LengthSlice } from '../device/types.js';
-import type { Topology } from '../spec/types.js';
+import type { Topology } from '../design/types.js';
 import type { Role } from '../solve/types.js';
 import { rolesOf } from './topology.js';
 import { vgsForCurrent } from './invert.js';

@@ -1,6 +1,6 @@
 import { StackwrightError } from '../errors.js';
 import type { LengthSlice } from '../device/types.js';
-import type { Topology } from '../spec/types.js';
+import type { Topology } from '../design/types.js';
 import { setpointCount } from './topology.js';
 import { vgsForGmid } from './invert.js';
 

@@ -1,5 +1,5 @@
 import type { LengthSlice } from '../device/types.js';
-import type { Topology } from '../spec/types.js';
+import type { Topology } from '../design/types.js';
 import type { SquareLawCheck } from '../solve/types.js';
 import type { DeviceBias } from './types.js';
 import { vgsWindow } from './invert.js';

@@ -1,4 +1,4 @@
-import type { Topology } from '../spec/types.js';
+import type { Topology } from '../design/types.js';
 import type { Role } from '../solve/types.js';
 
 /** Roles of the output devices, from the rail outwards. */

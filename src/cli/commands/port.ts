@@ -1,6 +1,6 @@
 import type { Command } from 'commander';
 import { loadKit, portSpec } from '../../api.js';
-import { parseSpec } from '../../spec/index.js';
+import { parseSpec } from '../../design/index.js';
 import { renderPortText } from '../../report/index.js';
 import { EXIT } from '../../errors.js';
 import { engFlag } from '../options.js';

@@ -1,8 +1,8 @@
 import { basename, extname } from 'node:path';
 import type { Command } from 'commander';
 import { loadKit, sizeSpec, decidingResults, type SizeRun } from '../../api.js';
-import { parseSpec } from '../../spec/index.js';
-import type { DesignSpec } from '../../spec/types.js';
+import { parseSpec } from '../../design/index.js';
+import type { DesignSpec } from '../../design/types.js';
 import { renderSizeText, renderSizeBrief, stackCharts, htmlReport, type FrontPoint as ReportFront, type DesignCurves } from '../../report/index.js';
 import { designCurves, defaultVds } from '../../device/index.js';
 import { designNetlist } from '../../spice/index.js';

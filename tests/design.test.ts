@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { parseSpec, resolveCorners } from '../src/spec/index.js';
+import { parseSpec, resolveCorners } from '../src/design/index.js';
 
 const good = `kit: demo180
 corner: [tt, ss]
