@@ -11,7 +11,9 @@ export { ingestFiles, ingestTexts, parseSweep, QUANTITIES } from './ingest/index
 export type { IngestOptions, Quantity } from './ingest/index.js';
 export { writeTable, readTable, loadTable, listKits, kitInventory, tablePath, RegularGridInterpolator } from './table/index.js';
 export type { DeviceTable, TableMeta, Polarity, MismatchCoefficients, KitSummary, TableSummary } from './table/index.js';
-export { parseSpec, resolveCorners, TOPOLOGIES } from './design/index.js';
+export { parseSpec, resolveCorners } from './design/index.js';
+export { TOPOLOGIES, registerTopology, topologyOf, topologyNames } from './topology/index.js';
+export type { TopologyDescriptor, ScreenTools, StageOption, StageBias, Candidate } from './topology/index.js';
 export type { DesignSpec, StackSpec, Topology, Objective } from './design/index.js';
 export { sizeDesign, evaluateAtCorner, paretoFront, pelgromSigma, CAUTION } from './solve/index.js';
 export { kitAccessFromTables } from './solve/kit-tables.js';

@@ -2,7 +2,8 @@ import { LineCounter, isMap, isSeq, parseDocument, type Node as YamlNode } from 
 import { StackwrightError } from '../errors.js';
 import { parseEng } from '../units/index.js';
 import type { Polarity } from '../table/types.js';
-import { TOPOLOGIES, type DesignSpec, type Objective, type StackSpec, type Topology } from './types.js';
+import { topologyNames } from '../topology/index.js';
+import type { DesignSpec, Objective, StackSpec, Topology } from './types.js';
 
 const TOP_KEYS = ['kit', 'corner', 'supply', 'stacks'];
 const STACK_KEYS = ['name', 'device', 'topology', 'current', 'rout', 'headroom', 'span', 'l', 'gmid', 'objective', 'mismatch', 'bias'];
@@ -82,8 +83,8 @@ function parseStack(s: Record<string, unknown>, path: Path, supply: number, fail
   const device = requireString(s, 'device', path, fail) as Polarity;
   if (device !== 'n' && device !== 'p') fail([...path, 'device'], `expected n (sink to ground) or p (source from supply), got "${device}"`);
   const topology = (s.topology === undefined ? 'auto' : String(s.topology)) as Topology | 'auto';
-  if (topology !== 'auto' && !TOPOLOGIES.includes(topology as Topology)) {
-    fail([...path, 'topology'], `expected one of ${[...TOPOLOGIES, 'auto'].join(', ')}, got "${topology}"`);
+  if (topology !== 'auto' && !topologyNames().includes(topology)) {
+    fail([...path, 'topology'], `expected one of ${[...topologyNames(), 'auto'].join(', ')}, got "${topology}"`);
   }
   const current = requireNumber(s, 'current', path, fail, { positive: true });
   const rout = requireNumber(s, 'rout', path, fail, { positive: true });

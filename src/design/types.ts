@@ -1,7 +1,8 @@
 import type { Polarity } from '../table/types.js';
 
-export type Topology = 'single' | 'cascode' | 'cascode-stacked' | 'triple';
-export const TOPOLOGIES: readonly Topology[] = ['single', 'cascode', 'cascode-stacked', 'triple'];
+import type { Topology } from '../topology/types.js';
+
+export type { Topology };
 export type Objective = 'area' | 'headroom' | 'rout';
 
 /** One current source/sink to size, after validation; all SI. */

@@ -1,12 +1,6 @@
-import type { Topology } from '../design/types.js';
+import type { Candidate } from '../topology/types.js';
 
-/** One point in the design space: L and gm/ID per device, plus the VDS setpoints. */
-export interface Candidate {
-  topology: Topology;
-  l: number[];
-  gmid: number[];
-  setpoints: number[];
-}
+export type { Candidate };
 
 /** Identity of a candidate for de-duplication (sub-nm, 1e-4 /V and 0.1 mV resolution). */
 export function candidateKey(c: Candidate): string {

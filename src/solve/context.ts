@@ -5,6 +5,7 @@ import type { MismatchCoefficients } from '../table/types.js';
 import { cornerUt } from './temperature.js';
 import type { KitAccess } from './kit.js';
 import { gmidGrid, lengthGrid } from './grid.js';
+import type { SweepCache } from './options.js';
 
 /** Everything one stack's search shares: spec, kit, grids, slice cache and counters. */
 export interface SolveContext {
@@ -34,6 +35,8 @@ export interface SolveContext {
    */
   saturation: 'require' | 'report';
   count: Counts;
+  /** VGS sweeps by length, VDS mode and VSB on the nominal corner, shared by this stack's topologies. */
+  sweeps: SweepCache;
 }
 
 /** Work done and candidates turned away, for the report. */
@@ -90,5 +93,6 @@ export function makeContext(spec: StackSpec, kit: KitAccess, supply: number, cor
     wmin: kit.lengths(nominal, spec.device)[0],
     saturation: 'require',
     count: { screened: 0, exact: 0, triode: 0, narrow: 0 },
+    sweeps: new Map(),
   };
 }

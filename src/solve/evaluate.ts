@@ -1,6 +1,7 @@
 import { StackwrightError } from '../errors.js';
 import type { LengthSlice } from '../device/types.js';
 import { biasDevices, biasGates, sampleAt, sizeStackDevices, type BiasDevice, type SizedStack, type StackDevice, type StackOp } from '../stack/index.js';
+import { topologyOf } from '../topology/index.js';
 import type { Candidate } from './candidate.js';
 import type { SolveContext } from './context.js';
 import { CURRENT_WINDOW, marginsOf, meetsAll, saturationMargin, violation, type Margins } from './checks.js';
@@ -60,9 +61,10 @@ export function sigmaOf(ctx: SolveContext, ev: StackEval): number | undefined {
 export function evaluateCandidate(ctx: SolveContext, cand: Candidate): Evaluated | null {
   ctx.count.exact++;
   return rangeSafe(() => {
+    const shape = topologyOf(cand.topology);
     const slices = cand.l.map((l) => ctx.slice(ctx.nominal, l));
     const sized = sizeStackDevices({
-      topology: cand.topology, slices, gmid: cand.gmid, setpoints: cand.setpoints, current: ctx.spec.current, vmid: ctx.vmid,
+      shape, slices, gmid: cand.gmid, setpoints: cand.setpoints, current: ctx.spec.current, vmid: ctx.vmid,
     });
     if (!sized) return null;
     if (sized.w.some((w) => w < ctx.wmin * (1 - 1e-9))) return reject(ctx, 'narrow');
@@ -70,7 +72,7 @@ export function evaluateCandidate(ctx: SolveContext, cand: Candidate): Evaluated
     const m = midPoint(devices, sized.gates, ctx.vmid, { i: ctx.spec.current, nodes: sized.nodes }, ctx.ut(ctx.nominal));
     if (!m) return null;
     if (ctx.saturation === 'require' && saturationMargin(m) < 0) return reject(ctx, 'triode');
-    const bias = biasDevices(cand.topology, slices, sized.gates, ctx.ib, {
+    const bias = biasDevices(shape, slices, sized.gates, ctx.ib, {
       wmin: ctx.wmin, lengths: ctx.lengths, slice: (l) => ctx.slice(ctx.nominal, l),
     });
     if (!bias) return reject(ctx, 'narrow');

@@ -5,41 +5,14 @@ import type { SolveContext } from './context.js';
 import { pelgromSigma } from './mismatch.js';
 import { atGmid, sweepVgs, type Sweep } from './sweep.js';
 
-/** One device choice in the screen, with its saturation small-signal estimates. */
-export interface StageOption {
-  l: number;
-  gmid: number;
-  w: number;
-  area: number;
-  /** VGS at the design bias, V. */
-  vgs: number;
-  ro: number;
-  /** gm + gmb, S. */
-  gmt: number;
-  /** Saturation VDS estimate 2/(gm/ID), floored at 100 mV (≈ 4·UT, common practice), for the top device's headroom. */
-  vdsat: number;
-  /** EKV saturation voltage from gm/ID and the table's slope factor (as the exact check uses), V. */
-  sat: number;
-  sigma: number;
-}
-
-/** Where a device sits: its VDS (or diode), VSB, and what the screen asks of it. */
-export interface StageBias {
-  mode: VdsMode;
-  vsb: number;
-  /** Take small-signal values at this VDS (same VGS) instead of at the design bias. */
-  smallAt?: number;
-  gmids?: readonly number[];
-  /** A device below the top one: it must be saturated at its design bias. */
-  lower?: boolean;
-}
+import type { StageBias, StageOption } from '../topology/types.js';
 
 export type SweepCache = Map<string, Sweep | null>;
 
-function sweepOf(ctx: SolveContext, cache: SweepCache, l: number, mode: VdsMode, vsb: number): Sweep | null {
+function sweepOf(ctx: SolveContext, l: number, mode: VdsMode, vsb: number): Sweep | null {
   const key = `${l}|${mode}|${vsb.toFixed(4)}`;
-  if (!cache.has(key)) cache.set(key, sweepVgs(ctx.slice(ctx.nominal, l), mode, vsb));
-  return cache.get(key)!;
+  if (!ctx.sweeps.has(key)) ctx.sweeps.set(key, sweepVgs(ctx.slice(ctx.nominal, l), mode, vsb));
+  return ctx.sweeps.get(key)!;
 }
 
 const buf = new Float64Array(4);
@@ -58,7 +31,7 @@ function smallThere(slice: LengthSlice, vgs: number, vds: number, vsb: number): 
  * Options narrower than the minimum width, and lower devices below their
  * VDSsat, are left out (the exact evaluation would reject them).
  */
-export function stageOptions(ctx: SolveContext, cache: SweepCache, at: StageBias): StageOption[] {
+export function stageOptions(ctx: SolveContext, at: StageBias): StageOption[] {
   const { mode, vsb, smallAt } = at;
   const gmids = at.gmids ?? ctx.gmids;
   const out: StageOption[] = [];
@@ -68,7 +41,7 @@ export function stageOptions(ctx: SolveContext, cache: SweepCache, at: StageBias
   // VDSsat ≥ 4·UT at any inversion level: no lower device fits below that.
   if (lower && typeof mode === 'number' && mode < 4 * ut) return out;
   for (const l of ctx.lengths) {
-    const nom = sweepOf(ctx, cache, l, mode, vsb);
+    const nom = sweepOf(ctx, l, mode, vsb);
     if (!nom) continue;
     const slice = ctx.slice(ctx.nominal, l);
     for (const gmid of gmids) {

@@ -1,3 +1,4 @@
+import { topologyOf } from '../topology/index.js';
 import type { Candidate } from './candidate.js';
 import { candidateKey } from './candidate.js';
 import type { SolveContext } from './context.js';
@@ -58,7 +59,7 @@ export function refine(ctx: SolveContext, seeds: readonly Evaluated[], seen: See
   let best = seeds[0];
   if (!best) return undefined;
   let gstep = ctx.gmidStep / 2;
-  let vstep = best.cand.topology === 'triple' ? 0.025 : 0.0125;
+  let vstep = topologyOf(best.cand.topology).refineVoltageStep;
   let from = [...seeds];
   for (let round = 0; round < 12; round++) {
     let improved = false;

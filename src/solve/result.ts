@@ -1,5 +1,6 @@
 import type { Polarity } from '../table/types.js';
-import { rolesOf, squareLawCheck } from '../stack/index.js';
+import { squareLawCheck } from '../stack/index.js';
+import { topologyOf } from '../topology/index.js';
 import { formatEng } from '../units/index.js';
 import type { BiasResult, CornerResult, CurvePoint, DeviceResult, Predicted, SquareLawCheck, StackResult } from './types.js';
 import type { SolveContext } from './context.js';
@@ -30,7 +31,7 @@ export function curveOf(ev: StackEval, device: Polarity, supply: number): CurveP
 }
 
 function devicesOf(e: Evaluated, device: Polarity, supply: number): DeviceResult[] {
-  const roles = rolesOf(e.cand.topology);
+  const roles = topologyOf(e.cand.topology).roles;
   return e.nominal.devices.map((d, k) => {
     const b = e.nominal.mid.devices[k];
     const op = d.slice.op(b.vgs, b.vds, b.vsb, d.w);
@@ -53,7 +54,7 @@ function biasOf(e: Evaluated, device: Polarity, supply: number): BiasResult[] {
 }
 
 function squareLawOf(ctx: SolveContext, e: Evaluated): SquareLawCheck | undefined {
-  const s = squareLawCheck(e.cand.topology, e.slices, e.sized.w, e.nominal.mid.devices, ctx.spec.current);
+  const s = squareLawCheck(topologyOf(e.cand.topology), e.slices, e.sized.w, e.nominal.mid.devices, ctx.spec.current);
   return Number.isFinite(s.vth) ? s : undefined;
 }
 

@@ -1,9 +1,8 @@
-import type { Topology } from '../design/types.js';
-import type { Candidate } from './candidate.js';
+import { topologyOf, type Candidate, type ScreenTools, type StageBias, type StageOption, type Topology } from '../topology/index.js';
 import { candidateKey } from './candidate.js';
 import type { SolveContext } from './context.js';
 import { setpointGrid } from './grid.js';
-import { prune, stageOptions, type StageOption, type SweepCache } from './options.js';
+import { prune, stageOptions } from './options.js';
 import { TopK } from './topk.js';
 
 // Lowest top-device VDS used for the Rout-at-headroom estimate; below it the device is off the knee anyway.
@@ -110,120 +109,51 @@ class Pools {
   }
 }
 
-// Sweeps depend only on the stack's kit, corner and device: share them across its topologies.
-const sweeps = new WeakMap<SolveContext, SweepCache>();
-function sweepsOf(ctx: SolveContext): SweepCache {
-  let c = sweeps.get(ctx);
-  if (!c) sweeps.set(ctx, (c = new Map()));
-  return c;
-}
-
-/**
- * The coarse triple grid can step over the narrow band where lower devices are just
- * saturated (VDSsat ≥ 4·UT at any inversion, 4.5·UT at 80 % of the gm/ID ceiling by the
- * EKV relations): add that setpoint, on the 25 mV grid, when it lies inside.
- */
-function withLowSetpoint(ctx: SolveContext, grid: number[]): number[] {
-  const low = Math.ceil((4.5 * ctx.ut(ctx.nominal)) / 0.025 - 1e-9) * 0.025;
-  if (grid.length === 0 || low > grid[grid.length - 1] || grid.some((g) => Math.abs(g - low) < 1e-9)) return grid;
-  return [...grid, Math.round(low * 1e6) / 1e6].sort((a, b) => a - b);
-}
-
 const bottomCrit = (ctx: SolveContext) => (o: StageOption) => (ctx.spec.mismatch === undefined ? [o.area, -o.ro] : [o.area, -o.ro, o.sigma]);
-// The stacked bottom's VGS is also its drain voltage, which adds to the headroom.
-const diodeCrit = (ctx: SolveContext) => (o: StageOption) => [...bottomCrit(ctx)(o), o.vgs];
-const midCrit = (o: StageOption) => [o.area, -o.ro, -o.gmt];
-const topCrit = (o: StageOption) => [o.area, -o.ro, -o.gmt, o.vdsat];
 
 /**
- * Screen every combination of the grids with saturation small-signal
- * estimates at nominal bias: Rout ≈ ro_N + (1 + gmt_N·ro_N)·R_below, with the
- * top device taken at the target headroom; headroom ≈ Σ setpoints + the top
- * device's VDSsat. Per-stage options another option beats on every criterion
- * are dropped first (the estimate is monotone in them).
+ * Screen every combination the topology enumerates with saturation
+ * small-signal estimates at nominal bias: Rout ≈ ro_N + (1 + gmt_N·ro_N)·R_below,
+ * with the top device taken at the target headroom; headroom ≈ Σ setpoints +
+ * the top device's VDSsat. Per-stage options another option beats on every
+ * criterion are dropped first (the estimate is monotone in them).
  */
 export function screen(ctx: SolveContext, topology: Topology): Candidate[] {
   const pools = new Pools(ctx);
-  const cache = sweepsOf(ctx);
   const s = ctx.spec;
-  const hrTop = (below: number) => Math.max(s.headroom - below, VDS_FLOOR);
+  const topVds = (below: number) => Math.max(s.headroom - below, VDS_FLOOR);
+  const options = (at: StageBias) => stageOptions(ctx, at);
+  const bottom = bottomCrit(ctx);
+  const crit = {
+    bottom,
+    // The stacked bottom's VGS is also its drain voltage, which adds to the headroom.
+    diode: (o: StageOption) => [...bottom(o), o.vgs],
+    mid: (o: StageOption) => [o.area, -o.ro, -o.gmt],
+    top: (o: StageOption) => [o.area, -o.ro, -o.gmt, o.vdsat],
+  };
   // The same top-device options recur for every split of the voltage below it.
   const topMemo = new Map<string, StageOption[]>();
-  const top = (below: number, gmids = ctx.gmids): StageOption[] => {
+  const top = (below: number, gmids: readonly number[] = ctx.gmids): StageOption[] => {
     const key = `${below.toFixed(6)}|${gmids.length}`;
     let t = topMemo.get(key);
-    if (!t) topMemo.set(key, (t = prune(stageOptions(ctx, cache, { mode: ctx.vmid - below, vsb: below, smallAt: hrTop(below), gmids }), topCrit)));
+    if (!t) topMemo.set(key, (t = prune(options({ mode: ctx.vmid - below, vsb: below, smallAt: topVds(below), gmids }), crit.top)));
     return t;
   };
-
-  if (topology === 'single') {
-    for (const o of stageOptions(ctx, cache, { mode: ctx.vmid, vsb: 0, smallAt: hrTop(0) })) {
-      if (pools.wants(o.area, o.ro, o.vdsat, o.sigma)) pools.keep({ topology, l: [o.l], gmid: [o.gmid], setpoints: [] });
-    }
-  } else if (topology === 'cascode') {
-    for (const s1 of setpointGrid(s, ctx.vmid, 0.025)) {
-      const bottom = prune(stageOptions(ctx, cache, { mode: s1, vsb: 0, lower: true }), bottomCrit(ctx));
-      if (bottom.length === 0) continue;
-      const tops = top(s1);
-      for (const t of tops) {
-        const a = t.ro;
-        const b = 1 + t.gmt * t.ro;
-        for (const o of bottom) {
-          if (pools.wants(o.area + t.area, a + b * o.ro, s1 + t.vdsat, o.sigma)) pools.keep({ topology, l: [o.l, t.l], gmid: [o.gmid, t.gmid], setpoints: [s1] });
-        }
-      }
-    }
-  } else if (topology === 'cascode-stacked') {
-    // The bottom diode sets x1 = VGS1; group bottoms by x1 (25 mV) so top options (and their sweeps) are shared.
-    const groups = new Map<number, StageOption[]>();
-    for (const o of prune(stageOptions(ctx, cache, { mode: 'diode', vsb: 0, lower: true }), diodeCrit(ctx))) {
-      const x1 = Math.round(o.vgs * 40) / 40;
-      if (!groups.has(x1)) groups.set(x1, []);
-      groups.get(x1)!.push(o);
-    }
-    for (const [x1, bottom] of groups) {
-      if (x1 >= ctx.vmid - 0.05) continue;
-      for (const t of top(x1)) {
-        const a = t.ro;
-        const b = 1 + t.gmt * t.ro;
-        for (const o of bottom) {
-          if (pools.wants(o.area + t.area, a + b * o.ro, o.vgs + t.vdsat, o.sigma)) pools.keep({ topology, l: [o.l, t.l], gmid: [o.gmid, t.gmid], setpoints: [] });
-        }
-      }
-    }
-  } else {
-    // Three stages multiply: screen on every other gm/ID value and let refinement fill in.
-    const grid = withLowSetpoint(ctx, setpointGrid(s, ctx.vmid, 0.05));
-    const gm = ctx.gmids.filter((_, j) => j % 2 === 0);
-    const bottoms = new Map(grid.map((s1) => [s1, prune(stageOptions(ctx, cache, { mode: s1, vsb: 0, gmids: gm, lower: true }), bottomCrit(ctx))]));
-    // Best case over each bottom set, to skip (top, middle) pairs no bottom could make worth keeping.
-    const bounds = new Map([...bottoms].map(([s1, b]) => [s1, {
-      area: Math.min(...b.map((o) => o.area)), ro: Math.max(...b.map((o) => o.ro)), sigma: Math.min(...b.map((o) => o.sigma)),
-    }]));
-    for (const s1 of grid) {
-      for (const s2 of grid) {
-        const below = Math.round((s1 + s2) * 1e6) / 1e6;
-        // The top device needs room for its own saturation voltage (≥ 4·UT).
-        if (below > Math.max(grid[grid.length - 1] - 0.05, grid[0]) + 1e-9) continue;
-        const bottom = bottoms.get(s1)!;
-        if (bottom.length === 0) continue;
-        const mids = prune(stageOptions(ctx, cache, { mode: s2, vsb: s1, gmids: gm, lower: true }), midCrit);
-        if (mids.length === 0) continue;
-        const tops = top(below, gm);
-        const lim = bounds.get(s1)!;
-        for (const t of tops) {
-          const a3 = 1 + t.gmt * t.ro;
-          for (const m of mids) {
-            const a = t.ro + a3 * m.ro;
-            const b = a3 * (1 + m.gmt * m.ro);
-            if (!pools.mayWant(bottom.length, lim.area + m.area + t.area, a + b * lim.ro, below + t.vdsat, lim.sigma)) continue;
-            for (const o of bottom) {
-              if (pools.wants(o.area + m.area + t.area, a + b * o.ro, below + t.vdsat, o.sigma)) pools.keep({ topology, l: [o.l, m.l, t.l], gmid: [o.gmid, m.gmid, t.gmid], setpoints: [s1, s2] });
-            }
-          }
-        }
-      }
-    }
-  }
+  const tools: ScreenTools = {
+    headroom: s.headroom,
+    vmid: ctx.vmid,
+    gmids: ctx.gmids,
+    ut: ctx.ut(ctx.nominal),
+    options,
+    prune,
+    top,
+    topVds,
+    setpointGrid: (step) => setpointGrid(s, ctx.vmid, step),
+    crit,
+    wants: (area, rout, headroom, sigma) => pools.wants(area, rout, headroom, sigma),
+    mayWant: (count, area, rout, headroom, sigma) => pools.mayWant(count, area, rout, headroom, sigma),
+    keep: (l, gmid, setpoints) => pools.keep({ topology, l, gmid, setpoints }),
+  };
+  topologyOf(topology).screen(tools);
   return pools.candidates();
 }

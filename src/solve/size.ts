@@ -1,6 +1,7 @@
 import { StackwrightError } from '../errors.js';
 import { resolveCorners } from '../design/index.js';
-import { TOPOLOGIES, type DesignSpec, type StackSpec, type Topology } from '../design/types.js';
+import type { DesignSpec, StackSpec, Topology } from '../design/types.js';
+import { topologyNames } from '../topology/index.js';
 import { CAUTION, type SizeResult, type StackResult } from './types.js';
 import type { KitAccess } from './kit.js';
 import { makeContext, type SolveContext } from './context.js';
@@ -104,7 +105,7 @@ function nothingFitsWords(ctx: SolveContext, topology: Topology): string {
  */
 export function sizeStack(spec: StackSpec, kit: KitAccess, opts: { supply: number; corners: string[] }): SizeStackResult {
   const ctx = makeContext(spec, kit, opts.supply, opts.corners);
-  const topologies: readonly Topology[] = spec.topology === 'auto' ? TOPOLOGIES : [spec.topology];
+  const topologies: readonly Topology[] = spec.topology === 'auto' ? topologyNames() : [spec.topology];
   const results: StackResult[] = [];
   const all: Evaluated[] = [];
   for (const t of topologies) {

@@ -1,7 +1,8 @@
 import type { Polarity } from '../table/types.js';
-import type { Topology } from '../design/types.js';
+import type { Topology } from '../topology/types.js';
+import type { Role, SquareLawCheck } from '../stack/types.js';
 
-export type Role = 'bottom' | 'middle' | 'top';
+export type { Role, SquareLawCheck };
 
 /** A sized device of the output stack. Voltages are magnitudes except `gate`. */
 export interface DeviceResult {
@@ -60,18 +61,6 @@ export interface Predicted {
   biasArea: number;
   /** 1-sigma output current mismatch (fraction), when the kit has Pelgrom coefficients. */
   sigma?: number;
-}
-
-export interface SquareLawCheck {
-  vth: number;
-  /** Square-law VGS of each device at its current and size. */
-  vgs: number[];
-  vov: number[];
-  /** Rule-of-thumb headroom: Vov (single), 2Vov (cascode), VGS+Vov (cascode-stacked), 3Vov (triple). */
-  headroom: number;
-  /** Rout from λ = gds/ID at each device: ro = 1/(λ·I). */
-  rout: number;
-  lambda: number[];
 }
 
 export interface CornerResult {

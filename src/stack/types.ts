@@ -33,3 +33,37 @@ export interface OpGuess {
   i: number;
   nodes: readonly number[];
 }
+
+/** Position of an output device, from the rail outwards. */
+export type Role = 'bottom' | 'middle' | 'top';
+
+/**
+ * What the stack layer needs to know about a topology (the rest of its
+ * descriptor, in src/topology, tells the search how to enumerate it).
+ */
+export interface StackShape {
+  name: string;
+  /** Output devices from the rail outwards. */
+  roles: readonly Role[];
+  /** VDS setpoints the search chooses for the lower devices (low-voltage biasing). */
+  setpoints: number;
+  /** The bottom device's VDS equals its VGS (its bias diode sets the node above it). */
+  bottomDiode: boolean;
+  /** Bias diode k > 0 sits on diode k − 1 (VSB = that diode's gate). */
+  stackedBias: boolean;
+  /** Hand-analysis headroom rule of thumb from each device's Vov and VGS, V (common practice). */
+  ruleOfThumbHeadroom(vov: readonly number[], vgs: readonly number[]): number;
+}
+
+/** What square-law hand analysis predicts for a sized stack. */
+export interface SquareLawCheck {
+  vth: number;
+  /** Square-law VGS of each device at its current and size. */
+  vgs: number[];
+  vov: number[];
+  /** Rule-of-thumb headroom: Vov (single), 2Vov (cascode), VGS+Vov (cascode-stacked), 3Vov (triple). */
+  headroom: number;
+  /** Rout from λ = gds/ID at each device: ro = 1/(λ·I). */
+  rout: number;
+  lambda: number[];
+}
