@@ -17,7 +17,7 @@ export type { TopologyDescriptor, ScreenTools, StageOption, StageBias, Candidate
 export type { DesignSpec, StackSpec, Topology, Objective } from './design/index.js';
 export { sizeDesign, evaluateAtCorner, paretoFront, pelgromSigma, CAUTION } from './solve/index.js';
 export { kitAccessFromTables } from './solve/kit-tables.js';
-export type { KitAccess, SizeResult, StackResult, DeviceResult, BiasResult, CurvePoint, Predicted, CornerResult, FrontPoint } from './solve/index.js';
+export type { KitAccess, SizeResult, StackResult, DeviceResult, BiasResult, CurvePoint, Predicted, CornerResult, FrontPoint, Verdict, VerdictTarget } from './solve/index.js';
 export { stackNetlist, designNetlist } from './spice/index.js';
 export { htmlReport, renderSizeText, lineChart } from './report/index.js';
 export { parseEng, formatEng, formatSpice } from './units/index.js';

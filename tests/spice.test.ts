@@ -100,9 +100,9 @@ describe('stackNetlist text', () => {
     const names = elementLines(net).map((l) => l.split(/\s+/)[0].toLowerCase());
     expect(new Set(names).size).toBe(names.length); // SPICE needs unique element names
     // A stack the search could not size is noted, not written.
-    const empty = { ...nTriple, name: 'none', feasible: false, binding: 'rout', devices: [] };
+    const empty = { ...nTriple, name: 'none', feasible: false, binding: { target: 'rout' as const, required: 1e8, achieved: null, at: 0.5, device: null, corner: 'tt' }, devices: [] };
     const partial = designNetlist({ kit: 'k', corners: ['tt'], supply: 1.8, caution: CAUTION, stacks: [empty, nCascode] }, { ...base });
-    expect(partial).toContain('stack "none": not sized (rout)');
+    expect(partial).toContain('stack "none": not sized (rout: no usable Rout at 0.500 V (outside the table); needs 100 MΩ)');
     expect(partial).not.toMatch(/^\*@probe s1 /m);
     expect(partial).toMatch(/^\*@probe s2 n vm_s2 sink$/m);
   });

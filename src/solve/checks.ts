@@ -1,9 +1,5 @@
 import type { StackSpec } from '../design/types.js';
-import { formatEng } from '../units/index.js';
 import type { StackEval } from './stackeval.js';
-
-// Devices below the top one, from the rail up.
-const LOWER_ROLES = ['bottom', 'middle'];
 
 /** Allowed deviation of the mid-span current from the target. */
 export const CURRENT_WINDOW = 0.01;
@@ -66,33 +62,4 @@ export function violation(m: Margins): number {
 export function tightest(m: Margins): Target {
   const order: Target[] = ['rout', 'headroom', 'iout', 'mismatch', 'saturation'];
   return order.reduce((a, b) => (m[b] < m[a] ? b : a));
-}
-
-/** Words for a target at one evaluation: "rout 12.3 MΩ < 20 MΩ", "headroom 0.52 V ≤ 0.55 V". */
-export function describe(target: Target, spec: StackSpec, ev: StackEval | null, sigma: number | undefined): string {
-  if (!ev) return `${target}: the table does not cover the mid-span bias`;
-  switch (target) {
-    case 'rout': {
-      const ok = ev.routAtTarget >= spec.rout;
-      return `rout ${formatEng(ev.routAtTarget, 'Ω')} ${ok ? '≥' : '<'} ${formatEng(spec.rout, 'Ω')} at ${spec.headroom.toFixed(3)} V`;
-    }
-    case 'headroom': {
-      const ok = ev.headroom <= spec.headroom;
-      const h = Number.isFinite(ev.headroom) ? `${ev.headroom.toFixed(3)} V` : 'never met';
-      return `headroom ${h} ${ok ? '≤' : '>'} ${spec.headroom.toFixed(3)} V`;
-    }
-    case 'iout': {
-      const dev = (100 * (ev.iout - spec.current)) / spec.current;
-      return `iout ${formatEng(ev.iout, 'A')} is ${dev.toFixed(2)} % off ${formatEng(spec.current, 'A')}`;
-    }
-    case 'mismatch':
-      return `mismatch σ ${((sigma ?? NaN) * 100).toFixed(3)} % vs ${((spec.mismatch ?? NaN) * 100).toFixed(3)} %`;
-    case 'saturation': {
-      const k = leastSaturated(ev);
-      if (k < 0) return 'saturation: a single device has no lower device to keep saturated';
-      const vds = ev.mid.devices[k].vds;
-      const ok = vds >= ev.vdsat[k];
-      return `saturation: ${LOWER_ROLES[k]} VDS ${formatEng(vds, 'V')} ${ok ? '≥' : '<'} VDSsat ${formatEng(ev.vdsat[k], 'V')} at mid-span`;
-    }
-  }
 }

@@ -36,5 +36,5 @@ export function evaluateAtCorner(result: StackResult, spec: StackSpec, kit: KitA
   const margins = marginsOf(spec, ev, sigma);
   const area = result.devices.reduce((a, d) => a + d.w * d.l, 0);
   const biasArea = result.bias.reduce((a, b) => a + b.w * b.l, 0);
-  return cornerResult(spec, corner, margins, ev, sigma, { area, biasArea, gates, supply });
+  return cornerResult(spec, corner, margins, ev, sigma, { area, biasArea, gates, supply, vmid });
 }

@@ -4,6 +4,7 @@ export { evaluateAtCorner } from './corners.js';
 export { paretoFront, dominates, type FrontPoint } from './pareto.js';
 export { pelgromSigma } from './mismatch.js';
 export { CURRENT_WINDOW } from './checks.js';
+export type { Verdict, VerdictTarget } from './verdict.js';
 export { CAUTION } from './types.js';
 export type {
   Role, DeviceResult, BiasResult, CurvePoint, Predicted, SquareLawCheck, CornerResult, StackResult, SizeResult,

@@ -11,7 +11,7 @@ import { finalize, fullyOk, nominalOk, totalViolation, type Evaluated } from './
 import { objectiveCompare, pickBest } from './rank.js';
 import { emptyResult, stackResult } from './result.js';
 import { paretoFront, type FrontPoint } from './pareto.js';
-import { formatEng } from '../units/index.js';
+import { verdict, type Verdict } from './verdict.js';
 
 export interface SizeStackResult {
   results: StackResult[];
@@ -75,24 +75,17 @@ function sizeTopology(ctx: SolveContext, topology: Topology): { result: StackRes
     ctx.saturation = 'require';
   }
   if (near) return { result: stackResult(ctx, near.best, near.pool, counted()), pool: near.pool.filter((e) => e.margins.saturation >= 0) };
-  const triode = ctx.count.triode > rejected.triode;
-  return { result: emptyResult(ctx, topology, counted(), triode ? nothingFitsWords(ctx, topology) : noCandidateWords(ctx, topology, rejected)), pool: [] };
+  return { result: emptyResult(ctx, topology, counted(), noCandidate(ctx, rejected)), pool: [] };
 }
 
-/** Why a topology got no design at all, with the rejections counted since `from`. */
-function noCandidateWords(ctx: SolveContext, topology: Topology, from: { triode: number; narrow: number }): string {
+/** Why a topology got no design at all, from the rejections counted since `from`. */
+function noCandidate(ctx: SolveContext, from: { triode: number; narrow: number }): Verdict {
   const triode = ctx.count.triode - from.triode;
   const narrow = ctx.count.narrow - from.narrow;
-  const why: string[] = [];
-  if (triode > 0) why.push(`${triode} left a lower device below its VDSsat at mid-span`);
-  if (narrow > 0) why.push(`${narrow} needed a device narrower than the minimum width ${formatEng(ctx.wmin, 'm')}`);
-  return `${topology}: no candidate could be realised within the table${why.length ? ` (${why.join('; ')})` : ''}`;
-}
-
-/** Why the screen kept nothing: the lower devices' saturation and the minimum width leave no room. */
-function nothingFitsWords(ctx: SolveContext, topology: Topology): string {
-  const floor = formatEng(4 * ctx.ut(ctx.nominal), 'V');
-  return `${topology}: no combination of grid options keeps every lower device saturated (VDSsat ≥ 4·UT = ${floor} each) with W ≥ ${formatEng(ctx.wmin, 'm')} below the ${ctx.spec.headroom.toFixed(3)} V headroom target`;
+  // No lower device saturated (VDSsat ≥ 4·UT at any inversion level) below the headroom target.
+  if (triode > 0) return verdict('saturation', 4 * ctx.ut(ctx.nominal), undefined, ctx.spec.headroom, ctx.nominal);
+  if (narrow > 0) return verdict('width', ctx.wmin, undefined, undefined, ctx.nominal);
+  return verdict('table', undefined, undefined, ctx.vmid, ctx.nominal);
 }
 
 /**

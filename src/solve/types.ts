@@ -1,6 +1,7 @@
 import type { Polarity } from '../table/types.js';
 import type { Topology } from '../topology/types.js';
 import type { Role, SquareLawCheck } from '../stack/types.js';
+import type { Verdict } from './verdict.js';
 
 export type { Role, SquareLawCheck };
 
@@ -70,9 +71,9 @@ export interface CornerResult {
   /** Gate voltages the bias devices produce at this corner, V. */
   gates: number[];
   /** Why this corner fails (infeasible corners only). */
-  binding?: string;
+  binding?: Verdict;
   /** The constraint with the least margin (feasible corners only). */
-  tightest?: string;
+  tightest?: Verdict;
 }
 
 export interface StackResult {
@@ -80,10 +81,10 @@ export interface StackResult {
   device: Polarity;
   topology: Topology;
   feasible: boolean;
-  /** Which target binds when infeasible (e.g. "rout", "headroom", "mismatch"), with words. */
-  binding?: string;
-  /** When feasible: the constraint with the least margin, over all corners, with words. */
-  tightest?: string;
+  /** When infeasible: the target that binds (at the corner named in it). */
+  binding?: Verdict;
+  /** When feasible: the constraint with the least margin over all corners. */
+  tightest?: Verdict;
   /** Nearest feasible points when infeasible. */
   nearest?: { headroomAtRout?: number; routAtHeadroom?: number };
   devices: DeviceResult[];

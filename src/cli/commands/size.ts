@@ -3,7 +3,7 @@ import type { Command } from 'commander';
 import { loadKit, sizeSpec, decidingResults, type SizeRun } from '../../api.js';
 import { parseSpec } from '../../design/index.js';
 import type { DesignSpec } from '../../design/types.js';
-import { renderSizeText, renderSizeBrief, stackCharts, htmlReport, type FrontPoint as ReportFront, type DesignCurves } from '../../report/index.js';
+import { bindingText, renderSizeText, renderSizeBrief, stackCharts, htmlReport, type FrontPoint as ReportFront, type DesignCurves } from '../../report/index.js';
 import { designCurves, defaultVds } from '../../device/index.js';
 import { designNetlist } from '../../spice/index.js';
 import { writeFilesAtomic } from '../../fsutil.js';
@@ -112,7 +112,7 @@ export function registerSize(program: Command): void {
       for (const [path] of files) note(`wrote ${path}`);
       const failed = decidingResults(run.result).filter((s) => !s.feasible);
       if (failed.length > 0) {
-        note(`infeasible: ${failed.map((s) => `${s.name} (${s.binding ?? 'targets not met'})`).join('; ')}`);
+        note(`infeasible: ${failed.map((s) => `${s.name} (${bindingText(s) || 'targets not met'})`).join('; ')}`);
         process.exitCode = EXIT.infeasible;
       }
     });
