@@ -3,7 +3,8 @@ import type { Polarity } from '../table/types.js';
 import type { Topology } from '../topology/types.js';
 
 export type { Topology };
-export type Objective = 'area' | 'headroom' | 'rout';
+export type { Objective } from '../policy.js';
+import type { Objective } from '../policy.js';
 
 /** One current source/sink to size, after validation; all SI. */
 export interface StackSpec {

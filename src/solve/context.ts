@@ -3,6 +3,7 @@ import type { LengthSlice } from '../device/types.js';
 import type { StackSpec } from '../design/types.js';
 import type { MismatchCoefficients } from '../table/types.js';
 import { cornerUt } from './temperature.js';
+import { midSpan } from '../policy.js';
 import type { KitAccess } from './kit.js';
 import { gmidGrid, lengthGrid } from './grid.js';
 import type { SweepCache } from './options.js';
@@ -83,7 +84,7 @@ export function makeContext(spec: StackSpec, kit: KitAccess, supply: number, cor
     if (u === undefined) uts.set(corner, (u = cornerUt(kit, corner, spec.device)));
     return u;
   };
-  const vmid = 0.5 * (spec.headroom + spec.span);
+  const vmid = midSpan(spec);
   const lengths = lengthGrid(spec, kit.lengths(nominal, spec.device), where);
   const { values: gmids, step: gmidStep } = gmidGrid(spec, lengths.map((l) => slice(nominal, l)), vmid, where);
   return {

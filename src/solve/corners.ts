@@ -2,6 +2,7 @@ import { StackwrightError } from '../errors.js';
 import type { StackSpec } from '../design/types.js';
 import { biasGates, type StackDevice } from '../stack/index.js';
 import { cornerUt } from './temperature.js';
+import { midSpan } from '../policy.js';
 import type { CornerResult, StackResult } from './types.js';
 import type { KitAccess } from './kit.js';
 import { marginsOf } from './checks.js';
@@ -24,7 +25,7 @@ export function evaluateAtCorner(result: StackResult, spec: StackSpec, kit: KitA
   const biasSlices = result.bias.map((b) => kit.slice(corner, result.device, b.l));
   const gates = biasGates(result.bias, biasSlices);
   const devices: StackDevice[] = slices.map((slice, k) => ({ slice, w: result.devices[k].w }));
-  const vmid = 0.5 * (spec.headroom + spec.span);
+  const vmid = midSpan(spec);
   const nodes = [0, ...result.devices.map((d) => d.vsb + d.vds)];
   const ev: StackEval | null = evaluateStack(devices, gates, spec, vmid, { i: spec.current, nodes }, undefined, cornerUt(kit, corner, result.device));
   const coeff = kit.mismatch(result.device);

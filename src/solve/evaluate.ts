@@ -4,7 +4,8 @@ import { biasDevices, biasGates, sampleAt, sizeStackDevices, type BiasDevice, ty
 import { topologyOf } from '../topology/index.js';
 import type { Candidate } from './candidate.js';
 import type { SolveContext } from './context.js';
-import { CURRENT_WINDOW, marginsOf, meetsAll, saturationMargin, violation, type Margins } from './checks.js';
+import { marginsOf, saturationMargin, type Margins } from './checks.js';
+import { currentMargin, distanceToFeasible, meetsAll } from '../policy.js';
 import { pelgromSigma } from './mismatch.js';
 import { CURVE_INTERVALS, SCAN_INTERVALS, evaluateFrom, evaluateStack, midPoint, type StackEval } from './stackeval.js';
 
@@ -121,7 +122,7 @@ function quickReject(ctx: SolveContext, devices: StackDevice[], gates: number[],
   if (!mid.op) return marginsOf(s, null, undefined);
   const at = sampleAt(devices, gates, s.headroom, mid.op);
   const rout = at.op ? Math.log(at.rout / s.rout) : -Infinity;
-  const iout = 1 - Math.abs(mid.i - s.current) / (CURRENT_WINDOW * s.current);
+  const iout = currentMargin(mid.i, s.current);
   if (rout >= 0 && iout >= 0) return null;
   return { rout, iout, headroom: 0, mismatch: Infinity, saturation: 0 };
 }
@@ -148,7 +149,7 @@ export function fullyOk(ctx: SolveContext, e: Evaluated): boolean {
 
 /** Total shortfall over the corners evaluated so far. */
 export function totalViolation(e: Evaluated): number {
-  return violation(e.margins) + (e.corners ?? []).reduce((a, c) => a + violation(c.margins), 0);
+  return distanceToFeasible(e.margins) + (e.corners ?? []).reduce((a, c) => a + distanceToFeasible(c.margins), 0);
 }
 
 /**

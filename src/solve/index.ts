@@ -3,7 +3,7 @@ export { sizeStack, sizeDesign, type SizeStackResult } from './size.js';
 export { evaluateAtCorner } from './corners.js';
 export { paretoFront, dominates, type FrontPoint } from './pareto.js';
 export { pelgromSigma } from './mismatch.js';
-export { CURRENT_WINDOW } from './checks.js';
+export { CURRENT_WINDOW } from '../policy.js';
 export type { Verdict, VerdictTarget } from './verdict.js';
 export { CAUTION } from './types.js';
 export type {

@@ -1,25 +1,15 @@
-import type { Objective } from '../design/types.js';
+import { objectiveCompare, type Measures, type Objective } from '../policy.js';
 import type { SolveContext } from './context.js';
 import { fullyOk, nominalOk, totalViolation, type Evaluated } from './evaluate.js';
 
-// Ties: headroom within 1 mV, Rout within 1 %, are settled by the next measure.
-const mv = (h: number) => (Number.isFinite(h) ? Math.round(h * 1000) : Infinity);
-const pct = (r: number) => (r > 0 ? Math.floor(Math.log(r) / Math.log(1.01)) : -Infinity);
+/** The measures a design is ordered by (nominal corner). */
+export function measuresOf(e: Evaluated): Measures {
+  return { area: e.area, headroom: e.nominal.headroom, rout: e.nominal.rout };
+}
 
-/** Objective order between two designs that both meet the targets (< 0: a is better). */
-export function objectiveCompare(objective: Objective, a: Evaluated, b: Evaluated): number {
-  const d = {
-    area: a.area - b.area,
-    headroom: mv(a.nominal.headroom) - mv(b.nominal.headroom),
-    rout: pct(b.nominal.rout) - pct(a.nominal.rout),
-  };
-  const order: Array<keyof typeof d> =
-    objective === 'area' ? ['area', 'headroom', 'rout'] : objective === 'headroom' ? ['headroom', 'area', 'rout'] : ['rout', 'area', 'headroom'];
-  for (const k of order) {
-    const x = d[k];
-    if (k === 'area' ? Math.abs(x) > 1e-9 * Math.max(a.area, b.area) : x !== 0 && !Number.isNaN(x)) return x;
-  }
-  return 0;
+/** Objective order between two evaluated designs (< 0: a is better); see policy.objectiveCompare. */
+export function compareDesigns(objective: Objective, a: Evaluated, b: Evaluated): number {
+  return objectiveCompare(objective, measuresOf(a), measuresOf(b));
 }
 
 /**
@@ -29,12 +19,12 @@ export function objectiveCompare(objective: Objective, a: Evaluated, b: Evaluate
  */
 export function better(ctx: SolveContext, a: Evaluated, b: Evaluated): boolean {
   const obj = ctx.spec.objective;
-  if (nominalOk(b) && fullyOk(ctx, b)) return nominalOk(a) && objectiveCompare(obj, a, b) < 0 && fullyOk(ctx, a);
+  if (nominalOk(b) && fullyOk(ctx, b)) return nominalOk(a) && compareDesigns(obj, a, b) < 0 && fullyOk(ctx, a);
   if (nominalOk(a) && fullyOk(ctx, a)) return true;
   // Shortfalls within ~2 % of Rout (1 mV of headroom) tie, so the nearest design is not bought with huge area.
   const va = Math.round(totalViolation(a) / 0.02);
   const vb = Math.round(totalViolation(b) / 0.02);
-  return va < vb || (va === vb && objectiveCompare(obj, a, b) < 0);
+  return va < vb || (va === vb && compareDesigns(obj, a, b) < 0);
 }
 
 /**
@@ -42,7 +32,7 @@ export function better(ctx: SolveContext, a: Evaluated, b: Evaluated): boolean {
  * checked at the other corners lazily; otherwise the one nearest to meeting them.
  */
 export function pickBest(ctx: SolveContext, pool: readonly Evaluated[]): Evaluated | undefined {
-  const ok = pool.filter(nominalOk).sort((a, b) => objectiveCompare(ctx.spec.objective, a, b));
+  const ok = pool.filter(nominalOk).sort((a, b) => compareDesigns(ctx.spec.objective, a, b));
   for (const e of ok) if (fullyOk(ctx, e)) return e;
   let best: Evaluated | undefined;
   for (const e of pool) if (!best || better(ctx, e, best)) best = e;

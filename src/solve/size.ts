@@ -8,7 +8,7 @@ import { makeContext, type SolveContext } from './context.js';
 import { screen } from './screen.js';
 import { evaluateOnce, refine, type Seen } from './refine.js';
 import { finalize, fullyOk, nominalOk, totalViolation, type Evaluated } from './evaluate.js';
-import { objectiveCompare, pickBest } from './rank.js';
+import { compareDesigns, pickBest } from './rank.js';
 import { emptyResult, stackResult } from './result.js';
 import { paretoFront, type FrontPoint } from './pareto.js';
 import { verdict, type Verdict } from './verdict.js';
@@ -37,7 +37,7 @@ function seedsOf(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[])
   const ok = nominalOk(best) && fullyOk(ctx, best);
   const rest = pool
     .filter((e) => e !== best && (ok ? nominalOk(e) : !nominalOk(e)))
-    .sort((a, b) => (ok ? objectiveCompare(ctx.spec.objective, a, b) : totalViolation(a) - totalViolation(b)));
+    .sort((a, b) => (ok ? compareDesigns(ctx.spec.objective, a, b) : totalViolation(a) - totalViolation(b)));
   return [best, ...rest.slice(0, 1)];
 }
 

@@ -3,6 +3,7 @@ import type { Polarity } from '../table/types.js';
 import { PROBE_PREFIX, SWEEP_NODE } from './netlist.js';
 import { runNgspice, type RunOptions } from './run.js';
 import { parseWrdata } from './wrdata.js';
+import { CURRENT_WINDOW, currentMargin, midSpan } from '../policy.js';
 
 export interface SweepPoint {
   /** Stack voltage, V. */
@@ -112,14 +113,9 @@ export interface HeadroomTargets {
   headroom: number;
   /** Top of the span, V. */
   span: number;
-  /** Relative current window, default 0.01. */
-  window?: number;
 }
 
-/** Stack voltage midway between spec headroom and span, where iout is referenced. */
-export function midSpan(t: Pick<HeadroomTargets, 'headroom' | 'span'>): number {
-  return 0.5 * (t.headroom + t.span);
-}
+export { midSpan };
 
 /**
  * Measured headroom: the lowest v such that for every v' in [v, span]
@@ -129,9 +125,8 @@ export function midSpan(t: Pick<HeadroomTargets, 'headroom' | 'span'>): number {
  */
 export function measuredHeadroom(curve: readonly RoutPoint[], t: HeadroomTargets): number {
   const iMid = sampleAt(curve, midSpan(t)).iout;
-  const w = t.window ?? 0.01;
   const pts = curve.filter((p) => p.v <= t.span + 1e-9);
-  const margin = (p: RoutPoint) => Math.min(Math.min(p.rout / t.rout - 1, 1), w - Math.abs(p.iout - iMid) / Math.abs(iMid));
+  const margin = (p: RoutPoint) => Math.min(Math.min(p.rout / t.rout - 1, 1), CURRENT_WINDOW * currentMargin(p.iout, iMid));
   let j = pts.length - 1;
   if (j < 0 || margin(pts[j]) < 0) return Infinity;
   while (j > 0 && margin(pts[j - 1]) >= 0) j--;

@@ -1,8 +1,7 @@
 import { StackwrightError } from '../errors.js';
 import type { LengthSlice } from '../device/types.js';
 
-// Table grids are built from decimal text; allow rounding slack at the edges.
-const SLACK = 1e-9;
+import { TABLE_EDGE as SLACK } from '../policy.js';
 
 /** True when (vgs, vds, vsb) lies inside the slice's table. */
 export function covers(slice: LengthSlice, vgs: number, vds: number, vsb: number): boolean {
