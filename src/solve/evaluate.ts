@@ -1,4 +1,6 @@
 import { StackwrightError } from '../errors.js';
+import type { StackSpec } from '../design/types.js';
+import type { MismatchCoefficients } from '../table/types.js';
 import type { LengthSlice } from '../device/types.js';
 import { biasDevices, biasGates, sampleAt, sizeStackDevices, type BiasDevice, type SizedStack, type StackDevice, type StackOp } from '../stack/index.js';
 import { topologyOf } from '../topology/index.js';
@@ -47,11 +49,11 @@ function rangeSafe<T>(f: () => T): T | null {
 }
 
 /** Pelgrom σ of the bottom device at its actual gm/ID, when the kit has coefficients. */
-export function sigmaOf(ctx: SolveContext, ev: StackEval): number | undefined {
-  if (!ctx.coeff) return undefined;
+export function sigmaFor(coeff: MismatchCoefficients | undefined, ev: StackEval): number | undefined {
+  if (!coeff) return undefined;
   const b = ev.mid.devices[0];
   const d = ev.devices[0];
-  return pelgromSigma(b.gm / b.id, d.w, d.slice.l, ctx.coeff);
+  return pelgromSigma(b.gm / b.id, d.w, d.slice.l, coeff);
 }
 
 /**
@@ -78,7 +80,7 @@ export function evaluateCandidate(ctx: SolveContext, cand: Candidate): Evaluated
     });
     if (!bias) return reject(ctx, 'narrow');
     const nominal = evaluateFrom(devices, sized.gates, ctx.spec, m, SCAN_INTERVALS);
-    const sigma = sigmaOf(ctx, nominal);
+    const sigma = sigmaFor(ctx.coeff, nominal);
     return {
       cand, slices, sized, bias, nominal, sigma,
       area: devices.reduce((a, d) => a + d.w * d.slice.l, 0),
@@ -94,31 +96,59 @@ function reject(ctx: SolveContext, why: 'narrow' | 'triode'): null {
   return null;
 }
 
+/** One evaluation of a sized design at a corner: the same W, L and bias diodes there. */
+export interface EvaluateOptions {
+  spec: StackSpec;
+  corner: string;
+  /** Output devices on the corner's slices, at their widths. */
+  devices: StackDevice[];
+  /** Bias diodes and their slices on the corner: they set the gates there (the mirror tracks the corner). */
+  bias: readonly Pick<BiasDevice, 'w' | 'current' | 'stackedOn' | 'drives'>[];
+  biasSlices: LengthSlice[];
+  /** Start of the mid-span DC solve (design bias). */
+  guess: { i: number; nodes: number[] };
+  vmid: number;
+  /** Thermal voltage at the corner, V. */
+  ut: number;
+  intervals: number;
+  coeff?: MismatchCoefficients;
+  /** Stop after a cheap rejection test (two DC solves) when it already fails. */
+  quick?: boolean;
+}
+
 /**
- * Re-evaluate at one other corner: same W, L and bias devices, new gate
- * voltages. `quick` first tries a cheap rejection (two DC solves: Rout at the
- * target headroom bounds the worst Rout from above, and the mid-span current)
- * and stops there when it already fails.
+ * Evaluate a sized design at one corner: gates from its bias diodes there,
+ * the stack on the corner's tables, σ and margins. Outside the tables counts
+ * as not met (ev null). `quick` first tries a cheap rejection (Rout at the
+ * target headroom bounds the worst Rout from above, and the mid-span current).
  */
-export function evaluateCorner(ctx: SolveContext, e: Evaluated, corner: string, quick = false): CornerEval {
-  const slices = e.cand.l.map((l) => ctx.slice(corner, l));
-  const gates = rangeSafe(() => biasGates(e.bias, e.bias.map((b) => ctx.slice(corner, b.l))));
-  if (!gates) return { corner, gates: [], ev: null, margins: marginsOf(ctx.spec, null, undefined) };
-  const devices: StackDevice[] = slices.map((slice, k) => ({ slice, w: e.sized.w[k] }));
-  const guess = { i: ctx.spec.current, nodes: e.sized.nodes };
-  if (quick) {
-    const q = quickReject(ctx, devices, gates, guess);
+export function evaluateAt(o: EvaluateOptions): CornerEval {
+  const { spec, corner } = o;
+  const gates = rangeSafe(() => biasGates(o.bias, o.biasSlices));
+  if (!gates) return { corner, gates: [], ev: null, margins: marginsOf(spec, null, undefined) };
+  if (o.quick) {
+    const q = quickReject(spec, o.vmid, o.devices, gates, o.guess);
     if (q) return { corner, gates, ev: null, margins: q, quick: true };
   }
-  const ev = rangeSafe(() => evaluateStack(devices, gates, ctx.spec, ctx.vmid, guess, e.intervals, ctx.ut(corner)));
-  const sigma = ev ? sigmaOf(ctx, ev) : undefined;
-  return { corner, gates, ev, sigma, margins: marginsOf(ctx.spec, ev, sigma) };
+  const ev = rangeSafe(() => evaluateStack({ devices: o.devices, gates, spec, vmid: o.vmid, guess: o.guess, intervals: o.intervals, ut: o.ut }));
+  const sigma = ev ? sigmaFor(o.coeff, ev) : undefined;
+  return { corner, gates, ev, sigma, margins: marginsOf(spec, ev, sigma) };
+}
+
+/** Re-evaluate a search candidate at one other corner (same W, L and bias devices). */
+export function evaluateCorner(ctx: SolveContext, e: Evaluated, corner: string, quick = false): CornerEval {
+  return evaluateAt({
+    spec: ctx.spec, corner,
+    devices: e.cand.l.map((l, k) => ({ slice: ctx.slice(corner, l), w: e.sized.w[k] })),
+    bias: e.bias, biasSlices: e.bias.map((b) => ctx.slice(corner, b.l)),
+    guess: { i: ctx.spec.current, nodes: e.sized.nodes },
+    vmid: ctx.vmid, ut: ctx.ut(corner), intervals: e.intervals, coeff: ctx.coeff, quick,
+  });
 }
 
 // Margins from two DC solves when they already show a miss (headroom and saturation left unjudged at 0), else null.
-function quickReject(ctx: SolveContext, devices: StackDevice[], gates: number[], guess: { i: number; nodes: number[] }): Margins | null {
-  const s = ctx.spec;
-  const mid = sampleAt(devices, gates, ctx.vmid, solveGuess(guess, ctx.vmid));
+function quickReject(s: StackSpec, vmid: number, devices: StackDevice[], gates: number[], guess: { i: number; nodes: number[] }): Margins | null {
+  const mid = sampleAt(devices, gates, vmid, solveGuess(guess, vmid));
   if (!mid.op) return marginsOf(s, null, undefined);
   const at = sampleAt(devices, gates, s.headroom, mid.op);
   const rout = at.op ? Math.log(at.rout / s.rout) : -Infinity;
@@ -160,14 +190,14 @@ export function totalViolation(e: Evaluated): number {
 export function finalize(ctx: SolveContext, e: Evaluated): boolean {
   if (e.intervals === CURVE_INTERVALS) return true;
   const wasOk = nominalOk(e) && (e.corners === undefined || e.corners.every((c) => meetsAll(c.margins)));
-  const full = evaluateStack(e.nominal.devices, e.nominal.gates, ctx.spec, ctx.vmid, { i: ctx.spec.current, nodes: e.sized.nodes }, CURVE_INTERVALS, ctx.ut(ctx.nominal));
+  const full = evaluateStack({ devices: e.nominal.devices, gates: e.nominal.gates, spec: ctx.spec, vmid: ctx.vmid, guess: { i: ctx.spec.current, nodes: e.sized.nodes }, intervals: CURVE_INTERVALS, ut: ctx.ut(ctx.nominal) });
   e.intervals = CURVE_INTERVALS;
   if (!full) {
     e.margins = marginsOf(ctx.spec, null, e.sigma);
     return false;
   }
   e.nominal = full;
-  e.sigma = sigmaOf(ctx, full);
+  e.sigma = sigmaFor(ctx.coeff, full);
   e.margins = marginsOf(ctx.spec, full, e.sigma);
   e.corners = undefined;
   return !wasOk || fullyOk(ctx, e);

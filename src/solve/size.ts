@@ -67,13 +67,8 @@ function sizeTopology(ctx: SolveContext, topology: Topology): { result: StackRes
   // Nothing with saturated lower devices on the screen's grid: search again with them allowed, so refinement
   // can still reach a saturated design or, failing that, show the nearest one failing on saturation.
   // Only saturated designs go on the front.
-  ctx.saturation = 'report';
-  let near: ReturnType<typeof search>;
-  try {
-    near = search(ctx, topology);
-  } finally {
-    ctx.saturation = 'require';
-  }
+  // The relaxed context shares the counters, slices and sweeps; only the saturation rule differs.
+  const near = search({ ...ctx, saturation: 'report' }, topology);
   if (near) return { result: stackResult(ctx, near.best, near.pool, counted()), pool: near.pool.filter((e) => e.margins.saturation >= 0) };
   return { result: emptyResult(ctx, topology, counted(), noCandidate(ctx, rejected)), pool: [] };
 }

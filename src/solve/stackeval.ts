@@ -80,20 +80,27 @@ export function evaluateFrom(devices: StackDevice[], gates: number[], spec: Stac
   return { gates, devices, mid, curve, headroom, routAtTarget, rout, iout: mid.i, vdsat };
 }
 
+/** One stack to evaluate: devices at their widths, absolute gates in stack coordinates, against a spec. */
+export interface StackEvalOptions {
+  devices: StackDevice[];
+  gates: number[];
+  spec: StackSpec;
+  /** Mid-span stack voltage, V. */
+  vmid: number;
+  /** Start of the mid-span DC solve. */
+  guess?: OpGuess;
+  /** Curve intervals (default CURVE_INTERVALS). */
+  intervals?: number;
+  /** Thermal voltage at the corner, V (default 27 °C). */
+  ut?: number;
+}
+
 /**
  * Evaluate a stack with given widths and gates: operating point at mid-span,
  * the curve from 0 to span, headroom and the Rout figures. Null when the table
  * cannot cover the mid-span point (the candidate is then infeasible).
  */
-export function evaluateStack(
-  devices: StackDevice[],
-  gates: number[],
-  spec: StackSpec,
-  vmid: number,
-  guess?: OpGuess,
-  intervals = CURVE_INTERVALS,
-  ut = thermalVoltage(),
-): StackEval | null {
-  const m = midPoint(devices, gates, vmid, guess, ut);
-  return m ? evaluateFrom(devices, gates, spec, m, intervals) : null;
+export function evaluateStack(o: StackEvalOptions): StackEval | null {
+  const m = midPoint(o.devices, o.gates, o.vmid, o.guess, o.ut ?? thermalVoltage());
+  return m ? evaluateFrom(o.devices, o.gates, o.spec, m, o.intervals ?? CURVE_INTERVALS) : null;
 }
