@@ -20,7 +20,7 @@ export { decidingResults };
 import type { FrontPoint } from './solve/pareto.js';
 import type { CornerResult, SizeResult, StackResult } from './solve/types.js';
 import { compareResults, harderTargets, type Change } from './solve/compare.js';
-import { evaluateAtCorner } from './solve/corners.js';
+import { evaluateAtCorner } from './solve/evaluate/corners.js';
 import type { DesignSpec, StackSpec } from './design/types.js';
 import { tablesDirFor } from './locate.js';
 

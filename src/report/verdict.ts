@@ -1,4 +1,4 @@
-import type { Verdict } from '../solve/verdict.js';
+import type { Verdict } from '../solve/evaluate/verdict.js';
 import { formatEng } from '../units/index.js';
 
 const volts = (x: number) => `${x.toFixed(3)} V`;

@@ -2,11 +2,11 @@ import { StackwrightError } from '../errors.js';
 import type { LengthSlice } from '../device/types.js';
 import type { StackSpec } from '../design/types.js';
 import type { MismatchCoefficients } from '../table/types.js';
-import { cornerUt } from './temperature.js';
+import { cornerUt } from './evaluate/temperature.js';
 import { midSpan } from '../policy.js';
 import type { KitAccess } from './kit.js';
-import { gmidGrid, lengthGrid } from './grid.js';
-import type { SweepCache } from './options.js';
+import { gmidGrid, lengthGrid } from './search/grid.js';
+import type { SweepCache } from './search/stage-options.js';
 
 /** Everything one stack's search shares: spec, kit, grids, slice cache and counters. */
 export interface SolveContext {

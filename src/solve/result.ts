@@ -4,11 +4,11 @@ import { topologyOf } from '../topology/index.js';
 import type { BiasResult, CornerResult, CurvePoint, DeviceResult, Predicted, SquareLawCheck, StackResult } from './types.js';
 import type { SolveContext } from './context.js';
 import type { StackSpec } from '../design/types.js';
-import { tightest, type Margins } from './checks.js';
+import { tightest, type Margins } from './evaluate/checks.js';
 import { meetsAll } from '../policy.js';
-import { verdict, verdictOf, type Verdict } from './verdict.js';
-import { ensureCorners, nominalOk, type Evaluated } from './evaluate.js';
-import type { StackEval } from './stackeval.js';
+import { verdict, verdictOf, type Verdict } from './evaluate/verdict.js';
+import { ensureCorners, nominalOk, type Evaluated } from './evaluate/evaluate.js';
+import type { StackEval } from './evaluate/stack-eval.js';
 
 /** Absolute voltage to ground of a stack-coordinate voltage. */
 export function absolute(device: Polarity, supply: number, x: number): number {

@@ -5,13 +5,13 @@ import { topologyNames } from '../topology/index.js';
 import { CAUTION, type SizeResult, type StackResult } from './types.js';
 import type { KitAccess } from './kit.js';
 import { makeContext, type SolveContext } from './context.js';
-import { screen } from './screen.js';
-import { evaluateOnce, refine, type Seen } from './refine.js';
-import { finalize, fullyOk, nominalOk, totalViolation, type Evaluated } from './evaluate.js';
-import { compareDesigns, pickBest } from './rank.js';
+import { screen } from './search/screen.js';
+import { evaluateOnce, refine, type Seen } from './search/refine.js';
+import { finalize, fullyOk, nominalOk, totalViolation, type Evaluated } from './evaluate/evaluate.js';
+import { compareDesigns, pickBest } from './search/rank.js';
 import { emptyResult, stackResult } from './result.js';
 import { paretoFront, type FrontPoint } from './pareto.js';
-import { verdict, type Verdict } from './verdict.js';
+import { verdict, type Verdict } from './evaluate/verdict.js';
 
 export interface SizeStackResult {
   results: StackResult[];

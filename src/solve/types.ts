@@ -1,7 +1,7 @@
 import type { Polarity } from '../table/types.js';
 import type { Topology } from '../topology/types.js';
 import type { Role, SquareLawCheck } from '../stack/types.js';
-import type { Verdict } from './verdict.js';
+import type { Verdict } from './evaluate/verdict.js';
 
 export type { Role, SquareLawCheck };
 

@@ -1,7 +1,7 @@
 import type { LengthSlice } from '../device/types.js';
 import type { Role, StackShape } from './types.js';
 import { vgsForCurrent } from './invert.js';
-import { covers, rangeError } from './range.js';
+import { covers, outsideSlice } from './range.js';
 import { StackwrightError } from '../errors.js';
 
 /** A diode-connected bias device in stack coordinates. */
@@ -60,7 +60,7 @@ export function biasDevices(
     const vsb = stacked ? gates[k - 1] : 0;
     const vgs = gates[k] - vsb;
     const slice = slices[k];
-    if (!covers(slice, vgs, vgs, vsb)) throw rangeError(slice, vgs, vgs, vsb, `bias diode for the ${drives} gate`);
+    if (!covers(slice, vgs, vgs, vsb)) throw outsideSlice(slice, vgs, vgs, vsb, `bias diode for the ${drives} gate`);
     let w = diodeWidth(slice, vgs, vsb, ib);
     if (w === null) throw new StackwrightError(`bias diode for the ${drives} gate carries no current at VGS = ${vgs.toFixed(3)} V`, { kind: 'range' });
     let l = slice.l;

@@ -1,5 +1,5 @@
 export type { StackDevice, DeviceBias, StackOp, OpGuess, Role, StackShape, SquareLawCheck } from './types.js';
-export { covers, rangeError } from './range.js';
+export { covers, outsideSlice } from './range.js';
 export { solveOperatingPoint } from './operating.js';
 export { routAt, routOf } from './rout.js';
 export { stackCurve, sampleAt, type CurveSample } from './curve.js';

@@ -1,8 +1,8 @@
-import { topologyOf } from '../topology/index.js';
+import { topologyOf } from '../../topology/index.js';
 import type { Candidate } from './candidate.js';
 import { candidateKey } from './candidate.js';
-import type { SolveContext } from './context.js';
-import { evaluateCandidate, type Evaluated } from './evaluate.js';
+import type { SolveContext } from '../context.js';
+import { evaluateCandidate, type Evaluated } from '../evaluate/evaluate.js';
 import { better } from './rank.js';
 
 /** Exactly evaluated candidates by key (null: not realisable), shared by screen and refinement. */

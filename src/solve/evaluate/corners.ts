@@ -1,12 +1,12 @@
-import { StackwrightError } from '../errors.js';
-import type { StackSpec } from '../design/types.js';
+import { StackwrightError } from '../../errors.js';
+import type { StackSpec } from '../../design/types.js';
 import { cornerUt } from './temperature.js';
-import type { CornerResult, StackResult } from './types.js';
-import type { KitAccess } from './kit.js';
-import { cornerResult } from './result.js';
+import type { CornerResult, StackResult } from '../types.js';
+import type { KitAccess } from '../kit.js';
+import { cornerResult } from '../result.js';
 import { evaluateAt } from './evaluate.js';
-import { CURVE_INTERVALS } from './stackeval.js';
-import { midSpan } from '../policy.js';
+import { CURVE_INTERVALS } from './stack-eval.js';
+import { midSpan } from '../../policy.js';
 
 /**
  * Re-check a sized design on any corner of any kit: the same W, L and bias

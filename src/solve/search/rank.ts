@@ -1,6 +1,6 @@
-import { objectiveCompare, type Measures, type Objective } from '../policy.js';
-import type { SolveContext } from './context.js';
-import { fullyOk, nominalOk, totalViolation, type Evaluated } from './evaluate.js';
+import { objectiveCompare, type Measures, type Objective } from '../../policy.js';
+import type { SolveContext } from '../context.js';
+import { fullyOk, nominalOk, totalViolation, type Evaluated } from '../evaluate/evaluate.js';
 
 /** The measures a design is ordered by (nominal corner). */
 export function measuresOf(e: Evaluated): Measures {

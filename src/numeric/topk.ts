@@ -1,5 +1,6 @@
 /**
- * Keeps the `k` entries with the smallest keys (a bounded max-heap), so a
+ * Keeps the `k` entries with the smallest keys (like heapq.nsmallest(k) fed one
+ * at a time; non-finite keys are refused) (a bounded max-heap), so a
  * screen over millions of combinations stores only what it may keep.
  */
 export class TopK<T> {

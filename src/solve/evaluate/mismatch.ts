@@ -1,4 +1,4 @@
-import type { MismatchCoefficients } from '../table/types.js';
+import type { MismatchCoefficients } from '../../table/types.js';
 
 /**
  * 1-sigma relative current mismatch of a device from Pelgrom's area law

@@ -1,5 +1,5 @@
-import { StackwrightError } from '../errors.js';
-import type { StackSpec } from '../design/types.js';
+import { StackwrightError } from '../../errors.js';
+import type { StackSpec } from '../../design/types.js';
 import {
   findHeadroom,
   holds,
@@ -12,7 +12,7 @@ import {
   type OpGuess,
   type StackDevice,
   type StackOp,
-} from '../stack/index.js';
+} from '../../stack/index.js';
 
 /** A stack evaluated exactly (DC solves along the whole curve) against one spec. */
 export interface StackEval {

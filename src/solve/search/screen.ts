@@ -1,9 +1,9 @@
-import { topologyOf, type Candidate, type ScreenTools, type StageBias, type StageOption, type Topology } from '../topology/index.js';
+import { topologyOf, type Candidate, type ScreenTools, type StageBias, type StageOption, type Topology } from '../../topology/index.js';
 import { candidateKey } from './candidate.js';
-import type { SolveContext } from './context.js';
+import type { SolveContext } from '../context.js';
 import { setpointGrid } from './grid.js';
-import { prune, stageOptions } from './options.js';
-import { TopK } from './topk.js';
+import { prune, stageOptions } from './stage-options.js';
+import { TopK } from '../../numeric/topk.js';
 
 // Lowest top-device VDS used for the Rout-at-headroom estimate; below it the device is off the knee anyway.
 const VDS_FLOOR = 0.03;

@@ -1,5 +1,5 @@
-import type { LengthSlice } from '../device/types.js';
-import { vgsWindow, type VdsMode } from '../stack/invert.js';
+import type { LengthSlice } from '../../device/types.js';
+import { vgsWindow, type VdsMode } from '../../stack/invert.js';
 
 /** Per-width values sampled along VGS at one VDS (or diode) and VSB, for cheap screening. */
 export interface Sweep {

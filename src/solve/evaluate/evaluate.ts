@@ -1,15 +1,15 @@
-import { StackwrightError } from '../errors.js';
-import type { StackSpec } from '../design/types.js';
-import type { MismatchCoefficients } from '../table/types.js';
-import type { LengthSlice } from '../device/types.js';
-import { biasDevices, biasGates, sampleAt, sizeStackDevices, type BiasDevice, type SizedStack, type StackDevice, type StackOp } from '../stack/index.js';
-import { topologyOf } from '../topology/index.js';
-import type { Candidate } from './candidate.js';
-import type { SolveContext } from './context.js';
+import { StackwrightError } from '../../errors.js';
+import type { StackSpec } from '../../design/types.js';
+import type { MismatchCoefficients } from '../../table/types.js';
+import type { LengthSlice } from '../../device/types.js';
+import { biasDevices, biasGates, sampleAt, sizeStackDevices, type BiasDevice, type SizedStack, type StackDevice, type StackOp } from '../../stack/index.js';
+import { topologyOf } from '../../topology/index.js';
+import type { Candidate } from '../search/candidate.js';
+import type { SolveContext } from '../context.js';
 import { marginsOf, saturationMargin, type Margins } from './checks.js';
-import { currentMargin, distanceToFeasible, meetsAll } from '../policy.js';
+import { currentMargin, distanceToFeasible, meetsAll } from '../../policy.js';
 import { pelgromSigma } from './mismatch.js';
-import { CURVE_INTERVALS, SCAN_INTERVALS, evaluateFrom, evaluateStack, midPoint, type StackEval } from './stackeval.js';
+import { CURVE_INTERVALS, SCAN_INTERVALS, evaluateFrom, evaluateStack, midPoint, type StackEval } from './stack-eval.js';
 
 /** The same design re-evaluated at another corner with the gates its bias diodes produce there. */
 export interface CornerEval {

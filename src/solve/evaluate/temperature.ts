@@ -1,7 +1,7 @@
-import type { LengthSlice } from '../device/types.js';
-import type { DeviceTable, Polarity } from '../table/types.js';
-import { thermalVoltage } from '../stack/index.js';
-import type { KitAccess } from './kit.js';
+import type { LengthSlice } from '../../device/types.js';
+import type { DeviceTable, Polarity } from '../../table/types.js';
+import { thermalVoltage } from '../../stack/index.js';
+import type { KitAccess } from '../kit.js';
 
 // A table slice carries its table; other slices (analytic test kits) have no temperature.
 function sliceTemperature(s: LengthSlice): number | undefined {

@@ -1,11 +1,5 @@
 import { StackwrightError } from '../errors.js';
 import { formatEng } from '../units/index.js';
-import type { TableMeta } from './types.js';
-
-/** `kit/device/corner`, used to say which table a message is about. */
-export function tableLabel(meta: Pick<TableMeta, 'kit' | 'device' | 'corner'>): string {
-  return `${meta.kit}/${meta.device}/${meta.corner}`;
-}
 
 // Six digits so a value just outside an edge does not print as the edge itself.
 function show(x: number, unit: string): string {

@@ -1,8 +1,14 @@
+import { rangeError } from './range-error.js';
+
 /**
  * Monotone piecewise-cubic Hermite interpolation (Fritsch–Carlson; interior
  * slopes by the weighted harmonic mean of Fritsch & Butland 1984, ends by the
  * shape-preserving three-point formula), the same construction as SciPy's
  * PchipInterpolator. Monotone data stays monotone: no overshoot between samples.
+ *
+ * @param x  strictly increasing abscissae, length n
+ * @param y  values at x, length n
+ * @returns  slopes dy/dx at x, length n (SciPy: PchipInterpolator(x, y).derivative()(x))
  */
 export function pchipSlopes(x: ArrayLike<number>, y: ArrayLike<number>): Float64Array {
   const n = x.length;
@@ -41,9 +47,20 @@ function endSlope(h0: number, h1: number, m0: number, m1: number): number {
   return d;
 }
 
-/** Value at t inside [x0, x_{n-1}] of the Hermite cubic through (x, y) with slopes d. */
+/**
+ * Value at t of the cubic Hermite interpolant through (x, y) with slopes d
+ * (SciPy: CubicHermiteSpline(x, y, d, extrapolate=False)(t)).
+ *
+ * @param x  strictly increasing abscissae, length n ≥ 1
+ * @param y  values at x, length n
+ * @param d  slopes dy/dx at x, length n (e.g. from pchipSlopes)
+ * @param t  query inside [x0, x_{n−1}] (1e-9 of the span of slack at the ends)
+ * @throws   StackwrightError kind 'range' when t is outside: never extrapolates
+ */
 export function hermiteAt(x: ArrayLike<number>, y: ArrayLike<number>, d: ArrayLike<number>, t: number): number {
   const n = x.length;
+  const slack = 1e-9 * Math.abs(x[n - 1] - x[0]);
+  if (!(t >= x[0] - slack && t <= x[n - 1] + slack)) throw rangeError('x', t, x[0], x[n - 1]);
   if (n === 1) return y[0];
   let lo = 0;
   let hi = n - 1;
@@ -61,7 +78,7 @@ export function hermiteAt(x: ArrayLike<number>, y: ArrayLike<number>, d: ArrayLi
   return (2 * s3 - 3 * s2 + 1) * y[lo] + (s3 - 2 * s2 + s) * h * d[lo] + (-2 * s3 + 3 * s2) * y[hi] + (s3 - s2) * h * d[hi];
 }
 
-/** PCHIP through (x, y) evaluated at each target (targets must lie inside the x range). */
+/** PCHIP through (x, y) at each target (SciPy: PchipInterpolator(x, y, extrapolate=False)); throws kind 'range' outside [x0, x_{n−1}]. */
 export function pchip(x: ArrayLike<number>, y: ArrayLike<number>, targets: ArrayLike<number>): Float64Array {
   const d = pchipSlopes(x, y);
   const out = new Float64Array(targets.length);

@@ -3,7 +3,8 @@
  * allocating. Uniform axes get an O(1) index guess; others a binary search.
  * Values within `tolerance` (1e-9 of the span) of an edge count as on the edge,
  * so rounding in callers does not turn into range errors; nothing farther out
- * is accepted.
+ * is accepted. Like numpy.searchsorted(values, x, 'right') − 1 clipped to the
+ * last cell; `locate` returns −1 (no cell) rather than clamping outside.
  */
 export class AxisLocator {
   readonly values: Float64Array;

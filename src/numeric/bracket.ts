@@ -2,6 +2,8 @@
  * Root of f in [a, b] given f(a) and f(b) of opposite sign (or one zero):
  * Illinois-modified regula falsi, which keeps the bracket (so it cannot wander
  * off the table) and converges fast on the near-exponential curves of a table.
+ * Like SciPy's brentq(f, a, b): f must change sign on [a, b]; returns x with
+ * |b − a| shrunk to rounding or f(x) = 0; never evaluates f outside [a, b].
  */
 export function solveBracket(f: (x: number) => number, a: number, b: number, fa: number, fb: number): number {
   if (fa === 0) return a;

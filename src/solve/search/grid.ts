@@ -1,7 +1,7 @@
-import { StackwrightError } from '../errors.js';
-import type { LengthSlice } from '../device/types.js';
-import type { StackSpec } from '../design/types.js';
-import { gmidAt, vgsWindow } from '../stack/invert.js';
+import { StackwrightError } from '../../errors.js';
+import type { LengthSlice } from '../../device/types.js';
+import type { StackSpec } from '../../design/types.js';
+import { gmidAt, vgsWindow } from '../../stack/invert.js';
 
 const um = (x: number) => `${(x * 1e6).toPrecision(3)} µm`;
 

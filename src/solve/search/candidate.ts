@@ -1,4 +1,4 @@
-import type { Candidate } from '../topology/types.js';
+import type { Candidate } from '../../topology/types.js';
 
 export type { Candidate };
 

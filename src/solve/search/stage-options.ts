@@ -1,11 +1,12 @@
-import type { VdsMode } from '../stack/invert.js';
-import type { LengthSlice } from '../device/types.js';
-import { covers, saturationVoltage } from '../stack/index.js';
-import type { SolveContext } from './context.js';
-import { pelgromSigma } from './mismatch.js';
+import type { VdsMode } from '../../stack/invert.js';
+import type { LengthSlice } from '../../device/types.js';
+import { covers, saturationVoltage } from '../../stack/index.js';
+import type { SolveContext } from '../context.js';
+import { pelgromSigma } from '../evaluate/mismatch.js';
 import { atGmid, sweepVgs, type Sweep } from './sweep.js';
 
-import type { StageBias, StageOption } from '../topology/types.js';
+import { nonDominated } from '../../numeric/pareto.js';
+import type { StageBias, StageOption } from '../../topology/types.js';
 
 export type SweepCache = Map<string, Sweep | null>;
 
@@ -72,8 +73,5 @@ export function stageOptions(ctx: SolveContext, at: StageBias): StageOption[] {
  * minimised): lossless for a screen whose estimate is monotone in them.
  */
 export function prune<T>(items: readonly T[], crit: (t: T) => number[]): T[] {
-  const c = items.map(crit);
-  return items.filter((_, a) =>
-    !c.some((cb, b) => b !== a && cb.every((x, k) => x <= c[a][k]) && cb.some((x, k) => x < c[a][k])),
-  );
+  return nonDominated(items, crit);
 }

@@ -1,6 +1,6 @@
-import type { StackSpec } from '../design/types.js';
-import type { StackEval } from './stackeval.js';
-import { VOLT_SCALE, marginsFor, type Margins } from '../policy.js';
+import type { StackSpec } from '../../design/types.js';
+import type { StackEval } from './stack-eval.js';
+import { VOLT_SCALE, marginsFor, type Margins } from '../../policy.js';
 
 export type { Margins };
 

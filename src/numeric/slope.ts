@@ -11,6 +11,8 @@ const { PolynomialRegression } = createRequire(import.meta.url)('ml-regression')
  * style) at each point of a possibly non-uniform axis: slope_i = Σ_k w[i,k]·y[start_i + k].
  * The fit is linear in y, so fitting the unit vectors once per point gives the
  * weights for every curve along this axis. Windows shift inward at the ends.
+ * Matches SciPy savgol_filter(y, window, degree, deriv=1, mode="interp") on a
+ * uniform axis; x strictly increasing, length ≥ window; slopes in y-units per x-unit.
  */
 export interface SlopeStencil {
   /** Points per window. */

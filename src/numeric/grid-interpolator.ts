@@ -1,6 +1,7 @@
 import { StackwrightError } from '../errors.js';
 import { AxisLocator } from './axis.js';
 import { rangeError } from './range-error.js';
+import { rowMajorStrides } from './strides.js';
 
 /** What to do with a query outside the grid: throw (default) or return NaN. Never extrapolate. */
 export type OutOfBounds = 'error' | 'nan';
@@ -48,12 +49,7 @@ export class RegularGridInterpolator {
     this.ndim = axes.length;
     this.values = values instanceof Float64Array ? values : Float64Array.from(values);
     this.locators = typed.map((a) => new AxisLocator(a));
-    this.strides = new Int32Array(this.ndim);
-    let s = 1;
-    for (let d = this.ndim - 1; d >= 0; d--) {
-      this.strides[d] = s;
-      s *= typed[d].length;
-    }
+    this.strides = Int32Array.from(rowMajorStrides(typed.map((a) => a.length)));
     this.idx = new Int32Array(this.ndim);
     this.frac = new Float64Array(this.ndim);
     this.names = names;

@@ -1,7 +1,7 @@
-import type { StackSpec } from '../design/types.js';
-import type { Role } from '../stack/types.js';
+import type { StackSpec } from '../../design/types.js';
+import type { Role } from '../../stack/types.js';
 import { leastSaturated, type Target } from './checks.js';
-import type { StackEval } from './stackeval.js';
+import type { StackEval } from './stack-eval.js';
 
 /** What a verdict is about: a spec target, or what kept the search from realising a design. */
 export type VerdictTarget = Target | 'width' | 'table';
