@@ -1,4 +1,4 @@
-import type { PortRun } from '../api.js';
+import type { PortRun } from '../solve/port.js';
 import { formatEng } from '../units/index.js';
 import { renderTable } from './text.js';
 import { formatArea } from './format.js';

@@ -10,6 +10,7 @@ import { evaluateOnce, refine, type Seen } from './search/refine.js';
 import { finalize, fullyOk, nominalOk, totalViolation, type Evaluated } from './evaluate/evaluate.js';
 import { compareDesigns, pickBest } from './search/rank.js';
 import { emptyResult, stackResult } from './result.js';
+import { chooseResult } from './choose.js';
 import { paretoFront, type FrontPoint } from './pareto.js';
 import { verdict, type Verdict } from './evaluate/verdict.js';
 
@@ -106,7 +107,8 @@ export function sizeStack(spec: StackSpec, kit: KitAccess, opts: { supply: numbe
 
 /**
  * Size every stack of a design spec on the kit, over the spec's corners
- * (resolved against the kit: default nominal, "all" for every corner).
+ * (resolved against the kit: default nominal, "all" for every corner). With
+ * topology 'auto' each topology gets a result and the chosen one has `chosen: true`.
  */
 export function sizeDesign(design: DesignSpec, kit: KitAccess): SizeResult & { fronts: Record<string, FrontPoint[]> } {
   if (design.kit !== kit.kit) {
@@ -117,8 +119,25 @@ export function sizeDesign(design: DesignSpec, kit: KitAccess): SizeResult & { f
   const fronts: Record<string, FrontPoint[]> = {};
   for (const s of design.stacks) {
     const r = sizeStack(s, kit, { supply: design.supply, corners });
+    if (s.topology === 'auto') {
+      // The one the objective prefers (or the nearest when none is feasible) is marked; the rest are alternatives.
+      const pick = chooseResult(r.results, s);
+      for (const x of r.results) x.chosen = x === pick;
+    }
     stacks.push(...r.results);
     fronts[s.name] = r.front;
   }
   return { kit: kit.kit, corners, supply: design.supply, caution: CAUTION, stacks, fronts };
+}
+
+/** A size run: the result as `size --json` prints it, and the Pareto front per stack name. */
+export interface SizeRun {
+  result: SizeResult;
+  fronts: Record<string, FrontPoint[]>;
+}
+
+/** sizeDesign with the fronts kept beside the result. */
+export function sizeSpec(spec: DesignSpec, kit: KitAccess): SizeRun {
+  const { fronts, ...result } = sizeDesign(spec, kit);
+  return { result, fronts };
 }
