@@ -1,7 +1,7 @@
 import { StackwrightError } from '../errors.js';
 import { listKits, listTables, loadTable } from '../table/store.js';
 import type { DeviceTable, Polarity } from '../table/types.js';
-import { tablesDirFor } from '../locate.js';
+import { tablesDirFor } from '../table/locate.js';
 import { kitAccessFromTables } from './kit-tables.js';
 import type { KitAccess } from './kit.js';
 

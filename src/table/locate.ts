@@ -1,8 +1,8 @@
 import { existsSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { StackwrightError } from './errors.js';
-import { listKits } from './table/store.js';
+import { StackwrightError } from '../errors.js';
+import { listKits } from './store.js';
 
 /** The package's own folder (holding the bundled demo tables and specs). */
 export function packageRoot(): string {
