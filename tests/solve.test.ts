@@ -115,9 +115,12 @@ describe('sizing search on an analytic kit', () => {
     expect(r.feasible).toBe(true);
     expect(r.predicted.sigma!).toBeLessThanOrEqual(target);
     const d = r.devices[0];
-    // Pelgrom, Duinmaijer & Welbers, IEEE JSSC 1989; Kinget, IEEE JSSC 2005: σ² = ((gm/ID)²·AVT² + Aβ²)/(W·L).
-    const hand = Math.sqrt((d.gmid * d.gmid * AVT * AVT + ABETA * ABETA) / (d.w * d.l));
-    expect(r.predicted.sigma! / hand).toBeCloseTo(1, 9);
+    // Pelgrom, Duinmaijer & Welbers, IEEE JSSC 1989; Kinget, IEEE JSSC 2005: σ² = ((gm/ID)²·AVT² + Aβ²)/(W·L),
+    // with gm/ID taken from the analytic EKV model itself at the reported bias (not from the result's gmid).
+    const [jd, gmw] = ekv({ l: d.l, vt0: 0.45, kp: 250e-6, n: 1.35, lambda: 0.05e-6 / d.l })(d.vgs, d.vds, d.vsb);
+    const gmid = gmw / jd;
+    const hand = Math.sqrt((gmid * gmid * AVT * AVT + ABETA * ABETA) / (d.w * d.l));
+    expect(r.predicted.sigma! / hand).toBeCloseTo(1, 6);
     expect(r.predicted.area).toBeGreaterThan(area.predicted.area);
   });
 
