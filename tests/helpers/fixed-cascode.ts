@@ -1,18 +1,13 @@
 // A throwaway topology for tests, written and registered in this one file: a cascode whose bottom drain is held at
 // one fixed VDS setpoint (0.25 V) instead of the search choosing it. Invented for tests; not shipped.
-import { registerTopology, topologyNames, type TopologyDescriptor } from '../../src/topology/index.js';
+import { registerTopology, topologyNames, topologyOf, type TopologyDescriptor } from '../../src/topology/index.js';
 
 export const FIXED_VDS = 0.25;
 
+// Shape, biasing and rule of thumb as the cascode's (a spread copy); only the name and the screen differ.
 export const fixedCascode: TopologyDescriptor = {
+  ...topologyOf('cascode'),
   name: 'fixed-cascode',
-  roles: ['bottom', 'top'],
-  setpoints: 1,
-  bottomDiode: false,
-  stackedBias: false,
-  ruleOfThumbHeadroom: (vov) => vov[0] + vov[1],
-  // Refinement may still move the setpoint; the screen only offers the fixed one.
-  refineVoltageStep: 0.0125,
   screen(t) {
     const bottom = t.prune(t.options({ mode: FIXED_VDS, vsb: 0, lower: true }), t.crit.bottom);
     for (const top of t.top(FIXED_VDS)) {
