@@ -10,7 +10,7 @@ import {
   parseWrdata,
   routOf,
   runNgspice,
-  sampleAt,
+  interpolateCurve,
   simulateOp,
   simulateSweep,
   stackNetlist,
@@ -151,7 +151,7 @@ describe('sweep measurements', () => {
     const h = measuredHeadroom(routOf(model(rinf)), { rout: 1e3, headroom: 0.5, span: 1.6 });
     expect(Math.abs(h - v)).toBeLessThan(2e-3);
     expect(measuredHeadroom(routOf(model(2e6)), { rout: 2e7, headroom: 0.5, span: 1.6 })).toBe(Infinity);
-    expect(() => sampleAt(routOf(model(1e8)), 2.5)).toThrow(/outside the simulated sweep/);
+    expect(() => interpolateCurve(routOf(model(1e8)), 2.5)).toThrow(/outside the simulated sweep/);
   });
 });
 
@@ -200,8 +200,8 @@ withNgspice('with ngspice (reference simulator, Debian package)', () => {
       const pts = routOf(await simulateSweep(stackNetlist(nCascode, { ...base, include: libLine('tt'), bias })));
       expect(pts).toHaveLength(181);
       // Saturated cascode: Rout far above a single device's (common practice).
-      expect(sampleAt(pts, 1.2).rout).toBeGreaterThan(1e6);
-      expect(sampleAt(pts, 0.05).rout).toBeLessThan(sampleAt(pts, 1.2).rout);
+      expect(interpolateCurve(pts, 1.2).rout).toBeGreaterThan(1e6);
+      expect(interpolateCurve(pts, 0.05).rout).toBeLessThan(interpolateCurve(pts, 1.2).rout);
     }
   });
 

@@ -92,7 +92,7 @@ export function routOf(points: readonly SweepPoint[]): RoutPoint[] {
 }
 
 /** Linear interpolation of iout and rout at stack voltage v (inside the sweep only). */
-export function sampleAt(curve: readonly RoutPoint[], v: number): RoutPoint {
+export function interpolateCurve(curve: readonly RoutPoint[], v: number): RoutPoint {
   const n = curve.length;
   if (!(v >= curve[0].v - 1e-12 && v <= curve[n - 1].v + 1e-12)) {
     throw new StackwrightError(`v = ${v} V is outside the simulated sweep ${curve[0].v}..${curve[n - 1].v} V`, { kind: 'range', where: 'measure' });
@@ -124,7 +124,7 @@ export { midSpan };
  * interpolated on the worse of the two margins. Infinity when the targets fail at span.
  */
 export function measuredHeadroom(curve: readonly RoutPoint[], t: HeadroomTargets): number {
-  const iMid = sampleAt(curve, midSpan(t)).iout;
+  const iMid = interpolateCurve(curve, midSpan(t)).iout;
   const pts = curve.filter((p) => p.v <= t.span + 1e-9);
   const margin = (p: RoutPoint) => Math.min(Math.min(p.rout / t.rout - 1, 1), CURRENT_WINDOW * currentMargin(p.iout, iMid));
   let j = pts.length - 1;
