@@ -1,28 +1,19 @@
 import type { Polarity } from '../table/types.js';
+import type { OperatingPoint } from '../device/types.js';
 import type { Topology } from '../topology/types.js';
 import type { Role, SquareLawCheck } from '../stack/types.js';
 import type { Verdict } from './evaluate/verdict.js';
 
 export type { Role, SquareLawCheck };
 
-/** A sized device of the output stack. Voltages are magnitudes except `gate`. */
-export interface DeviceResult {
+/**
+ * A sized device of the output stack: the operating-point record (device layer) without capacitances, plus
+ * its role, absolute gate voltage and VDSsat. Voltages are magnitudes except `gate`.
+ */
+export interface DeviceResult extends Omit<OperatingPoint, 'cgg' | 'cgs' | 'cgd' | 'cdd'> {
   role: Role;
-  w: number;
-  l: number;
   /** Absolute gate voltage to ground, V. */
   gate: number;
-  vgs: number;
-  vds: number;
-  vsb: number;
-  gmid: number;
-  id: number;
-  gm: number;
-  gds: number;
-  gmb: number;
-  gain: number;
-  jd: number;
-  ft: number;
   /** Table-derived saturation voltage at mid-span (EKV interpolation from gm/ID), V. */
   vdsat?: number;
 }

@@ -1,4 +1,4 @@
-import type { LengthSlice } from '../device/types.js';
+import type { LengthSlice, OperatingPoint } from '../device/types.js';
 
 /** One device of a stack: a length slice and the width it is drawn at. */
 export interface StackDevice {
@@ -6,16 +6,8 @@ export interface StackDevice {
   readonly w: number;
 }
 
-/** One device's bias and small-signal values at its actual width (magnitudes, SI). */
-export interface DeviceBias {
-  vgs: number;
-  vds: number;
-  vsb: number;
-  id: number;
-  gm: number;
-  gds: number;
-  gmb: number;
-}
+/** One device's bias and small-signal values at its actual width (magnitudes, SI): the operating-point record, in part. */
+export type DeviceBias = Pick<OperatingPoint, 'vgs' | 'vds' | 'vsb' | 'id' | 'gm' | 'gds' | 'gmb'>;
 
 /**
  * DC operating point of a stack in stack coordinates: `nodes[0]` is the rail
