@@ -522,8 +522,8 @@ describe('ingest: hostile text', () => {
       expect(err.message).toMatch(want);
     }
     // Inside the limits the value is taken as written (the check is not a blanket refusal).
-    const big = rows.map((r) => [...r.slice(0, 5), String(Number(r[5]) * 1e6)]);
-    expect(ingestTexts([{ file: 'h.csv', text: join(big) }], N).data.id[0] / (BASE.data.id[0] * 1e6)).toBeCloseTo(1, 12);
+    const big = rows.map((r) => [...r.slice(0, 5), String(Number(r[5]) * 1e3)]);
+    expect(ingestTexts([{ file: 'h.csv', text: join(big) }], N).data.id[0] / (BASE.data.id[0] * 1e3)).toBeCloseTo(1, 12);
   });
 
   it('headers seen are listed at most 12, each cut short and escaped', () => {
@@ -547,5 +547,19 @@ describe('ingest: hostile text', () => {
     expect(err.message).toBe('f.csv: derived gm is Infinity at bias point L=200 nm vgs=0.9 vds=0.5 vsb=0; check the input rows around it');
     gm.fill(1e-4)[flatIndex(axes, 0, 1, 1, 0)] = NaN;
     expect(errorOf(() => checkFinite(axes, { gm }, new Set(), 'f.csv')).message).toMatch(/^f\.csv: gm is NaN at bias point L=100 nm vgs=0.6 vds=1 vsb=0;/);
+  });
+});
+
+describe('ingest: implausible and odd input', () => {
+  const header = 'l,w,vgs,vds,vsb,id';
+
+  it('a --map onto a quantity that another column names by itself is an error naming both', () => {
+    const text = csv(`${header},gm`, BASE_ROWS.map((r) => [...r, 2 * (r[5] as number)]));
+    expect(errorOf(() => ingestTexts([{ file: 'g.csv', text }], { ...N, map: { gm: 'id' } })).message).toBe(
+      'g.csv:1:20: columns "id" and "gm" both give id (one of them through --map); remove one or map it elsewhere',
+    );
+    // Mapped column before the named one: the same.
+    const first = csv(`i(vd),${header}`, BASE_ROWS.map((r) => [r[5], ...r]));
+    expect(errorOf(() => ingestTexts([{ file: 'f.csv', text: first }], { ...N, map: { 'i(vd)': 'id' } })).message).toMatch(/^f\.csv:1:\d+: columns "i\(vd\)" and "id" both give id/);
   });
 });
