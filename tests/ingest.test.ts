@@ -562,4 +562,19 @@ describe('ingest: implausible and odd input', () => {
     const first = csv(`i(vd),${header}`, BASE_ROWS.map((r) => [r[5], ...r]));
     expect(errorOf(() => ingestTexts([{ file: 'f.csv', text: first }], { ...N, map: { 'i(vd)': 'id' } })).message).toMatch(/^f\.csv:1:\d+: columns "i\(vd\)" and "id" both give id/);
   });
+
+  it('decodes UTF-16 by its byte-order mark and refuses encodings it cannot read, by name', () => {
+    // Byte-order marks: FF FE = UTF-16LE, FE FF = UTF-16BE, FF FE 00 00 = UTF-32LE (Unicode Standard, section 23.8).
+    const text = csv(header, BASE_ROWS);
+    const le = Buffer.concat([Buffer.from([0xff, 0xfe]), Buffer.from(text, 'utf16le')]);
+    expectSameTable(ingestTexts([{ file: 'le.csv', text: le }], N), BASE);
+    const beBody = Buffer.from(text, 'utf16le');
+    beBody.swap16();
+    expectSameTable(ingestTexts([{ file: 'be.csv', text: Buffer.concat([Buffer.from([0xfe, 0xff]), beBody]) }], N), BASE);
+    expect(errorOf(() => ingestTexts([{ file: 'nobom.csv', text: Buffer.from(text, 'utf16le') }], N)).message).toBe(
+      'nobom.csv: the file is UTF-16 without a byte-order mark (little-endian by its NUL bytes) text; save it as UTF-8 (or UTF-16 with a byte-order mark)',
+    );
+    const u32 = Buffer.concat([Buffer.from([0xff, 0xfe, 0, 0]), Buffer.alloc(8)]);
+    expect(errorOf(() => ingestTexts([{ file: 'w.csv', text: u32 }], N)).message).toMatch(/^w\.csv: the file is UTF-32 \(little-endian\) text/);
+  });
 });
