@@ -577,4 +577,17 @@ describe('ingest: implausible and odd input', () => {
     const u32 = Buffer.concat([Buffer.from([0xff, 0xfe, 0, 0]), Buffer.alloc(8)]);
     expect(errorOf(() => ingestTexts([{ file: 'w.csv', text: u32 }], N)).message).toMatch(/^w\.csv: the file is UTF-32 \(little-endian\) text/);
   });
+
+  it('accepts repeated bias points differing below 1e-6 relative, refuses larger naming both rows', () => {
+    // Overlapping simulator runs print the same point with different last digits (ninth significant digit here).
+    const near = [...BASE_ROWS, [...BASE_ROWS[3].slice(0, 5), (BASE_ROWS[3][5] as number) * (1 + 3e-9)]];
+    expectSameTable(ingestTexts([{ file: 'd.csv', text: csv(header, near) }], N), BASE);
+    const at5e7 = [...BASE_ROWS, [...BASE_ROWS[3].slice(0, 5), (BASE_ROWS[3][5] as number) * (1 + 5e-7)]];
+    expect(() => ingestTexts([{ file: 'd.csv', text: csv(header, at5e7) }], N)).not.toThrow();
+    const far = [...BASE_ROWS, [...BASE_ROWS[3].slice(0, 5), (BASE_ROWS[3][5] as number) * (1 + 2e-6)]];
+    const n = BASE_ROWS.length + 2;
+    expect(errorOf(() => ingestTexts([{ file: 'd.csv', text: csv(header, far) }], N)).message).toMatch(
+      new RegExp(`^d\\.csv:${n}: bias point L=180 nm vgs=600 mV vds=1.2 V vsb=0 V repeats with a different id \\(.*A vs .*A, relative difference 2\\.0e-6, tolerance 1e-6\\) at d\\.csv:5 and d\\.csv:${n}$`),
+    );
+  });
 });

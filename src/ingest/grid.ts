@@ -1,5 +1,5 @@
 import { StackwrightError, at } from '../errors.js';
-import type { Axis, StoredQuantity } from '../table/types.js';
+import { UNITS, type Axis, type StoredQuantity } from '../table/types.js';
 import { formatEng } from '../units/index.js';
 import type { Pool } from './pool.js';
 import { commonAxis, resampleLength } from './resample.js';
@@ -78,13 +78,26 @@ export function lengthGrids(pool: Pool): LengthGrid[] {
   return grids.sort((a, b) => a.l - b.l);
 }
 
+/**
+ * Overlapping simulator runs repeat bias points with values that differ in the
+ * last printed digits; below this relative difference a repeat is the same
+ * point (the first row is kept), above it the rows conflict.
+ */
+export const DUPLICATE_TOLERANCE = 1e-6;
+
 function checkDuplicate(pool: Pool, quantities: StoredQuantity[], a: number, b: number): void {
   for (const q of quantities) {
     const x = pool.data[q]![a];
     const y = pool.data[q]![b];
-    if (Math.abs(x - y) > 1e-9 * Math.max(Math.abs(x), Math.abs(y))) {
-      const point = `L=${formatEng(pool.l[a], 'm', 4)} vgs=${pool.vgs[a]} vds=${pool.vds[a]} vsb=${pool.vsb[a]}`;
-      throw new StackwrightError(`bias point ${point} repeats with a different ${q} (${x} vs ${y}) at ${where(pool, a)} and ${where(pool, b)}`, { where: where(pool, b) });
+    const rel = Math.abs(x - y) / Math.max(Math.abs(x), Math.abs(y));
+    if (rel >= DUPLICATE_TOLERANCE) {
+      const v = (u: number) => formatEng(u, 'V', 6);
+      const point = `L=${formatEng(pool.l[a], 'm', 4)} vgs=${v(pool.vgs[a])} vds=${v(pool.vds[a])} vsb=${v(pool.vsb[a])}`;
+      const show = (u: number) => formatEng(u, UNITS[q], 9);
+      throw new StackwrightError(
+        `bias point ${point} repeats with a different ${q} (${show(x)} vs ${show(y)}, relative difference ${rel.toExponential(1)}, tolerance ${DUPLICATE_TOLERANCE.toExponential(0)}) at ${where(pool, a)} and ${where(pool, b)}`,
+        { where: where(pool, b) },
+      );
     }
   }
 }
