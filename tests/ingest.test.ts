@@ -590,4 +590,16 @@ describe('ingest: implausible and odd input', () => {
       new RegExp(`^d\\.csv:${n}: bias point L=180 nm vgs=600 mV vds=1.2 V vsb=0 V repeats with a different id \\(.*A vs .*A, relative difference 2\\.0e-6, tolerance 1e-6\\) at d\\.csv:5 and d\\.csv:${n}$`),
     );
   });
+
+  it('validates temperature and Pelgrom coefficients with the plausible range in the message', () => {
+    const text = csv(header, BASE_ROWS);
+    const one = (o: Partial<IngestOptions>) => errorOf(() => ingestTexts([{ file: 't.csv', text }], { ...N, ...o })).message;
+    // Absolute zero is -273.15 °C (SI definition of the kelvin); military range -55..125 °C (common practice).
+    expect(one({ temperature: -500 })).toBe('--temperature: temperature -500 °C is implausible for a corner; expected -60 °C to 200 °C');
+    expect(one({ temperature: 900 })).toMatch(/^--temperature: temperature 900 °C .*expected -60 °C to 200 °C$/);
+    // A_VT is positive, about 1–10 mV·µm in bulk CMOS (Pelgrom et al., IEEE JSSC 1989; Kinget, IEEE JSSC 2005).
+    expect(one({ mismatch: { avt: -5e-9, abeta: 1e-8 } })).toBe('--avt: A_VT -5 mV·µm is implausible; expected 0.1 to 50 mV·µm (typically 1–10)');
+    expect(one({ mismatch: { avt: 5e-9, abeta: -1e-8 } })).toMatch(/^--abeta: A_β -1 %·µm is implausible; expected 0 to 20 %·µm/);
+    expect(ingestTexts([{ file: 't.csv', text }], { ...N, temperature: -40, mismatch: { avt: 3e-9, abeta: 1e-8 } }).meta.temperature).toBe(-40);
+  });
 });
