@@ -1,4 +1,4 @@
-import { closeSync, existsSync, fsyncSync, mkdirSync, openSync, renameSync, rmSync, writeSync } from 'node:fs';
+import { closeSync, existsSync, fsyncSync, linkSync, mkdirSync, openSync, renameSync, rmSync, writeSync } from 'node:fs';
 import { dirname, basename, join } from 'node:path';
 import { randomBytes } from 'node:crypto';
 import { StackwrightError } from './errors.js';
@@ -11,7 +11,7 @@ import { StackwrightError } from './errors.js';
 export function writeFileAtomic(path: string, data: string | Uint8Array, opts: { force?: boolean } = {}): void {
   if (!opts.force) refuseExisting([path]);
   const tmp = stage(path, data);
-  commit(tmp, path);
+  commit(tmp, path, !opts.force);
 }
 
 /**
@@ -30,7 +30,7 @@ export function writeFilesAtomic(files: ReadonlyArray<readonly [string, string |
   }
   for (let i = 0; i < staged.length; i++) {
     try {
-      commit(staged[i][0], staged[i][1]);
+      commit(staged[i][0], staged[i][1], !opts.force);
     } catch (e) {
       for (const [tmp] of staged.slice(i + 1)) removeQuietly(tmp);
       throw e;
@@ -72,12 +72,36 @@ function stage(path: string, data: string | Uint8Array): string {
   return tmp;
 }
 
-function commit(tmp: string, path: string): void {
+/**
+ * Move the temp file into place. Without force the target is created
+ * exclusively (a hard link fails with EEXIST if it exists), so of two
+ * processes that both passed the existence check only one wins and the other
+ * gets 'exists' instead of silently replacing the first one's file.
+ */
+function commit(tmp: string, path: string, exclusive: boolean): void {
   try {
-    renameSync(tmp, path);
+    if (exclusive) {
+      claim(tmp, path);
+      removeQuietly(tmp);
+    } else renameSync(tmp, path);
   } catch (e) {
     removeQuietly(tmp);
+    if ((e as NodeJS.ErrnoException).code === 'EEXIST') {
+      throw new StackwrightError(`${path} already exists (written meanwhile by another process); pass --force to overwrite it`, { kind: 'exists' });
+    }
     throw new StackwrightError(`cannot write ${path}: ${reason(e)}`);
+  }
+}
+
+/** Link tmp to path, or where hard links are unsupported reserve path with O_EXCL and rename over it. */
+function claim(tmp: string, path: string): void {
+  try {
+    linkSync(tmp, path);
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code;
+    if (code !== 'EPERM' && code !== 'ENOTSUP' && code !== 'EOPNOTSUPP' && code !== 'EXDEV' && code !== 'EMLINK') throw e;
+    closeSync(openSync(path, 'wx'));
+    renameSync(tmp, path);
   }
 }
 

@@ -24,7 +24,8 @@ export function writeTable(dir: string, table: DeviceTable, opts: { force?: bool
     throw new StackwrightError(`${path} already exists; pass --force to overwrite it`, { kind: 'exists' });
   }
   const bytes = encodeTable(table, `table ${table.meta.kit}/${table.meta.device}/${table.meta.corner}`);
-  writeFileAtomic(path, bytes, { force: true });
+  // Exclusive without force: a concurrent ingest of the same table that passed the check above loses cleanly.
+  writeFileAtomic(path, bytes, { force: opts.force });
   cache.delete(resolve(path));
   return path;
 }
