@@ -553,14 +553,63 @@ describe('ingest: hostile text', () => {
 describe('ingest: implausible and odd input', () => {
   const header = 'l,w,vgs,vds,vsb,id';
 
-  it('a --map onto a quantity that another column names by itself is an error naming both', () => {
-    const text = csv(`${header},gm`, BASE_ROWS.map((r) => [...r, 2 * (r[5] as number)]));
-    expect(errorOf(() => ingestTexts([{ file: 'g.csv', text }], { ...N, map: { gm: 'id' } })).message).toBe(
-      'g.csv:1:20: columns "id" and "gm" both give id (one of them through --map); remove one or map it elsewhere',
+  it('refuses a unit header over values of another scale, naming the column and the range found', () => {
+    // SI prefixes (BIPM SI Brochure, table 7): a [um] header scales by 1e-6, [mV] by 1e-3, [uA] by 1e-6, [fF] by 1e-15.
+    // Plausible MOSFET ranges (common practice): L of nm..mm, a VGS/VDS sweep reaching at least 10 mV, the largest
+    // drain current of a sweep between 1 nA and 10 A, capacitances between 1 aF and 1 nF.
+    const um = csv('L [um],w,vgs,vds,vsb,id', BASE_ROWS);
+    expect(errorOf(() => ingestTexts([{ file: 'u.csv', text: um }], N)).message).toBe(
+      'u.csv:1:1: column "L [um]": values 180 fm..500 fm are implausible for channel lengths (expected each between 1 nm and 1 mm); check the unit in the header or name one with --map',
     );
-    // Mapped column before the named one: the same.
-    const first = csv(`i(vd),${header}`, BASE_ROWS.map((r) => [r[5], ...r]));
-    expect(errorOf(() => ingestTexts([{ file: 'f.csv', text: first }], { ...N, map: { 'i(vd)': 'id' } })).message).toMatch(/^f\.csv:1:\d+: columns "i\(vd\)" and "id" both give id/);
+    const wum = csv('l,W (um),vgs,vds,vsb,id', BASE_ROWS);
+    expect(errorOf(() => ingestTexts([{ file: 'u.csv', text: wum }], N)).message).toMatch(/^u\.csv:1:\d+: column "W \(um\)": values 1 pm are implausible for widths/);
+    const mv = csv('l,w,vgs,Vds [mV],vsb,id', BASE_ROWS);
+    expect(errorOf(() => ingestTexts([{ file: 'u.csv', text: mv }], N)).message).toMatch(
+      /^u\.csv:1:\d+: column "Vds \[mV\]": values 600 µV\.\.1\.2 mV are implausible for a VDS sweep \(expected a largest magnitude between 10 mV and 100 V\)/,
+    );
+    const ua = csv('l,w,vgs,vds,vsb,Id [uA]', BASE_ROWS);
+    expect(errorOf(() => ingestTexts([{ file: 'u.csv', text: ua }], N)).message).toMatch(/column "Id \[uA\]": values .*\.\.126 pA are implausible for drain currents/);
+    // The other way round: amperes header over microampere values.
+    const amps = csv(header, BASE_ROWS.map((r) => [...r.slice(0, 5), (r[5] as number) * 1e6]));
+    expect(errorOf(() => ingestTexts([{ file: 'u.csv', text: amps }], N)).message).toMatch(/column "id": values .*\.\.126 A are implausible for drain currents \(expected a largest magnitude between 1 nA and 10 A\)/);
+    const ff = csv(`${header},cgg [fF]`, BASE_ROWS.map((r) => [...r, 2e-15]));
+    expect(errorOf(() => ingestTexts([{ file: 'u.csv', text: ff }], N)).message).toMatch(/^u\.csv:1:20: column "cgg \[fF\]": values 2e-30 F are implausible for capacitances \(expected a largest magnitude between 1 aF and 1 nF\)/);
+    const volts = csv(header.replace('vgs', 'vgs [V]'), BASE_ROWS.map((r) => [r[0], r[1], (r[2] as number) * 100, r[3], r[4], r[5]]));
+    expect(errorOf(() => ingestTexts([{ file: 'u.csv', text: volts }], N)).message).toMatch(/column "vgs \[V\]": values 60 V\.\.120 V are implausible for a VGS sweep/);
+    // The same values under a header that fits them are accepted.
+    expectSameTable(ingestTexts([{ file: 'ok.csv', text: csv('L [m],w,vgs,vds,vsb,Id [A]', BASE_ROWS) }], N), BASE);
+  });
+
+  it('refuses one sign-flipped drain current among a device\'s rows, naming the row', () => {
+    // One transistor's drain current keeps its sign over a sweep with VDS >= 0 (common practice); a flipped row is an export error.
+    const rows = BASE_ROWS.map((r) => r.slice());
+    rows[9][5] = -(rows[9][5] as number);
+    const text = csv(header, rows);
+    const col = rows[9].slice(0, 5).join(',').length + 2;
+    expect(errorOf(() => ingestTexts([{ file: 's.csv', text }], N)).message).toMatch(
+      new RegExp(`^s\\.csv:11:${col}: column "id": this row's drain current \\(.*A\\) has the sign opposite to the device's other rows`),
+    );
+    // PMOS in simulator signs with one row flipped positive: the same.
+    const p = BASE_ROWS.map(([l, w, g, d, s, id]) => [l, w, -g, -d, s, -id]);
+    p[4][5] = -(p[4][5] as number);
+    expect(errorOf(() => ingestTexts([{ file: 'p.csv', text: csv(header, p) }], P)).message).toMatch(/^p\.csv:6:\d+: column "id": this row's drain current/);
+    // Numerical noise of the other sign near zero current (1e-6 of the largest) is not a flipped row.
+    const noise = BASE_ROWS.map((r) => r.slice());
+    noise[0][5] = -1e-15;
+    expect(() => ingestTexts([{ file: 'n.csv', text: csv(header, noise) }], N)).not.toThrow();
+  });
+
+  it('accepts repeated bias points differing below 1e-6 relative, refuses larger naming both rows', () => {
+    // Overlapping simulator runs print the same point with different last digits (ninth significant digit here).
+    const near = [...BASE_ROWS, [...BASE_ROWS[3].slice(0, 5), (BASE_ROWS[3][5] as number) * (1 + 3e-9)]];
+    expectSameTable(ingestTexts([{ file: 'd.csv', text: csv(header, near) }], N), BASE);
+    const at5e7 = [...BASE_ROWS, [...BASE_ROWS[3].slice(0, 5), (BASE_ROWS[3][5] as number) * (1 + 5e-7)]];
+    expect(() => ingestTexts([{ file: 'd.csv', text: csv(header, at5e7) }], N)).not.toThrow();
+    const far = [...BASE_ROWS, [...BASE_ROWS[3].slice(0, 5), (BASE_ROWS[3][5] as number) * (1 + 2e-6)]];
+    const n = BASE_ROWS.length + 2;
+    expect(errorOf(() => ingestTexts([{ file: 'd.csv', text: csv(header, far) }], N)).message).toMatch(
+      new RegExp(`^d\\.csv:${n}: bias point L=180 nm vgs=600 mV vds=1.2 V vsb=0 V repeats with a different id \\(.*A vs .*A, relative difference 2\\.0e-6, tolerance 1e-6\\) at d\\.csv:5 and d\\.csv:${n}$`),
+    );
   });
 
   it('decodes UTF-16 by its byte-order mark and refuses encodings it cannot read, by name', () => {
@@ -578,19 +627,6 @@ describe('ingest: implausible and odd input', () => {
     expect(errorOf(() => ingestTexts([{ file: 'w.csv', text: u32 }], N)).message).toMatch(/^w\.csv: the file is UTF-32 \(little-endian\) text/);
   });
 
-  it('accepts repeated bias points differing below 1e-6 relative, refuses larger naming both rows', () => {
-    // Overlapping simulator runs print the same point with different last digits (ninth significant digit here).
-    const near = [...BASE_ROWS, [...BASE_ROWS[3].slice(0, 5), (BASE_ROWS[3][5] as number) * (1 + 3e-9)]];
-    expectSameTable(ingestTexts([{ file: 'd.csv', text: csv(header, near) }], N), BASE);
-    const at5e7 = [...BASE_ROWS, [...BASE_ROWS[3].slice(0, 5), (BASE_ROWS[3][5] as number) * (1 + 5e-7)]];
-    expect(() => ingestTexts([{ file: 'd.csv', text: csv(header, at5e7) }], N)).not.toThrow();
-    const far = [...BASE_ROWS, [...BASE_ROWS[3].slice(0, 5), (BASE_ROWS[3][5] as number) * (1 + 2e-6)]];
-    const n = BASE_ROWS.length + 2;
-    expect(errorOf(() => ingestTexts([{ file: 'd.csv', text: csv(header, far) }], N)).message).toMatch(
-      new RegExp(`^d\\.csv:${n}: bias point L=180 nm vgs=600 mV vds=1.2 V vsb=0 V repeats with a different id \\(.*A vs .*A, relative difference 2\\.0e-6, tolerance 1e-6\\) at d\\.csv:5 and d\\.csv:${n}$`),
-    );
-  });
-
   it('validates temperature and Pelgrom coefficients with the plausible range in the message', () => {
     const text = csv(header, BASE_ROWS);
     const one = (o: Partial<IngestOptions>) => errorOf(() => ingestTexts([{ file: 't.csv', text }], { ...N, ...o })).message;
@@ -601,5 +637,20 @@ describe('ingest: implausible and odd input', () => {
     expect(one({ mismatch: { avt: -5e-9, abeta: 1e-8 } })).toBe('--avt: A_VT -5 mV·µm is implausible; expected 0.1 to 50 mV·µm (typically 1–10)');
     expect(one({ mismatch: { avt: 5e-9, abeta: -1e-8 } })).toMatch(/^--abeta: A_β -1 %·µm is implausible; expected 0 to 20 %·µm/);
     expect(ingestTexts([{ file: 't.csv', text }], { ...N, temperature: -40, mismatch: { avt: 3e-9, abeta: 1e-8 } }).meta.temperature).toBe(-40);
+  });
+
+  it('refuses a sweep whose currents are all zero, naming the file', () => {
+    const zero = BASE_ROWS.map((r) => [...r.slice(0, 5), 0]);
+    expect(errorOf(() => ingestTexts([{ file: 'z.csv', text: csv(header, zero) }], N)).message).toBe('z.csv: no device conducts: every drain current (column "id") is zero');
+  });
+
+  it('a --map onto a quantity that another column names by itself is an error naming both', () => {
+    const text = csv(`${header},gm`, BASE_ROWS.map((r) => [...r, 2 * (r[5] as number)]));
+    expect(errorOf(() => ingestTexts([{ file: 'g.csv', text }], { ...N, map: { gm: 'id' } })).message).toBe(
+      'g.csv:1:20: columns "id" and "gm" both give id (one of them through --map); remove one or map it elsewhere',
+    );
+    // Mapped column before the named one: the same.
+    const first = csv(`i(vd),${header}`, BASE_ROWS.map((r) => [r[5], ...r]));
+    expect(errorOf(() => ingestTexts([{ file: 'f.csv', text: first }], { ...N, map: { 'i(vd)': 'id' } })).message).toMatch(/^f\.csv:1:\d+: columns "i\(vd\)" and "id" both give id/);
   });
 });

@@ -1,9 +1,10 @@
 import { StackwrightError, at } from '../errors.js';
-import { showText } from '../units/index.js';
+import { formatEng, showText } from '../units/index.js';
 import { badCell, readCell } from './cell.js';
 import { cellColumn, detectDelimiter } from './delimiter.js';
 import { checkMap, matchHeaders, type ColumnSpec } from './headers.js';
 import { limitOf, outOfRange } from './limits.js';
+import { allZero, checkPlausible, magnitudeRange, oppositeSignRow } from './plausible.js';
 import type { CellPlaces } from './quoted.js';
 import { forEachRow } from './rows.js';
 import { showList } from './show.js';
@@ -29,6 +30,7 @@ export function parseSweep(input: string | Buffer, file: string, opts: SweepOpti
   const lines = new Int32Array(capacity);
   let headers: string[] = [];
   let specs: ColumnSpec[] = [];
+  let headerWhere: string[] = [];
   let store: Float64Array[] = [];
   let rows = 0;
   const whereCell = (line: number, index: number, places?: CellPlaces): string =>
@@ -47,6 +49,7 @@ export function parseSweep(input: string | Buffer, file: string, opts: SweepOpti
       if (line === head.line) {
         headers = fields.map((h) => h.trim());
         specs = matchHeaders(headers, map, (i) => whereCell(line, i, places));
+        headerWhere = specs.map((c) => whereCell(line, c.index, places));
         checkRequired(specs, headers, opts.width, at(file, line));
         store = specs.map(() => new Float64Array(capacity));
         idx = Int32Array.from(specs, (c) => c.index);
@@ -87,6 +90,11 @@ export function parseSweep(input: string | Buffer, file: string, opts: SweepOpti
   });
 
   if (rows === 0) throw new StackwrightError('header but no data rows', { where: at(file, head.line) });
+  const idj = specs.findIndex((s) => s.quantity === 'id');
+  if (allZero(store[idj].subarray(0, rows))) {
+    throw new StackwrightError(`no device conducts: every drain current (column ${showText(specs[idj].header)}) is zero`, { where: file });
+  }
+  specs.forEach((s, j) => checkPlausible(s.quantity, s.header, store[j].subarray(0, rows), headerWhere[j]));
   const columns = {} as Partial<Record<Quantity, Float64Array>>;
   const source: Partial<Record<Quantity, string>> = {};
   specs.forEach((s, j) => {
@@ -105,6 +113,14 @@ export function parseSweep(input: string | Buffer, file: string, opts: SweepOpti
   if (!columns.vsb) columns.vsb = new Float64Array(rows);
   const cols = columns as Samples['columns'];
   normaliseSigns(cols, opts.device);
+  const flipped = oppositeSignRow(cols.id);
+  if (flipped >= 0) {
+    const largest = magnitudeRange(cols.id).max;
+    throw new StackwrightError(
+      `column ${showText(specs[idj].header)}: this row's drain current (${formatEng(Math.abs(cols.id[flipped]), 'A')}) has the sign opposite to the device's other rows (largest ${formatEng(largest, 'A')}); one device's current has one sign: remove the row or fix its sign`,
+      { where: whereCell(lines[flipped], specs[idj].index) },
+    );
+  }
   opts.onProgress?.(totalLines, totalLines);
   return {
     file,

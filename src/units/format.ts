@@ -20,6 +20,8 @@ export function formatEng(x: number, unit = '', digits = 3): string {
   if (!Number.isFinite(x)) return `${x}${unit ? ' ' + unit : ''}`;
   if (x === 0) return `0${unit ? ' ' + unit : ''}`;
   const ax = Math.abs(x);
+  // Beyond the prefixes (a units mistake, mostly): plain exponent form, not "2e-12 aF".
+  if (ax < 1e-18 * 0.9995 || ax >= 1e15 * 0.9995) return `${Number(x.toPrecision(digits)).toExponential()}${unit ? ' ' + unit : ''}`;
   let chosen = PREFIXES[PREFIXES.length - 1];
   for (const p of PREFIXES) {
     if (ax >= p[0] * 0.9995) {
