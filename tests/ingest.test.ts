@@ -444,7 +444,7 @@ describe('ingest: ragged grids', () => {
     // Interior gaps are filled along vgs; a gap at the top of the vgs sweep would need extrapolation.
     const short = rows.filter((r) => !(r[0] === 1e-6 && r[2] === 1.2 && r[3] > 0.85));
     const err = errorOf(() => ingestTexts([{ file: 'x.csv', text: csv('l,w,vgs,vds,vsb,id', short) }], N));
-    expect(err.message).toBe('x.csv: L=1 µm at vds=0.9: vgs samples span 0..1.15 V but the common grid needs 0..1.2 V; refusing to extrapolate');
+    expect(err.message).toBe('x.csv: L=1 µm at vds=900 mV: vgs samples span 0 V..1.15 V but the common grid needs 0 V..1.2 V; refusing to extrapolate');
   });
 });
 
@@ -509,7 +509,7 @@ describe('ingest: hostile text', () => {
   it('huge but finite values are refused at their cell, stating the accepted range', () => {
     // IEEE 754 binary64 holds 1e308, but 1e308 V times 1e9 (the 1 nV snapping) overflows to Infinity.
     const cases: Array<[number, string, RegExp]> = [
-      [2, '1e308', /column "vgs": "1e308" \(1e\+308 in SI\) is outside the accepted range for vgs: at most 1000 V in magnitude$/],
+      [2, '1e308', /column "vgs": "1e308" \(1e\+308 V\) is outside the accepted range for vgs: at most 1000 V in magnitude$/],
       [3, '-2e3', /for vds: at most 1000 V in magnitude$/],
       [0, '2', /for l: above 0 and at most 1 m$/],
       [5, '1.7976931348623157e308', /for id: at most 1000 A in magnitude$/],
@@ -544,9 +544,9 @@ describe('ingest: hostile text', () => {
     expect(() => checkFinite(axes, { id: gm, gm }, new Set(), 'f.csv')).not.toThrow();
     gm[flatIndex(axes, 1, 2, 0, 0)] = Infinity;
     const err = errorOf(() => checkFinite(axes, { gm }, new Set(['gm']), 'f.csv'));
-    expect(err.message).toBe('f.csv: derived gm is Infinity at bias point L=200 nm vgs=0.9 vds=0.5 vsb=0; check the input rows around it');
+    expect(err.message).toBe('f.csv: derived gm is Infinity at bias point L=200 nm vgs=900 mV vds=500 mV vsb=0 V; check the input rows around it');
     gm.fill(1e-4)[flatIndex(axes, 0, 1, 1, 0)] = NaN;
-    expect(errorOf(() => checkFinite(axes, { gm }, new Set(), 'f.csv')).message).toMatch(/^f\.csv: gm is NaN at bias point L=100 nm vgs=0.6 vds=1 vsb=0;/);
+    expect(errorOf(() => checkFinite(axes, { gm }, new Set(), 'f.csv')).message).toMatch(/^f\.csv: gm is NaN at bias point L=100 nm vgs=600 mV vds=1 V vsb=0 V;/);
   });
 });
 
@@ -652,5 +652,32 @@ describe('ingest: implausible and odd input', () => {
     // Mapped column before the named one: the same.
     const first = csv(`i(vd),${header}`, BASE_ROWS.map((r) => [r[5], ...r]));
     expect(errorOf(() => ingestTexts([{ file: 'f.csv', text: first }], { ...N, map: { 'i(vd)': 'id' } })).message).toMatch(/^f\.csv:1:\d+: columns "i\(vd\)" and "id" both give id/);
+  });
+});
+
+describe('messages: values with units, not raw floats', () => {
+  it('ingest, table and characterise messages format numbers with SI prefixes and units', async () => {
+    const { checkFinite } = await import('../src/ingest/finite.js');
+    const { characterisationDeck } = await import('../src/spice/index.js');
+    const { validateTable } = await import('../src/table/validate.js');
+    const messages: string[] = [];
+    const grab = (fn: () => unknown) => messages.push(errorOf(fn).message);
+    // Binary floating point: 0.1 + 0.2 = 0.30000000000000004 and -1e-5·(1 − 2⁻⁵³) prints as -0.000009999999999999999
+    // (IEEE 754 binary64, common practice); a message shows them as 300 mV and -10 µV.
+    const awkward = 0.1 + 0.2;
+    const axes = { l: Float64Array.of(1e-7), vgs: Float64Array.of(awkward, 0.6), vds: Float64Array.of(0.5), vsb: Float64Array.of(0) };
+    grab(() => checkFinite(axes, { id: Float64Array.of(NaN, 1) }, new Set(), 'f.csv'));
+    grab(() => characterisationDeck({ model: 'nfet_model', device: 'n', lengths: [1e-6], w: 1e-6, vgs: { from: 0, to: 1.8, step: 0.1 }, vds: { from: 0, to: 1.8, step: 0.1 }, vsb: [-0.000009999999999999999] }));
+    grab(() => characterisationDeck({ model: 'nfet_model', device: 'n', lengths: [1e-6], w: 1e-6, vgs: { from: 0, to: 1.8 + awkward, step: 0.1 }, vds: { from: 0, to: 1.8, step: 0.1 }, vsb: [0], supply: 1.8 }));
+    const table = ingestTexts([{ file: 'v.csv', text: csv('l,w,vgs,vds,vsb,id', BASE_ROWS) }], N);
+    grab(() => validateTable({ ...table, axes: { ...table.axes, vgs: Float64Array.of(awkward, awkward - 1e-9, 0.9, 1, 1.1, 1.2, 1.3) } }, 't.swtab'));
+    const short = sweep([0.2e-6, 1e-6], range(0, 1.2, 0.05), range(0.1, 1.2, 0.1), [0], (_l, g, d) => 1e-6 * Math.exp(g / 0.05) * d).filter((r) => !(r[0] === 1e-6 && r[2] === 1.2 && r[3] > 0.85));
+    grab(() => ingestTexts([{ file: 'x.csv', text: csv('l,w,vgs,vds,vsb,id', short.map((r) => [...r.slice(0, 5), Math.min(r[5] as number, 1e-3)])) }], N));
+    expect(messages[0]).toMatch(/vgs=300 mV vds=500 mV vsb=0 V/);
+    expect(messages[1]).toMatch(/got -10 µV$/);
+    expect(messages[2]).toMatch(/sweep end 2\.1 V is above the supply 1\.8 V$/);
+    expect(messages[3]).toMatch(/\(300 mV then 300 mV\)$/);
+    expect(messages[4]).toMatch(/vds=900 mV: vgs samples span 0 V\.\.1\.15 V but the common grid needs 0 V\.\.1\.2 V/);
+    for (const m of messages) expect(m, m).not.toMatch(/\d\.\d{7,}|\d{8,}/);
   });
 });

@@ -1,6 +1,6 @@
 import { StackwrightError, at } from '../errors.js';
 import { UNITS, type Axis, type StoredQuantity } from '../table/types.js';
-import { formatEng } from '../units/index.js';
+import { formatEng, showValue } from '../units/index.js';
 import type { Pool } from './pool.js';
 import { commonAxis, resampleLength } from './resample.js';
 
@@ -155,7 +155,7 @@ export function buildGrid(pool: Pool): Gridded {
 }
 
 function formatAxis(a: Float64Array): string {
-  return `${a[0]}..${a[a.length - 1]} V in ${a.length} points`;
+  return `${showValue(a[0], 'V')}..${showValue(a[a.length - 1], 'V')} in ${a.length} points`;
 }
 
 /** How many points of the common grid this length has a sample at. */

@@ -94,7 +94,7 @@ export function parseSweep(input: string | Buffer, file: string, opts: SweepOpti
   if (allZero(store[idj].subarray(0, rows))) {
     throw new StackwrightError(`no device conducts: every drain current (column ${showText(specs[idj].header)}) is zero`, { where: file });
   }
-  specs.forEach((s, j) => checkPlausible(s.quantity, s.header, store[j].subarray(0, rows), headerWhere[j]));
+  specs.forEach((s, j) => checkPlausible(s.quantity, s.header, store[j].subarray(0, rows), headerWhere[j], (r) => whereCell(lines[r], s.index)));
   const columns = {} as Partial<Record<Quantity, Float64Array>>;
   const source: Partial<Record<Quantity, string>> = {};
   specs.forEach((s, j) => {

@@ -50,8 +50,13 @@ export function magnitudeRange(a: Float64Array): { min: number; max: number } {
 
 const show = (x: number, unit: string) => formatEng(x, unit, 3);
 
-/** Refuse a column whose values cannot be what its header says; `where` is the header cell. */
-export function checkPlausible(q: Quantity, header: string, values: Float64Array, where: string): void {
+/**
+ * Refuse a column whose values cannot be what its header says. Sizes: located
+ * at the header cell when every value is off (a unit mistake), else at the first
+ * offending row. Other columns: at the row holding a too-large largest value, or
+ * at the header when even the largest is too small.
+ */
+export function checkPlausible(q: Quantity, header: string, values: Float64Array, headerWhere: string, cellWhere: (row: number) => string): void {
   const b = BOUNDS[q];
   if (!b || values.length === 0) return;
   const { min, max } = magnitudeRange(values);
@@ -59,10 +64,27 @@ export function checkPlausible(q: Quantity, header: string, values: Float64Array
   if (low >= b.lo && max <= b.hi) return;
   const found = min === max ? show(max, b.unit) : `${show(min, b.unit)}..${show(max, b.unit)}`;
   const expect = b.every ? `each between ${show(b.lo, b.unit)} and ${show(b.hi, b.unit)}` : b.lo > 0 ? `a largest magnitude between ${show(b.lo, b.unit)} and ${show(b.hi, b.unit)}` : `magnitudes up to ${show(b.hi, b.unit)}`;
-  throw new StackwrightError(
-    `column ${showText(header)}: values ${found} are implausible for ${b.what} (expected ${expect}); check the unit in the header or name one with --map`,
-    { where },
-  );
+  const tail = `are implausible for ${b.what} (expected ${expect}); check the unit in the header or name one with --map`;
+  if (!b.every) {
+    // Too large: shown at the row holding the largest value; too small: the whole column, at its header.
+    let at = -1;
+    if (max > b.hi) for (let i = 0; i < values.length && at < 0; i++) if (values[i] === max || values[i] === -max) at = i;
+    throw new StackwrightError(`column ${showText(header)}: values ${found} ${tail}`, { where: at >= 0 ? cellWhere(at) : headerWhere });
+  }
+  const bad = (v: number) => (v < 0 ? -v : v) > b.hi || (v < 0 ? -v : v) < b.lo;
+  let first = -1;
+  let count = 0;
+  for (let i = 0; i < values.length; i++) {
+    if (bad(values[i])) {
+      if (first < 0) first = i;
+      count++;
+    }
+  }
+  if (first >= 0 && count < values.length) {
+    const v = values[first] < 0 ? -values[first] : values[first];
+    throw new StackwrightError(`column ${showText(header)}: value ${show(v, b.unit)} in this row (column range ${found}) ${tail.replace(/^are/, 'is')}`, { where: cellWhere(first) });
+  }
+  throw new StackwrightError(`column ${showText(header)}: values ${found} ${tail}`, { where: headerWhere });
 }
 
 /**

@@ -1,5 +1,5 @@
 import { StackwrightError } from '../errors.js';
-import { formatSpice } from '../units/index.js';
+import { formatSpice, showValue } from '../units/index.js';
 import type { Polarity } from '../table/types.js';
 import { includeLines } from './include.js';
 
@@ -183,19 +183,19 @@ function validate(o: CharacterisationOptions): void {
   }
   if (o.lengths.length === 0) throw new StackwrightError('at least one length is needed', { where: where('lengths') });
   o.lengths.forEach((l, i) => {
-    if (!(l > 0) || !Number.isFinite(l)) throw new StackwrightError(`length must be > 0 m, got ${l}`, { where: where(`lengths[${i}]`) });
+    if (!(l > 0) || !Number.isFinite(l)) throw new StackwrightError(`length must be > 0 m, got ${showValue(l, 'm')}`, { where: where(`lengths[${i}]`) });
   });
-  if (!(o.w > 0)) throw new StackwrightError(`width must be > 0 m, got ${o.w}`, { where: where('w') });
+  if (!(o.w > 0)) throw new StackwrightError(`width must be > 0 m, got ${showValue(o.w, 'm')}`, { where: where('w') });
   for (const key of ['vgs', 'vds'] as const) {
     const r = o[key];
-    if (!(r.step > 0)) throw new StackwrightError(`step must be > 0 V, got ${r.step}`, { where: where(`${key}.step`) });
-    if (!(r.to > r.from) || r.from < 0) throw new StackwrightError(`need 0 <= from < to, got ${r.from}..${r.to}`, { where: where(key) });
+    if (!(r.step > 0)) throw new StackwrightError(`step must be > 0 V, got ${showValue(r.step, 'V')}`, { where: where(`${key}.step`) });
+    if (!(r.to > r.from) || r.from < 0) throw new StackwrightError(`need 0 V <= from < to, got ${showValue(r.from, 'V')}..${showValue(r.to, 'V')}`, { where: where(key) });
     if (o.supply !== undefined && r.to > o.supply + 1e-12) {
-      throw new StackwrightError(`sweep end ${r.to} V is above the supply ${o.supply} V`, { where: where(`${key}.to`) });
+      throw new StackwrightError(`sweep end ${showValue(r.to, 'V')} is above the supply ${showValue(o.supply, 'V')}`, { where: where(`${key}.to`) });
     }
   }
   if (o.vsb.length === 0) throw new StackwrightError('at least one VSB value is needed', { where: where('vsb') });
   o.vsb.forEach((v, i) => {
-    if (!(v >= 0) || !Number.isFinite(v)) throw new StackwrightError(`VSB must be a magnitude >= 0 V, got ${v}`, { where: where(`vsb[${i}]`) });
+    if (!(v >= 0) || !Number.isFinite(v)) throw new StackwrightError(`VSB must be a magnitude >= 0 V, got ${showValue(v, 'V')}`, { where: where(`vsb[${i}]`) });
   });
 }

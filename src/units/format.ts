@@ -36,6 +36,20 @@ export function formatEng(x: number, unit = '', digits = 3): string {
 }
 
 /**
+ * A number as a message shows it: SI prefix and unit, six significant digits so a value just
+ * outside a limit does not print as the limit, never a raw float such as -0.000009999999999999999.
+ * showValue(-9.999999999999999e-6, 'V') = "-10 µV".
+ */
+export function showValue(x: number, unit = ''): string {
+  return formatEng(x, unit, 6);
+}
+
+/** A unitless number for messages: at most six significant digits. */
+export function showNumber(x: number): string {
+  return Number.isFinite(x) ? String(Number(x.toPrecision(6))) : String(x);
+}
+
+/**
  * Format in SPICE3 notation (meg for mega, u for micro), for netlists.
  */
 export function formatSpice(x: number, digits = 6): string {
