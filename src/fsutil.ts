@@ -3,12 +3,15 @@ import { dirname, basename, join } from 'node:path';
 import { randomBytes } from 'node:crypto';
 import { StackwrightError } from './errors.js';
 
+/** File content: text, bytes, or pieces of bytes written one after another (no joined copy). */
+export type FileData = string | Uint8Array | readonly Uint8Array[];
+
 /**
  * Write a file atomically: a temp file beside it, fsync, rename. A failure
  * leaves any existing file untouched and no temp file behind.
  * Without `force` an existing file is an error (kind 'exists').
  */
-export function writeFileAtomic(path: string, data: string | Uint8Array, opts: { force?: boolean } = {}): void {
+export function writeFileAtomic(path: string, data: FileData, opts: { force?: boolean } = {}): void {
   if (!opts.force) refuseExisting([path]);
   const tmp = stage(path, data);
   commit(tmp, path, !opts.force);
@@ -19,7 +22,7 @@ export function writeFileAtomic(path: string, data: string | Uint8Array, opts: {
  * written before any target is replaced, so a refusal or a failing disk leaves
  * none of them half-done (only a failing rename, after the others, could).
  */
-export function writeFilesAtomic(files: ReadonlyArray<readonly [string, string | Uint8Array]>, opts: { force?: boolean } = {}): void {
+export function writeFilesAtomic(files: ReadonlyArray<readonly [string, FileData]>, opts: { force?: boolean } = {}): void {
   if (!opts.force) refuseExisting(files.map(([p]) => p));
   const staged: Array<[string, string]> = [];
   try {
@@ -45,7 +48,7 @@ function refuseExisting(paths: readonly string[]): void {
 }
 
 /** Create the folder and write `data` to a synced temp file beside `path`; returns the temp path. */
-function stage(path: string, data: string | Uint8Array): string {
+function stage(path: string, data: FileData): string {
   const dir = dirname(path);
   try {
     mkdirSync(dir, { recursive: true });
@@ -58,9 +61,11 @@ function stage(path: string, data: string | Uint8Array): string {
   try {
     const fd = openSync(tmp, 'w');
     try {
-      const buf = typeof data === 'string' ? Buffer.from(data, 'utf8') : data;
-      let off = 0;
-      while (off < buf.length) off += writeSync(fd, buf, off, buf.length - off);
+      const pieces = typeof data === 'string' ? [Buffer.from(data, 'utf8')] : data instanceof Uint8Array ? [data] : data;
+      for (const buf of pieces) {
+        let off = 0;
+        while (off < buf.length) off += writeSync(fd, buf, off, buf.length - off);
+      }
       fsyncSync(fd);
     } finally {
       closeSync(fd);

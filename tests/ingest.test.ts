@@ -681,3 +681,85 @@ describe('messages: values with units, not raw floats', () => {
     for (const m of messages) expect(m, m).not.toMatch(/\d\.\d{7,}|\d{8,}/);
   });
 });
+
+describe('ingest: the byte reader for files', () => {
+  it('reads files (bytes) to the same table and the same errors as text', () => {
+    const header = 'l,w,vgs,vds,vsb,id';
+    const base = csv(header, BASE_ROWS);
+    const lines = base.split('\n');
+    const withLine = (k: number, line: string) => [...lines.slice(0, k), line, ...lines.slice(k + 1)].join('\n');
+    const row = (i: number, cell: number, value: string) => {
+      const r = BASE_ROWS[i].map(String);
+      r[cell] = value;
+      return r.join(',');
+    };
+    const cases: Record<string, string> = {
+      plain: base,
+      crlfCommentsBom: '\ufeff# invented\r\n* c\r\n\r\n' + csv(header, BASE_ROWS, ',', '\r\n').replace('\r\n', '\r\n  \r\n# mid\r\n'),
+      semicolonComma: csv(header.replace(/,/g, ';'), BASE_ROWS.map((r) => r.map((x) => String(x).replace('.', ','))), ';'),
+      tabs: csv(header.replace(/,/g, '\t'), BASE_ROWS, '\t'),
+      suffixes: csv(header, BASE_ROWS.map(([l, , g, d, s, id]) => [`${Math.round((l as number) * 1e8) / 100}u`, '1u', g, d, s, ` ${id} `])),
+      trailingDelimiter: csv(header + ',', BASE_ROWS.map((r) => [...r, ''])),
+      noFinalNewline: base.trimEnd(),
+      badCell: withLine(3, row(2, 3, 'abc')),
+      emptyCell: withLine(4, row(3, 5, '')),
+      crBadCell: withLine(3, row(2, 5, 'x') + '\r'),
+      shortRow: withLine(2, '1u,1u,0.5,1'),
+      longRow: withLine(2, row(1, 0, String(BASE_ROWS[1][0])) + ',7'),
+      negativeLength: withLine(1, row(0, 0, '-0.18u')),
+      huge: withLine(5, row(4, 2, '1e308')),
+      ambiguousM: withLine(1, row(0, 5, '1M')),
+      headerOnly: '# c\n' + header + '\n\n',
+      longMantissa: csv(header, BASE_ROWS.map((r) => [...r.slice(0, 5), (r[5] as number).toPrecision(17)])),
+      bigExponent: csv(header, BASE_ROWS.map((r) => [...r.slice(0, 5), `${(r[5] as number) * 1e30}e-30`])),
+    };
+    for (const [name, text] of Object.entries(cases)) {
+      const run = (input: string | Buffer): DeviceTable | string => {
+        try {
+          return ingestTexts([{ file: `${name}.csv`, text: input }], N);
+        } catch (e) {
+          expect(e, name).toBeInstanceOf(StackwrightError);
+          return (e as Error).message;
+        }
+      };
+      const fromText = run(text);
+      const fromBytes = run(Buffer.from(text, 'utf8'));
+      if (typeof fromText === 'string' || typeof fromBytes === 'string') {
+        expect(fromBytes, name).toBe(fromText);
+        continue;
+      }
+      for (const a of ['l', 'vgs', 'vds', 'vsb'] as const) expect(Array.from(fromBytes.axes[a]), `${name} ${a}`).toEqual(Array.from(fromText.axes[a]));
+      for (const q of Object.keys(fromText.data) as Array<keyof DeviceTable['data']>) expect(Array.from(fromBytes.data[q]!), `${name} ${q}`).toEqual(Array.from(fromText.data[q]!));
+    }
+  });
+
+  it('reads plain decimal cells to exactly the double Number() gives', async () => {
+    // ECMAScript StringToNumber is the correctly rounded conversion (ECMA-262, "Number values"); the byte reader
+    // must agree bit for bit, and hand anything outside its fast path to the general reader (NaN here).
+    const { readNumberCell } = await import('../src/ingest/number-bytes.js');
+    const { default: fc } = await import('fast-check');
+    const read = (t: string, sep = ',') => {
+      const bytes = Buffer.from(`${t}${sep}9\n`, 'utf8');
+      return readNumberCell(bytes, 0, bytes.length, sep.charCodeAt(0));
+    };
+    const texts = fc.oneof(
+      fc.double({ noNaN: true, noDefaultInfinity: true }).map((x) => String(x)),
+      fc.double({ noNaN: true, noDefaultInfinity: true, min: -1e6, max: 1e6 }).map((x) => x.toExponential(5)),
+      fc.double({ noNaN: true, noDefaultInfinity: true, min: -1e3, max: 1e3 }).map((x) => x.toFixed(9)),
+      fc.tuple(fc.stringMatching(/^[+-]?\d{0,17}$/), fc.stringMatching(/^\d{0,17}$/), fc.integer({ min: -30, max: 30 })).map(([a, b, e]) => `${a}.${b}e${e}`),
+    );
+    fc.assert(
+      fc.property(texts, fc.constantFrom(',', ';', '\t'), (t, sep) => {
+        const v = read(t, sep);
+        // NaN: left to the general reader, which uses Number() itself; a number must be Number()'s, bit for bit.
+        if (v === v) expect(Object.is(v, Number(t)), `${t}: ${v} vs ${Number(t)}`).toBe(true);
+      }),
+      { numRuns: 3000 },
+    );
+    // What simulators and spreadsheets print takes the fast path; anything else goes to the general reader.
+    for (const t of ['1.8e-7', '0.000001', '-3.5E+02', '1.03148e-15', '0', '-0', '12345678901234.5', ' 42 ', '7.', '.5', '+2e22', '1e-22']) {
+      expect(Object.is(read(t), Number(t)), t).toBe(true);
+    }
+    for (const t of ['1e400', '1e-330', '0.18u', '1,5', '12345678901234567', 'abc', '', '1e', 'Infinity', '0x10', '--1']) expect(read(t, ';'), t).toBeNaN();
+  });
+});

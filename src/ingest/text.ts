@@ -7,6 +7,30 @@ export interface Decoded {
   sha256: string;
 }
 
+/**
+ * Input as UTF-8 bytes when it is UTF-8 (gunzipped when gzip; `start` skips a
+ * UTF-8 BOM), else as text (UTF-16 decoded by its BOM). The digest is of the raw input.
+ */
+export function decodeInput(input: string | Buffer, file: string): { sha256: string } & ({ bytes: Buffer; start: number; text?: undefined } | { text: string; bytes?: undefined }) {
+  if (typeof input === 'string') return decode(input, file);
+  const sha256 = createHash('sha256').update(input).digest('hex');
+  let bytes = input;
+  if (bytes.length >= 2 && bytes[0] === 0x1f && bytes[1] === 0x8b) {
+    try {
+      bytes = gunzipSync(bytes);
+    } catch (e) {
+      throw new StackwrightError(`cannot gunzip: ${(e as Error).message.split('\n')[0]}`, { where: file });
+    }
+  }
+  const utf16or32 = bytes.length >= 2 && ((bytes[0] === 0xff && bytes[1] === 0xfe) || (bytes[0] === 0xfe && bytes[1] === 0xff) || (bytes[0] === 0 && bytes[1] === 0));
+  const nul = bytes.subarray(0, 64).indexOf(0) >= 0;
+  if (utf16or32 || nul) return { text: stripBom(bytesToText(bytes, file)), sha256 };
+  const bom = bytes.length >= 3 && bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf;
+  return { bytes, start: bom ? 3 : 0, sha256 };
+}
+
+const stripBom = (t: string) => (t.charCodeAt(0) === 0xfeff ? t.slice(1) : t);
+
 /** Bytes or text to a string: gunzip when the gzip magic is present, decode UTF-16 by its BOM, drop a BOM. */
 export function decode(input: string | Buffer, file: string): Decoded {
   const bytes = typeof input === 'string' ? Buffer.from(input, 'utf8') : input;
