@@ -84,7 +84,7 @@ export function registerCharacterise(program: Command): void {
     .option('--force', 'overwrite existing files')
     .addHelpText(
       'after',
-      '\nExamples:\n  stackwright characterise --model nfet_model --device n --include "models.lib" --l 0.18u,0.36u,0.72u,1.44u --out nfet_tt.csv\n' +
+      '\nExample:\n  stackwright characterise --model nfet_model --device n --include "models.lib" --l 0.18u,0.36u,0.72u,1.44u --out nfet_tt.csv\n' +
         '  stackwright ingest nfet_tt.csv --kit mykit --device n --corner tt\n' +
         '  stackwright characterise --model nfet_model --device n --include ".lib models.lib tt" --l 0.18u,1u --deck nfet_tt.cir\n' +
         '  ngspice -b nfet_tt.cir          # writes nfet_tt.dat\n' +
