@@ -25,7 +25,7 @@ export class AxisLocator {
     this.lo = values[0];
     this.hi = values[this.n - 1];
     const span = this.hi - this.lo;
-    this.tolerance = this.n > 1 ? 1e-9 * span : 1e-12 + 1e-9 * Math.abs(this.lo);
+    this.tolerance = this.n > 1 ? edgeTolerance(this.lo, this.hi) : 1e-12 + EDGE_REL * Math.abs(this.lo);
     this.step = this.n > 1 ? 1 : 0;
     this.uniform = this.n > 2 && isUniform(values);
     this.invStep = this.n > 1 ? (this.n - 1) / span : 0;
@@ -52,18 +52,35 @@ export class AxisLocator {
       while (i > 0 && x < v[i]) i--;
       while (i < last && x >= v[i + 1]) i++;
     } else {
-      let a = 0;
-      let b = this.n - 1;
-      while (b - a > 1) {
-        const m = (a + b) >> 1;
-        if (v[m] <= x) a = m;
-        else b = m;
-      }
-      i = a;
+      i = cellOf(v, x);
     }
     this.t = (x - v[i]) / (v[i + 1] - v[i]);
     return i;
   }
+}
+
+/** Relative slack on an axis' ends: grids are built from decimal text, so rounding there is not "outside". */
+const EDGE_REL = 1e-9;
+
+/** Distance beyond an axis' ends [lo, hi] still taken as on the end (1e-9 of the span). */
+export function edgeTolerance(lo: number, hi: number): number {
+  return EDGE_REL * Math.abs(hi - lo);
+}
+
+/**
+ * Lower node of the cell of strictly increasing `v` that holds x, by bisection:
+ * the last i ≤ n − 2 with v[i] ≤ x, 0 below v[1] (numpy.searchsorted(v, x, 'right') − 1,
+ * clipped to [0, n − 2]). Needs n ≥ 2.
+ */
+export function cellOf(v: ArrayLike<number>, x: number): number {
+  let a = 0;
+  let b = v.length - 1;
+  while (b - a > 1) {
+    const m = (a + b) >> 1;
+    if (v[m] <= x) a = m;
+    else b = m;
+  }
+  return a;
 }
 
 function isUniform(v: Float64Array): boolean {
