@@ -1,3 +1,5 @@
+import { TABLE_EDGE } from '../policy.js';
+
 /**
  * Finds the cell of a strictly increasing axis that holds a value, without
  * allocating. Uniform axes get an O(1) index guess; others a binary search.
@@ -25,7 +27,7 @@ export class AxisLocator {
     this.lo = values[0];
     this.hi = values[this.n - 1];
     const span = this.hi - this.lo;
-    this.tolerance = this.n > 1 ? edgeTolerance(this.lo, this.hi) : 1e-12 + EDGE_REL * Math.abs(this.lo);
+    this.tolerance = edgeTolerance(this.lo, this.hi);
     this.step = this.n > 1 ? 1 : 0;
     this.uniform = this.n > 2 && isUniform(values);
     this.invStep = this.n > 1 ? (this.n - 1) / span : 0;
@@ -59,12 +61,13 @@ export class AxisLocator {
   }
 }
 
-/** Relative slack on an axis' ends: grids are built from decimal text, so rounding there is not "outside". */
-const EDGE_REL = 1e-9;
-
-/** Distance beyond an axis' ends [lo, hi] still taken as on the end (1e-9 of the span). */
+/**
+ * Distance beyond an axis' ends [lo, hi] still taken as on the end: TABLE_EDGE
+ * (1e-9) of the span; for a single-point axis (lo = hi), of the value, plus 1e-12.
+ * The one table-edge rule: the locator, hermiteAt and the stack layer's range checks use it.
+ */
 export function edgeTolerance(lo: number, hi: number): number {
-  return EDGE_REL * Math.abs(hi - lo);
+  return hi !== lo ? TABLE_EDGE * Math.abs(hi - lo) : 1e-12 + TABLE_EDGE * Math.abs(lo);
 }
 
 /**
