@@ -31,13 +31,25 @@ function frontPoint(ctx: SolveContext, e: Evaluated): FrontPoint {
   };
 }
 
-/** Seeds for refinement: the best design and the runner-up of the same kind (meeting targets, or nearest). */
+// Climbs per search: the best design and the best of other length choices (the optimum's lengths may differ).
+const SEEDS = 4;
+
+/** Seeds for refinement: the best design and the best of each other length choice of the same kind (meeting targets, or nearest). */
 function seedsOf(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[]): Evaluated[] {
   const ok = nominalOk(best) && fullyOk(ctx, best);
   const rest = pool
     .filter((e) => e !== best && (ok ? nominalOk(e) : !nominalOk(e)))
     .sort((a, b) => (ok ? objectiveCompare(ctx.spec.objective, a, b) : totalViolation(a) - totalViolation(b)));
-  return [best, ...rest.slice(0, 1)];
+  const lengths = (e: Evaluated) => e.cand.l.join(',');
+  const taken = new Set([lengths(best)]);
+  const seeds = [best];
+  for (const e of rest) {
+    if (seeds.length >= SEEDS) break;
+    if (taken.has(lengths(e))) continue;
+    taken.add(lengths(e));
+    seeds.push(e);
+  }
+  return seeds;
 }
 
 /** Screen, evaluate, refine: the best design and everything evaluated, or null when nothing could be realised. */
