@@ -231,19 +231,20 @@ describe('lower devices saturated, minimum width, binding words', () => {
     }
   });
 
-  it('when saturated lower devices cannot fit below the headroom target, the nearest design is reported as failing on saturation', () => {
+  it('when saturated lower devices cannot fit below the headroom target, the explanation names the headroom a saturated design needs', () => {
     // 2·VDSsat(8 /V) ≈ 0.47 V (hand EKV) leaves too little of 0.5 V for the top device.
     expect(2 * handVdsat(8)).toBeGreaterThan(0.45);
     const run = size({ ...strong, headroom: 0.5 });
     const x = run.results[0];
     expect(x.feasible).toBe(false);
     expect(x.tightest).toBeUndefined();
-    expect(x.binding).toMatch(/^saturation: (bottom|middle) VDS \S+ \S?V < VDSsat \S+ \S?V at mid-span; no explored triple keeps its lower devices saturated below the 0\.500 V headroom target$/);
-    // The words are true of the reported design: some lower device sits below its hand-computed VDSsat.
-    expect(x.devices.slice(0, -1).some((d) => d.vds < handVdsat(d.gmid))).toBe(true);
+    expect(x.binding).toMatch(/^rout: best \S+ \S?Ω at the 0\.500 V headroom target \(needs 50 MΩ\); 50 MΩ needs \d\.\d{3} V of headroom at best$/);
+    // The headroom named is above the target and leaves room for two saturated lower devices (hand EKV VDSsat).
+    const h = x.nearest!.headroomAtRout!;
+    expect(h).toBeGreaterThan(0.5);
+    expect(h).toBeGreaterThan(2 * handVdsat(8));
+    expect(x.binding).toContain(`${h.toFixed(3)} V`);
     expect(x.corners?.[0].feasible).toBe(false);
-    // Designs with a lower device in triode never reach the trade-off front.
-    expect(run.front).toHaveLength(0);
   });
 
   it('no output device and no bias diode is narrower than the shortest table length', () => {
@@ -267,11 +268,11 @@ describe('lower devices saturated, minimum width, binding words', () => {
   it('an infeasible Rout reads as words, with no "none" left in them', () => {
     const x = size({ topology: 'single', rout: 1e13 }).results[0];
     expect(x.feasible).toBe(false);
-    expect(x.binding).toMatch(/^rout: best \S+ \S?Ω at the 0\.500 V headroom target \(needs 10 TΩ\); no explored design reaches 10 TΩ at any headroom$/);
+    expect(x.binding).toMatch(/^rout: best \S+ \S?Ω at the 0\.500 V headroom target \(needs 10 TΩ\); no allowed design reaches 10 TΩ at any headroom up to the 1\.800 V span$/);
     expect(x.binding).not.toMatch(/none/);
     expect(x.tightest).toBeUndefined();
     const y = size({ rout: 1e13 }).results[0];
-    expect(y.binding).toMatch(/^rout: best .* \(needs 10 TΩ\); 10 TΩ needs \d\.\d{3} V of headroom at best$|at any headroom$/);
+    expect(y.binding).toMatch(/^rout: best .* \(needs 10 TΩ\); no allowed design reaches 10 TΩ at any headroom up to the 1\.800 V span$/);
   });
 
   it('a feasible result has no binding, only its tightest constraint, at every level', () => {

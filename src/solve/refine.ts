@@ -75,18 +75,22 @@ export function neighbours(ctx: SolveContext, c: Candidate, gstep: number, vstep
 /**
  * Local refinement: from each seed, hill-climb over the neighbouring moves,
  * halving the gm/ID and setpoint steps when no move improves. Returns the
- * best design of all climbs; every design it returns was evaluated exactly.
+ * best design of all climbs by `prefer` (default: the spec's targets and
+ * objective); every design it returns was evaluated exactly.
  */
-export function refine(ctx: SolveContext, seeds: readonly Evaluated[], seen: Seen, pool: Evaluated[]): Evaluated | undefined {
+export function refine(
+  ctx: SolveContext, seeds: readonly Evaluated[], seen: Seen, pool: Evaluated[],
+  prefer: (a: Evaluated, b: Evaluated) => boolean = (a, b) => better(ctx, a, b),
+): Evaluated | undefined {
   let best: Evaluated | undefined;
   for (const seed of seeds) {
-    const local = climb(ctx, seed, seen, pool);
-    if (!best || better(ctx, local, best)) best = local;
+    const local = climb(ctx, seed, seen, pool, prefer);
+    if (!best || prefer(local, best)) best = local;
   }
   return best;
 }
 
-function climb(ctx: SolveContext, seed: Evaluated, seen: Seen, pool: Evaluated[]): Evaluated {
+function climb(ctx: SolveContext, seed: Evaluated, seen: Seen, pool: Evaluated[], better: (a: Evaluated, b: Evaluated) => boolean): Evaluated {
   let best = seed;
   let gstep = ctx.gmidStep / 2;
   let vstep = best.cand.topology === 'triple' ? 0.025 : 0.0125;
@@ -96,7 +100,7 @@ function climb(ctx: SolveContext, seed: Evaluated, seen: Seen, pool: Evaluated[]
       const key = candidateKey(n);
       if (seen.has(key)) {
         const e = seen.get(key);
-        if (e && better(ctx, e, best)) {
+        if (e && better(e, best)) {
           best = e;
           improved = true;
         }
@@ -105,7 +109,7 @@ function climb(ctx: SolveContext, seed: Evaluated, seen: Seen, pool: Evaluated[]
       const e = evaluateOnce(ctx, n, seen);
       if (!e) continue;
       pool.push(e);
-      if (better(ctx, e, best)) {
+      if (better(e, best)) {
         best = e;
         improved = true;
       }

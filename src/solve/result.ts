@@ -7,6 +7,7 @@ import type { StackSpec } from '../spec/types.js';
 import { CURRENT_WINDOW, describe, meetsAll, tightest, type Margins } from './checks.js';
 import { ensureCorners, nominalOk, type Evaluated } from './evaluate.js';
 import type { StackEval } from './stackeval.js';
+import type { Nearest } from './nearest.js';
 
 /** Absolute voltage to ground of a stack-coordinate voltage. */
 export function absolute(device: Polarity, supply: number, x: number): number {
@@ -87,20 +88,9 @@ function smallest(m: Margins): number {
 }
 
 /** Words for why nothing met the targets, and the nearest points reached. */
-function infeasibility(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[]): Pick<StackResult, 'binding' | 'nearest'> {
+function infeasibility(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[], nearest: Nearest): Pick<StackResult, 'binding' | 'nearest'> {
   const s = ctx.spec;
   const mm = (e: Evaluated) => e.margins.mismatch >= 0;
-  // Nearest points among designs meeting mismatch and current; among all when none does.
-  const usable = pool.some((e) => mm(e) && e.margins.iout >= 0);
-  let headroomAtRout = Infinity;
-  let routAtHeadroom = 0;
-  for (const e of pool) {
-    if (usable && (!mm(e) || e.margins.iout < 0)) continue;
-    // A finite headroom already means Rout ≥ target above it.
-    headroomAtRout = Math.min(headroomAtRout, e.nominal.headroom);
-    routAtHeadroom = Math.max(routAtHeadroom, e.nominal.routAtTarget);
-  }
-  const nearest = { headroomAtRout, routAtHeadroom };
   if (!pool.some((e) => e.margins.saturation >= 0)) {
     const room = `no explored ${best.cand.topology} keeps its lower devices saturated below the ${s.headroom.toFixed(3)} V headroom target`;
     return { binding: `${describe('saturation', s, best.nominal, best.sigma)}; ${room}`, nearest };
@@ -134,9 +124,13 @@ export function routHeadroomWords(s: StackSpec, nearest: { headroomAtRout: numbe
   const r = nearest.routAtHeadroom;
   const anyHeadroom = Number.isFinite(h)
     ? `${need} needs ${h.toFixed(3)} V of headroom at best`
-    : `no explored design reaches ${need} at any headroom`;
+    : `no allowed design reaches ${need} at any headroom up to the ${s.span.toFixed(3)} V span`;
   if (r >= s.rout && h <= s.headroom) {
     return `no explored design meets everything at once: Rout reaches ${formatEng(r, 'Ω')} at ${target} and ${h.toFixed(3)} V of headroom is reachable, but not together with the other targets`;
+  }
+  if (r >= s.rout && !Number.isFinite(h)) {
+    const pct = (CURRENT_WINDOW * 100).toFixed(0);
+    return `iout: Rout reaches ${formatEng(r, 'Ω')} at ${target}, but in every allowed design the output current leaves its ${pct} % window of the mid-span value before the ${s.span.toFixed(3)} V span`;
   }
   if (r >= s.rout && Number.isFinite(h)) {
     // Rout is there at the target, so the current window is what pushes the headroom up.
@@ -144,11 +138,11 @@ export function routHeadroomWords(s: StackSpec, nearest: { headroomAtRout: numbe
     return `headroom: best ${h.toFixed(3)} V (needs ${target}); Rout reaches ${formatEng(r, 'Ω')} at ${target} but the current leaves its ${pct} % window below ${h.toFixed(3)} V`;
   }
   if (r > 0) return `rout: best ${formatEng(r, 'Ω')} at the ${target} headroom target (needs ${need}); ${anyHeadroom}`;
-  return `rout: no explored design has a usable Rout at the ${target} headroom target (outside the table); ${anyHeadroom}`;
+  return `rout: no allowed design has a usable Rout at the ${target} headroom target (outside the table); ${anyHeadroom}`;
 }
 
 /** The report for one topology: the chosen design, its corners, and why it fails if it does. */
-export function stackResult(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[], evaluated: number): StackResult {
+export function stackResult(ctx: SolveContext, best: Evaluated, pool: Evaluated[], evaluated: () => number, nearest: () => Nearest): StackResult {
   const { spec, supply } = ctx;
   const corners = cornerResults(ctx, best);
   const feasible = corners.every((c) => c.feasible);
@@ -159,17 +153,18 @@ export function stackResult(ctx: SolveContext, best: Evaluated, pool: readonly E
     predicted: predictedOf(best.nominal, best.area, best.biasArea, best.sigma),
     curve: curveOf(best.nominal, spec.device, supply),
     corners,
-    evaluated,
+    evaluated: 0,
   };
   const sq = squareLawOf(ctx, best);
   if (sq) r.squareLaw = sq;
-  if (!feasible) Object.assign(r, infeasibility(ctx, best, pool));
+  if (!feasible) Object.assign(r, infeasibility(ctx, best, pool, nearest()));
   else {
     const all = [{ corner: ctx.nominal, m: best.margins }, ...(best.corners ?? []).map((c) => ({ corner: c.corner, m: c.margins }))];
     const worst = all.reduce((a, b) => (smallest(b.m) < smallest(a.m) ? b : a));
     const words = corners.find((c) => c.corner === worst.corner)?.tightest ?? '';
     r.tightest = ctx.corners.length > 1 ? `corner ${worst.corner}: ${words}` : words;
   }
+  r.evaluated = evaluated();
   return r;
 }
 

@@ -9,6 +9,7 @@ import { evaluateOnce, refine, type Seen } from './refine.js';
 import { finalize, fullyOk, nominalOk, totalViolation, type Evaluated } from './evaluate.js';
 import { objectiveCompare, pickBest } from './rank.js';
 import { emptyResult, stackResult } from './result.js';
+import { nearestPoints } from './nearest.js';
 import { paretoFront, type FrontPoint } from './pareto.js';
 import { formatEng } from '../units/index.js';
 
@@ -53,7 +54,7 @@ function seedsOf(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[])
 }
 
 /** Screen, evaluate, refine: the best design and everything evaluated, or null when nothing could be realised. */
-function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool: Evaluated[] } | null {
+function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool: Evaluated[]; seen: Seen } | null {
   const seen: Seen = new Map();
   const pool: Evaluated[] = [];
   for (const c of screen(ctx, topology)) {
@@ -66,7 +67,7 @@ function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool:
   // The report uses the full curve; if that loses a target the scan met, take the next best.
   for (let tries = 0; tries < 5 && !finalize(ctx, best); tries++) best = pickBest(ctx, pool) ?? best;
   finalize(ctx, best);
-  return { best, pool };
+  return { best, pool, seen };
 }
 
 function sizeTopology(ctx: SolveContext, topology: Topology): { result: StackResult; pool: Evaluated[] } {
@@ -74,18 +75,19 @@ function sizeTopology(ctx: SolveContext, topology: Topology): { result: StackRes
   const rejected = { triode: ctx.count.triode, narrow: ctx.count.narrow };
   const run = search(ctx, topology);
   const counted = () => ctx.count.screened + ctx.count.exact - before;
-  if (run) return { result: stackResult(ctx, run.best, run.pool, counted()), pool: run.pool };
+  const near = (r: NonNullable<typeof run>) => () => nearestPoints(ctx, topology, r.pool, r.seen);
+  if (run) return { result: stackResult(ctx, run.best, run.pool, counted, near(run)), pool: run.pool };
   // Nothing with saturated lower devices on the screen's grid: search again with them allowed, so refinement
   // can still reach a saturated design or, failing that, show the nearest one failing on saturation.
   // Only saturated designs go on the front.
   ctx.saturation = 'report';
-  let near: ReturnType<typeof search>;
+  let rerun: ReturnType<typeof search>;
   try {
-    near = search(ctx, topology);
+    rerun = search(ctx, topology);
   } finally {
     ctx.saturation = 'require';
   }
-  if (near) return { result: stackResult(ctx, near.best, near.pool, counted()), pool: near.pool.filter((e) => e.margins.saturation >= 0) };
+  if (rerun) return { result: stackResult(ctx, rerun.best, rerun.pool, counted, near(rerun)), pool: rerun.pool.filter((e) => e.margins.saturation >= 0) };
   const triode = ctx.count.triode > rejected.triode;
   return { result: emptyResult(ctx, topology, counted(), triode ? nothingFitsWords(ctx, topology) : noCandidateWords(ctx, topology, rejected)), pool: [] };
 }

@@ -1,0 +1,65 @@
+import type { Topology } from '../spec/types.js';
+import type { SolveContext } from './context.js';
+import type { Evaluated } from './evaluate.js';
+import { evaluateOnce, refine, type Seen } from './refine.js';
+import { screen } from './screen.js';
+
+/** The nearest reachable points of an infeasible stack, over the whole allowed design space. */
+export interface Nearest {
+  /** Lowest headroom at which the Rout target (and the current window) holds up to span, V; Infinity when never. */
+  headroomAtRout: number;
+  /** Highest lowest-Rout over [target headroom, span], Ω (0 when the table covers no design there). */
+  routAtHeadroom: number;
+}
+
+// Designs counted for the nearest points: within the mismatch budget, current at mid-span, lower devices saturated.
+const usable = (e: Evaluated) => e.margins.mismatch >= 0 && e.margins.iout >= 0 && e.margins.saturation >= 0;
+
+/** Lower headroom first; among designs that never reach the target, the higher Rout at span-side first. */
+function lowerHeadroom(a: Evaluated, b: Evaluated): boolean {
+  if (usable(a) !== usable(b)) return usable(a);
+  const ha = a.nominal.headroom;
+  const hb = b.nominal.headroom;
+  if (ha !== hb) return ha < hb;
+  return Number.isFinite(ha) ? a.area < b.area : a.nominal.routAtTarget > b.nominal.routAtTarget;
+}
+
+function higherRout(a: Evaluated, b: Evaluated): boolean {
+  if (usable(a) !== usable(b)) return usable(a);
+  return a.nominal.routAtTarget > b.nominal.routAtTarget;
+}
+
+function bestOf(pool: readonly Evaluated[], prefer: (a: Evaluated, b: Evaluated) => boolean, k: number): Evaluated[] {
+  const out: Evaluated[] = [];
+  for (const e of pool) {
+    let j = out.length;
+    while (j > 0 && prefer(e, out[j - 1])) j--;
+    if (j < k) out.splice(j, 0, e);
+    if (out.length > k) out.pop();
+  }
+  return out;
+}
+
+/**
+ * A dedicated scan for the nearest points, independent of where the sizing
+ * search happened to look: the screen again with the headroom target lifted
+ * towards mid-span (so the VDS setpoints may use all the room below it),
+ * every proposal evaluated exactly at the spec's own targets, then a climb
+ * towards each question from its best few designs.
+ */
+export function nearestPoints(ctx: SolveContext, topology: Topology, pool: Evaluated[], seen: Seen): Nearest {
+  const lifted = Math.max(ctx.spec.headroom, ctx.vmid - 0.05);
+  if (lifted > ctx.spec.headroom) {
+    const wide: SolveContext = { ...ctx, spec: { ...ctx.spec, headroom: lifted, objective: 'headroom' } };
+    for (const c of screen(wide, topology)) {
+      const e = evaluateOnce(ctx, c, seen);
+      if (e) pool.push(e);
+    }
+  }
+  const hr = refine(ctx, bestOf(pool, lowerHeadroom, 2), seen, pool, lowerHeadroom);
+  const ro = refine(ctx, bestOf(pool, higherRout, 2), seen, pool, higherRout);
+  return {
+    headroomAtRout: hr && usable(hr) ? hr.nominal.headroom : Infinity,
+    routAtHeadroom: ro && usable(ro) ? ro.nominal.routAtTarget : 0,
+  };
+}
