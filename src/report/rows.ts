@@ -91,6 +91,12 @@ export function cornerGrid(stack: StackResult): Grid | undefined {
   };
 }
 
+/** A warning when the target current is above what the tables carry at the width limit, else undefined. */
+export function currentWarning(stack: StackResult): string | undefined {
+  if (stack.currentLimit === undefined || stack.wmax === undefined) return undefined;
+  return `warning: the target current is above the ${eng(stack.currentLimit, 'A')} the kit's tables carry through one device at the ${eng(stack.wmax, 'm')} width limit (spec key wmax)`;
+}
+
 /** One sentence on feasibility, the binding target and the nearest reachable points. */
 export function verdict(stack: StackResult): string {
   const tag = stack.chosen === true ? ' (chosen by the objective)' : stack.chosen === false ? ' (alternative)' : '';
@@ -101,6 +107,6 @@ export function verdict(stack: StackResult): string {
   if (n?.headroomAtRout !== undefined && Number.isFinite(n.headroomAtRout)) {
     parts.push(`the Rout target needs ${eng(n.headroomAtRout, 'V')} of headroom`);
   }
-  if (n?.routAtHeadroom !== undefined) parts.push(`at the headroom target Rout reaches ${eng(n.routAtHeadroom, 'Ω')}`);
+  if (n?.routAtHeadroom !== undefined && n.routAtHeadroom > 0) parts.push(`at the headroom target Rout reaches ${eng(n.routAtHeadroom, 'Ω')}`);
   return parts.join('; ') + tag;
 }

@@ -8,6 +8,7 @@ import { marginsOf } from './checks.js';
 import { pelgromSigma } from './mismatch.js';
 import { cornerResult } from './result.js';
 import { evaluateStack, type StackEval } from './stackeval.js';
+import { widthLimit } from './width.js';
 
 /**
  * Re-check a sized design on any corner of any kit: the same W, L and bias
@@ -33,7 +34,7 @@ export function evaluateAtCorner(result: StackResult, spec: StackSpec, kit: KitA
     const b = ev.mid.devices[0];
     sigma = pelgromSigma(b.gm / b.id, devices[0].w, devices[0].slice.l, coeff);
   }
-  const margins = marginsOf(spec, ev, sigma);
+  const margins = marginsOf({ ...spec, wmax: widthLimit(spec, kit.lengths(corner, result.device)[0]) }, ev, sigma);
   const area = result.devices.reduce((a, d) => a + d.w * d.l, 0);
   const biasArea = result.bias.reduce((a, b) => a + b.w * b.l, 0);
   return cornerResult(spec, corner, margins, ev, sigma, { area, biasArea, gates, supply });

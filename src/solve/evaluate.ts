@@ -121,7 +121,7 @@ function quickReject(ctx: SolveContext, devices: StackDevice[], gates: number[],
   const rout = at.op ? Math.log(at.rout / s.rout) : -Infinity;
   const iout = 1 - Math.abs(mid.i - s.current) / (CURRENT_WINDOW * s.current);
   if (rout >= 0 && iout >= 0) return null;
-  return { rout, iout, headroom: 0, mismatch: Infinity, saturation: 0 };
+  return { rout, iout, headroom: 0, mismatch: Infinity, saturation: 0, width: 0 };
 }
 
 function solveGuess(g: { i: number; nodes: number[] }, v: number): StackOp {

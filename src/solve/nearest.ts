@@ -1,6 +1,6 @@
 import type { Topology } from '../spec/types.js';
 import type { SolveContext } from './context.js';
-import type { Evaluated } from './evaluate.js';
+import { finalize, type Evaluated } from './evaluate.js';
 import { evaluateOnce, refine, type Seen } from './refine.js';
 import { screen } from './screen.js';
 
@@ -10,10 +10,14 @@ export interface Nearest {
   headroomAtRout: number;
   /** Highest lowest-Rout over [target headroom, span], Ω (0 when the table covers no design there). */
   routAtHeadroom: number;
+  /** The designs that reach them (evaluated on the full curve), when usable ones exist. */
+  atRout?: Evaluated;
+  atHeadroom?: Evaluated;
 }
 
-// Designs counted for the nearest points: within the mismatch budget, current at mid-span, lower devices saturated.
-const usable = (e: Evaluated) => e.margins.mismatch >= 0 && e.margins.iout >= 0 && e.margins.saturation >= 0;
+// Designs counted for the nearest points: within the mismatch budget and the width limit, current at mid-span,
+// lower devices saturated.
+const usable = (e: Evaluated) => e.margins.mismatch >= 0 && e.margins.iout >= 0 && e.margins.saturation >= 0 && e.margins.width >= 0;
 
 /** Lower headroom first; among designs that never reach the target, the higher Rout at span-side first. */
 function lowerHeadroom(a: Evaluated, b: Evaluated): boolean {
@@ -58,8 +62,14 @@ export function nearestPoints(ctx: SolveContext, topology: Topology, pool: Evalu
   }
   const hr = refine(ctx, bestOf(pool, lowerHeadroom, 2), seen, pool, lowerHeadroom);
   const ro = refine(ctx, bestOf(pool, higherRout, 2), seen, pool, higherRout);
+  // The figures come from the full curve, as every reported design's do, so they match wherever shown.
+  if (hr) finalize(ctx, hr);
+  if (ro) finalize(ctx, ro);
+  const atRout = hr && usable(hr) && Number.isFinite(hr.nominal.headroom) ? hr : undefined;
+  const atHeadroom = ro && usable(ro) ? ro : undefined;
   return {
-    headroomAtRout: hr && usable(hr) ? hr.nominal.headroom : Infinity,
-    routAtHeadroom: ro && usable(ro) ? ro.nominal.routAtTarget : 0,
+    headroomAtRout: atRout ? atRout.nominal.headroom : Infinity,
+    routAtHeadroom: atHeadroom ? atHeadroom.nominal.routAtTarget : 0,
+    atRout, atHeadroom,
   };
 }

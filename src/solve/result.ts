@@ -4,7 +4,7 @@ import { formatEng } from '../units/index.js';
 import type { BiasResult, CornerResult, CurvePoint, DeviceResult, Predicted, SquareLawCheck, StackResult } from './types.js';
 import type { SolveContext } from './context.js';
 import type { StackSpec } from '../spec/types.js';
-import { CURRENT_WINDOW, describe, meetsAll, tightest, type Margins } from './checks.js';
+import { CURRENT_WINDOW, describe, meetsAll, reportedHeadroom, tightest, widest, type Margins } from './checks.js';
 import { ensureCorners, nominalOk, type Evaluated } from './evaluate.js';
 import type { StackEval } from './stackeval.js';
 import type { Nearest } from './nearest.js';
@@ -14,11 +14,15 @@ export function absolute(device: Polarity, supply: number, x: number): number {
   return device === 'n' ? x : supply - x;
 }
 
-export function predictedOf(ev: StackEval | null, area: number, biasArea: number, sigma: number | undefined): Predicted {
+/**
+ * Predicted figures of one evaluation. `feasible` false: Rout is the one the spec asks about, the lowest over
+ * [target headroom, span] (the figure the explanation quotes); else over [headroom, span].
+ */
+export function predictedOf(ev: StackEval | null, area: number, biasArea: number, sigma: number | undefined, feasible = true): Predicted {
   const p: Predicted = {
     iout: ev ? ev.iout : NaN,
-    rout: ev ? ev.rout : NaN,
-    headroom: ev ? ev.headroom : Infinity,
+    rout: ev ? (feasible ? ev.rout : ev.routAtTarget) : NaN,
+    headroom: ev ? reportedHeadroom(ev.headroom) : Infinity,
     area,
     biasArea,
   };
@@ -67,7 +71,7 @@ export function cornerResult(
   const words = describe(tightest(m), spec, ev, sigma);
   const r: CornerResult = {
     corner, feasible,
-    predicted: predictedOf(ev, at.area, at.biasArea, sigma),
+    predicted: predictedOf(ev, at.area, at.biasArea, sigma, feasible),
     gates: at.gates.map((g) => absolute(spec.device, at.supply, g)),
   };
   if (feasible) r.tightest = words;
@@ -84,12 +88,13 @@ function cornerResults(ctx: SolveContext, e: Evaluated): CornerResult[] {
 }
 
 function smallest(m: Margins): number {
-  return Math.min(m.rout, m.headroom, m.iout, m.mismatch, m.saturation);
+  return Math.min(m.rout, m.headroom, m.iout, m.mismatch, m.saturation, m.width);
 }
 
 /** Words for why nothing met the targets, and the nearest points reached. */
-function infeasibility(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[], nearest: Nearest): Pick<StackResult, 'binding' | 'nearest'> {
+function infeasibility(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[], near: Nearest): Pick<StackResult, 'binding' | 'nearest'> {
   const s = ctx.spec;
+  const nearest = { headroomAtRout: reportedHeadroom(near.headroomAtRout), routAtHeadroom: near.routAtHeadroom };
   const mm = (e: Evaluated) => e.margins.mismatch >= 0;
   if (!pool.some((e) => e.margins.saturation >= 0)) {
     const room = `no explored ${best.cand.topology} keeps its lower devices saturated below the ${s.headroom.toFixed(3)} V headroom target`;
@@ -100,6 +105,10 @@ function infeasibility(ctx: SolveContext, best: Evaluated, pool: readonly Evalua
     if (c) return { binding: `corner ${c.corner}: ${describe(tightest(c.margins), s, c.ev, c.sigma)}`, nearest };
   }
   const physical = pool.filter((e) => e.margins.rout >= 0 && e.margins.headroom >= 0);
+  if (physical.length > 0 && !physical.some((e) => e.margins.width >= 0)) {
+    const w = Math.min(...physical.map((e) => widest(e.nominal).w));
+    return { binding: `width: every design meeting Rout and headroom has a device at least ${formatEng(w, 'm')} wide, above the ${formatEng(ctx.wmax, 'm')} width limit`, nearest };
+  }
   if (s.mismatch !== undefined && physical.length > 0 && !physical.some(mm)) {
     const sig = Math.min(...physical.map((e) => e.sigma ?? Infinity));
     return { binding: `mismatch: best σ ${(sig * 100).toFixed(3)} % (target ${(s.mismatch * 100).toFixed(3)} %) with rout and headroom met`, nearest };
@@ -115,7 +124,7 @@ function infeasibility(ctx: SolveContext, best: Evaluated, pool: readonly Evalua
 
 /**
  * Words for a missed Rout/headroom pair from the nearest points:
- * "rout: best 4.21 MΩ at the 0.500 V headroom target (needs 100 MΩ); no explored design reaches 100 MΩ at any headroom".
+ * "rout: best 4.21 MΩ at the 0.500 V headroom target (needs 100 MΩ); no allowed design reaches 100 MΩ at any headroom up to the 1.500 V span".
  */
 export function routHeadroomWords(s: StackSpec, nearest: { headroomAtRout: number; routAtHeadroom: number }): string {
   const need = formatEng(s.rout, 'Ω');
@@ -144,20 +153,29 @@ export function routHeadroomWords(s: StackSpec, nearest: { headroomAtRout: numbe
 /** The report for one topology: the chosen design, its corners, and why it fails if it does. */
 export function stackResult(ctx: SolveContext, best: Evaluated, pool: Evaluated[], evaluated: () => number, nearest: () => Nearest): StackResult {
   const { spec, supply } = ctx;
-  const corners = cornerResults(ctx, best);
+  let corners = cornerResults(ctx, best);
   const feasible = corners.every((c) => c.feasible);
+  let near: Nearest | undefined;
+  if (!feasible) {
+    near = nearest();
+    const shown = shownWhenInfeasible(ctx, best, pool, near);
+    if (shown !== best) {
+      best = shown;
+      corners = cornerResults(ctx, best);
+    }
+  }
   const r: StackResult = {
     name: spec.name, device: spec.device, topology: best.cand.topology, feasible,
     devices: devicesOf(best, spec.device, supply),
     bias: biasOf(best, spec.device, supply),
-    predicted: predictedOf(best.nominal, best.area, best.biasArea, best.sigma),
+    predicted: predictedOf(best.nominal, best.area, best.biasArea, best.sigma, feasible),
     curve: curveOf(best.nominal, spec.device, supply),
     corners,
     evaluated: 0,
   };
   const sq = squareLawOf(ctx, best);
   if (sq) r.squareLaw = sq;
-  if (!feasible) Object.assign(r, infeasibility(ctx, best, pool, nearest()));
+  if (near) Object.assign(r, infeasibility(ctx, best, pool, near));
   else {
     const all = [{ corner: ctx.nominal, m: best.margins }, ...(best.corners ?? []).map((c) => ({ corner: c.corner, m: c.margins }))];
     const worst = all.reduce((a, b) => (smallest(b.m) < smallest(a.m) ? b : a));
@@ -165,14 +183,35 @@ export function stackResult(ctx: SolveContext, best: Evaluated, pool: Evaluated[
     r.tightest = ctx.corners.length > 1 ? `corner ${worst.corner}: ${words}` : words;
   }
   r.evaluated = evaluated();
+  return withLimits(ctx, r);
+}
+
+/**
+ * The design an infeasible stack shows: the one reaching the nearest point of the
+ * target that binds (the best Rout at the headroom target when Rout is short
+ * there, else the lowest headroom at the Rout target), so the figures in its
+ * table are the figures in its explanation. A design meeting the nominal
+ * targets (failing at another corner) or one kept for a saturation failure stays.
+ */
+function shownWhenInfeasible(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[], near: Nearest): Evaluated {
+  if (nominalOk(best) || !pool.some((e) => e.margins.saturation >= 0)) return best;
+  if (near.atHeadroom && near.routAtHeadroom < ctx.spec.rout) return near.atHeadroom;
+  if (near.atRout) return near.atRout;
+  return near.atHeadroom ?? best;
+}
+
+/** The width limit, and the current the tables carry at it when the target is above that. */
+function withLimits(ctx: SolveContext, r: StackResult): StackResult {
+  r.wmax = ctx.wmax;
+  if (ctx.spec.current > ctx.currentLimit) r.currentLimit = ctx.currentLimit;
   return r;
 }
 
 /** A placeholder result when no candidate could be realised from the table at all. */
 export function emptyResult(ctx: SolveContext, topology: StackResult['topology'], evaluated: number, why: string): StackResult {
-  return {
+  return withLimits(ctx, {
     name: ctx.spec.name, device: ctx.spec.device, topology, feasible: false,
     binding: why, nearest: { headroomAtRout: Infinity, routAtHeadroom: 0 },
     devices: [], bias: [], predicted: predictedOf(null, NaN, NaN, undefined), curve: [], evaluated,
-  };
+  });
 }

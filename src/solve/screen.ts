@@ -40,6 +40,7 @@ class Pools {
   /** Rate one combination; true when some pool would keep it (then call keep with the candidate). Logs only when needed. */
   wants(area: number, rout: number, headroom: number, sigma: number): boolean {
     this.ctx.count.screened++;
+    this.ctx.count.rated++;
     return this.rate(area, rout, headroom, sigma);
   }
 
@@ -49,6 +50,7 @@ class Pools {
    * in them, so false means the whole group can be skipped without loss.
    */
   mayWant(count: number, area: number, rout: number, headroom: number, sigma: number): boolean {
+    this.ctx.count.rated++;
     if (this.rate(area, rout, headroom, sigma)) return true;
     this.ctx.count.screened += count;
     return false;
@@ -107,6 +109,54 @@ class Pools {
       }
     }
     return out;
+  }
+}
+
+/**
+ * The bottom devices one (top, middle) pair could want, found without trying
+ * them all: with Rout ≈ a + b·ro_bottom, area adding up and headroom set by the
+ * pair, the pools' best bottoms are the smallest-area one reaching the Rout
+ * target (and twice it) within the mismatch budget, and the highest-ro one
+ * within the budget and overall. Sorted by ro with suffix minima of area, each
+ * is a binary search.
+ */
+class BottomFinder {
+  private ro: Float64Array;
+  private best: StageOption[];
+  private maxOk: StageOption | undefined;
+  private maxAll: StageOption | undefined;
+  constructor(bottoms: readonly StageOption[], mismatch: number | undefined) {
+    const ok = bottoms.filter((o) => mismatch === undefined || o.sigma <= mismatch).sort((x, y) => x.ro - y.ro);
+    this.ro = Float64Array.from(ok, (o) => o.ro);
+    this.best = new Array(ok.length);
+    for (let j = ok.length - 1; j >= 0; j--) this.best[j] = j + 1 < ok.length && this.best[j + 1].area < ok[j].area ? this.best[j + 1] : ok[j];
+    this.maxOk = ok[ok.length - 1];
+    for (const o of bottoms) if (!this.maxAll || o.ro > this.maxAll.ro) this.maxAll = o;
+  }
+
+  /** Smallest-area bottom within the budget with ro ≥ need, if any. */
+  private atLeast(need: number): StageOption | undefined {
+    let lo = 0;
+    let hi = this.ro.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (this.ro[mid] >= need) hi = mid;
+      else lo = mid + 1;
+    }
+    return this.best[lo];
+  }
+
+  /** The distinct picks into `out` (reused between calls); returns how many. */
+  picks(need: number, need2: number, out: StageOption[]): number {
+    let n = 0;
+    const add = (o: StageOption | undefined) => {
+      if (o && (n < 1 || out[0] !== o) && (n < 2 || out[1] !== o) && (n < 3 || out[2] !== o)) out[n++] = o;
+    };
+    add(this.atLeast(need));
+    add(this.atLeast(need2));
+    add(this.maxOk);
+    add(this.maxAll);
+    return n;
   }
 }
 
@@ -196,10 +246,8 @@ export function screen(ctx: SolveContext, topology: Topology): Candidate[] {
     const grid = withLowSetpoint(ctx, setpointGrid(s, ctx.vmid, 0.05));
     const gm = ctx.gmids.filter((_, j) => j % 2 === 0);
     const bottoms = new Map(grid.map((s1) => [s1, prune(stageOptions(ctx, cache, { mode: s1, vsb: 0, gmids: gm, lower: true }), bottomCrit(ctx))]));
-    // Best case over each bottom set, to skip (top, middle) pairs no bottom could make worth keeping.
-    const bounds = new Map([...bottoms].map(([s1, b]) => [s1, {
-      area: Math.min(...b.map((o) => o.area)), ro: Math.max(...b.map((o) => o.ro)), sigma: Math.min(...b.map((o) => o.sigma)),
-    }]));
+    const picked: StageOption[] = [];
+    const finders = new Map([...bottoms].map(([s1, b]) => [s1, new BottomFinder(b, s.mismatch)]));
     for (const s1 of grid) {
       for (const s2 of grid) {
         const below = Math.round((s1 + s2) * 1e6) / 1e6;
@@ -210,15 +258,20 @@ export function screen(ctx: SolveContext, topology: Topology): Candidate[] {
         const mids = prune(stageOptions(ctx, cache, { mode: s2, vsb: s1, gmids: gm, lower: true }), midCrit);
         if (mids.length === 0) continue;
         const tops = top(below, gm);
-        const lim = bounds.get(s1)!;
+        const find = finders.get(s1)!;
         for (const t of tops) {
           const a3 = 1 + t.gmt * t.ro;
           for (const m of mids) {
+            // Rout ≈ a + b·ro_bottom: for this (top, middle) pair each pool wants one bottom, found by search
+            // in the bottoms sorted by ro, so the work per pair grows with the log of the bottom count.
             const a = t.ro + a3 * m.ro;
             const b = a3 * (1 + m.gmt * m.ro);
-            if (!pools.mayWant(bottom.length, lim.area + m.area + t.area, a + b * lim.ro, below + t.vdsat, lim.sigma)) continue;
-            for (const o of bottom) {
-              if (pools.wants(o.area + m.area + t.area, a + b * o.ro, below + t.vdsat, o.sigma)) pools.keep({ topology, l: [o.l, m.l, t.l], gmid: [o.gmid, m.gmid, t.gmid], setpoints: [s1, s2] });
+            const hr = below + t.vdsat;
+            const count = find.picks((s.rout - a) / b, (2 * s.rout - a) / b, picked);
+            ctx.count.screened += bottom.length - count;
+            for (let j = 0; j < count; j++) {
+              const o = picked[j];
+              if (pools.wants(o.area + m.area + t.area, a + b * o.ro, hr, o.sigma)) pools.keep({ topology, l: [o.l, m.l, t.l], gmid: [o.gmid, m.gmid, t.gmid], setpoints: [s1, s2] });
             }
           }
         }

@@ -6,6 +6,8 @@
  * - sizing: each device at its design bias at mid-span v_mid = (headroom + span)/2, VGS from gm/ID, W = I/jd;
  * - minimum width: every output device W ≥ the kit's shortest table length; bias diodes (same L, bias current)
  *   may take a longer table length to reach it, and the design is not realisable when none does;
+ * - width limit: every output device W ≤ the spec's wmax, else the README's kit default of 64 fingers of
+ *   100 × the shortest table length;
  * - saturation: every device below the top one has VDS ≥ VDSsat (EKV interpolation) at mid-span;
  * - mismatch: Pelgrom σ of the bottom device (Pelgrom, Duinmaijer & Welbers, IEEE JSSC 1989);
  * - headroom: the lowest v such that for every v' up to span Rout(v') ≥ rout and the current stays within 1 % of
@@ -109,6 +111,7 @@ export function exhaustive(spec: StackSpec, kit: KitAccess, topology: Topology, 
   const table = Array.from(kit.lengths(corner, spec.device));
   const wmin = table[0];
   const lengths = lengthsOf(spec, table);
+  const wmax = spec.wmax ?? 64 * 100 * wmin;
   const slices = new Map<number, LengthSlice>();
   const slice = (l: number) => {
     let s = slices.get(l);
@@ -141,7 +144,7 @@ export function exhaustive(spec: StackSpec, kit: KitAccess, topology: Topology, 
       const jd = s.jd(vgs, d, vsb);
       const w = spec.current / jd;
       const saturated = !lower || d >= saturationVoltage(s, gmid, vsb, ut);
-      if (jd > 0 && w >= wmin * (1 - 1e-9) && saturated) {
+      if (jd > 0 && w >= wmin * (1 - 1e-9) && w <= wmax && saturated) {
         // Pelgrom's law: σ² = ((gm/ID)²·A_VT² + A_β²)/(W·L).
         const sigma = coeff ? Math.sqrt((gmid * gmid * coeff.avt * coeff.avt + coeff.abeta * coeff.abeta) / (w * l)) : 0;
         o = { l, gmid, slice: s, vgs, w, area: w * l, sigma };
@@ -151,15 +154,48 @@ export function exhaustive(spec: StackSpec, kit: KitAccess, topology: Topology, 
     return o;
   }
 
-  // ---- designs: every combination of options and setpoints ----
-  function designsOf(ls: number[][], gs: number[][], sps: number[][]): Design[] {
+  /**
+   * The gm/ID at which a device reaches the width limit (W rises with gm/ID), when that lies inside the range:
+   * the best designs for Rout and headroom often sit on it, between grid points.
+   */
+  const edgeMemo = new Map<string, number | null>();
+  function widthEdge(l: number, vds: number | 'diode', vsb: number): number | null {
+    const key = `${l}|${vds}|${vsb}`;
+    const hit = edgeMemo.get(key);
+    if (hit !== undefined) return hit;
+    const s = slice(l);
+    const width = (g: number) => {
+      const vgs = vgsForGmid(s, g, vds, vsb);
+      return vgs === null ? Infinity : spec.current / s.jd(vgs, vds === 'diode' ? vgs : vds, vsb);
+    };
+    let edge: number | null = null;
+    if (width(gHi) > wmax && width(gLo) < wmax) {
+      let lo = gLo;
+      let hi = gHi;
+      for (let it = 0; it < 30; it++) {
+        const m = 0.5 * (lo + hi);
+        if (width(m) <= wmax) lo = m;
+        else hi = m;
+      }
+      edge = lo;
+    }
+    edgeMemo.set(key, edge);
+    return edge;
+  }
+
+  // ---- designs: every combination of options and setpoints (with `edges`, also each device's width edge) ----
+  function designsOf(ls: number[][], gs: number[][], sps: number[][], edges = false): Design[] {
+    const gmidsAt = (k: number, l: number, vds: number | 'diode', vsb: number) => {
+      const e = edges ? widthEdge(l, vds, vsb) : null;
+      return e === null ? gs[k] : [...gs[k], e];
+    };
     const out: Design[] = [];
     if (topology === 'cascode-stacked') {
       // The bottom diode sets x1 = VGS1: the top device's options depend on each bottom option.
-      for (const l1 of ls[0]) for (const g1 of gs[0]) {
+      for (const l1 of ls[0]) for (const g1 of gmidsAt(0, l1, 'diode', 0)) {
         const b = option(l1, g1, 'diode', 0, true);
         if (!b || !(b.vgs < vmid)) continue;
-        for (const l2 of ls[1]) for (const g2 of gs[1]) {
+        for (const l2 of ls[1]) for (const g2 of gmidsAt(1, l2, vmid - b.vgs, b.vgs)) {
           const t = option(l2, g2, vmid - b.vgs, b.vgs, false);
           if (t) out.push(make([b, t], [], [0, b.vgs, vmid]));
         }
@@ -173,7 +209,7 @@ export function exhaustive(spec: StackSpec, kit: KitAccess, topology: Topology, 
         const lower = k < devs - 1;
         const vds = lower ? sp[k] : vmid - nodes[k];
         const list: Option[] = [];
-        if (vds > 0) for (const l of ls[k]) for (const g of gs[k]) {
+        if (vds > 0) for (const l of ls[k]) for (const g of gmidsAt(k, l, vds, nodes[k])) {
           const o = option(l, g, vds, nodes[k], lower);
           if (o) list.push(o);
         }
@@ -367,7 +403,7 @@ export function exhaustive(spec: StackSpec, kit: KitAccess, topology: Topology, 
     return [[]];
   };
   const all = (x: number[]) => Array.from({ length: devs }, () => x);
-  const coarse = designsOf(all(lengths), all(coarseG), spGrid(grid.vStep));
+  const coarse = designsOf(all(lengths), all(coarseG), spGrid(grid.vStep), true);
   const first = answer(coarse);
 
   const obj = spec.objective;
