@@ -192,3 +192,35 @@ describe('explanations of infeasible specs are true (exhaustive reference search
     });
   }
 });
+
+describe('width limit (spec key wmax)', () => {
+  const tail = { device: 'n', topology: 'cascode', current: 40e-6, rout: 50e6, headroom: 0.45, span: 1.6, objective: 'area' } as const;
+
+  it('a limit below what the targets need makes the stack infeasible on width, and the width it names is the true edge', () => {
+    const tool = sizeStack({ name: 'w', ...tail, wmax: 20e-6 }, kits.demo180, { supply: 1.8, corners: ['tt'] }).results[0];
+    expect(tool.feasible).toBe(false);
+    expect(bindingTarget(tool)).toBe('width');
+    const named = /at least (\S+) µm wide/.exec(String(tool.binding));
+    expect(named).not.toBeNull();
+    const w = Number(named![1]) * 1e-6;
+    // The exhaustive reference agrees: nothing fits a limit 5 % below the named width, something fits 10 % above.
+    const grid: Grid = { gmidStep: 3, vStep: 0.05, nearest: false };
+    expect(exhaustive({ name: 'w', ...tail, wmax: 0.95 * w }, kits.demo180, 'cascode', 'tt', grid).best).toBeUndefined();
+    const wider = exhaustive({ name: 'w', ...tail, wmax: 1.1 * w }, kits.demo180, 'cascode', 'tt', grid).best;
+    expect(wider).toBeDefined();
+    expect(Math.max(...wider!.w)).toBeLessThanOrEqual(1.1 * w);
+  });
+
+  it('a current no device of the kit carries at the default limit is infeasible on width, with a warning figure', () => {
+    const tool = sizeStack({ name: 'big', ...tail, current: 10, rout: 1e3, headroom: 0.5 }, kits.demo180, { supply: 1.8, corners: ['tt'] }).results[0];
+    expect(tool.feasible).toBe(false);
+    expect(bindingTarget(tool)).toBe('width');
+    // Default limit: 64 fingers of 100 × the 0.18 µm shortest length (README).
+    expect(tool.wmax).toBeCloseTo(64 * 100 * 0.18e-6, 12);
+    expect(tool.currentLimit).toBeGreaterThan(0);
+    expect(tool.currentLimit).toBeLessThan(10);
+    // What one device at the limit carries cannot exceed the table's highest current density (top of VGS and VDS).
+    const s = kits.demo180.slice('tt', 'n', 0.18e-6);
+    expect(tool.currentLimit!).toBeLessThanOrEqual(tool.wmax! * s.jd(s.range.vgs[1], s.range.vds[1], 0) * (1 + 1e-9));
+  });
+});
