@@ -13,6 +13,18 @@ export interface Nearest {
   /** The designs that reach them (evaluated on the full curve), when usable ones exist. */
   atRout?: Evaluated;
   atHeadroom?: Evaluated;
+  /** When every design meeting Rout and headroom breaks the width limit: the narrowest widest device among them, m. */
+  narrowest?: number;
+}
+
+// Meets everything but the width limit.
+const physical = (e: Evaluated) => e.margins.rout >= 0 && e.margins.headroom >= 0 && e.margins.mismatch >= 0 && e.margins.iout >= 0 && e.margins.saturation >= 0;
+const widestOf = (e: Evaluated) => Math.max(...e.sized.w);
+
+/** Physical designs first, then the narrower widest device. */
+function narrower(a: Evaluated, b: Evaluated): boolean {
+  if (physical(a) !== physical(b)) return physical(a);
+  return widestOf(a) < widestOf(b);
 }
 
 // Designs counted for the nearest points: within the mismatch budget and the width limit, current at mid-span,
@@ -51,7 +63,10 @@ function bestOf(pool: readonly Evaluated[], prefer: (a: Evaluated, b: Evaluated)
  * every proposal evaluated exactly at the spec's own targets, then a climb
  * towards each question from its best few designs.
  */
-export function nearestPoints(ctx: SolveContext, topology: Topology, pool: Evaluated[], seen: Seen): Nearest {
+export function nearestPoints(
+  ctx: SolveContext, topology: Topology, pool: Evaluated[], seen: Seen,
+  fitsWithin?: (wmax: number) => number | null,
+): Nearest {
   const lifted = Math.max(ctx.spec.headroom, ctx.vmid - 0.05);
   if (lifted > ctx.spec.headroom) {
     const wide: SolveContext = { ...ctx, spec: { ...ctx.spec, headroom: lifted, objective: 'headroom' } };
@@ -65,11 +80,24 @@ export function nearestPoints(ctx: SolveContext, topology: Topology, pool: Evalu
   // The figures come from the full curve, as every reported design's do, so they match wherever shown.
   if (hr) finalize(ctx, hr);
   if (ro) finalize(ctx, ro);
+  let narrowest: number | undefined;
+  if (pool.some(physical) && !pool.some((e) => physical(e) && e.margins.width >= 0)) {
+    const w = refine(ctx, bestOf(pool, narrower, 2), seen, pool, narrower);
+    if (w && physical(w)) narrowest = widestOf(w);
+    // The climb follows one design; bisect on the limit with the whole search for the edge itself.
+    let lo = ctx.wmax;
+    for (let it = 0; it < 4 && fitsWithin && narrowest !== undefined && narrowest > lo * 1.01; it++) {
+      const mid = Math.sqrt(lo * narrowest);
+      const fit = fitsWithin(mid);
+      if (fit === null) lo = mid;
+      else narrowest = Math.min(narrowest, fit);
+    }
+  }
   const atRout = hr && usable(hr) && Number.isFinite(hr.nominal.headroom) ? hr : undefined;
   const atHeadroom = ro && usable(ro) ? ro : undefined;
   return {
     headroomAtRout: atRout ? atRout.nominal.headroom : Infinity,
     routAtHeadroom: atHeadroom ? atHeadroom.nominal.routAtTarget : 0,
-    atRout, atHeadroom,
+    atRout, atHeadroom, narrowest,
   };
 }

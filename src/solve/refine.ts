@@ -24,7 +24,7 @@ function nearestIndex(values: readonly number[], x: number): number {
  * setpoints) by ± its step; and every pair of continuous coordinates at once (all four sign pairs), so the
  * climb can follow a constraint boundary that runs diagonally (e.g. a lower gm/ID bought with a higher setpoint).
  */
-export function neighbours(ctx: SolveContext, c: Candidate, gstep: number, vstep: number): Candidate[] {
+export function neighbours(ctx: SolveContext, c: Candidate, gstep: number, vstep: number, pairs = true): Candidate[] {
   const out: Candidate[] = [];
   const gLo = ctx.gmids[0];
   const gHi = ctx.gmids[ctx.gmids.length - 1];
@@ -57,6 +57,7 @@ export function neighbours(ctx: SolveContext, c: Candidate, gstep: number, vstep
       const d = copy();
       set(d, a, xa);
       out.push(d);
+      if (!pairs) continue;
       for (let b = a + 1; b < dims; b++) {
         for (const sb of [-1, 1]) {
           const xb = value(c, b) + sb * step(b);
@@ -95,8 +96,20 @@ function climb(ctx: SolveContext, seed: Evaluated, seen: Seen, pool: Evaluated[]
   let gstep = ctx.gmidStep / 2;
   let vstep = best.cand.topology === 'triple' ? 0.025 : 0.0125;
   for (let round = 0; round < 16; round++) {
+    // One-coordinate moves first; the pair moves (many more) only when none of those improves.
+    let improved = step(neighbours(ctx, best.cand, gstep, vstep, false));
+    if (!improved) improved = step(neighbours(ctx, best.cand, gstep, vstep, true));
+    if (!improved) {
+      gstep /= 2;
+      vstep /= 2;
+      if (gstep < ctx.gmidStep / 8 && vstep < 0.003) break;
+    }
+  }
+  return best;
+
+  function step(moves: Candidate[]): boolean {
     let improved = false;
-    for (const n of neighbours(ctx, best.cand, gstep, vstep)) {
+    for (const n of moves) {
       const key = candidateKey(n);
       if (seen.has(key)) {
         const e = seen.get(key);
@@ -114,11 +127,6 @@ function climb(ctx: SolveContext, seed: Evaluated, seen: Seen, pool: Evaluated[]
         improved = true;
       }
     }
-    if (!improved) {
-      gstep /= 2;
-      vstep /= 2;
-      if (gstep < ctx.gmidStep / 8 && vstep < 0.003) break;
-    }
+    return improved;
   }
-  return best;
 }

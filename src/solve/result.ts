@@ -105,8 +105,8 @@ function infeasibility(ctx: SolveContext, best: Evaluated, pool: readonly Evalua
     if (c) return { binding: `corner ${c.corner}: ${describe(tightest(c.margins), s, c.ev, c.sigma)}`, nearest };
   }
   const physical = pool.filter((e) => e.margins.rout >= 0 && e.margins.headroom >= 0);
-  if (physical.length > 0 && !physical.some((e) => e.margins.width >= 0)) {
-    const w = Math.min(...physical.map((e) => widest(e.nominal).w));
+  if (near.narrowest !== undefined) {
+    const w = near.narrowest;
     return { binding: `width: every design meeting Rout and headroom has a device at least ${formatEng(w, 'm')} wide, above the ${formatEng(ctx.wmax, 'm')} width limit`, nearest };
   }
   if (s.mismatch !== undefined && physical.length > 0 && !physical.some(mm)) {

@@ -35,6 +35,13 @@ function frontPoint(ctx: SolveContext, e: Evaluated): FrontPoint {
 // Climbs per search: the best design and the best of other length choices (the optimum's lengths may differ).
 const SEEDS = 4;
 
+/** e starts within reach of best by the objective: 30 % of area or Rout, 30 mV of headroom. */
+function near(objective: StackSpec['objective'], e: Evaluated, best: Evaluated): boolean {
+  if (objective === 'area') return e.area <= 1.3 * best.area;
+  if (objective === 'rout') return e.nominal.rout >= best.nominal.rout / 1.3;
+  return e.nominal.headroom <= best.nominal.headroom + 0.03;
+}
+
 /** Seeds for refinement: the best design and the best of each other length choice of the same kind (meeting targets, or nearest). */
 function seedsOf(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[]): Evaluated[] {
   const ok = nominalOk(best) && fullyOk(ctx, best);
@@ -45,7 +52,9 @@ function seedsOf(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[])
   const taken = new Set([lengths(best)]);
   const seeds = [best];
   for (const e of rest) {
-    if (seeds.length >= SEEDS) break;
+    if (seeds.length >= (ok ? SEEDS : 2)) break;
+    // Other lengths only when they start close to the best (a climb gains some tens of percent, not more).
+    if (ok && !near(ctx.spec.objective, e, best)) break;
     if (taken.has(lengths(e))) continue;
     taken.add(lengths(e));
     seeds.push(e);
@@ -75,7 +84,7 @@ function sizeTopology(ctx: SolveContext, topology: Topology): { result: StackRes
   const rejected = { triode: ctx.count.triode, narrow: ctx.count.narrow };
   const run = search(ctx, topology);
   const counted = () => ctx.count.screened + ctx.count.exact - before;
-  const near = (r: NonNullable<typeof run>) => () => nearestPoints(ctx, topology, r.pool, r.seen);
+  const near = (r: NonNullable<typeof run>) => () => nearestPoints(ctx, topology, r.pool, r.seen, (w) => fitsWithin(ctx, topology, w));
   if (run) return { result: stackResult(ctx, run.best, run.pool, counted, near(run)), pool: run.pool };
   // Nothing with saturated lower devices on the screen's grid: search again with them allowed, so refinement
   // can still reach a saturated design or, failing that, show the nearest one failing on saturation.
@@ -90,6 +99,13 @@ function sizeTopology(ctx: SolveContext, topology: Topology): { result: StackRes
   if (rerun) return { result: stackResult(ctx, rerun.best, rerun.pool, counted, near(rerun)), pool: rerun.pool.filter((e) => e.margins.saturation >= 0) };
   const triode = ctx.count.triode > rejected.triode;
   return { result: emptyResult(ctx, topology, counted(), triode ? nothingFitsWords(ctx, topology) : noCandidateWords(ctx, topology, rejected)), pool: [] };
+}
+
+/** The widest device of a design meeting every nominal target within a width limit of `w`, or null when the search finds none. */
+function fitsWithin(ctx: SolveContext, topology: Topology, w: number): number | null {
+  const limited: SolveContext = { ...ctx, wmax: w, spec: { ...ctx.spec, wmax: w } };
+  const run = search(limited, topology);
+  return run && nominalOk(run.best) ? Math.max(...run.best.sized.w) : null;
 }
 
 /** Why a topology got no design at all, with the rejections counted since `from`. */
