@@ -8,8 +8,8 @@
 import { loadKit } from '../src/api.js';
 import type { KitAccess } from '../src/solve/kit.js';
 import { makeContext } from '../src/solve/context.js';
-import { screen } from '../src/solve/screen.js';
-import type { StackSpec } from '../src/spec/types.js';
+import { screen } from '../src/solve/search/screen.js';
+import type { StackSpec } from '../src/design/types.js';
 
 const kitName = process.argv[2] ?? 'demo180';
 const kit = loadKit(kitName, { tables: process.argv[3] ?? 'tables' });

@@ -1,4 +1,5 @@
 import type { StackResult } from '../solve/types.js';
+import { verdictText, bindingText, volts } from './verdict.js';
 import { eng, formatArea, formatPercent, perVolt } from './format.js';
 
 /** Cells that start with a digit or sign are numbers (aligned right). */
@@ -86,7 +87,7 @@ export function cornerGrid(stack: StackResult): Grid | undefined {
     headers: ['corner', 'meets targets', 'Iout', 'Rout', 'headroom', 'bias gates', 'binding / tightest'],
     rows: stack.corners.map((c) => [
       c.corner, c.feasible ? 'yes' : 'NO', eng(c.predicted.iout, 'A'), eng(c.predicted.rout, 'Ω'), eng(c.predicted.headroom, 'V'),
-      c.gates.map((g) => eng(g, 'V')).join(', ') || '—', c.binding ?? c.tightest ?? '—',
+      c.gates.map((g) => eng(g, 'V')).join(', ') || '—', c.binding ? verdictText(c.binding) : c.tightest ? verdictText(c.tightest) : '—',
     ]),
   };
 }
@@ -98,14 +99,15 @@ export function currentWarning(stack: StackResult): string | undefined {
 }
 
 /** One sentence on feasibility, the binding target and the nearest reachable points. */
-export function verdict(stack: StackResult): string {
+export function statusLine(stack: StackResult): string {
   const tag = stack.chosen === true ? ' (chosen by the objective)' : stack.chosen === false ? ' (alternative)' : '';
   if (stack.feasible) return `meets all targets${tag}`;
-  const parts = [`does not meet the targets${stack.binding ? `: ${stack.binding}` : ''}`];
+  const parts = [`does not meet the targets${stack.binding ? `: ${bindingText(stack)}` : ''}`];
   const n = stack.nearest;
-  // An unreachable Rout target is already said by the binding text.
   if (n?.headroomAtRout !== undefined && Number.isFinite(n.headroomAtRout)) {
-    parts.push(`the Rout target needs ${eng(n.headroomAtRout, 'V')} of headroom`);
+    parts.push(`the Rout target needs ${volts(n.headroomAtRout)} of headroom at best`);
+  } else if (n !== undefined && stack.binding?.target === 'rout') {
+    parts.push('no allowed design reaches the Rout target at any headroom up to the span');
   }
   if (n?.routAtHeadroom !== undefined && n.routAtHeadroom > 0) parts.push(`at the headroom target Rout reaches ${eng(n.routAtHeadroom, 'Ω')}`);
   return parts.join('; ') + tag;

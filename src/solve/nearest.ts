@@ -1,8 +1,8 @@
-import type { Topology } from '../spec/types.js';
+import type { Topology } from '../design/types.js';
 import type { SolveContext } from './context.js';
-import { finalize, type Evaluated } from './evaluate.js';
-import { evaluateOnce, refine, type Seen } from './refine.js';
-import { screen } from './screen.js';
+import { finalize, type Evaluated } from './evaluate/evaluate.js';
+import { evaluateOnce, refine, type Seen } from './search/refine.js';
+import { screen } from './search/screen.js';
 
 /** The nearest reachable points of an infeasible stack, over the whole allowed design space. */
 export interface Nearest {

@@ -1,4 +1,4 @@
-import type { StackSpec } from '../spec/types.js';
+import type { StackSpec } from '../design/types.js';
 
 /** Fingers one device may be split into, by default (common practice: a few tens of fingers per device). */
 export const MAX_FINGERS = 64;

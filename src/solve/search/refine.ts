@@ -1,0 +1,133 @@
+import { topologyOf } from '../../topology/index.js';
+import type { Candidate } from './candidate.js';
+import { candidateKey } from './candidate.js';
+import type { SolveContext } from '../context.js';
+import { evaluateCandidate, type Evaluated } from '../evaluate/evaluate.js';
+import { better } from './rank.js';
+
+/** Exactly evaluated candidates by key (null: not realisable), shared by screen and refinement. */
+export type Seen = Map<string, Evaluated | null>;
+
+export function evaluateOnce(ctx: SolveContext, c: Candidate, seen: Seen): Evaluated | null {
+  const k = candidateKey(c);
+  if (!seen.has(k)) seen.set(k, evaluateCandidate(ctx, c));
+  return seen.get(k)!;
+}
+
+function nearestIndex(values: readonly number[], x: number): number {
+  let best = 0;
+  for (let j = 1; j < values.length; j++) if (Math.abs(values[j] - x) < Math.abs(values[best] - x)) best = j;
+  return best;
+}
+
+/**
+ * Moves from a candidate: L to the neighbouring grid lengths; each continuous coordinate (gm/ID per device,
+ * setpoints) by ± its step; and every pair of continuous coordinates at once (all four sign pairs), so the
+ * climb can follow a constraint boundary that runs diagonally (e.g. a lower gm/ID bought with a higher setpoint).
+ */
+export function neighbours(ctx: SolveContext, c: Candidate, gstep: number, vstep: number, pairs = true): Candidate[] {
+  const out: Candidate[] = [];
+  const gLo = ctx.gmids[0];
+  const gHi = ctx.gmids[ctx.gmids.length - 1];
+  const n = c.gmid.length;
+  const m = c.setpoints.length;
+  // Continuous coordinate k: gm/ID of device k (k < n), else setpoint k − n.
+  const value = (d: Candidate, k: number) => (k < n ? d.gmid[k] : d.setpoints[k - n]);
+  const step = (k: number) => (k < n ? gstep : vstep);
+  const allowed = (k: number, x: number) => (k < n ? x >= gLo - 1e-9 && x <= gHi + 1e-9 : x >= 0.02);
+  const set = (d: Candidate, k: number, x: number) => {
+    if (k < n) d.gmid[k] = x;
+    else d.setpoints[k - n] = x;
+  };
+  const copy = (): Candidate => ({ topology: c.topology, l: [...c.l], gmid: [...c.gmid], setpoints: [...c.setpoints] });
+  for (let k = 0; k < c.l.length; k++) {
+    const j = nearestIndex(ctx.lengths, c.l[k]);
+    for (const dj of [-1, 1]) {
+      const l = ctx.lengths[j + dj];
+      if (l === undefined) continue;
+      const d = copy();
+      d.l[k] = l;
+      out.push(d);
+    }
+  }
+  const dims = n + m;
+  for (let a = 0; a < dims; a++) {
+    for (const sa of [-1, 1]) {
+      const xa = value(c, a) + sa * step(a);
+      if (!allowed(a, xa)) continue;
+      const d = copy();
+      set(d, a, xa);
+      out.push(d);
+      if (!pairs) continue;
+      for (let b = a + 1; b < dims; b++) {
+        for (const sb of [-1, 1]) {
+          const xb = value(c, b) + sb * step(b);
+          if (!allowed(b, xb)) continue;
+          const e = copy();
+          set(e, a, xa);
+          set(e, b, xb);
+          out.push(e);
+        }
+      }
+    }
+  }
+  return out;
+}
+
+/**
+ * Local refinement: from each seed, hill-climb over the neighbouring moves,
+ * halving the gm/ID and setpoint steps when no move improves. Returns the
+ * best design of all climbs by `prefer` (default: the spec's targets and
+ * objective); every design it returns was evaluated exactly.
+ */
+export function refine(
+  ctx: SolveContext, seeds: readonly Evaluated[], seen: Seen, pool: Evaluated[],
+  prefer: (a: Evaluated, b: Evaluated) => boolean = (a, b) => better(ctx, a, b),
+): Evaluated | undefined {
+  let best: Evaluated | undefined;
+  for (const seed of seeds) {
+    const local = climb(ctx, seed, seen, pool, prefer);
+    if (!best || prefer(local, best)) best = local;
+  }
+  return best;
+}
+
+function climb(ctx: SolveContext, seed: Evaluated, seen: Seen, pool: Evaluated[], better: (a: Evaluated, b: Evaluated) => boolean): Evaluated {
+  let best = seed;
+  let gstep = ctx.gmidStep / 2;
+  let vstep = topologyOf(best.cand.topology).refineVoltageStep;
+  for (let round = 0; round < 16; round++) {
+    // One-coordinate moves first; the pair moves (many more) only when none of those improves.
+    let improved = step(neighbours(ctx, best.cand, gstep, vstep, false));
+    if (!improved) improved = step(neighbours(ctx, best.cand, gstep, vstep, true));
+    if (!improved) {
+      gstep /= 2;
+      vstep /= 2;
+      if (gstep < ctx.gmidStep / 8 && vstep < 0.003) break;
+    }
+  }
+  return best;
+
+  function step(moves: Candidate[]): boolean {
+    let improved = false;
+    for (const n of moves) {
+      const key = candidateKey(n);
+      if (seen.has(key)) {
+        const e = seen.get(key);
+        if (e && better(e, best)) {
+          best = e;
+          improved = true;
+        }
+        continue;
+      }
+      const e = evaluateOnce(ctx, n, seen);
+      if (!e) continue;
+      pool.push(e);
+      if (better(e, best)) {
+        best = e;
+        improved = true;
+      }
+    }
+    return improved;
+  }
+}
