@@ -38,6 +38,9 @@ export class TableSlice implements LengthSlice {
   private readonly sG: number;
   private readonly sD: number;
   private readonly sS: number;
+  // Plane dimensions along VDS and VSB, kept as fields so a lookup destructures nothing.
+  private readonly nd: number;
+  private readonly ns: number;
   private readonly label: string;
   // Cell of the last locate(): base offset and fractions.
   private base = 0;
@@ -68,6 +71,8 @@ export class TableSlice implements LengthSlice {
     this.ld = new AxisLocator(table.axes.vds);
     this.ls = new AxisLocator(table.axes.vsb);
     const [, nd, ns] = this.plane.dims;
+    this.nd = nd;
+    this.ns = ns;
     this.sS = this.ls.step;
     this.sD = this.ld.step * ns;
     this.sG = this.lg.step * nd * ns;
@@ -133,8 +138,7 @@ export class TableSlice implements LengthSlice {
     if (id < 0) throw rangeError('vds', vds, this.ld.lo, this.ld.hi, 'V', this.where());
     const is = this.ls.locate(vsb);
     if (is < 0) throw rangeError('vsb', vsb, this.ls.lo, this.ls.hi, 'V', this.where());
-    const [, nd, ns] = this.plane.dims;
-    this.base = (ig * nd + id) * ns + is;
+    this.base = (ig * this.nd + id) * this.ns + is;
     this.tg = this.lg.t;
     this.td = this.ld.t;
     this.ts = this.ls.t;

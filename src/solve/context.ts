@@ -83,13 +83,15 @@ export function makeContext(spec: StackSpec, kit: KitAccess, supply: number, cor
   const lmin = kit.lengths(corners[0], spec.device)[0];
   const wmax = widthLimit(spec, lmin);
   spec = { ...spec, wmax };
-  const cache = new Map<string, LengthSlice>();
+  // Per corner, per length (numeric key): no string built per lookup.
+  const cache = new Map<string, Map<number, LengthSlice>>();
   const slice = (corner: string, l: number): LengthSlice => {
-    const key = `${corner}|${l}`;
-    let s = cache.get(key);
+    let byL = cache.get(corner);
+    if (!byL) cache.set(corner, (byL = new Map()));
+    let s = byL.get(l);
     if (!s) {
       s = kit.slice(corner, spec.device, l);
-      cache.set(key, s);
+      byL.set(l, s);
     }
     return s;
   };
