@@ -2,7 +2,8 @@ import { topologyOf } from '../../topology/index.js';
 import type { Candidate } from './candidate.js';
 import { candidateKey } from './candidate.js';
 import type { SolveContext } from '../context.js';
-import { evaluateCandidate, type Evaluated } from '../evaluate/evaluate.js';
+import { candidateArea, evaluateCandidate, fullyOk, nominalOk, type Evaluated } from '../evaluate/evaluate.js';
+import { REL_TOL } from '../../policy.js';
 import { better } from './rank.js';
 
 /** Exactly evaluated candidates by key (null: not realisable), shared by screen and refinement. */
@@ -82,17 +83,24 @@ export function neighbours(ctx: SolveContext, c: Candidate, gstep: number, vstep
  */
 export function refine(
   ctx: SolveContext, seeds: readonly Evaluated[], seen: Seen, pool: Evaluated[],
-  prefer: (a: Evaluated, b: Evaluated) => boolean = (a, b) => better(ctx, a, b),
+  prefer?: (a: Evaluated, b: Evaluated) => boolean,
 ): Evaluated | undefined {
+  // With the spec's own order and objective area, a move whose area is no smaller than a design meeting every
+  // target cannot win: its area (from the sizing alone) spares the exact evaluation.
+  const bound = prefer ? () => Infinity : (b: Evaluated) => (ctx.spec.objective === 'area' && nominalOk(b) && fullyOk(ctx, b) ? b.area : Infinity);
+  prefer ??= (a, b) => better(ctx, a, b);
   let best: Evaluated | undefined;
   for (const seed of seeds) {
-    const local = climb(ctx, seed, seen, pool, prefer);
+    const local = climb(ctx, seed, seen, pool, prefer, bound);
     if (!best || prefer(local, best)) best = local;
   }
   return best;
 }
 
-function climb(ctx: SolveContext, seed: Evaluated, seen: Seen, pool: Evaluated[], better: (a: Evaluated, b: Evaluated) => boolean): Evaluated {
+function climb(
+  ctx: SolveContext, seed: Evaluated, seen: Seen, pool: Evaluated[],
+  better: (a: Evaluated, b: Evaluated) => boolean, bound: (best: Evaluated) => number,
+): Evaluated {
   let best = seed;
   let gstep = ctx.gmidStep / 2;
   let vstep = topologyOf(best.cand.topology).refineVoltageStep;
@@ -111,6 +119,8 @@ function climb(ctx: SolveContext, seed: Evaluated, seen: Seen, pool: Evaluated[]
   function step(moves: Candidate[]): boolean {
     let improved = false;
     for (const n of moves) {
+      const limit = bound(best);
+      if (limit < Infinity && !(candidateArea(ctx, n) < limit * (1 - REL_TOL))) continue;
       const key = candidateKey(n);
       if (seen.has(key)) {
         const e = seen.get(key);
