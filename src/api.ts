@@ -18,6 +18,7 @@ import { chooseResult, decidingResults } from './solve/choose.js';
 
 export { decidingResults };
 import type { FrontPoint } from './solve/pareto.js';
+import type { StageFrontPoint } from './solve/stage-types.js';
 import type { CornerResult, SizeResult, StackResult } from './solve/types.js';
 import { compareResults, harderTargets, type Change } from './solve/compare.js';
 import { evaluateAtCorner } from './solve/corners.js';
@@ -65,6 +66,8 @@ export interface SizeRun {
   result: SizeResult;
   /** Pareto front per stack name. */
   fronts: Record<string, FrontPoint[]>;
+  /** Trade front (gain, swing, area) per stage name, when the spec has stages. */
+  stageFronts?: Record<string, StageFrontPoint[]>;
 }
 
 /**
@@ -72,14 +75,14 @@ export interface SizeRun {
  * and the one the objective prefers is marked `chosen`.
  */
 export function sizeSpec(spec: DesignSpec, kit: KitAccess): SizeRun {
-  const { fronts, ...result } = sizeDesign(spec, kit);
+  const { fronts, stageFronts, ...result } = sizeDesign(spec, kit);
   for (const s of spec.stacks) {
     if (s.topology !== 'auto') continue;
     const mine = result.stacks.filter((r) => r.name === s.name);
     const pick = chooseResult(mine, s);
     for (const r of mine) r.chosen = r === pick;
   }
-  return { result, fronts };
+  return stageFronts ? { result, fronts, stageFronts } : { result, fronts };
 }
 
 

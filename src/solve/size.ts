@@ -11,6 +11,8 @@ import { objectiveCompare, pickBest } from './rank.js';
 import { emptyResult, stackResult } from './result.js';
 import { paretoFront, type FrontPoint } from './pareto.js';
 import { formatEng } from '../units/index.js';
+import { sizeStages } from './stage-size.js';
+import type { StageFrontPoint } from './stage-types.js';
 
 export interface SizeStackResult {
   results: StackResult[];
@@ -119,7 +121,7 @@ export function sizeStack(spec: StackSpec, kit: KitAccess, opts: { supply: numbe
  * Size every stack of a design spec on the kit, over the spec's corners
  * (resolved against the kit: default nominal, "all" for every corner).
  */
-export function sizeDesign(design: DesignSpec, kit: KitAccess): SizeResult & { fronts: Record<string, FrontPoint[]> } {
+export function sizeDesign(design: DesignSpec, kit: KitAccess): SizeResult & { fronts: Record<string, FrontPoint[]>; stageFronts?: Record<string, StageFrontPoint[]> } {
   if (design.kit !== kit.kit) {
     throw new StackwrightError(`spec asks for kit "${design.kit}" but the tables are for "${kit.kit}"`, { where: `${design.file}: kit` });
   }
@@ -131,5 +133,7 @@ export function sizeDesign(design: DesignSpec, kit: KitAccess): SizeResult & { f
     stacks.push(...r.results);
     fronts[s.name] = r.front;
   }
-  return { kit: kit.kit, corners, supply: design.supply, caution: CAUTION, stacks, fronts };
+  const out: ReturnType<typeof sizeDesign> = { kit: kit.kit, corners, supply: design.supply, caution: CAUTION, stacks, fronts };
+  if (design.stages?.length) Object.assign(out, sizeStages(design.stages, kit, { supply: design.supply, corners }));
+  return out;
 }

@@ -1,5 +1,6 @@
 import type { Polarity } from '../table/types.js';
 import type { Topology } from '../spec/types.js';
+import type { StageResult } from './stage-types.js';
 
 export type Role = 'bottom' | 'middle' | 'top';
 
@@ -115,6 +116,8 @@ export interface SizeResult {
   supply: number;
   caution: string;
   stacks: StackResult[];
+  /** Gain stages, one entry per load topology tried (present when the spec has stages). */
+  stages?: StageResult[];
 }
 
 export const CAUTION =

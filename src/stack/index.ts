@@ -13,5 +13,5 @@ export { fitSquareLaw, squareLawCheck, ruleOfThumbHeadroom, type SquareLawFit } 
 export { inputAtCurrent, type InputOp } from './stage-input.js';
 export { stagePoint, sideVoltage, parallel, type StageCircuit, type StagePoint } from './stage-point.js';
 export { swingOnGrid, gainOverSwing, swingAtGain, outputGrid, indexOf as designIndex } from './stage-swing.js';
-export { traceStage, type StageTrace } from './stage-trace.js';
+export { traceStage, heldGain, type StageTrace } from './stage-trace.js';
 export { handSideRout, handStageGain, handSwing } from './stage-squarelaw.js';

@@ -1,6 +1,6 @@
 import type { DeviceBias, StackDevice } from './types.js';
 import { covers } from './range.js';
-import { vgsForCurrent } from './invert.js';
+import { illinois, vgsWindow } from './invert.js';
 import { emptyBias, evalDevice } from './evaluate-device.js';
 import { routOf } from './rout.js';
 
@@ -40,14 +40,9 @@ export function inputAtCurrent(devices: readonly StackDevice[], cascodeGate: num
     if (!(flo >= i)) return null;
     const fhi = top(hi);
     if (fhi >= i) return null;
-    for (let it = 0; it < 60 && hi - lo > 1e-12; it++) {
-      const m = 0.5 * (lo + hi);
-      if (top(m) >= i) lo = m;
-      else hi = m;
-    }
-    x1 = 0.5 * (lo + hi);
+    x1 = illinois((x) => top(x) - i, lo, hi, 1e-10);
   }
-  const g0 = vgsForCurrent(d0.slice, d0.w, i, x1, 0);
+  const g0 = gateForCurrent(d0, i, x1);
   if (g0 === null) return null;
   const b0 = emptyBias();
   if (!evalDevice(d0, g0, x1, 0, b0)) return null;
@@ -60,4 +55,13 @@ export function inputAtCurrent(devices: readonly StackDevice[], cascodeGate: num
     nodes.push(v);
   }
   return { gate: g0, nodes, devices: out, rout: routOf(out) };
+}
+
+/** VGS at which the device carries i at VDS = vds, VSB = 0 (current rises with VGS); null when the table does not reach it. */
+function gateForCurrent(d: StackDevice, i: number, vds: number): number | null {
+  const win = vgsWindow(d.slice, vds, 0);
+  if (!win) return null;
+  const f = (vgs: number) => i - d.w * d.slice.jd(vgs, vds, 0);
+  if (f(win[0]) < 0 || f(win[1]) >= 0) return null;
+  return illinois(f, win[0], win[1], 1e-10);
 }

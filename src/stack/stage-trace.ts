@@ -65,3 +65,48 @@ export function traceStage(c: StageCircuit, output: number, target: number, opts
   const vhigh = hi < vs.length - 1 ? edge(hi, hi + 1) : vs[hi];
   return { vs, gains, points, j0, vlow, vhigh, swing: vhigh - vlow };
 }
+
+/**
+ * Best gain held over a swing of `width` around the design point, with the
+ * interval ends solved on the circuit: with a single-peaked gain curve the best
+ * interval [a, a + width] has equal gain at both ends, so a is bisected on
+ * A(a) − A(a + width); samples inside the interval can only lower the result.
+ * 0 when no interval of that width fits between the rails.
+ */
+export function heldGain(c: StageCircuit, trace: StageTrace, width: number, resolution = 1e-4): number {
+  const { vs, gains, j0 } = trace;
+  const output = vs[j0];
+  let lo = Math.max(vs[0], output - width);
+  let hi = Math.min(output, vs[vs.length - 1] - width);
+  if (!(hi >= lo)) return 0;
+  const gainAt = (v: number): number => {
+    const p = stagePoint(c, v, nearestLoad(trace, v));
+    return p ? p.gain : 0;
+  };
+  let a = lo;
+  if (hi > lo) {
+    while (hi - lo > resolution) {
+      const m = 0.5 * (lo + hi);
+      if (gainAt(m) < gainAt(m + width)) lo = m;
+      else hi = m;
+    }
+    a = 0.5 * (lo + hi);
+  }
+  let held = Math.min(gainAt(a), gainAt(a + width));
+  for (let j = 0; j < vs.length; j++) if (vs[j] > a && vs[j] < a + width) held = Math.min(held, gains[j]);
+  return held;
+}
+
+// The solved load point of the grid sample nearest to v, as a starting guess.
+function nearestLoad(trace: StageTrace, v: number): StackOp | undefined {
+  let best: StackOp | undefined;
+  let dist = Infinity;
+  trace.points.forEach((p, j) => {
+    const d = Math.abs(trace.vs[j] - v);
+    if (p && d < dist) {
+      dist = d;
+      best = p.load;
+    }
+  });
+  return best;
+}
