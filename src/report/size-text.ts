@@ -4,6 +4,7 @@ import { formatArea, polarityName } from './format.js';
 import { formatEng } from '../units/index.js';
 import { biasGrid, columnAlign, cornerGrid, deviceGrid, predictedGrid, squareLawGrid, verdict, type Grid } from './rows.js';
 import { ansi, renderTable } from './text.js';
+import { stageCornerGrid, stagePredictedGrid, stageSquareLawGrid, stageTopologiesGrid, stageVerdict, stageVerdictText } from './stage-rows.js';
 
 export interface SizeTextOptions {
   /** ANSI colour; the CLI passes isTTY && !NO_COLOR. */
@@ -42,7 +43,28 @@ export function renderSizeText(result: SizeResult, opts: SizeTextOptions): strin
       out.push(...block('topologies tried (auto)', { headers: ['topology', 'status', 'Rout', 'headroom', 'area', 'binding'], rows }, c));
     }
   }
+  out.push(...stageText(result, c));
   return out.join('\n') + '\n';
+}
+
+/** The stages of a result: both sides' devices, bias, predicted figures, hand analysis, corners, load topologies tried. */
+function stageText(result: SizeResult, c: boolean): string[] {
+  const out: string[] = [];
+  for (const s of result.stages ?? []) {
+    if (s.chosen === false) continue;
+    const status = s.feasible ? ansi.green('FEASIBLE', c) : ansi.red('INFEASIBLE', c);
+    out.push('', ansi.bold(`stage ${s.name}: ${s.input.device}-input ${s.input.topology}, ${polarityName(s.load.device)} ${s.load.topology} load — ${status}`, c), `  ${stageVerdict(s)}`);
+    out.push(...block('input side (bottom first; the input device\'s gate is the input DC voltage)', deviceGrid(s.input), c));
+    out.push(...block('input-side bias devices', biasGrid(s.input), c));
+    out.push(...block('load side (bottom first)', deviceGrid(s.load), c));
+    out.push(...block('load-side bias devices', biasGrid(s.load), c));
+    out.push(...block('predicted', stagePredictedGrid(s), c));
+    out.push(...block('lookup table against square law', stageSquareLawGrid(s), c));
+    out.push(...block('per corner', stageCornerGrid(s), c));
+    const all = (result.stages ?? []).filter((x) => x.name === s.name);
+    if (all.length > 1) out.push(...block('load topologies tried (auto)', stageTopologiesGrid(all), c));
+  }
+  return out;
 }
 
 /** One line per stack (its chosen design): for a quick look at many stacks. */
@@ -55,9 +77,18 @@ export function renderSizeBrief(result: SizeResult, opts: SizeTextOptions): stri
     formatArea(s.predicted.area), s.predicted.sigma === undefined ? '—' : `${Number((s.predicted.sigma * 100).toPrecision(3))} %`,
     s.feasible ? '' : s.binding ?? '',
   ]);
+  const stages = (result.stages ?? []).filter((s) => s.chosen !== false).map((s) => [
+    s.name, `${s.input.device}-input ${s.input.topology} / ${s.load.device}-type ${s.load.topology}`, s.feasible ? 'feasible' : 'INFEASIBLE',
+    Number(s.predicted.gain.toPrecision(4)).toString(), formatEng(s.predicted.swing, 'V'), formatArea(s.predicted.area),
+    s.feasible || !s.binding ? '' : stageVerdictText(s.binding),
+  ]);
+  const stageLines = stages.length === 0 ? [] : [renderTable(['stage', 'topology', 'status', 'gain', 'swing', 'area', 'binding'], stages, {
+    color: opts.color, align: ['left', 'left', 'left', 'right', 'right', 'right', 'left'],
+  })];
   return [
     `kit ${result.kit}, corners ${result.corners.join(', ')}, supply ${result.supply} V`,
     ansi.yellow(`CAUTION: ${result.caution}`, opts.color),
+    ...stageLines,
     renderTable(['stack', 'topology', 'status', 'W/L (bottom first)', 'Iout', 'Rout', 'headroom', 'area', 'σ(Iout)/Iout', 'binding'], rows, {
       color: opts.color, align: ['left', 'left', 'left', 'left', 'right', 'right', 'right', 'right', 'right', 'left'],
     }),

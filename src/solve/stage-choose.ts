@@ -23,3 +23,8 @@ export function chooseStage(results: readonly StageResult[], spec: StageSpec): S
   if (best) return best;
   return results.reduce((a, b) => (stageShortfall(b, spec) < stageShortfall(a, spec) ? b : a));
 }
+
+/** Stages that decide feasibility: every stage's chosen (or only) result. */
+export function decidingStages(result: { stages?: StageResult[] }): StageResult[] {
+  return (result.stages ?? []).filter((s) => s.chosen !== false);
+}
