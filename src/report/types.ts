@@ -2,6 +2,7 @@ import type { DesignSpec } from '../spec/types.js';
 import type { Polarity } from '../table/types.js';
 import type { SizeResult } from '../solve/types.js';
 import type { Topology } from '../spec/types.js';
+import type { StageFrontPoint } from '../solve/stage-types.js';
 
 /** One point of a design curve at fixed L, VDS, VSB (SI; ft NaN/absent without capacitances). */
 export interface DesignPoint {
@@ -49,6 +50,8 @@ export interface HtmlReportInput {
   spec: { parsed: DesignSpec; source: string };
   size: SizeResult;
   fronts?: StackFront[];
+  /** Trade fronts of the gain stages, by stage name. */
+  stageFronts?: Array<{ stage: string; points: StageFrontPoint[] }>;
   /** Design curves of each device used (at the nominal corner). */
   designCurves?: DesignCurves[];
   /** Program and version (and command) that made the report. */

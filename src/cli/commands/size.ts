@@ -49,7 +49,7 @@ export function frontCsv(fronts: Record<string, FrontPoint[]>): string {
 
 /** Design curves of each polarity the result uses, at the nominal corner. */
 export function curvesFor(kit: Kit, run: SizeRun): DesignCurves[] {
-  const devices = [...new Set(run.result.stacks.map((s) => s.device))] as Polarity[];
+  const devices = [...new Set([...run.result.stacks.map((s) => s.device), ...(run.result.stages ?? []).flatMap((s) => [s.input.device, s.load.device])])] as Polarity[];
   const corner = run.result.corners[0];
   return devices.map((device) => {
     const table = kit.table(device, corner);
@@ -59,11 +59,12 @@ export function curvesFor(kit: Kit, run: SizeRun): DesignCurves[] {
 }
 
 export function reportHtml(spec: DesignSpec, source: string, kit: Kit, run: SizeRun): string {
-  const note = kit.table(run.result.stacks[0]?.device ?? 'n', run.result.corners[0]).meta.note;
+  const note = kit.table(run.result.stacks[0]?.device ?? run.result.stages?.[0]?.input.device ?? 'n', run.result.corners[0]).meta.note;
   return htmlReport({
     spec: { parsed: spec, source },
     size: run.result,
     fronts: Object.entries(run.fronts).map(([stack, points]) => ({ stack, points: reportFront(points) })),
+    stageFronts: Object.entries(run.stageFronts ?? {}).map(([stage, points]) => ({ stage, points })),
     designCurves: curvesFor(kit, run),
     generatedBy: `stackwright ${packageVersion()}`,
     notes: note ? [`kit ${kit.kit}: ${note}`] : [],
