@@ -88,9 +88,9 @@ export function renderSizeBrief(result: SizeResult, opts: SizeTextOptions): stri
   return [
     `kit ${result.kit}, corners ${result.corners.join(', ')}, supply ${result.supply} V`,
     ansi.yellow(`CAUTION: ${result.caution}`, opts.color),
-    ...stageLines,
     renderTable(['stack', 'topology', 'status', 'W/L (bottom first)', 'Iout', 'Rout', 'headroom', 'area', 'σ(Iout)/Iout', 'binding'], rows, {
       color: opts.color, align: ['left', 'left', 'left', 'left', 'right', 'right', 'right', 'right', 'right', 'left'],
     }),
+    ...stageLines,
   ].join('\n') + '\n';
 }

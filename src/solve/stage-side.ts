@@ -102,9 +102,10 @@ export function sideCandidates(stage: StageSpec, side: Side, topology: Topology,
  * Size a side candidate at the design point and trace its small-signal curve
  * on the output grid `vs`. Null when the table cannot realise it, a device is
  * narrower than the minimum width, or a device below the top one is not
- * saturated at the design point (as for stacks).
+ * saturated at the design point (as for stacks). `gmMax` (load side) is the
+ * highest input gm over the input designs, to know where the load alone caps the gain.
  */
-export function sideDesign(side: Side, cand: Candidate, vs: Float64Array, j0: number, supply: number): SideDesign | null {
+export function sideDesign(side: Side, cand: Candidate, vs: Float64Array, j0: number, stage: StageSpec, supply: number, gmMax = Infinity): SideDesign | null {
   const ctx = side.ctx;
   ctx.count.exact++;
   try {
@@ -119,28 +120,33 @@ export function sideDesign(side: Side, cand: Candidate, vs: Float64Array, j0: nu
     const top = m.mid.devices[devices.length - 1];
     const cdd = devices[devices.length - 1].slice.op(top.vgs, top.vds, top.vsb, devices[devices.length - 1].w).cdd;
     const d: SideDesign = { cand, slices, sized, devices, area: devices.reduce((a, x) => a + x.w * x.slice.l, 0), rout, cdd };
+    // Beyond the point where this side alone caps the gain below half the target
+    // (A ≤ gm_in·Rout_side), the stage is outside any swing: stop tracing that way.
+    const floor = 0.5 * stage.gain;
     if (side.kind === 'input') {
       const gm = new Float64Array(n);
-      for (let j = 0; j < n; j++) {
+      const at = (j: number): boolean => {
         const op = inputAtCurrent(devices, sized.gates[1], sideVoltage(side.device, supply, vs[j]), ctx.spec.current);
-        if (op) {
-          rout[j] = op.rout;
-          gm[j] = op.devices[0].gm;
-        }
-      }
+        if (!op) return false;
+        rout[j] = op.rout;
+        gm[j] = op.devices[0].gm;
+        return gm[j] * op.rout >= floor;
+      };
+      for (let j = j0; j < n && at(j); j++);
+      for (let j = j0 - 1; j >= 0 && at(j); j--);
       d.gm = gm;
     } else {
-      const at = (j: number, guess: StackOp | undefined): StackOp | undefined => {
+      const at = (j: number, guess: StackOp | undefined): StackOp | null => {
         const v = sideVoltage(side.device, supply, vs[j]);
-        if (!(v > 0)) return guess;
+        if (!(v > 0)) return null;
         const s = sampleAt(devices, sized.gates, v, guess);
         rout[j] = s.op && s.rout > 0 ? s.rout : 0;
-        return s.op ?? guess;
+        return s.op && gmMax * rout[j] >= floor ? s.op : null;
       };
-      let g: StackOp | undefined = at(j0, m.mid);
-      for (let j = j0 + 1; j < n; j++) g = at(j, g);
+      let g: StackOp | null = m.mid;
+      for (let j = j0; j < n && g; j++) g = at(j, g);
       g = m.mid;
-      for (let j = j0 - 1; j >= 0; j--) g = at(j, g);
+      for (let j = j0 - 1; j >= 0 && g; j--) g = at(j, g);
     }
     return d;
   } catch (e) {

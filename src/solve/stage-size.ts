@@ -46,10 +46,10 @@ export function pickStage(sides: StageSides, pool: readonly StageDesign[]): Stag
   return best;
 }
 
-function designs(sides: StageSides, side: StageSides['input'], topology: Topology, vs: Float64Array, j0: number): SideDesign[] {
+function designs(sides: StageSides, side: StageSides['input'], topology: Topology, vs: Float64Array, j0: number, gmMax?: number): SideDesign[] {
   const out: SideDesign[] = [];
   for (const c of sideCandidates(sides.stage, side, topology, sides.supply)) {
-    const d = sideDesign(side, c, vs, j0, sides.supply);
+    const d = sideDesign(side, c, vs, j0, sides.stage, sides.supply, gmMax);
     if (d) out.push(d);
   }
   return out;
@@ -72,13 +72,14 @@ export function sizeStage(stage: StageSpec, kit: KitAccess, opts: { supply: numb
   const vs = outputGrid(stage.output, opts.supply, SCREEN_STEP);
   const j0 = designIndex(vs, stage.output);
   const inputs = designs(sides, input, stage.input.topology, vs, j0);
+  const gmMax = Math.max(0, ...inputs.map((d) => Math.max(...(d.gm as Float64Array))));
   const topologies: readonly Topology[] = stage.load.topology === 'auto' ? TOPOLOGIES : [stage.load.topology];
   const results: StageResult[] = [];
   const explored: StageFrontPoint[] = [];
   let evaluated = 0;
   for (const t of topologies) {
     const before = input.ctx.count.exact + load.ctx.count.exact + input.ctx.count.screened + load.ctx.count.screened;
-    const loads = designs(sides, load, t, vs, j0);
+    const loads = designs(sides, load, t, vs, j0, gmMax);
     const { pairs, screened } = screenPairs(stage, inputs, loads, vs, j0);
     const pool: StageDesign[] = [];
     for (const p of pairs) {
