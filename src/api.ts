@@ -18,11 +18,14 @@ import { chooseResult, decidingResults } from './solve/choose.js';
 
 export { decidingResults };
 import type { FrontPoint } from './solve/pareto.js';
-import type { StageFrontPoint } from './solve/stage-types.js';
+import type { StageCorner, StageFrontPoint, StageResult } from './solve/stage-types.js';
+import { compareStages, retargetStage, stageAsIs } from './solve/stage-port.js';
+import { decidingStages } from './solve/stage-choose.js';
+import { sizeStage as sizeOneStage, type SizeStageResult } from './solve/stage-size.js';
 import type { CornerResult, SizeResult, StackResult } from './solve/types.js';
 import { compareResults, harderTargets, type Change } from './solve/compare.js';
 import { evaluateAtCorner } from './solve/corners.js';
-import type { DesignSpec, StackSpec } from './spec/types.js';
+import type { DesignSpec, StackSpec, StageSpec } from './spec/types.js';
 import { tablesDirFor } from './locate.js';
 
 /** A kit's tables, loaded, with what the search needs. */
@@ -62,6 +65,14 @@ export function sizeStack(spec: StackSpec, kit: KitAccess, opts: { supply: numbe
   return sizeOneStack(spec, kit, opts);
 }
 
+/**
+ * Size one gain stage on a kit: one result per load topology tried (`chosen`
+ * on the objective's pick with 'auto') and the trade front of explored designs.
+ */
+export function sizeStage(spec: StageSpec, kit: KitAccess, opts: { supply: number; corners: string[] }): SizeStageResult {
+  return sizeOneStage(spec, kit, opts);
+}
+
 export interface SizeRun {
   result: SizeResult;
   /** Pareto front per stack name. */
@@ -96,6 +107,15 @@ export interface PortStack {
   asIs: CornerResult | { error: string };
 }
 
+export interface PortStage {
+  name: string;
+  from: StageResult;
+  to: StageResult;
+  changes: Change[];
+  /** The old sizes as they are on the new kit (gates from the old bias devices, input re-solved). */
+  asIs: StageCorner | { error: string };
+}
+
 export interface PortRun {
   from: SizeRun;
   to: SizeRun;
@@ -103,6 +123,8 @@ export interface PortRun {
   toSpec: DesignSpec;
   notes: string[];
   stacks: PortStack[];
+  /** Gain stages, when the spec has them. */
+  stages: PortStage[];
 }
 
 /**
@@ -129,8 +151,14 @@ export function portSpec(spec: DesignSpec, from: Kit, to: Kit, opts: { supply?: 
     notes.push(`${s.name}: span ${s.span} V -> ${Number(span.toFixed(3))} V`);
     return { ...s, span };
   });
+  const stages = spec.stages?.map((s) => {
+    const t = retargetStage(s, spec.supply, supply);
+    if (t !== s) notes.push(`${s.name}: output ${s.output} V -> ${Number(t.output.toFixed(3))} V, swing target ${s.swing} V -> ${Number(t.swing.toFixed(3))} V (same share of the supply)`);
+    return t;
+  });
   const fromSpec: DesignSpec = { ...spec, kit: from.kit };
   const toSpec: DesignSpec = { ...spec, kit: to.kit, supply, stacks };
+  if (stages) toSpec.stages = stages;
   const runFrom = sizeSpec(fromSpec, from);
   const runTo = sizeSpec(toSpec, to);
   const chosen = (run: SizeRun, name: string): StackResult => decidingResults(run.result).find((r) => r.name === name) as StackResult;
@@ -145,5 +173,11 @@ export function portSpec(spec: DesignSpec, from: Kit, to: Kit, opts: { supply?: 
     }
     return { name: s.name, from: a, to: b, changes: compareResults(a, b), harder: harderTargets(spec.stacks[i], a, b), asIs };
   });
-  return { from: runFrom, to: runTo, toSpec, notes, stacks: compared };
+  const chosenStage = (run: SizeRun, name: string): StageResult => decidingStages(run.result).find((r) => r.name === name) as StageResult;
+  const portedStages = (toSpec.stages ?? []).map((s): PortStage => {
+    const a = chosenStage(runFrom, s.name);
+    const b = chosenStage(runTo, s.name);
+    return { name: s.name, from: a, to: b, changes: compareStages(a, b), asIs: stageAsIs(a, s, to, runTo.result.corners[0], supply) };
+  });
+  return { from: runFrom, to: runTo, toSpec, notes, stacks: compared, stages: portedStages };
 }

@@ -3,8 +3,10 @@
  * Sizes are first-cut estimates; verify them with the foundry models across
  * corners before tape-out.
  */
-export { ingest, loadKit, sizeStack, sizeSpec, portSpec, decidingResults } from './api.js';
-export type { Kit, SizeRun, PortRun, PortStack } from './api.js';
+export { ingest, loadKit, sizeStack, sizeStage, sizeSpec, portSpec, decidingResults } from './api.js';
+export type { Kit, SizeRun, PortRun, PortStack, PortStage } from './api.js';
+export type { StageResult, StageSide, StagePredicted, StageCurvePoint, StageCorner, StageVerdict, StageTarget, StageSquareLaw, StageFrontPoint } from './solve/stage-types.js';
+export { stageNetlist } from './spice/index.js';
 export { probe, sliceAt, vgsFor, designCurves } from './device/index.js';
 export type { OperatingPoint, LengthSlice, ProbeQuery, ProbeResult } from './device/index.js';
 export { ingestFiles, ingestTexts, parseSweep, QUANTITIES } from './ingest/index.js';
@@ -12,7 +14,7 @@ export type { IngestOptions, Quantity } from './ingest/index.js';
 export { writeTable, readTable, loadTable, listKits, kitInventory, tablePath, RegularGridInterpolator } from './table/index.js';
 export type { DeviceTable, TableMeta, Polarity, MismatchCoefficients, KitSummary, TableSummary } from './table/index.js';
 export { parseSpec, resolveCorners, TOPOLOGIES } from './spec/index.js';
-export type { DesignSpec, StackSpec, Topology, Objective } from './spec/index.js';
+export type { DesignSpec, StackSpec, Topology, Objective, StageSpec, StageSideSpec, InputTopology, StageObjective } from './spec/index.js';
 export { sizeDesign, evaluateAtCorner, paretoFront, pelgromSigma, CAUTION } from './solve/index.js';
 export { kitAccessFromTables } from './solve/kit-tables.js';
 export type { KitAccess, SizeResult, StackResult, DeviceResult, BiasResult, CurvePoint, Predicted, CornerResult, FrontPoint } from './solve/index.js';
