@@ -44,10 +44,10 @@ export function screenPairs(stage: StageSpec, inputs: readonly SideDesign[], loa
   const gains = new Float64Array(n);
   const left = new Float64Array(n);
   const right = new Float64Array(n);
-  const obj = new TopK<Pair>(10);
-  const swing = new TopK<Pair>(4);
-  const hold = new TopK<Pair>(3);
-  const short = new TopK<Pair>(3);
+  const obj = new TopK<Pair>(7);
+  const swing = new TopK<Pair>(3);
+  const hold = new TopK<Pair>(2);
+  const short = new TopK<Pair>(2);
   let screened = 0;
   for (const a of inputs) {
     const gm = a.gm as Float64Array;

@@ -15,6 +15,12 @@ import { saturationMargin } from './checks.js';
 
 export type SideKind = 'input' | 'load';
 
+/**
+ * Shares of the free voltage (supply − swing) a side's screen is asked to live
+ * with as headroom: two, so each side's pools span the headroom/Rout trade.
+ */
+const SHARES: Record<SideKind, number[]> = { input: [0.35, 0.6], load: [0.35, 0.6] };
+
 /** One side of a stage as a stack search: its polarity, design stack voltage and the stack context it screens with. */
 export interface Side {
   kind: SideKind;
@@ -87,7 +93,7 @@ export function sideCandidates(stage: StageSpec, side: Side, topology: Topology,
   const base = ctx.spec;
   const seen = new Map<string, Candidate>();
   try {
-    for (const share of [0.35, 0.6]) {
+    for (const share of SHARES[side.kind]) {
       const h = Math.min(Math.max(share * free, lo), hi);
       ctx.spec = { ...base, rout, headroom: h, span: 2 * side.vd - h };
       for (const c of screen(ctx, topology)) seen.set(candidateKey(c), c);
