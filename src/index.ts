@@ -3,7 +3,7 @@
  * Sizes are first-cut estimates; verify them with the foundry models across
  * corners before tape-out.
  */
-export { ingest, loadKit, sizeStack, sizeStage, sizeSpec, portSpec, decidingResults } from './api.js';
+export { loadKit, sizeStack, sizeStage, sizeSpec, portSpec, decidingResults } from './api.js';
 export type { Kit, SizeRun, PortRun, PortStack, PortStage } from './api.js';
 export type { StageResult, StageSide, StagePredicted, StageCurvePoint, StageCorner, StageVerdict, StageTarget, StageSquareLaw, StageFrontPoint } from './solve/stage-types.js';
 export { stageNetlist } from './spice/index.js';
@@ -13,11 +13,13 @@ export { ingestFiles, ingestTexts, parseSweep, QUANTITIES } from './ingest/index
 export type { IngestOptions, Quantity } from './ingest/index.js';
 export { writeTable, readTable, loadTable, listKits, kitInventory, tablePath, RegularGridInterpolator } from './table/index.js';
 export type { DeviceTable, TableMeta, Polarity, MismatchCoefficients, KitSummary, TableSummary } from './table/index.js';
-export { parseSpec, resolveCorners, TOPOLOGIES } from './spec/index.js';
-export type { DesignSpec, StackSpec, Topology, Objective, StageSpec, StageSideSpec, InputTopology, StageObjective } from './spec/index.js';
+export { parseSpec, resolveCorners } from './design/index.js';
+export { TOPOLOGIES, registerTopology, topologyOf, topologyNames } from './topology/index.js';
+export type { TopologyDescriptor, ScreenTools, StageOption, StageBias, Candidate } from './topology/index.js';
+export type { DesignSpec, StackSpec, Topology, Objective, StageSpec, StageSideSpec, InputTopology, StageObjective } from './design/index.js';
 export { sizeDesign, evaluateAtCorner, paretoFront, pelgromSigma, CAUTION } from './solve/index.js';
 export { kitAccessFromTables } from './solve/kit-tables.js';
-export type { KitAccess, SizeResult, StackResult, DeviceResult, BiasResult, CurvePoint, Predicted, CornerResult, FrontPoint } from './solve/index.js';
+export type { KitAccess, SizeResult, StackResult, DeviceResult, BiasResult, CurvePoint, Predicted, CornerResult, FrontPoint, Verdict, VerdictTarget } from './solve/index.js';
 export { stackNetlist, designNetlist } from './spice/index.js';
 export { htmlReport, renderSizeText, lineChart } from './report/index.js';
 export { parseEng, formatEng, formatSpice } from './units/index.js';

@@ -7,7 +7,7 @@
  */
 import { beforeAll, describe, expect, it } from 'vitest';
 import type { DeviceTable } from '../src/table/types.js';
-import type { StageSpec } from '../src/spec/types.js';
+import type { StageSpec } from '../src/design/types.js';
 import { ingestTexts } from '../src/ingest/index.js';
 import { kitAccessFromTables } from '../src/solve/kit-tables.js';
 import { sizeStage } from '../src/solve/stage-size.js';

@@ -6,8 +6,8 @@ import {
 } from '../src/stack/index.js';
 import { sizeStage } from '../src/solve/stage-size.js';
 import type { KitAccess } from '../src/solve/index.js';
-import type { StageSpec } from '../src/spec/types.js';
-import { parseSpec } from '../src/spec/index.js';
+import type { StageSpec } from '../src/design/types.js';
+import { parseSpec } from '../src/design/index.js';
 
 const SUPPLY = 1.8;
 

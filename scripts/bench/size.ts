@@ -2,7 +2,7 @@
 import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { parseSpec } from '../../src/spec/index.js';
+import { parseSpec } from '../../src/design/index.js';
 import { sizeDesign } from '../../src/solve/index.js';
 import { loadKit } from '../../src/api.js';
 import { clearTableCache } from '../../src/table/index.js';

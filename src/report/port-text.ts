@@ -1,7 +1,8 @@
-import type { PortRun } from '../api.js';
+import type { PortRun } from '../solve/port.js';
 import { formatEng } from '../units/index.js';
 import { renderTable } from './text.js';
 import { formatArea } from './format.js';
+import { verdictText } from './verdict.js';
 import { stageVerdictText } from './stage-rows.js';
 
 function value(x: number, unit: string): string {
@@ -30,7 +31,7 @@ export function renderPortText(run: PortRun, opts: { color: boolean }): string {
     if ('error' in s.asIs) lines.push(`  old sizes as they are on ${to}: cannot be evaluated (${s.asIs.error})`);
     else {
       const p = s.asIs.predicted;
-      lines.push(`  old sizes as they are on ${to}: Iout ${value(p.iout, 'A')}, Rout ${value(p.rout, 'Ω')}, headroom ${value(p.headroom, 'V')} — ${s.asIs.feasible ? 'still meets the targets' : `fails (${s.asIs.binding ?? 'targets'})`}`);
+      lines.push(`  old sizes as they are on ${to}: Iout ${value(p.iout, 'A')}, Rout ${value(p.rout, 'Ω')}, headroom ${value(p.headroom, 'V')} — ${s.asIs.feasible ? 'still meets the targets' : `fails (${s.asIs.binding ? verdictText(s.asIs.binding) : 'targets'})`}`);
     }
   }
   for (const s of run.stages) {

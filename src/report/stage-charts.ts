@@ -1,4 +1,4 @@
-import type { StageSpec } from '../spec/types.js';
+import type { StageSpec } from '../design/types.js';
 import type { StageFrontPoint, StageResult } from '../solve/stage-types.js';
 import { lineChart, targetLabel, type ScatterSeries, type TargetLine } from './chart.js';
 import { formatArea } from './format.js';

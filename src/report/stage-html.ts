@@ -1,4 +1,4 @@
-import type { StageSpec } from '../spec/types.js';
+import type { StageSpec } from '../design/types.js';
 import type { StageFrontPoint, StageResult } from '../solve/stage-types.js';
 import { eng, formatArea, formatMicrons } from './format.js';
 import { biasGrid, deviceGrid, type Grid } from './rows.js';

@@ -1,4 +1,4 @@
-import type { StageSpec } from '../spec/types.js';
+import type { StageSpec } from '../design/types.js';
 import type { StageResult } from './stage-types.js';
 
 function better(spec: StageSpec, a: StageResult, b: StageResult): boolean {

@@ -1,5 +1,6 @@
 import { StackwrightError } from '../errors.js';
-import type { StageSpec } from '../spec/types.js';
+import { topologyOf } from '../topology/index.js';
+import type { StageSpec } from '../design/types.js';
 import {
   biasDevices, biasGates, gainOverSwing, heldGain, traceStage,
   type BiasDevice, type StackDevice, type StageCircuit, type StagePoint, type StageTrace,
@@ -95,7 +96,7 @@ export function stageAt(sides: StageSides, corner: string, circuit: StageCircuit
 function inputBias(sides: StageSides, d: SideDesign): BiasDevice[] | null {
   if (d.devices.length < 2) return [];
   const ctx = sides.input.ctx;
-  const all = biasDevices('cascode', d.slices, d.sized.gates, ctx.ib, { wmin: ctx.wmin, lengths: ctx.lengths, slice: (l) => ctx.slice(ctx.nominal, l) });
+  const all = biasDevices(topologyOf('cascode'), d.slices, d.sized.gates, ctx.ib, { wmin: ctx.wmin, lengths: ctx.lengths, slice: (l) => ctx.slice(ctx.nominal, l) });
   return all ? [all[1]] : null;
 }
 
@@ -108,7 +109,7 @@ export function evaluatePair(sides: StageSides, input: SideDesign, load: SideDes
   return rangeSafe(() => {
     const ib = inputBias(sides, input);
     const lctx = sides.load.ctx;
-    const lb = biasDevices(load.cand.topology, load.slices, load.sized.gates, lctx.ib, { wmin: lctx.wmin, lengths: lctx.lengths, slice: (l) => lctx.slice(lctx.nominal, l) });
+    const lb = biasDevices(topologyOf(load.cand.topology), load.slices, load.sized.gates, lctx.ib, { wmin: lctx.wmin, lengths: lctx.lengths, slice: (l) => lctx.slice(lctx.nominal, l) });
     if (!ib || !lb) return null;
     const circuit: StageCircuit = {
       supply: sides.supply, device: sides.input.device,

@@ -1,5 +1,5 @@
 import { StackwrightError } from '../errors.js';
-import type { StageSpec } from '../spec/types.js';
+import type { StageSpec } from '../design/types.js';
 import { biasGates, traceStage, type StackDevice, type StageCircuit } from '../stack/index.js';
 import type { KitAccess } from './kit.js';
 import type { Change } from './compare.js';

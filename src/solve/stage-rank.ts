@@ -1,4 +1,4 @@
-import type { StageObjective, StageSpec } from '../spec/types.js';
+import type { StageObjective, StageSpec } from '../design/types.js';
 import type { StageAt, StageDesign } from './stage-eval.js';
 
 /** Normalised margins of one traced corner (≥ 0 met): gain in ln units, swing relative to its target, gbw in ln units. */

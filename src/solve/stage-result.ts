@@ -1,7 +1,8 @@
 import type { Polarity } from '../table/types.js';
-import type { StageSpec, Topology } from '../spec/types.js';
+import { topologyOf } from '../topology/index.js';
+import type { StageSpec, Topology } from '../design/types.js';
 import {
-  handSideRout, handStageGain, handSwing, rolesOf, saturationVoltage, squareLawCheck,
+  handSideRout, handStageGain, handSwing, saturationVoltage, squareLawCheck,
   type BiasDevice, type DeviceBias, type StackDevice,
 } from '../stack/index.js';
 import type { BiasResult, DeviceResult } from './types.js';
@@ -16,7 +17,7 @@ function deviceRecords(
   device: Polarity, supply: number, topology: Topology, devices: readonly StackDevice[], ops: readonly DeviceBias[],
   gates: readonly number[], ut: number,
 ): DeviceResult[] {
-  const roles = rolesOf(topology);
+  const roles = topologyOf(topology).roles;
   return devices.map((d, k) => {
     const b = ops[k];
     const op = d.slice.op(b.vgs, b.vds, b.vsb, d.w);
@@ -139,7 +140,7 @@ function squareLawOf(sides: StageSides, d: StageDesign): StageSquareLaw | undefi
   if (!p) return undefined;
   const i = sides.stage.current;
   const check = (top: Topology, devices: readonly StackDevice[], ops: readonly DeviceBias[]) =>
-    squareLawCheck(top, devices.map((x) => x.slice), devices.map((x) => x.w), ops, i);
+    squareLawCheck(topologyOf(top), devices.map((x) => x.slice), devices.map((x) => x.w), ops, i);
   const ci = check(d.input.cand.topology, at.circuit.input.devices, p.input.devices);
   const cl = check(d.load.cand.topology, at.circuit.load.devices, p.load.devices);
   const gmOf = (vov: number[]) => vov.map((v) => (2 * i) / v);

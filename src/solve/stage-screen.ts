@@ -1,6 +1,6 @@
-import type { StageSpec } from '../spec/types.js';
+import type { StageSpec } from '../design/types.js';
 import { parallel, swingAtGain } from '../stack/index.js';
-import { TopK } from './topk.js';
+import { TopK } from '../numeric/index.js';
 import type { SideDesign } from './stage-side.js';
 
 /** A pair of side designs the screen kept. */

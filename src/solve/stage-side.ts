@@ -1,17 +1,18 @@
 import { StackwrightError } from '../errors.js';
+import { topologyOf } from '../topology/index.js';
 import type { LengthSlice } from '../device/types.js';
 import type { Polarity } from '../table/types.js';
-import type { StackSpec, StageSpec, Topology } from '../spec/types.js';
+import type { StackSpec, StageSpec, Topology } from '../design/types.js';
 import {
   inputAtCurrent, sampleAt, sideVoltage, sizeStackDevices,
   type SizedStack, type StackDevice, type StackOp,
 } from '../stack/index.js';
 import type { KitAccess } from './kit.js';
 import { makeContext, type SolveContext } from './context.js';
-import { screen } from './screen.js';
-import { candidateKey, type Candidate } from './candidate.js';
-import { midPoint } from './stackeval.js';
-import { saturationMargin } from './checks.js';
+import { screen } from './search/screen.js';
+import { candidateKey, type Candidate } from './search/candidate.js';
+import { midPoint } from './evaluate/stack-eval.js';
+import { saturationMargin } from './evaluate/checks.js';
 
 export type SideKind = 'input' | 'load';
 
@@ -116,7 +117,7 @@ export function sideDesign(side: Side, cand: Candidate, vs: Float64Array, j0: nu
   ctx.count.exact++;
   try {
     const slices = cand.l.map((l) => ctx.slice(ctx.nominal, l));
-    const sized = sizeStackDevices({ topology: cand.topology, slices, gmid: cand.gmid, setpoints: cand.setpoints, current: ctx.spec.current, vmid: side.vd, wmin: ctx.wmin });
+    const sized = sizeStackDevices({ shape: topologyOf(cand.topology), slices, gmid: cand.gmid, setpoints: cand.setpoints, current: ctx.spec.current, vmid: side.vd, wmin: ctx.wmin });
     if (!sized) return null;
     const devices: StackDevice[] = slices.map((slice, k) => ({ slice, w: sized.w[k] }));
     const m = midPoint(devices, sized.gates, side.vd, { i: ctx.spec.current, nodes: sized.nodes }, ctx.ut(ctx.nominal));

@@ -1,4 +1,5 @@
-import { TOPOLOGIES, type StageSpec, type Topology } from '../spec/types.js';
+import type { StageSpec, Topology } from '../design/types.js';
+import { topologyNames } from '../topology/index.js';
 import { designIndex, outputGrid } from '../stack/index.js';
 import type { KitAccess } from './kit.js';
 import { makeSide, sideCandidates, sideDesign, type SideDesign } from './stage-side.js';
@@ -73,7 +74,7 @@ export function sizeStage(stage: StageSpec, kit: KitAccess, opts: { supply: numb
   const j0 = designIndex(vs, stage.output);
   const inputs = designs(sides, input, stage.input.topology, vs, j0);
   const gmMax = Math.max(0, ...inputs.map((d) => Math.max(...(d.gm as Float64Array))));
-  const topologies: readonly Topology[] = stage.load.topology === 'auto' ? TOPOLOGIES : [stage.load.topology];
+  const topologies: readonly Topology[] = stage.load.topology === 'auto' ? topologyNames() : [stage.load.topology];
   const results: StageResult[] = [];
   const explored: StageFrontPoint[] = [];
   let evaluated = 0;

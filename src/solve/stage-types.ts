@@ -1,5 +1,5 @@
 import type { Polarity } from '../table/types.js';
-import type { InputTopology, Topology } from '../spec/types.js';
+import type { InputTopology, Topology } from '../design/types.js';
 import type { BiasResult, DeviceResult } from './types.js';
 
 /** Targets a stage verdict can name. */

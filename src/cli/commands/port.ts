@@ -1,7 +1,7 @@
 import type { Command } from 'commander';
 import { loadKit, portSpec } from '../../api.js';
-import { parseSpec } from '../../spec/index.js';
-import { renderPortText, stageVerdictText } from '../../report/index.js';
+import { parseSpec } from '../../design/index.js';
+import { renderPortText, bindingText, stageVerdictText } from '../../report/index.js';
 import { EXIT } from '../../errors.js';
 import { engFlag } from '../options.js';
 import { note, out, readText, toJson, useColor } from '../io.js';
@@ -37,7 +37,7 @@ export function registerPort(program: Command): void {
       const failedStages = run.stages.filter((s) => !s.to.feasible);
       if (failed.length + failedStages.length) {
         const words = [
-          ...failed.map((s) => `${s.name} (${s.to.binding ?? 'targets not met'})`),
+          ...failed.map((s) => `${s.name} (${bindingText(s.to) || 'targets not met'})`),
           ...failedStages.map((s) => `${s.name} (${s.to.binding ? stageVerdictText(s.to.binding) : 'targets not met'})`),
         ];
         note(`infeasible on ${to.kit}: ${words.join('; ')}`);
