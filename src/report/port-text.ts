@@ -42,12 +42,12 @@ export function renderPortText(run: PortRun, opts: { color: boolean }): string {
       Number.isFinite(c.percent) ? `${c.percent >= 0 ? '+' : ''}${c.percent.toFixed(1)} %` : '—',
     ]);
     lines.push(renderTable(['quantity', from, to, 'change'], rows, { indent: 2 }));
-    if (!s.to.feasible && s.to.binding) lines.push(`  on ${to}: binding ${stageVerdictText(s.to.binding)}`);
+    if (!s.to.feasible && s.to.binding) lines.push(`  on ${to}: binding ${stageVerdictText(s.to.binding, true)}`);
     if ('error' in s.asIs) lines.push(`  old sizes as they are on ${to}: cannot be evaluated (${s.asIs.error})`);
     else {
       const p = s.asIs.predicted;
       const v = s.asIs.binding ?? s.asIs.tightest;
-      lines.push(`  old sizes as they are on ${to}: gain ${Number(p.gain.toPrecision(4))}, swing ${value(p.swing, 'V')} — ${s.asIs.feasible ? 'still meets the targets' : `fails (${v ? stageVerdictText(v) : 'targets'})`}`);
+      lines.push(`  old sizes as they are on ${to}: gain ${Number(p.gain.toPrecision(4))}, swing ${value(p.swing, 'V')} — ${s.asIs.feasible ? 'still meets the targets' : `fails (${v ? stageVerdictText(v, true) : 'targets'})`}`);
     }
   }
   return lines.join('\n');

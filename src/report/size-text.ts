@@ -81,7 +81,7 @@ export function renderSizeBrief(result: SizeResult, opts: SizeTextOptions): stri
   const stages = (result.stages ?? []).filter((s) => s.chosen !== false).map((s) => [
     s.name, `${s.input.device}-input ${s.input.topology} / ${s.load.device}-type ${s.load.topology}`, s.feasible ? 'feasible' : 'INFEASIBLE',
     Number(s.predicted.gain.toPrecision(4)).toString(), formatEng(s.predicted.swing, 'V'), formatArea(s.predicted.area),
-    s.feasible || !s.binding ? '' : stageVerdictText(s.binding),
+    s.feasible || !s.binding ? '' : stageVerdictText(s.binding, result.corners.length > 1),
   ]);
   const stageLines = stages.length === 0 ? [] : [renderTable(['stage', 'topology', 'status', 'gain', 'swing', 'area', 'binding'], stages, {
     color: opts.color, align: ['left', 'left', 'left', 'right', 'right', 'right', 'left'],

@@ -14,9 +14,12 @@ function quantity(v: StageVerdict, x: number | null): string {
   return '—';
 }
 
-/** Words for a stage verdict: "swing 0.903 V ≥ 0.9 V (+0.4 %)", "gain held over the swing 1.54 k < 2 k (−23 %)". */
-export function stageVerdictText(v: StageVerdict): string {
-  const where = v.corner ? `corner ${v.corner}: ` : '';
+/**
+ * Words for a stage verdict: "swing at the gain target 903 mV ≥ 900 mV (+3 mV, +0.3 %)";
+ * `showCorner` prefixes "corner ss: " (when the run has several corners).
+ */
+export function stageVerdictText(v: StageVerdict, showCorner = false): string {
+  const where = showCorner && v.corner ? `corner ${v.corner}: ` : '';
   if (v.target === 'table') return `${where}the tables cannot hold the stage's bias (a bias diode or the design point lies outside them)`;
   if (v.target === 'saturation') return `${where}a lower device would leave saturation at the design point`;
   const name = v.target === 'gain' ? (v.at === null ? 'gain held over the swing target' : `gain at the ${eng(v.at, 'V')} design point`) : v.target === 'swing' ? 'swing at the gain target' : 'GBW';
@@ -29,9 +32,10 @@ export function stageVerdictText(v: StageVerdict): string {
 
 /** One sentence on a stage: feasible with its tightest target, or which target binds and the nearest points. */
 export function stageVerdict(s: StageResult): string {
+  const many = (s.corners?.length ?? 0) > 1;
   const tag = s.chosen === true ? ' (chosen by the objective)' : s.chosen === false ? ' (alternative)' : '';
-  if (s.feasible) return `meets all targets; tightest: ${s.tightest ? stageVerdictText(s.tightest) : '—'}${tag}`;
-  const parts = [`does not meet the targets: binding ${s.binding ? stageVerdictText(s.binding) : '—'}`];
+  if (s.feasible) return `meets all targets; tightest: ${s.tightest ? stageVerdictText(s.tightest, many) : '—'}${tag}`;
+  const parts = [`does not meet the targets: binding ${s.binding ? stageVerdictText(s.binding, many) : '—'}`];
   if (s.nearest) {
     parts.push(`nearest points: best gain held over the swing target ${gainText(s.nearest.gainAtSwing)}, best swing at the gain target ${eng(s.nearest.swingAtGain, 'V')}`);
   }
@@ -94,7 +98,7 @@ export function stageTopologiesGrid(all: readonly StageResult[]): Grid {
     headers: ['load topology', 'status', 'gain', 'swing', 'area', 'binding'],
     rows: all.map((x) => [
       x.load.topology, x.chosen ? 'chosen' : x.feasible ? 'feasible' : 'INFEASIBLE', gainText(x.predicted.gain), eng(x.predicted.swing, 'V'),
-      formatArea(x.predicted.area), x.feasible || !x.binding ? '' : stageVerdictText(x.binding),
+      formatArea(x.predicted.area), x.feasible || !x.binding ? '' : stageVerdictText(x.binding, (x.corners?.length ?? 0) > 1),
     ]),
   };
 }

@@ -79,9 +79,9 @@ export function stageAsIs(r: StageResult, spec: StageSpec, kit: KitAccess, corne
       },
       gates: { input: ig.map((g) => stackGate(r.input.device, supply, g)), load: lg.map((g) => stackGate(r.load.device, supply, g)) },
     };
-    const verdict = { target: 'swing' as const, required: spec.swing, achieved: trace.swing, at: null, corner };
+    const verdict = { target: 'swing' as const, required: spec.swing, achieved: trace.swing, at: null, device: null, corner };
     if (feasible) out.tightest = verdict;
-    else out.binding = trace.swing < spec.swing ? verdict : { target: 'gbw', required: spec.gbw ?? null, achieved: gbw, at: spec.output, corner };
+    else out.binding = trace.swing < spec.swing ? verdict : { target: 'gbw', required: spec.gbw ?? null, achieved: gbw, at: spec.output, device: null, corner };
     return out;
   } catch (e) {
     if (e instanceof StackwrightError && e.kind === 'range') return { error: e.message };

@@ -92,10 +92,10 @@ function curveOf(at: StageAt): StageCurvePoint[] {
 
 function verdict(stage: StageSpec, target: StageTarget, at: StageAt | null, corner: string | null): StageVerdict {
   const finite = (x: number | null | undefined): number | null => (x !== null && x !== undefined && Number.isFinite(x) ? x : null);
-  if (target === 'gain') return { target, required: stage.gain, achieved: finite(at?.gainAtSwing), at: null, corner };
-  if (target === 'swing') return { target, required: stage.swing, achieved: finite(at?.trace.swing), at: null, corner };
-  if (target === 'gbw') return { target, required: stage.gbw ?? null, achieved: finite(at?.gbw), at: stage.output, corner };
-  return { target, required: null, achieved: null, at: null, corner };
+  if (target === 'gain') return { target, required: stage.gain, achieved: finite(at?.gainAtSwing), at: null, device: null, corner };
+  if (target === 'swing') return { target, required: stage.swing, achieved: finite(at?.trace.swing), at: null, device: null, corner };
+  if (target === 'gbw') return { target, required: stage.gbw ?? null, achieved: finite(at?.gbw), at: stage.output, device: null, corner };
+  return { target, required: null, achieved: null, at: null, device: null, corner };
 }
 
 function smallestTarget(m: StageMargins): StageTarget {
@@ -112,7 +112,7 @@ function cornerResults(sides: StageSides, d: StageDesign): StageCorner[] {
   const stage = sides.stage;
   const all: Array<StageAt | { corner: string; error: string }> = [d.nominal, ...(d.corners ?? [])];
   return all.map((at, k) => {
-    const corner = k === 0 ? null : at.corner;
+    const corner = at.corner;
     if ('error' in at) {
       return { corner: at.corner, feasible: false, predicted: emptyPredicted(stage, d.area), gates: { input: [], load: [] }, binding: verdict(stage, 'table', null, corner) };
     }
@@ -162,6 +162,7 @@ function squareLawOf(sides: StageSides, d: StageDesign): StageSquareLaw | undefi
 /** Why nothing met the targets: the nearest points over the explored designs and which target binds, by how much. */
 function infeasibility(sides: StageSides, best: StageDesign, pool: readonly StageDesign[]): Pick<StageResult, 'binding' | 'nearest'> {
   const stage = sides.stage;
+  const nominal = sides.input.ctx.nominal;
   let gainAtSwing = 0;
   let swingAtGain = 0;
   let peak = 0;
@@ -172,7 +173,7 @@ function infeasibility(sides: StageSides, best: StageDesign, pool: readonly Stag
   }
   const nearest = { gainAtSwing, swingAtGain };
   if (peak < stage.gain) {
-    return { binding: { target: 'gain', required: stage.gain, achieved: peak, at: stage.output, corner: null }, nearest };
+    return { binding: { target: 'gain', required: stage.gain, achieved: peak, at: stage.output, device: null, corner: nominal }, nearest };
   }
   if (nominalOk(stage, best)) {
     const c = (best.corners ?? []).find((x) => !meets(stageMargins(stage, x)));
@@ -184,14 +185,14 @@ function infeasibility(sides: StageSides, best: StageDesign, pool: readonly Stag
   const swingOk = pool.filter((d) => d.nominal.trace.swing >= stage.swing - 1e-9);
   if (stage.gbw !== undefined && swingOk.length > 0) {
     const g = Math.max(...swingOk.map((d) => d.nominal.gbw ?? 0));
-    return { binding: { target: 'gbw', required: stage.gbw, achieved: g, at: stage.output, corner: null }, nearest };
+    return { binding: { target: 'gbw', required: stage.gbw, achieved: g, at: stage.output, device: null, corner: nominal }, nearest };
   }
   // Both targets miss together (gain held over the swing target ⇔ swing at the gain target); the one further off, relatively, binds.
   const g = 1 - gainAtSwing / stage.gain;
   const s = 1 - swingAtGain / stage.swing;
   const binding: StageVerdict = g >= s
-    ? { target: 'gain', required: stage.gain, achieved: gainAtSwing, at: null, corner: null }
-    : { target: 'swing', required: stage.swing, achieved: swingAtGain, at: null, corner: null };
+    ? { target: 'gain', required: stage.gain, achieved: gainAtSwing, at: null, device: null, corner: nominal }
+    : { target: 'swing', required: stage.swing, achieved: swingAtGain, at: null, device: null, corner: nominal };
   return { binding, nearest };
 }
 
@@ -216,7 +217,7 @@ export function stageResult(sides: StageSides, best: StageDesign, pool: readonly
     const all: Array<StageAt | { corner: string; error: string }> = [best.nominal, ...(best.corners ?? [])];
     let worst = best.nominal as StageAt;
     for (const c of all) if (!('error' in c) && smallest(stageMargins(stage, c)) < smallest(stageMargins(stage, worst))) worst = c;
-    r.tightest = verdict(stage, smallestTarget(stageMargins(stage, worst)), worst, worst === best.nominal ? null : worst.corner);
+    r.tightest = verdict(stage, smallestTarget(stageMargins(stage, worst)), worst, worst.corner);
   }
   return r;
 }
@@ -230,7 +231,7 @@ export function emptyStageResult(sides: StageSides, topology: Topology, evaluate
     load: { device: sides.load.device, topology, devices: [], bias: [] },
     predicted: emptyPredicted(stage, 0),
     curve: [],
-    binding: { target: 'table', required: null, achieved: null, at: null, corner: null },
+    binding: { target: 'table', required: null, achieved: null, at: null, device: null, corner: sides.input.ctx.nominal },
     nearest: { gainAtSwing: 0, swingAtGain: 0 },
     evaluated,
   };

@@ -1,24 +1,22 @@
 import type { Polarity } from '../table/types.js';
 import type { InputTopology, Topology } from '../design/types.js';
 import type { BiasResult, DeviceResult } from './types.js';
+import type { Verdict } from './evaluate/verdict.js';
 
 /** Targets a stage verdict can name. */
 export type StageTarget = 'gain' | 'swing' | 'gbw' | 'saturation' | 'table';
 
 /**
  * Why a stage fails (`binding`) or what it meets with the least margin
- * (`tightest`), as data in SI units; sentences are made in src/report.
+ * (`tightest`), as data in SI units, shaped like a stack's verdict; sentences
+ * are made in src/report. `required`: gain (V/V), swing (V), gbw (Hz), null when
+ * not applicable; `achieved`: what the nearest (or chosen) design reaches, null
+ * when nothing was reachable; `at`: the output voltage it refers to (the design
+ * point for gain and gbw) or null; `device`: always null (a stage target is not
+ * one device's); `corner`: the corner where it was found.
  */
-export interface StageVerdict {
+export interface StageVerdict extends Omit<Verdict, 'target'> {
   target: StageTarget;
-  /** The target value: gain (V/V), swing (V), gbw (Hz); null when not applicable. */
-  required: number | null;
-  /** What the nearest (or chosen) design reaches, same unit; null when nothing was reachable. */
-  achieved: number | null;
-  /** Output voltage it refers to, V (the design point for gain and gbw), or null. */
-  at: number | null;
-  /** Corner where it was found, or null for the nominal corner. */
-  corner: string | null;
 }
 
 /** One side of a sized stage. Devices bottom (rail) first; the input device's `gate` is the input DC voltage. */

@@ -38,7 +38,7 @@ export function registerPort(program: Command): void {
       if (failed.length + failedStages.length) {
         const words = [
           ...failed.map((s) => `${s.name} (${bindingText(s.to) || 'targets not met'})`),
-          ...failedStages.map((s) => `${s.name} (${s.to.binding ? stageVerdictText(s.to.binding) : 'targets not met'})`),
+          ...failedStages.map((s) => `${s.name} (${s.to.binding ? stageVerdictText(s.to.binding, true) : 'targets not met'})`),
         ];
         note(`infeasible on ${to.kit}: ${words.join('; ')}`);
         process.exitCode = EXIT.infeasible;

@@ -66,7 +66,7 @@ export function registerSize(program: Command): void {
       if (failed.length + failedStages.length > 0) {
         const words = [
           ...failed.map((s) => `${s.name} (${bindingText(s) || 'targets not met'})`),
-          ...failedStages.map((s) => `${s.name} (${s.binding ? stageVerdictText(s.binding) : 'targets not met'})`),
+          ...failedStages.map((s) => `${s.name} (${s.binding ? stageVerdictText(s.binding, true) : 'targets not met'})`),
         ];
         note(`infeasible: ${words.join('; ')}`);
         process.exitCode = EXIT.infeasible;
