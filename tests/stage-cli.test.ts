@@ -88,4 +88,18 @@ describe('gain stages through the CLI (demo180, invented demo kit)', () => {
     expect(bad.code).toBe(2);
     expect(bad.stderr).toMatch(/--stage: no stage "nope"/);
   });
+
+  it('port re-sizes a stage on the other kit with its design point and swing kept as a share of the supply', () => {
+    const spec = join(dir, 'port.yaml');
+    writeFileSync(spec, stageSpec('    gain: 300\n    swing: 0.9\n    input: {device: n, topology: cascode}\n    load: {topology: cascode}\n').replace('corner: [tt, ss]\n', ''));
+    const r = cli(['port', spec, '--from', 'demo180', '--to', 'demo090', '--json', '--tables', tables()]);
+    expect([0, 3]).toContain(r.code);
+    const j = JSON.parse(r.stdout);
+    // 1.8 V -> 1.2 V: output 0.9 V -> 0.6 V and swing 0.9 V -> 0.6 V (two thirds).
+    expect(j.notes.join('\n')).toMatch(/amp: output 0\.9 V -> 0\.6 V, swing target 0\.9 V -> 0\.6 V/);
+    expect(j.stages).toHaveLength(1);
+    expect(j.stages[0].to.predicted.output).toBeCloseTo(0.6, 9);
+    expect(j.stages[0].changes.some((c: { what: string }) => c.what === 'gain')).toBe(true);
+    expect(j.stages[0].asIs).toBeDefined();
+  });
 });
