@@ -6,6 +6,7 @@ import {
   type BiasDevice, type StackDevice, type StageCircuit, type StagePoint, type StageTrace,
 } from '../stack/index.js';
 import type { Side, SideDesign } from './stage-side.js';
+import { rangeSafe } from './evaluate/evaluate.js';
 
 /** Output grid step of the reported trace, V; swing edges are bisected on the circuit to 0.5 mV either way. */
 export const TRACE_STEP = 0.02;
@@ -47,14 +48,6 @@ export interface StageSides {
   load: Side;
 }
 
-function rangeSafe<T>(f: () => T): T | null {
-  try {
-    return f();
-  } catch (e) {
-    if (e instanceof StackwrightError && e.kind === 'range') return null;
-    throw e;
-  }
-}
 
 /**
  * Output capacitance: drain capacitance (cdd) of the two output devices from

@@ -2,7 +2,8 @@ import { StackwrightError } from '../errors.js';
 import type { StageSpec } from '../design/types.js';
 import { biasGates, traceStage, type StackDevice, type StageCircuit } from '../stack/index.js';
 import type { KitAccess } from './kit.js';
-import type { Change } from './compare.js';
+import { change, type Change } from './compare.js';
+import { absolute } from './result.js';
 import { TRACE_STEP, gbwOf } from './stage-eval.js';
 import type { StageCorner, StageResult, StageSide } from './stage-types.js';
 
@@ -17,10 +18,6 @@ export function retargetStage(s: StageSpec, from: number, to: number): StageSpec
   return { ...s, output: s.output * k, swing: s.swing * k };
 }
 
-function change(what: string, unit: string, from: number, to: number): Change {
-  const percent = Number.isFinite(from) && Number.isFinite(to) && from !== 0 ? (100 * (to - from)) / Math.abs(from) : NaN;
-  return { what, unit, from, to, percent };
-}
 
 /** Sizes, gates and predicted figures of two designs of one stage, side by side. */
 export function compareStages(from: StageResult, to: StageResult): Change[] {
@@ -44,9 +41,6 @@ export function compareStages(from: StageResult, to: StageResult): Change[] {
   rows.push(change('area', 'm²', p.area, q.area));
   return rows;
 }
-
-// Absolute gate voltage of a stack-coordinate one (the same map both ways).
-const stackGate = (device: 'n' | 'p', supply: number, g: number) => (device === 'n' ? g : supply - g);
 
 function devicesOn(kit: KitAccess, corner: string, side: StageSide): StackDevice[] {
   return side.devices.map((d) => ({ slice: kit.slice(corner, side.device, d.l), w: d.w }));
@@ -77,7 +71,7 @@ export function stageAsIs(r: StageResult, spec: StageSpec, kit: KitAccess, corne
         gain: trace.gains[trace.j0], swing: trace.swing, vlow: trace.vlow, vhigh: trace.vhigh, output: spec.output,
         vin: p ? p.vin : 0, gbw, cout: null, area: r.predicted.area, current: p ? p.i : 0,
       },
-      gates: { input: ig.map((g) => stackGate(r.input.device, supply, g)), load: lg.map((g) => stackGate(r.load.device, supply, g)) },
+      gates: { input: ig.map((g) => absolute(r.input.device, supply, g)), load: lg.map((g) => absolute(r.load.device, supply, g)) },
     };
     const verdict = { target: 'swing' as const, required: spec.swing, achieved: trace.swing, at: null, device: null, corner };
     if (feasible) out.tightest = verdict;

@@ -3,6 +3,7 @@ import type { Polarity } from '../table/types.js';
 import type { DeviceBias, StackDevice, StackOp } from './types.js';
 import { solveOperatingPoint } from './operating.js';
 import { routAt } from './rout.js';
+import { continued } from './curve.js';
 import { inputAtCurrent } from './stage-input.js';
 
 /**
@@ -53,7 +54,7 @@ export function stagePoint(c: StageCircuit, vout: number, loadGuess?: StackOp): 
   if (!(vl > 0) || !(vi > 0)) return null;
   let op: StackOp;
   try {
-    op = solveOperatingPoint(c.load.devices, c.load.gates, vl, loadGuess ? { i: loadGuess.i, nodes: scaled(loadGuess, vl) } : undefined);
+    op = solveOperatingPoint(c.load.devices, c.load.gates, vl, loadGuess ? continued(loadGuess, vl) : undefined);
   } catch (e) {
     if (e instanceof StackwrightError && e.kind === 'range') return null;
     throw e;
@@ -81,10 +82,4 @@ export function parallel(r1: number, r2: number): number {
   if (!Number.isFinite(r1)) return r2;
   if (!Number.isFinite(r2)) return r1;
   return (r1 * r2) / (r1 + r2);
-}
-
-// Internal nodes of the load move little between nearby points: keep them, clipped to the new v.
-function scaled(op: StackOp, v: number): number[] {
-  const ratio = op.v > 0 ? Math.min(v / op.v, 1) : 1;
-  return op.nodes.map((x) => Math.max(0, Math.min(x, v - (op.v - x) * ratio)));
 }
