@@ -1,15 +1,20 @@
 import type { SizeResult } from '../solve/types.js';
+import type { StageFrontPoint } from '../solve/stage-types.js';
 import { decidingResults } from '../solve/choose.js';
 import { formatArea, polarityName } from './format.js';
 import { formatEng } from '../units/index.js';
 import { biasGrid, columnAlign, cornerGrid, deviceGrid, predictedGrid, squareLawGrid, statusLine, type Grid } from './rows.js';
 import { ansi, renderTable } from './text.js';
 import { bindingText } from './verdict.js';
-import { stageCornerGrid, stagePredictedGrid, stageSquareLawGrid, stageTopologiesGrid, stageVerdict, stageVerdictText } from './stage-rows.js';
+import { stageCornerGrid, stageCurveGrid, stageFrontGrid, stagePredictedGrid, stageSquareLawGrid, stageTopologiesGrid, stageVerdict, stageVerdictText } from './stage-rows.js';
 
 export interface SizeTextOptions {
   /** ANSI colour; the CLI passes isTTY && !NO_COLOR. */
   color: boolean;
+  /** Trade fronts of the stages by name (printed when given). */
+  stageFronts?: Record<string, StageFrontPoint[]>;
+  /** Stage gain targets by name, to mark the gain curve. */
+  stageGains?: Record<string, number>;
 }
 
 function block(title: string, grid: Grid | undefined, color: boolean): string[] {
@@ -44,12 +49,12 @@ export function renderSizeText(result: SizeResult, opts: SizeTextOptions): strin
       out.push(...block('topologies tried (auto)', { headers: ['topology', 'status', 'Rout', 'headroom', 'area', 'binding'], rows }, c));
     }
   }
-  out.push(...stageText(result, c));
+  out.push(...stageText(result, c, opts));
   return out.join('\n') + '\n';
 }
 
 /** The stages of a result: both sides' devices, bias, predicted figures, hand analysis, corners, load topologies tried. */
-function stageText(result: SizeResult, c: boolean): string[] {
+function stageText(result: SizeResult, c: boolean, opts: SizeTextOptions): string[] {
   const out: string[] = [];
   for (const s of result.stages ?? []) {
     if (s.chosen === false) continue;
@@ -62,6 +67,9 @@ function stageText(result: SizeResult, c: boolean): string[] {
     out.push(...block('predicted', stagePredictedGrid(s), c));
     out.push(...block('lookup table against square law', stageSquareLawGrid(s), c));
     out.push(...block('per corner', stageCornerGrid(s), c));
+    out.push(...block('gain against output voltage (every 100 mV)', stageCurveGrid(s, opts.stageGains?.[s.name]), c));
+    const front = opts.stageFronts?.[s.name];
+    if (front) out.push(...block('trade front: swing against gain and area over the explored designs', stageFrontGrid(front), c));
     const all = (result.stages ?? []).filter((x) => x.name === s.name);
     if (all.length > 1) out.push(...block('load topologies tried (auto)', stageTopologiesGrid(all), c));
   }

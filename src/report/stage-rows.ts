@@ -1,5 +1,5 @@
-import type { StageResult, StageVerdict } from '../solve/stage-types.js';
-import { eng, formatArea } from './format.js';
+import type { StageFrontPoint, StageResult, StageVerdict } from '../solve/stage-types.js';
+import { eng, formatArea, formatMicrons } from './format.js';
 import type { Grid } from './rows.js';
 import { routOf } from '../stack/index.js';
 
@@ -99,6 +99,41 @@ export function stageTopologiesGrid(all: readonly StageResult[]): Grid {
     rows: all.map((x) => [
       x.load.topology, x.chosen ? 'chosen' : x.feasible ? 'feasible' : 'INFEASIBLE', gainText(x.predicted.gain), eng(x.predicted.swing, 'V'),
       formatArea(x.predicted.area), x.feasible || !x.binding ? '' : stageVerdictText(x.binding, (x.corners?.length ?? 0) > 1),
+    ]),
+  };
+}
+
+/**
+ * The gain curve as rows every `step` volts of output: gain, input voltage, and
+ * marks for the design point and the swing interval (text has no chart).
+ */
+export function stageCurveGrid(s: StageResult, target: number | undefined, step = 0.1): Grid | undefined {
+  if (s.curve.length === 0) return undefined;
+  const p = s.predicted;
+  const rows: string[][] = [];
+  let next = -Infinity;
+  for (const c of s.curve) {
+    const design = Math.abs(c.vout - p.output) < 1e-9;
+    if (c.vout < next - 1e-9 && !design) continue;
+    if (!design) next = c.vout + step;
+    const inside = p.vlow !== null && p.vhigh !== null && c.vout >= p.vlow && c.vout <= p.vhigh;
+    const mark = design ? 'design point' : inside ? 'in swing' : target !== undefined && c.gain < target ? 'below target' : '';
+    rows.push([eng(c.vout, 'V'), gainText(c.gain), eng(c.vin, 'V'), mark]);
+  }
+  return { headers: ['vout', 'gain', 'vin', ''], rows };
+}
+
+/** The trade front (explored designs no other beats on gain, swing and area), swing ascending. */
+export function stageFrontGrid(front: readonly StageFrontPoint[], most = 12): Grid | undefined {
+  if (front.length === 0) return undefined;
+  // Evenly thinned so a long front still fits a terminal.
+  const pick = front.length <= most ? front : Array.from({ length: most }, (_, k) => front[Math.round((k * (front.length - 1)) / (most - 1))]);
+  return {
+    headers: ['swing at gain target', 'gain at design point', 'gain held over swing target', 'area', 'load', 'L input / load', 'meets targets'],
+    rows: pick.map((f) => [
+      eng(f.swing, 'V'), gainText(f.gain), gainText(f.gainAtSwing), formatArea(f.area), f.load,
+      `${f.devices.input.map((d) => formatMicrons(d.l)).join('+')} / ${f.devices.load.map((d) => formatMicrons(d.l)).join('+')}`,
+      f.feasible ? 'yes' : 'no',
     ]),
   };
 }

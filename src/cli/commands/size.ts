@@ -59,7 +59,10 @@ export function registerSize(program: Command): void {
       writeFilesAtomic(files, { force: f.force });
 
       if (f.json) out(toJson(run.stageFronts ? { ...run.result, fronts: run.fronts, stageFronts: run.stageFronts } : { ...run.result, fronts: run.fronts }));
-      else out((f.brief ? renderSizeBrief : renderSizeText)(run.result, { color: useColor() }));
+      else {
+        const stageGains = Object.fromEntries((spec.stages ?? []).map((st) => [st.name, st.gain]));
+        out((f.brief ? renderSizeBrief : renderSizeText)(run.result, { color: useColor(), stageFronts: run.stageFronts, stageGains }));
+      }
       for (const [path] of files) note(`wrote ${path}`);
       const failed = decidingResults(run.result).filter((s) => !s.feasible);
       const failedStages = decidingStages(run.result).filter((s) => !s.feasible);
