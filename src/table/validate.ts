@@ -1,5 +1,7 @@
 import { StackwrightError } from '../errors.js';
-import { AXES, STORED, tableSize } from './types.js';
+import { showValue } from '../units/index.js';
+import { rowMajorIndex } from '../numeric/strides.js';
+import { AXES, STORED, UNITS, gridDims, tableSize } from './types.js';
 import type { DeviceTable, TableMeta } from './types.js';
 
 /** Kit and corner names become folder and file names, so keep them plain. */
@@ -32,14 +34,14 @@ export function checkAxes(axes: Record<string, ArrayLike<number>>, where: string
     }
     for (let i = 0; i < v.length; i++) {
       if (typeof v[i] !== 'number' || !Number.isFinite(v[i])) {
-        throw new StackwrightError(`axis ${a} point ${i} is not a finite number (${v[i]})`, { where });
+        throw new StackwrightError(`axis ${a} point ${i} is not a finite number (${String(v[i])})`, { where });
       }
       if (i > 0 && !(v[i] > v[i - 1])) {
-        throw new StackwrightError(`axis ${a} is not strictly increasing at point ${i} (${v[i - 1]} then ${v[i]})`, { where });
+        throw new StackwrightError(`axis ${a} is not strictly increasing at point ${i} (${showValue(v[i - 1], UNITS[a])} then ${showValue(v[i], UNITS[a])})`, { where });
       }
     }
   }
-  if (axes.l[0] <= 0) throw new StackwrightError(`axis l must be positive lengths, starts at ${axes.l[0]}`, { where });
+  if (axes.l[0] <= 0) throw new StackwrightError(`axis l must be positive lengths, starts at ${showValue(axes.l[0], 'm')}`, { where });
 }
 
 /** Full check of an in-memory table: meta, axes, and every data block's size and finiteness. */
@@ -70,9 +72,6 @@ function firstNonFinite(a: Float64Array): number {
 /** Grid coordinates of a flat index, for messages. */
 export function pointName(table: Pick<DeviceTable, 'axes'>, flat: number): string {
   const { l, vgs, vds, vsb } = table.axes;
-  const is = flat % vsb.length;
-  const id = Math.floor(flat / vsb.length) % vds.length;
-  const ig = Math.floor(flat / (vsb.length * vds.length)) % vgs.length;
-  const il = Math.floor(flat / (vsb.length * vds.length * vgs.length));
+  const [il, ig, id, is] = rowMajorIndex(flat, gridDims(table.axes));
   return `l=${l[il]} vgs=${vgs[ig]} vds=${vds[id]} vsb=${vsb[is]}`;
 }

@@ -2,7 +2,7 @@ import type { Command } from 'commander';
 import { StackwrightError } from '../../errors.js';
 import { designNetlist, stageNetlist } from '../../spice/index.js';
 import { decidingResults } from '../../solve/choose.js';
-import type { SizeResult } from '../../solve/types.js';
+import { parseSizeResult } from '../../solve/parse-result.js';
 import { writeFilesAtomic } from '../../fsutil.js';
 import { note, out, readText } from '../io.js';
 
@@ -14,44 +14,6 @@ interface NetlistFlags {
   bias: 'ideal' | 'diodes';
   stage?: string;
   force?: boolean;
-}
-
-/** Read a `size --json` result back (nulls stand for non-finite numbers). */
-export function readSizeResult(path: string): SizeResult {
-  let data: unknown;
-  try {
-    data = JSON.parse(readText(path, 'result file'));
-  } catch (e) {
-    if (e instanceof StackwrightError) throw e;
-    throw new StackwrightError(`not valid JSON: ${(e as Error).message}`, { where: path });
-  }
-  const r = data as Partial<SizeResult>;
-  if (!r || typeof r !== 'object' || !Array.isArray(r.stacks) || typeof r.supply !== 'number') {
-    throw new StackwrightError('expected the JSON printed by `stackwright size --json` (with "supply" and "stacks")', { where: path });
-  }
-  if (r.stages !== undefined && !Array.isArray(r.stages)) throw new StackwrightError('expected a list', { where: `${path}: stages` });
-  (r.stages ?? []).forEach((s, i) => {
-    for (const side of ['input', 'load'] as const) {
-      const devices = s?.[side]?.devices;
-      if (!Array.isArray(devices)) throw new StackwrightError('expected a list of devices', { where: `${path}: stages[${i}].${side}.devices` });
-      devices.forEach((d, k) => {
-        for (const key of ['w', 'l', 'gate'] as const) {
-          if (typeof d[key] !== 'number') throw new StackwrightError('expected a number', { where: `${path}: stages[${i}].${side}.devices[${k}].${key}` });
-        }
-      });
-    }
-  });
-  r.stacks.forEach((s, i) => {
-    if (!Array.isArray(s.devices) || s.devices.length === 0) throw new StackwrightError('stack has no devices', { where: `${path}: stacks[${i}].devices` });
-    s.devices.forEach((d, k) => {
-      for (const key of ['w', 'l', 'gate'] as const) {
-        if (typeof d[key] !== 'number') throw new StackwrightError(`expected a number`, { where: `${path}: stacks[${i}].devices[${k}].${key}` });
-      }
-    });
-  });
-  // JSON has no Infinity: `size --json` writes null for a headroom never reached.
-  for (const s of r.stacks) if (s.predicted && s.predicted.headroom === null) s.predicted.headroom = Infinity;
-  return r as SizeResult;
 }
 
 export function registerNetlist(program: Command): void {
@@ -66,10 +28,10 @@ export function registerNetlist(program: Command): void {
     .option('--bias <ideal|diodes>', 'gates from ideal sources at the reported voltages, or from the sized diode bias devices', 'ideal')
     .option('--stage <name>', 'write the gain stage of this name instead (its input as a DC source to sweep)')
     .option('--force', 'overwrite an existing file')
-    .addHelpText('after', '\nExample:\n  stackwright size spec.yaml --json > result.json\n  stackwright netlist result.json --include models.lib --model-n nch --model-p pch --out stacks.cir\n  stackwright netlist result.json --stage amp1 --out amp1.cir\n')
+    .addHelpText('after', '\nExample:\n  stackwright size spec.yaml --json > result.json\n  stackwright netlist result.json --include models.lib --model-n nfet_model --model-p pfet_model --out stacks.cir\n  stackwright netlist result.json --stage amp1 --out amp1.cir\n')
     .action((path: string, f: NetlistFlags) => {
       if (f.bias !== 'ideal' && f.bias !== 'diodes') throw new StackwrightError(`expected ideal or diodes, got "${f.bias}"`, { where: '--bias' });
-      const result = readSizeResult(path);
+      const result = parseSizeResult(readText(path, 'result file'), path);
       // With topology 'auto' only the chosen design of each stack goes in.
       const chosen = { ...result, stacks: decidingResults(result) };
       const models = { n: f.modelN, p: f.modelP };
