@@ -30,7 +30,7 @@ buildDemoTables(root);
 mkdirSync(join(root, outDir), { recursive: true });
 run('probe one device of the demo kit', ['probe', '--kit', 'demo180', '--device', 'n', '--l', '0.5u', '--gmid', '15', '--vds', '0.6']);
 const sized = run(
-  'size the demo spec (every stack; topology auto tries all four)',
+  'size the demo spec (every stack and the gain stage; topology auto tries all four)',
   ['size', spec, '--report', join(outDir, 'report.html'), '--front', join(outDir, 'front.csv'), '--netlist', join(outDir, 'stacks.cir'), '--force'],
   [0, 3],
 );
@@ -39,6 +39,6 @@ run('port the design from demo180 to demo090', ['port', spec, '--from', 'demo180
 run('design charts of the demo kit', ['chart', '--kit', 'demo180', '--device', 'n', '--out', join(outDir, 'charts'), '--force']);
 process.stdout.write(
   `\ndemo: done${sized === 3 ? ' (some stacks infeasible, as reported above)' : ''}. Open ${join(outDir, 'report.html')} in a browser; ` +
-    `the netlist ${join(outDir, 'stacks.cir')} needs your foundry models.\n` +
+    `the netlists ${join(outDir, 'stacks.cir')} and ${join(outDir, 'stacks.ota-gain.cir')} need your foundry models.\n` +
     'Sizes are first-cut estimates: verify them by simulation with the foundry models across corners before tape-out.\n',
 );

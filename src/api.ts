@@ -11,3 +11,6 @@ export { loadKit, type Kit } from './solve/load-kit.js';
 export { sizeStack, sizeDesign, sizeSpec, type SizeRun, type SizeStackResult } from './solve/size.js';
 export { decidingResults } from './solve/choose.js';
 export { portSpec, type PortRun, type PortStack } from './solve/port.js';
+export { sizeStage, type SizeStageResult } from './solve/stage-size.js';
+export { decidingStages } from './solve/stage-choose.js';
+export type { PortStage } from './solve/port.js';

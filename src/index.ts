@@ -3,8 +3,10 @@
  * Sizes are first-cut estimates; verify them with the foundry models across
  * corners before tape-out.
  */
-export { loadKit, sizeStack, sizeSpec, portSpec, decidingResults } from './api.js';
-export type { Kit, SizeRun, PortRun, PortStack } from './api.js';
+export { loadKit, sizeStack, sizeStage, sizeSpec, portSpec, decidingResults } from './api.js';
+export type { Kit, SizeRun, PortRun, PortStack, PortStage } from './api.js';
+export type { StageResult, StageSide, StagePredicted, StageCurvePoint, StageCorner, StageVerdict, StageTarget, StageSquareLaw, StageFrontPoint } from './solve/stage-types.js';
+export { stageNetlist } from './spice/index.js';
 export { probe, sliceAt, vgsFor, designCurves } from './device/index.js';
 export type { OperatingPoint, LengthSlice, ProbeQuery, ProbeResult } from './device/index.js';
 export { ingestFiles, ingestTexts, parseSweep, QUANTITIES } from './ingest/index.js';
@@ -14,7 +16,7 @@ export type { DeviceTable, TableMeta, Polarity, MismatchCoefficients, KitSummary
 export { parseSpec, resolveCorners } from './design/index.js';
 export { TOPOLOGIES, registerTopology, topologyOf, topologyNames } from './topology/index.js';
 export type { TopologyDescriptor, ScreenTools, StageOption, StageBias, Candidate } from './topology/index.js';
-export type { DesignSpec, StackSpec, Topology, Objective } from './design/index.js';
+export type { DesignSpec, StackSpec, Topology, Objective, StageSpec, StageSideSpec, InputTopology, StageObjective } from './design/index.js';
 export { sizeDesign, evaluateAtCorner, paretoFront, pelgromSigma, CAUTION } from './solve/index.js';
 export { kitAccessFromTables } from './solve/kit-tables.js';
 export type { KitAccess, SizeResult, StackResult, DeviceResult, BiasResult, CurvePoint, Predicted, CornerResult, FrontPoint, Verdict, VerdictTarget } from './solve/index.js';

@@ -1,5 +1,6 @@
 /** (d) Sizing the demo spec end to end, in process and through the CLI. */
-import { existsSync, readFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { parseSpec } from '../../src/design/index.js';
 import { sizeDesign } from '../../src/solve/index.js';
@@ -43,7 +44,53 @@ export function benchSize(opts: { root: string; runs?: number; log?: (s: string)
     },
   ];
   rows.push(cliRow(opts.root));
+  rows.push(stageRow(opts.root));
   return rows;
+}
+
+/**
+ * Whole-process time of sizing the demo spec with its gain stage against the
+ * same spec without `stages:` (median of 3 interleaved spawns each).
+ */
+function stageRow(root: string): BenchRow {
+  const cli = join(root, 'dist', 'src', 'cli', 'main.js');
+  const row: BenchRow = {
+    section: 'd size', measured: `CLI size ${DEMO_SPEC} with its stage, against the same spec without stages`, unit: 'ms',
+    baseline: null, baselineLabel: 'without stages', ours: null, ratio: null, target: '≤ 1.5x', status: 'SKIP',
+  };
+  const text = readFileSync(join(root, DEMO_SPEC), 'utf8');
+  const cut = text.search(/^stages:/m);
+  if (!existsSync(cli) || cut < 0) {
+    row.note = existsSync(cli) ? 'demo spec has no stages: skipped' : 'CLI not built: skipped';
+    return row;
+  }
+  const dir = mkdtempSync(join(tmpdir(), 'stackwright-bench-'));
+  const without = join(dir, 'no-stages.yaml');
+  writeFileSync(without, text.slice(0, cut));
+  const a: number[] = [];
+  const b: number[] = [];
+  try {
+    for (let i = 0; i < 3; i++) {
+      const w = timeSpawn(process.execPath, [cli, 'size', without, '--json'], root);
+      const s = timeSpawn(process.execPath, [cli, 'size', DEMO_SPEC, '--json'], root);
+      if (w.status !== 0 && w.status !== 3) throw new Error(w.stderr);
+      if (s.status !== 0 && s.status !== 3) throw new Error(s.stderr);
+      a.push(w.ms);
+      b.push(s.ms);
+    }
+  } catch (e) {
+    row.note = `size failed: ${(e as Error).message.trim().split('\n').pop() ?? ''}`;
+    return row;
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+  const base = median(a);
+  const ours = median(b);
+  Object.assign(row, {
+    baseline: base, ours, ratio: ours / base, status: verdict(ours / base, (x) => x <= 1.5),
+    note: `median of 3 interleaved spawns each, spawn to exit (without: ${a.map((x) => x.toFixed(0)).join(', ')} ms; with: ${b.map((x) => x.toFixed(0)).join(', ')} ms)`,
+  });
+  return row;
 }
 
 /** One run of the CLI for information; the command may be missing in a partial tree. */

@@ -1,2 +1,3 @@
 export { parseSpec, resolveCorners, keyPath } from './parse.js';
-export type { DesignSpec, StackSpec, Topology, Objective } from './types.js';
+export type { DesignSpec, StackSpec, Topology, Objective, StageSpec, StageSideSpec, InputTopology, StageObjective } from './types.js';
+export { INPUT_TOPOLOGIES } from './types.js';

@@ -2,14 +2,15 @@ import { LineCounter, isMap, isSeq, parseDocument, type Node as YamlNode } from 
 import { StackwrightError } from '../errors.js';
 import { parseEng } from '../units/index.js';
 import type { Polarity } from '../table/types.js';
+import { parseStages } from './parse-stage.js';
 import { topologyNames } from '../topology/index.js';
 import type { DesignSpec, Objective, StackSpec, Topology } from './types.js';
 
-const TOP_KEYS = ['kit', 'corner', 'supply', 'stacks'];
+const TOP_KEYS = ['kit', 'corner', 'supply', 'stacks', 'stages'];
 const STACK_KEYS = ['name', 'device', 'topology', 'current', 'rout', 'headroom', 'span', 'l', 'gmid', 'objective', 'mismatch', 'bias', 'wmax'];
 const OBJECTIVES: Objective[] = ['area', 'headroom', 'rout'];
 
-type Path = Array<string | number>;
+export type Path = Array<string | number>;
 
 /** `stacks[1].rout` */
 export function keyPath(path: Path): string {
@@ -62,8 +63,9 @@ export function parseSpec(text: string, file: string): DesignSpec {
   const supply = requireNumber(top, 'supply', [], fail, { positive: true });
   const corners = parseCorners(top.corner, fail);
 
-  const stacksRaw = top.stacks;
-  if (!Array.isArray(stacksRaw) || stacksRaw.length === 0) fail(['stacks'], 'expected a non-empty list of stacks');
+  // A spec may hold only stages; then `stacks` may be left out.
+  const stacksRaw = top.stacks === undefined && top.stages !== undefined ? [] : top.stacks;
+  if (!Array.isArray(stacksRaw) || (stacksRaw.length === 0 && top.stages === undefined)) fail(['stacks'], 'expected a non-empty list of stacks');
   const names = new Set<string>();
   const stacks = (stacksRaw as unknown[]).map((raw, i) => {
     const path: Path = ['stacks', i];
@@ -75,7 +77,9 @@ export function parseSpec(text: string, file: string): DesignSpec {
     names.add(stack.name);
     return stack;
   });
-  return { file, kit, corners, supply, stacks };
+  const out: DesignSpec = { file, kit, corners, supply, stacks };
+  if (top.stages !== undefined) out.stages = parseStages(top.stages, supply, names, fail);
+  return out;
 }
 
 function parseStack(s: Record<string, unknown>, path: Path, supply: number, fail: Fail): StackSpec {
@@ -106,26 +110,26 @@ function parseStack(s: Record<string, unknown>, path: Path, supply: number, fail
   return out;
 }
 
-type Fail = (path: Path, message: string) => never;
+export type Fail = (path: Path, message: string) => never;
 
-function isObject(x: unknown): x is Record<string, unknown> {
+export function isObject(x: unknown): x is Record<string, unknown> {
   return typeof x === 'object' && x !== null && !Array.isArray(x);
 }
 
-function checkKeys(obj: Record<string, unknown>, allowed: string[], path: Path, fail: Fail): void {
+export function checkKeys(obj: Record<string, unknown>, allowed: string[], path: Path, fail: Fail): void {
   for (const k of Object.keys(obj)) {
     if (!allowed.includes(k)) fail([...path, k], `unknown key; expected one of ${allowed.join(', ')}`);
   }
 }
 
-function requireString(obj: Record<string, unknown>, key: string, path: Path, fail: Fail): string {
+export function requireString(obj: Record<string, unknown>, key: string, path: Path, fail: Fail): string {
   const v = obj[key];
   if (v === undefined) return fail([...path, key], 'required key is missing');
   if (typeof v !== 'string' || v.trim() === '') return fail([...path, key], `expected a non-empty string, got ${JSON.stringify(v)}`);
   return v;
 }
 
-function number(v: unknown, path: Path, fail: Fail): number {
+export function number(v: unknown, path: Path, fail: Fail): number {
   if (typeof v !== 'number' && typeof v !== 'string') return fail(path, `expected a number (engineering notation allowed, e.g. 40u), got ${JSON.stringify(v)}`);
   try {
     return parseEng(v);
@@ -134,7 +138,7 @@ function number(v: unknown, path: Path, fail: Fail): number {
   }
 }
 
-function requireNumber(obj: Record<string, unknown>, key: string, path: Path, fail: Fail, opts: { positive?: boolean } = {}): number {
+export function requireNumber(obj: Record<string, unknown>, key: string, path: Path, fail: Fail, opts: { positive?: boolean } = {}): number {
   const v = obj[key];
   if (v === undefined) return fail([...path, key], 'required key is missing');
   const x = number(v, [...path, key], fail);
@@ -142,7 +146,7 @@ function requireNumber(obj: Record<string, unknown>, key: string, path: Path, fa
   return x;
 }
 
-function parseRange(v: unknown, path: Path, fail: Fail, allowStep: boolean): { min: number; max: number; step?: number } {
+export function parseRange(v: unknown, path: Path, fail: Fail, allowStep: boolean): { min: number; max: number; step?: number } {
   let min: unknown, max: unknown, step: unknown;
   if (Array.isArray(v)) {
     if (v.length !== 2 && !(allowStep && v.length === 3)) {

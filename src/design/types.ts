@@ -41,4 +41,42 @@ export interface DesignSpec {
   corners: string[];
   supply: number;
   stacks: StackSpec[];
+  /** Gain stages (absent or empty when the spec has none). */
+  stages?: StageSpec[];
+}
+
+/** Input-side topologies of a gain stage: common source, or input device plus one cascode. */
+export type InputTopology = 'single' | 'cascode';
+export const INPUT_TOPOLOGIES: readonly InputTopology[] = ['single', 'cascode'];
+export type StageObjective = 'area' | 'swing' | 'gain';
+
+/** Search limits of one side of a stage. */
+export interface StageSideSpec {
+  /** Allowed channel lengths, m. */
+  l?: { min: number; max: number; step?: number };
+  /** Allowed gm/ID range, 1/V. */
+  gmid?: { min: number; max: number };
+  /** Current in each bias (diode) branch, A (default: the stage current). */
+  biasCurrent?: number;
+}
+
+/** One gain stage to size (input side and load side sharing the output node), after validation; all SI. */
+export interface StageSpec {
+  name: string;
+  /** Current through both sides at the design point, A. */
+  current: number;
+  /** Minimum |dVout/dVin| over the swing. */
+  gain: number;
+  /** Minimum output range with gain ≥ target, V. */
+  swing: number;
+  /** Design-point output voltage, V (default supply/2). */
+  output: number;
+  input: StageSideSpec & { device: Polarity; topology: InputTopology };
+  /** Load side: a current-source stack of the other type. */
+  load: StageSideSpec & { topology: Topology | 'auto' };
+  /** Minimum gain-bandwidth product, Hz (needs `cap`). */
+  gbw?: number;
+  /** Load capacitance at the output, F. */
+  cap?: number;
+  objective: StageObjective;
 }

@@ -19,3 +19,4 @@ export { frontCsv, frontCharts, curvesFor, reportHtml, type TableSource } from '
 export type { Grid } from './rows.js';
 export { renderPortText } from './port-text.js';
 export { verdictText, verdictLine, bindingText } from './verdict.js';
+export { stageVerdictText, stageVerdict, stagePredictedGrid, stageSquareLawGrid, stageCornerGrid, stageTopologiesGrid } from './stage-rows.js';

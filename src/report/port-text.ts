@@ -3,6 +3,7 @@ import { formatEng } from '../units/index.js';
 import { renderTable } from './text.js';
 import { formatArea } from './format.js';
 import { verdictText } from './verdict.js';
+import { stageVerdictText } from './stage-rows.js';
 
 function value(x: number, unit: string): string {
   if (Number.isNaN(x)) return '—';
@@ -31,6 +32,22 @@ export function renderPortText(run: PortRun, opts: { color: boolean }): string {
     else {
       const p = s.asIs.predicted;
       lines.push(`  old sizes as they are on ${to}: Iout ${value(p.iout, 'A')}, Rout ${value(p.rout, 'Ω')}, headroom ${value(p.headroom, 'V')} — ${s.asIs.feasible ? 'still meets the targets' : `fails (${s.asIs.binding ? verdictText(s.asIs.binding) : 'targets'})`}`);
+    }
+  }
+  for (const s of run.stages) {
+    lines.push('', bold(`stage ${s.name}: ${s.from.load.topology} load on ${from} -> ${s.to.load.topology} load on ${to} — ${s.to.feasible ? 'FEASIBLE' : 'INFEASIBLE'}`));
+    const rows = s.changes.map((c) => [
+      c.what, c.unit === 'V/V' ? (Number.isFinite(c.from) ? Number(c.from.toPrecision(4)).toString() : '—') : value(c.from, c.unit),
+      c.unit === 'V/V' ? (Number.isFinite(c.to) ? Number(c.to.toPrecision(4)).toString() : '—') : value(c.to, c.unit),
+      Number.isFinite(c.percent) ? `${c.percent >= 0 ? '+' : ''}${c.percent.toFixed(1)} %` : '—',
+    ]);
+    lines.push(renderTable(['quantity', from, to, 'change'], rows, { indent: 2 }));
+    if (!s.to.feasible && s.to.binding) lines.push(`  on ${to}: binding ${stageVerdictText(s.to.binding, true)}`);
+    if ('error' in s.asIs) lines.push(`  old sizes as they are on ${to}: cannot be evaluated (${s.asIs.error})`);
+    else {
+      const p = s.asIs.predicted;
+      const v = s.asIs.binding ?? s.asIs.tightest;
+      lines.push(`  old sizes as they are on ${to}: gain ${Number(p.gain.toPrecision(4))}, swing ${value(p.swing, 'V')} — ${s.asIs.feasible ? 'still meets the targets' : `fails (${v ? stageVerdictText(v, true) : 'targets'})`}`);
     }
   }
   return lines.join('\n');

@@ -27,7 +27,7 @@ export interface Grid {
 }
 
 /** Output-stack devices, bottom first. */
-export function deviceGrid(stack: StackResult): Grid {
+export function deviceGrid(stack: Pick<StackResult, 'devices'>): Grid {
   return {
     headers: ['device', 'W', 'L', 'gate', 'VGS', 'VDS', 'VDSsat', 'VSB', 'gm/ID', 'ID', 'gm', 'gds', 'gm/gds'],
     rows: stack.devices.map((d) => [
@@ -38,7 +38,7 @@ export function deviceGrid(stack: StackResult): Grid {
   };
 }
 
-export function biasGrid(stack: StackResult): Grid {
+export function biasGrid(stack: Pick<StackResult, 'bias'>): Grid {
   return {
     headers: ['bias for', 'W', 'L', 'current', 'gate voltage', 'stacked on'],
     rows: stack.bias.map((b) => [

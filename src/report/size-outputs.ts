@@ -2,6 +2,7 @@ import type { DesignSpec } from '../design/types.js';
 import type { DeviceTable, Polarity } from '../table/types.js';
 import type { FrontPoint } from '../solve/pareto.js';
 import type { SizeResult } from '../solve/types.js';
+import type { StageFrontPoint } from '../solve/stage-types.js';
 import { decidingResults } from '../solve/choose.js';
 import { designCurves, defaultVds } from '../device/index.js';
 import { stackCharts } from './stack-charts.js';
@@ -18,6 +19,7 @@ export interface TableSource {
 interface Run {
   result: SizeResult;
   fronts: Record<string, FrontPoint[]>;
+  stageFronts?: Record<string, StageFrontPoint[]>;
 }
 
 /** Pareto fronts as CSV, one row per point, SI units. */
@@ -52,7 +54,7 @@ export function frontCharts(spec: DesignSpec, run: Run): Array<[string, string]>
 
 /** Design curves of each polarity the result uses, at the nominal corner. */
 export function curvesFor(kit: TableSource, result: SizeResult): DesignCurves[] {
-  const devices = [...new Set(result.stacks.map((s) => s.device))] as Polarity[];
+  const devices = [...new Set([...result.stacks.map((s) => s.device), ...(result.stages ?? []).flatMap((s) => [s.input.device, s.load.device])])] as Polarity[];
   const corner = result.corners[0];
   return devices.map((device) => {
     const table = kit.table(device, corner);
@@ -63,11 +65,12 @@ export function curvesFor(kit: TableSource, result: SizeResult): DesignCurves[] 
 
 /** The self-contained HTML report of a size run, with the kit's note (demo kits say they are invented). */
 export function reportHtml(spec: DesignSpec, source: string, kit: TableSource, run: Run, generatedBy: string): string {
-  const note = kit.table(run.result.stacks[0]?.device ?? 'n', run.result.corners[0]).meta.note;
+  const note = kit.table(run.result.stacks[0]?.device ?? run.result.stages?.[0]?.input.device ?? 'n', run.result.corners[0]).meta.note;
   return htmlReport({
     spec: { parsed: spec, source },
     size: run.result,
     fronts: Object.entries(run.fronts).map(([stack, points]) => ({ stack, points })),
+    stageFronts: Object.entries(run.stageFronts ?? {}).map(([stage, points]) => ({ stage, points })),
     designCurves: curvesFor(kit, run.result),
     generatedBy,
     notes: note ? [`kit ${kit.kit}: ${note}`] : [],

@@ -1,14 +1,20 @@
 import type { SizeResult } from '../solve/types.js';
+import type { StageFrontPoint } from '../solve/stage-types.js';
 import { decidingResults } from '../solve/choose.js';
 import { formatArea, polarityName } from './format.js';
 import { formatEng } from '../units/index.js';
 import { biasGrid, columnAlign, cornerGrid, currentWarning, deviceGrid, predictedGrid, squareLawGrid, statusLine, type Grid } from './rows.js';
 import { ansi, renderTable } from './text.js';
 import { bindingText } from './verdict.js';
+import { stageCornerGrid, stageCurveGrid, stageFrontGrid, stagePredictedGrid, stageSquareLawGrid, stageTopologiesGrid, stageVerdict, stageVerdictText } from './stage-rows.js';
 
 export interface SizeTextOptions {
   /** ANSI colour; the CLI passes isTTY && !NO_COLOR. */
   color: boolean;
+  /** Trade fronts of the stages by name (printed when given). */
+  stageFronts?: Record<string, StageFrontPoint[]>;
+  /** Stage gain targets by name, to mark the gain curve. */
+  stageGains?: Record<string, number>;
 }
 
 function block(title: string, grid: Grid | undefined, color: boolean): string[] {
@@ -45,7 +51,31 @@ export function renderSizeText(result: SizeResult, opts: SizeTextOptions): strin
       out.push(...block('topologies tried (auto)', { headers: ['topology', 'status', 'Rout', 'headroom', 'area', 'binding'], rows }, c));
     }
   }
+  out.push(...stageText(result, c, opts));
   return out.join('\n') + '\n';
+}
+
+/** The stages of a result: both sides' devices, bias, predicted figures, hand analysis, corners, load topologies tried. */
+function stageText(result: SizeResult, c: boolean, opts: SizeTextOptions): string[] {
+  const out: string[] = [];
+  for (const s of result.stages ?? []) {
+    if (s.chosen === false) continue;
+    const status = s.feasible ? ansi.green('FEASIBLE', c) : ansi.red('INFEASIBLE', c);
+    out.push('', ansi.bold(`stage ${s.name}: ${s.input.device}-input ${s.input.topology}, ${polarityName(s.load.device)} ${s.load.topology} load — ${status}`, c), `  ${stageVerdict(s)}`);
+    out.push(...block('input side (bottom first; the input device\'s gate is the input DC voltage)', deviceGrid(s.input), c));
+    out.push(...block('input-side bias devices', biasGrid(s.input), c));
+    out.push(...block('load side (bottom first)', deviceGrid(s.load), c));
+    out.push(...block('load-side bias devices', biasGrid(s.load), c));
+    out.push(...block('predicted', stagePredictedGrid(s), c));
+    out.push(...block('lookup table against square law', stageSquareLawGrid(s), c));
+    out.push(...block('per corner', stageCornerGrid(s), c));
+    out.push(...block('gain against output voltage (every 100 mV)', stageCurveGrid(s, opts.stageGains?.[s.name]), c));
+    const front = opts.stageFronts?.[s.name];
+    if (front) out.push(...block('trade front: swing against gain and area over the explored designs', stageFrontGrid(front), c));
+    const all = (result.stages ?? []).filter((x) => x.name === s.name);
+    if (all.length > 1) out.push(...block('load topologies tried (auto)', stageTopologiesGrid(all), c));
+  }
+  return out;
 }
 
 /** One line per stack (its chosen design): for a quick look at many stacks. */
@@ -58,11 +88,20 @@ export function renderSizeBrief(result: SizeResult, opts: SizeTextOptions): stri
     formatArea(s.predicted.area), s.predicted.sigma === undefined ? '—' : `${Number((s.predicted.sigma * 100).toPrecision(3))} %`,
     s.feasible ? '' : bindingText(s),
   ]);
+  const stages = (result.stages ?? []).filter((s) => s.chosen !== false).map((s) => [
+    s.name, `${s.input.device}-input ${s.input.topology} / ${s.load.device}-type ${s.load.topology}`, s.feasible ? 'feasible' : 'INFEASIBLE',
+    Number(s.predicted.gain.toPrecision(4)).toString(), formatEng(s.predicted.swing, 'V'), formatArea(s.predicted.area),
+    s.feasible || !s.binding ? '' : stageVerdictText(s.binding, result.corners.length > 1),
+  ]);
+  const stageLines = stages.length === 0 ? [] : [renderTable(['stage', 'topology', 'status', 'gain', 'swing', 'area', 'binding'], stages, {
+    color: opts.color, align: ['left', 'left', 'left', 'right', 'right', 'right', 'left'],
+  })];
   return [
     `kit ${result.kit}, corners ${result.corners.join(', ')}, supply ${result.supply} V`,
     ansi.yellow(`CAUTION: ${result.caution}`, opts.color),
     renderTable(['stack', 'topology', 'status', 'W/L (bottom first)', 'Iout', 'Rout', 'headroom', 'area', 'σ(Iout)/Iout', 'binding'], rows, {
       color: opts.color, align: ['left', 'left', 'left', 'left', 'right', 'right', 'right', 'right', 'right', 'left'],
     }),
+    ...stageLines,
   ].join('\n') + '\n';
 }

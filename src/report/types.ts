@@ -3,6 +3,7 @@ import type { Polarity } from '../table/types.js';
 import type { SizeResult } from '../solve/types.js';
 import type { FrontPoint } from '../solve/pareto.js';
 import type { DesignCurve } from '../device/curves.js';
+import type { StageFrontPoint } from '../solve/stage-types.js';
 
 
 /** Design curves of one device of one kit and corner, one curve per length. */
@@ -26,6 +27,8 @@ export interface HtmlReportInput {
   spec: { parsed: DesignSpec; source: string };
   size: SizeResult;
   fronts?: StackFront[];
+  /** Trade fronts of the gain stages, by stage name. */
+  stageFronts?: Array<{ stage: string; points: StageFrontPoint[] }>;
   /** Design curves of each device used (at the nominal corner). */
   designCurves?: DesignCurves[];
   /** Program and version (and command) that made the report. */

@@ -10,7 +10,8 @@ export interface Change {
   percent: number;
 }
 
-function change(what: string, unit: string, from: number, to: number): Change {
+/** One compared number with its change in percent. */
+export function change(what: string, unit: string, from: number, to: number): Change {
   const percent = Number.isFinite(from) && Number.isFinite(to) && from !== 0 ? (100 * (to - from)) / Math.abs(from) : NaN;
   return { what, unit, from, to, percent };
 }

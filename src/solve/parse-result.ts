@@ -3,7 +3,7 @@ import type { SizeResult } from './types.js';
 
 /**
  * A saved `size --json` result read back as a SizeResult, checked far enough for
- * a netlist: "supply", and for each stack devices with numeric w, l and gate.
+ * a netlist: "supply", and for each stack (and each stage side) devices with numeric w, l and gate.
  * `where` names the source in errors (a file path). JSON has no Infinity, so the
  * null that `size --json` writes for a headroom never reached becomes Infinity again.
  * Throws StackwrightError (kind 'input') on text that is not such a result.
@@ -19,6 +19,18 @@ export function parseSizeResult(text: string, where: string): SizeResult {
   if (!r || typeof r !== 'object' || !Array.isArray(r.stacks) || typeof r.supply !== 'number') {
     throw new StackwrightError('expected the JSON printed by `stackwright size --json` (with "supply" and "stacks")', { where });
   }
+  if (r.stages !== undefined && !Array.isArray(r.stages)) throw new StackwrightError('expected a list', { where: `${where}: stages` });
+  (r.stages ?? []).forEach((s, i) => {
+    for (const side of ['input', 'load'] as const) {
+      const devices = s?.[side]?.devices;
+      if (!Array.isArray(devices)) throw new StackwrightError('expected a list of devices', { where: `${where}: stages[${i}].${side}.devices` });
+      devices.forEach((d, k) => {
+        for (const key of ['w', 'l', 'gate'] as const) {
+          if (typeof d?.[key] !== 'number') throw new StackwrightError('expected a number', { where: `${where}: stages[${i}].${side}.devices[${k}].${key}` });
+        }
+      });
+    }
+  });
   r.stacks.forEach((s, i) => {
     if (!s || !Array.isArray(s.devices) || s.devices.length === 0) throw new StackwrightError('stack has no devices', { where: `${where}: stacks[${i}].devices` });
     s.devices.forEach((d, k) => {

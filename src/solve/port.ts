@@ -6,6 +6,9 @@ import { sizeSpec, type SizeRun } from './size.js';
 import { decidingResults } from './choose.js';
 import { compareResults, harderTargets, type Change } from './compare.js';
 import { evaluateAtCorner } from './evaluate/corners.js';
+import type { StageCorner, StageResult } from './stage-types.js';
+import { compareStages, retargetStage, stageAsIs } from './stage-port.js';
+import { decidingStages } from './stage-choose.js';
 
 export interface PortStack {
   name: string;
@@ -17,6 +20,15 @@ export interface PortStack {
   asIs: CornerResult | { error: string };
 }
 
+export interface PortStage {
+  name: string;
+  from: StageResult;
+  to: StageResult;
+  changes: Change[];
+  /** The old sizes as they are on the new kit (gates from the old bias devices, input re-solved). */
+  asIs: StageCorner | { error: string };
+}
+
 export interface PortRun {
   from: SizeRun;
   to: SizeRun;
@@ -24,6 +36,8 @@ export interface PortRun {
   toSpec: DesignSpec;
   notes: string[];
   stacks: PortStack[];
+  /** Gain stages, when the spec has them. */
+  stages: PortStage[];
 }
 
 /**
@@ -50,8 +64,14 @@ export function portSpec(spec: DesignSpec, from: Kit, to: Kit, opts: { supply?: 
     notes.push(`${s.name}: span ${s.span} V -> ${Number(span.toFixed(3))} V`);
     return { ...s, span };
   });
+  const stages = spec.stages?.map((s) => {
+    const t = retargetStage(s, spec.supply, supply);
+    if (t !== s) notes.push(`${s.name}: output ${s.output} V -> ${Number(t.output.toFixed(3))} V, swing target ${s.swing} V -> ${Number(t.swing.toFixed(3))} V (same share of the supply)`);
+    return t;
+  });
   const fromSpec: DesignSpec = { ...spec, kit: from.kit };
   const toSpec: DesignSpec = { ...spec, kit: to.kit, supply, stacks };
+  if (stages) toSpec.stages = stages;
   const runFrom = sizeSpec(fromSpec, from);
   const runTo = sizeSpec(toSpec, to);
   const chosen = (run: SizeRun, name: string): StackResult => decidingResults(run.result).find((r) => r.name === name) as StackResult;
@@ -66,5 +86,11 @@ export function portSpec(spec: DesignSpec, from: Kit, to: Kit, opts: { supply?: 
     }
     return { name: s.name, from: a, to: b, changes: compareResults(a, b), harder: harderTargets(spec.stacks[i], a, b), asIs };
   });
-  return { from: runFrom, to: runTo, toSpec, notes, stacks: compared };
+  const chosenStage = (run: SizeRun, name: string): StageResult => decidingStages(run.result).find((r) => r.name === name) as StageResult;
+  const portedStages = (toSpec.stages ?? []).map((s): PortStage => {
+    const a = chosenStage(runFrom, s.name);
+    const b = chosenStage(runTo, s.name);
+    return { name: s.name, from: a, to: b, changes: compareStages(a, b), asIs: stageAsIs(a, s, to, runTo.result.corners[0], supply) };
+  });
+  return { from: runFrom, to: runTo, toSpec, notes, stacks: compared, stages: portedStages };
 }

@@ -14,6 +14,8 @@ import { nearestPoints } from './nearest.js';
 import { chooseResult } from './choose.js';
 import { paretoFront, type FrontPoint } from './pareto.js';
 import { verdict, type Verdict } from './evaluate/verdict.js';
+import { sizeStages } from './stage-size.js';
+import type { StageFrontPoint } from './stage-types.js';
 
 export interface SizeStackResult {
   results: StackResult[];
@@ -143,7 +145,7 @@ export function sizeStack(spec: StackSpec, kit: KitAccess, opts: { supply: numbe
  * (resolved against the kit: default nominal, "all" for every corner). With
  * topology 'auto' each topology gets a result and the chosen one has `chosen: true`.
  */
-export function sizeDesign(design: DesignSpec, kit: KitAccess): SizeResult & { fronts: Record<string, FrontPoint[]> } {
+export function sizeDesign(design: DesignSpec, kit: KitAccess): SizeResult & { fronts: Record<string, FrontPoint[]>; stageFronts?: Record<string, StageFrontPoint[]> } {
   if (design.kit !== kit.kit) {
     throw new StackwrightError(`spec asks for kit "${design.kit}" but the tables are for "${kit.kit}"`, { where: `${design.file}: kit` });
   }
@@ -160,17 +162,21 @@ export function sizeDesign(design: DesignSpec, kit: KitAccess): SizeResult & { f
     stacks.push(...r.results);
     fronts[s.name] = r.front;
   }
-  return { kit: kit.kit, corners, supply: design.supply, caution: CAUTION, stacks, fronts };
+  const out: ReturnType<typeof sizeDesign> = { kit: kit.kit, corners, supply: design.supply, caution: CAUTION, stacks, fronts };
+  if (design.stages?.length) Object.assign(out, sizeStages(design.stages, kit, { supply: design.supply, corners }));
+  return out;
 }
 
 /** A size run: the result as `size --json` prints it, and the Pareto front per stack name. */
 export interface SizeRun {
   result: SizeResult;
   fronts: Record<string, FrontPoint[]>;
+  /** Trade front (gain, swing, area) per stage name, when the spec has stages. */
+  stageFronts?: Record<string, StageFrontPoint[]>;
 }
 
 /** sizeDesign with the fronts kept beside the result. */
 export function sizeSpec(spec: DesignSpec, kit: KitAccess): SizeRun {
-  const { fronts, ...result } = sizeDesign(spec, kit);
-  return { result, fronts };
+  const { fronts, stageFronts, ...result } = sizeDesign(spec, kit);
+  return stageFronts ? { result, fronts, stageFronts } : { result, fronts };
 }

@@ -3,6 +3,7 @@ import type { OperatingPoint } from '../device/types.js';
 import type { Topology } from '../topology/types.js';
 import type { Role, SquareLawCheck } from '../stack/types.js';
 import type { Verdict } from './evaluate/verdict.js';
+import type { StageResult } from './stage-types.js';
 
 export type { Role, SquareLawCheck };
 
@@ -100,6 +101,8 @@ export interface SizeResult {
   supply: number;
   caution: string;
   stacks: StackResult[];
+  /** Gain stages, one entry per load topology tried (present when the spec has stages). */
+  stages?: StageResult[];
 }
 
 export const CAUTION =

@@ -21,3 +21,5 @@ export {
   type SimulatedStack,
   type HeadroomTargets,
 } from './measure.js';
+export { stageNetlist, STAGE_INPUT_SOURCE, STAGE_INPUT_NODE, STAGE_OUTPUT_NODE, type StageNetlistOptions } from './stage-netlist.js';
+export { simulateStage, measuredGain, type TransferPoint, type MeasuredGain } from './stage-measure.js';

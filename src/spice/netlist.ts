@@ -113,9 +113,9 @@ function stackLines(
   return lines;
 }
 
-/** Emit the gate drive and return role -> gate node. */
-function gateNodes(
-  s: StackResult,
+/** Emit the gate drive (ideal sources or sized bias diodes) and return role -> gate node. */
+export function gateNodes(
+  s: Pick<StackResult, 'devices' | 'bias'>,
   tag: string,
   opts: NetlistOptions,
   rail: string,

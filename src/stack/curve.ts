@@ -61,8 +61,8 @@ export function sampleAt(devices: readonly StackDevice[], gates: readonly number
   }
 }
 
-// Internal nodes barely move in saturation: keep them, shrinking the share above each node with v.
-function continued(op: StackOp, v: number): { i: number; nodes: number[] } {
+/** A DC-solve guess at v from a solved point: internal nodes barely move in saturation, so keep them, shrinking the share above each node with v. */
+export function continued(op: StackOp, v: number): { i: number; nodes: number[] } {
   const ratio = op.v > 0 ? Math.min(v / op.v, 1) : 1;
   return { i: op.i, nodes: op.nodes.map((x) => Math.max(0, Math.min(x, v - (op.v - x) * ratio))) };
 }

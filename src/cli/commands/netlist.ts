@@ -1,6 +1,6 @@
 import type { Command } from 'commander';
 import { StackwrightError } from '../../errors.js';
-import { designNetlist } from '../../spice/index.js';
+import { designNetlist, stageNetlist } from '../../spice/index.js';
 import { decidingResults } from '../../solve/choose.js';
 import { parseSizeResult } from '../../solve/parse-result.js';
 import { writeFilesAtomic } from '../../fsutil.js';
@@ -12,6 +12,7 @@ interface NetlistFlags {
   modelP: string;
   include?: string;
   bias: 'ideal' | 'diodes';
+  stage?: string;
   force?: boolean;
 }
 
@@ -25,14 +26,22 @@ export function registerNetlist(program: Command): void {
     .option('--model-p <name>', 'p-type model name', 'pmos_model')
     .option('--include <file>', 'model file to .include (or a literal .lib/.include line)')
     .option('--bias <ideal|diodes>', 'gates from ideal sources at the reported voltages, or from the sized diode bias devices', 'ideal')
+    .option('--stage <name>', 'write the gain stage of this name instead (its input as a DC source to sweep)')
     .option('--force', 'overwrite an existing file')
-    .addHelpText('after', '\nExample:\n  stackwright size spec.yaml --json > result.json\n  stackwright netlist result.json --include models.lib --model-n nfet_model --model-p pfet_model --out stacks.cir\n')
+    .addHelpText('after', '\nExample:\n  stackwright size spec.yaml --json > result.json\n  stackwright netlist result.json --include models.lib --model-n nfet_model --model-p pfet_model --out stacks.cir\n  stackwright netlist result.json --stage amp1 --out amp1.cir\n')
     .action((path: string, f: NetlistFlags) => {
       if (f.bias !== 'ideal' && f.bias !== 'diodes') throw new StackwrightError(`expected ideal or diodes, got "${f.bias}"`, { where: '--bias' });
       const result = parseSizeResult(readText(path, 'result file'), path);
       // With topology 'auto' only the chosen design of each stack goes in.
       const chosen = { ...result, stacks: decidingResults(result) };
-      const text = designNetlist(chosen, { supply: result.supply, models: { n: f.modelN, p: f.modelP }, include: f.include, bias: f.bias });
+      const models = { n: f.modelN, p: f.modelP };
+      let text: string;
+      if (f.stage !== undefined) {
+        const all = result.stages ?? [];
+        const stage = all.find((s) => s.name === f.stage && s.chosen !== false);
+        if (!stage) throw new StackwrightError(`no stage "${f.stage}" in ${path}` + (all.length ? ` (has ${[...new Set(all.map((s) => s.name))].join(', ')})` : ' (it has no stages)'), { where: '--stage' });
+        text = stageNetlist(stage, { supply: result.supply, models, include: f.include, bias: f.bias });
+      } else text = designNetlist(chosen, { supply: result.supply, models, include: f.include, bias: f.bias });
       if (f.out) {
         writeFilesAtomic([[f.out, text]], { force: f.force });
         note(`wrote ${f.out}`);

@@ -1,7 +1,7 @@
 import type { Command } from 'commander';
 import { loadKit, portSpec } from '../../api.js';
 import { parseSpec } from '../../design/index.js';
-import { renderPortText, bindingText } from '../../report/index.js';
+import { renderPortText, bindingText, stageVerdictText } from '../../report/index.js';
 import { EXIT } from '../../errors.js';
 import { engFlag } from '../options.js';
 import { note, out, readText, toJson, useColor } from '../io.js';
@@ -31,11 +31,16 @@ export function registerPort(program: Command): void {
       const to = loadKit(f.to, { tables: f.tables });
       const run = portSpec(spec, from, to, { supply: f.supply });
       if (f.json) {
-        out(toJson({ from: from.kit, to: to.kit, notes: run.notes, supply: { from: spec.supply, to: run.toSpec.supply }, caution: run.to.result.caution, stacks: run.stacks }));
+        out(toJson({ from: from.kit, to: to.kit, notes: run.notes, supply: { from: spec.supply, to: run.toSpec.supply }, caution: run.to.result.caution, stacks: run.stacks, ...(run.stages.length ? { stages: run.stages } : {}) }));
       } else out(renderPortText(run, { color: useColor() }));
       const failed = run.stacks.filter((s) => !s.to.feasible);
-      if (failed.length) {
-        note(`infeasible on ${to.kit}: ${failed.map((s) => `${s.name} (${bindingText(s.to) || 'targets not met'})`).join('; ')}`);
+      const failedStages = run.stages.filter((s) => !s.to.feasible);
+      if (failed.length + failedStages.length) {
+        const words = [
+          ...failed.map((s) => `${s.name} (${bindingText(s.to) || 'targets not met'})`),
+          ...failedStages.map((s) => `${s.name} (${s.to.binding ? stageVerdictText(s.to.binding, true) : 'targets not met'})`),
+        ];
+        note(`infeasible on ${to.kit}: ${words.join('; ')}`);
         process.exitCode = EXIT.infeasible;
       }
     });

@@ -3,7 +3,9 @@ import type { Command } from 'commander';
 import { loadKit, sizeSpec, decidingResults, type SizeRun } from '../../api.js';
 import { parseSpec } from '../../design/index.js';
 import { bindingText, frontCharts, frontCsv, renderSizeText, renderSizeBrief, reportHtml } from '../../report/index.js';
-import { designNetlist } from '../../spice/index.js';
+import { designNetlist, stageNetlist } from '../../spice/index.js';
+import { decidingStages } from '../../solve/stage-choose.js';
+import { stageVerdictText } from '../../report/index.js';
 import { writeFilesAtomic } from '../../fsutil.js';
 import { EXIT } from '../../errors.js';
 import { note, out, packageVersion, readText, toJson, useColor } from '../io.js';
@@ -46,17 +48,30 @@ export function registerSize(program: Command): void {
       }
       if (f.netlist) {
         const chosen = { ...run.result, stacks: decidingResults(run.result) };
-        files.push([f.netlist, designNetlist(chosen, { supply: spec.supply, specs: spec.stacks, title: `stackwright ${basename(specPath)}` })]);
+        if (chosen.stacks.length > 0) files.push([f.netlist, designNetlist(chosen, { supply: spec.supply, specs: spec.stacks, title: `stackwright ${basename(specPath)}` })]);
+        // Each stage gets its own deck beside it (its own .dc sweep of the input).
+        const stem = f.netlist.slice(0, f.netlist.length - extname(f.netlist).length);
+        for (const st of decidingStages(run.result)) {
+          if (st.input.devices.length > 0) files.push([`${stem}.${st.name}.cir`, stageNetlist(st, { supply: spec.supply })]);
+        }
       }
       if (f.report) files.push([f.report, reportHtml(spec, source, kit, run, `stackwright ${packageVersion()}`)]);
       writeFilesAtomic(files, { force: f.force });
 
-      if (f.json) out(toJson({ ...run.result, fronts: run.fronts }));
-      else out((f.brief ? renderSizeBrief : renderSizeText)(run.result, { color: useColor() }));
+      if (f.json) out(toJson(run.stageFronts ? { ...run.result, fronts: run.fronts, stageFronts: run.stageFronts } : { ...run.result, fronts: run.fronts }));
+      else {
+        const stageGains = Object.fromEntries((spec.stages ?? []).map((st) => [st.name, st.gain]));
+        out((f.brief ? renderSizeBrief : renderSizeText)(run.result, { color: useColor(), stageFronts: run.stageFronts, stageGains }));
+      }
       for (const [path] of files) note(`wrote ${path}`);
       const failed = decidingResults(run.result).filter((s) => !s.feasible);
-      if (failed.length > 0) {
-        note(`infeasible: ${failed.map((s) => `${s.name} (${bindingText(s) || 'targets not met'})`).join('; ')}`);
+      const failedStages = decidingStages(run.result).filter((s) => !s.feasible);
+      if (failed.length + failedStages.length > 0) {
+        const words = [
+          ...failed.map((s) => `${s.name} (${bindingText(s) || 'targets not met'})`),
+          ...failedStages.map((s) => `${s.name} (${s.binding ? stageVerdictText(s.binding, true) : 'targets not met'})`),
+        ];
+        note(`infeasible: ${words.join('; ')}`);
         process.exitCode = EXIT.infeasible;
       }
     });

@@ -39,7 +39,8 @@ export interface Evaluated {
   intervals: number;
 }
 
-function rangeSafe<T>(f: () => T): T | null {
+/** f(), or null when it throws a 'range' error (the tables cannot cover the bias). */
+export function rangeSafe<T>(f: () => T): T | null {
   try {
     return f();
   } catch (e) {

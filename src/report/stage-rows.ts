@@ -1,0 +1,139 @@
+import type { StageFrontPoint, StageResult, StageVerdict } from '../solve/stage-types.js';
+import { eng, formatArea, formatMicrons } from './format.js';
+import type { Grid } from './rows.js';
+import { routOf } from '../stack/index.js';
+
+function gainText(x: number | null): string {
+  return x === null || !Number.isFinite(x) ? '—' : Number(x.toPrecision(4)).toString();
+}
+
+function quantity(v: StageVerdict, x: number | null): string {
+  if (v.target === 'gain') return gainText(x);
+  if (v.target === 'swing') return x === null ? '—' : eng(x, 'V');
+  if (v.target === 'gbw') return x === null ? '—' : eng(x, 'Hz');
+  return '—';
+}
+
+/**
+ * Words for a stage verdict: "swing at the gain target 903 mV ≥ 900 mV (+3 mV, +0.3 %)";
+ * `showCorner` prefixes "corner ss: " (when the run has several corners).
+ */
+export function stageVerdictText(v: StageVerdict, showCorner = false): string {
+  const where = showCorner && v.corner ? `corner ${v.corner}: ` : '';
+  if (v.target === 'table') return `${where}the tables cannot hold the stage's bias (a bias diode or the design point lies outside them)`;
+  if (v.target === 'saturation') return `${where}a lower device would leave saturation at the design point`;
+  const name = v.target === 'gain' ? (v.at === null ? 'gain held over the swing target' : `gain at the ${eng(v.at, 'V')} design point`) : v.target === 'swing' ? 'swing at the gain target' : 'GBW';
+  if (v.achieved === null || v.required === null) return `${where}${name}: not reached`;
+  const ok = v.achieved >= v.required;
+  const pct = ((v.achieved / v.required - 1) * 100).toFixed(1);
+  const by = v.target === 'swing' ? `${ok ? '+' : '−'}${eng(Math.abs(v.achieved - v.required), 'V')}, ${ok ? '+' : ''}${pct} %` : `${ok ? '+' : ''}${pct} %`;
+  return `${where}${name} ${quantity(v, v.achieved)} ${ok ? '≥' : '<'} ${quantity(v, v.required)} (${by})`;
+}
+
+/** One sentence on a stage: feasible with its tightest target, or which target binds and the nearest points. */
+export function stageVerdict(s: StageResult): string {
+  const many = (s.corners?.length ?? 0) > 1;
+  const tag = s.chosen === true ? ' (chosen by the objective)' : s.chosen === false ? ' (alternative)' : '';
+  if (s.feasible) return `meets all targets; tightest: ${s.tightest ? stageVerdictText(s.tightest, many) : '—'}${tag}`;
+  const parts = [`does not meet the targets: binding ${s.binding ? stageVerdictText(s.binding, many) : '—'}`];
+  if (s.nearest) {
+    parts.push(`nearest points: best gain held over the swing target ${gainText(s.nearest.gainAtSwing)}, best swing at the gain target ${eng(s.nearest.swingAtGain, 'V')}`);
+  }
+  return parts.join('; ') + tag;
+}
+
+export function stagePredictedGrid(s: StageResult): Grid {
+  const p = s.predicted;
+  const rows = [
+    ['gain at the design point', gainText(p.gain)],
+    ['design point (vout, vin)', `${eng(p.output, 'V')}, ${eng(p.vin, 'V')}`],
+    ['current', eng(p.current, 'A')],
+    ['swing (gain ≥ target)', eng(p.swing, 'V')],
+    ['swing interval', p.vlow === null || p.vhigh === null ? '—' : `${eng(p.vlow, 'V')} .. ${eng(p.vhigh, 'V')}`],
+    ['GBW', p.gbw === null ? '— (no gbw target)' : eng(p.gbw, 'Hz')],
+    ['C_out (table cdd of the output devices)', p.cout === null ? '— (tables lack capacitances; GBW uses cap alone)' : eng(p.cout, 'F')],
+    ['area (both sides)', formatArea(p.area)],
+    ['candidates evaluated', String(s.evaluated)],
+  ];
+  return { headers: ['quantity', 'value'], rows };
+}
+
+/** The table result beside the square-law hand analysis. */
+export function stageSquareLawGrid(s: StageResult): Grid | undefined {
+  const q = s.squareLaw;
+  if (!q) return undefined;
+  const gm = s.input.devices[0]?.gm ?? NaN;
+  const rows = [
+    ['gm of the input device', eng(gm, 'S'), eng(q.gm, 'S')],
+    ['gain at the design point', gainText(s.predicted.gain), gainText(q.gain)],
+    ['Rout input side', eng(routOf(s.input.devices), 'Ω'), eng(q.rin, 'Ω')],
+    ['Rout load side', eng(routOf(s.load.devices), 'Ω'), eng(q.rload, 'Ω')],
+    ['swing (table: at the gain target; square law: supply − Σ VDSsat)', eng(s.predicted.swing, 'V'), eng(q.swing, 'V')],
+    ['headroom input / load (rule of thumb)', '—', `${eng(q.headroom.input, 'V')} / ${eng(q.headroom.load, 'V')}`],
+  ];
+  return { headers: ['quantity', 'lookup table', 'square law'], rows };
+}
+
+export function stageCornerGrid(s: StageResult): Grid | undefined {
+  if (!s.corners || s.corners.length === 0) return undefined;
+  return {
+    headers: ['corner', 'meets targets', 'gain', 'swing', 'vlow .. vhigh', 'vin', 'current', 'bias gates (input; load)', 'binding / tightest'],
+    rows: s.corners.map((c) => {
+      const p = c.predicted;
+      const v = c.binding ?? c.tightest;
+      return [
+        c.corner, c.feasible ? 'yes' : 'NO', gainText(p.gain), eng(p.swing, 'V'),
+        p.vlow === null || p.vhigh === null ? '—' : `${eng(p.vlow, 'V')} .. ${eng(p.vhigh, 'V')}`,
+        eng(p.vin, 'V'), eng(p.current, 'A'),
+        `${c.gates.input.map((g) => eng(g, 'V')).join(', ') || '—'}; ${c.gates.load.map((g) => eng(g, 'V')).join(', ') || '—'}`,
+        v ? stageVerdictText(v) : '—',
+      ];
+    }),
+  };
+}
+
+/** One row per load topology tried (auto). */
+export function stageTopologiesGrid(all: readonly StageResult[]): Grid {
+  return {
+    headers: ['load topology', 'status', 'gain', 'swing', 'area', 'binding'],
+    rows: all.map((x) => [
+      x.load.topology, x.chosen ? 'chosen' : x.feasible ? 'feasible' : 'INFEASIBLE', gainText(x.predicted.gain), eng(x.predicted.swing, 'V'),
+      formatArea(x.predicted.area), x.feasible || !x.binding ? '' : stageVerdictText(x.binding, (x.corners?.length ?? 0) > 1),
+    ]),
+  };
+}
+
+/**
+ * The gain curve as rows every `step` volts of output: gain, input voltage, and
+ * marks for the design point and the swing interval (text has no chart).
+ */
+export function stageCurveGrid(s: StageResult, target: number | undefined, step = 0.1): Grid | undefined {
+  if (s.curve.length === 0) return undefined;
+  const p = s.predicted;
+  const rows: string[][] = [];
+  let next = -Infinity;
+  for (const c of s.curve) {
+    const design = Math.abs(c.vout - p.output) < 1e-9;
+    if (c.vout < next - 1e-9 && !design) continue;
+    if (!design) next = c.vout + step;
+    const inside = p.vlow !== null && p.vhigh !== null && c.vout >= p.vlow && c.vout <= p.vhigh;
+    const mark = design ? 'design point' : inside ? 'in swing' : target !== undefined && c.gain < target ? 'below target' : '';
+    rows.push([eng(c.vout, 'V'), gainText(c.gain), eng(c.vin, 'V'), mark]);
+  }
+  return { headers: ['vout', 'gain', 'vin', ''], rows };
+}
+
+/** The trade front (explored designs no other beats on gain, swing and area), swing ascending. */
+export function stageFrontGrid(front: readonly StageFrontPoint[], most = 12): Grid | undefined {
+  if (front.length === 0) return undefined;
+  // Evenly thinned so a long front still fits a terminal.
+  const pick = front.length <= most ? front : Array.from({ length: most }, (_, k) => front[Math.round((k * (front.length - 1)) / (most - 1))]);
+  return {
+    headers: ['swing at gain target', 'gain at design point', 'gain held over swing target', 'area', 'load', 'L input / load', 'meets targets'],
+    rows: pick.map((f) => [
+      eng(f.swing, 'V'), gainText(f.gain), gainText(f.gainAtSwing), formatArea(f.area), f.load,
+      `${f.devices.input.map((d) => formatMicrons(d.l)).join('+')} / ${f.devices.load.map((d) => formatMicrons(d.l)).join('+')}`,
+      f.feasible ? 'yes' : 'no',
+    ]),
+  };
+}

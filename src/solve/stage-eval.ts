@@ -1,0 +1,153 @@
+import { StackwrightError } from '../errors.js';
+import { topologyOf } from '../topology/index.js';
+import type { StageSpec } from '../design/types.js';
+import {
+  biasDevices, biasGates, gainOverSwing, heldGain, traceStage,
+  type BiasDevice, type StackDevice, type StageCircuit, type StagePoint, type StageTrace,
+} from '../stack/index.js';
+import type { Side, SideDesign } from './stage-side.js';
+import { rangeSafe } from './evaluate/evaluate.js';
+
+/** Output grid step of the reported trace, V; swing edges are bisected on the circuit to 0.5 mV either way. */
+export const TRACE_STEP = 0.02;
+/** Coarser grid step of the exact traces while searching, V. */
+export const SEARCH_STEP = 0.05;
+
+/** A stage traced at one corner. */
+export interface StageAt {
+  corner: string;
+  circuit: StageCircuit;
+  trace: StageTrace;
+  /** Gain at the design point (0 when not coverable). */
+  gain: number;
+  /** Best gain held over the swing target. */
+  gainAtSwing: number;
+  gbw: number | null;
+  cout: number | null;
+  /** Fixed gates (stack coordinates): input cascode gate (if any), load gates. */
+  gates: { input: number[]; load: number[] };
+}
+
+/** A pair of side designs evaluated exactly as one circuit. */
+export interface StageDesign {
+  input: SideDesign;
+  load: SideDesign;
+  inputBias: BiasDevice[];
+  loadBias: BiasDevice[];
+  area: number;
+  nominal: StageAt;
+  /** Other corners, filled on demand. */
+  corners?: Array<StageAt | { corner: string; error: string }>;
+}
+
+/** Sides as the evaluation needs them. */
+export interface StageSides {
+  stage: StageSpec;
+  supply: number;
+  input: Side;
+  load: Side;
+}
+
+
+/**
+ * Output capacitance: drain capacitance (cdd) of the two output devices from
+ * their tables at the design point; null when a table lacks it.
+ */
+function coutOf(circuit: StageCircuit, p: StagePoint | null): number | null {
+  if (!p) return null;
+  const cdd = (devices: readonly StackDevice[], b: { vgs: number; vds: number; vsb: number }): number => {
+    const d = devices[devices.length - 1];
+    return d.slice.op(b.vgs, b.vds, b.vsb, d.w).cdd;
+  };
+  const c = cdd(circuit.input.devices, p.input.devices[p.input.devices.length - 1]) + cdd(circuit.load.devices, p.load.devices[p.load.devices.length - 1]);
+  return c > 0 ? c : null;
+}
+
+/** GBW = gm_in / (2π (cap + C_out)), C_out left out when the tables lack it; null when no gbw target. */
+export function gbwOf(stage: StageSpec, gm: number, cout: number | null): number | null {
+  if (stage.gbw === undefined) return null;
+  return gm / (2 * Math.PI * ((stage.cap ?? 0) + (cout ?? 0)));
+}
+
+/** Trace a circuit and summarise it against the stage targets. */
+export function stageAt(sides: StageSides, corner: string, circuit: StageCircuit, gates: StageAt['gates'], step = TRACE_STEP): StageAt {
+  const { stage } = sides;
+  const trace = traceStage(circuit, stage.output, stage.gain, { step });
+  const p = trace.points[trace.j0];
+  const cout = coutOf(circuit, p);
+  return {
+    corner, circuit, trace, gates,
+    gain: trace.gains[trace.j0],
+    // The search ranks on the grid estimate; reported designs have the interval ends solved on the circuit.
+    gainAtSwing: step < SEARCH_STEP ? heldGain(circuit, trace, stage.swing) : gainOverSwing(trace.vs, trace.gains, trace.j0, stage.swing),
+    gbw: p ? gbwOf(stage, p.gm, cout) : null,
+    cout,
+  };
+}
+
+/** Bias diodes of the input cascode gate (low-voltage biasing, as a cascode stack's top diode); none for a common-source input. */
+function inputBias(sides: StageSides, d: SideDesign): BiasDevice[] | null {
+  if (d.devices.length < 2) return [];
+  const ctx = sides.input.ctx;
+  const all = biasDevices(topologyOf('cascode'), d.slices, d.sized.gates, ctx.ib, { wmin: ctx.wmin, lengths: ctx.lengths, slice: (l) => ctx.slice(ctx.nominal, l) });
+  return all ? [all[1]] : null;
+}
+
+/**
+ * Evaluate a pair exactly at the nominal corner: bias diodes for every fixed
+ * gate (as stacks have), then the transfer curve traced on the circuit. Null
+ * when a bias diode cannot be realised.
+ */
+export function evaluatePair(sides: StageSides, input: SideDesign, load: SideDesign): StageDesign | null {
+  return rangeSafe(() => {
+    const ib = inputBias(sides, input);
+    const lctx = sides.load.ctx;
+    const lb = biasDevices(topologyOf(load.cand.topology), load.slices, load.sized.gates, lctx.ib, { wmin: lctx.wmin, lengths: lctx.lengths, slice: (l) => lctx.slice(lctx.nominal, l) });
+    if (!ib || !lb) return null;
+    const circuit: StageCircuit = {
+      supply: sides.supply, device: sides.input.device,
+      input: { devices: input.devices, cascodeGate: input.sized.gates[1] },
+      load: { devices: load.devices, gates: load.sized.gates },
+    };
+    const gates = { input: input.sized.gates.slice(1), load: load.sized.gates };
+    const nominal = stageAt(sides, sides.input.ctx.nominal, circuit, gates, SEARCH_STEP);
+    return { input, load, inputBias: ib, loadBias: lb, area: input.area + load.area, nominal };
+  });
+}
+
+/**
+ * The same sizes at another corner: each fixed gate re-derived from its bias
+ * diode there; the input DC voltage is re-solved (feedback holds the output at
+ * the design point). An error entry when a bias diode cannot carry its current.
+ */
+export function evaluateCorner(sides: StageSides, d: StageDesign, corner: string, step = SEARCH_STEP): StageAt | { corner: string; error: string } {
+  try {
+    const ic = sides.input.ctx;
+    const lc = sides.load.ctx;
+    const inDevices: StackDevice[] = d.input.cand.l.map((l, k) => ({ slice: ic.slice(corner, l), w: d.input.sized.w[k] }));
+    const ldDevices: StackDevice[] = d.load.cand.l.map((l, k) => ({ slice: lc.slice(corner, l), w: d.load.sized.w[k] }));
+    const ig = biasGates(d.inputBias, d.inputBias.map((b) => ic.slice(corner, b.l)));
+    const lg = biasGates(d.loadBias, d.loadBias.map((b) => lc.slice(corner, b.l)));
+    const circuit: StageCircuit = {
+      supply: sides.supply, device: sides.input.device,
+      input: { devices: inDevices, cascodeGate: ig[0] },
+      load: { devices: ldDevices, gates: lg },
+    };
+    return stageAt(sides, corner, circuit, { input: ig, load: lg }, step);
+  } catch (e) {
+    if (e instanceof StackwrightError && e.kind === 'range') return { corner, error: e.message };
+    throw e;
+  }
+}
+
+/** Other corners of a design, computed once. */
+export function cornersOf(sides: StageSides, d: StageDesign): NonNullable<StageDesign['corners']> {
+  d.corners ??= sides.input.ctx.corners.slice(1).map((c) => evaluateCorner(sides, d, c));
+  return d.corners;
+}
+
+/** Re-trace a design (nominal and every corner) on the reported grid, for the result. */
+export function fineTrace(sides: StageSides, d: StageDesign): void {
+  d.nominal = stageAt(sides, d.nominal.corner, d.nominal.circuit, d.nominal.gates, TRACE_STEP);
+  d.corners = sides.input.ctx.corners.slice(1).map((c) => evaluateCorner(sides, d, c, TRACE_STEP));
+}

@@ -1,0 +1,84 @@
+import { StackwrightError } from '../errors.js';
+import type { StageSpec } from '../design/types.js';
+import { biasGates, traceStage, type StackDevice, type StageCircuit } from '../stack/index.js';
+import type { KitAccess } from './kit.js';
+import { change, type Change } from './compare.js';
+import { absolute } from './result.js';
+import { TRACE_STEP, gbwOf } from './stage-eval.js';
+import type { StageCorner, StageResult, StageSide } from './stage-types.js';
+
+/**
+ * A stage spec on a kit with another supply: the design point and the swing
+ * target keep their share of the supply (the output's distance to the rails
+ * scales with it). The caller reports the change.
+ */
+export function retargetStage(s: StageSpec, from: number, to: number): StageSpec {
+  if (from === to) return s;
+  const k = to / from;
+  return { ...s, output: s.output * k, swing: s.swing * k };
+}
+
+
+/** Sizes, gates and predicted figures of two designs of one stage, side by side. */
+export function compareStages(from: StageResult, to: StageResult): Change[] {
+  const rows: Change[] = [];
+  for (const side of ['input', 'load'] as const) {
+    const a = from[side].devices;
+    const b = to[side].devices;
+    for (let k = 0; k < Math.max(a.length, b.length); k++) {
+      const role = `${side} ${(a[k] ?? b[k]).role}`;
+      rows.push(change(`${role} W`, 'm', a[k]?.w ?? NaN, b[k]?.w ?? NaN));
+      rows.push(change(`${role} L`, 'm', a[k]?.l ?? NaN, b[k]?.l ?? NaN));
+      rows.push(change(`${role} gm/ID`, '1/V', a[k]?.gmid ?? NaN, b[k]?.gmid ?? NaN));
+      rows.push(change(`${role} gate`, 'V', a[k]?.gate ?? NaN, b[k]?.gate ?? NaN));
+    }
+  }
+  const p = from.predicted;
+  const q = to.predicted;
+  rows.push(change('gain', 'V/V', p.gain, q.gain));
+  rows.push(change('swing', 'V', p.swing, q.swing));
+  rows.push(change('input DC voltage', 'V', p.vin, q.vin));
+  rows.push(change('area', 'm²', p.area, q.area));
+  return rows;
+}
+
+function devicesOn(kit: KitAccess, corner: string, side: StageSide): StackDevice[] {
+  return side.devices.map((d) => ({ slice: kit.slice(corner, side.device, d.l), w: d.w }));
+}
+
+/**
+ * The reported sizes as they are on a kit and corner: each fixed gate from its
+ * bias diode there, the input DC voltage re-solved for the design point.
+ * An error entry when the tables cannot hold a bias diode or device.
+ */
+export function stageAsIs(r: StageResult, spec: StageSpec, kit: KitAccess, corner: string, supply: number): StageCorner | { error: string } {
+  if (r.input.devices.length === 0 || r.load.devices.length === 0) return { error: 'the stage has no sized devices' };
+  try {
+    const ig = biasGates(r.input.bias, r.input.bias.map((b) => kit.slice(corner, r.input.device, b.l)));
+    const lg = biasGates(r.load.bias, r.load.bias.map((b) => kit.slice(corner, r.load.device, b.l)));
+    const circuit: StageCircuit = {
+      supply, device: r.input.device,
+      input: { devices: devicesOn(kit, corner, r.input), cascodeGate: ig[0] },
+      load: { devices: devicesOn(kit, corner, r.load), gates: lg },
+    };
+    const trace = traceStage(circuit, spec.output, spec.gain, { step: TRACE_STEP });
+    const p = trace.points[trace.j0];
+    const gbw = p ? gbwOf(spec, p.gm, null) : null;
+    const feasible = trace.swing >= spec.swing - 1e-9 && (spec.gbw === undefined || (gbw ?? 0) >= spec.gbw);
+    const out: StageCorner = {
+      corner, feasible,
+      predicted: {
+        gain: trace.gains[trace.j0], swing: trace.swing, vlow: trace.vlow, vhigh: trace.vhigh, output: spec.output,
+        vin: p ? p.vin : 0, gbw, cout: null, area: r.predicted.area, current: p ? p.i : 0,
+      },
+      gates: { input: ig.map((g) => absolute(r.input.device, supply, g)), load: lg.map((g) => absolute(r.load.device, supply, g)) },
+    };
+    const verdict = { target: 'swing' as const, required: spec.swing, achieved: trace.swing, at: null, device: null, corner };
+    if (feasible) out.tightest = verdict;
+    else out.binding = trace.swing < spec.swing ? verdict : { target: 'gbw', required: spec.gbw ?? null, achieved: gbw, at: spec.output, device: null, corner };
+    return out;
+  } catch (e) {
+    if (e instanceof StackwrightError && e.kind === 'range') return { error: e.message };
+    throw e;
+  }
+}

@@ -1,0 +1,252 @@
+import type { Polarity } from '../table/types.js';
+import { topologyOf } from '../topology/index.js';
+import type { StageSpec, Topology } from '../design/types.js';
+import {
+  handSideRout, handStageGain, handSwing, saturationVoltage, squareLawCheck,
+  type BiasDevice, type DeviceBias, type StackDevice,
+} from '../stack/index.js';
+import type { BiasResult, DeviceResult } from './types.js';
+import { absolute } from './result.js';
+import { fineTrace, type StageAt, type StageDesign, type StageSides } from './stage-eval.js';
+import { meets, nominalOk, stageMargins, type StageMargins } from './stage-rank.js';
+import type {
+  StageCorner, StageCurvePoint, StageFrontPoint, StagePredicted, StageResult, StageSide, StageSquareLaw, StageTarget, StageVerdict,
+} from './stage-types.js';
+
+function deviceRecords(
+  device: Polarity, supply: number, topology: Topology, devices: readonly StackDevice[], ops: readonly DeviceBias[],
+  gates: readonly number[], ut: number,
+): DeviceResult[] {
+  const roles = topologyOf(topology).roles;
+  return devices.map((d, k) => {
+    const b = ops[k];
+    const op = d.slice.op(b.vgs, b.vds, b.vsb, d.w);
+    return {
+      role: roles[k], w: d.w, l: d.slice.l, gate: absolute(device, supply, gates[k]),
+      vgs: b.vgs, vds: b.vds, vsb: b.vsb,
+      gmid: b.gm / b.id, id: b.id, gm: b.gm, gds: b.gds, gmb: b.gmb,
+      gain: b.gm / b.gds, jd: b.id / d.w, ft: Number.isFinite(op.ft) ? op.ft : 0,
+      vdsat: saturationVoltage(d.slice, b.gm / b.id, b.vsb, ut),
+    };
+  });
+}
+
+function biasRecords(device: Polarity, supply: number, bias: readonly BiasDevice[]): BiasResult[] {
+  return bias.map((b) => {
+    const r: BiasResult = { drives: b.drives, w: b.w, l: b.l, current: b.current, voltage: absolute(device, supply, b.gate) };
+    if (b.stackedOn !== undefined) r.stackedOn = b.stackedOn;
+    return r;
+  });
+}
+
+function sidesOf(sides: StageSides, d: StageDesign): { input: StageSide; load: StageSide } {
+  const { supply } = sides;
+  const at = d.nominal;
+  const p = at.trace.points[at.trace.j0];
+  const inDev = sides.input.device;
+  const ldDev = sides.load.device;
+  const inTop = d.input.cand.topology;
+  const ldTop = d.load.cand.topology;
+  if (!p) {
+    return {
+      input: { device: inDev, topology: inTop, devices: [], bias: biasRecords(inDev, supply, d.inputBias) },
+      load: { device: ldDev, topology: ldTop, devices: [], bias: biasRecords(ldDev, supply, d.loadBias) },
+    };
+  }
+  const inGates = [p.input.devices[0].vgs, ...at.gates.input];
+  return {
+    input: {
+      device: inDev, topology: inTop,
+      devices: deviceRecords(inDev, supply, inTop, at.circuit.input.devices, p.input.devices, inGates, sides.input.ctx.ut(at.corner)),
+      bias: biasRecords(inDev, supply, d.inputBias),
+    },
+    load: {
+      device: ldDev, topology: ldTop,
+      devices: deviceRecords(ldDev, supply, ldTop, at.circuit.load.devices, p.load.devices, at.gates.load, sides.load.ctx.ut(at.corner)),
+      bias: biasRecords(ldDev, supply, d.loadBias),
+    },
+  };
+}
+
+function predictedOf(sides: StageSides, d: StageDesign, at: StageAt): StagePredicted {
+  const p = at.trace.points[at.trace.j0];
+  return {
+    gain: at.gain,
+    swing: at.trace.swing,
+    vlow: at.trace.vlow,
+    vhigh: at.trace.vhigh,
+    output: sides.stage.output,
+    vin: p ? p.vin : 0,
+    gbw: at.gbw,
+    cout: at.cout,
+    area: d.area,
+    current: p ? p.i : 0,
+  };
+}
+
+function curveOf(at: StageAt): StageCurvePoint[] {
+  const out: StageCurvePoint[] = [];
+  for (const p of at.trace.points) if (p && Number.isFinite(p.gain)) out.push({ vout: p.vout, vin: p.vin, gain: p.gain });
+  return out;
+}
+
+function verdict(stage: StageSpec, target: StageTarget, at: StageAt | null, corner: string | null): StageVerdict {
+  const finite = (x: number | null | undefined): number | null => (x !== null && x !== undefined && Number.isFinite(x) ? x : null);
+  if (target === 'gain') return { target, required: stage.gain, achieved: finite(at?.gainAtSwing), at: null, device: null, corner };
+  if (target === 'swing') return { target, required: stage.swing, achieved: finite(at?.trace.swing), at: null, device: null, corner };
+  if (target === 'gbw') return { target, required: stage.gbw ?? null, achieved: finite(at?.gbw), at: stage.output, device: null, corner };
+  return { target, required: null, achieved: null, at: null, device: null, corner };
+}
+
+function smallestTarget(m: StageMargins): StageTarget {
+  const order: Array<keyof StageMargins> = ['swing', 'gain', 'gbw'];
+  return order.reduce((a, b) => (m[b] < m[a] ? b : a));
+}
+
+function smallest(m: StageMargins): number {
+  return Math.min(m.gain, m.swing, m.gbw);
+}
+
+/** Per-corner reports, nominal first. */
+function cornerResults(sides: StageSides, d: StageDesign): StageCorner[] {
+  const stage = sides.stage;
+  const all: Array<StageAt | { corner: string; error: string }> = [d.nominal, ...(d.corners ?? [])];
+  return all.map((at, k) => {
+    const corner = at.corner;
+    if ('error' in at) {
+      return { corner: at.corner, feasible: false, predicted: emptyPredicted(stage, d.area), gates: { input: [], load: [] }, binding: verdict(stage, 'table', null, corner) };
+    }
+    const m = stageMargins(stage, at);
+    const ok = meets(m);
+    const r: StageCorner = {
+      corner: at.corner, feasible: ok, predicted: predictedOf(sides, d, at),
+      gates: { input: at.gates.input.map((g) => absolute(sides.input.device, sides.supply, g)), load: at.gates.load.map((g) => absolute(sides.load.device, sides.supply, g)) },
+    };
+    const v = verdict(stage, smallestTarget(m), at, corner);
+    if (ok) r.tightest = v;
+    else r.binding = v;
+    return r;
+  });
+}
+
+function emptyPredicted(stage: StageSpec, area: number): StagePredicted {
+  return { gain: 0, swing: 0, vlow: null, vhigh: null, output: stage.output, vin: 0, gbw: null, cout: null, area, current: 0 };
+}
+
+/** Square-law hand analysis beside the table result; undefined when the square-law fit fails. */
+function squareLawOf(sides: StageSides, d: StageDesign): StageSquareLaw | undefined {
+  const at = d.nominal;
+  const p = at.trace.points[at.trace.j0];
+  if (!p) return undefined;
+  const i = sides.stage.current;
+  const check = (top: Topology, devices: readonly StackDevice[], ops: readonly DeviceBias[]) =>
+    squareLawCheck(topologyOf(top), devices.map((x) => x.slice), devices.map((x) => x.w), ops, i);
+  const ci = check(d.input.cand.topology, at.circuit.input.devices, p.input.devices);
+  const cl = check(d.load.cand.topology, at.circuit.load.devices, p.load.devices);
+  const gmOf = (vov: number[]) => vov.map((v) => (2 * i) / v);
+  const roOf = (lambda: number[]) => lambda.map((l) => 1 / (l * i));
+  const gmIn = gmOf(ci.vov);
+  const rin = handSideRout(gmIn, roOf(ci.lambda));
+  const rload = handSideRout(gmOf(cl.vov), roOf(cl.lambda));
+  const s: StageSquareLaw = {
+    gain: handStageGain(gmIn[0], rin, rload),
+    swing: handSwing(sides.supply, ci.headroom, cl.headroom),
+    gm: gmIn[0], rin, rload,
+    vov: { input: ci.vov, load: cl.vov },
+    headroom: { input: ci.headroom, load: cl.headroom },
+  };
+  const nums = [s.gain, s.swing, s.gm, s.rin, s.rload, ...s.vov.input, ...s.vov.load];
+  return nums.every(Number.isFinite) ? s : undefined;
+}
+
+/** Why nothing met the targets: the nearest points over the explored designs and which target binds, by how much. */
+function infeasibility(sides: StageSides, best: StageDesign, pool: readonly StageDesign[]): Pick<StageResult, 'binding' | 'nearest'> {
+  const stage = sides.stage;
+  const nominal = sides.input.ctx.nominal;
+  let gainAtSwing = 0;
+  let swingAtGain = 0;
+  let peak = 0;
+  for (const d of pool) {
+    gainAtSwing = Math.max(gainAtSwing, d.nominal.gainAtSwing);
+    swingAtGain = Math.max(swingAtGain, d.nominal.trace.swing);
+    peak = Math.max(peak, d.nominal.gain);
+  }
+  const nearest = { gainAtSwing, swingAtGain };
+  if (peak < stage.gain) {
+    return { binding: { target: 'gain', required: stage.gain, achieved: peak, at: stage.output, device: null, corner: nominal }, nearest };
+  }
+  if (nominalOk(stage, best)) {
+    const c = (best.corners ?? []).find((x) => !meets(stageMargins(stage, x)));
+    if (c) {
+      const target = 'error' in c ? 'table' : smallestTarget(stageMargins(stage, c));
+      return { binding: verdict(stage, target, 'error' in c ? null : c, c.corner), nearest };
+    }
+  }
+  const swingOk = pool.filter((d) => d.nominal.trace.swing >= stage.swing - 1e-9);
+  if (stage.gbw !== undefined && swingOk.length > 0) {
+    const g = Math.max(...swingOk.map((d) => d.nominal.gbw ?? 0));
+    return { binding: { target: 'gbw', required: stage.gbw, achieved: g, at: stage.output, device: null, corner: nominal }, nearest };
+  }
+  // Both targets miss together (gain held over the swing target ⇔ swing at the gain target); the one further off, relatively, binds.
+  const g = 1 - gainAtSwing / stage.gain;
+  const s = 1 - swingAtGain / stage.swing;
+  const binding: StageVerdict = g >= s
+    ? { target: 'gain', required: stage.gain, achieved: gainAtSwing, at: null, device: null, corner: nominal }
+    : { target: 'swing', required: stage.swing, achieved: swingAtGain, at: null, device: null, corner: nominal };
+  return { binding, nearest };
+}
+
+/** The report for one load topology: the chosen design, its corners, and why it fails if it does. */
+export function stageResult(sides: StageSides, best: StageDesign, pool: readonly StageDesign[], evaluated: number): StageResult {
+  const stage = sides.stage;
+  fineTrace(sides, best);
+  const corners = cornerResults(sides, best);
+  const feasible = corners.every((c) => c.feasible);
+  const { input, load } = sidesOf(sides, best);
+  const r: StageResult = {
+    name: stage.name, feasible, input, load,
+    predicted: predictedOf(sides, best, best.nominal),
+    curve: curveOf(best.nominal),
+    corners,
+    evaluated,
+  };
+  const sq = squareLawOf(sides, best);
+  if (sq) r.squareLaw = sq;
+  if (!feasible) Object.assign(r, infeasibility(sides, best, pool));
+  else {
+    const all: Array<StageAt | { corner: string; error: string }> = [best.nominal, ...(best.corners ?? [])];
+    let worst = best.nominal as StageAt;
+    for (const c of all) if (!('error' in c) && smallest(stageMargins(stage, c)) < smallest(stageMargins(stage, worst))) worst = c;
+    r.tightest = verdict(stage, smallestTarget(stageMargins(stage, worst)), worst, worst.corner);
+  }
+  return r;
+}
+
+/** A placeholder result when no pair could be realised from the tables. */
+export function emptyStageResult(sides: StageSides, topology: Topology, evaluated: number): StageResult {
+  const stage = sides.stage;
+  return {
+    name: stage.name, feasible: false,
+    input: { device: sides.input.device, topology: stage.input.topology, devices: [], bias: [] },
+    load: { device: sides.load.device, topology, devices: [], bias: [] },
+    predicted: emptyPredicted(stage, 0),
+    curve: [],
+    binding: { target: 'table', required: null, achieved: null, at: null, device: null, corner: sides.input.ctx.nominal },
+    nearest: { gainAtSwing: 0, swingAtGain: 0 },
+    evaluated,
+  };
+}
+
+/** One explored design as a point of the trade front. */
+export function stageFrontPoint(sides: StageSides, d: StageDesign): StageFrontPoint {
+  const side = (s: StageDesign['input']) => s.cand.l.map((l, k) => ({ l, gmid: s.cand.gmid[k], w: s.sized.w[k] }));
+  return {
+    load: d.load.cand.topology,
+    gain: d.nominal.gain,
+    swing: d.nominal.trace.swing,
+    gainAtSwing: d.nominal.gainAtSwing,
+    area: d.area,
+    feasible: nominalOk(sides.stage, d) && (d.corners === undefined ? sides.input.ctx.corners.length === 1 : d.corners.every((c) => meets(stageMargins(sides.stage, c)))),
+    devices: { input: side(d.input), load: side(d.load) },
+  };
+}

@@ -1,0 +1,163 @@
+import { StackwrightError } from '../errors.js';
+import { topologyOf } from '../topology/index.js';
+import type { LengthSlice } from '../device/types.js';
+import type { Polarity } from '../table/types.js';
+import type { StackSpec, StageSpec, Topology } from '../design/types.js';
+import {
+  inputAtCurrent, sampleAt, sideVoltage, sizeStackDevices,
+  type SizedStack, type StackDevice, type StackOp,
+} from '../stack/index.js';
+import type { KitAccess } from './kit.js';
+import { makeContext, type SolveContext } from './context.js';
+import { screen } from './search/screen.js';
+import { candidateKey, type Candidate } from './search/candidate.js';
+import { midPoint } from './evaluate/stack-eval.js';
+import { saturationMargin } from './evaluate/checks.js';
+
+export type SideKind = 'input' | 'load';
+
+/**
+ * Shares of the free voltage (supply − swing) a side's screen is asked to live
+ * with as headroom: two, so each side's pools span the headroom/Rout trade.
+ */
+const SHARES: Record<SideKind, number[]> = { input: [0.35, 0.6], load: [0.35, 0.6] };
+
+/** One side of a stage as a stack search: its polarity, design stack voltage and the stack context it screens with. */
+export interface Side {
+  kind: SideKind;
+  device: Polarity;
+  /** Stack voltage of this side at the design point, V. */
+  vd: number;
+  ctx: SolveContext;
+}
+
+/** A side sized at the design point, with its small-signal curve on the stage's output grid. */
+export interface SideDesign {
+  cand: Candidate;
+  slices: LengthSlice[];
+  sized: SizedStack;
+  devices: StackDevice[];
+  area: number;
+  /** Rout of the side at each grid output (input side: carrying the design current; load: fixed gates); 0 where not coverable. */
+  rout: Float64Array;
+  /** Input side only: gm of the input device at each grid output at the design current, S. */
+  gm?: Float64Array;
+  /** Drain capacitance of the side's output (top) device at the design point, F (NaN when the table lacks it). */
+  cdd: number;
+}
+
+// The derived stack spec places mid-span at the design point: vmid = (headroom + span)/2 = vd.
+function sideSpec(stage: StageSpec, kind: SideKind, device: Polarity, vd: number, headroom: number, rout: number): StackSpec {
+  const s = stage[kind];
+  const spec: StackSpec = {
+    name: `${stage.name}.${kind}`, device, current: stage.current, rout, headroom, span: 2 * vd - headroom, objective: 'area',
+    topology: kind === 'input' ? stage.input.topology : stage.load.topology,
+  };
+  if (s.l) spec.l = s.l;
+  if (s.gmid) spec.gmid = s.gmid;
+  if (s.biasCurrent !== undefined) spec.biasCurrent = s.biasCurrent;
+  return spec;
+}
+
+/** Headroom a side may be asked for in its screen: above 0 and below its design stack voltage, with the span inside the supply. */
+function headroomRange(vd: number, supply: number): [number, number] {
+  return [Math.max(0.05, 2 * vd - supply + 0.01), vd - 0.05];
+}
+
+/** The stack context of one side; throws an input error naming the stage when the output leaves no room for it. */
+export function makeSide(stage: StageSpec, kind: SideKind, kit: KitAccess, supply: number, corners: string[]): Side {
+  const device: Polarity = kind === 'input' ? stage.input.device : stage.input.device === 'n' ? 'p' : 'n';
+  const vd = sideVoltage(device, supply, stage.output);
+  const [lo, hi] = headroomRange(vd, supply);
+  if (!(hi > lo)) {
+    throw new StackwrightError(`output ${stage.output} V leaves the ${kind} side (${device}-type) no room to operate within the ${supply} V supply`, { where: `stage "${stage.name}".output` });
+  }
+  const ctx = makeContext(sideSpec(stage, kind, device, vd, 0.5 * (lo + hi), 1e6), kit, supply, corners);
+  return { kind, device, vd, ctx };
+}
+
+/**
+ * Candidates for one side: the stack screen run with derived targets — the
+ * side's share of the voltage the swing target leaves (supply − swing), and
+ * the Rout each side needs for the gain target when the two are equal
+ * (2·gain/gm_in at a middling gm/ID) — so its pools hold designs across the
+ * headroom/Rout/area trade. A common-source input side is enumerated whole.
+ */
+export function sideCandidates(stage: StageSpec, side: Side, topology: Topology, supply: number): Candidate[] {
+  const ctx = side.ctx;
+  if (side.kind === 'input' && topology === 'single') {
+    return ctx.lengths.flatMap((l) => ctx.gmids.map((g) => ({ topology, l: [l], gmid: [g], setpoints: [] })));
+  }
+  const free = Math.max(supply - stage.swing, 0.1);
+  const [lo, hi] = headroomRange(side.vd, supply);
+  const rout = (2 * stage.gain) / (12 * stage.current);
+  const base = ctx.spec;
+  const seen = new Map<string, Candidate>();
+  try {
+    for (const share of SHARES[side.kind]) {
+      const h = Math.min(Math.max(share * free, lo), hi);
+      ctx.spec = { ...base, rout, headroom: h, span: 2 * side.vd - h };
+      for (const c of screen(ctx, topology)) seen.set(candidateKey(c), c);
+    }
+  } finally {
+    ctx.spec = base;
+  }
+  return [...seen.values()];
+}
+
+/**
+ * Size a side candidate at the design point and trace its small-signal curve
+ * on the output grid `vs`. Null when the table cannot realise it, a device is
+ * narrower than the minimum width, or a device below the top one is not
+ * saturated at the design point (as for stacks). `gmMax` (load side) is the
+ * highest input gm over the input designs, to know where the load alone caps the gain.
+ */
+export function sideDesign(side: Side, cand: Candidate, vs: Float64Array, j0: number, stage: StageSpec, supply: number, gmMax = Infinity): SideDesign | null {
+  const ctx = side.ctx;
+  ctx.count.exact++;
+  try {
+    const slices = cand.l.map((l) => ctx.slice(ctx.nominal, l));
+    const sized = sizeStackDevices({ shape: topologyOf(cand.topology), slices, gmid: cand.gmid, setpoints: cand.setpoints, current: ctx.spec.current, vmid: side.vd, wmin: ctx.wmin });
+    if (!sized) return null;
+    const devices: StackDevice[] = slices.map((slice, k) => ({ slice, w: sized.w[k] }));
+    const m = midPoint(devices, sized.gates, side.vd, { i: ctx.spec.current, nodes: sized.nodes }, ctx.ut(ctx.nominal));
+    if (!m || saturationMargin(m) < 0) return null;
+    const n = vs.length;
+    const rout = new Float64Array(n);
+    const top = m.mid.devices[devices.length - 1];
+    const cdd = devices[devices.length - 1].slice.op(top.vgs, top.vds, top.vsb, devices[devices.length - 1].w).cdd;
+    const d: SideDesign = { cand, slices, sized, devices, area: devices.reduce((a, x) => a + x.w * x.slice.l, 0), rout, cdd };
+    // Beyond the point where this side alone caps the gain below half the target
+    // (A ≤ gm_in·Rout_side), the stage is outside any swing: stop tracing that way.
+    const floor = 0.5 * stage.gain;
+    if (side.kind === 'input') {
+      const gm = new Float64Array(n);
+      const at = (j: number): boolean => {
+        const op = inputAtCurrent(devices, sized.gates[1], sideVoltage(side.device, supply, vs[j]), ctx.spec.current);
+        if (!op) return false;
+        rout[j] = op.rout;
+        gm[j] = op.devices[0].gm;
+        return gm[j] * op.rout >= floor;
+      };
+      for (let j = j0; j < n && at(j); j++);
+      for (let j = j0 - 1; j >= 0 && at(j); j--);
+      d.gm = gm;
+    } else {
+      const at = (j: number, guess: StackOp | undefined): StackOp | null => {
+        const v = sideVoltage(side.device, supply, vs[j]);
+        if (!(v > 0)) return null;
+        const s = sampleAt(devices, sized.gates, v, guess);
+        rout[j] = s.op && s.rout > 0 ? s.rout : 0;
+        return s.op && gmMax * rout[j] >= floor ? s.op : null;
+      };
+      let g: StackOp | null = m.mid;
+      for (let j = j0; j < n && g; j++) g = at(j, g);
+      g = m.mid;
+      for (let j = j0 - 1; j >= 0 && g; j--) g = at(j, g);
+    }
+    return d;
+  } catch (e) {
+    if (e instanceof StackwrightError && e.kind === 'range') return null;
+    throw e;
+  }
+}

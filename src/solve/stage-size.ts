@@ -1,0 +1,117 @@
+import type { StageSpec, Topology } from '../design/types.js';
+import { topologyNames } from '../topology/index.js';
+import { designIndex, outputGrid } from '../stack/index.js';
+import type { KitAccess } from './kit.js';
+import { makeSide, sideCandidates, sideDesign, type SideDesign } from './stage-side.js';
+import { screenPairs } from './stage-screen.js';
+import { cornersOf, evaluatePair, type StageDesign, type StageSides } from './stage-eval.js';
+import { meets, nominalOk, shortfall, stageCompare, stageMargins } from './stage-rank.js';
+import { emptyStageResult, stageFrontPoint, stageResult } from './stage-result.js';
+import { chooseStage } from './stage-choose.js';
+import type { StageFrontPoint, StageResult } from './stage-types.js';
+import { paretoStages } from './stage-front.js';
+
+/** Output grid step of the pair screen, V. */
+const SCREEN_STEP = 0.05;
+
+export interface SizeStageResult {
+  /** One result per load topology tried (`chosen` marks the objective's pick with 'auto'). */
+  results: StageResult[];
+  /** Trade front (gain, swing, area) over the exactly evaluated designs. */
+  front: StageFrontPoint[];
+  evaluated: number;
+}
+
+function fullyOk(sides: StageSides, d: StageDesign): boolean {
+  return nominalOk(sides.stage, d) && cornersOf(sides, d).every((c) => meets(stageMargins(sides.stage, c)));
+}
+
+function totalShortfall(sides: StageSides, d: StageDesign): number {
+  return shortfall(stageMargins(sides.stage, d.nominal)) + (d.corners ?? []).reduce((a, c) => a + shortfall(stageMargins(sides.stage, c)), 0);
+}
+
+/** Best of the evaluated designs: meeting the targets at every corner in objective order, else the nearest. */
+export function pickStage(sides: StageSides, pool: readonly StageDesign[]): StageDesign | undefined {
+  const ok = pool.filter((d) => nominalOk(sides.stage, d)).sort((a, b) => stageCompare(sides.stage.objective, a, b));
+  for (const d of ok) if (fullyOk(sides, d)) return d;
+  if (ok.length > 0) return ok.reduce((a, b) => (totalShortfall(sides, b) < totalShortfall(sides, a) ? b : a));
+  let best: StageDesign | undefined;
+  for (const d of pool) {
+    if (!best) best = d;
+    else {
+      const da = shortfall(stageMargins(sides.stage, d.nominal));
+      const db = shortfall(stageMargins(sides.stage, best.nominal));
+      if (da < db - 1e-9 || (Math.abs(da - db) <= 1e-9 && d.area < best.area)) best = d;
+    }
+  }
+  return best;
+}
+
+function designs(sides: StageSides, side: StageSides['input'], topology: Topology, vs: Float64Array, j0: number, gmMax?: number): SideDesign[] {
+  const out: SideDesign[] = [];
+  for (const c of sideCandidates(sides.stage, side, topology, sides.supply)) {
+    const d = sideDesign(side, c, vs, j0, sides.stage, sides.supply, gmMax);
+    if (d) out.push(d);
+  }
+  return out;
+}
+
+/**
+ * Size one gain stage: two stack searches coupled through the output node.
+ * Each side is screened as a stack (the input side of the input type, the load
+ * side of the other type for each load topology), sized at the design point
+ * and traced on a coarse output grid; every pair is screened with the
+ * estimated gain curve; the most promising pairs are traced exactly as one
+ * circuit and checked at every corner.
+ *
+ * @example sizeStage(spec.stages[0], kit, { supply: 1.8, corners: ['tt'] }).results[0].predicted.swing
+ */
+export function sizeStage(stage: StageSpec, kit: KitAccess, opts: { supply: number; corners: string[] }): SizeStageResult {
+  const input = makeSide(stage, 'input', kit, opts.supply, opts.corners);
+  const load = makeSide(stage, 'load', kit, opts.supply, opts.corners);
+  const sides: StageSides = { stage, supply: opts.supply, input, load };
+  const vs = outputGrid(stage.output, opts.supply, SCREEN_STEP);
+  const j0 = designIndex(vs, stage.output);
+  const inputs = designs(sides, input, stage.input.topology, vs, j0);
+  const gmMax = Math.max(0, ...inputs.map((d) => Math.max(...(d.gm as Float64Array))));
+  const topologies: readonly Topology[] = stage.load.topology === 'auto' ? topologyNames() : [stage.load.topology];
+  const results: StageResult[] = [];
+  const explored: StageFrontPoint[] = [];
+  let evaluated = 0;
+  for (const t of topologies) {
+    const before = input.ctx.count.exact + load.ctx.count.exact + input.ctx.count.screened + load.ctx.count.screened;
+    const loads = designs(sides, load, t, vs, j0, gmMax);
+    const { pairs, screened } = screenPairs(stage, inputs, loads, vs, j0);
+    const pool: StageDesign[] = [];
+    for (const p of pairs) {
+      const d = evaluatePair(sides, p.input, p.load);
+      if (d) pool.push(d);
+    }
+    const count = input.ctx.count.exact + load.ctx.count.exact + input.ctx.count.screened + load.ctx.count.screened - before + screened + pool.length;
+    evaluated += count;
+    const best = pickStage(sides, pool);
+    if (!best) {
+      results.push(emptyStageResult(sides, t, count));
+      continue;
+    }
+    results.push(stageResult(sides, best, pool, count));
+    for (const d of pool) explored.push(stageFrontPoint(sides, d));
+  }
+  if (stage.load.topology === 'auto') {
+    const pick = chooseStage(results, stage);
+    for (const r of results) r.chosen = r === pick;
+  }
+  return { results, front: paretoStages(explored), evaluated };
+}
+
+/** Size every stage of a spec: results (one per load topology each) and a trade front per stage name. */
+export function sizeStages(stages: readonly StageSpec[], kit: KitAccess, opts: { supply: number; corners: string[] }): { stages: StageResult[]; stageFronts: Record<string, StageFrontPoint[]> } {
+  const out: StageResult[] = [];
+  const stageFronts: Record<string, StageFrontPoint[]> = {};
+  for (const s of stages) {
+    const r = sizeStage(s, kit, opts);
+    out.push(...r.results);
+    stageFronts[s.name] = r.front;
+  }
+  return { stages: out, stageFronts };
+}

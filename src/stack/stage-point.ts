@@ -1,0 +1,85 @@
+import { StackwrightError } from '../errors.js';
+import type { Polarity } from '../table/types.js';
+import type { DeviceBias, StackDevice, StackOp } from './types.js';
+import { solveOperatingPoint } from './operating.js';
+import { routAt } from './rout.js';
+import { continued } from './curve.js';
+import { inputAtCurrent } from './stage-input.js';
+
+/**
+ * A gain stage as one circuit: the input side (its input gate free) and the
+ * load side (gates fixed) share the output node between the two rails.
+ * Gates are in each side's stack coordinates (n: from ground, p: from the supply).
+ */
+export interface StageCircuit {
+  supply: number;
+  /** Polarity of the input side; the load is the other type. */
+  device: Polarity;
+  input: { devices: StackDevice[]; cascodeGate?: number };
+  load: { devices: StackDevice[]; gates: number[] };
+}
+
+/** One point of the transfer curve. */
+export interface StagePoint {
+  /** Output voltage to ground, V. */
+  vout: number;
+  /** Input gate voltage to ground that holds the output there, V. */
+  vin: number;
+  /** Current through both sides (set by the load), A. */
+  i: number;
+  /** Small-signal gain magnitude gm_in·(Rout_in ∥ Rout_load). */
+  gain: number;
+  gm: number;
+  rin: number;
+  rload: number;
+  input: { nodes: number[]; devices: DeviceBias[] };
+  load: StackOp;
+}
+
+/** Stack voltage of a side whose rail is the supply (p) or ground (n), at output voltage vout. */
+export function sideVoltage(device: Polarity, supply: number, vout: number): number {
+  return device === 'n' ? vout : supply - vout;
+}
+
+/**
+ * Transfer-curve point at `vout`: the load's stack fixes the current; the
+ * input side must carry it at its stack voltage, which fixes the input gate.
+ * A = gm_in·(Rout_in ∥ Rout_load), Rout_in with the input gate at AC ground.
+ * Null where the table cannot cover the point (no input voltage holds vout there).
+ */
+export function stagePoint(c: StageCircuit, vout: number, loadGuess?: StackOp): StagePoint | null {
+  const load = c.device === 'n' ? 'p' : 'n';
+  const vl = sideVoltage(load, c.supply, vout);
+  const vi = sideVoltage(c.device, c.supply, vout);
+  if (!(vl > 0) || !(vi > 0)) return null;
+  let op: StackOp;
+  try {
+    op = solveOperatingPoint(c.load.devices, c.load.gates, vl, loadGuess ? continued(loadGuess, vl) : undefined);
+  } catch (e) {
+    if (e instanceof StackwrightError && e.kind === 'range') return null;
+    throw e;
+  }
+  const inp = inputAtCurrent(c.input.devices, c.input.cascodeGate, vi, op.i);
+  if (!inp) return null;
+  const rload = routAt(op);
+  const gm = inp.devices[0].gm;
+  const rin = inp.rout;
+  const par = parallel(rin, rload);
+  if (!(par > 0) || !(gm > 0)) return null;
+  return {
+    vout,
+    vin: c.device === 'n' ? inp.gate : c.supply - inp.gate,
+    i: op.i,
+    gain: gm * par,
+    gm, rin, rload,
+    input: { nodes: inp.nodes, devices: inp.devices },
+    load: op,
+  };
+}
+
+/** r1 ∥ r2, with an infinite resistance leaving the other. */
+export function parallel(r1: number, r2: number): number {
+  if (!Number.isFinite(r1)) return r2;
+  if (!Number.isFinite(r2)) return r1;
+  return (r1 * r2) / (r1 + r2);
+}

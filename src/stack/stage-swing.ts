@@ -1,0 +1,84 @@
+/**
+ * Output swing and the gain held over a swing, from a sampled gain curve.
+ * `vs` ascending output voltages (V), `gains` the gain there (0 where the
+ * circuit cannot hold the output), linear between samples.
+ */
+
+/** Index of the sample at `output` (the design point is a grid point). */
+export function indexOf(vs: ArrayLike<number>, output: number): number {
+  let best = 0;
+  for (let j = 1; j < vs.length; j++) if (Math.abs(vs[j] - output) < Math.abs(vs[best] - output)) best = j;
+  return best;
+}
+
+// Where the linear segment from (v0, g0) (≥ target) to (v1, g1) (< target) crosses the target.
+function crossing(v0: number, g0: number, v1: number, g1: number, target: number): number {
+  const t = g0 > g1 ? (g0 - target) / (g0 - g1) : 0;
+  return v0 + Math.min(Math.max(t, 0), 1) * (v1 - v0);
+}
+
+/**
+ * Widest interval [vlow, vhigh] containing the design point (sample `j0`) on
+ * which gain ≥ target, crossings by linear interpolation; null when the gain
+ * at the design point is below target.
+ */
+export function swingOnGrid(vs: ArrayLike<number>, gains: ArrayLike<number>, j0: number, target: number): { vlow: number; vhigh: number } | null {
+  if (!(gains[j0] >= target)) return null;
+  let a = j0;
+  while (a > 0 && gains[a - 1] >= target) a--;
+  let b = j0;
+  while (b < vs.length - 1 && gains[b + 1] >= target) b++;
+  const vlow = a > 0 ? crossing(vs[a], gains[a], vs[a - 1], gains[a - 1], target) : vs[a];
+  const vhigh = b < vs.length - 1 ? crossing(vs[b], gains[b], vs[b + 1], gains[b + 1], target) : vs[b];
+  return { vlow, vhigh };
+}
+
+function interp(vs: ArrayLike<number>, gains: ArrayLike<number>, v: number): number {
+  let k = 0;
+  while (k < vs.length - 2 && vs[k + 1] < v) k++;
+  const t = (v - vs[k]) / (vs[k + 1] - vs[k]);
+  return gains[k] + Math.min(Math.max(t, 0), 1) * (gains[k + 1] - gains[k]);
+}
+
+/**
+ * Best gain a design holds over a swing of `width`: the highest, over output
+ * intervals [a, a + width] that contain the design point and lie in the
+ * sampled range, of the lowest gain on the interval. Intervals with one end on
+ * a sample are tried (the optimum of a piecewise-linear minimum lies there or
+ * where the two ends are equal, which the neighbouring trials bracket closely).
+ * 0 when no interval fits.
+ */
+export function gainOverSwing(vs: ArrayLike<number>, gains: ArrayLike<number>, j0: number, width: number): number {
+  const n = vs.length;
+  const lo = vs[0];
+  const hi = vs[n - 1];
+  const output = vs[j0];
+  let best = 0;
+  const tryWindow = (a: number): void => {
+    const b = a + width;
+    if (a < lo - 1e-12 || b > hi + 1e-12 || a > output + 1e-12 || b < output - 1e-12) return;
+    let m = Math.min(interp(vs, gains, a), interp(vs, gains, b));
+    for (let j = 0; j < n && m > best; j++) if (vs[j] > a && vs[j] < b) m = Math.min(m, gains[j]);
+    if (m > best) best = m;
+  };
+  for (let j = 0; j < n; j++) {
+    tryWindow(vs[j]);
+    tryWindow(vs[j] - width);
+  }
+  return best;
+}
+
+/** Widest swing with gain ≥ target around the design point, V (0 when the design point misses the target). */
+export function swingAtGain(vs: ArrayLike<number>, gains: ArrayLike<number>, j0: number, target: number): number {
+  const s = swingOnGrid(vs, gains, j0, target);
+  return s ? s.vhigh - s.vlow : 0;
+}
+
+/** Output grid through the design point: output + k·step inside (0, supply). */
+export function outputGrid(output: number, supply: number, step: number): Float64Array {
+  const below = Math.floor((output - 1e-9) / step);
+  const above = Math.floor((supply - output - 1e-9) / step);
+  const out = new Float64Array(below + above + 1);
+  for (let k = -below; k <= above; k++) out[k + below] = output + k * step;
+  return out;
+}

@@ -1,0 +1,112 @@
+import type { StackOp } from './types.js';
+import { stagePoint, type StageCircuit, type StagePoint } from './stage-point.js';
+import { indexOf, outputGrid, swingOnGrid } from './stage-swing.js';
+
+/** A stage's transfer curve on an output grid through the design point, with its swing. */
+export interface StageTrace {
+  /** Output voltages of the grid, ascending, V. */
+  vs: Float64Array;
+  /** Gain at each grid output (0 where the circuit cannot hold it within the table). */
+  gains: Float64Array;
+  /** Solved points (null where not coverable), same indices. */
+  points: Array<StagePoint | null>;
+  /** Index of the design point. */
+  j0: number;
+  /** Swing edges refined by bisection on the circuit, V; null when the design point misses the gain target. */
+  vlow: number | null;
+  vhigh: number | null;
+  swing: number;
+}
+
+/**
+ * Trace the transfer curve outwards from the design point on a grid of `step`
+ * (continuation: each DC solve starts from its neighbour), then refine each
+ * swing edge by bisection on the circuit to `resolution`. A swing edge at the
+ * end of the grid stays there (the circuit holds the gain up to the last point).
+ */
+export function traceStage(c: StageCircuit, output: number, target: number, opts: { step: number; resolution?: number }): StageTrace {
+  const vs = outputGrid(output, c.supply, opts.step);
+  const j0 = indexOf(vs, output);
+  const points: Array<StagePoint | null> = new Array(vs.length).fill(null);
+  const gains = new Float64Array(vs.length);
+  const at = (j: number, guess: StackOp | undefined): StackOp | undefined => {
+    const p = stagePoint(c, vs[j], guess);
+    points[j] = p;
+    gains[j] = p ? p.gain : 0;
+    return p?.load ?? guess;
+  };
+  const mid = at(j0, undefined);
+  let g = mid;
+  for (let j = j0 + 1; j < vs.length; j++) g = at(j, g);
+  g = mid;
+  for (let j = j0 - 1; j >= 0; j--) g = at(j, g);
+  const grid = swingOnGrid(vs, gains, j0, target);
+  if (!grid) return { vs, gains, points, j0, vlow: null, vhigh: null, swing: 0 };
+  const res = opts.resolution ?? 5e-4;
+  const edge = (inside: number, outside: number): number => {
+    let a = vs[inside];
+    let b = vs[outside];
+    let guess = points[inside]?.load;
+    while (Math.abs(b - a) > res) {
+      const m = 0.5 * (a + b);
+      const p = stagePoint(c, m, guess);
+      if (p && p.gain >= target) {
+        a = m;
+        guess = p.load;
+      } else b = m;
+    }
+    return a;
+  };
+  let lo = j0;
+  while (lo > 0 && gains[lo - 1] >= target) lo--;
+  let hi = j0;
+  while (hi < vs.length - 1 && gains[hi + 1] >= target) hi++;
+  const vlow = lo > 0 ? edge(lo, lo - 1) : vs[lo];
+  const vhigh = hi < vs.length - 1 ? edge(hi, hi + 1) : vs[hi];
+  return { vs, gains, points, j0, vlow, vhigh, swing: vhigh - vlow };
+}
+
+/**
+ * Best gain held over a swing of `width` around the design point, with the
+ * interval ends solved on the circuit: with a single-peaked gain curve the best
+ * interval [a, a + width] has equal gain at both ends, so a is bisected on
+ * A(a) − A(a + width); samples inside the interval can only lower the result.
+ * 0 when no interval of that width fits between the rails.
+ */
+export function heldGain(c: StageCircuit, trace: StageTrace, width: number, resolution = 1e-4): number {
+  const { vs, gains, j0 } = trace;
+  const output = vs[j0];
+  let lo = Math.max(vs[0], output - width);
+  let hi = Math.min(output, vs[vs.length - 1] - width);
+  if (!(hi >= lo)) return 0;
+  const gainAt = (v: number): number => {
+    const p = stagePoint(c, v, nearestLoad(trace, v));
+    return p ? p.gain : 0;
+  };
+  let a = lo;
+  if (hi > lo) {
+    while (hi - lo > resolution) {
+      const m = 0.5 * (lo + hi);
+      if (gainAt(m) < gainAt(m + width)) lo = m;
+      else hi = m;
+    }
+    a = 0.5 * (lo + hi);
+  }
+  let held = Math.min(gainAt(a), gainAt(a + width));
+  for (let j = 0; j < vs.length; j++) if (vs[j] > a && vs[j] < a + width) held = Math.min(held, gains[j]);
+  return held;
+}
+
+// The solved load point of the grid sample nearest to v, as a starting guess.
+function nearestLoad(trace: StageTrace, v: number): StackOp | undefined {
+  let best: StackOp | undefined;
+  let dist = Infinity;
+  trace.points.forEach((p, j) => {
+    const d = Math.abs(trace.vs[j] - v);
+    if (p && d < dist) {
+      dist = d;
+      best = p.load;
+    }
+  });
+  return best;
+}
