@@ -7,8 +7,6 @@
  *   const { result } = sizeSpec(spec, loadKit(spec.kit));
  */
 import { StackwrightError } from './errors.js';
-import { ingestFiles } from './ingest/index.js';
-import type { IngestOptions } from './ingest/index.js';
 import { listKits, listTables, loadTable } from './table/store.js';
 import type { DeviceTable, Polarity } from './table/types.js';
 import { kitAccessFromTables } from './solve/kit-tables.js';
@@ -29,11 +27,6 @@ export interface Kit extends KitAccess {
   /** Folder the tables came from. */
   dir: string;
   table(device: Polarity, corner: string): DeviceTable;
-}
-
-/** Read characterisation CSV files into a table (not yet written; see writeTable). */
-export function ingest(paths: string[], opts: IngestOptions): DeviceTable {
-  return ingestFiles(paths, opts);
 }
 
 /**

@@ -3,7 +3,8 @@
  * Sizes are first-cut estimates; verify them with the foundry models across
  * corners before tape-out.
  */
-export { ingest, loadKit, sizeStack, sizeSpec, portSpec, decidingResults } from './api.js';
+export { loadKit, sizeStack, sizeSpec, portSpec, decidingResults } from './api.js';
+export { ingest } from './ingest-api.js';
 export type { Kit, SizeRun, PortRun, PortStack } from './api.js';
 export { probe, sliceAt, vgsFor, designCurves } from './device/index.js';
 export type { OperatingPoint, LengthSlice, ProbeQuery, ProbeResult } from './device/index.js';

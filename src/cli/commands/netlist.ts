@@ -1,6 +1,6 @@
 import type { Command } from 'commander';
 import { StackwrightError } from '../../errors.js';
-import { designNetlist } from '../../spice/index.js';
+import { designNetlist } from '../../spice/netlist.js';
 import { decidingResults } from '../../solve/choose.js';
 import type { SizeResult } from '../../solve/types.js';
 import { writeFilesAtomic } from '../../fsutil.js';

@@ -1,7 +1,7 @@
 import type { Command } from 'commander';
 import { loadKit, portSpec } from '../../api.js';
 import { parseSpec } from '../../spec/index.js';
-import { renderPortText } from '../../report/index.js';
+import { renderPortText } from '../../report/port-text.js';
 import { EXIT } from '../../errors.js';
 import { engFlag } from '../options.js';
 import { note, out, readText, toJson, useColor } from '../io.js';
