@@ -15,7 +15,8 @@ export type { DeviceTable, TableMeta, Polarity, MismatchCoefficients, KitSummary
 export { parseSpec, resolveCorners, TOPOLOGIES } from './spec/index.js';
 export type { DesignSpec, StackSpec, Topology, Objective } from './spec/index.js';
 export { sizeDesign, evaluateAtCorner, paretoFront, pelgromSigma, CAUTION } from './solve/index.js';
-export { kitAccessFromTables } from './solve/kit-tables.js';
+export { kitAccessFromTables, kitAccessFromSources } from './solve/kit-tables.js';
+export type { TableSource } from './solve/kit-tables.js';
 export type { KitAccess, SizeResult, StackResult, DeviceResult, BiasResult, CurvePoint, Predicted, CornerResult, FrontPoint } from './solve/index.js';
 export { stackNetlist, designNetlist } from './spice/index.js';
 export { htmlReport, renderSizeText, lineChart } from './report/index.js';
