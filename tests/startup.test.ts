@@ -1,7 +1,11 @@
-import { readFileSync } from 'node:fs';
+import { copyFileSync, mkdirSync, mkdtempSync, readFileSync, rmSync, truncateSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
-import { describe, expect, it } from 'vitest';
-import { REPO } from './helpers/cli.js';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { loadKit, sizeSpec } from '../src/api.js';
+import { parseSpec } from '../src/spec/index.js';
+import { clearTableCache, kitInventory, tablePath } from '../src/table/index.js';
+import { cli, ensureDemoTables, REPO } from './helpers/cli.js';
 
 /**
  * Modules a command loads before it runs: every static `import ... from` reachable
@@ -37,4 +41,44 @@ describe('start-up: what size and probe load', () => {
       expect(files.filter((f) => f.startsWith('src/ingest/') || f.startsWith('src/spice/characterise') || f === 'src/report/chart.ts')).toEqual([]);
     });
   }
+});
+
+describe('loadKit reads only the tables sizing needs', () => {
+  let dir: string;
+  beforeAll(() => {
+    ensureDemoTables();
+    dir = mkdtempSync(join(tmpdir(), 'sw-lazy-'));
+    mkdirSync(join(dir, 'demo180'));
+    for (const name of ['n-tt', 'p-tt', 'n-ss', 'p-ss']) copyFileSync(join(REPO, 'tables', 'demo180', `${name}.swtab`), join(dir, 'demo180', `${name}.swtab`));
+    // An unrelated corner's table, cut short as an interrupted copy would leave it.
+    truncateSync(tablePath(dir, 'demo180', 'n', 'ss'), 1000);
+    clearTableCache();
+  });
+  afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+  const spec = (corner: string) => parseSpec(`kit: demo180\ncorner: ${corner}\nsupply: 1.8\nstacks:\n  - name: sink\n    device: n\n    topology: cascode\n    current: 20u\n    rout: 20meg\n    headroom: 0.5\n    span: 1.6\n`, 'lazy.yaml');
+
+  it('sizes at tt although the ss table is broken, and lists both corners', () => {
+    const kit = loadKit('demo180', { tables: dir });
+    expect([...kit.corners].sort()).toEqual(['ss', 'tt']);
+    const run = sizeSpec(spec('tt'), kit);
+    expect(run.result.stacks.some((s) => s.feasible)).toBe(true);
+  });
+
+  it('names the broken file when sizing does need it', () => {
+    const kit = loadKit('demo180', { tables: dir });
+    expect(() => sizeSpec(spec('ss'), kit)).toThrow(/n-ss\.swtab: table header line is not terminated/);
+  });
+
+  it('kits lists the broken table as broken and the others as usual', () => {
+    const inv = kitInventory(dir);
+    expect(inv[0].tables.map((t) => `${t.device}-${t.corner}`)).toEqual(['n-tt', 'p-ss', 'p-tt']);
+    expect(inv[0].broken.map((b) => b.name)).toEqual(['n-ss']);
+    const r = cli(['kits', '--tables', dir]);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/broken table n-ss: .*n-ss\.swtab: table header line is not terminated/);
+    expect(r.stdout).toMatch(/^p-tt /m);
+    const j = JSON.parse(cli(['kits', '--tables', dir, '--json']).stdout);
+    expect(j.kits[0].broken[0].name).toBe('n-ss');
+  });
 });
