@@ -82,3 +82,27 @@ describe('loadKit reads only the tables sizing needs', () => {
     expect(j.kits[0].broken[0].name).toBe('n-ss');
   });
 });
+
+describe('probe reads the two table lengths around --l', () => {
+  beforeAll(() => ensureDemoTables());
+  // Same numbers as the whole table (whose slices are checked against SciPy in tests/device.test.ts).
+  it('gives the same operating point as the whole table, from a quarter of the file', async () => {
+    const { probe } = await import('../src/device/index.js');
+    const { readTableAround } = await import('../src/table/partial.js');
+    const { loadTable } = await import('../src/table/store.js');
+    const dir = join(REPO, 'tables');
+    for (const device of ['n', 'p'] as const) {
+      const whole = loadTable(dir, 'demo180', device, 'tt');
+      for (const l of [0.19e-6, 0.5e-6, 1e-6, 1.9e-6]) {
+        const part = readTableAround(tablePath(dir, 'demo180', device, 'tt'), l);
+        expect(part?.axes.l.length).toBe(2);
+        for (const q of [{ gmid: 12, vds: 0.6 }, { vgs: 0.7, vds: 0.3, vsb: 0.2 }, { jd: 5 }]) {
+          expect(probe(part!, { l, ...q })).toEqual(probe(whole, { l, ...q }));
+        }
+      }
+      // At or beyond the ends the whole table is read, so range messages stay as they are.
+      expect(readTableAround(tablePath(dir, 'demo180', device, 'tt'), 0.18e-6)).toBeUndefined();
+      expect(readTableAround(tablePath(dir, 'demo180', device, 'tt'), 5e-6)).toBeUndefined();
+    }
+  });
+});
