@@ -7,6 +7,12 @@ import { TOPOLOGIES, type DesignSpec, type Objective, type StackSpec, type Topol
 const TOP_KEYS = ['kit', 'corner', 'supply', 'stacks'];
 const STACK_KEYS = ['name', 'device', 'topology', 'current', 'rout', 'headroom', 'span', 'l', 'gmid', 'objective', 'mismatch', 'bias'];
 const OBJECTIVES: Objective[] = ['area', 'headroom', 'rout'];
+/**
+ * Stack names become parts of file names (`--front f.csv` writes `f.<name>.svg`), and the
+ * kit name a folder, so both are kept plain: no path separators, no leading dot.
+ */
+const NAME = /^[A-Za-z0-9_][A-Za-z0-9._-]{0,63}$/;
+const NAME_RULE = 'letters, digits, ".", "_" and "-", starting with a letter, digit or "_", at most 64 characters';
 
 type Path = Array<string | number>;
 
@@ -58,6 +64,7 @@ export function parseSpec(text: string, file: string): DesignSpec {
   checkKeys(top, TOP_KEYS, [], fail);
 
   const kit = requireString(top, 'kit', [], fail);
+  if (!NAME.test(kit)) fail(['kit'], `kit names use ${NAME_RULE}; got ${JSON.stringify(kit)}`);
   const supply = requireNumber(top, 'supply', [], fail, { positive: true });
   const corners = parseCorners(top.corner, fail);
 
@@ -79,6 +86,7 @@ export function parseSpec(text: string, file: string): DesignSpec {
 
 function parseStack(s: Record<string, unknown>, path: Path, supply: number, fail: Fail): StackSpec {
   const name = requireString(s, 'name', path, fail);
+  if (!NAME.test(name)) fail([...path, 'name'], `stack names use ${NAME_RULE}; got ${JSON.stringify(name)}`);
   const device = requireString(s, 'device', path, fail) as Polarity;
   if (device !== 'n' && device !== 'p') fail([...path, 'device'], `expected n (sink to ground) or p (source from supply), got "${device}"`);
   const topology = (s.topology === undefined ? 'auto' : String(s.topology)) as Topology | 'auto';
