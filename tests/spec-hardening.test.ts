@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { parseSpec } from '../src/spec/parse.js';
+import { parseSpec, MAX_ALIAS_COUNT } from '../src/spec/parse.js';
 
 const stack = (extra: string) => `kit: demo180
 supply: 1.8
@@ -32,5 +32,22 @@ describe('spec names', () => {
 
   it('refuses a kit name with a path in it', () => {
     expect(refusal(stack('').replace('kit: demo180', 'kit: ../tables/demo180'))).toMatch(/spec\.yaml:1:6: kit: kit names use letters/);
+  });
+});
+
+describe('YAML aliases', () => {
+  // Nested aliases multiply: 9 levels of 9 give 9^6 ≈ 531,441 nodes from a few hundred bytes
+  // (the "billion laughs" pattern, common practice to refuse; the yaml library caps it with maxAliasCount).
+  it('refuses exponential alias expansion with a one-line input error', () => {
+    const levels = ['a', 'b', 'c', 'd', 'e', 'f'];
+    const lines = ['a: &a ["x","x","x","x","x","x","x","x","x"]'];
+    for (let i = 1; i < levels.length; i++) lines.push(`${levels[i]}: &${levels[i]} [${Array(9).fill('*' + levels[i - 1]).join(',')}]`);
+    const text = `${lines.join('\n')}\n${stack('')}`;
+    expect(refusal(text)).toBe(`spec.yaml: YAML aliases expand too far (more than ${MAX_ALIAS_COUNT} alias uses); write the values out`);
+  });
+
+  it('still reads a spec that shares a value through an alias', () => {
+    const text = stack('    span: &s 1.6\n  - name: other\n    device: n\n    current: 5u\n    rout: 1meg\n    headroom: 0.3\n    span: *s\n');
+    expect(parseSpec(text, 's.yaml').stacks.map((s) => s.span)).toEqual([1.6, 1.6]);
   });
 });

@@ -13,6 +13,11 @@ const OBJECTIVES: Objective[] = ['area', 'headroom', 'rout'];
  */
 const NAME = /^[A-Za-z0-9_][A-Za-z0-9._-]{0,63}$/;
 const NAME_RULE = 'letters, digits, ".", "_" and "-", starting with a letter, digit or "_", at most 64 characters';
+/**
+ * Each alias may be expanded at most this many times in total. A spec has no need of
+ * more, and nested aliases otherwise grow exponentially (the "billion laughs" pattern).
+ */
+export const MAX_ALIAS_COUNT = 100;
 
 type Path = Array<string | number>;
 
@@ -38,7 +43,14 @@ export function parseSpec(text: string, file: string): DesignSpec {
     const where = pos ? `${file}:${pos.line}:${pos.col}` : file;
     throw new StackwrightError(`not valid YAML/JSON: ${e.message.split('\n')[0]}`, { where });
   }
-  const root = doc.toJS() as unknown;
+  let root: unknown;
+  try {
+    root = doc.toJS({ maxAliasCount: MAX_ALIAS_COUNT });
+  } catch (e) {
+    // The yaml library throws a ReferenceError when aliases expand past the cap.
+    if (!(e instanceof ReferenceError)) throw e;
+    throw new StackwrightError(`YAML aliases expand too far (more than ${MAX_ALIAS_COUNT} alias uses); write the values out`, { where: file });
+  }
 
   const locate = (path: Path): string => {
     let node: unknown = doc.contents;
