@@ -51,3 +51,14 @@ describe('YAML aliases', () => {
     expect(parseSpec(text, 's.yaml').stacks.map((s) => s.span)).toEqual([1.6, 1.6]);
   });
 });
+
+describe('numbers in spec messages carry units', () => {
+  // Raw floats such as -0.000009999999999999999 are unreadable; engineering notation is common practice.
+  it('formats the value a check refused', () => {
+    expect(refusal(stack('').replace('current: 10u', 'current: -10u'))).toMatch(/stacks\[0\]\.current: expected a positive value, got -10 µA$/);
+    expect(refusal(stack('    l: [2u, 0.18u]\n'))).toMatch(/stacks\[0\]\.l\.max: max 180 nm is below min 2 µm$/);
+    expect(refusal(stack('    gmid: [20, 5]\n'))).toMatch(/stacks\[0\]\.gmid\.max: max 5 1\/V is below min 20 1\/V$/);
+    expect(refusal(stack('    span: 2.5\n'))).toMatch(/stacks\[0\]\.span: span 2\.5 V exceeds the supply 1\.8 V$/);
+    expect(refusal(stack('    span: 250m\n'))).toMatch(/stacks\[0\]\.headroom: headroom 300 mV must be below span 250 mV$/);
+  });
+});

@@ -1,6 +1,6 @@
 import { LineCounter, isMap, isSeq, parseDocument, type Node as YamlNode } from 'yaml';
 import { StackwrightError } from '../errors.js';
-import { parseEng } from '../units/index.js';
+import { formatEng, parseEng } from '../units/index.js';
 import type { Polarity } from '../table/types.js';
 import { TOPOLOGIES, type DesignSpec, type Objective, type StackSpec, type Topology } from './types.js';
 
@@ -18,6 +18,8 @@ const NAME_RULE = 'letters, digits, ".", "_" and "-", starting with a letter, di
  * more, and nested aliases otherwise grow exponentially (the "billion laughs" pattern).
  */
 export const MAX_ALIAS_COUNT = 100;
+/** Units of the numeric keys, for messages. */
+const UNIT: Record<string, string> = { supply: 'V', current: 'A', rout: 'Ω', headroom: 'V', span: 'V', bias: 'A' };
 
 type Path = Array<string | number>;
 
@@ -109,14 +111,14 @@ function parseStack(s: Record<string, unknown>, path: Path, supply: number, fail
   const rout = requireNumber(s, 'rout', path, fail, { positive: true });
   const headroom = requireNumber(s, 'headroom', path, fail, { positive: true });
   const span = s.span === undefined ? supply : requireNumber(s, 'span', path, fail, { positive: true });
-  if (span > supply) fail([...path, 'span'], `span ${span} V exceeds the supply ${supply} V`);
-  if (headroom >= span) fail([...path, 'headroom'], `headroom ${headroom} V must be below span ${span} V`);
+  if (span > supply) fail([...path, 'span'], `span ${volts(span)} exceeds the supply ${volts(supply)}`);
+  if (headroom >= span) fail([...path, 'headroom'], `headroom ${volts(headroom)} must be below span ${volts(span)}`);
   const objective = (s.objective === undefined ? 'area' : String(s.objective)) as Objective;
   if (!OBJECTIVES.includes(objective)) fail([...path, 'objective'], `expected one of ${OBJECTIVES.join(', ')}, got "${objective}"`);
   const out: StackSpec = { name, device, topology, current, rout, headroom, span, objective };
-  if (s.l !== undefined) out.l = parseRange(s.l, [...path, 'l'], fail, true) as StackSpec['l'];
+  if (s.l !== undefined) out.l = parseRange(s.l, [...path, 'l'], fail, true, 'm') as StackSpec['l'];
   if (s.gmid !== undefined) {
-    const g = parseRange(s.gmid, [...path, 'gmid'], fail, false);
+    const g = parseRange(s.gmid, [...path, 'gmid'], fail, false, '1/V');
     out.gmid = { min: g.min, max: g.max };
   }
   if (s.mismatch !== undefined) out.mismatch = parsePercent(s.mismatch, [...path, 'mismatch'], fail);
@@ -125,6 +127,12 @@ function parseStack(s: Record<string, unknown>, path: Path, supply: number, fail
 }
 
 type Fail = (path: Path, message: string) => never;
+
+/** A value for a message: engineering notation with its unit, 4 significant digits. */
+function show(x: number, unit: string): string {
+  return unit === '1/V' ? `${Number(x.toPrecision(4))} 1/V` : formatEng(x, unit, 4);
+}
+const volts = (x: number): string => show(x, 'V');
 
 function isObject(x: unknown): x is Record<string, unknown> {
   return typeof x === 'object' && x !== null && !Array.isArray(x);
@@ -156,11 +164,11 @@ function requireNumber(obj: Record<string, unknown>, key: string, path: Path, fa
   const v = obj[key];
   if (v === undefined) return fail([...path, key], 'required key is missing');
   const x = number(v, [...path, key], fail);
-  if (opts.positive && !(x > 0)) fail([...path, key], `expected a positive value, got ${x}`);
+  if (opts.positive && !(x > 0)) fail([...path, key], `expected a positive value, got ${show(x, UNIT[key] ?? '')}`);
   return x;
 }
 
-function parseRange(v: unknown, path: Path, fail: Fail, allowStep: boolean): { min: number; max: number; step?: number } {
+function parseRange(v: unknown, path: Path, fail: Fail, allowStep: boolean, unit: string): { min: number; max: number; step?: number } {
   let min: unknown, max: unknown, step: unknown;
   if (Array.isArray(v)) {
     if (v.length !== 2 && !(allowStep && v.length === 3)) {
@@ -177,12 +185,12 @@ function parseRange(v: unknown, path: Path, fail: Fail, allowStep: boolean): { m
   }
   const lo = number(min, [...path, 'min'], fail);
   const hi = number(max, [...path, 'max'], fail);
-  if (!(lo > 0)) fail([...path, 'min'], `expected a positive value, got ${lo}`);
-  if (!(hi >= lo)) fail([...path, 'max'], `max ${hi} is below min ${lo}`);
+  if (!(lo > 0)) fail([...path, 'min'], `expected a positive value, got ${show(lo, unit)}`);
+  if (!(hi >= lo)) fail([...path, 'max'], `max ${show(hi, unit)} is below min ${show(lo, unit)}`);
   const out: { min: number; max: number; step?: number } = { min: lo, max: hi };
   if (step !== undefined) {
     out.step = number(step, [...path, 'step'], fail);
-    if (!(out.step > 0)) fail([...path, 'step'], `expected a positive step, got ${out.step}`);
+    if (!(out.step > 0)) fail([...path, 'step'], `expected a positive step, got ${show(out.step, unit)}`);
   }
   return out;
 }
