@@ -13,6 +13,8 @@ const OBJECTIVES: Objective[] = ['area', 'headroom', 'rout'];
  */
 const NAME = /^[A-Za-z0-9_][A-Za-z0-9._-]{0,63}$/;
 const NAME_RULE = 'letters, digits, ".", "_" and "-", starting with a letter, digit or "_", at most 64 characters';
+/** Kit names as the table files allow them (src/table/validate.ts). */
+const KIT_NAME = /^[A-Za-z0-9_+][A-Za-z0-9._+-]*$/;
 /**
  * Each alias may be expanded at most this many times in total. A spec has no need of
  * more, and nested aliases otherwise grow exponentially (the "billion laughs" pattern).
@@ -78,7 +80,7 @@ export function parseSpec(text: string, file: string): DesignSpec {
   checkKeys(top, TOP_KEYS, [], fail);
 
   const kit = requireString(top, 'kit', [], fail);
-  if (!NAME.test(kit)) fail(['kit'], `kit names use ${NAME_RULE}; got ${JSON.stringify(kit)}`);
+  if (!KIT_NAME.test(kit)) fail(['kit'], `kit names use letters, digits, ".", "_", "+" and "-", not starting with "." or "-"; got ${JSON.stringify(kit)}`);
   const supply = requireNumber(top, 'supply', [], fail, { positive: true });
   const corners = parseCorners(top.corner, fail);
 
