@@ -1,7 +1,8 @@
-import { closeSync, existsSync, fsyncSync, mkdirSync, openSync, renameSync, rmSync, writeSync } from 'node:fs';
+import { closeSync, existsSync, fsyncSync, openSync, renameSync, rmSync, writeSync } from 'node:fs';
 import { dirname, basename, join } from 'node:path';
 import { randomBytes } from 'node:crypto';
 import { StackwrightError } from './errors.js';
+import { makeFolders } from './mkdirs.js';
 
 /**
  * Write a file atomically: a temp file beside it, fsync, rename. A failure
@@ -44,16 +45,20 @@ function refuseExisting(paths: readonly string[]): void {
   }
 }
 
-/** Create the folder and write `data` to a synced temp file beside `path`; returns the temp path. */
-function stage(path: string, data: string | Uint8Array): string {
-  const dir = dirname(path);
+/** Create a folder (and its parents) for output, or say why not: `--out /proc/x` fails at once. */
+export function ensureFolder(dir: string): void {
   try {
-    mkdirSync(dir, { recursive: true });
+    makeFolders(dir);
   } catch (e) {
-    // mkdir -p reports a plain file at the folder's own name as EEXIST, which reads as if the folder existed.
     const why = (e as NodeJS.ErrnoException).code === 'EEXIST' ? 'a file of that name is in the way (EEXIST)' : reason(e);
     throw new StackwrightError(`cannot create folder ${dir}: ${why}`);
   }
+}
+
+/** Create the folder and write `data` to a synced temp file beside `path`; returns the temp path. */
+function stage(path: string, data: string | Uint8Array): string {
+  const dir = dirname(path);
+  ensureFolder(dir);
   const tmp = join(dir, `.${basename(path)}.${process.pid}.${randomBytes(4).toString('hex')}.tmp`);
   try {
     const fd = openSync(tmp, 'w');

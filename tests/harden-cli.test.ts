@@ -1,0 +1,48 @@
+import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { cli, ensureDemoTables, REPO } from './helpers/cli.js';
+
+let dir: string;
+beforeAll(() => {
+  ensureDemoTables();
+  dir = mkdtempSync(join(tmpdir(), 'sw-harden-'));
+});
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+const tables = () => join(REPO, 'tables');
+const DEMO = join('demo-tables', 'specs', 'marsh-wren.yaml');
+
+/** Exit status, one stderr line starting with the program name, nothing on stdout. */
+function expectOneLineError(r: { code: number; stdout: string; stderr: string }, code: number, re: RegExp): void {
+  expect(r.code, r.stderr).toBe(code);
+  const lines = r.stderr.trim().split('\n');
+  expect(lines).toHaveLength(1);
+  expect(lines[0]).toMatch(/^stackwright: /);
+  expect(lines[0]).toMatch(re);
+  expect(r.stdout).toBe('');
+}
+
+describe('output paths that cannot be created', () => {
+  // Under /proc, mkdir answers ENOENT although the parent exists; recursive mkdir used to loop on it.
+  it('chart, size --report, size --front and synth fail at once with exit 2', () => {
+    expectOneLineError(cli(['chart', '--kit', 'demo180', '--device', 'n', '--out', '/proc/nope', '--tables', tables()]), 2, /cannot create folder \/proc\/nope: no such file or directory \(ENOENT\)/);
+    expectOneLineError(cli(['size', DEMO, '--report', '/proc/x/r.html', '--tables', tables()]), 2, /cannot create folder \/proc\/x: /);
+    expectOneLineError(cli(['size', DEMO, '--front', '/proc/x/f.csv', '--tables', tables()]), 2, /cannot create folder \/proc\/x: /);
+    expectOneLineError(cli(['synth', '--out', '/proc/nope']), 2, /cannot create folder \/proc\/nope\/demo\d+: /);
+  });
+
+  it('a file in the way of a folder is named as such', () => {
+    const file = join(dir, 'plain-file');
+    writeFileSync(file, 'x');
+    expectOneLineError(cli(['chart', '--kit', 'demo180', '--device', 'n', '--out', join(file, 'sub'), '--tables', tables()]), 2, /cannot create folder .*plain-file\/sub: not a directory \(ENOTDIR\)/);
+  });
+
+  it('still creates nested folders that do not exist yet', () => {
+    const out = join(dir, 'a', 'b', 'c');
+    const r = cli(['chart', '--kit', 'demo180', '--device', 'n', '--out', out, '--tables', tables()]);
+    expect(r.code, r.stderr).toBe(0);
+    expect(existsSync(join(out, 'demo180-n-tt-gain.svg'))).toBe(true);
+  });
+});
