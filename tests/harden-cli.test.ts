@@ -46,3 +46,23 @@ describe('output paths that cannot be created', () => {
     expect(existsSync(join(out, 'demo180-n-tt-gain.svg'))).toBe(true);
   });
 });
+
+describe('a supply above the tables', () => {
+  const spec = (supply: string) => `kit: demo180\nsupply: ${supply}\nstacks:\n  - name: sink\n    device: n\n    topology: cascode\n    current: 10u\n    rout: 10meg\n    headroom: 0.4\n`;
+
+  it('is one exit-2 message for size, --brief, --json and --report, and nothing is written', () => {
+    const path = join(dir, 'high-supply.yaml');
+    writeFileSync(path, spec('2.5'));
+    const report = join(dir, 'high', 'r.html');
+    const want = /stacks\[0\]\.span: span 2\.5 V \(the span is the supply when not given\) is above the tables' VDS range, which ends at 1\.8 V \(kit demo180, n-type, corner tt\)/;
+    for (const extra of [[], ['--brief'], ['--json'], ['--report', report]]) {
+      expectOneLineError(cli(['size', path, '--tables', tables(), ...extra]), 2, want);
+    }
+    expect(existsSync(report)).toBe(false);
+  });
+
+  it('port --supply above the new kit is bad input (exit 2), naming the flag', () => {
+    expectOneLineError(cli(['port', DEMO, '--to', 'demo090', '--supply', '5', '--tables', tables()]), 2, /--supply: 5 V is above the VDS range of kit demo090's tables, which ends at 1\.2 V/);
+    expectOneLineError(cli(['port', DEMO, '--to', 'demo090', '--supply', '-1', '--tables', tables()]), 2, /--supply: expected a positive supply, got -1 V/);
+  });
+});

@@ -3,6 +3,7 @@ import { resolveCorners } from '../spec/index.js';
 import { TOPOLOGIES, type DesignSpec, type StackSpec, type Topology } from '../spec/types.js';
 import { CAUTION, type SizeResult, type StackResult } from './types.js';
 import type { KitAccess } from './kit.js';
+import { checkTableCover } from './table-cover.js';
 import { makeContext, type SolveContext } from './context.js';
 import { screen } from './screen.js';
 import { evaluateOnce, refine, type Seen } from './refine.js';
@@ -103,6 +104,7 @@ function nothingFitsWords(ctx: SolveContext, topology: Topology): string {
  * @example sizeStack(spec, kit, { supply: 1.8, corners: ['tt', 'ss'] }).results[0].feasible
  */
 export function sizeStack(spec: StackSpec, kit: KitAccess, opts: { supply: number; corners: string[] }): SizeStackResult {
+  checkTableCover(spec, kit, opts.corners, opts.supply, `stack "${spec.name}"`);
   const ctx = makeContext(spec, kit, opts.supply, opts.corners);
   const topologies: readonly Topology[] = spec.topology === 'auto' ? TOPOLOGIES : [spec.topology];
   const results: StackResult[] = [];
@@ -124,6 +126,8 @@ export function sizeDesign(design: DesignSpec, kit: KitAccess): SizeResult & { f
     throw new StackwrightError(`spec asks for kit "${design.kit}" but the tables are for "${kit.kit}"`, { where: `${design.file}: kit` });
   }
   const corners = resolveCorners(design, kit.corners);
+  // Every stack first, so a spec the tables cannot describe fails before any search.
+  design.stacks.forEach((s, i) => checkTableCover(s, kit, corners, design.supply, `${design.file}: stacks[${i}]`));
   const stacks: StackResult[] = [];
   const fronts: Record<string, FrontPoint[]> = {};
   for (const s of design.stacks) {
