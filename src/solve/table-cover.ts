@@ -40,8 +40,9 @@ const TOL = 1e-9;
 
 /**
  * Refuse, as bad input, a stack the tables cannot describe at all: a span above
- * the tables' VDS axis (every design would be read outside the table). `where`
- * is the stack's spec location.
+ * the tables' VDS axis (every design would be read outside the table), or a
+ * stacked topology on tables without VSB data (the upper devices' sources sit
+ * above the rail). `where` is the stack's spec location.
  */
 export function checkTableCover(stack: StackSpec, kit: KitAccess, corners: readonly string[], supply: number, where: string): void {
   for (const corner of corners) {
@@ -52,6 +53,13 @@ export function checkTableCover(stack: StackSpec, kit: KitAccess, corners: reado
       throw new StackwrightError(
         `span ${V(stack.span)}${fromSupply} is above the tables' VDS range, which ends at ${V(cover.vds[1])} (${table}); lower the ${fromSupply ? 'supply or set a span' : 'span'}`,
         { where: `${where}.span` },
+      );
+    }
+    if (stack.topology !== 'single' && !(cover.vsb[1] > 0)) {
+      throw new StackwrightError(
+        `topology ${stack.topology} needs VSB data for its upper devices (their sources sit above the rail), ` +
+          `but the table's vsb axis holds ${V(cover.vsb[0])} only (${table}); characterise with VSB steps up to about ${V(stack.span)}, or use topology: single`,
+        { where: `${where}.topology` },
       );
     }
   }
