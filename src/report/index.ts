@@ -17,3 +17,4 @@ export { formatArea, formatMicrons, formatPercent } from './format.js';
 export type { DesignPoint, LengthCurve, DesignCurves, FrontPoint, StackFront, HtmlReportInput } from './types.js';
 export type { Grid } from './rows.js';
 export { renderPortText } from './port-text.js';
+export { lengthClampNotes } from './notes.js';

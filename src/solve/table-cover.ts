@@ -64,3 +64,29 @@ export function checkTableCover(stack: StackSpec, kit: KitAccess, corners: reado
     }
   }
 }
+
+/** A spec length range that reaches outside the table, and the part of it that is used. */
+export interface LengthClamp {
+  stack: string;
+  corner: string;
+  /** The spec's l range, m. */
+  asked: [number, number];
+  /** The table's length axis, m. */
+  table: [number, number];
+  /** What sizing searches: the overlap, m. */
+  used: [number, number];
+}
+
+/** Stacks whose spec `l` range extends beyond the table lengths (sizing never extrapolates, so it keeps to the table). */
+export function lengthClamps(stacks: readonly StackSpec[], kit: KitAccess, corner: string): LengthClamp[] {
+  const out: LengthClamp[] = [];
+  for (const s of stacks) {
+    if (!s.l) continue;
+    const ls = kit.lengths(corner, s.device);
+    const lo = ls[0];
+    const hi = ls[ls.length - 1];
+    if (s.l.min >= lo * (1 - TOL) && s.l.max <= hi * (1 + TOL)) continue;
+    out.push({ stack: s.name, corner, asked: [s.l.min, s.l.max], table: [lo, hi], used: [Math.max(s.l.min, lo), Math.min(s.l.max, hi)] });
+  }
+  return out;
+}

@@ -51,7 +51,7 @@ export function curvesFor(kit: Kit, run: SizeRun): DesignCurves[] {
   });
 }
 
-export function reportHtml(spec: DesignSpec, source: string, kit: Kit, run: SizeRun): string {
+export function reportHtml(spec: DesignSpec, source: string, kit: Kit, run: SizeRun, extraNotes: string[] = []): string {
   const note = kit.table(run.result.stacks[0]?.device ?? 'n', run.result.corners[0]).meta.note;
   return htmlReport({
     spec: { parsed: spec, source },
@@ -59,12 +59,12 @@ export function reportHtml(spec: DesignSpec, source: string, kit: Kit, run: Size
     fronts: Object.entries(run.fronts).map(([stack, points]) => ({ stack, points: reportFront(points) })),
     designCurves: curvesFor(kit, run),
     generatedBy: `stackwright ${packageVersion()}`,
-    notes: note ? [`kit ${kit.kit}: ${note}`] : [],
+    notes: [...(note ? [`kit ${kit.kit}: ${note}`] : []), ...extraNotes],
   });
 }
 
 /** Every requested output as [path, contents], built before anything is written. */
-export function sizeOutputs(f: SizeOutputFlags, spec: DesignSpec, specPath: string, source: string, kit: Kit, run: SizeRun): Array<[string, string]> {
+export function sizeOutputs(f: SizeOutputFlags, spec: DesignSpec, specPath: string, source: string, kit: Kit, run: SizeRun, notes: string[] = []): Array<[string, string]> {
   const files: Array<[string, string]> = [];
   if (f.front) {
     files.push([f.front, frontCsv(run.fronts)]);
@@ -81,6 +81,6 @@ export function sizeOutputs(f: SizeOutputFlags, spec: DesignSpec, specPath: stri
     const chosen = { ...run.result, stacks: decidingResults(run.result) };
     files.push([f.netlist, designNetlist(chosen, { supply: spec.supply, specs: spec.stacks, title: `stackwright ${basename(specPath)}` })]);
   }
-  if (f.report) files.push([f.report, reportHtml(spec, source, kit, run)]);
+  if (f.report) files.push([f.report, reportHtml(spec, source, kit, run, notes)]);
   return files;
 }

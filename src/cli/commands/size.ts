@@ -3,6 +3,8 @@ import { loadKit, sizeSpec, decidingResults } from '../../api.js';
 import { parseSpec } from '../../spec/index.js';
 import { renderSizeText, renderSizeBrief } from '../../report/size-text.js';
 import { writeFilesAtomic } from '../../fsutil.js';
+import { lengthClamps } from '../../solve/table-cover.js';
+import { lengthClampNotes } from '../../report/notes.js';
 import { EXIT } from '../../errors.js';
 import { note, out, readText, toJson, useColor } from '../io.js';
 
@@ -34,13 +36,15 @@ export function registerSize(program: Command): void {
       const spec = parseSpec(source, specPath);
       const kit = loadKit(spec.kit, { tables: f.tables });
       const run = sizeSpec(spec, kit);
+      const notes = lengthClampNotes(lengthClamps(spec.stacks, kit, run.result.corners[0]));
 
       // Build every output first, then write them together: nothing half-written.
-      const files = f.front || f.netlist || f.report ? (await import('./size-outputs.js')).sizeOutputs(f, spec, specPath, source, kit, run) : [];
+      const files = f.front || f.netlist || f.report ? (await import('./size-outputs.js')).sizeOutputs(f, spec, specPath, source, kit, run, notes) : [];
       writeFilesAtomic(files, { force: f.force });
 
       if (f.json) out(toJson({ ...run.result, fronts: run.fronts }));
       else out((f.brief ? renderSizeBrief : renderSizeText)(run.result, { color: useColor() }));
+      for (const line of notes) note(`note: ${line}`);
       for (const [path] of files) note(`wrote ${path}`);
       const failed = decidingResults(run.result).filter((s) => !s.feasible);
       if (failed.length > 0) {
