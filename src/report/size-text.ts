@@ -1,6 +1,6 @@
 import type { SizeResult } from '../solve/types.js';
 import { decidingResults } from '../solve/choose.js';
-import { formatArea, polarityName } from './format.js';
+import { eng, formatArea, polarityName } from './format.js';
 import { formatEng } from '../units/index.js';
 import { biasGrid, columnAlign, cornerGrid, deviceGrid, predictedGrid, squareLawGrid, verdict, type Grid } from './rows.js';
 import { ansi, renderTable } from './text.js';
@@ -35,8 +35,8 @@ export function renderSizeText(result: SizeResult, opts: SizeTextOptions): strin
     const others = result.stacks.filter((x) => x.name === s.name && x.chosen === false);
     if (others.length > 0) {
       const rows = [s, ...others].map((x) => [
-        x.topology, x === s ? 'chosen' : x.feasible ? 'feasible' : 'INFEASIBLE', formatEng(x.predicted.rout, 'Ω'),
-        Number.isFinite(x.predicted.headroom) ? formatEng(x.predicted.headroom, 'V') : 'never', formatArea(x.predicted.area),
+        x.topology, x === s ? 'chosen' : x.feasible ? 'feasible' : 'INFEASIBLE', eng(x.predicted.rout, 'Ω'),
+        eng(x.predicted.headroom, 'V'), formatArea(x.predicted.area),
         x.feasible ? '' : x.binding ?? '',
       ]);
       out.push(...block('topologies tried (auto)', { headers: ['topology', 'status', 'Rout', 'headroom', 'area', 'binding'], rows }, c));
@@ -50,8 +50,7 @@ export function renderSizeBrief(result: SizeResult, opts: SizeTextOptions): stri
   const rows = decidingResults(result).map((s) => [
     s.name, `${s.device}-type ${s.topology}`, s.feasible ? 'feasible' : 'INFEASIBLE',
     s.devices.map((d) => `${formatEng(d.w, 'm')}/${formatEng(d.l, 'm')}`).join(' + '),
-    formatEng(s.predicted.iout, 'A'), formatEng(s.predicted.rout, 'Ω'),
-    Number.isFinite(s.predicted.headroom) ? formatEng(s.predicted.headroom, 'V') : 'never',
+    eng(s.predicted.iout, 'A'), eng(s.predicted.rout, 'Ω'), eng(s.predicted.headroom, 'V'),
     formatArea(s.predicted.area), s.predicted.sigma === undefined ? '—' : `${Number((s.predicted.sigma * 100).toPrecision(3))} %`,
     s.feasible ? '' : s.binding ?? '',
   ]);

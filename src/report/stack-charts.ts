@@ -6,8 +6,10 @@ import { slug } from './svg.js';
 import type { FrontPoint } from './types.js';
 
 export interface StackChartSet {
-  rout: string;
-  iout: string;
+  /** Absent when the design has no Rout that a log axis can show (e.g. 0 Ω everywhere). */
+  rout?: string;
+  /** Absent when the curve has no finite current. */
+  iout?: string;
   /** Present when a front was given. */
   pareto?: string;
   area?: string;
@@ -33,10 +35,13 @@ export function stackCharts(stack: StackResult, spec?: StackSpec, front?: FrontP
   const vAxis = { label: 'stack voltage', unit: 'V' };
   const region = spec ? [{ x: [spec.headroom, spec.span] as [number, number], label: 'targets must hold here' }] : [];
 
-  const rout = lineChart({
+  // An infeasible design can have no usable curve at all; then there is no chart rather than a failed report.
+  const routPoints = stack.curve.map((c) => ({ x: c.v, y: c.rout })).filter((p) => Number.isFinite(p.x) && Number.isFinite(p.y) && p.y > 0);
+  const ioutPoints = stack.curve.map((c) => ({ x: c.v, y: c.iout })).filter((p) => Number.isFinite(p.x) && Number.isFinite(p.y));
+  const rout = routPoints.length === 0 ? undefined : lineChart({
     id: `${base}-rout`, title: `Rout against stack voltage — ${stack.name}`, subtitle: sub, x: vAxis,
     y: { label: 'Rout', unit: 'Ω', scale: 'log' },
-    series: [{ name: 'Rout (lookup table)', points: stack.curve.map((c) => ({ x: c.v, y: c.rout })) }],
+    series: [{ name: 'Rout (lookup table)', points: routPoints }],
     targets: [
       ...(spec ? [{ axis: 'y' as const, value: spec.rout, label: targetLabel('Rout target', spec.rout, 'Ω') }] : []),
       ...headroomGuides(stack, spec),
@@ -44,10 +49,10 @@ export function stackCharts(stack: StackResult, spec?: StackSpec, front?: FrontP
     regions: region,
   });
 
-  const iout = lineChart({
+  const iout = ioutPoints.length === 0 ? undefined : lineChart({
     id: `${base}-iout`, title: `Output current against stack voltage — ${stack.name}`, subtitle: sub, x: vAxis,
     y: { label: 'Iout', unit: 'A', zero: true },
-    series: [{ name: 'Iout (lookup table)', points: stack.curve.map((c) => ({ x: c.v, y: c.iout })) }],
+    series: [{ name: 'Iout (lookup table)', points: ioutPoints }],
     targets: [
       ...(spec ? [{ axis: 'y' as const, value: spec.current, label: targetLabel('Iout target', spec.current, 'A') }] : []),
       ...headroomGuides(stack, spec),

@@ -97,7 +97,7 @@ function stackLines(
   if (spec) {
     lines.push(`* targets: iout ${formatEng(spec.current, 'A')}, rout >= ${formatEng(spec.rout, 'ohm')}, headroom ${formatEng(spec.headroom, 'V')}, span ${formatEng(spec.span, 'V')}`);
   }
-  lines.push(`* predicted: iout ${formatEng(pr.iout, 'A')}, rout ${formatEng(pr.rout, 'ohm')}, headroom ${formatEng(pr.headroom, 'V')}`);
+  lines.push(`* predicted: iout ${shown(pr.iout, 'A')}, rout ${shown(pr.rout, 'ohm')}, headroom ${shown(pr.headroom, 'V')}`);
   lines.push(`${PROBE_PREFIX} ${tag} ${s.device} ${ammeter} ${s.name}`);
   // Output node follows the stack voltage; the ammeter reads iout positive for either type.
   lines.push(p ? `e_${tag} ${out} vdd ${SWEEP_NODE} 0 -1` : `e_${tag} ${out} 0 ${SWEEP_NODE} 0 1`);
@@ -110,6 +110,12 @@ function stackLines(
   });
   lines.push(p ? `${ammeter} d_${tag} ${out} dc 0` : `${ammeter} ${out} d_${tag} dc 0`);
   return lines;
+}
+
+/** A predicted value for a comment: "never" for a headroom never reached, "n/a" when there is none. */
+function shown(x: number, unit: string): string {
+  if (x === Infinity) return 'never';
+  return Number.isFinite(x) ? formatEng(x, unit) : 'n/a';
 }
 
 /** Emit the gate drive and return role -> gate node. */
