@@ -1,6 +1,5 @@
 import { closeSync, existsSync, fsyncSync, openSync, renameSync, rmSync, writeSync } from 'node:fs';
 import { dirname, basename, join } from 'node:path';
-import { randomBytes } from 'node:crypto';
 import { StackwrightError } from './errors.js';
 import { makeFolders } from './mkdirs.js';
 
@@ -59,9 +58,9 @@ export function ensureFolder(dir: string): void {
 function stage(path: string, data: string | Uint8Array): string {
   const dir = dirname(path);
   ensureFolder(dir);
-  const tmp = join(dir, `.${basename(path)}.${process.pid}.${randomBytes(4).toString('hex')}.tmp`);
+  const tmp = join(dir, `.${basename(path)}.${process.pid}.${tmpTag()}.tmp`);
   try {
-    const fd = openSync(tmp, 'w');
+    const fd = openSync(tmp, 'wx'); // exclusive: never write into someone else's file
     try {
       const buf = typeof data === 'string' ? Buffer.from(data, 'utf8') : data;
       let off = 0;
@@ -75,6 +74,16 @@ function stage(path: string, data: string | Uint8Array): string {
     throw new StackwrightError(`cannot write ${path}: ${reason(e)}`);
   }
   return tmp;
+}
+
+let tmpCount = 0;
+/**
+ * Distinct per call in this process (the pid separates processes). Not node:crypto:
+ * loading it costs every command start-up ~10 ms, and a temp name needs no secrecy.
+ */
+function tmpTag(): string {
+  tmpCount += 1;
+  return `${tmpCount.toString(36)}${Math.floor(Math.random() * 0x100000000).toString(16)}`;
 }
 
 function commit(tmp: string, path: string): void {
