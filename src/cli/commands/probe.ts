@@ -1,6 +1,6 @@
 import type { Command } from 'commander';
 import { StackwrightError } from '../../errors.js';
-import { probe } from '../../device/index.js';
+import { probe } from '../../device/probe.js';
 import { existsSync } from 'node:fs';
 import { loadTable } from '../../table/store.js';
 import { readTableAround } from '../../table/partial.js';
