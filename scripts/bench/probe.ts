@@ -1,20 +1,20 @@
 /** (c) `probe` whole process against bare node start-up, A/B interleaved. */
 import { existsSync } from 'node:fs';
-import { join } from 'node:path';
 import { pairedSpawns, showSample } from './paired.js';
 import { verdict, type BenchRow } from './result.js';
+import { cliPath } from '../cli-path.js';
 
 export const PROBE_ARGS = ['probe', '--kit', 'demo180', '--device', 'n', '--l', '0.5u', '--gmid', '12'];
 
 export function benchProbe(opts: { root: string; pairs?: number; log?: (s: string) => void }): BenchRow[] {
   const pairs = opts.pairs ?? 11;
-  const cli = join(opts.root, 'dist', 'src', 'cli', 'main.js');
+  const cli = cliPath(opts.root);
   const row: BenchRow = {
     section: 'c probe', measured: 'probe --kit demo180 --device n --l 0.5u --gmid 12, whole process', unit: 'ms',
     baseline: null, baselineLabel: 'node -e 0', ours: null, ratio: null, target: '<= 1.5x', status: 'ERROR',
   };
   if (!existsSync(cli)) {
-    row.note = `${cli} not built (run tsc first)`;
+    row.note = `${cli} not built (run npm run build first)`;
     return [row];
   }
   try {

@@ -7,6 +7,7 @@ import { loadKit } from '../../src/api.js';
 import { pairedSpawns, sample, showSample } from './paired.js';
 import { verdict, type BenchRow } from './result.js';
 import { msSince } from './stats.js';
+import { cliPath } from '../cli-path.js';
 
 export const DEMO_SPEC = join('demo-tables', 'specs', 'marsh-wren.yaml');
 
@@ -17,7 +18,7 @@ export function benchSize(opts: { root: string; pairs?: number; warmRuns?: numbe
 /** What a user waits for: `stackwright size SPEC`, spawn to exit, beside bare node start-up. */
 function wholeProcessRow(opts: { root: string; pairs?: number; log?: (s: string) => void }): BenchRow {
   const pairs = opts.pairs ?? 5;
-  const cli = join(opts.root, 'dist', 'src', 'cli', 'main.js');
+  const cli = cliPath(opts.root);
   const row: BenchRow = {
     section: 'd size', measured: `size ${DEMO_SPEC}, whole process (cold)`, unit: 'ms', baseline: null, baselineLabel: 'node -e 0',
     ours: null, ratio: null, target: '<= 4x', status: 'ERROR',
