@@ -80,3 +80,17 @@ describe('a spec length range outside the table', () => {
     expect(cli(['size', path, '--brief', '--tables', tables()]).stderr).not.toMatch(/note:/);
   });
 });
+
+describe('netlist from size --json', () => {
+  it('places the .op at the mid-span of the spec the JSON came from', () => {
+    const path = join(dir, 'one.yaml');
+    writeFileSync(path, 'kit: demo180\nsupply: 1.8\nstacks:\n  - name: one\n    device: n\n    topology: single\n    current: 10u\n    rout: 200k\n    headroom: 0.3\n    span: 1.3\n');
+    const r = cli(['size', path, '--json', '--tables', tables()]);
+    const json = join(dir, 'one.json');
+    writeFileSync(json, r.stdout);
+    const net = cli(['netlist', json]);
+    expect(net.code, net.stderr).toBe(0);
+    // Mid-span = (headroom + span)/2 = 0.8 V (README definition), not supply/2 = 0.9 V.
+    expect(net.stdout).toMatch(/^vstack vstack 0 dc 800m$/m);
+  });
+});

@@ -3,6 +3,7 @@ import { StackwrightError } from '../../errors.js';
 import { designNetlist } from '../../spice/netlist.js';
 import { decidingResults } from '../../solve/choose.js';
 import type { SizeResult } from '../../solve/types.js';
+import type { StackSpec } from '../../spec/types.js';
 import { writeFilesAtomic } from '../../fsutil.js';
 import { note, out, readText } from '../io.js';
 
@@ -41,6 +42,15 @@ export function readSizeResult(path: string): SizeResult {
   return r as SizeResult;
 }
 
+/** The spec targets `size --json` writes beside the result (absent in older files: .op then at mid-sweep). */
+function targetsOf(result: SizeResult): StackSpec[] | undefined {
+  const t = (result as SizeResult & { targets?: unknown }).targets;
+  if (!Array.isArray(t)) return undefined;
+  const ok = t.filter((x): x is StackSpec => !!x && typeof x === 'object' && typeof x.name === 'string' && typeof x.headroom === 'number' && typeof x.span === 'number'
+    && typeof x.current === 'number' && typeof x.rout === 'number');
+  return ok.length ? ok : undefined;
+}
+
 export function registerNetlist(program: Command): void {
   program
     .command('netlist')
@@ -58,7 +68,7 @@ export function registerNetlist(program: Command): void {
       const result = readSizeResult(path);
       // With topology 'auto' only the chosen design of each stack goes in.
       const chosen = { ...result, stacks: decidingResults(result) };
-      const text = designNetlist(chosen, { supply: result.supply, models: { n: f.modelN, p: f.modelP }, include: f.include, bias: f.bias });
+      const text = designNetlist(chosen, { supply: result.supply, models: { n: f.modelN, p: f.modelP }, include: f.include, bias: f.bias, specs: targetsOf(result) });
       if (f.out) {
         writeFilesAtomic([[f.out, text]], { force: f.force });
         note(`wrote ${f.out}`);

@@ -42,7 +42,8 @@ export function registerSize(program: Command): void {
       const files = f.front || f.netlist || f.report ? (await import('./size-outputs.js')).sizeOutputs(f, spec, specPath, source, kit, run, notes) : [];
       writeFilesAtomic(files, { force: f.force });
 
-      if (f.json) out(toJson({ ...run.result, fronts: run.fronts }));
+      // The spec's targets ride along so `netlist` can place its .op at each stack's mid-span.
+      if (f.json) out(toJson({ ...run.result, fronts: run.fronts, targets: spec.stacks }));
       else out((f.brief ? renderSizeBrief : renderSizeText)(run.result, { color: useColor() }));
       for (const line of notes) note(`note: ${line}`);
       for (const [path] of files) note(`wrote ${path}`);
