@@ -10,7 +10,7 @@
 import { build } from 'esbuild';
 import { rmSync } from 'node:fs';
 import { join } from 'node:path';
-import { packageRoot } from '../src/locate.js';
+import { packageRoot } from '../src/table/locate.js';
 
 export const CLI_BUNDLE = join('dist', 'cli', 'stackwright.mjs');
 

@@ -1,7 +1,6 @@
-import { closeSync, existsSync, fsyncSync, openSync, renameSync, rmSync, writeSync } from 'node:fs';
-import { dirname, basename, join } from 'node:path';
+import { closeSync, existsSync, fsyncSync, mkdirSync, openSync, renameSync, rmSync, statSync, writeSync } from 'node:fs';
+import { dirname, basename, join, resolve } from 'node:path';
 import { StackwrightError } from './errors.js';
-import { makeFolders } from './mkdirs.js';
 
 /**
  * Write a file atomically: a temp file beside it, fsync, rename. A failure
@@ -110,4 +109,32 @@ function reason(e: unknown): string {
   const m = /^[A-Z0-9_]+: ([^,]+)/.exec(msg);
   if (m && err.code) return `${m[1]} (${err.code})`;
   return err?.code ? `${msg} (${err.code})` : msg;
+}
+
+/**
+ * `mkdir -p` one level at a time from the nearest existing ancestor. Node's own
+ * recursive mkdir loops without end where mkdir answers ENOENT for a parent that
+ * exists (as under /proc), so a bad output path would hang instead of failing.
+ * Throws the first mkdir error as it is (with its code).
+ */
+function makeFolders(dir: string): void {
+  const missing: string[] = [];
+  let at = resolve(dir);
+  for (;;) {
+    try {
+      statSync(at);
+      break; // exists; mkdir below reports a file in the way as EEXIST / ENOTDIR
+    } catch (e) {
+      if ((e as NodeJS.ErrnoException).code !== 'ENOENT') throw e;
+    }
+    missing.push(at);
+    const up = dirname(at);
+    if (up === at) break;
+    at = up;
+  }
+  if (missing.length === 0) {
+    if (!statSync(at).isDirectory()) mkdirSync(at); // throws EEXIST: a file is in the way
+    return;
+  }
+  for (const d of missing.reverse()) mkdirSync(d);
 }

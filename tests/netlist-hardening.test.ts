@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { fingers, MAX_FINGER_WIDTH, routOf, sampleAt, simulateOp, simulateSweep, stackNetlist } from '../src/spice/index.js';
+import { fingers, MAX_FINGER_WIDTH, routOf, interpolateCurve, simulateOp, simulateSweep, stackNetlist } from '../src/spice/index.js';
 import { TEST_MODELS, libLine, ngspiceStatus } from './fixtures/spice/ngspice.js';
 import { device, stack } from './fixtures/spice/stacks.js';
 
@@ -58,7 +58,7 @@ withNgspice('netlist with ngspice (reference simulator)', () => {
   it('the .op current is the swept current at mid-span', async () => {
     const net = stackNetlist(wide, { ...base, include: libLine('tt') });
     const op = await simulateOp(net);
-    const swept = sampleAt(routOf(await simulateSweep(net)), 1.0);
+    const swept = interpolateCurve(routOf(await simulateSweep(net)), 1.0);
     expect(Math.abs(op.iout.s1 / swept.iout - 1)).toBeLessThan(1e-3);
   });
 });

@@ -3,10 +3,10 @@ import fc from 'fast-check';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { loadKit, sizeSpec, type Kit } from '../src/api.js';
 import { renderSizeBrief, renderSizeText } from '../src/report/size-text.js';
-import { sizeOutputs } from '../src/cli/commands/size-outputs.js';
+import { sizeFiles } from '../src/cli/commands/size-files.js';
 import { toJson } from '../src/cli/io.js';
 import { StackwrightError } from '../src/errors.js';
-import { parseSpec } from '../src/spec/index.js';
+import { parseSpec } from '../src/design/index.js';
 import { ensureDemoTables, REPO } from './helpers/cli.js';
 
 /**
@@ -80,7 +80,7 @@ describe('random specs on the demo kits', () => {
           ['text', renderSizeText(run.result, { color: false })],
           ['brief', renderSizeBrief(run.result, { color: false })],
           ['json', toJson({ ...run.result, fronts: run.fronts })],
-          ...sizeOutputs({ front: 'f.csv', netlist: 'n.cir', report: 'r.html' }, spec, 'random.yaml', text, kits[spec.kit], run),
+          ...sizeFiles({ front: 'f.csv', netlist: 'n.cir', report: 'r.html' }, spec, 'random.yaml', text, kits[spec.kit], run),
         ];
         for (const [what, body] of outputs) {
           const hit = BAD.exec(body);

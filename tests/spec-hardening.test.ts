@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { parseSpec, MAX_ALIAS_COUNT } from '../src/spec/parse.js';
+import { parseSpec, MAX_ALIAS_COUNT } from '../src/design/parse.js';
 
 const stack = (extra: string) => `kit: demo180
 supply: 1.8

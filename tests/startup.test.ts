@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { loadKit, sizeSpec } from '../src/api.js';
-import { parseSpec } from '../src/spec/index.js';
+import { parseSpec } from '../src/design/index.js';
 import { clearTableCache, kitInventory, tablePath } from '../src/table/index.js';
 import { cli, ensureDemoTables, REPO } from './helpers/cli.js';
 

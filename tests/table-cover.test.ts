@@ -2,7 +2,7 @@ import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { kitAccessFromTables } from '../src/solve/kit-tables.js';
 import { sizeDesign } from '../src/solve/size.js';
-import { parseSpec } from '../src/spec/index.js';
+import { parseSpec } from '../src/design/index.js';
 import { loadTable } from '../src/table/index.js';
 import type { DeviceTable } from '../src/table/types.js';
 import { ensureDemoTables, REPO } from './helpers/cli.js';

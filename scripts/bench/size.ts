@@ -1,7 +1,7 @@
 /** (d) Sizing the demo spec: whole process cold against `node -e 0`, and in process cold and warm. */
 import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { parseSpec } from '../../src/spec/index.js';
+import { parseSpec } from '../../src/design/index.js';
 import { sizeDesign } from '../../src/solve/index.js';
 import { loadKit } from '../../src/api.js';
 import { pairedSpawns, sample, showSample } from './paired.js';

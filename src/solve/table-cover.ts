@@ -1,5 +1,5 @@
 import { StackwrightError } from '../errors.js';
-import type { StackSpec } from '../spec/types.js';
+import type { StackSpec } from '../design/types.js';
 import { formatEng } from '../units/index.js';
 import type { Polarity } from '../table/types.js';
 import type { KitAccess } from './kit.js';

@@ -1,7 +1,7 @@
 import { closeSync, fstatSync, openSync, readSync } from 'node:fs';
 import { endianness } from 'node:os';
 import { StackwrightError } from '../errors.js';
-import { AxisLocator } from './axis.js';
+import { AxisLocator } from '../numeric/axis.js';
 import { checkLayout } from './codec.js';
 import { STORED } from './types.js';
 import type { DeviceTable, StoredQuantity } from './types.js';

@@ -3,7 +3,7 @@ import { StackwrightError } from '../../errors.js';
 import { designNetlist } from '../../spice/netlist.js';
 import { decidingResults } from '../../solve/choose.js';
 import type { SizeResult } from '../../solve/types.js';
-import type { StackSpec } from '../../spec/types.js';
+import type { StackSpec } from '../../design/types.js';
 import { writeFilesAtomic } from '../../fsutil.js';
 import { note, out, readText } from '../io.js';
 

@@ -1,7 +1,8 @@
 import type { Command } from 'commander';
 import { loadKit, sizeSpec, decidingResults } from '../../api.js';
-import { parseSpec } from '../../spec/index.js';
+import { parseSpec } from '../../design/index.js';
 import { renderSizeText, renderSizeBrief } from '../../report/size-text.js';
+import { bindingText } from '../../report/verdict.js';
 import { writeFilesAtomic } from '../../fsutil.js';
 import { lengthClamps } from '../../solve/table-cover.js';
 import { lengthClampNotes } from '../../report/notes.js';
@@ -39,7 +40,8 @@ export function registerSize(program: Command): void {
       const notes = lengthClampNotes(lengthClamps(spec.stacks, kit, run.result.corners[0]));
 
       // Build every output first, then write them together: nothing half-written.
-      const files = f.front || f.netlist || f.report ? (await import('./size-outputs.js')).sizeOutputs(f, spec, specPath, source, kit, run, notes) : [];
+      // Charts, report and netlist code load only when one of them is asked for.
+      const files = f.front || f.netlist || f.report ? (await import('./size-files.js')).sizeFiles(f, spec, specPath, source, kit, run, notes) : [];
       writeFilesAtomic(files, { force: f.force });
 
       // The spec's targets ride along so `netlist` can place its .op at each stack's mid-span.
@@ -49,7 +51,7 @@ export function registerSize(program: Command): void {
       for (const [path] of files) note(`wrote ${path}`);
       const failed = decidingResults(run.result).filter((s) => !s.feasible);
       if (failed.length > 0) {
-        note(`infeasible: ${failed.map((s) => `${s.name} (${s.binding ?? 'targets not met'})`).join('; ')}`);
+        note(`infeasible: ${failed.map((s) => `${s.name} (${bindingText(s) || 'targets not met'})`).join('; ')}`);
         process.exitCode = EXIT.infeasible;
       }
     });
