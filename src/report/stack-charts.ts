@@ -2,6 +2,7 @@ import type { StackSpec } from '../design/types.js';
 import type { StackResult } from '../solve/types.js';
 import { lineChart, targetLabel, type ScatterSeries, type TargetLine } from './chart.js';
 import { formatArea, polarityName } from './format.js';
+import { colorAt } from './palette.js';
 import { slug } from './svg.js';
 import type { FrontPoint } from '../solve/pareto.js';
 
@@ -67,16 +68,29 @@ export function stackCharts(stack: StackResult, spec?: StackSpec, front?: FrontP
     color: '#000000',
   };
   const byTopology = new Map<string, FrontPoint[]>();
+  // The chosen design's topology first, so the legend starts with it.
+  byTopology.set(stack.topology, []);
   for (const p of front) {
     const key = p.topology ?? stack.topology;
     byTopology.set(key, [...(byTopology.get(key) ?? []), p]);
   }
-  const groups = [...byTopology.entries()];
+  const groups = [...byTopology.entries()].filter(([, pts]) => pts.length > 0);
   const drawChosen = Number.isFinite(stack.predicted.headroom) && stack.predicted.rout > 0;
+  // One colour per topology; designs that miss a target are drawn hollow in a series of their own.
   const spread = (pick: (p: FrontPoint) => number): ScatterSeries[] =>
-    groups.map(([topology, pts]) => ({ name: `front: ${topology}`, points: pts.map((p) => ({ x: p.headroom, y: pick(p), size: p.area })) }));
+    groups.flatMap(([topology, pts], k) => {
+      const color = colorAt(k);
+      const series = (feasible: boolean): ScatterSeries => ({
+        name: `front: ${topology}${topology === stack.topology ? ' (chosen)' : ''}${feasible ? '' : ', misses a target'}`,
+        points: pts.filter((p) => (p.feasible !== false) === feasible).map((p) => ({ x: p.headroom, y: pick(p), size: p.area }))
+          .filter((q) => Number.isFinite(q.x) && Number.isFinite(q.y) && q.y > 0), // log axes: positive, finite
+        color,
+        hollow: !feasible,
+      });
+      return [series(true), series(false)].filter((s) => s.points.length > 0);
+    });
   const pareto = lineChart({
-    id: `${base}-pareto`, title: `Pareto front: headroom against Rout — ${stack.name}`, subtitle: 'each point a candidate no other beats on headroom, Rout and area',
+    id: `${base}-pareto`, title: `Pareto front: headroom against Rout — ${stack.name}`, subtitle: 'per topology, the candidates no other of it beats on headroom, Rout and area; hollow: misses a target',
     x: { label: 'headroom', unit: 'V' }, y: { label: 'Rout at headroom', unit: 'Ω', scale: 'log' },
     scatter: [...spread((p) => p.rout), ...(drawChosen ? [chosen] : [])],
     targets: spec ? [

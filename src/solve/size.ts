@@ -89,7 +89,7 @@ function noCandidate(ctx: SolveContext, from: { triode: number; narrow: number }
  * Size one current source/sink: for its topology (or each of the four for
  * 'auto') screen the design space cheaply, evaluate the most promising few
  * hundred exactly, refine locally, and check every corner. Returns one result
- * per topology tried and the Pareto front of all exactly evaluated designs.
+ * per topology tried and, per topology, the Pareto front of its exactly evaluated designs.
  *
  * @example sizeStack(spec, kit, { supply: 1.8, corners: ['tt', 'ss'] }).results[0].feasible
  */
@@ -98,13 +98,15 @@ export function sizeStack(spec: StackSpec, kit: KitAccess, opts: { supply: numbe
   const ctx = makeContext(spec, kit, opts.supply, opts.corners);
   const topologies: readonly Topology[] = spec.topology === 'auto' ? topologyNames() : [spec.topology];
   const results: StackResult[] = [];
-  const all: Evaluated[] = [];
+  const front: FrontPoint[] = [];
   for (const t of topologies) {
     const { result, pool } = sizeTopology(ctx, t);
     results.push(result);
-    all.push(...pool);
+    // Each topology's own front: the overall front is contained in their union, and every
+    // topology tried (the chosen one above all) keeps its points even where another dominates it.
+    front.push(...paretoFront(pool.map((e) => frontPoint(ctx, e))));
   }
-  return { results, front: paretoFront(all.map((e) => frontPoint(ctx, e))), evaluated: ctx.count.screened + ctx.count.exact };
+  return { results, front, evaluated: ctx.count.screened + ctx.count.exact };
 }
 
 /**
