@@ -46,3 +46,24 @@ describe('tables with VSB = 0 only', () => {
     expect(Number.isFinite(r.stacks[0].predicted.area)).toBe(true);
   });
 });
+
+describe('numbers in sizing messages carry units', () => {
+  // Engineering notation with units, never raw floats such as 0.000009999999999999999 (common practice in EDA messages).
+  const RAW = /\d\.\d{6,}|e-\d/;
+  it('gm/ID range beyond the table, and headroom/span given to the library directly', async () => {
+    const { loadKit } = await import('../src/api.js');
+    const { sizeStack } = await import('../src/solve/size.js');
+    const kit = loadKit('demo180', { tables: join(REPO, 'tables') });
+    const base = parseSpec('kit: demo180\nsupply: 1.8\nstacks:\n  - name: s\n    device: n\n    topology: cascode\n    current: 10u\n    rout: 1meg\n    headroom: 0.3\n    span: 1.6\n    gmid: [35, 50]\n', 'g.yaml');
+    let msg = '';
+    try {
+      sizeDesign(base, kit);
+    } catch (e) {
+      msg = (e as Error).message;
+    }
+    expect(msg).toMatch(/gm\/ID range 35 \/V\.\.50 \/V is beyond what the table reaches \(up to [\d.]+ \/V\)$/);
+    expect(msg).not.toMatch(RAW);
+    const stack = { ...base.stacks[0], gmid: undefined, headroom: 0.1 + 0.2 + 1.4, span: 1.6 };
+    expect(() => sizeStack(stack, kit, { supply: 1.8, corners: ['tt'] })).toThrow(/headroom 1\.7 V must be below span 1\.6 V$/);
+  });
+});
