@@ -15,7 +15,11 @@ import { msSince } from './bench/stats.js';
 const log = (s: string) => process.stderr.write(s + '\n');
 
 /** A section that throws becomes one ERROR row, so the others still run. */
+/** Sections named on the command line (by letter, e.g. `b c d`), or all. */
+const only = process.argv.slice(2);
+
 function section(name: string, run: () => BenchRow[]): BenchRow[] {
+  if (only.length > 0 && !only.includes(name.split(' ')[0])) return [];
   try {
     return run();
   } catch (e) {
