@@ -12,7 +12,10 @@ export function midSpan(t: { headroom: number; span: number }): number {
   return 0.5 * (t.headroom + t.span);
 }
 
-/** Slack on table edges, V: grids are built from decimal text, so allow rounding there. */
+/**
+ * Slack on table edges, as a share of the axis span: grids are built from decimal
+ * text, so rounding there is not "outside". Applied by numeric/axis.ts `edgeTolerance`.
+ */
 export const TABLE_EDGE = 1e-9;
 
 /** Relative tolerance for comparing lengths, widths and areas built by arithmetic. */
