@@ -24,6 +24,8 @@ function staticImports(entry: string): { files: Set<string>; packages: Set<strin
       if (spec.startsWith('.')) visit(resolve(dirname(file), spec.replace(/\.js$/, '.ts')));
       else if (!spec.startsWith('node:')) packages.add(spec.split('/')[0]);
     }
+    // A require() at module level (createRequire) loads at import time too; one inside a function does not.
+    for (const m of text.matchAll(/^\S.*\(['"]([a-z@][^'"]*)['"]\)/gm)) if (/require/i.test(m[0])) packages.add(m[1].split('/')[0]);
   };
   visit(join(REPO, entry));
   return { files, packages };
