@@ -2,6 +2,7 @@ import { StackwrightError } from '../errors.js';
 import type { StackDevice, StackOp } from './types.js';
 import { solveOperatingPoint } from './operating.js';
 import { routAt } from './rout.js';
+import { formatEng } from '../units/index.js';
 
 /** One point of the I–V curve; `op` is null where the table cannot cover it. */
 export interface CurveSample {
@@ -26,7 +27,7 @@ export function stackCurve(
   opts: { intervals?: number; anchor?: StackOp; lowest?: (s: CurveSample) => boolean } = {},
 ): CurveSample[] {
   const n = Math.max(Math.round(opts.intervals ?? 64), 2);
-  if (!(span > 0)) throw new StackwrightError(`span must be positive, got ${span}`, { kind: 'input' });
+  if (!(span > 0)) throw new StackwrightError(`span must be positive, got ${formatEng(span, 'V', 4)}`, { kind: 'input' });
   const out: CurveSample[] = new Array(n + 1);
   const vAt = (j: number) => (span * j) / n;
   const start = opts.anchor ? Math.min(n, Math.max(0, Math.round((opts.anchor.v / span) * n))) : n;
