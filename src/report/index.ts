@@ -17,3 +17,6 @@ export { formatArea, formatMicrons, formatPercent } from './format.js';
 export type { DesignPoint, LengthCurve, DesignCurves, FrontPoint, StackFront, HtmlReportInput } from './types.js';
 export type { Grid } from './rows.js';
 export { renderPortText } from './port-text.js';
+export { renderConfirmText } from './confirm-text.js';
+export { confirmVerdict, confirmGrid, correctedGrid, missWords } from './confirm-rows.js';
+export type { Confirmation } from '../confirm/types.js';

@@ -2,6 +2,7 @@ import type { DesignSpec } from '../spec/types.js';
 import type { Polarity } from '../table/types.js';
 import type { SizeResult } from '../solve/types.js';
 import type { Topology } from '../spec/types.js';
+import type { Confirmation } from '../confirm/types.js';
 
 /** One point of a design curve at fixed L, VDS, VSB (SI; ft NaN/absent without capacitances). */
 export interface DesignPoint {
@@ -57,4 +58,6 @@ export interface HtmlReportInput {
   generatedAt?: string;
   /** Extra lines for the header, e.g. "kit demo180: invented demonstration data, not a real process". */
   notes?: string[];
+  /** With `size --spice`: each chosen design confirmed in simulation. */
+  confirmations?: Confirmation[];
 }

@@ -12,8 +12,10 @@ import type { Polarity } from '../../table/types.js';
 import type { FrontPoint } from '../../solve/pareto.js';
 import type { Kit } from '../../api.js';
 import { note, out, packageVersion, readText, toJson, useColor } from '../io.js';
+import { checkSpiceFlags, confirmRun, spiceOptions, type SpiceFlags } from './size-spice.js';
+import { renderConfirmText, confirmVerdict, type Confirmation } from '../../report/index.js';
 
-interface SizeFlags {
+interface SizeFlags extends SpiceFlags {
   tables?: string;
   json?: boolean;
   brief?: boolean;
@@ -56,7 +58,7 @@ export function curvesFor(kit: Kit, run: SizeRun): DesignCurves[] {
   });
 }
 
-export function reportHtml(spec: DesignSpec, source: string, kit: Kit, run: SizeRun): string {
+export function reportHtml(spec: DesignSpec, source: string, kit: Kit, run: SizeRun, confirmations?: Confirmation[]): string {
   const note = kit.table(run.result.stacks[0]?.device ?? 'n', run.result.corners[0]).meta.note;
   return htmlReport({
     spec: { parsed: spec, source },
@@ -65,11 +67,12 @@ export function reportHtml(spec: DesignSpec, source: string, kit: Kit, run: Size
     designCurves: curvesFor(kit, run),
     generatedBy: `stackwright ${packageVersion()}`,
     notes: note ? [`kit ${kit.kit}: ${note}`] : [],
+    confirmations,
   });
 }
 
 export function registerSize(program: Command): void {
-  program
+  const cmd = program
     .command('size')
     .description('size every current source/sink of a spec so Rout and headroom are met at once')
     .argument('<spec>', 'design spec (YAML or JSON)')
@@ -79,13 +82,16 @@ export function registerSize(program: Command): void {
     .option('--front <file.csv>', 'write the Pareto front (headroom, Rout, area) as CSV, and an SVG chart per stack beside it')
     .option('--netlist <file.cir>', 'write a SPICE3 netlist of the sized stacks with their bias')
     .option('--report <file.html>', 'write a self-contained HTML report')
-    .option('--force', 'overwrite existing output files')
-    .addHelpText('after', '\nExit status: 0 every stack feasible, 3 a stack infeasible, 2 bad input.\nExample:\n  stackwright size demo-tables/specs/marsh-wren.yaml --report report.html\n')
-    .action((specPath: string, f: SizeFlags) => {
+    .option('--force', 'overwrite existing output files');
+  spiceOptions(cmd)
+    .addHelpText('after', '\nExit status: 0 every stack feasible (and confirmed with --spice), 3 a stack infeasible (or not confirmed in simulation), 2 bad input.\nExample:\n  stackwright size demo-tables/specs/marsh-wren.yaml --report report.html\n  stackwright size demo-tables/specs/marsh-wren-spice.yaml --spice --include demo-tables/reed180/reed180.lib --model-n nch_reed --model-p pch_reed\n')
+    .action(async (specPath: string, f: SizeFlags) => {
+      checkSpiceFlags(f, (flag) => cmd.getOptionValueSource(flag) === 'cli');
       const source = readText(specPath, 'spec file');
       const spec = parseSpec(source, specPath);
       const kit = loadKit(spec.kit, { tables: f.tables });
       const run = sizeSpec(spec, kit);
+      const confirmations = f.spice ? await confirmRun(spec, run.result, kit, f) : undefined;
 
       // Build every output first, then write them together: nothing half-written.
       const files: Array<[string, string]> = [];
@@ -104,15 +110,23 @@ export function registerSize(program: Command): void {
         const chosen = { ...run.result, stacks: decidingResults(run.result) };
         files.push([f.netlist, designNetlist(chosen, { supply: spec.supply, specs: spec.stacks, title: `stackwright ${basename(specPath)}` })]);
       }
-      if (f.report) files.push([f.report, reportHtml(spec, source, kit, run)]);
+      if (f.report) files.push([f.report, reportHtml(spec, source, kit, run, confirmations)]);
       writeFilesAtomic(files, { force: f.force });
 
       if (f.json) out(toJson({ ...run.result, fronts: run.fronts }));
-      else out((f.brief ? renderSizeBrief : renderSizeText)(run.result, { color: useColor() }));
+      else {
+        out((f.brief ? renderSizeBrief : renderSizeText)(run.result, { color: useColor() }));
+        if (confirmations) out(renderConfirmText(confirmations, run.result, spec, { color: useColor() }));
+      }
       for (const [path] of files) note(`wrote ${path}`);
       const failed = decidingResults(run.result).filter((s) => !s.feasible);
       if (failed.length > 0) {
         note(`infeasible: ${failed.map((s) => `${s.name} (${s.binding ?? 'targets not met'})`).join('; ')}`);
+        process.exitCode = EXIT.infeasible;
+      }
+      const missed = (confirmations ?? []).filter((c) => !c.confirmed);
+      if (missed.length > 0) {
+        note(`not confirmed in simulation: ${missed.map((c) => `${c.name} (${confirmVerdict(c)})`).join('; ')}`);
         process.exitCode = EXIT.infeasible;
       }
     });

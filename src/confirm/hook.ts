@@ -1,0 +1,36 @@
+import type { BatchCircuit, BatchColumns } from './batch.js';
+import type { Confirmation, Miss, Simulated, SimulatedFigures } from './types.js';
+
+/**
+ * One design the confirm loop simulates, checks and corrects. Stacks implement
+ * it (stack-item.ts); a gain stage plugs in the same way with its own circuit
+ * (input sweep mapped from the shared sweep node), measurement and correction.
+ */
+export interface ConfirmItem<F extends SimulatedFigures = SimulatedFigures> {
+  name: string;
+  /** Highest value of the shared sweep the circuit needs, V. */
+  sweepTop: number;
+  /** The current design as one independent circuit of a batched deck. */
+  circuit(tag: string): BatchCircuit;
+  /** Figures from this circuit's columns at one corner. */
+  measure(data: BatchColumns, corner: string): F;
+  /** Targets missed at one corner. */
+  misses(f: F): Miss[];
+  /** Change the design for another round after `figures` missed; false when no step can help. */
+  correct(figures: F[]): boolean;
+  /** Shrink a confirmed design with margin to spare; false when there is nothing to take back. */
+  shrink(figures: F[]): boolean;
+  /** Go back to the last design simulation confirmed (a shrink that failed). */
+  revert(): void;
+  /** Mark the current design as confirmed by `figures`. */
+  keep(figures: F[]): void;
+  /** The outcome after the last round. */
+  outcome(last: F[], misses: Miss[], rounds: number, confirmed: boolean, tightened: boolean): Confirmation;
+}
+
+/** Nominal figures on top, every corner below (nominal first). */
+export function simulatedOf<F extends SimulatedFigures>(figures: F[]): Simulated {
+  const strip = ({ corner, iout, rout, routAtTarget, headroom, curve }: SimulatedFigures): SimulatedFigures => ({ corner, iout, rout, routAtTarget, headroom, curve });
+  const all = figures.map(strip);
+  return { ...all[0], corners: all };
+}
