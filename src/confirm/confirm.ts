@@ -56,14 +56,20 @@ export async function confirmItems<F extends SimulatedFigures>(items: ConfirmIte
     if (pending.length === 0) break;
     const data = await simulateRound(pending, models, round, opts);
     for (const s of pending) {
-      const figures = opts.corners.map((c, i) => s.item.measure(data[i].get(s.tag)!, c));
-      const misses = figures.flatMap((f) => s.item.misses(f));
+      const results = Array.from({ length: s.item.variants() }, (_, k) => {
+        const figures = opts.corners.map((c, i) => s.item.measure(data[i].get(variantTag(s.tag, k))!, c));
+        return { figures, misses: figures.flatMap((f) => s.item.misses(f)) };
+      });
+      const k = results.length === 1 ? 0 : s.item.pick(results);
+      s.item.select(k);
       s.rounds++;
-      advance(s, figures, misses);
+      advance(s, results[k].figures, results[k].misses);
     }
   }
   return states.map((s) => s.item.outcome(s.last, s.misses, s.rounds, s.confirmed, s.tightened));
 }
+
+const variantTag = (tag: string, k: number) => `${tag}v${k}`;
 
 function advance<F extends SimulatedFigures>(s: State<F>, figures: F[], misses: Miss[]): void {
   if (s.phase === 'tighten') {
@@ -81,7 +87,7 @@ function advance<F extends SimulatedFigures>(s: State<F>, figures: F[], misses: 
     s.last = figures;
     s.misses = misses;
     if (misses.length > 0) {
-      s.phase = s.rounds < MAX_ROUNDS && s.item.correct(figures) ? 'correct' : 'done';
+      s.phase = s.rounds < MAX_ROUNDS && s.item.correct(figures, misses) ? 'correct' : 'done';
       return;
     }
     s.confirmed = true;
@@ -97,8 +103,8 @@ async function simulateRound<F extends SimulatedFigures>(
   pending: State<F>[], models: string[], round: number, opts: ConfirmOptions,
 ): Promise<Map<string, BatchColumns>[]> {
   const top = Math.min(opts.supply, Math.max(...pending.map((s) => s.item.sweepTop)) + 2 * SWEEP_STEP);
-  const circuits = pending.map((s) => s.item.circuit(s.tag));
-  const report = (done: number) => opts.onProgress?.({ round, runs: models.length, done, designs: pending.length });
+  const circuits = pending.flatMap((s) => Array.from({ length: s.item.variants() }, (_, k) => s.item.circuit(variantTag(s.tag, k), k)));
+  const report = (done: number) => opts.onProgress?.({ round, runs: models.length, done, designs: circuits.length });
   report(0);
   const out: Map<string, BatchColumns>[] = [];
   // One corner after another: ngspice runs single-threaded and the machine may be shared.

@@ -3,7 +3,7 @@ import type { StackResult } from '../solve/types.js';
 import type { KitAccess } from '../solve/kit.js';
 import { turn, turnAll } from './knobs.js';
 import { tableFigures, type TableFigures } from './table-model.js';
-import type { SimulatedFigures } from './types.js';
+import type { Miss, SimulatedFigures } from './types.js';
 
 /** What a correction step needs besides the design: where it is evaluated and what simulation showed there. */
 export interface StepInput {
@@ -19,58 +19,94 @@ export interface StepInput {
 export const HEADROOM_AIM = 0.005;
 /** Finite-difference step of the knobs (ln of the width factor). */
 const DELTA = 0.05;
-/** Largest move of a knob in one round (ln of the width factor). */
-const MAX_MOVE = { current: 0.3, headroom: 0.7 } as const;
+/** Largest move of the current knob in one round (ln of the width factor). */
+const MAX_CURRENT = 0.3;
+/** Headroom-knob probes around the Newton step, in units of its length. */
+const PROBES = [-2, -1, -0.5, 0.5, 1, 2];
 
-const clamp = (x: number, m: number) => Math.max(-m, Math.min(m, x));
+const clamp = (x: number, lo: number, hi: number) => Math.max(lo, Math.min(hi, x));
 
 /**
  * The tables evaluated against a Rout target scaled by what simulation showed
  * at this corner, so table headroom and simulated headroom see the same Rout
  * margin (the tables' Rout may be a few percent off).
  */
-function mapped(inp: StepInput, f: SimulatedFigures): { spec: StackSpec; at: (d: StackResult) => TableFigures | null } | null {
+function mappedTable(inp: StepInput, f: SimulatedFigures): ((d: StackResult) => TableFigures | null) | null {
   const t0 = tableFigures(inp.design, inp.spec, inp.kit, f.corner, inp.supply);
   if (!t0) return null;
   const ratio = t0.rout > 0 && Number.isFinite(t0.rout) && f.rout > 0 && Number.isFinite(f.rout) ? t0.rout / f.rout : 1;
-  const spec = { ...inp.spec, rout: inp.spec.rout * Math.min(2, Math.max(0.5, ratio)) };
-  return { spec, at: (d) => tableFigures(d, spec, inp.kit, f.corner, inp.supply) };
+  const spec = { ...inp.spec, rout: inp.spec.rout * clamp(ratio, 0.5, 2) };
+  return (d) => tableFigures(d, spec, inp.kit, f.corner, inp.supply);
+}
+
+/** Table sensitivities at one corner: d(ln iout, headroom)/d(current knob, headroom knob); null entries where the tables cannot tell. */
+function jacobian(inp: StepInput, f: SimulatedFigures): { j11: number; j12: number; j21: number; j22: number } | null {
+  const at = mappedTable(inp, f);
+  const t0 = at?.(inp.design);
+  const ta = at?.(turn(inp.design, 'current', DELTA));
+  const tb = at?.(turn(inp.design, 'headroom', DELTA));
+  if (!t0 || !ta || !tb || ![t0.headroom, ta.headroom, tb.headroom].every(Number.isFinite)) return null;
+  return {
+    j11: Math.log(ta.iout / t0.iout) / DELTA,
+    j12: Math.log(tb.iout / t0.iout) / DELTA,
+    j21: (ta.headroom - t0.headroom) / DELTA,
+    j22: (tb.headroom - t0.headroom) / DELTA,
+  };
 }
 
 /**
- * One correction of a design that simulation showed missing a target, by a
- * Newton step whose residuals come from simulation and whose Jacobian comes
- * from the tables (finite differences of the table evaluation of the same
- * design): the current is centred on its target over the corners with the
- * output widths, and the worst corner's headroom is brought to just below its
- * target with the top bias diode. Null when no step can help (Rout never
- * reaches its target in simulation, or the tables show no handle on headroom).
+ * Corrections of a design that simulation showed missing a target. The
+ * residuals come from simulation, the Jacobian from the tables (finite
+ * differences of the table evaluation of the same design): the current is
+ * centred on its target over the corners with the output widths (at fixed
+ * gates the current scales with W), and the worst corner's headroom is moved
+ * to just below its target with the top bias diode, i.e. the lower devices'
+ * VDS setpoint. Headroom is V-shaped in the setpoint (too low: the lower
+ * device's Rout knee; too high: the top device's saturation), and the
+ * simulated optimum need not sit where the tables put it, so beside the
+ * Newton step the same deck carries probes either side of it; simulation
+ * picks. Empty when nothing is missing but a converged current.
  */
-export function correctionStep(inp: StepInput): StackResult | null {
+export function correctionCandidates(inp: StepInput, misses: readonly Miss[]): StackResult[] {
   const { spec, figures } = inp;
   const logs = figures.map((f) => Math.log(f.iout / spec.current));
-  const di = -(Math.max(...logs) + Math.min(...logs)) / 2;
+  const di = clamp(-(Math.max(...logs) + Math.min(...logs)) / 2, -MAX_CURRENT, MAX_CURRENT);
+  const headroomMissed = misses.some((m) => m.target !== 'iout');
+  if (!headroomMissed) return Math.abs(di) > 1e-4 ? [turn(inp.design, 'current', di)] : [];
   const worst = figures.reduce((a, b) => (b.headroom > a.headroom ? b : a));
-  const missing = figures.some((f) => !(f.headroom <= spec.headroom) || !(f.routAtTarget >= spec.rout));
-  const currentOnly = () => (Math.abs(di) > 1e-4 ? turn(inp.design, 'current', clamp(di, MAX_MOVE.current)) : null);
-  if (!missing) return currentOnly();
-  if (!Number.isFinite(worst.headroom)) return null;
-  const dh = spec.headroom - HEADROOM_AIM - worst.headroom;
-  const m = mapped(inp, worst);
-  if (!m) return null;
-  const t0 = m.at(inp.design);
-  const ta = m.at(turn(inp.design, 'current', DELTA));
-  const tb = m.at(turn(inp.design, 'headroom', DELTA));
-  if (!t0 || !ta || !tb || ![t0.headroom, ta.headroom, tb.headroom].every(Number.isFinite)) return null;
-  const j11 = Math.log(ta.iout / t0.iout) / DELTA;
-  const j12 = Math.log(tb.iout / t0.iout) / DELTA;
-  const j21 = (ta.headroom - t0.headroom) / DELTA;
-  const j22 = (tb.headroom - t0.headroom) / DELTA;
-  // A wider top diode must lower the headroom, or the tables give no handle on it here.
-  if (!(j22 < -1e-3)) return null;
-  const det = j11 * j22 - j12 * j21;
-  if (!(Math.abs(det) > 1e-9)) return null;
-  const xa = (di * j22 - j12 * dh) / det;
-  const xb = (j11 * dh - j21 * di) / det;
-  return turnAll(inp.design, { current: clamp(xa, MAX_MOVE.current), headroom: clamp(xb, MAX_MOVE.headroom) });
+  const j = jacobian(inp, worst);
+  const dh = Number.isFinite(worst.headroom) ? spec.headroom - HEADROOM_AIM - worst.headroom : -0.05;
+  const moves: number[] = [];
+  let step = 0.15;
+  if (j && Math.abs(j.j22) > 1e-3) {
+    const det = j.j11 * j.j22 - j.j12 * j.j21;
+    if (Math.abs(det) > 1e-9) {
+      const newton = clamp((j.j11 * dh - j.j21 * di) / det, -0.7, 0.7);
+      moves.push(newton);
+      step = clamp(Math.abs(newton), 0.05, 0.35);
+    }
+  }
+  moves.push(...PROBES.map((p) => p * step));
+  // Keep the current where it belongs while the setpoint moves: the tables say how much the headroom knob shifts it.
+  const j12 = j?.j12 ?? 0;
+  const j11 = j && Math.abs(j.j11) > 0.2 ? j.j11 : 1;
+  return moves.map((xb) => turnAll(inp.design, { current: clamp((di - j12 * xb) / j11, -MAX_CURRENT, MAX_CURRENT), headroom: xb }));
+}
+
+/**
+ * Of designs simulated side by side, the one to continue with: one meeting
+ * every target first (the one with most headroom to spare), else the nearest
+ * (headroom excess over target, in V, plus the current error beyond its window).
+ */
+export function pickVariant(spec: StackSpec, variants: ReadonlyArray<{ figures: readonly SimulatedFigures[]; misses: readonly Miss[] }>): number {
+  const score = (v: (typeof variants)[number]): number => {
+    const excess = Math.max(...v.figures.map((f) => (Number.isFinite(f.headroom) ? f.headroom - spec.headroom : 10 + Math.log10(spec.rout / Math.max(f.routAtTarget, 1)))));
+    const current = Math.max(...v.figures.map((f) => Math.abs(f.iout / spec.current - 1)));
+    return v.misses.length === 0 ? excess - 100 : Math.max(0, excess) + Math.max(0, current - 0.01);
+  };
+  let best = 0;
+  variants.forEach((v, k) => {
+    if (score(v) < score(variants[best])) best = k;
+  });
+  return best;
 }

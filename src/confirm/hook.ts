@@ -10,15 +10,21 @@ export interface ConfirmItem<F extends SimulatedFigures = SimulatedFigures> {
   name: string;
   /** Highest value of the shared sweep the circuit needs, V. */
   sweepTop: number;
-  /** The current design as one independent circuit of a batched deck. */
-  circuit(tag: string): BatchCircuit;
+  /** Designs to simulate this round side by side (1, or a correction's variants). */
+  variants(): number;
+  /** Variant `k` as one independent circuit of a batched deck. */
+  circuit(tag: string, k: number): BatchCircuit;
+  /** Of the variants simulated, the one to continue with. */
+  pick(results: ReadonlyArray<{ figures: F[]; misses: Miss[] }>): number;
+  /** Continue with variant `k`. */
+  select(k: number): void;
   /** Figures from this circuit's columns at one corner. */
   measure(data: BatchColumns, corner: string): F;
   /** Targets missed at one corner. */
   misses(f: F): Miss[];
-  /** Change the design for another round after `figures` missed; false when no step can help. */
-  correct(figures: F[]): boolean;
-  /** Shrink a confirmed design with margin to spare; false when there is nothing to take back. */
+  /** Propose variants for another round after `figures` missed; false when no step can help. */
+  correct(figures: F[], misses: Miss[]): boolean;
+  /** Propose a smaller variant of a confirmed design with margin to spare; false when there is nothing to take back. */
   shrink(figures: F[]): boolean;
   /** Go back to the last design simulation confirmed (a shrink that failed). */
   revert(): void;

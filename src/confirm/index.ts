@@ -5,7 +5,7 @@ export { batchDeck, runBatch, type BatchCircuit, type BatchDeck, type BatchColum
 export { cornerModels, librarySections, type ModelSource } from './sections.js';
 export { stackFigures, CURVE_POINTS } from './measure.js';
 export { stackMisses, CURRENT_TOLERANCE } from './check.js';
-export { correctionStep, HEADROOM_AIM } from './correct.js';
+export { correctionCandidates, pickVariant, HEADROOM_AIM } from './correct.js';
 export { shrinkStep, TIGHTEN_MARGIN } from './tighten.js';
 export type { ConfirmItem } from './hook.js';
 export type { Confirmation, CorrectedDesign, CorrectedDevice, Miss, MissTarget, Simulated, SimulatedFigures, SimulatedPoint } from './types.js';

@@ -4,7 +4,7 @@ import type { KitAccess } from '../solve/kit.js';
 import { stackLines } from '../spice/netlist.js';
 import type { BatchCircuit, BatchColumns } from './batch.js';
 import { stackMisses } from './check.js';
-import { correctionStep } from './correct.js';
+import { correctionCandidates, pickVariant } from './correct.js';
 import type { ConfirmItem } from './hook.js';
 import { simulatedOf } from './hook.js';
 import { stackFigures } from './measure.js';
@@ -26,14 +26,16 @@ export interface StackContext {
 export function stackItem(result: StackResult, spec: StackSpec, ctx: StackContext): ConfirmItem<Figures> {
   const original = result;
   let design = result;
+  let variants: StackResult[] = [result];
   let confirmed: StackResult | null = null;
   let confirmedFigures: Figures[] | null = null;
   const step = (figures: Figures[]) => ({ design, spec, kit: ctx.kit, supply: ctx.supply, figures });
   return {
     name: result.name,
     sweepTop: spec.span,
-    circuit(tag: string): BatchCircuit {
-      const lines = stackLines(design, tag, { supply: ctx.supply, bias: 'diodes' }, ctx.models, spec);
+    variants: () => variants.length,
+    circuit(tag: string, k: number): BatchCircuit {
+      const lines = stackLines(variants[k], tag, { supply: ctx.supply, bias: 'diodes' }, ctx.models, spec);
       return { tag, lines, vectors: [`i(vm_${tag})`] };
     },
     measure(data: BatchColumns, corner: string): Figures {
@@ -41,20 +43,26 @@ export function stackItem(result: StackResult, spec: StackSpec, ctx: StackContex
       return stackFigures(points, spec, corner);
     },
     misses: (f) => stackMisses(spec, f),
-    correct(figures) {
-      const next = correctionStep(step(figures));
-      if (!next) return false;
-      design = next;
+    pick: (results) => pickVariant(spec, results),
+    select(k) {
+      design = variants[k];
+      variants = [design];
+    },
+    correct(figures, misses) {
+      const next = correctionCandidates(step(figures), misses);
+      if (next.length === 0) return false;
+      variants = next;
       return true;
     },
     shrink(figures) {
       const next = shrinkStep(step(figures));
       if (!next) return false;
-      design = next;
+      variants = [next];
       return true;
     },
     revert() {
       if (confirmed) design = confirmed;
+      variants = [design];
     },
     keep(figures) {
       confirmed = design;

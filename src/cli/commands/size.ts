@@ -13,7 +13,7 @@ import type { FrontPoint } from '../../solve/pareto.js';
 import type { Kit } from '../../api.js';
 import { note, out, packageVersion, readText, toJson, useColor } from '../io.js';
 import { checkSpiceFlags, confirmRun, spiceOptions, type SpiceFlags } from './size-spice.js';
-import { renderConfirmText, confirmVerdict, type Confirmation } from '../../report/index.js';
+import { renderConfirmText, missWords, type Confirmation } from '../../report/index.js';
 
 interface SizeFlags extends SpiceFlags {
   tables?: string;
@@ -126,7 +126,7 @@ export function registerSize(program: Command): void {
       }
       const missed = (confirmations ?? []).filter((c) => !c.confirmed);
       if (missed.length > 0) {
-        note(`not confirmed in simulation: ${missed.map((c) => `${c.name} (${confirmVerdict(c)})`).join('; ')}`);
+        note(`not confirmed in simulation: ${missed.map((c) => `${c.name} (${c.misses.map(missWords).join('; ') || 'no design step helps'})`).join('; ')}`);
         process.exitCode = EXIT.infeasible;
       }
     });
