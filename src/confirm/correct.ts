@@ -23,6 +23,8 @@ const DELTA = 0.05;
 const MAX_CURRENT = 0.3;
 /** Headroom-knob probes around the Newton step, in units of its length. */
 const PROBES = [-2, -1, -0.5, 0.5, 1, 2];
+/** Top-device widenings tried with each setpoint (ln of the width factor): Rout when the setpoint alone cannot reach it. */
+const TOP_MOVES = [0, 0.35, 0.7];
 
 const clamp = (x: number, lo: number, hi: number) => Math.max(lo, Math.min(hi, x));
 
@@ -64,7 +66,8 @@ function jacobian(inp: StepInput, f: SimulatedFigures): { j11: number; j12: numb
  * VDS setpoint. Headroom is V-shaped in the setpoint (too low: the lower
  * device's Rout knee; too high: the top device's saturation), and the
  * simulated optimum need not sit where the tables put it, so beside the
- * Newton step the same deck carries probes either side of it; simulation
+ * Newton step the same deck carries probes either side of it, each also with
+ * a wider top device (more Rout at every setpoint, for more area); simulation
  * picks. Empty when nothing is missing but a converged current.
  */
 export function correctionCandidates(inp: StepInput, misses: readonly Miss[]): StackResult[] {
@@ -90,23 +93,32 @@ export function correctionCandidates(inp: StepInput, misses: readonly Miss[]): S
   // Keep the current where it belongs while the setpoint moves: the tables say how much the headroom knob shifts it.
   const j12 = j?.j12 ?? 0;
   const j11 = j && Math.abs(j.j11) > 0.2 ? j.j11 : 1;
-  return moves.map((xb) => turnAll(inp.design, { current: clamp((di - j12 * xb) / j11, -MAX_CURRENT, MAX_CURRENT), headroom: xb }));
+  const tops = inp.design.devices.length > 1 ? TOP_MOVES : [0];
+  return tops.flatMap((top) =>
+    moves.map((xb) => turnAll(inp.design, { current: clamp((di - j12 * xb) / j11, -MAX_CURRENT, MAX_CURRENT), headroom: xb, top })),
+  );
 }
 
 /**
- * Of designs simulated side by side, the one to continue with: one meeting
- * every target first (the one with most headroom to spare), else the nearest
- * (headroom excess over target, in V, plus the current error beyond its window).
+ * Of designs simulated side by side, the one to continue with: among those
+ * meeting every target the smallest (output-stack area, 1 % bins), then the
+ * one with most headroom to spare; when none does, the nearest (headroom
+ * excess over target in V plus the current error beyond its window).
  */
-export function pickVariant(spec: StackSpec, variants: ReadonlyArray<{ figures: readonly SimulatedFigures[]; misses: readonly Miss[] }>): number {
-  const score = (v: (typeof variants)[number]): number => {
+export function pickVariant(
+  spec: StackSpec,
+  variants: ReadonlyArray<{ figures: readonly SimulatedFigures[]; misses: readonly Miss[]; area: number }>,
+): number {
+  const score = (v: (typeof variants)[number]): [number, number, number] => {
     const excess = Math.max(...v.figures.map((f) => (Number.isFinite(f.headroom) ? f.headroom - spec.headroom : 10 + Math.log10(spec.rout / Math.max(f.routAtTarget, 1)))));
     const current = Math.max(...v.figures.map((f) => Math.abs(f.iout / spec.current - 1)));
-    return v.misses.length === 0 ? excess - 100 : Math.max(0, excess) + Math.max(0, current - 0.01);
+    if (v.misses.length === 0) return [0, Math.round(Math.log(v.area) / 0.01), excess];
+    return [1, 0, Math.max(0, excess) + Math.max(0, current - 0.01)];
   };
+  const less = (a: number[], b: number[]) => a[0] !== b[0] ? a[0] < b[0] : a[1] !== b[1] ? a[1] < b[1] : a[2] < b[2];
   let best = 0;
   variants.forEach((v, k) => {
-    if (score(v) < score(variants[best])) best = k;
+    if (less(score(v), score(variants[best]))) best = k;
   });
   return best;
 }

@@ -43,7 +43,7 @@ export function stackItem(result: StackResult, spec: StackSpec, ctx: StackContex
       return stackFigures(points, spec, corner);
     },
     misses: (f) => stackMisses(spec, f),
-    pick: (results) => pickVariant(spec, results),
+    pick: (results) => pickVariant(spec, results.map((r, k) => ({ ...r, area: areaOf(variants[k]) }))),
     select(k) {
       design = variants[k];
       variants = [design];
@@ -78,6 +78,10 @@ export function stackItem(result: StackResult, spec: StackSpec, ctx: StackContex
   };
 }
 
+function areaOf(d: StackResult): number {
+  return d.devices.reduce((a, x) => a + x.w * x.l, 0);
+}
+
 /** The corrected design as drawn, with its gates and table figures at the nominal corner. */
 function correctedOf(design: StackResult, spec: StackSpec, ctx: StackContext): CorrectedDesign {
   const t = tableFigures(design, spec, ctx.kit, ctx.nominal, ctx.supply);
@@ -88,7 +92,7 @@ function correctedOf(design: StackResult, spec: StackSpec, ctx: StackContext): C
   return {
     devices: design.devices.map((d) => ({ role: d.role, w: d.w, l: d.l, gate: gateOf(d.role, d.gate) })),
     bias: design.bias.map((b, k) => ({ ...b, voltage: t ? t.gates[k] : b.voltage })),
-    area: design.devices.reduce((a, d) => a + d.w * d.l, 0),
+    area: areaOf(design),
     predicted: t ? { iout: t.iout, rout: t.rout, headroom: t.headroom } : { iout: NaN, rout: NaN, headroom: Infinity },
   };
 }
