@@ -1,4 +1,5 @@
 import type { StackSpec } from '../spec/types.js';
+import { midSpan } from '../spice/measure.js';
 import type { Miss, SimulatedFigures } from './types.js';
 
 /** Allowed relative deviation of the simulated current from the target (the README's 1 % window). */
@@ -10,15 +11,14 @@ export const CURRENT_TOLERANCE = 0.01;
  * Rout when the targets never hold up to span (achieved: the lowest Rout over
  * [headroom target, span] and where it is).
  */
-export function stackMisses(spec: Pick<StackSpec, 'current' | 'rout' | 'headroom'>, f: SimulatedFigures & { routAt?: number }): Miss[] {
+export function stackMisses(spec: Pick<StackSpec, 'current' | 'rout' | 'headroom' | 'span'>, f: SimulatedFigures & { routAt?: number }): Miss[] {
   const out: Miss[] = [];
-  if (!(Math.abs(f.iout / spec.current - 1) <= CURRENT_TOLERANCE)) out.push({ target: 'iout', required: spec.current, achieved: f.iout, corner: f.corner });
+  const miss = (target: Miss['target'], required: number, achieved: number, at: number | null): Miss => ({
+    target, required, achieved: Number.isFinite(achieved) ? achieved : null, at, device: null, corner: f.corner,
+  });
+  if (!(Math.abs(f.iout / spec.current - 1) <= CURRENT_TOLERANCE)) out.push(miss('iout', spec.current, f.iout, midSpan(spec)));
   if (Number.isFinite(f.headroom) || f.routAtTarget >= spec.rout) {
-    if (!(f.headroom <= spec.headroom)) out.push({ target: 'headroom', required: spec.headroom, achieved: f.headroom, corner: f.corner });
-  } else {
-    const m: Miss = { target: 'rout', required: spec.rout, achieved: f.routAtTarget, corner: f.corner };
-    if (f.routAt !== undefined) m.at = f.routAt;
-    out.push(m);
-  }
+    if (!(f.headroom <= spec.headroom)) out.push(miss('headroom', spec.headroom, f.headroom, null));
+  } else out.push(miss('rout', spec.rout, f.routAtTarget, f.routAt ?? null));
   return out;
 }

@@ -30,16 +30,21 @@ export interface Simulated extends SimulatedFigures {
 
 export type MissTarget = 'iout' | 'rout' | 'headroom';
 
-/** A target simulation does not meet: data, sentences come from src/report. */
+/**
+ * A target simulation does not meet, shaped like the solver's verdict objects:
+ * data in SI units, null where a value does not apply or is never reached;
+ * sentences come from src/report.
+ */
 export interface Miss {
   target: MissTarget;
   /** The spec's value (SI). */
   required: number;
-  /** What simulation shows (SI; Infinity for a headroom never reached). */
-  achieved: number;
+  /** What simulation shows (SI); null for a headroom never reached. */
+  achieved: number | null;
+  /** Stack voltage where it was measured, V: mid-span for the current, the lowest Rout's place for Rout. */
+  at: number | null;
+  device: null;
   corner: string;
-  /** Stack voltage where a Rout miss is worst, V. */
-  at?: number;
 }
 
 /** A device of a corrected design: the sizes a user would draw, and the gate its bias diode gives at the nominal corner. */

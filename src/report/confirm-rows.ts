@@ -8,8 +8,8 @@ import type { Grid } from './rows.js';
 export function missWords(m: Miss): string {
   const unit = m.target === 'iout' ? 'A' : m.target === 'rout' ? 'Ω' : 'V';
   const need = m.target === 'iout' ? `${eng(m.required, unit)} ± 1 %` : `${m.target === 'rout' ? '≥' : '≤'} ${eng(m.required, unit)}`;
-  const where = m.at === undefined ? '' : ` (lowest at ${eng(m.at, 'V')})`;
-  return `${m.target} at ${m.corner}: needs ${need}, simulated ${eng(m.achieved, unit)}${where}`;
+  const where = m.target === 'rout' && m.at !== null ? ` (lowest at ${eng(m.at, 'V')})` : '';
+  return `${m.target} at ${m.corner}: needs ${need}, simulated ${m.achieved === null ? 'never' : eng(m.achieved, unit)}${where}`;
 }
 
 /** The verdict of a confirmation in one line. */
