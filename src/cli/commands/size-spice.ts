@@ -47,8 +47,8 @@ export function checkSpiceFlags(f: SpiceFlags, given: (flag: string) => boolean)
 
 /** Run the confirmation and merge its fields into the chosen stack results. */
 export async function confirmRun(spec: DesignSpec, result: SizeResult, kit: KitAccess, f: SpiceFlags): Promise<Confirmation[]> {
-  const bar = progressBar('ngspice');
-  let rounds = 0;
+  let bar = progressBar('ngspice round 1');
+  let round = 1;
   const confirmations = await confirmStacks(
     { spec, result, kit, models: { n: f.modelN ?? 'nmos_model', p: f.modelP ?? 'pmos_model' } },
     {
@@ -57,7 +57,11 @@ export async function confirmRun(spec: DesignSpec, result: SizeResult, kit: KitA
       tighten: f.tighten,
       title: `stackwright size --spice ${spec.file}`,
       onProgress: (p) => {
-        rounds = Math.max(rounds, p.round);
+        if (p.round !== round) {
+          bar.done();
+          round = p.round;
+          bar = progressBar(`ngspice round ${round} (${p.designs} circuits)`);
+        }
         bar.update(p.done, p.runs);
       },
     },
