@@ -17,7 +17,7 @@ export function confirmVerdict(c: Confirmation): string {
   const rounds = `${c.rounds} simulated round${c.rounds === 1 ? '' : 's'}`;
   if (c.confirmed) {
     if (!c.corrected) return `confirmed in simulation: the table design meets every target (${rounds})`;
-    return `confirmed in simulation after correction${c.tightened ? ' and tightening' : ''} (${rounds})`;
+    return c.tightened ? `confirmed in simulation, then shrunk to a smaller design that meets every target too (${rounds})` : `confirmed in simulation after correction (${rounds})`;
   }
   const worst = c.misses[0];
   return `NOT confirmed in simulation after ${rounds}${worst ? `: ${c.misses.map(missWords).join('; ')}` : ''}`;
