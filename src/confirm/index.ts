@@ -9,3 +9,4 @@ export { correctionCandidates, pickVariant, HEADROOM_AIM } from './correct.js';
 export { shrinkStep, TIGHTEN_MARGIN } from './tighten.js';
 export type { ConfirmItem } from './hook.js';
 export type { Confirmation, CorrectedDesign, CorrectedDevice, Miss, MissTarget, Simulated, SimulatedFigures, SimulatedPoint } from './types.js';
+export { withCorrection } from './apply.js';

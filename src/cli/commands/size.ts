@@ -13,6 +13,7 @@ import type { FrontPoint } from '../../solve/pareto.js';
 import type { Kit } from '../../api.js';
 import { note, out, packageVersion, readText, toJson, useColor } from '../io.js';
 import { checkSpiceFlags, confirmRun, spiceOptions, type SpiceFlags } from './size-spice.js';
+import { withCorrection } from '../../confirm/index.js';
 import { renderConfirmText, missWords, type Confirmation } from '../../report/index.js';
 
 interface SizeFlags extends SpiceFlags {
@@ -107,7 +108,8 @@ export function registerSize(program: Command): void {
         }
       }
       if (f.netlist) {
-        const chosen = { ...run.result, stacks: decidingResults(run.result) };
+        // With --spice the netlist carries the sizes simulation confirmed.
+        const chosen = { ...run.result, stacks: decidingResults(run.result).map((r) => withCorrection(r, confirmations?.find((c) => c.name === r.name))) };
         files.push([f.netlist, designNetlist(chosen, { supply: spec.supply, specs: spec.stacks, title: `stackwright ${basename(specPath)}` })]);
       }
       if (f.report) files.push([f.report, reportHtml(spec, source, kit, run, confirmations)]);
