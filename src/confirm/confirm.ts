@@ -1,3 +1,4 @@
+import { availableParallelism } from 'node:os';
 import { StackwrightError } from '../errors.js';
 import type { RunOptions } from '../spice/run.js';
 import { runBatch, type BatchColumns } from './batch.js';
@@ -106,13 +107,18 @@ async function simulateRound<F extends SimulatedFigures>(
   const circuits = pending.flatMap((s) => Array.from({ length: s.item.variants() }, (_, k) => s.item.circuit(variantTag(s.tag, k), k)));
   const report = (done: number) => opts.onProgress?.({ round, runs: models.length, done, designs: circuits.length });
   report(0);
-  const out: Map<string, BatchColumns>[] = [];
-  // One corner after another: ngspice runs single-threaded and the machine may be shared.
-  for (const [i, m] of models.entries()) {
-    const deck = { title: `${opts.title ?? 'stackwright confirm'}, corner ${opts.corners[i]}, round ${round}`, models: m, supply: opts.supply, top, step: SWEEP_STEP, circuits };
-    out.push(await runCorner(deck, opts, i));
-    report(i + 1);
-  }
+  // The corners' decks run side by side (ngspice is single-threaded), at most one per available core.
+  const out: Map<string, BatchColumns>[] = new Array(models.length);
+  let next = 0;
+  let done = 0;
+  const worker = async () => {
+    for (let i = next++; i < models.length; i = next++) {
+      const deck = { title: `${opts.title ?? 'stackwright confirm'}, corner ${opts.corners[i]}, round ${round}`, models: models[i], supply: opts.supply, top, step: SWEEP_STEP, circuits };
+      out[i] = await runCorner(deck, opts, i);
+      report(++done);
+    }
+  };
+  await Promise.all(Array.from({ length: Math.min(models.length, Math.max(1, availableParallelism())) }, worker));
   return out;
 }
 
