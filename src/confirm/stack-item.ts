@@ -10,7 +10,7 @@ import { simulatedOf } from './hook.js';
 import { stackFigures } from './measure.js';
 import { tableFigures } from './table-model.js';
 import { shrinkStep } from './tighten.js';
-import type { Confirmation, CorrectedDesign, Miss, SimulatedFigures } from './types.js';
+import type { Confirmation, CorrectedDesign, SimulatedFigures } from './types.js';
 
 type Figures = SimulatedFigures & { routAt: number };
 
@@ -97,4 +97,4 @@ function correctedOf(design: StackResult, spec: StackSpec, ctx: StackContext): C
   };
 }
 
-export type { Figures as StackFigures, Miss };
+export type { Figures as StackFigures };
