@@ -6,7 +6,7 @@
 import { mkdirSync, renameSync, writeFileSync } from 'node:fs';
 import { cpus } from 'node:os';
 import { join } from 'node:path';
-import { packageRoot } from '../src/locate.js';
+import { packageRoot } from '../src/table/locate.js';
 import { buildDemoTables } from './build-demo-tables.js';
 import { benchIngest, benchInterp, benchKitLoad, benchProbe, benchSize, benchSpice, renderRows, type BenchRow } from './bench/index.js';
 import { msSince } from './bench/stats.js';

@@ -8,7 +8,7 @@ import { existsSync, readFileSync, readdirSync } from 'node:fs';
 import { join, relative } from 'node:path';
 import { ingestFiles } from '../src/ingest/index.js';
 import { readTableHeader, tablePath, writeTable } from '../src/table/index.js';
-import { packageRoot } from '../src/locate.js';
+import { packageRoot } from '../src/table/locate.js';
 import type { Polarity } from '../src/table/types.js';
 
 interface KitJson {

@@ -8,7 +8,7 @@ import { spawnSync } from 'node:child_process';
 import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { buildDemoTables } from './build-demo-tables.js';
-import { packageRoot } from '../src/locate.js';
+import { packageRoot } from '../src/table/locate.js';
 
 const root = packageRoot();
 const cli = join(root, 'dist', 'src', 'cli', 'main.js');

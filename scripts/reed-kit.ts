@@ -12,7 +12,7 @@ import { join } from 'node:path';
 import { gzipSync } from 'node:zlib';
 import { characterise } from '../src/spice/index.js';
 import { writeFileAtomic } from '../src/fsutil.js';
-import { packageRoot } from '../src/locate.js';
+import { packageRoot } from '../src/table/locate.js';
 import { StackwrightError } from '../src/errors.js';
 import type { Polarity } from '../src/table/types.js';
 

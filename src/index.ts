@@ -3,7 +3,7 @@
  * Sizes are first-cut estimates; verify them with the foundry models across
  * corners before tape-out.
  */
-export { ingest, loadKit, sizeStack, sizeSpec, portSpec, decidingResults } from './api.js';
+export { loadKit, sizeStack, sizeSpec, portSpec, decidingResults } from './api.js';
 export type { Kit, SizeRun, PortRun, PortStack } from './api.js';
 export { probe, sliceAt, vgsFor, designCurves } from './device/index.js';
 export type { OperatingPoint, LengthSlice, ProbeQuery, ProbeResult } from './device/index.js';
@@ -11,11 +11,13 @@ export { ingestFiles, ingestTexts, parseSweep, QUANTITIES } from './ingest/index
 export type { IngestOptions, Quantity } from './ingest/index.js';
 export { writeTable, readTable, loadTable, listKits, kitInventory, tablePath, RegularGridInterpolator } from './table/index.js';
 export type { DeviceTable, TableMeta, Polarity, MismatchCoefficients, KitSummary, TableSummary } from './table/index.js';
-export { parseSpec, resolveCorners, TOPOLOGIES } from './spec/index.js';
-export type { DesignSpec, StackSpec, Topology, Objective } from './spec/index.js';
+export { parseSpec, resolveCorners } from './design/index.js';
+export { TOPOLOGIES, registerTopology, topologyOf, topologyNames } from './topology/index.js';
+export type { TopologyDescriptor, ScreenTools, StageOption, StageBias, Candidate } from './topology/index.js';
+export type { DesignSpec, StackSpec, Topology, Objective } from './design/index.js';
 export { sizeDesign, evaluateAtCorner, paretoFront, pelgromSigma, CAUTION } from './solve/index.js';
 export { kitAccessFromTables } from './solve/kit-tables.js';
-export type { KitAccess, SizeResult, StackResult, DeviceResult, BiasResult, CurvePoint, Predicted, CornerResult, FrontPoint } from './solve/index.js';
+export type { KitAccess, SizeResult, StackResult, DeviceResult, BiasResult, CurvePoint, Predicted, CornerResult, FrontPoint, Verdict, VerdictTarget } from './solve/index.js';
 export { stackNetlist, designNetlist } from './spice/index.js';
 export { confirmStacks, confirmItems, stackItem, withCorrection } from './confirm/index.js';
 export type { Confirmation, ConfirmItem, ConfirmOptions, Simulated, SimulatedFigures, Miss, CorrectedDesign } from './confirm/index.js';

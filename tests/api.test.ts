@@ -2,8 +2,8 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-// The package's own name: resolved through package.json "exports" (compiled by `npm install`'s prepare step).
-import { ingest, loadKit, probe, sizeStack, sizeSpec, parseSpec, writeTable, CAUTION } from 'stackwright';
+// The package's own name, as in the README; vitest.config.ts maps it to src/index.ts so a stale dist/ cannot pass or fail this.
+import { ingestFiles, loadKit, probe, sizeStack, sizeSpec, parseSpec, writeTable, CAUTION } from 'stackwright';
 
 describe('library API, as in the README example', () => {
   it('ingest -> writeTable -> loadKit -> probe -> sizeStack', () => {
@@ -25,7 +25,7 @@ describe('library API, as in the README example', () => {
       }
       const csv = join(dir, 'sq.csv');
       writeFileSync(csv, rows.join('\n') + '\n');
-      const table = ingest([csv], { kit: 'sq', device: 'n', corner: 'tt' });
+      const table = ingestFiles([csv], { kit: 'sq', device: 'n', corner: 'tt' });
       writeTable(dir, table, { force: true });
       const kit = loadKit('sq', { tables: dir });
       const op = probe(kit.table('n', 'tt'), { l: 1e-6, vgs: 0.8, vds: 1.0 });

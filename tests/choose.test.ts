@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { chooseResult, shortfall } from '../src/solve/choose.js';
 import type { StackResult } from '../src/solve/types.js';
-import type { StackSpec } from '../src/spec/types.js';
+import type { StackSpec } from '../src/design/types.js';
 
 const spec: StackSpec = { name: 's', device: 'n', topology: 'auto', current: 1e-5, rout: 1e8, headroom: 0.5, span: 1.6, objective: 'area' };
 const result = (topology: StackResult['topology'], feasible: boolean, rout: number, headroom: number, area: number): StackResult => ({
@@ -18,8 +18,11 @@ describe('chooseResult (auto topology)', () => {
   });
   it('with none feasible, takes the nearest to the targets, not the first', () => {
     const r = [result('single', false, 1e6, Infinity, 1e-12), result('cascode', false, 0.9e8, 0.5, 5e-11), result('triple', false, 2e8, 0.7, 2e-11)];
-    // shortfall: cascode log10(1e8/0.9e8) = 0.046; triple (0.7-0.5)/0.5 = 0.4; single 2 + 10
-    expect(shortfall(r[1], spec)).toBeCloseTo(Math.log10(1 / 0.9), 12);
+    // The same distance the search ranks with: Rout missing in natural-log units, headroom per 50 mV.
+    // cascode ln(1e8/0.9e8) = 0.105; triple (0.7 − 0.5)/0.05 = 4; single ln(100) = 4.6 plus a never-met headroom.
+    expect(shortfall(r[1], spec)).toBeCloseTo(Math.log(1 / 0.9), 12);
+    expect(shortfall(r[2], spec)).toBeCloseTo(4, 9);
+    expect(shortfall(r[0], spec)).toBeGreaterThan(shortfall(r[2], spec));
     expect(chooseResult(r, spec).topology).toBe('cascode');
   });
 });

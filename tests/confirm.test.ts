@@ -10,14 +10,14 @@ import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import type { DeviceTable } from '../src/table/types.js';
-import type { DesignSpec, StackSpec } from '../src/spec/types.js';
+import type { DesignSpec, StackSpec } from '../src/design/types.js';
 import type { SizeResult, StackResult } from '../src/solve/types.js';
 import { ingestTexts } from '../src/ingest/index.js';
 import { writeTable } from '../src/table/index.js';
 import { sizeDesign } from '../src/solve/index.js';
 import { decidingResults } from '../src/solve/choose.js';
 import { kitAccessFromTables } from '../src/solve/kit-tables.js';
-import { characterise, designNetlist, measuredHeadroom, midSpan, routOf, sampleAt, simulateStacks, type CharacterisationOptions } from '../src/spice/index.js';
+import { characterise, designNetlist, measuredHeadroom, midSpan, routOf, interpolateCurve, simulateStacks, type CharacterisationOptions } from '../src/spice/index.js';
 import { confirmStacks, cornerModels, type Confirmation } from '../src/confirm/index.js';
 import { TEST_LIB, TEST_MODELS, libLine, ngspiceStatus } from './fixtures/spice/ngspice.js';
 import { cli } from './helpers/cli.js';
@@ -60,7 +60,7 @@ async function resimulate(stackResults: StackResult[], section: string): Promise
   const out = new Map<string, Measured>();
   for (const sim of await simulateStacks(net)) {
     const curve = routOf(sim.points);
-    const mid = sampleAt(curve, midSpan(TARGET));
+    const mid = interpolateCurve(curve, midSpan(TARGET));
     out.set(sim.name, { iout: mid.iout, rout: mid.rout, headroom: measuredHeadroom(curve, TARGET) });
   }
   return out;

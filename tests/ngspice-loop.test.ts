@@ -7,7 +7,7 @@
  */
 import { beforeAll, describe, expect, it } from 'vitest';
 import type { DeviceTable } from '../src/table/types.js';
-import type { DesignSpec, StackSpec } from '../src/spec/types.js';
+import type { DesignSpec, StackSpec } from '../src/design/types.js';
 import type { SizeResult, StackResult } from '../src/solve/types.js';
 import { ingestTexts } from '../src/ingest/index.js';
 import { sliceAt } from '../src/device/index.js';
@@ -19,7 +19,7 @@ import {
   measuredHeadroom,
   midSpan,
   routOf,
-  sampleAt,
+  interpolateCurve,
   simulateStacks,
   designNetlist,
   type CharacterisationOptions,
@@ -85,7 +85,7 @@ async function simulate(size: SizeResult, corner: string, bias: 'ideal' | 'diode
   const out = new Map<string, Check>();
   for (const sim of sims) {
     const curve: RoutPoint[] = routOf(sim.points);
-    const mid = sampleAt(curve, midSpan(TARGET));
+    const mid = interpolateCurve(curve, midSpan(TARGET));
     out.set(sim.name, { iout: mid.iout, rout: mid.rout, headroom: measuredHeadroom(curve, TARGET) });
   }
   return out;
@@ -117,12 +117,12 @@ withNgspice('ngspice closed loop (reference: ngspice, Debian package)', () => {
       const table: RoutPoint[] = stackCurve(devices, gates, TARGET.span, { intervals: 320 }).map((c) => ({ v: c.v, iout: c.i, rout: c.rout }));
       const sim = routOf(await simulateSweep(stackNetlist(s, { supply: SUPPLY, models: TEST_MODELS, include: libLine('tt'), sweep: { from: 0, to: SUPPLY, step: 0.005 } })));
       for (const v of [0.8, midSpan(TARGET), 1.4]) {
-        const a = sampleAt(table, v);
-        const b = sampleAt(sim, v);
+        const a = interpolateCurve(table, v);
+        const b = interpolateCurve(sim, v);
         expect(Math.abs(a.iout / b.iout - 1), `${s.name} iout at ${v}`).toBeLessThan(0.01);
         expect(Math.abs(a.rout / b.rout - 1), `${s.name} rout at ${v}`).toBeLessThan(0.2);
       }
-      const target = { ...TARGET, rout: 0.5 * sampleAt(sim, midSpan(TARGET)).rout };
+      const target = { ...TARGET, rout: 0.5 * interpolateCurve(sim, midSpan(TARGET)).rout };
       expect(Math.abs(measuredHeadroom(table, target) - measuredHeadroom(sim, target)), s.name).toBeLessThan(0.05);
     }
   });

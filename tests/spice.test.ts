@@ -10,7 +10,7 @@ import {
   parseWrdata,
   routOf,
   runNgspice,
-  sampleAt,
+  interpolateCurve,
   simulateOp,
   simulateSweep,
   stackNetlist,
@@ -100,9 +100,9 @@ describe('stackNetlist text', () => {
     const names = elementLines(net).map((l) => l.split(/\s+/)[0].toLowerCase());
     expect(new Set(names).size).toBe(names.length); // SPICE needs unique element names
     // A stack the search could not size is noted, not written.
-    const empty = { ...nTriple, name: 'none', feasible: false, binding: 'rout', devices: [] };
+    const empty = { ...nTriple, name: 'none', feasible: false, binding: { target: 'rout' as const, required: 1e8, achieved: null, at: 0.5, device: null, corner: 'tt' }, devices: [] };
     const partial = designNetlist({ kit: 'k', corners: ['tt'], supply: 1.8, caution: CAUTION, stacks: [empty, nCascode] }, { ...base });
-    expect(partial).toContain('stack "none": not sized (rout)');
+    expect(partial).toContain('stack "none": not sized (rout: no usable Rout at 0.500 V (outside the table); needs 100 MΩ)');
     expect(partial).not.toMatch(/^\*@probe s1 /m);
     expect(partial).toMatch(/^\*@probe s2 n vm_s2 sink$/m);
   });
@@ -151,7 +151,7 @@ describe('sweep measurements', () => {
     const h = measuredHeadroom(routOf(model(rinf)), { rout: 1e3, headroom: 0.5, span: 1.6 });
     expect(Math.abs(h - v)).toBeLessThan(2e-3);
     expect(measuredHeadroom(routOf(model(2e6)), { rout: 2e7, headroom: 0.5, span: 1.6 })).toBe(Infinity);
-    expect(() => sampleAt(routOf(model(1e8)), 2.5)).toThrow(/outside the simulated sweep/);
+    expect(() => interpolateCurve(routOf(model(1e8)), 2.5)).toThrow(/outside the simulated sweep/);
   });
 });
 
@@ -200,8 +200,8 @@ withNgspice('with ngspice (reference simulator, Debian package)', () => {
       const pts = routOf(await simulateSweep(stackNetlist(nCascode, { ...base, include: libLine('tt'), bias })));
       expect(pts).toHaveLength(181);
       // Saturated cascode: Rout far above a single device's (common practice).
-      expect(sampleAt(pts, 1.2).rout).toBeGreaterThan(1e6);
-      expect(sampleAt(pts, 0.05).rout).toBeLessThan(sampleAt(pts, 1.2).rout);
+      expect(interpolateCurve(pts, 1.2).rout).toBeGreaterThan(1e6);
+      expect(interpolateCurve(pts, 0.05).rout).toBeLessThan(interpolateCurve(pts, 1.2).rout);
     }
   });
 

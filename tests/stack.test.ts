@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import type { LengthSlice } from '../src/device/types.js';
 import { ekv, sliceOf, type Model } from './helpers/analytic-slice.js';
 import { StackwrightError } from '../src/errors.js';
+import { topologyOf } from '../src/topology/index.js';
 import {
   biasDevices,
   biasGates,
@@ -54,7 +55,7 @@ const slSlice = (l: number, lambda = 0.05) =>
   sliceOf(l, squareLaw({ l, vth0: 0.4, kp: 200e-6, lambda, gamma: 0.4, phi2: 0.7 }));
 
 function cascodeOn(slices: LengthSlice[], gmid: number[], setpoints: number[], topology: 'cascode' | 'triple' | 'cascode-stacked' = 'cascode') {
-  const sized = sizeStackDevices({ topology, slices, gmid, setpoints, current: 20e-6, vmid: 1.2 });
+  const sized = sizeStackDevices({ shape: topologyOf(topology), slices, gmid, setpoints, current: 20e-6, vmid: 1.2 });
   if (!sized) throw new Error('test design not reachable');
   const devices: StackDevice[] = slices.map((slice, k) => ({ slice, w: sized.w[k] }));
   return { sized, devices };
@@ -162,7 +163,7 @@ describe('headroom on square-law devices (rule of thumb, common practice)', () =
 
   function headroomOf(topology: 'cascode' | 'cascode-stacked', setpoints: number[]): number {
     const slices = [slSlice(l), slSlice(l)];
-    const sized = sizeStackDevices({ topology, slices, gmid: [gmid, gmid], setpoints, current: 20e-6, vmid: 1.35 });
+    const sized = sizeStackDevices({ shape: topologyOf(topology), slices, gmid: [gmid, gmid], setpoints, current: 20e-6, vmid: 1.35 });
     if (!sized) throw new Error('unreachable');
     const devices = slices.map((slice, k) => ({ slice, w: sized.w[k] }));
     const mid = solveOperatingPoint(devices, sized.gates, 1.35);
@@ -203,7 +204,7 @@ describe('bias diodes', () => {
   it('each diode reproduces its gate voltage at the bias current, stacked diodes included', () => {
     const slices = [ekvSlice(0.5e-6), ekvSlice(0.3e-6)];
     const { sized } = cascodeOn(slices, [12, 10], [], 'cascode-stacked');
-    const bias = biasDevices('cascode-stacked', slices, sized.gates, 10e-6);
+    const bias = biasDevices(topologyOf('cascode-stacked'), slices, sized.gates, 10e-6);
     expect(bias[1].stackedOn).toBe(0);
     // A diode-connected device settles where its own I–V carries the forced current (KCL).
     const top = bias[1].w * slices[1].jd(sized.gates[1] - sized.gates[0], sized.gates[1] - sized.gates[0], sized.gates[0]);
@@ -268,7 +269,7 @@ describe('minimum width', () => {
   const widen = { wmin: 0.18e-6, lengths: LS, slice: (l: number) => slices.get(l)! };
 
   it('a device narrower than wmin makes sizeStackDevices refuse the design', () => {
-    const d = { topology: 'cascode' as const, slices: [ekvSlice(0.18e-6), ekvSlice(0.18e-6)], gmid: [8, 8], setpoints: [0.3], current: 1e-6, vmid: 1.2 };
+    const d = { shape: topologyOf('cascode'), slices: [ekvSlice(0.18e-6), ekvSlice(0.18e-6)], gmid: [8, 8], setpoints: [0.3], current: 1e-6, vmid: 1.2 };
     const free = sizeStackDevices(d)!;
     expect(Math.min(...free.w)).toBeLessThan(0.18e-6);
     expect(sizeStackDevices({ ...d, wmin: 0.18e-6 })).toBeNull();
@@ -278,9 +279,9 @@ describe('minimum width', () => {
     // Gate 0.7 V at 2 µA on L = 0.18 µm would need W ≈ 50 nm (strong inversion, jd ~ 1/L).
     const gates = [0.45, 0.7];
     const ib = 2e-6;
-    const plain = biasDevices('cascode', [slices.get(0.18e-6)!, slices.get(0.18e-6)!], gates, ib);
+    const plain = biasDevices(topologyOf('cascode'), [slices.get(0.18e-6)!, slices.get(0.18e-6)!], gates, ib);
     expect(plain[1].w).toBeLessThan(widen.wmin);
-    const b = biasDevices('cascode', [slices.get(0.18e-6)!, slices.get(0.18e-6)!], gates, ib, widen)!;
+    const b = biasDevices(topologyOf('cascode'), [slices.get(0.18e-6)!, slices.get(0.18e-6)!], gates, ib, widen)!;
     expect(b[1].l).toBeGreaterThan(0.18e-6);
     expect(b[1].w).toBeGreaterThanOrEqual(widen.wmin);
     // KCL through the diode (gate = drain) with the EKV closed form at its new length.
@@ -291,6 +292,6 @@ describe('minimum width', () => {
     // The bottom diode was wide enough and keeps its length.
     expect(b[0].l).toBe(0.18e-6);
     // With no length long enough the candidate is rejected.
-    expect(biasDevices('cascode', [slices.get(0.18e-6)!, slices.get(0.18e-6)!], gates, ib, { ...widen, wmin: 1e-3 })).toBeNull();
+    expect(biasDevices(topologyOf('cascode'), [slices.get(0.18e-6)!, slices.get(0.18e-6)!], gates, ib, { ...widen, wmin: 1e-3 })).toBeNull();
   });
 });

@@ -1,7 +1,7 @@
 /** (d) Sizing the demo spec end to end, in process and through the CLI. */
 import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { parseSpec } from '../../src/spec/index.js';
+import { parseSpec } from '../../src/design/index.js';
 import { sizeDesign } from '../../src/solve/index.js';
 import { loadKit } from '../../src/api.js';
 import { clearTableCache } from '../../src/table/index.js';

@@ -1,9 +1,9 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { StackwrightError } from '../errors.js';
-import { packageRoot } from '../locate.js';
+import { packageRoot } from '../table/locate.js';
 
-export { packageRoot, tablesDirFor } from '../locate.js';
+export { packageRoot, tablesDirFor } from '../table/locate.js';
 
 /** Colour only on a TTY and never with NO_COLOR (https://no-color.org). */
 export function useColor(stream: NodeJS.WriteStream = process.stdout): boolean {

@@ -1,9 +1,6 @@
-import type { StackSpec } from '../spec/types.js';
-import { midSpan } from '../spice/measure.js';
+import type { StackSpec } from '../design/types.js';
+import { CURRENT_WINDOW, midSpan } from '../policy.js';
 import type { Miss, SimulatedFigures } from './types.js';
-
-/** Allowed relative deviation of the simulated current from the target (the README's 1 % window). */
-export const CURRENT_TOLERANCE = 0.01;
 
 /**
  * Targets one corner's simulation misses: the current more than 1 % off; the
@@ -16,7 +13,7 @@ export function stackMisses(spec: Pick<StackSpec, 'current' | 'rout' | 'headroom
   const miss = (target: Miss['target'], required: number, achieved: number, at: number | null): Miss => ({
     target, required, achieved: Number.isFinite(achieved) ? achieved : null, at, device: null, corner: f.corner,
   });
-  if (!(Math.abs(f.iout / spec.current - 1) <= CURRENT_TOLERANCE)) out.push(miss('iout', spec.current, f.iout, midSpan(spec)));
+  if (!(Math.abs(f.iout / spec.current - 1) <= CURRENT_WINDOW)) out.push(miss('iout', spec.current, f.iout, midSpan(spec)));
   if (Number.isFinite(f.headroom) || f.routAtTarget >= spec.rout) {
     if (!(f.headroom <= spec.headroom)) out.push(miss('headroom', spec.headroom, f.headroom, null));
   } else out.push(miss('rout', spec.rout, f.routAtTarget, f.routAt ?? null));

@@ -1,4 +1,5 @@
-import type { StackSpec } from '../spec/types.js';
+import type { StackSpec } from '../design/types.js';
+import { CURRENT_WINDOW } from '../policy.js';
 import type { StackResult } from '../solve/types.js';
 import type { KitAccess } from '../solve/kit.js';
 import { turn, turnAll } from './knobs.js';
@@ -113,7 +114,7 @@ export function pickVariant(
     const excess = Math.max(...v.figures.map((f) => (Number.isFinite(f.headroom) ? f.headroom - spec.headroom : 10 + Math.log10(spec.rout / Math.max(f.routAtTarget, 1)))));
     const current = Math.max(...v.figures.map((f) => Math.abs(f.iout / spec.current - 1)));
     if (v.misses.length === 0) return [0, Math.round(Math.log(v.area) / 0.01), excess];
-    return [1, 0, Math.max(0, excess) + Math.max(0, current - 0.01)];
+    return [1, 0, Math.max(0, excess) + Math.max(0, current - CURRENT_WINDOW)];
   };
   const less = (a: number[], b: number[]) => a[0] !== b[0] ? a[0] < b[0] : a[1] !== b[1] ? a[1] < b[1] : a[2] < b[2];
   let best = 0;

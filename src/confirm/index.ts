@@ -4,7 +4,7 @@ export { stackItem, type StackContext } from './stack-item.js';
 export { batchDeck, runBatch, type BatchCircuit, type BatchDeck, type BatchColumns } from './batch.js';
 export { cornerModels, librarySections, type ModelSource } from './sections.js';
 export { stackFigures, CURVE_POINTS } from './measure.js';
-export { stackMisses, CURRENT_TOLERANCE } from './check.js';
+export { stackMisses } from './check.js';
 export { correctionCandidates, pickVariant, HEADROOM_AIM } from './correct.js';
 export { shrinkStep, TIGHTEN_MARGIN } from './tighten.js';
 export type { ConfirmItem } from './hook.js';

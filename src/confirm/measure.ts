@@ -1,5 +1,5 @@
-import { measuredHeadroom, midSpan, routOf, sampleAt, type RoutPoint, type SweepPoint } from '../spice/measure.js';
-import type { StackSpec } from '../spec/types.js';
+import { interpolateCurve, measuredHeadroom, midSpan, routOf, type RoutPoint, type SweepPoint } from '../spice/measure.js';
+import type { StackSpec } from '../design/types.js';
 import type { SimulatedFigures, SimulatedPoint } from './types.js';
 
 /** Points of the reported simulated curve: the predicted curve's resolution (64 intervals over [0, span]). */
@@ -9,7 +9,7 @@ type Targets = Pick<StackSpec, 'rout' | 'headroom' | 'span'>;
 
 /** Lowest Rout over [lo, span] of a simulated curve, and where it is. */
 export function lowestRout(curve: readonly RoutPoint[], lo: number, span: number): { rout: number; at: number } {
-  let best = sampleAt(curve, lo);
+  let best = interpolateCurve(curve, lo);
   for (const p of curve) if (p.v > lo && p.v <= span + 1e-9 && p.rout < best.rout) best = p;
   return { rout: best.rout, at: best.v };
 }
@@ -22,14 +22,14 @@ export function lowestRout(curve: readonly RoutPoint[], lo: number, span: number
  */
 export function stackFigures(points: readonly SweepPoint[], spec: Targets, corner: string): SimulatedFigures & { routAt: number } {
   const curve = routOf(points);
-  const iout = sampleAt(curve, midSpan(spec)).iout;
+  const iout = interpolateCurve(curve, midSpan(spec)).iout;
   const headroom = measuredHeadroom(curve, spec);
   const low = lowestRout(curve, spec.headroom, spec.span);
   const rout = Number.isFinite(headroom) && headroom > spec.headroom ? lowestRout(curve, Math.min(headroom, spec.span), spec.span).rout : low.rout;
   const n = CURVE_POINTS - 1;
   const out: SimulatedPoint[] = [];
   for (let j = 0; j <= n; j++) {
-    const p = sampleAt(curve, (spec.span * j) / n);
+    const p = interpolateCurve(curve, (spec.span * j) / n);
     out.push({ v: p.v, iout: p.iout, rout: p.rout });
   }
   return { corner, iout, rout, routAtTarget: low.rout, routAt: low.at, headroom, curve: out };

@@ -1,4 +1,4 @@
-import type { StackSpec } from '../spec/types.js';
+import type { StackSpec } from '../design/types.js';
 import type { StackResult } from '../solve/types.js';
 import type { KitAccess } from '../solve/kit.js';
 import { stackLines } from '../spice/netlist.js';

@@ -1,4 +1,4 @@
-import type { DesignSpec } from '../spec/types.js';
+import type { DesignSpec } from '../design/types.js';
 import type { SizeResult } from '../solve/types.js';
 import type { KitAccess } from '../solve/kit.js';
 import { decidingResults } from '../solve/choose.js';

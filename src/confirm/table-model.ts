@@ -1,8 +1,8 @@
 import { StackwrightError } from '../errors.js';
-import type { StackSpec } from '../spec/types.js';
+import type { StackSpec } from '../design/types.js';
 import type { StackResult } from '../solve/types.js';
 import type { KitAccess } from '../solve/kit.js';
-import { evaluateAtCorner } from '../solve/corners.js';
+import { evaluateAtCorner } from '../solve/evaluate/corners.js';
 
 /** What the tables predict for a design (same W, L and bias diodes) at one corner. */
 export interface TableFigures {

@@ -2,12 +2,13 @@ import { sliceAt } from './slice.js';
 import { defaultVds } from './probe.js';
 import type { DeviceTable } from '../table/types.js';
 
+/** One point of a design curve at fixed L, VDS, VSB (SI; ft NaN or absent without capacitances). */
 export interface DesignPoint {
   vgs: number;
   gmid: number;
   gain: number;
   jd: number;
-  ft: number;
+  ft?: number;
 }
 
 export interface DesignCurve {

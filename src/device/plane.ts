@@ -1,8 +1,9 @@
-import { AxisLocator } from '../table/axis.js';
-import { rangeError, tableLabel } from '../table/range-error.js';
+import { AxisLocator } from '../numeric/axis.js';
+import { rangeError } from '../numeric/range-error.js';
+import { tableLabel } from '../table/label.js';
 import { STORED } from '../table/types.js';
 import type { DeviceTable, StoredQuantity } from '../table/types.js';
-import { nodeDerivative } from './difference.js';
+import { nodeDerivative } from '../numeric/difference.js';
 
 /** Quantities that vary exponentially in weak inversion, so are interpolated geometrically along VGS. */
 export const LOG_ALONG_VGS: ReadonlySet<StoredQuantity> = new Set(['id', 'gm', 'gds', 'gmb']);

@@ -1,8 +1,8 @@
 import { StackwrightError } from '../errors.js';
-import { tableLabel } from '../table/range-error.js';
+import { tableLabel } from '../table/label.js';
 import type { DeviceTable } from '../table/types.js';
 import { formatEng } from '../units/index.js';
-import { solveBracket } from './bracket.js';
+import { solveBracket } from '../numeric/bracket.js';
 import { sliceAt, TableSlice } from './slice.js';
 import type { LengthSlice, OperatingPoint } from './types.js';
 

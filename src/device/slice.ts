@@ -1,5 +1,6 @@
-import { AxisLocator } from '../table/axis.js';
-import { rangeError, tableLabel } from '../table/range-error.js';
+import { AxisLocator } from '../numeric/axis.js';
+import { rangeError } from '../numeric/range-error.js';
+import { tableLabel } from '../table/label.js';
 import { formatEng } from '../units/index.js';
 import type { DeviceTable, StoredQuantity } from '../table/types.js';
 import type { LengthSlice, OperatingPoint } from './types.js';

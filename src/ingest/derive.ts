@@ -1,14 +1,13 @@
 import type { Axis } from '../table/types.js';
-import { slopeAt, slopeStencil } from './slope.js';
+import { slopeAt, slopeStencil } from '../numeric/slope.js';
+import { rowMajorStrides } from '../numeric/strides.js';
 
 export const WINDOW = 5;
 
 /** Layout of a flat row-major grid (l, vgs, vds, vsb). */
 export function strides(axes: Record<Axis, Float64Array>): Record<Axis, number> {
-  const ns = axes.vsb.length;
-  const nd = axes.vds.length;
-  const ng = axes.vgs.length;
-  return { vsb: 1, vds: ns, vgs: nd * ns, l: ng * nd * ns };
+  const [l, vgs, vds, vsb] = rowMajorStrides([axes.l.length, axes.vgs.length, axes.vds.length, axes.vsb.length]);
+  return { l, vgs, vds, vsb };
 }
 
 /**

@@ -1,7 +1,8 @@
 import { StackwrightError } from '../errors.js';
 import { formatEng } from '../units/index.js';
 import { snapVolt } from './pool.js';
-import { hermiteAt, pchipSlopes } from './pchip.js';
+import { blockSize, rowMajorStrides } from '../numeric/strides.js';
+import { hermiteAt, pchipSlopes } from '../numeric/pchip.js';
 
 const NAMES = ['vgs', 'vds', 'vsb'] as const;
 
@@ -73,8 +74,8 @@ function pointAt(axes: readonly Float64Array[], flat: number): string {
 function resampleAxis(src: Float64Array, axes: Float64Array[], k: number, target: Float64Array, log: boolean, l: number, file: string): Float64Array {
   const dims = axes.map((a) => a.length);
   const n = dims[k];
-  const stride = dims.slice(k + 1).reduce((a, b) => a * b, 1);
-  const outer = dims.slice(0, k).reduce((a, b) => a * b, 1);
+  const stride = rowMajorStrides(dims)[k];
+  const outer = blockSize(dims.slice(0, k));
   const m = target.length;
   const out = new Float64Array(outer * m * stride);
   const xs: number[] = [];

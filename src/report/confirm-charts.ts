@@ -1,4 +1,4 @@
-import type { StackSpec } from '../spec/types.js';
+import type { StackSpec } from '../design/types.js';
 import type { StackResult } from '../solve/types.js';
 import type { Confirmation } from '../confirm/types.js';
 import { lineChart, targetLabel } from './chart.js';

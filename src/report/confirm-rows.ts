@@ -1,4 +1,4 @@
-import type { DesignSpec, StackSpec } from '../spec/types.js';
+import type { DesignSpec, StackSpec } from '../design/types.js';
 import type { StackResult } from '../solve/types.js';
 import type { Confirmation, Miss } from '../confirm/types.js';
 import { eng, formatArea } from './format.js';

@@ -3,7 +3,8 @@ import { formatEng } from '../units/index.js';
 import { lineChart, type LineSeries, type XY } from './chart.js';
 import { formatMicrons, polarityName } from './format.js';
 import { slug } from './svg.js';
-import type { DesignCurves, DesignPoint } from './types.js';
+import type { DesignCurves } from './types.js';
+import type { DesignPoint } from '../device/curves.js';
 
 export interface DesignChartSet {
   gain: string;

@@ -1,9 +1,9 @@
-import type { StackSpec } from '../spec/types.js';
+import type { StackSpec } from '../design/types.js';
 import type { StackResult } from '../solve/types.js';
 import { designCharts } from './design-charts.js';
 import { eng, formatArea, formatMicrons, formatPercent, polarityName } from './format.js';
 import { REPORT_CSS } from './html-style.js';
-import { biasGrid, columnAlign, cornerGrid, deviceGrid, predictedGrid, squareLawGrid, verdict, type Grid } from './rows.js';
+import { biasGrid, columnAlign, cornerGrid, deviceGrid, predictedGrid, squareLawGrid, statusLine, type Grid } from './rows.js';
 import { stackCharts } from './stack-charts.js';
 import { escapeXml as esc } from './svg.js';
 import type { HtmlReportInput } from './types.js';
@@ -61,7 +61,7 @@ function stackSection(s: StackResult, input: HtmlReportInput, spec?: StackSpec):
   return [
     `<section class="stack" id="stack-${esc(s.name)}">`,
     `<h2>${esc(s.name)} — ${esc(polarityName(s.device))} ${esc(s.topology)}${badge}</h2>`,
-    `<p class="verdict${s.feasible ? '' : ' bad'}">${esc(verdict(s))}</p>`,
+    `<p class="verdict${s.feasible ? '' : ' bad'}">${esc(statusLine(s))}</p>`,
     `<div class="tables">${htmlTable(deviceGrid(s), 'output stack (bottom first)')}${s.bias.length ? htmlTable(biasGrid(s), 'bias devices') : ''}</div>`,
     `<div class="tables">${htmlTable(predictedGrid(s), 'predicted')}${sq ? htmlTable(sq, 'lookup table against square law') : ''}${corners ? htmlTable(corners, 'per corner') : ''}</div>`,
     `<div class="charts">${figure(charts.rout)}${figure(charts.iout)}${figure(charts.pareto)}${figure(charts.area)}</div>`,

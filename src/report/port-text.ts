@@ -1,7 +1,8 @@
-import type { PortRun } from '../api.js';
+import type { PortRun } from '../solve/port.js';
 import { formatEng } from '../units/index.js';
 import { renderTable } from './text.js';
 import { formatArea } from './format.js';
+import { verdictText } from './verdict.js';
 
 function value(x: number, unit: string): string {
   if (Number.isNaN(x)) return '—';
@@ -29,7 +30,7 @@ export function renderPortText(run: PortRun, opts: { color: boolean }): string {
     if ('error' in s.asIs) lines.push(`  old sizes as they are on ${to}: cannot be evaluated (${s.asIs.error})`);
     else {
       const p = s.asIs.predicted;
-      lines.push(`  old sizes as they are on ${to}: Iout ${value(p.iout, 'A')}, Rout ${value(p.rout, 'Ω')}, headroom ${value(p.headroom, 'V')} — ${s.asIs.feasible ? 'still meets the targets' : `fails (${s.asIs.binding ?? 'targets'})`}`);
+      lines.push(`  old sizes as they are on ${to}: Iout ${value(p.iout, 'A')}, Rout ${value(p.rout, 'Ω')}, headroom ${value(p.headroom, 'V')} — ${s.asIs.feasible ? 'still meets the targets' : `fails (${s.asIs.binding ? verdictText(s.asIs.binding) : 'targets'})`}`);
     }
   }
   return lines.join('\n');

@@ -1,4 +1,5 @@
 import type { StackResult } from '../solve/types.js';
+import { verdictText, bindingText } from './verdict.js';
 import { eng, formatArea, formatPercent, perVolt } from './format.js';
 
 /** Cells that start with a digit or sign are numbers (aligned right). */
@@ -86,16 +87,16 @@ export function cornerGrid(stack: StackResult): Grid | undefined {
     headers: ['corner', 'meets targets', 'Iout', 'Rout', 'headroom', 'bias gates', 'binding / tightest'],
     rows: stack.corners.map((c) => [
       c.corner, c.feasible ? 'yes' : 'NO', eng(c.predicted.iout, 'A'), eng(c.predicted.rout, 'Ω'), eng(c.predicted.headroom, 'V'),
-      c.gates.map((g) => eng(g, 'V')).join(', ') || '—', c.binding ?? c.tightest ?? '—',
+      c.gates.map((g) => eng(g, 'V')).join(', ') || '—', c.binding ? verdictText(c.binding) : c.tightest ? verdictText(c.tightest) : '—',
     ]),
   };
 }
 
 /** One sentence on feasibility, the binding target and the nearest reachable points. */
-export function verdict(stack: StackResult): string {
+export function statusLine(stack: StackResult): string {
   const tag = stack.chosen === true ? ' (chosen by the objective)' : stack.chosen === false ? ' (alternative)' : '';
   if (stack.feasible) return `meets all targets${tag}`;
-  const parts = [`does not meet the targets${stack.binding ? `: ${stack.binding}` : ''}`];
+  const parts = [`does not meet the targets${stack.binding ? `: ${bindingText(stack)}` : ''}`];
   const n = stack.nearest;
   // An unreachable Rout target is already said by the binding text.
   if (n?.headroomAtRout !== undefined && Number.isFinite(n.headroomAtRout)) {

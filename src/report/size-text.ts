@@ -2,8 +2,9 @@ import type { SizeResult } from '../solve/types.js';
 import { decidingResults } from '../solve/choose.js';
 import { formatArea, polarityName } from './format.js';
 import { formatEng } from '../units/index.js';
-import { biasGrid, columnAlign, cornerGrid, deviceGrid, predictedGrid, squareLawGrid, verdict, type Grid } from './rows.js';
+import { biasGrid, columnAlign, cornerGrid, deviceGrid, predictedGrid, squareLawGrid, statusLine, type Grid } from './rows.js';
 import { ansi, renderTable } from './text.js';
+import { bindingText } from './verdict.js';
 
 export interface SizeTextOptions {
   /** ANSI colour; the CLI passes isTTY && !NO_COLOR. */
@@ -26,7 +27,7 @@ export function renderSizeText(result: SizeResult, opts: SizeTextOptions): strin
     // With topology 'auto' the alternatives get one line each; the chosen design gets the full account.
     if (s.chosen === false) continue;
     const status = s.feasible ? ansi.green('FEASIBLE', c) : ansi.red('INFEASIBLE', c);
-    out.push('', ansi.bold(`stack ${s.name}: ${polarityName(s.device)} ${s.topology} — ${status}`, c), `  ${verdict(s)}`);
+    out.push('', ansi.bold(`stack ${s.name}: ${polarityName(s.device)} ${s.topology} — ${status}`, c), `  ${statusLine(s)}`);
     out.push(...block('output stack (bottom first)', deviceGrid(s), c));
     out.push(...block('bias devices', biasGrid(s), c));
     out.push(...block('predicted', predictedGrid(s), c));
@@ -37,7 +38,7 @@ export function renderSizeText(result: SizeResult, opts: SizeTextOptions): strin
       const rows = [s, ...others].map((x) => [
         x.topology, x === s ? 'chosen' : x.feasible ? 'feasible' : 'INFEASIBLE', formatEng(x.predicted.rout, 'Ω'),
         Number.isFinite(x.predicted.headroom) ? formatEng(x.predicted.headroom, 'V') : 'never', formatArea(x.predicted.area),
-        x.feasible ? '' : x.binding ?? '',
+        x.feasible ? '' : bindingText(x),
       ]);
       out.push(...block('topologies tried (auto)', { headers: ['topology', 'status', 'Rout', 'headroom', 'area', 'binding'], rows }, c));
     }
@@ -53,7 +54,7 @@ export function renderSizeBrief(result: SizeResult, opts: SizeTextOptions): stri
     formatEng(s.predicted.iout, 'A'), formatEng(s.predicted.rout, 'Ω'),
     Number.isFinite(s.predicted.headroom) ? formatEng(s.predicted.headroom, 'V') : 'never',
     formatArea(s.predicted.area), s.predicted.sigma === undefined ? '—' : `${Number((s.predicted.sigma * 100).toPrecision(3))} %`,
-    s.feasible ? '' : s.binding ?? '',
+    s.feasible ? '' : bindingText(s),
   ]);
   return [
     `kit ${result.kit}, corners ${result.corners.join(', ')}, supply ${result.supply} V`,

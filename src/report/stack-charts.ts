@@ -1,9 +1,9 @@
-import type { StackSpec } from '../spec/types.js';
+import type { StackSpec } from '../design/types.js';
 import type { StackResult } from '../solve/types.js';
 import { lineChart, targetLabel, type ScatterSeries, type TargetLine } from './chart.js';
 import { formatArea, polarityName } from './format.js';
 import { slug } from './svg.js';
-import type { FrontPoint } from './types.js';
+import type { FrontPoint } from '../solve/pareto.js';
 
 export interface StackChartSet {
   rout: string;

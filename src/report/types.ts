@@ -1,22 +1,10 @@
-import type { DesignSpec } from '../spec/types.js';
+import type { DesignSpec } from '../design/types.js';
 import type { Polarity } from '../table/types.js';
 import type { SizeResult } from '../solve/types.js';
-import type { Topology } from '../spec/types.js';
+import type { FrontPoint } from '../solve/pareto.js';
+import type { DesignCurve } from '../device/curves.js';
 import type { Confirmation } from '../confirm/types.js';
 
-/** One point of a design curve at fixed L, VDS, VSB (SI; ft NaN/absent without capacitances). */
-export interface DesignPoint {
-  vgs: number;
-  gmid: number;
-  gain: number;
-  jd: number;
-  ft?: number;
-}
-
-export interface LengthCurve {
-  l: number;
-  points: DesignPoint[];
-}
 
 /** Design curves of one device of one kit and corner, one curve per length. */
 export interface DesignCurves {
@@ -25,18 +13,7 @@ export interface DesignCurves {
   corner: string;
   vds: number;
   vsb: number;
-  curves: LengthCurve[];
-}
-
-/** One non-dominated candidate of a stack's search. */
-export interface FrontPoint {
-  headroom: number;
-  rout: number;
-  /** Output-stack area W·L summed, m². */
-  area: number;
-  topology?: Topology;
-  /** Lengths of the output devices, bottom first, m. */
-  l?: number[];
+  curves: DesignCurve[];
 }
 
 export interface StackFront {

@@ -1,25 +1,17 @@
-import type { Objective, StackSpec } from '../spec/types.js';
+import type { StackSpec } from '../design/types.js';
+import { VOLT_SCALE, distanceToFeasible, marginsFor, objectiveCompare } from '../policy.js';
 import type { SizeResult, StackResult } from './types.js';
 
-/** Better by the spec's objective: smaller area, lower headroom or higher Rout (then smaller area). */
-function better(objective: Objective, a: StackResult, b: StackResult): boolean {
-  const pa = a.predicted;
-  const pb = b.predicted;
-  if (objective === 'headroom' && pa.headroom !== pb.headroom) return pa.headroom < pb.headroom;
-  if (objective === 'rout' && pa.rout !== pb.rout) return pa.rout > pb.rout;
-  return pa.area < pb.area;
-}
-
 /**
- * How far an infeasible result is from its targets: decades of Rout missing plus
- * headroom excess relative to the target (a never-met headroom counts as far).
+ * How far an infeasible result is from its targets, by the same rule the
+ * search ranks designs with (policy.distanceToFeasible) on its predicted values.
  */
 export function shortfall(r: StackResult, spec: StackSpec): number {
   const p = r.predicted;
-  const rout = p.rout > 0 ? Math.max(0, Math.log10(spec.rout / p.rout)) : 10;
-  const head = Number.isFinite(p.headroom) ? Math.max(0, (p.headroom - spec.headroom) / spec.headroom) : 10;
-  const sigma = spec.mismatch !== undefined && p.sigma !== undefined ? Math.max(0, p.sigma / spec.mismatch - 1) : 0;
-  return rout + head + sigma;
+  const b = r.binding;
+  // Only a saturation verdict says how far the lower devices are from saturation.
+  const saturation = b?.target !== 'saturation' ? Infinity : b.achieved !== null && b.required !== null ? (b.achieved - b.required) / VOLT_SCALE : -Infinity;
+  return distanceToFeasible(marginsFor(spec, { rout: p.rout, headroom: p.headroom, iout: p.iout, sigma: p.sigma, saturation }));
 }
 
 /**
@@ -28,7 +20,7 @@ export function shortfall(r: StackResult, spec: StackSpec): number {
  */
 export function chooseResult(results: readonly StackResult[], spec: StackSpec): StackResult {
   let best: StackResult | undefined;
-  for (const r of results) if (r.feasible && (!best || better(spec.objective, r, best))) best = r;
+  for (const r of results) if (r.feasible && (!best || objectiveCompare(spec.objective, r.predicted, best.predicted) < 0)) best = r;
   if (best) return best;
   return results.reduce((a, b) => (shortfall(b, spec) < shortfall(a, spec) ? b : a));
 }

@@ -1,4 +1,4 @@
-import type { StackSpec } from '../spec/types.js';
+import type { StackSpec } from '../design/types.js';
 import type { StackResult } from './types.js';
 
 /** One compared number: old, new and the change in percent (NaN when undefined). */

@@ -1,10 +1,12 @@
 import { StackwrightError } from '../errors.js';
 import type { LengthSlice } from '../device/types.js';
-import type { StackSpec } from '../spec/types.js';
+import type { StackSpec } from '../design/types.js';
 import type { MismatchCoefficients } from '../table/types.js';
-import { cornerUt } from './temperature.js';
+import { cornerUt } from './evaluate/temperature.js';
+import { midSpan } from '../policy.js';
 import type { KitAccess } from './kit.js';
-import { gmidGrid, lengthGrid } from './grid.js';
+import { gmidGrid, lengthGrid } from './search/grid.js';
+import type { SweepCache } from './search/stage-options.js';
 
 /** Everything one stack's search shares: spec, kit, grids, slice cache and counters. */
 export interface SolveContext {
@@ -34,6 +36,8 @@ export interface SolveContext {
    */
   saturation: 'require' | 'report';
   count: Counts;
+  /** VGS sweeps by length, VDS mode and VSB on the nominal corner, shared by this stack's topologies. */
+  sweeps: SweepCache;
 }
 
 /** Work done and candidates turned away, for the report. */
@@ -80,7 +84,7 @@ export function makeContext(spec: StackSpec, kit: KitAccess, supply: number, cor
     if (u === undefined) uts.set(corner, (u = cornerUt(kit, corner, spec.device)));
     return u;
   };
-  const vmid = 0.5 * (spec.headroom + spec.span);
+  const vmid = midSpan(spec);
   const lengths = lengthGrid(spec, kit.lengths(nominal, spec.device), where);
   const { values: gmids, step: gmidStep } = gmidGrid(spec, lengths.map((l) => slice(nominal, l)), vmid, where);
   return {
@@ -90,5 +94,6 @@ export function makeContext(spec: StackSpec, kit: KitAccess, supply: number, cor
     wmin: kit.lengths(nominal, spec.device)[0],
     saturation: 'require',
     count: { screened: 0, exact: 0, triode: 0, narrow: 0 },
+    sweeps: new Map(),
   };
 }

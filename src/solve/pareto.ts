@@ -1,4 +1,5 @@
-import type { Topology } from '../spec/types.js';
+import { dominates, nonDominated } from '../numeric/pareto.js';
+import type { Topology } from '../design/types.js';
 
 /** One exactly evaluated design on the trade-off front. */
 export interface FrontPoint {
@@ -17,11 +18,12 @@ export interface FrontPoint {
   setpoints: number[];
 }
 
+// Headroom ↓, Rout ↑, area ↓ as criteria to minimise.
+const criteria = (p: FrontPoint): number[] => [p.headroom, -p.rout, p.area];
+
 /** a dominates b: no worse in headroom, Rout and area, and strictly better in one. */
-export function dominates(a: FrontPoint, b: FrontPoint): boolean {
-  const noWorse = a.headroom <= b.headroom && a.rout >= b.rout && a.area <= b.area;
-  const better = a.headroom < b.headroom || a.rout > b.rout || a.area < b.area;
-  return noWorse && better;
+export function frontDominates(a: FrontPoint, b: FrontPoint): boolean {
+  return dominates(criteria(a), criteria(b));
 }
 
 /**
@@ -32,10 +34,7 @@ export function paretoFront(candidates: readonly FrontPoint[]): FrontPoint[] {
   const pts = candidates
     .filter((p) => Number.isFinite(p.headroom) && Number.isFinite(p.area) && p.rout > 0)
     .sort((a, b) => a.headroom - b.headroom || b.rout - a.rout || a.area - b.area);
-  const front: FrontPoint[] = [];
-  for (const p of pts) {
-    if (front.some((q) => dominates(q, p) || (q.headroom === p.headroom && q.rout === p.rout && q.area === p.area))) continue;
-    front.push(p);
-  }
-  return front.filter((p) => !front.some((q) => q !== p && dominates(q, p)));
+  // Equal points are kept once (the first in this order).
+  const distinct = pts.filter((p, j) => j === 0 || !(pts[j - 1].headroom === p.headroom && pts[j - 1].rout === p.rout && pts[j - 1].area === p.area));
+  return nonDominated(distinct, criteria);
 }

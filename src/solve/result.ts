@@ -1,12 +1,14 @@
 import type { Polarity } from '../table/types.js';
-import { rolesOf, squareLawCheck } from '../stack/index.js';
-import { formatEng } from '../units/index.js';
+import { squareLawCheck } from '../stack/index.js';
+import { topologyOf } from '../topology/index.js';
 import type { BiasResult, CornerResult, CurvePoint, DeviceResult, Predicted, SquareLawCheck, StackResult } from './types.js';
 import type { SolveContext } from './context.js';
-import type { StackSpec } from '../spec/types.js';
-import { CURRENT_WINDOW, describe, meetsAll, tightest, type Margins } from './checks.js';
-import { ensureCorners, nominalOk, type Evaluated } from './evaluate.js';
-import type { StackEval } from './stackeval.js';
+import type { StackSpec } from '../design/types.js';
+import { tightest, type Margins } from './evaluate/checks.js';
+import { meetsAll } from '../policy.js';
+import { verdict, verdictOf, type Verdict } from './evaluate/verdict.js';
+import { ensureCorners, nominalOk, type Evaluated } from './evaluate/evaluate.js';
+import type { StackEval } from './evaluate/stack-eval.js';
 
 /** Absolute voltage to ground of a stack-coordinate voltage. */
 export function absolute(device: Polarity, supply: number, x: number): number {
@@ -30,7 +32,7 @@ export function curveOf(ev: StackEval, device: Polarity, supply: number): CurveP
 }
 
 function devicesOf(e: Evaluated, device: Polarity, supply: number): DeviceResult[] {
-  const roles = rolesOf(e.cand.topology);
+  const roles = topologyOf(e.cand.topology).roles;
   return e.nominal.devices.map((d, k) => {
     const b = e.nominal.mid.devices[k];
     const op = d.slice.op(b.vgs, b.vds, b.vsb, d.w);
@@ -53,17 +55,17 @@ function biasOf(e: Evaluated, device: Polarity, supply: number): BiasResult[] {
 }
 
 function squareLawOf(ctx: SolveContext, e: Evaluated): SquareLawCheck | undefined {
-  const s = squareLawCheck(e.cand.topology, e.slices, e.sized.w, e.nominal.mid.devices, ctx.spec.current);
+  const s = squareLawCheck(topologyOf(e.cand.topology), e.slices, e.sized.w, e.nominal.mid.devices, ctx.spec.current);
   return Number.isFinite(s.vth) ? s : undefined;
 }
 
 /** One corner's report: why it fails (`binding`) or, when it meets every target, what is tightest. */
 export function cornerResult(
   spec: StackSpec, corner: string, m: Margins, ev: StackEval | null, sigma: number | undefined,
-  at: { area: number; biasArea: number; gates: readonly number[]; supply: number },
+  at: { area: number; biasArea: number; gates: readonly number[]; supply: number; vmid: number },
 ): CornerResult {
   const feasible = meetsAll(m);
-  const words = describe(tightest(m), spec, ev, sigma);
+  const words = verdictOf(tightest(m), spec, ev, sigma, at.vmid, corner);
   const r: CornerResult = {
     corner, feasible,
     predicted: predictedOf(ev, at.area, at.biasArea, sigma),
@@ -76,7 +78,7 @@ export function cornerResult(
 
 /** Per-corner report, the nominal corner first. */
 function cornerResults(ctx: SolveContext, e: Evaluated): CornerResult[] {
-  const at = (gates: readonly number[]) => ({ area: e.area, biasArea: e.biasArea, gates, supply: ctx.supply });
+  const at = (gates: readonly number[]) => ({ area: e.area, biasArea: e.biasArea, gates, supply: ctx.supply, vmid: ctx.vmid });
   const nominal = cornerResult(ctx.spec, ctx.nominal, e.margins, e.nominal, e.sigma, at(e.nominal.gates));
   const others = ensureCorners(ctx, e, true).map((c) => cornerResult(ctx.spec, c.corner, c.margins, c.ev, c.sigma, at(c.gates)));
   return [nominal, ...others];
@@ -86,9 +88,10 @@ function smallest(m: Margins): number {
   return Math.min(m.rout, m.headroom, m.iout, m.mismatch, m.saturation);
 }
 
-/** Words for why nothing met the targets, and the nearest points reached. */
+/** Why nothing met the targets, and the nearest points reached. */
 function infeasibility(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[]): Pick<StackResult, 'binding' | 'nearest'> {
   const s = ctx.spec;
+  const on = (target: Verdict['target'] & keyof Margins, e: { ev: Evaluated['nominal'] | null; sigma?: number }, corner: string) => verdictOf(target, s, e.ev, e.sigma, ctx.vmid, corner);
   const mm = (e: Evaluated) => e.margins.mismatch >= 0;
   // Nearest points among designs meeting mismatch and current; among all when none does.
   const usable = pool.some((e) => mm(e) && e.margins.iout >= 0);
@@ -101,50 +104,39 @@ function infeasibility(ctx: SolveContext, best: Evaluated, pool: readonly Evalua
     routAtHeadroom = Math.max(routAtHeadroom, e.nominal.routAtTarget);
   }
   const nearest = { headroomAtRout, routAtHeadroom };
-  if (!pool.some((e) => e.margins.saturation >= 0)) {
-    const room = `no explored ${best.cand.topology} keeps its lower devices saturated below the ${s.headroom.toFixed(3)} V headroom target`;
-    return { binding: `${describe('saturation', s, best.nominal, best.sigma)}; ${room}`, nearest };
-  }
+  const nominal = { ev: best.nominal, sigma: best.sigma };
+  if (!pool.some((e) => e.margins.saturation >= 0)) return { binding: on('saturation', nominal, ctx.nominal), nearest };
   if (nominalOk(best)) {
     const c = (best.corners ?? []).find((x) => !meetsAll(x.margins));
-    if (c) return { binding: `corner ${c.corner}: ${describe(tightest(c.margins), s, c.ev, c.sigma)}`, nearest };
+    if (c) return { binding: on(tightest(c.margins), c, c.corner), nearest };
   }
   const physical = pool.filter((e) => e.margins.rout >= 0 && e.margins.headroom >= 0);
   if (s.mismatch !== undefined && physical.length > 0 && !physical.some(mm)) {
     const sig = Math.min(...physical.map((e) => e.sigma ?? Infinity));
-    return { binding: `mismatch: best σ ${(sig * 100).toFixed(3)} % (target ${(s.mismatch * 100).toFixed(3)} %) with rout and headroom met`, nearest };
+    return { binding: verdict('mismatch', s.mismatch, sig, ctx.vmid, ctx.nominal), nearest };
   }
   if (physical.some((e) => e.margins.iout < 0) && !physical.some((e) => e.margins.iout >= 0)) {
-    return { binding: `iout: ${describe('iout', s, best.nominal, best.sigma)}`, nearest };
+    return { binding: on('iout', nominal, ctx.nominal), nearest };
   }
+  // Designs meeting the targets at the nominal corner miss them at another.
   const cornerMiss = pool.find((e) => nominalOk(e) && e.corners?.some((c) => !meetsAll(c.margins)));
   const c = cornerMiss?.corners?.find((x) => !meetsAll(x.margins));
-  if (c) return { binding: `corner ${c.corner}: ${describe(tightest(c.margins), s, c.ev, c.sigma)} (designs meeting the targets at ${ctx.nominal} miss them there)`, nearest };
-  return { binding: routHeadroomWords(s, nearest), nearest };
+  if (c) return { binding: on(tightest(c.margins), c, c.corner), nearest };
+  return { binding: nearestMiss(ctx, best, nearest), nearest };
 }
 
 /**
- * Words for a missed Rout/headroom pair from the nearest points:
- * "rout: best 4.21 MΩ at the 0.500 V headroom target (needs 100 MΩ); no explored design reaches 100 MΩ at any headroom".
+ * The missed Rout/headroom pair from the nearest points: Rout at the headroom
+ * target when it falls short, else the headroom it takes (the current window
+ * is what pushes it up), else the tightest target of the best design (each
+ * target is reachable, but not together).
  */
-export function routHeadroomWords(s: StackSpec, nearest: { headroomAtRout: number; routAtHeadroom: number }): string {
-  const need = formatEng(s.rout, 'Ω');
-  const target = `${s.headroom.toFixed(3)} V`;
-  const h = nearest.headroomAtRout;
-  const r = nearest.routAtHeadroom;
-  const anyHeadroom = Number.isFinite(h)
-    ? `${need} needs ${h.toFixed(3)} V of headroom at best`
-    : `no explored design reaches ${need} at any headroom`;
-  if (r >= s.rout && h <= s.headroom) {
-    return `no explored design meets everything at once: Rout reaches ${formatEng(r, 'Ω')} at ${target} and ${h.toFixed(3)} V of headroom is reachable, but not together with the other targets`;
-  }
-  if (r >= s.rout && Number.isFinite(h)) {
-    // Rout is there at the target, so the current window is what pushes the headroom up.
-    const pct = (CURRENT_WINDOW * 100).toFixed(0);
-    return `headroom: best ${h.toFixed(3)} V (needs ${target}); Rout reaches ${formatEng(r, 'Ω')} at ${target} but the current leaves its ${pct} % window below ${h.toFixed(3)} V`;
-  }
-  if (r > 0) return `rout: best ${formatEng(r, 'Ω')} at the ${target} headroom target (needs ${need}); ${anyHeadroom}`;
-  return `rout: no explored design has a usable Rout at the ${target} headroom target (outside the table); ${anyHeadroom}`;
+function nearestMiss(ctx: SolveContext, best: Evaluated, nearest: { headroomAtRout: number; routAtHeadroom: number }): Verdict {
+  const s = ctx.spec;
+  const { headroomAtRout: h, routAtHeadroom: r } = nearest;
+  if (r >= s.rout && h <= s.headroom) return verdictOf(tightest(best.margins), s, best.nominal, best.sigma, ctx.vmid, ctx.nominal);
+  if (r >= s.rout && Number.isFinite(h)) return verdict('headroom', s.headroom, h, undefined, ctx.nominal);
+  return verdict('rout', s.rout, r > 0 ? r : undefined, s.headroom, ctx.nominal);
 }
 
 /** The report for one topology: the chosen design, its corners, and why it fails if it does. */
@@ -167,14 +159,14 @@ export function stackResult(ctx: SolveContext, best: Evaluated, pool: readonly E
   else {
     const all = [{ corner: ctx.nominal, m: best.margins }, ...(best.corners ?? []).map((c) => ({ corner: c.corner, m: c.margins }))];
     const worst = all.reduce((a, b) => (smallest(b.m) < smallest(a.m) ? b : a));
-    const words = corners.find((c) => c.corner === worst.corner)?.tightest ?? '';
-    r.tightest = ctx.corners.length > 1 ? `corner ${worst.corner}: ${words}` : words;
+    const t = corners.find((c) => c.corner === worst.corner)?.tightest;
+    if (t) r.tightest = t;
   }
   return r;
 }
 
 /** A placeholder result when no candidate could be realised from the table at all. */
-export function emptyResult(ctx: SolveContext, topology: StackResult['topology'], evaluated: number, why: string): StackResult {
+export function emptyResult(ctx: SolveContext, topology: StackResult['topology'], evaluated: number, why: Verdict): StackResult {
   return {
     name: ctx.spec.name, device: ctx.spec.device, topology, feasible: false,
     binding: why, nearest: { headroomAtRout: Infinity, routAtHeadroom: 0 },

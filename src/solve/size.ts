@@ -1,16 +1,18 @@
 import { StackwrightError } from '../errors.js';
-import { resolveCorners } from '../spec/index.js';
-import { TOPOLOGIES, type DesignSpec, type StackSpec, type Topology } from '../spec/types.js';
+import { resolveCorners } from '../design/index.js';
+import type { DesignSpec, StackSpec, Topology } from '../design/types.js';
+import { topologyNames } from '../topology/index.js';
 import { CAUTION, type SizeResult, type StackResult } from './types.js';
 import type { KitAccess } from './kit.js';
 import { makeContext, type SolveContext } from './context.js';
-import { screen } from './screen.js';
-import { evaluateOnce, refine, type Seen } from './refine.js';
-import { finalize, fullyOk, nominalOk, totalViolation, type Evaluated } from './evaluate.js';
-import { objectiveCompare, pickBest } from './rank.js';
+import { screen } from './search/screen.js';
+import { evaluateOnce, refine, type Seen } from './search/refine.js';
+import { finalize, fullyOk, nominalOk, totalViolation, type Evaluated } from './evaluate/evaluate.js';
+import { compareDesigns, pickBest } from './search/rank.js';
 import { emptyResult, stackResult } from './result.js';
+import { chooseResult } from './choose.js';
 import { paretoFront, type FrontPoint } from './pareto.js';
-import { formatEng } from '../units/index.js';
+import { verdict, type Verdict } from './evaluate/verdict.js';
 
 export interface SizeStackResult {
   results: StackResult[];
@@ -36,7 +38,7 @@ function seedsOf(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[])
   const ok = nominalOk(best) && fullyOk(ctx, best);
   const rest = pool
     .filter((e) => e !== best && (ok ? nominalOk(e) : !nominalOk(e)))
-    .sort((a, b) => (ok ? objectiveCompare(ctx.spec.objective, a, b) : totalViolation(a) - totalViolation(b)));
+    .sort((a, b) => (ok ? compareDesigns(ctx.spec.objective, a, b) : totalViolation(a) - totalViolation(b)));
   return [best, ...rest.slice(0, 1)];
 }
 
@@ -66,32 +68,20 @@ function sizeTopology(ctx: SolveContext, topology: Topology): { result: StackRes
   // Nothing with saturated lower devices on the screen's grid: search again with them allowed, so refinement
   // can still reach a saturated design or, failing that, show the nearest one failing on saturation.
   // Only saturated designs go on the front.
-  ctx.saturation = 'report';
-  let near: ReturnType<typeof search>;
-  try {
-    near = search(ctx, topology);
-  } finally {
-    ctx.saturation = 'require';
-  }
+  // The relaxed context shares the counters, slices and sweeps; only the saturation rule differs.
+  const near = search({ ...ctx, saturation: 'report' }, topology);
   if (near) return { result: stackResult(ctx, near.best, near.pool, counted()), pool: near.pool.filter((e) => e.margins.saturation >= 0) };
-  const triode = ctx.count.triode > rejected.triode;
-  return { result: emptyResult(ctx, topology, counted(), triode ? nothingFitsWords(ctx, topology) : noCandidateWords(ctx, topology, rejected)), pool: [] };
+  return { result: emptyResult(ctx, topology, counted(), noCandidate(ctx, rejected)), pool: [] };
 }
 
-/** Why a topology got no design at all, with the rejections counted since `from`. */
-function noCandidateWords(ctx: SolveContext, topology: Topology, from: { triode: number; narrow: number }): string {
+/** Why a topology got no design at all, from the rejections counted since `from`. */
+function noCandidate(ctx: SolveContext, from: { triode: number; narrow: number }): Verdict {
   const triode = ctx.count.triode - from.triode;
   const narrow = ctx.count.narrow - from.narrow;
-  const why: string[] = [];
-  if (triode > 0) why.push(`${triode} left a lower device below its VDSsat at mid-span`);
-  if (narrow > 0) why.push(`${narrow} needed a device narrower than the minimum width ${formatEng(ctx.wmin, 'm')}`);
-  return `${topology}: no candidate could be realised within the table${why.length ? ` (${why.join('; ')})` : ''}`;
-}
-
-/** Why the screen kept nothing: the lower devices' saturation and the minimum width leave no room. */
-function nothingFitsWords(ctx: SolveContext, topology: Topology): string {
-  const floor = formatEng(4 * ctx.ut(ctx.nominal), 'V');
-  return `${topology}: no combination of grid options keeps every lower device saturated (VDSsat ≥ 4·UT = ${floor} each) with W ≥ ${formatEng(ctx.wmin, 'm')} below the ${ctx.spec.headroom.toFixed(3)} V headroom target`;
+  // No lower device saturated (VDSsat ≥ 4·UT at any inversion level) below the headroom target.
+  if (triode > 0) return verdict('saturation', 4 * ctx.ut(ctx.nominal), undefined, ctx.spec.headroom, ctx.nominal);
+  if (narrow > 0) return verdict('width', ctx.wmin, undefined, undefined, ctx.nominal);
+  return verdict('table', undefined, undefined, ctx.vmid, ctx.nominal);
 }
 
 /**
@@ -104,7 +94,7 @@ function nothingFitsWords(ctx: SolveContext, topology: Topology): string {
  */
 export function sizeStack(spec: StackSpec, kit: KitAccess, opts: { supply: number; corners: string[] }): SizeStackResult {
   const ctx = makeContext(spec, kit, opts.supply, opts.corners);
-  const topologies: readonly Topology[] = spec.topology === 'auto' ? TOPOLOGIES : [spec.topology];
+  const topologies: readonly Topology[] = spec.topology === 'auto' ? topologyNames() : [spec.topology];
   const results: StackResult[] = [];
   const all: Evaluated[] = [];
   for (const t of topologies) {
@@ -117,7 +107,8 @@ export function sizeStack(spec: StackSpec, kit: KitAccess, opts: { supply: numbe
 
 /**
  * Size every stack of a design spec on the kit, over the spec's corners
- * (resolved against the kit: default nominal, "all" for every corner).
+ * (resolved against the kit: default nominal, "all" for every corner). With
+ * topology 'auto' each topology gets a result and the chosen one has `chosen: true`.
  */
 export function sizeDesign(design: DesignSpec, kit: KitAccess): SizeResult & { fronts: Record<string, FrontPoint[]> } {
   if (design.kit !== kit.kit) {
@@ -128,8 +119,25 @@ export function sizeDesign(design: DesignSpec, kit: KitAccess): SizeResult & { f
   const fronts: Record<string, FrontPoint[]> = {};
   for (const s of design.stacks) {
     const r = sizeStack(s, kit, { supply: design.supply, corners });
+    if (s.topology === 'auto') {
+      // The one the objective prefers (or the nearest when none is feasible) is marked; the rest are alternatives.
+      const pick = chooseResult(r.results, s);
+      for (const x of r.results) x.chosen = x === pick;
+    }
     stacks.push(...r.results);
     fronts[s.name] = r.front;
   }
   return { kit: kit.kit, corners, supply: design.supply, caution: CAUTION, stacks, fronts };
+}
+
+/** A size run: the result as `size --json` prints it, and the Pareto front per stack name. */
+export interface SizeRun {
+  result: SizeResult;
+  fronts: Record<string, FrontPoint[]>;
+}
+
+/** sizeDesign with the fronts kept beside the result. */
+export function sizeSpec(spec: DesignSpec, kit: KitAccess): SizeRun {
+  const { fronts, ...result } = sizeDesign(spec, kit);
+  return { result, fronts };
 }

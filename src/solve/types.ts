@@ -1,26 +1,19 @@
 import type { Polarity } from '../table/types.js';
-import type { Topology } from '../spec/types.js';
+import type { OperatingPoint } from '../device/types.js';
+import type { Topology } from '../topology/types.js';
+import type { Role, SquareLawCheck } from '../stack/types.js';
+import type { Verdict } from './evaluate/verdict.js';
 
-export type Role = 'bottom' | 'middle' | 'top';
+export type { Role, SquareLawCheck };
 
-/** A sized device of the output stack. Voltages are magnitudes except `gate`. */
-export interface DeviceResult {
+/**
+ * A sized device of the output stack: the operating-point record (device layer) without capacitances, plus
+ * its role, absolute gate voltage and VDSsat. Voltages are magnitudes except `gate`.
+ */
+export interface DeviceResult extends Omit<OperatingPoint, 'cgg' | 'cgs' | 'cgd' | 'cdd'> {
   role: Role;
-  w: number;
-  l: number;
   /** Absolute gate voltage to ground, V. */
   gate: number;
-  vgs: number;
-  vds: number;
-  vsb: number;
-  gmid: number;
-  id: number;
-  gm: number;
-  gds: number;
-  gmb: number;
-  gain: number;
-  jd: number;
-  ft: number;
   /** Table-derived saturation voltage at mid-span (EKV interpolation from gm/ID), V. */
   vdsat?: number;
 }
@@ -62,18 +55,6 @@ export interface Predicted {
   sigma?: number;
 }
 
-export interface SquareLawCheck {
-  vth: number;
-  /** Square-law VGS of each device at its current and size. */
-  vgs: number[];
-  vov: number[];
-  /** Rule-of-thumb headroom: Vov (single), 2Vov (cascode), VGS+Vov (cascode-stacked), 3Vov (triple). */
-  headroom: number;
-  /** Rout from λ = gds/ID at each device: ro = 1/(λ·I). */
-  rout: number;
-  lambda: number[];
-}
-
 export interface CornerResult {
   corner: string;
   feasible: boolean;
@@ -81,9 +62,9 @@ export interface CornerResult {
   /** Gate voltages the bias devices produce at this corner, V. */
   gates: number[];
   /** Why this corner fails (infeasible corners only). */
-  binding?: string;
+  binding?: Verdict;
   /** The constraint with the least margin (feasible corners only). */
-  tightest?: string;
+  tightest?: Verdict;
 }
 
 export interface StackResult {
@@ -91,10 +72,10 @@ export interface StackResult {
   device: Polarity;
   topology: Topology;
   feasible: boolean;
-  /** Which target binds when infeasible (e.g. "rout", "headroom", "mismatch"), with words. */
-  binding?: string;
-  /** When feasible: the constraint with the least margin, over all corners, with words. */
-  tightest?: string;
+  /** When infeasible: the target that binds (at the corner named in it). */
+  binding?: Verdict;
+  /** When feasible: the constraint with the least margin over all corners. */
+  tightest?: Verdict;
   /** Nearest feasible points when infeasible. */
   nearest?: { headroomAtRout?: number; routAtHeadroom?: number };
   devices: DeviceResult[];

@@ -11,7 +11,7 @@ export {
   withSweepOutput,
   probesOf,
   routOf,
-  sampleAt,
+  interpolateCurve,
   midSpan,
   measuredHeadroom,
   simulateOp,

@@ -3,6 +3,7 @@ import type { Polarity } from '../table/types.js';
 import { PROBE_PREFIX, SWEEP_NODE } from './netlist.js';
 import { runNgspice, type RunOptions } from './run.js';
 import { parseWrdata } from './wrdata.js';
+import { CURRENT_WINDOW, currentMargin, midSpan } from '../policy.js';
 
 export interface SweepPoint {
   /** Stack voltage, V. */
@@ -91,7 +92,7 @@ export function routOf(points: readonly SweepPoint[]): RoutPoint[] {
 }
 
 /** Linear interpolation of iout and rout at stack voltage v (inside the sweep only). */
-export function sampleAt(curve: readonly RoutPoint[], v: number): RoutPoint {
+export function interpolateCurve(curve: readonly RoutPoint[], v: number): RoutPoint {
   const n = curve.length;
   if (!(v >= curve[0].v - 1e-12 && v <= curve[n - 1].v + 1e-12)) {
     throw new StackwrightError(`v = ${v} V is outside the simulated sweep ${curve[0].v}..${curve[n - 1].v} V`, { kind: 'range', where: 'measure' });
@@ -112,14 +113,9 @@ export interface HeadroomTargets {
   headroom: number;
   /** Top of the span, V. */
   span: number;
-  /** Relative current window, default 0.01. */
-  window?: number;
 }
 
-/** Stack voltage midway between spec headroom and span, where iout is referenced. */
-export function midSpan(t: Pick<HeadroomTargets, 'headroom' | 'span'>): number {
-  return 0.5 * (t.headroom + t.span);
-}
+export { midSpan };
 
 /**
  * Measured headroom: the lowest v such that for every v' in [v, span]
@@ -128,10 +124,9 @@ export function midSpan(t: Pick<HeadroomTargets, 'headroom' | 'span'>): number {
  * interpolated on the worse of the two margins. Infinity when the targets fail at span.
  */
 export function measuredHeadroom(curve: readonly RoutPoint[], t: HeadroomTargets): number {
-  const iMid = sampleAt(curve, midSpan(t)).iout;
-  const w = t.window ?? 0.01;
+  const iMid = interpolateCurve(curve, midSpan(t)).iout;
   const pts = curve.filter((p) => p.v <= t.span + 1e-9);
-  const margin = (p: RoutPoint) => Math.min(Math.min(p.rout / t.rout - 1, 1), w - Math.abs(p.iout - iMid) / Math.abs(iMid));
+  const margin = (p: RoutPoint) => Math.min(Math.min(p.rout / t.rout - 1, 1), CURRENT_WINDOW * currentMargin(p.iout, iMid));
   let j = pts.length - 1;
   if (j < 0 || margin(pts[j]) < 0) return Infinity;
   while (j > 0 && margin(pts[j - 1]) >= 0) j--;

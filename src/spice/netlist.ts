@@ -1,8 +1,9 @@
 import { StackwrightError } from '../errors.js';
 import { formatEng, formatSpice } from '../units/index.js';
 import { CAUTION, type Role, type SizeResult, type StackResult } from '../solve/types.js';
-import type { StackSpec } from '../spec/types.js';
+import type { StackSpec } from '../design/types.js';
 import { includeLines } from './include.js';
+import { bindingText } from '../report/verdict.js';
 
 export interface NetlistOptions {
   /** Supply voltage, V. */
@@ -61,7 +62,7 @@ function deck(stacks: readonly StackResult[], opts: NetlistOptions, specs: (Netl
   lines.push(`vdd vdd 0 dc ${formatSpice(opts.supply)}`, `${SWEEP_SOURCE} ${SWEEP_NODE} 0 dc ${formatSpice(at)}`);
   stacks.forEach((s, k) => {
     // A design may hold stacks the search could not size: note them, keep the deck simulatable.
-    if (skipEmpty && s.devices.length === 0) lines.push('', `* ---- stack "${s.name}": not sized (${s.binding ?? 'infeasible'}), nothing to simulate`);
+    if (skipEmpty && s.devices.length === 0) lines.push('', `* ---- stack "${s.name}": not sized (${bindingText(s) || 'infeasible'}), nothing to simulate`);
     else lines.push('', ...stackLines(s, `s${k + 1}`, opts, models, specs[k]));
   });
   lines.push(
@@ -93,7 +94,7 @@ export function stackLines(
   const out = `out_${tag}`;
   const pr = s.predicted;
   const lines = [
-    `* ---- stack "${s.name}": ${s.device}-type ${s.topology}${p ? ', hanging from the supply' : ', on ground'}${s.feasible ? '' : ` -- INFEASIBLE (${s.binding ?? 'targets not met'})`}`,
+    `* ---- stack "${s.name}": ${s.device}-type ${s.topology}${p ? ', hanging from the supply' : ', on ground'}${s.feasible ? '' : ` -- INFEASIBLE (${bindingText(s) || 'targets not met'})`}`,
   ];
   if (spec) {
     lines.push(`* targets: iout ${formatEng(spec.current, 'A')}, rout >= ${formatEng(spec.rout, 'ohm')}, headroom ${formatEng(spec.headroom, 'V')}, span ${formatEng(spec.span, 'V')}`);

@@ -1,9 +1,7 @@
 import type { LengthSlice } from '../device/types.js';
-import type { Topology } from '../spec/types.js';
-import type { Role } from '../solve/types.js';
-import { rolesOf } from './topology.js';
+import type { Role, StackShape } from './types.js';
 import { vgsForCurrent } from './invert.js';
-import { covers, rangeError } from './range.js';
+import { covers, outsideSlice } from './range.js';
 import { StackwrightError } from '../errors.js';
 
 /** A diode-connected bias device in stack coordinates. */
@@ -39,30 +37,30 @@ function diodeWidth(slice: LengthSlice, vgs: number, vsb: number, ib: number): n
 /**
  * Diodes (gate = drain) that reproduce each gate voltage at current `ib`, one
  * per output device with the same L. Low-voltage biasing: every diode on the
- * rail (VSB = 0, VDS = VGS = gate). Stacked cascode: the top diode sits on the
- * bottom one (VSB = g1, VGS = g2 − g1). W = ib / jd(VGS, VGS, VSB).
+ * rail (VSB = 0, VDS = VGS = gate). Stacked biasing: diode k sits on diode k − 1
+ * (VSB = g(k−1), VGS = g(k) − g(k−1)). W = ib / jd(VGS, VGS, VSB).
  * With `widen`, a diode narrower than wmin takes the next longer length until
  * W ≥ wmin (same VGS, so the same voltage); null when no length does.
  * Throws kind 'range' when a diode bias is outside the table.
  */
-export function biasDevices(topology: Topology, slices: readonly LengthSlice[], gates: readonly number[], ib: number): BiasDevice[];
-export function biasDevices(topology: Topology, slices: readonly LengthSlice[], gates: readonly number[], ib: number, widen: DiodeWidening): BiasDevice[] | null;
+export function biasDevices(shape: StackShape, slices: readonly LengthSlice[], gates: readonly number[], ib: number): BiasDevice[];
+export function biasDevices(shape: StackShape, slices: readonly LengthSlice[], gates: readonly number[], ib: number, widen: DiodeWidening): BiasDevice[] | null;
 export function biasDevices(
-  topology: Topology,
+  shape: StackShape,
   slices: readonly LengthSlice[],
   gates: readonly number[],
   ib: number,
   widen?: DiodeWidening,
 ): BiasDevice[] | null {
-  const roles = rolesOf(topology);
+  const roles = shape.roles;
   const out: BiasDevice[] = [];
   for (let k = 0; k < roles.length; k++) {
     const drives = roles[k];
-    const stacked = topology === 'cascode-stacked' && k === 1;
-    const vsb = stacked ? gates[0] : 0;
+    const stacked = shape.stackedBias && k > 0;
+    const vsb = stacked ? gates[k - 1] : 0;
     const vgs = gates[k] - vsb;
     const slice = slices[k];
-    if (!covers(slice, vgs, vgs, vsb)) throw rangeError(slice, vgs, vgs, vsb, `bias diode for the ${drives} gate`);
+    if (!covers(slice, vgs, vgs, vsb)) throw outsideSlice(slice, vgs, vgs, vsb, `bias diode for the ${drives} gate`);
     let w = diodeWidth(slice, vgs, vsb, ib);
     if (w === null) throw new StackwrightError(`bias diode for the ${drives} gate carries no current at VGS = ${vgs.toFixed(3)} V`, { kind: 'range' });
     let l = slice.l;
@@ -73,7 +71,7 @@ export function biasDevices(
       l = next;
     }
     const b: BiasDevice = { drives, w, l, current: ib, gate: gates[k], vgs, vsb };
-    if (stacked) b.stackedOn = 0;
+    if (stacked) b.stackedOn = k - 1;
     out.push(b);
   }
   return out;

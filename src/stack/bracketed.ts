@@ -1,6 +1,6 @@
 import type { DeviceBias, StackDevice, StackOp } from './types.js';
 import { emptyBias, evalDevice } from './evaluate-device.js';
-import { covers, rangeError } from './range.js';
+import { covers, outsideSlice } from './range.js';
 import { StackwrightError } from '../errors.js';
 
 /** Outcome of stacking devices for a trial current: the voltage needed, or which way the current is off. */
@@ -53,7 +53,7 @@ export function bracketedOperatingPoint(devices: readonly StackDevice[], gates: 
   const n = devices.length;
   const d0 = devices[0];
   const vTop = Math.min(v, d0.slice.range.vds[1]);
-  if (!evalDevice(d0, gates[0], vTop, 0, b)) throw rangeError(d0.slice, gates[0], vTop, 0, 'bottom device');
+  if (!evalDevice(d0, gates[0], vTop, 0, b)) throw outsideSlice(d0.slice, gates[0], vTop, 0, 'bottom device');
   let lo = 0;
   let hi = b.id;
   const nodes = new Array<number>(n + 1).fill(0);
@@ -100,7 +100,7 @@ function finish(devices: readonly StackDevice[], gates: readonly number[], v: nu
     const e = emptyBias();
     const vgs = gates[k] - nodes[k];
     const vds = nodes[k + 1] - nodes[k];
-    if (!evalDevice(devices[k], vgs, vds, nodes[k], e)) throw rangeError(devices[k].slice, vgs, vds, nodes[k], `device ${k + 1}`);
+    if (!evalDevice(devices[k], vgs, vds, nodes[k], e)) throw outsideSlice(devices[k].slice, vgs, vds, nodes[k], `device ${k + 1}`);
     out.push(e);
   }
   return { v, i, nodes, devices: out };

@@ -1,5 +1,6 @@
 import type { StackDevice, StackOp } from './types.js';
 import { sampleAt, type CurveSample } from './curve.js';
+import { currentMargin } from '../policy.js';
 
 /** What "the targets hold at v" means for headroom. */
 export interface HeadroomTarget {
@@ -7,16 +8,13 @@ export interface HeadroomTarget {
   rout: number;
   /** Current at mid-span, A: the reference for the 1 % current window. */
   iMid: number;
-  /** Allowed relative current deviation (default 0.01). */
-  window?: number;
   /** Bisection resolution, V (default 1 mV). */
   resolution?: number;
 }
 
 /** True when Rout and the current window both hold at this sample. */
 export function holds(s: CurveSample, t: HeadroomTarget): boolean {
-  const w = t.window ?? 0.01;
-  return s.op !== null && s.rout >= t.rout && Math.abs(s.i - t.iMid) <= w * Math.abs(t.iMid);
+  return s.op !== null && s.rout >= t.rout && currentMargin(s.i, t.iMid) >= 0;
 }
 
 /**

@@ -1,6 +1,5 @@
-export type { StackDevice, DeviceBias, StackOp, OpGuess } from './types.js';
-export { rolesOf, setpointCount } from './topology.js';
-export { covers, rangeError } from './range.js';
+export type { StackDevice, DeviceBias, StackOp, OpGuess, Role, StackShape, SquareLawCheck } from './types.js';
+export { covers, outsideSlice } from './range.js';
 export { solveOperatingPoint } from './operating.js';
 export { routAt, routOf } from './rout.js';
 export { stackCurve, sampleAt, type CurveSample } from './curve.js';
@@ -9,4 +8,4 @@ export { gmidAt, vgsForGmid, vgsForCurrent, vgsWindow, type VdsMode } from './in
 export { sizeStackDevices, type StackDesign, type SizedStack } from './sizing.js';
 export { biasDevices, biasGates, type BiasDevice, type DiodeWidening } from './bias.js';
 export { thermalVoltage, gmidCeiling, slopeFactor, inversionCoefficient, ekvVdsat, saturationVoltage } from './saturation.js';
-export { fitSquareLaw, squareLawCheck, ruleOfThumbHeadroom, type SquareLawFit } from './squarelaw.js';
+export { fitSquareLaw, squareLawCheck, type SquareLawFit } from './squarelaw.js';

@@ -3,7 +3,7 @@ import type { OpGuess, StackDevice, StackOp } from './types.js';
 import { newtonOperatingPoint } from './newton.js';
 import { bracketedOperatingPoint } from './bracketed.js';
 import { emptyBias, evalDevice } from './evaluate-device.js';
-import { rangeError } from './range.js';
+import { outsideSlice } from './range.js';
 
 /**
  * DC operating point of a stack at stack voltage `v` with fixed gate voltages
@@ -30,6 +30,6 @@ function defaultGuess(n: number, v: number): OpGuess {
 // One device: no unknown node, the table gives the current directly.
 function singleDevice(d: StackDevice, gate: number, v: number): StackOp {
   const b = emptyBias();
-  if (!evalDevice(d, gate, v, 0, b)) throw rangeError(d.slice, gate, v, 0, 'device 1');
+  if (!evalDevice(d, gate, v, 0, b)) throw outsideSlice(d.slice, gate, v, 0, 'device 1');
   return { v, i: b.id, nodes: [0, v], devices: [b] };
 }

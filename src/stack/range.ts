@@ -1,8 +1,9 @@
 import { StackwrightError } from '../errors.js';
 import type { LengthSlice } from '../device/types.js';
 
-// Table grids are built from decimal text; allow rounding slack at the edges.
-const SLACK = 1e-9;
+import { TABLE_EDGE as SLACK } from '../policy.js';
+import { rangeError } from '../numeric/range-error.js';
+import { formatEng } from '../units/index.js';
 
 /** True when (vgs, vds, vsb) lies inside the slice's table. */
 export function covers(slice: LengthSlice, vgs: number, vds: number, vsb: number): boolean {
@@ -14,19 +15,15 @@ export function covers(slice: LengthSlice, vgs: number, vds: number, vsb: number
   );
 }
 
-/** A 'range' error naming the first axis that is outside the table. */
-export function rangeError(slice: LengthSlice, vgs: number, vds: number, vsb: number, what: string): StackwrightError {
+/** A 'range' error naming the first axis that is outside the slice's table (the one range error, numeric/range-error). */
+export function outsideSlice(slice: LengthSlice, vgs: number, vds: number, vsb: number, what: string): StackwrightError {
   const r = slice.range;
   const axes: Array<[string, number, [number, number]]> = [['vgs', vgs, r.vgs], ['vds', vds, r.vds], ['vsb', vsb, r.vsb]];
+  const context = `${what} at L = ${formatEng(slice.l, 'm')}`;
   for (const [name, x, [lo, hi]] of axes) {
-    if (!(x >= lo - SLACK && x <= hi + SLACK)) {
-      return new StackwrightError(
-        `${what}: ${name} = ${x.toFixed(4)} V is outside the table (${lo}..${hi} V) at L = ${(slice.l * 1e6).toPrecision(4)} µm`,
-        { kind: 'range' },
-      );
-    }
+    if (!(x >= lo - SLACK && x <= hi + SLACK)) return rangeError(name, x, lo, hi, 'V', context);
   }
-  return new StackwrightError(`${what}: the table does not cover this bias`, { kind: 'range' });
+  return new StackwrightError(`${context}: the table does not cover this bias`, { kind: 'range' });
 }
 
 /** Clamp into [lo, hi]. */

@@ -1,12 +1,12 @@
 import { StackwrightError } from '../errors.js';
 import type { LengthSlice } from '../device/types.js';
-import type { Topology } from '../spec/types.js';
-import { setpointCount } from './topology.js';
+import type { StackShape } from './types.js';
 import { vgsForGmid } from './invert.js';
 
 /** The design variables of one stack. */
 export interface StackDesign {
-  topology: Topology;
+  /** The topology's stack shape. */
+  shape: StackShape;
   /** One slice per device, from the rail outwards. */
   slices: readonly LengthSlice[];
   /** gm/ID of each device at its design bias, 1/V. */
@@ -34,15 +34,15 @@ export interface SizedStack {
  * Size a stack from its design variables: each device sits at its design
  * bias at v = vmid, VGS follows from gm/ID there, W = I / jd, and the gate is
  * VGS plus the source node. Low-voltage biasing puts the lower drains at the
- * setpoints; the stacked cascode has VDS1 = VGS1 (its bias diode sets x1).
+ * setpoints; a bottom diode has VDS1 = VGS1 (its bias diode sets x1).
  * Returns null when the table cannot reach a device's gm/ID at its bias, or a
  * device would be narrower than `wmin`.
  */
 export function sizeStackDevices(d: StackDesign): SizedStack | null {
   const n = d.slices.length;
   if (d.gmid.length !== n) throw new StackwrightError(`need one gm/ID per device (${n}), got ${d.gmid.length}`, { kind: 'internal' });
-  if (d.setpoints.length !== setpointCount(d.topology)) {
-    throw new StackwrightError(`${d.topology} takes ${setpointCount(d.topology)} VDS setpoints, got ${d.setpoints.length}`, { kind: 'internal' });
+  if (d.setpoints.length !== d.shape.setpoints) {
+    throw new StackwrightError(`${d.shape.name} takes ${d.shape.setpoints} VDS setpoints, got ${d.setpoints.length}`, { kind: 'internal' });
   }
   const nodes = [0];
   const vgs: number[] = [];
@@ -51,7 +51,7 @@ export function sizeStackDevices(d: StackDesign): SizedStack | null {
     const xs = nodes[k];
     let g: number | null;
     let vds: number;
-    if (d.topology === 'cascode-stacked' && k === 0) {
+    if (d.shape.bottomDiode && k === 0) {
       g = vgsForGmid(d.slices[0], d.gmid[0], 'diode', 0);
       vds = g ?? NaN;
     } else {

@@ -1,7 +1,5 @@
 import type { LengthSlice } from '../device/types.js';
-import type { Topology } from '../spec/types.js';
-import type { SquareLawCheck } from '../solve/types.js';
-import type { DeviceBias } from './types.js';
+import type { DeviceBias, SquareLawCheck, StackShape } from './types.js';
 import { vgsWindow } from './invert.js';
 import { routOf } from './rout.js';
 
@@ -42,27 +40,13 @@ export function fitSquareLaw(slice: LengthSlice, vsb = 0): SquareLawFit {
   return { vth: vgsBest - s[best] / slope, kp: 2 * slice.l * slope * slope };
 }
 
-/** Hand-analysis headroom rule of thumb for a topology (common practice). */
-export function ruleOfThumbHeadroom(topology: Topology, vov: readonly number[], vgs: readonly number[]): number {
-  switch (topology) {
-    case 'single':
-      return vov[0];
-    case 'cascode':
-      return vov[0] + vov[1];
-    case 'cascode-stacked':
-      return vgs[0] + vov[1];
-    case 'triple':
-      return vov[0] + vov[1] + vov[2];
-  }
-}
-
 /**
  * What square-law hand analysis predicts for the sized devices: VGS = Vth +
  * Vov with Vov = sqrt(2·I·L/(k'·W)), the headroom rule of thumb, and Rout from
  * λ = gds/ID at each device's bias with ro = 1/(λ·I), gm = 2I/Vov (no body effect).
  */
 export function squareLawCheck(
-  topology: Topology,
+  shape: StackShape,
   slices: readonly LengthSlice[],
   w: readonly number[],
   ops: readonly DeviceBias[],
@@ -77,7 +61,7 @@ export function squareLawCheck(
     vth: fits[0].vth,
     vgs,
     vov,
-    headroom: ruleOfThumbHeadroom(topology, vov, vgs),
+    headroom: shape.ruleOfThumbHeadroom(vov, vgs),
     rout: routOf(hand),
     lambda,
   };

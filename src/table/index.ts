@@ -1,8 +1,9 @@
 export * from './types.js';
-export { AxisLocator } from './axis.js';
-export { RegularGridInterpolator } from './grid.js';
-export type { GridOptions, OutOfBounds } from './grid.js';
-export { rangeError, tableLabel } from './range-error.js';
+export { AxisLocator } from '../numeric/axis.js';
+export { RegularGridInterpolator } from '../numeric/grid-interpolator.js';
+export type { GridOptions, OutOfBounds } from '../numeric/grid-interpolator.js';
+export { rangeError } from '../numeric/range-error.js';
+export { tableLabel } from './label.js';
 export { validateTable, checkAxes, checkMeta, pointName } from './validate.js';
 export { MAGIC, encodeTable, decodeTable, decodeHeader } from './codec.js';
 export type { TableHeader, BlockLayout } from './codec.js';

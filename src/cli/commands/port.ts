@@ -1,7 +1,7 @@
 import type { Command } from 'commander';
 import { loadKit, portSpec } from '../../api.js';
-import { parseSpec } from '../../spec/index.js';
-import { renderPortText } from '../../report/index.js';
+import { parseSpec } from '../../design/index.js';
+import { renderPortText, bindingText } from '../../report/index.js';
 import { EXIT } from '../../errors.js';
 import { engFlag } from '../options.js';
 import { note, out, readText, toJson, useColor } from '../io.js';
@@ -35,7 +35,7 @@ export function registerPort(program: Command): void {
       } else out(renderPortText(run, { color: useColor() }));
       const failed = run.stacks.filter((s) => !s.to.feasible);
       if (failed.length) {
-        note(`infeasible on ${to.kit}: ${failed.map((s) => `${s.name} (${s.to.binding ?? 'targets not met'})`).join('; ')}`);
+        note(`infeasible on ${to.kit}: ${failed.map((s) => `${s.name} (${bindingText(s.to) || 'targets not met'})`).join('; ')}`);
         process.exitCode = EXIT.infeasible;
       }
     });

@@ -1,7 +1,7 @@
 import type { Command } from 'commander';
 import { StackwrightError } from '../../errors.js';
 import { confirmStacks, type Confirmation } from '../../confirm/index.js';
-import type { DesignSpec } from '../../spec/types.js';
+import type { DesignSpec } from '../../design/types.js';
 import type { SizeResult } from '../../solve/types.js';
 import type { KitAccess } from '../../solve/kit.js';
 import { decidingResults } from '../../solve/choose.js';

@@ -1,0 +1,75 @@
+/**
+ * Finds the cell of a strictly increasing axis that holds a value, without
+ * allocating. Uniform axes get an O(1) index guess; others a binary search.
+ * Values within `tolerance` (1e-9 of the span) of an edge count as on the edge,
+ * so rounding in callers does not turn into range errors; nothing farther out
+ * is accepted. Like numpy.searchsorted(values, x, 'right') − 1 clipped to the
+ * last cell; `locate` returns −1 (no cell) rather than clamping outside.
+ */
+export class AxisLocator {
+  readonly values: Float64Array;
+  readonly n: number;
+  readonly lo: number;
+  readonly hi: number;
+  readonly tolerance: number;
+  /** 0 for a single-point axis (the neighbour is the point itself), else 1. */
+  readonly step: 0 | 1;
+  /** Fraction across the cell found by the last successful `locate`. */
+  t = 0;
+  private readonly uniform: boolean;
+  private readonly invStep: number;
+
+  constructor(values: Float64Array) {
+    this.values = values;
+    this.n = values.length;
+    this.lo = values[0];
+    this.hi = values[this.n - 1];
+    const span = this.hi - this.lo;
+    this.tolerance = this.n > 1 ? 1e-9 * span : 1e-12 + 1e-9 * Math.abs(this.lo);
+    this.step = this.n > 1 ? 1 : 0;
+    this.uniform = this.n > 2 && isUniform(values);
+    this.invStep = this.n > 1 ? (this.n - 1) / span : 0;
+  }
+
+  /** Index of the lower node of the cell holding x (sets `t`), or -1 outside the axis or for NaN. */
+  locate(x: number): number {
+    const v = this.values;
+    if (!(x >= this.lo - this.tolerance && x <= this.hi + this.tolerance)) return -1;
+    const last = this.n - 2;
+    if (last < 0 || x <= this.lo) {
+      this.t = 0;
+      return 0;
+    }
+    if (x >= this.hi) {
+      this.t = 1;
+      return last;
+    }
+    let i: number;
+    if (this.uniform) {
+      i = Math.floor((x - this.lo) * this.invStep);
+      if (i > last) i = last;
+      // The guess can be off by one through rounding; the node values decide.
+      while (i > 0 && x < v[i]) i--;
+      while (i < last && x >= v[i + 1]) i++;
+    } else {
+      let a = 0;
+      let b = this.n - 1;
+      while (b - a > 1) {
+        const m = (a + b) >> 1;
+        if (v[m] <= x) a = m;
+        else b = m;
+      }
+      i = a;
+    }
+    this.t = (x - v[i]) / (v[i + 1] - v[i]);
+    return i;
+  }
+}
+
+function isUniform(v: Float64Array): boolean {
+  const n = v.length;
+  const h = (v[n - 1] - v[0]) / (n - 1);
+  const tol = 1e-9 * (v[n - 1] - v[0]);
+  for (let k = 1; k < n - 1; k++) if (Math.abs(v[k] - (v[0] + k * h)) > tol) return false;
+  return true;
+}

@@ -1,0 +1,43 @@
+import type { Verdict } from '../solve/evaluate/verdict.js';
+import { formatEng } from '../units/index.js';
+
+const volts = (x: number) => `${x.toFixed(3)} V`;
+const pct = (x: number) => `${(x * 100).toFixed(3)} %`;
+
+/** Words for one verdict: "rout 12.3 MΩ < 20 MΩ at 0.500 V", "headroom 0.520 V ≤ 0.550 V". */
+export function verdictText(v: Verdict): string {
+  const { required: need, achieved: got, at } = v;
+  const where = at === null ? '' : ` at ${volts(at)}`;
+  switch (v.target) {
+    case 'table':
+      return `table: the table does not cover the bias${where}`;
+    case 'rout':
+      if (got === null || got <= 0) return `rout: no usable Rout${where} (outside the table); needs ${formatEng(need ?? 0, 'Ω')}`;
+      return `rout ${formatEng(got, 'Ω')} ${need !== null && got >= need ? '≥' : '<'} ${formatEng(need ?? 0, 'Ω')}${where}`;
+    case 'headroom':
+      return `headroom ${got === null ? 'never met' : volts(got)} ${got !== null && need !== null && got <= need ? '≤' : '>'} ${volts(need ?? 0)}`;
+    case 'iout': {
+      if (got === null || need === null) return `iout: no current${where}`;
+      return `iout ${formatEng(got, 'A')} is ${((100 * (got - need)) / need).toFixed(2)} % off ${formatEng(need, 'A')}`;
+    }
+    case 'mismatch':
+      return `mismatch σ ${got === null ? 'unknown' : pct(got)} vs ${need === null ? 'no target' : pct(need)}`;
+    case 'saturation':
+      if (v.device === null || got === null) {
+        return `saturation: no lower device stays saturated${need === null ? '' : ` (VDSsat ≥ ${formatEng(need, 'V')} each)`}${at === null ? '' : ` below the ${volts(at)} headroom target`}`;
+      }
+      return `saturation: ${v.device} VDS ${formatEng(got, 'V')} ${need !== null && got >= need ? '≥' : '<'} VDSsat ${formatEng(need ?? 0, 'V')} at mid-span`;
+    case 'width':
+      return `width: every candidate needed a device narrower than the minimum width ${formatEng(need ?? 0, 'm')}`;
+  }
+}
+
+/** A verdict with its corner named first when the design was checked on several corners. */
+export function verdictLine(v: Verdict, manyCorners: boolean): string {
+  return manyCorners && v.corner !== null ? `corner ${v.corner}: ${verdictText(v)}` : verdictText(v);
+}
+
+/** Why a stack (or a corner result) fails, in words; '' when it does not. */
+export function bindingText(s: { binding?: Verdict; corners?: readonly unknown[] }): string {
+  return s.binding ? verdictLine(s.binding, (s.corners?.length ?? 0) > 1) : '';
+}

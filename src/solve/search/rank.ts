@@ -1,0 +1,40 @@
+import { objectiveCompare, type Measures, type Objective } from '../../policy.js';
+import type { SolveContext } from '../context.js';
+import { fullyOk, nominalOk, totalViolation, type Evaluated } from '../evaluate/evaluate.js';
+
+/** The measures a design is ordered by (nominal corner). */
+export function measuresOf(e: Evaluated): Measures {
+  return { area: e.area, headroom: e.nominal.headroom, rout: e.nominal.rout };
+}
+
+/** Objective order between two evaluated designs (< 0: a is better); see policy.objectiveCompare. */
+export function compareDesigns(objective: Objective, a: Evaluated, b: Evaluated): number {
+  return objectiveCompare(objective, measuresOf(a), measuresOf(b));
+}
+
+/**
+ * a better than b (b usually the incumbent): meeting every target at every
+ * corner first, then the objective; otherwise the smaller shortfall. Corners
+ * of a are only computed when a could win.
+ */
+export function better(ctx: SolveContext, a: Evaluated, b: Evaluated): boolean {
+  const obj = ctx.spec.objective;
+  if (nominalOk(b) && fullyOk(ctx, b)) return nominalOk(a) && compareDesigns(obj, a, b) < 0 && fullyOk(ctx, a);
+  if (nominalOk(a) && fullyOk(ctx, a)) return true;
+  // Shortfalls within ~2 % of Rout (1 mV of headroom) tie, so the nearest design is not bought with huge area.
+  const va = Math.round(totalViolation(a) / 0.02);
+  const vb = Math.round(totalViolation(b) / 0.02);
+  return va < vb || (va === vb && compareDesigns(obj, a, b) < 0);
+}
+
+/**
+ * Best of a pool: designs meeting the nominal targets in objective order,
+ * checked at the other corners lazily; otherwise the one nearest to meeting them.
+ */
+export function pickBest(ctx: SolveContext, pool: readonly Evaluated[]): Evaluated | undefined {
+  const ok = pool.filter(nominalOk).sort((a, b) => compareDesigns(ctx.spec.objective, a, b));
+  for (const e of ok) if (fullyOk(ctx, e)) return e;
+  let best: Evaluated | undefined;
+  for (const e of pool) if (!best || better(ctx, e, best)) best = e;
+  return best;
+}

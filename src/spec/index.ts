@@ -1,3 +1,0 @@
-export { parseSpec, resolveCorners, keyPath } from './parse.js';
-export type { DesignSpec, StackSpec, Topology, Objective } from './types.js';
-export { TOPOLOGIES } from './types.js';

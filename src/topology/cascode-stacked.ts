@@ -1,0 +1,32 @@
+import type { StageOption, TopologyDescriptor } from './types.js';
+
+/** Two devices biased by stacked diodes: the bottom device's VDS equals its VGS. */
+export const cascodeStacked: TopologyDescriptor = {
+  name: 'cascode-stacked',
+  roles: ['bottom', 'top'],
+  setpoints: 0,
+  bottomDiode: true,
+  stackedBias: true,
+  // VGS + Vov (common practice).
+  ruleOfThumbHeadroom: (vov, vgs) => vgs[0] + vov[1],
+  refineVoltageStep: 0.0125,
+  screen(t) {
+    // The bottom diode sets x1 = VGS1; group bottoms by x1 (25 mV) so top options (and their sweeps) are shared.
+    const groups = new Map<number, StageOption[]>();
+    for (const o of t.prune(t.options({ mode: 'diode', vsb: 0, lower: true }), t.crit.diode)) {
+      const x1 = Math.round(o.vgs * 40) / 40;
+      if (!groups.has(x1)) groups.set(x1, []);
+      groups.get(x1)!.push(o);
+    }
+    for (const [x1, bottom] of groups) {
+      if (x1 >= t.vmid - 0.05) continue;
+      for (const top of t.top(x1)) {
+        const a = top.ro;
+        const b = 1 + top.gmt * top.ro;
+        for (const o of bottom) {
+          if (t.wants(o.area + top.area, a + b * o.ro, o.vgs + top.vdsat, o.sigma)) t.keep([o.l, top.l], [o.gmid, top.gmid], []);
+        }
+      }
+    }
+  },
+};
