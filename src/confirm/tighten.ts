@@ -1,5 +1,5 @@
 import type { StackResult } from '../solve/types.js';
-import { turn } from './knobs.js';
+import { turn, turnAll } from './knobs.js';
 import { tableFigures } from './table-model.js';
 import type { StepInput } from './correct.js';
 
@@ -16,15 +16,29 @@ const MIN_SHRINK = 0.03;
  * For a confirmed design with headroom to spare in simulation: every width
  * (output and bias) shrunk by one factor, as far as the tables, offset by what
  * simulation showed at each corner, keep headroom KEEP below target and Rout
- * above it. Null when there is too little margin to take back.
+ * above it, the output widths trimmed to keep the current. Null when there is
+ * too little margin to take back.
  */
 export function shrinkStep(inp: StepInput): StackResult | null {
   const { spec, figures } = inp;
   if (!figures.every((f) => spec.headroom - f.headroom >= TIGHTEN_MARGIN)) return null;
   const base = figures.map((f) => ({ f, t: tableFigures(inp.design, spec, inp.kit, f.corner, inp.supply) }));
   if (base.some((b) => !b.t || !Number.isFinite(b.t.headroom))) return null;
-  const ok = (x: number): boolean => {
+  // A smaller design runs at a higher overdrive, where the mirror's VDS mismatch moves the current: the output
+  // widths take that back (tables' ratio times the simulated current, centred on the target over the corners).
+  const shrunk = (x: number): StackResult | null => {
     const d = turn(inp.design, 'shrink', x);
+    const logs: number[] = [];
+    for (const { f, t } of base) {
+      const s = tableFigures(d, spec, inp.kit, f.corner, inp.supply);
+      if (!s) return null;
+      logs.push(Math.log((f.iout * s.iout) / (t!.iout * spec.current)));
+    }
+    return turnAll(d, { current: -(Math.max(...logs) + Math.min(...logs)) / 2 });
+  };
+  const ok = (x: number): boolean => {
+    const d = shrunk(x);
+    if (!d) return false;
     return base.every(({ f, t }) => {
       const s = tableFigures(d, spec, inp.kit, f.corner, inp.supply);
       if (!s || !Number.isFinite(s.headroom) || !(s.rout > 0)) return false;
@@ -44,5 +58,5 @@ export function shrinkStep(inp: StepInput): StackResult | null {
       else lo = mid;
     }
   }
-  return hi <= -MIN_SHRINK ? turn(inp.design, 'shrink', hi) : null;
+  return hi <= -MIN_SHRINK ? shrunk(hi) : null;
 }
