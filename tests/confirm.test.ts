@@ -187,12 +187,12 @@ withNgspice('size --spice with the invented BSIM4 test card (reference: ngspice,
     const dir = mkdtempSync(join(tmpdir(), 'stackwright-weak-'));
     const cards = readFileSync(join(dirname(TEST_LIB), 'test-bsim4-cards.inc'), 'utf8').replace(/pclm=1\.1\b/, 'pclm=4.4').replace(/pclm=1\.0\b/, 'pclm=4.0');
     writeFileSync(join(dir, 'weak-cards.inc'), cards);
-    writeFileSync(join(dir, 'weak.lib'), '* invented test cards with strong CLM\n.lib typical\n.param swt_dvth=0 swt_mu=1\n.include weak-cards.inc\n.endl typical\n');
+    writeFileSync(join(dir, 'weak.lib'), '* invented test cards with strong CLM\n.lib weak\n.param swt_dvth=0 swt_mu=1\n.include weak-cards.inc\n.endl weak\n');
     writeFileSync(join(dir, 'spec.yaml'), [
       `kit: ${KIT}`, 'corner: typical', 'supply: 1.8', 'stacks:', '  - name: sink', '    device: n', '    topology: cascode',
       '    current: 20u', '    rout: 20meg', '    headroom: 0.5', '    span: 1.6', '',
     ].join('\n'));
-    const r = cli(['size', join(dir, 'spec.yaml'), '--tables', tablesDir, '--brief', '--spice', '--include', join(dir, 'weak.lib'), '--model-n', TEST_MODELS.n, '--model-p', TEST_MODELS.p]);
+    const r = cli(['size', join(dir, 'spec.yaml'), '--tables', tablesDir, '--brief', '--spice', '--include', join(dir, 'weak.lib'), '--model-n', TEST_MODELS.n, '--model-p', TEST_MODELS.p, '--section', 'typical=weak']);
     expect(r.stderr).not.toMatch(/^stackwright: /m);
     expect(r.code).toBe(3);
     expect(r.stderr).toMatch(/not confirmed in simulation: sink \((headroom at typical: needs ≤ 500 mV, simulated [\d.]+ mV|rout at typical: needs ≥ 20 MΩ, simulated [\d.]+ [kM]Ω)/);
