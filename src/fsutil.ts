@@ -1,17 +1,20 @@
-import { closeSync, existsSync, fsyncSync, mkdirSync, openSync, renameSync, rmSync, writeSync } from 'node:fs';
+import { closeSync, existsSync, fsyncSync, linkSync, mkdirSync, openSync, renameSync, rmSync, writeSync } from 'node:fs';
 import { dirname, basename, join } from 'node:path';
 import { randomBytes } from 'node:crypto';
 import { StackwrightError } from './errors.js';
+
+/** File content: text, bytes, or pieces of bytes written one after another (no joined copy). */
+export type FileData = string | Uint8Array | readonly Uint8Array[];
 
 /**
  * Write a file atomically: a temp file beside it, fsync, rename. A failure
  * leaves any existing file untouched and no temp file behind.
  * Without `force` an existing file is an error (kind 'exists').
  */
-export function writeFileAtomic(path: string, data: string | Uint8Array, opts: { force?: boolean } = {}): void {
+export function writeFileAtomic(path: string, data: FileData, opts: { force?: boolean } = {}): void {
   if (!opts.force) refuseExisting([path]);
   const tmp = stage(path, data);
-  commit(tmp, path);
+  commit(tmp, path, !opts.force);
 }
 
 /**
@@ -19,7 +22,7 @@ export function writeFileAtomic(path: string, data: string | Uint8Array, opts: {
  * written before any target is replaced, so a refusal or a failing disk leaves
  * none of them half-done (only a failing rename, after the others, could).
  */
-export function writeFilesAtomic(files: ReadonlyArray<readonly [string, string | Uint8Array]>, opts: { force?: boolean } = {}): void {
+export function writeFilesAtomic(files: ReadonlyArray<readonly [string, FileData]>, opts: { force?: boolean } = {}): void {
   if (!opts.force) refuseExisting(files.map(([p]) => p));
   const staged: Array<[string, string]> = [];
   try {
@@ -30,7 +33,7 @@ export function writeFilesAtomic(files: ReadonlyArray<readonly [string, string |
   }
   for (let i = 0; i < staged.length; i++) {
     try {
-      commit(staged[i][0], staged[i][1]);
+      commit(staged[i][0], staged[i][1], !opts.force);
     } catch (e) {
       for (const [tmp] of staged.slice(i + 1)) removeQuietly(tmp);
       throw e;
@@ -45,7 +48,7 @@ function refuseExisting(paths: readonly string[]): void {
 }
 
 /** Create the folder and write `data` to a synced temp file beside `path`; returns the temp path. */
-function stage(path: string, data: string | Uint8Array): string {
+function stage(path: string, data: FileData): string {
   const dir = dirname(path);
   try {
     mkdirSync(dir, { recursive: true });
@@ -58,9 +61,11 @@ function stage(path: string, data: string | Uint8Array): string {
   try {
     const fd = openSync(tmp, 'w');
     try {
-      const buf = typeof data === 'string' ? Buffer.from(data, 'utf8') : data;
-      let off = 0;
-      while (off < buf.length) off += writeSync(fd, buf, off, buf.length - off);
+      const pieces = typeof data === 'string' ? [Buffer.from(data, 'utf8')] : data instanceof Uint8Array ? [data] : data;
+      for (const buf of pieces) {
+        let off = 0;
+        while (off < buf.length) off += writeSync(fd, buf, off, buf.length - off);
+      }
       fsyncSync(fd);
     } finally {
       closeSync(fd);
@@ -72,12 +77,36 @@ function stage(path: string, data: string | Uint8Array): string {
   return tmp;
 }
 
-function commit(tmp: string, path: string): void {
+/**
+ * Move the temp file into place. Without force the target is created
+ * exclusively (a hard link fails with EEXIST if it exists), so of two
+ * processes that both passed the existence check only one wins and the other
+ * gets 'exists' instead of silently replacing the first one's file.
+ */
+function commit(tmp: string, path: string, exclusive: boolean): void {
   try {
-    renameSync(tmp, path);
+    if (exclusive) {
+      claim(tmp, path);
+      removeQuietly(tmp);
+    } else renameSync(tmp, path);
   } catch (e) {
     removeQuietly(tmp);
+    if ((e as NodeJS.ErrnoException).code === 'EEXIST') {
+      throw new StackwrightError(`${path} already exists (written meanwhile by another process); pass --force to overwrite it`, { kind: 'exists' });
+    }
     throw new StackwrightError(`cannot write ${path}: ${reason(e)}`);
+  }
+}
+
+/** Link tmp to path, or where hard links are unsupported reserve path with O_EXCL and rename over it. */
+function claim(tmp: string, path: string): void {
+  try {
+    linkSync(tmp, path);
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code;
+    if (code !== 'EPERM' && code !== 'ENOTSUP' && code !== 'EOPNOTSUPP' && code !== 'EXDEV' && code !== 'EMLINK') throw e;
+    closeSync(openSync(path, 'wx'));
+    renameSync(tmp, path);
   }
 }
 

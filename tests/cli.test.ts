@@ -106,6 +106,17 @@ describe('ingest from the command line', () => {
     writeFileSync(csv, good);
     expectOneLineError(cli(['ingest', csv, '--kit', 't', '--device', 'n', '--map', 'id=current', '--tables', join(dir, 'x')]), 2, /current.*vgs/);
   });
+
+  it('refuses implausible --avt and --temperature at ingest with the plausible range, writing nothing', () => {
+    const csv = join(dir, 'ok3.csv');
+    writeFileSync(csv, good);
+    const out = join(dir, 'cond-tables');
+    // Absolute zero is -273.15 °C (SI); A_VT is positive (Pelgrom et al., IEEE JSSC 1989).
+    expectOneLineError(cli(['ingest', csv, '--kit', 't', '--device', 'n', '--avt', '-5', '--abeta', '1', '--tables', out]), 2, /^stackwright: --avt: A_VT -5 mV·µm is implausible; expected 0\.1 to 50 mV·µm/);
+    expectOneLineError(cli(['ingest', csv, '--kit', 't', '--device', 'n', '--temperature', '-500', '--tables', out]), 2, /--temperature: .*expected -60 °C to 200 °C/);
+    expectOneLineError(cli(['ingest', csv, '--kit', 't', '--device', 'n', '--temperature', '900', '--tables', out]), 2, /--temperature: temperature 900 °C/);
+    expect(existsSync(join(out, 't'))).toBe(false);
+  });
 });
 
 describe('size from the command line', () => {

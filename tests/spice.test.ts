@@ -243,8 +243,12 @@ withNgspice('with ngspice (reference simulator, Debian package)', () => {
     // Deep triode, strong inversion: Cgg ≈ Cox·W·L with Cox = εox/tox (textbook MOS capacitance).
     const cox = (3.9 * 8.854e-12) / 4.1e-9;
     const tri = n.find((r) => r.l === 1.44e-6 && r.vgs === 1.8 && r.vds === 0.05 && r.vsb === 0)!;
-    expect(tri.cgg / (cox * 1e-6 * 1.44e-6)).toBeGreaterThan(0.85);
-    expect(tri.cgg / (cox * 1e-6 * 1.44e-6)).toBeLessThan(1.05);
+    // Plus the overlaps on both sides, (cgso + cf)·W + (cgdo + cf)·W from the card (cgso = cgdo = 3.2e-10 F/m;
+    // cf = (2·εox/π)·ln(1 + 0.4 µm/toxe), its default in the BSIM4 manual).
+    const cf = ((2 * 3.9 * 8.854e-12) / Math.PI) * Math.log(1 + 4e-7 / 4.1e-9);
+    const cggExpected = cox * 1e-6 * 1.44e-6 + 2 * (3.2e-10 + cf) * 1e-6;
+    expect(tri.cgg / cggExpected).toBeGreaterThan(0.85);
+    expect(tri.cgg / cggExpected).toBeLessThan(1.05);
     // Saturation: the drain barely couples to the gate, Cgd << Cgs (textbook).
     const sat = n.find((r) => r.l === 1.44e-6 && r.vgs === 1 && r.vds === 1.55 && r.vsb === 0)!;
     expect(sat.cgd).toBeLessThan(0.05 * sat.cgs);

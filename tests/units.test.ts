@@ -70,6 +70,9 @@ describe('formatEng / formatSpice', () => {
     expect(formatEng(0.45, 'V')).toBe('450 mV');
     expect(formatEng(1.8, 'V')).toBe('1.8 V');
     expect(formatEng(0, 'V')).toBe('0 V');
+    // Outside the SI prefixes atto..tera (BIPM SI Brochure, table 7) the plain exponent form is clearer than "2e-12 aF".
+    expect(formatEng(2e-30, 'F')).toBe('2e-30 F');
+    expect(formatEng(-3.2e17, 'A')).toBe('-3.2e+17 A');
   });
   it('prints SPICE3 suffixes that parse back to the same value (round trip through parseEng)', () => {
     for (const x of [5e7, 1.8e-7, 4e-5, 0.45, 1.8, 3.3e-15, 2e9, 12345]) {

@@ -1,6 +1,6 @@
 import { StackwrightError } from '../errors.js';
 import { AXES, type Axis, type StoredQuantity } from '../table/types.js';
-import { formatEng } from '../units/index.js';
+import { formatEng, showValue } from '../units/index.js';
 import { strides } from './derive.js';
 
 /** Bias point of flat index `k` of a row-major (l, vgs, vds, vsb) grid, for messages. */
@@ -10,7 +10,7 @@ export function biasPointAt(axes: Record<Axis, Float64Array>, k: number): string
   const ig = Math.floor(k / st.vgs) % axes.vgs.length;
   const id = Math.floor(k / st.vds) % axes.vds.length;
   const is = k % axes.vsb.length;
-  return `L=${formatEng(axes.l[il], 'm', 4)} vgs=${axes.vgs[ig]} vds=${axes.vds[id]} vsb=${axes.vsb[is]}`;
+  return `L=${formatEng(axes.l[il], 'm', 4)} vgs=${showValue(axes.vgs[ig], 'V')} vds=${showValue(axes.vds[id], 'V')} vsb=${showValue(axes.vsb[is], 'V')}`;
 }
 
 /**
@@ -26,7 +26,7 @@ export function checkFinite(
   for (const a of AXES) {
     const v = axes[a];
     for (let i = 0; i < v.length; i++) {
-      if (!Number.isFinite(v[i])) throw new StackwrightError(`axis ${a} holds ${v[i]} at position ${i + 1}`, { where, kind: 'input' });
+      if (!Number.isFinite(v[i])) throw new StackwrightError(`axis ${a} holds ${String(v[i])} at position ${i + 1}`, { where, kind: 'input' });
     }
   }
   for (const [q, arr] of Object.entries(data) as Array<[StoredQuantity, Float64Array]>) {
@@ -34,7 +34,7 @@ export function checkFinite(
       const v = arr[k];
       if (v - v !== 0) {
         const how = derived.has(q) ? 'derived ' : '';
-        throw new StackwrightError(`${how}${q} is ${v} at bias point ${biasPointAt(axes, k)}; check the input rows around it`, { where, kind: 'input' });
+        throw new StackwrightError(`${how}${q} is ${String(v)} at bias point ${biasPointAt(axes, k)}; check the input rows around it`, { where, kind: 'input' });
       }
     }
   }

@@ -1,6 +1,6 @@
 import { StackwrightError, at } from '../errors.js';
-import type { Axis, StoredQuantity } from '../table/types.js';
-import { formatEng } from '../units/index.js';
+import { UNITS, type Axis, type StoredQuantity } from '../table/types.js';
+import { formatEng, showValue } from '../units/index.js';
 import type { Pool } from './pool.js';
 import { commonAxis, resampleLength } from './resample.js';
 
@@ -40,17 +40,31 @@ export function lengthGrids(pool: Pool): LengthGrid[] {
   const byL = new Map<number, number>();
   const lidx = new Int32Array(pool.n);
   const sets: Array<{ l: number; g: Set<number>; d: Set<number>; s: Set<number>; first: number }> = [];
+  // Sweeps repeat l, vgs and vds over long runs of rows: skip the hash lookups while they do.
+  let lastL = NaN;
+  let lastG = NaN;
+  let lastD = NaN;
+  let k = -1;
   for (let r = 0; r < pool.n; r++) {
-    let k = byL.get(pool.l[r]);
-    if (k === undefined) {
-      k = sets.length;
-      byL.set(pool.l[r], k);
-      sets.push({ l: pool.l[r], g: new Set(), d: new Set(), s: new Set(), first: r });
+    const l = pool.l[r];
+    if (l !== lastL) {
+      let found = byL.get(l);
+      if (found === undefined) {
+        found = sets.length;
+        byL.set(l, found);
+        sets.push({ l, g: new Set(), d: new Set(), s: new Set(), first: r });
+      }
+      k = found;
+      lastL = l;
+      lastG = NaN;
+      lastD = NaN;
     }
     lidx[r] = k;
     const t = sets[k];
-    t.g.add(pool.vgs[r]);
-    t.d.add(pool.vds[r]);
+    const g = pool.vgs[r];
+    const d = pool.vds[r];
+    if (g !== lastG) t.g.add((lastG = g));
+    if (d !== lastD) t.d.add((lastD = d));
     t.s.add(pool.vsb[r]);
   }
   const grids: LengthGrid[] = sets.map((t) => {
@@ -66,11 +80,21 @@ export function lengthGrids(pool: Pool): LengthGrid[] {
   });
   const maps = grids.map((g) => [indexOf(g.vgs), indexOf(g.vds), indexOf(g.vsb)] as const);
   const quantities = Object.keys(pool.data) as StoredQuantity[];
+  let lastK = -1;
+  let ig = 0;
+  let id = 0;
   for (let r = 0; r < pool.n; r++) {
     const k = lidx[r];
     const g = grids[k];
     const [mg, md, ms] = maps[k];
-    const s = (mg.get(pool.vgs[r])! * g.vds.length + md.get(pool.vds[r])!) * g.vsb.length + ms.get(pool.vsb[r])!;
+    if (k !== lastK) {
+      lastK = k;
+      lastG = NaN; // reused from the first pass as the last values placed
+      lastD = NaN;
+    }
+    if (pool.vgs[r] !== lastG) ig = mg.get((lastG = pool.vgs[r]))!;
+    if (pool.vds[r] !== lastD) id = md.get((lastD = pool.vds[r]))!;
+    const s = (ig * g.vds.length + id) * g.vsb.length + ms.get(pool.vsb[r])!;
     const prev = g.slot[s];
     if (prev < 0) g.slot[s] = r;
     else checkDuplicate(pool, quantities, prev, r);
@@ -78,13 +102,26 @@ export function lengthGrids(pool: Pool): LengthGrid[] {
   return grids.sort((a, b) => a.l - b.l);
 }
 
+/**
+ * Overlapping simulator runs repeat bias points with values that differ in the
+ * last printed digits; below this relative difference a repeat is the same
+ * point (the first row is kept), above it the rows conflict.
+ */
+export const DUPLICATE_TOLERANCE = 1e-6;
+
 function checkDuplicate(pool: Pool, quantities: StoredQuantity[], a: number, b: number): void {
   for (const q of quantities) {
     const x = pool.data[q]![a];
     const y = pool.data[q]![b];
-    if (Math.abs(x - y) > 1e-9 * Math.max(Math.abs(x), Math.abs(y))) {
-      const point = `L=${formatEng(pool.l[a], 'm', 4)} vgs=${pool.vgs[a]} vds=${pool.vds[a]} vsb=${pool.vsb[a]}`;
-      throw new StackwrightError(`bias point ${point} repeats with a different ${q} (${x} vs ${y}) at ${where(pool, a)} and ${where(pool, b)}`, { where: where(pool, b) });
+    const rel = Math.abs(x - y) / Math.max(Math.abs(x), Math.abs(y));
+    if (rel >= DUPLICATE_TOLERANCE) {
+      const v = (u: number) => formatEng(u, 'V', 6);
+      const point = `L=${formatEng(pool.l[a], 'm', 4)} vgs=${v(pool.vgs[a])} vds=${v(pool.vds[a])} vsb=${v(pool.vsb[a])}`;
+      const show = (u: number) => formatEng(u, UNITS[q], 9);
+      throw new StackwrightError(
+        `bias point ${point} repeats with a different ${q} (${show(x)} vs ${show(y)}, relative difference ${rel.toExponential(1)}, tolerance ${DUPLICATE_TOLERANCE.toExponential(0)}) at ${where(pool, a)} and ${where(pool, b)}`,
+        { where: where(pool, b) },
+      );
     }
   }
 }
@@ -99,6 +136,11 @@ export function buildGrid(pool: Pool): Gridded {
     const axes = { l, vgs: grids[0].vgs, vds: grids[0].vds, vsb: grids[0].vsb };
     const block = grids[0].slot.length;
     const data = {} as Gridded['data'];
+    if (inGridOrder(grids, block, pool.n)) {
+      // Rows already sorted l, vgs, vds, vsb (what sweeps usually are): the columns are the grid, no copy.
+      for (const q of quantities) data[q] = pool.data[q]!;
+      return { axes, data, notes: [] };
+    }
     for (const q of quantities) {
       const src = pool.data[q]!;
       const out = new Float64Array(l.length * block);
@@ -141,8 +183,19 @@ export function buildGrid(pool: Pool): Gridded {
   return { axes, data, notes };
 }
 
+/** Every row sits at its own index of the row-major grid, and there are no duplicates. */
+function inGridOrder(grids: LengthGrid[], block: number, n: number): boolean {
+  if (grids.length * block !== n) return false;
+  for (let il = 0; il < grids.length; il++) {
+    const slot = grids[il].slot;
+    const base = il * block;
+    for (let s = 0; s < block; s++) if (slot[s] !== base + s) return false;
+  }
+  return true;
+}
+
 function formatAxis(a: Float64Array): string {
-  return `${a[0]}..${a[a.length - 1]} V in ${a.length} points`;
+  return `${showValue(a[0], 'V')}..${showValue(a[a.length - 1], 'V')} in ${a.length} points`;
 }
 
 /** How many points of the common grid this length has a sample at. */

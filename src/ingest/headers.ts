@@ -50,13 +50,13 @@ export function checkMap(map: Record<string, string> | undefined): Map<string, Q
 }
 
 /**
- * Decide which header cell feeds which quantity. Mapped headers win over
- * recognised names; two columns for one quantity is an error.
+ * Decide which header cell feeds which quantity, by --map or by a recognised
+ * name; two columns for one quantity is an error naming both, whichever way
+ * each was named.
  * `where(i)` gives the location of header cell i for messages.
  */
 export function matchHeaders(headers: string[], map: Map<string, Quantity>, where: (i: number) => string): ColumnSpec[] {
   const chosen = new Map<Quantity, ColumnSpec>();
-  const mappedQ = new Set<Quantity>();
   headers.forEach((header, index) => {
     const { name, unit } = splitHeader(header);
     const key = header.trim().toLowerCase();
@@ -67,16 +67,16 @@ export function matchHeaders(headers: string[], map: Map<string, Quantity>, wher
       quantity = map.get(mapKey)!;
       // Mapped by full text, brackets may be part of a simulator name (i(vd)): scale only when they read as a unit.
       if (unit !== undefined) scale = mapKey === key ? unitScale(unit, quantity) ?? 1 : requireUnit(unit, quantity, header, where(index));
-      mappedQ.add(quantity);
     } else {
       quantity = ALIASES[squash(name)];
       if (quantity === undefined) return;
       if (unit !== undefined) scale = requireUnit(unit, quantity, header, where(index));
-      if (mappedQ.has(quantity)) return;
     }
     const prev = chosen.get(quantity);
-    if (prev && !(mapKey !== undefined && prev.mapKey === undefined)) {
-      throw new StackwrightError(`columns ${showText(prev.header)} and ${showText(header)} both give ${quantity}; remove one or use --map`, { where: where(index) });
+    if (prev) {
+      // A map never silently hides a column that names the same quantity by itself.
+      const how = prev.mapKey !== undefined || mapKey !== undefined ? ' (one of them through --map)' : '';
+      throw new StackwrightError(`columns ${showText(prev.header)} and ${showText(header)} both give ${quantity}${how}; remove one or map it elsewhere`, { where: where(index) });
     }
     chosen.set(quantity, { index, header, quantity, scale, mapKey });
   });

@@ -3,6 +3,7 @@ import { StackwrightError } from '../errors.js';
 import { AXES, UNITS, type DeviceTable, type StoredQuantity, type TableMeta } from '../table/types.js';
 import { showText } from '../units/index.js';
 import { deriveAlong, describeDerivative } from './derive.js';
+import { checkConditions } from './conditions.js';
 import { checkFinite } from './finite.js';
 import { buildGrid } from './grid.js';
 import { checkMap } from './headers.js';
@@ -48,6 +49,7 @@ export function ingestTexts(inputs: SweepInput[], opts: IngestOptions): DeviceTa
 function ingestLazy(inputs: Array<{ file: string; load: () => string | Buffer }>, opts: IngestOptions): DeviceTable {
   if (inputs.length === 0) throw new StackwrightError('no input files given');
   checkMap(opts.map);
+  checkConditions(opts);
   let doneBefore = 0;
   const samples: Samples[] = inputs.map(({ file, load }) => {
     const progress = opts.onProgress;

@@ -1,5 +1,5 @@
 import { StackwrightError } from '../errors.js';
-import { showText } from '../units/index.js';
+import { showText, showValue } from '../units/index.js';
 import type { Quantity } from './types.js';
 import { dimensionOf } from './units.js';
 
@@ -16,6 +16,8 @@ const LIMIT: Record<ReturnType<typeof dimensionOf>, { max: number; text: string 
   capacitance: { max: 1, text: 'at most 1 F in magnitude' },
 };
 
+const UNIT: Record<ReturnType<typeof dimensionOf>, string> = { length: 'm', voltage: 'V', current: 'A', conductance: 'S', capacitance: 'F' };
+
 export function limitOf(q: Quantity): number {
   return LIMIT[dimensionOf(q)].max;
 }
@@ -23,7 +25,7 @@ export function limitOf(q: Quantity): number {
 export function outOfRange(cell: string, header: string, q: Quantity, value: number, where: string): StackwrightError {
   const lim = LIMIT[dimensionOf(q)];
   return new StackwrightError(
-    `column ${showText(header)}: ${showText(cell.trim())} (${value} in SI) is outside the accepted range for ${q}: ${lim.text}`,
+    `column ${showText(header)}: ${showText(cell.trim())} (${showValue(value, UNIT[dimensionOf(q)])}) is outside the accepted range for ${q}: ${lim.text}`,
     { where },
   );
 }

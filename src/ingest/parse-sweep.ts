@@ -1,14 +1,16 @@
 import { StackwrightError, at } from '../errors.js';
-import { showText } from '../units/index.js';
+import { formatEng, showText } from '../units/index.js';
 import { badCell, readCell } from './cell.js';
-import { cellColumn, detectDelimiter } from './delimiter.js';
+import { cellColumn, detectDelimiter, type Delimiter } from './delimiter.js';
 import { checkMap, matchHeaders, type ColumnSpec } from './headers.js';
 import { limitOf, outOfRange } from './limits.js';
+import { allZero, checkPlausible, magnitudeRange, oppositeSignRow } from './plausible.js';
 import type { CellPlaces } from './quoted.js';
 import { forEachRow } from './rows.js';
 import { showList } from './show.js';
 import { normaliseSigns } from './signs.js';
-import { countLines, decode, findHeader, lineAt } from './text.js';
+import { countLines, decodeInput, findHeader, isCommentOrBlank, lineAt } from './text.js';
+import { countLinesBytes, readRowsFromBytes } from './parse-bytes.js';
 import type { Quantity, Samples, SweepOptions } from './types.js';
 
 const REQUIRED: readonly Quantity[] = ['l', 'vgs', 'vds', 'id'];
@@ -16,8 +18,84 @@ const PROGRESS_EVERY = 65536;
 
 /** One long-format sweep file (any column order) to columns in SI magnitudes. */
 export function parseSweep(input: string | Buffer, file: string, opts: SweepOptions): Samples {
-  const { text, sha256 } = decode(input, file);
+  const raw = decodeInput(input, file);
   input = ''; // let a large raw buffer go while the text is parsed
+  if (raw.bytes) {
+    const fast = parseBytes(raw.bytes, raw.start, raw.sha256, file, opts);
+    if (fast) return fast;
+    return parseText(raw.bytes.toString('utf8', raw.start), raw.sha256, file, opts);
+  }
+  return parseText(raw.text, raw.sha256, file, opts);
+}
+
+/** Column facts for the hot loops, from the header. */
+function columnsFor(specs: ColumnSpec[], capacity: number) {
+  return {
+    store: specs.map(() => new Float64Array(capacity)),
+    idx: Int32Array.from(specs, (c) => c.index),
+    scale: Float64Array.from(specs, (c) => c.scale),
+    positive: Uint8Array.from(specs, (c) => (c.quantity === 'l' || c.quantity === 'w' ? 1 : 0)),
+    limit: Float64Array.from(specs, (c) => limitOf(c.quantity)),
+  };
+}
+
+/**
+ * The fast reader: UTF-8 bytes with ',' ';' or tab between cells and no double
+ * quote anywhere. Returns undefined for anything else (the text reader takes it).
+ */
+function parseBytes(bytes: Buffer, start: number, sha256: string, file: string, opts: SweepOptions): Samples | undefined {
+  if (bytes.indexOf(34, start) >= 0) return undefined; // quotes: records may span lines
+  const head = findHeaderBytes(bytes, start);
+  if (!head) return undefined; // the text reader words the error
+  const delimiter = detectDelimiter(head.text);
+  if (delimiter === 'space') return undefined;
+  const map = checkMap(opts.map);
+  const totalLines = countLinesBytes(bytes, start);
+  const capacity = Math.max(0, totalLines - head.line);
+  const lines = new Int32Array(capacity);
+  let body: string | undefined;
+  const lineText = (line: number) => (line === head.line ? head.text : lineAt((body ??= bytes.toString('utf8', start)), line));
+  const whereCell = (line: number, index: number) => at(file, line, cellColumn(lineText(line), delimiter, index));
+  const headers = splitHeaderLine(head.text, delimiter);
+  const specs = matchHeaders(headers, map, (i) => whereCell(head.line, i));
+  const headerWhere = specs.map((c) => whereCell(head.line, c.index));
+  checkRequired(specs, headers, opts.width, at(file, head.line));
+  const cols = columnsFor(specs, capacity);
+  const column = new Int32Array(headers.length).fill(-1);
+  specs.forEach((c, j) => (column[c.index] = j));
+  const progress = opts.onProgress;
+  const rows = readRowsFromBytes(
+    {
+      bytes, from: head.next, firstLine: head.line + 1, delimiter: delimiter.charCodeAt(0), decimalComma: delimiter === ';', file, lines, whereCell,
+      progress: progress && ((line) => progress(line, totalLines)), progressEvery: PROGRESS_EVERY,
+    },
+    { cells: headers.length, column, specs, store: cols.store, scale: cols.scale, positive: cols.positive, limit: cols.limit },
+  );
+  return finish({ file, sha256, headers, specs, headerWhere, store: cols.store, rows, lines, headLine: head.line, whereCell, totalLines, opts });
+}
+
+/** Header cells split like data cells (papaparse for text without quotes does the same). */
+function splitHeaderLine(line: string, delimiter: Delimiter): string[] {
+  return line.split(delimiter === 'space' ? /[ \t]+/ : delimiter).map((h) => h.trim());
+}
+
+/** First line that is not blank or a comment, from bytes: number, text and where the next line starts. */
+function findHeaderBytes(b: Buffer, start: number): { line: number; text: string; next: number } | undefined {
+  let pos = start;
+  let line = 1;
+  while (pos < b.length) {
+    let end = b.indexOf(10, pos);
+    const next = end < 0 ? b.length : end + 1;
+    if (end < 0) end = b.length;
+    const s = b.toString('utf8', pos, end).replace(/\r$/, '');
+    if (!isCommentOrBlank(s)) return { line, text: s, next };
+    pos = next;
+    line++;
+  }
+  return undefined;
+}
+
+function parseText(text: string, sha256: string, file: string, opts: SweepOptions): Samples {
   const head = findHeader(text);
   if (!head) {
     throw new StackwrightError(text.trim() === '' ? 'file is empty' : 'no header line (only comments and blank lines)', { where: file });
@@ -29,6 +107,7 @@ export function parseSweep(input: string | Buffer, file: string, opts: SweepOpti
   const lines = new Int32Array(capacity);
   let headers: string[] = [];
   let specs: ColumnSpec[] = [];
+  let headerWhere: string[] = [];
   let store: Float64Array[] = [];
   let rows = 0;
   const whereCell = (line: number, index: number, places?: CellPlaces): string =>
@@ -47,12 +126,9 @@ export function parseSweep(input: string | Buffer, file: string, opts: SweepOpti
       if (line === head.line) {
         headers = fields.map((h) => h.trim());
         specs = matchHeaders(headers, map, (i) => whereCell(line, i, places));
+        headerWhere = specs.map((c) => whereCell(line, c.index, places));
         checkRequired(specs, headers, opts.width, at(file, line));
-        store = specs.map(() => new Float64Array(capacity));
-        idx = Int32Array.from(specs, (c) => c.index);
-        scale = Float64Array.from(specs, (c) => c.scale);
-        positive = Uint8Array.from(specs, (c) => (c.quantity === 'l' || c.quantity === 'w' ? 1 : 0));
-        limit = Float64Array.from(specs, (c) => limitOf(c.quantity));
+        ({ store, idx, scale, positive, limit } = columnsFor(specs, capacity));
       }
       return;
     }
@@ -85,8 +161,33 @@ export function parseSweep(input: string | Buffer, file: string, opts: SweepOpti
     lines[rows++] = line;
     if (opts.onProgress && rows % PROGRESS_EVERY === 0) opts.onProgress(line, totalLines);
   });
+  return finish({ file, sha256, headers, specs, headerWhere, store, rows, lines, headLine: head.line, whereCell, totalLines, opts });
+}
 
-  if (rows === 0) throw new StackwrightError('header but no data rows', { where: at(file, head.line) });
+interface Parsed {
+  file: string;
+  sha256: string;
+  headers: string[];
+  specs: ColumnSpec[];
+  headerWhere: string[];
+  store: Float64Array[];
+  rows: number;
+  lines: Int32Array;
+  headLine: number;
+  whereCell: (line: number, index: number) => string;
+  totalLines: number;
+  opts: SweepOptions;
+}
+
+/** Checks on whole columns, vbs to vsb, simulator signs to magnitudes. */
+function finish(p: Parsed): Samples {
+  const { file, specs, store, rows, lines, whereCell, opts } = p;
+  if (rows === 0) throw new StackwrightError('header but no data rows', { where: at(file, p.headLine) });
+  const idj = specs.findIndex((s) => s.quantity === 'id');
+  if (allZero(store[idj].subarray(0, rows))) {
+    throw new StackwrightError(`no device conducts: every drain current (column ${showText(specs[idj].header)}) is zero`, { where: file });
+  }
+  specs.forEach((s, j) => checkPlausible(s.quantity, s.header, store[j].subarray(0, rows), p.headerWhere[j], (r) => whereCell(lines[r], s.index)));
   const columns = {} as Partial<Record<Quantity, Float64Array>>;
   const source: Partial<Record<Quantity, string>> = {};
   specs.forEach((s, j) => {
@@ -105,14 +206,22 @@ export function parseSweep(input: string | Buffer, file: string, opts: SweepOpti
   if (!columns.vsb) columns.vsb = new Float64Array(rows);
   const cols = columns as Samples['columns'];
   normaliseSigns(cols, opts.device);
-  opts.onProgress?.(totalLines, totalLines);
+  const flipped = oppositeSignRow(cols.id);
+  if (flipped >= 0) {
+    const largest = magnitudeRange(cols.id).max;
+    throw new StackwrightError(
+      `column ${showText(specs[idj].header)}: this row's drain current (${formatEng(Math.abs(cols.id[flipped]), 'A')}) has the sign opposite to the device's other rows (largest ${formatEng(largest, 'A')}); one device's current has one sign: remove the row or fix its sign`,
+      { where: whereCell(lines[flipped], specs[idj].index) },
+    );
+  }
+  opts.onProgress?.(p.totalLines, p.totalLines);
   return {
     file,
-    sha256,
+    sha256: p.sha256,
     rows,
     columns: cols,
     lines: lines.subarray(0, rows),
-    headers,
+    headers: p.headers,
     source,
     mapped: specs.filter((s) => s.mapKey !== undefined).map((s) => s.mapKey!),
   };

@@ -1,5 +1,5 @@
 import { StackwrightError } from '../errors.js';
-import { formatEng } from '../units/index.js';
+import { formatEng, showValue } from '../units/index.js';
 import { snapVolt } from './pool.js';
 import { blockSize, rowMajorStrides } from '../numeric/strides.js';
 import { hermiteAt, pchipSlopes } from '../numeric/pchip.js';
@@ -23,7 +23,7 @@ export function commonAxis(per: Array<{ l: number; axis: Float64Array }>, name: 
   const lo = Math.max(...per.map((p) => p.axis[0]));
   const hi = Math.min(...per.map((p) => p.axis[p.axis.length - 1]));
   if (lo > hi) {
-    const spans = per.map((p) => `L=${formatEng(p.l, 'm', 4)} ${p.axis[0]}..${p.axis[p.axis.length - 1]} V`).join(', ');
+    const spans = per.map((p) => `L=${formatEng(p.l, 'm', 4)} ${showValue(p.axis[0], 'V')}..${showValue(p.axis[p.axis.length - 1], 'V')}`).join(', ');
     throw new StackwrightError(`the lengths share no ${name} range (${spans})`, { where: file });
   }
   // A length whose own points include every other length's (inside the shared range) already is the grid.
@@ -68,7 +68,7 @@ function pointAt(axes: readonly Float64Array[], flat: number): string {
   const is = flat % ns;
   const id = Math.floor(flat / ns) % nd;
   const ig = Math.floor(flat / (ns * nd)) % ng;
-  return `vgs=${axes[0][ig]} vds=${axes[1][id]} vsb=${axes[2][is]}`;
+  return `vgs=${showValue(axes[0][ig], 'V')} vds=${showValue(axes[1][id], 'V')} vsb=${showValue(axes[2][is], 'V')}`;
 }
 
 function resampleAxis(src: Float64Array, axes: Float64Array[], k: number, target: Float64Array, log: boolean, l: number, file: string): Float64Array {
@@ -101,7 +101,7 @@ function resampleAxis(src: Float64Array, axes: Float64Array[], k: number, target
       if (target[0] < xs[0] || target[m - 1] > xs[xs.length - 1]) {
         const line = lineLabel(axes, k, o, inner, dims);
         throw new StackwrightError(
-          `L=${formatEng(l, 'm', 4)}${line}: ${NAMES[k]} samples span ${xs[0]}..${xs[xs.length - 1]} V but the common grid needs ${target[0]}..${target[m - 1]} V; refusing to extrapolate`,
+          `L=${formatEng(l, 'm', 4)}${line}: ${NAMES[k]} samples span ${showValue(xs[0], 'V')}..${showValue(xs[xs.length - 1], 'V')} but the common grid needs ${showValue(target[0], 'V')}..${showValue(target[m - 1], 'V')}; refusing to extrapolate`,
           { where: file },
         );
       }
@@ -132,6 +132,6 @@ function lineLabel(axes: Float64Array[], k: number, o: number, inner: number, di
     idx[a] = rest % dims[a];
     rest = Math.floor(rest / dims[a]);
   }
-  const parts = [0, 1, 2].filter((a) => a !== k && dims[a] > 1).map((a) => `${NAMES[a]}=${axes[a][idx[a]]}`);
+  const parts = [0, 1, 2].filter((a) => a !== k && dims[a] > 1).map((a) => `${NAMES[a]}=${showValue(axes[a][idx[a]], 'V')}`);
   return parts.length ? ` at ${parts.join(' ')}` : '';
 }

@@ -7,7 +7,31 @@ export interface Decoded {
   sha256: string;
 }
 
-/** Bytes or text to a string: gunzip when the gzip magic is present, drop a UTF-8 BOM. */
+/**
+ * Input as UTF-8 bytes when it is UTF-8 (gunzipped when gzip; `start` skips a
+ * UTF-8 BOM), else as text (UTF-16 decoded by its BOM). The digest is of the raw input.
+ */
+export function decodeInput(input: string | Buffer, file: string): { sha256: string } & ({ bytes: Buffer; start: number; text?: undefined } | { text: string; bytes?: undefined }) {
+  if (typeof input === 'string') return decode(input, file);
+  const sha256 = createHash('sha256').update(input).digest('hex');
+  let bytes = input;
+  if (bytes.length >= 2 && bytes[0] === 0x1f && bytes[1] === 0x8b) {
+    try {
+      bytes = gunzipSync(bytes);
+    } catch (e) {
+      throw new StackwrightError(`cannot gunzip: ${(e as Error).message.split('\n')[0]}`, { where: file });
+    }
+  }
+  const utf16or32 = bytes.length >= 2 && ((bytes[0] === 0xff && bytes[1] === 0xfe) || (bytes[0] === 0xfe && bytes[1] === 0xff) || (bytes[0] === 0 && bytes[1] === 0));
+  const nul = bytes.subarray(0, 64).indexOf(0) >= 0;
+  if (utf16or32 || nul) return { text: stripBom(bytesToText(bytes, file)), sha256 };
+  const bom = bytes.length >= 3 && bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf;
+  return { bytes, start: bom ? 3 : 0, sha256 };
+}
+
+const stripBom = (t: string) => (t.charCodeAt(0) === 0xfeff ? t.slice(1) : t);
+
+/** Bytes or text to a string: gunzip when the gzip magic is present, decode UTF-16 by its BOM, drop a BOM. */
 export function decode(input: string | Buffer, file: string): Decoded {
   const bytes = typeof input === 'string' ? Buffer.from(input, 'utf8') : input;
   const sha256 = createHash('sha256').update(bytes).digest('hex');
@@ -19,9 +43,44 @@ export function decode(input: string | Buffer, file: string): Decoded {
       throw new StackwrightError(`cannot gunzip: ${(e as Error).message.split('\n')[0]}`, { where: file });
     }
   }
-  let text = typeof raw === 'string' ? raw : raw.toString('utf8');
+  let text = typeof raw === 'string' ? raw : bytesToText(raw, file);
   if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
   return { text, sha256 };
+}
+
+/**
+ * UTF-8 (with or without BOM) as is; UTF-16 recognised by its byte-order mark
+ * (FF FE little-endian, FE FF big-endian; Unicode Standard, section 23.8) and
+ * decoded. UTF-32 and BOM-less UTF-16 (NUL bytes between ASCII) are refused by
+ * name, since reading them as UTF-8 gives garbled headers.
+ */
+export function bytesToText(b: Buffer, file: string): string {
+  if (b.length >= 4 && b[0] === 0xff && b[1] === 0xfe && b[2] === 0 && b[3] === 0) throw encodingError('UTF-32 (little-endian)', file);
+  if (b.length >= 4 && b[0] === 0 && b[1] === 0 && b[2] === 0xfe && b[3] === 0xff) throw encodingError('UTF-32 (big-endian)', file);
+  if (b.length >= 2 && b[0] === 0xff && b[1] === 0xfe) return utf16(b.subarray(2), file, 'UTF-16 (little-endian)');
+  if (b.length >= 2 && b[0] === 0xfe && b[1] === 0xff) {
+    const body = Buffer.from(b.subarray(2));
+    if (body.length % 2 !== 0) throw new StackwrightError('UTF-16 (big-endian) text with an odd number of bytes: the file is cut short', { where: file });
+    body.swap16();
+    return utf16(body, file, 'UTF-16 (big-endian)');
+  }
+  const head = b.subarray(0, 64);
+  if (head.length >= 4 && head.indexOf(0) >= 0) {
+    const evenNul = head[1] === 0 && head[3] === 0;
+    const oddNul = head[0] === 0 && head[2] === 0;
+    if (evenNul || oddNul) throw encodingError(`UTF-16 without a byte-order mark (${evenNul ? 'little' : 'big'}-endian by its NUL bytes)`, file);
+    throw new StackwrightError('binary data (NUL bytes) in the first line: not a text sweep file', { where: file });
+  }
+  return b.toString('utf8');
+}
+
+function utf16(body: Buffer, file: string, name: string): string {
+  if (body.length % 2 !== 0) throw new StackwrightError(`${name} text with an odd number of bytes: the file is cut short`, { where: file });
+  return body.toString('utf16le');
+}
+
+function encodingError(name: string, file: string): StackwrightError {
+  return new StackwrightError(`the file is ${name} text; save it as UTF-8 (or UTF-16 with a byte-order mark)`, { where: file });
 }
 
 export function isCommentOrBlank(line: string): boolean {

@@ -1,3 +1,4 @@
+import { showNumber } from '../units/index.js';
 import { StackwrightError } from '../errors.js';
 import { AxisLocator } from './axis.js';
 import { rangeError } from './range-error.js';
@@ -122,7 +123,7 @@ function checkAxis(a: ArrayLike<number>, k: number, name: string): Float64Array 
   for (let i = 0; i < a.length; i++) {
     if (!Number.isFinite(a[i])) throw new StackwrightError(`grid ${label} point ${i} is not a finite number (${a[i]})`);
     if (i > 0 && !(a[i] > a[i - 1])) {
-      throw new StackwrightError(`grid ${label} is not strictly increasing at point ${i} (${a[i - 1]} then ${a[i]})`);
+      throw new StackwrightError(`grid ${label} is not strictly increasing at point ${i} (${showNumber(a[i - 1])} then ${showNumber(a[i])})`);
     }
   }
   return a instanceof Float64Array ? a : Float64Array.from(a);

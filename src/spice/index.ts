@@ -1,5 +1,5 @@
 export { stackNetlist, designNetlist, stackLines, DEFAULT_MODELS, SWEEP_SOURCE, SWEEP_NODE, PROBE_PREFIX, type NetlistOptions } from './netlist.js';
-export { characterisationDeck, CHAR_COLUMNS, dataFileName, type CharacterisationOptions, type SweepRange } from './characterise.js';
+export { characterisationDeck, CHAR_COLUMNS, DEFAULT_DATA_FILE, DEFAULT_PINS, dataFileFor, devicePath, type CharacterisationOptions, type Pin, type SweepRange } from './characterise.js';
 export { characterisationCsv } from './characterise-csv.js';
 export { characterise } from './characterise-run.js';
 export { runNgspice, firstError, type NgspiceRun, type RunOptions } from './run.js';

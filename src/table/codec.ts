@@ -30,6 +30,22 @@ const align8 = (n: number): number => (n + 7) & ~7;
 
 /** Serialises a validated table; `where` names it in errors. */
 export function encodeTable(table: DeviceTable, where: string): Uint8Array {
+  const chunks = encodeTableChunks(table, where);
+  const out = new Uint8Array(chunks.reduce((n, c) => n + c.length, 0));
+  let at = 0;
+  for (const c of chunks) {
+    out.set(c, at);
+    at += c.length;
+  }
+  return out;
+}
+
+/**
+ * The same bytes as encodeTable, as pieces to write one after another: the
+ * padded header, then each data block, on little-endian machines a view of the
+ * table's own arrays (a large table is not copied once more just to be written).
+ */
+export function encodeTableChunks(table: DeviceTable, where: string): Uint8Array[] {
   validateTable(table, where);
   const size = tableSize(table.axes);
   const layout: TableHeader['layout'] = {};
@@ -37,21 +53,18 @@ export function encodeTable(table: DeviceTable, where: string): Uint8Array {
   order.forEach((q, k) => (layout[q] = { offset: k * size * 8, length: size }));
   const axes = Object.fromEntries(AXES.map((a) => [a, Array.from(table.axes[a])])) as Record<Axis, number[]>;
   const header: TableHeader = { meta: table.meta, axes, layout };
-  const head = Buffer.from(`${MAGIC}\n${JSON.stringify(header)}\n`, 'utf8');
-  const start = align8(head.length);
-  const out = new Uint8Array(start + order.length * size * 8);
-  out.set(head, 0);
-  order.forEach((q, k) => writeBlock(out, start + k * size * 8, table.data[q] as Float64Array));
-  return out;
+  const text = Buffer.from(`${MAGIC}\n${JSON.stringify(header)}\n`, 'utf8');
+  const head = new Uint8Array(align8(text.length));
+  head.set(text, 0);
+  return [head, ...order.map((q) => blockBytes(table.data[q] as Float64Array))];
 }
 
-function writeBlock(out: Uint8Array, at: number, arr: Float64Array): void {
-  if (LITTLE) {
-    out.set(new Uint8Array(arr.buffer, arr.byteOffset, arr.byteLength), at);
-    return;
-  }
-  const dv = new DataView(out.buffer, out.byteOffset);
-  for (let i = 0; i < arr.length; i++) dv.setFloat64(at + 8 * i, arr[i], true);
+function blockBytes(arr: Float64Array): Uint8Array {
+  if (LITTLE) return new Uint8Array(arr.buffer, arr.byteOffset, arr.byteLength);
+  const out = new Uint8Array(arr.byteLength);
+  const dv = new DataView(out.buffer);
+  for (let i = 0; i < arr.length; i++) dv.setFloat64(8 * i, arr[i], true);
+  return out;
 }
 
 /** Parses lines 1-2; returns the header and where the data section starts. */

@@ -2,7 +2,7 @@ import { closeSync, existsSync, openSync, readdirSync, readFileSync, readSync, s
 import { join, resolve } from 'node:path';
 import { StackwrightError } from '../errors.js';
 import { writeFileAtomic } from '../fsutil.js';
-import { checkLayout, decodeHeader, decodeTable, encodeTable } from './codec.js';
+import { checkLayout, decodeHeader, decodeTable, encodeTableChunks } from './codec.js';
 import type { TableHeader } from './codec.js';
 import type { DeviceTable, Polarity } from './types.js';
 
@@ -23,8 +23,9 @@ export function writeTable(dir: string, table: DeviceTable, opts: { force?: bool
   if (!opts.force && existsSync(path)) {
     throw new StackwrightError(`${path} already exists; pass --force to overwrite it`, { kind: 'exists' });
   }
-  const bytes = encodeTable(table, `table ${table.meta.kit}/${table.meta.device}/${table.meta.corner}`);
-  writeFileAtomic(path, bytes, { force: true });
+  const bytes = encodeTableChunks(table, `table ${table.meta.kit}/${table.meta.device}/${table.meta.corner}`);
+  // Exclusive without force: a concurrent ingest of the same table that passed the check above loses cleanly.
+  writeFileAtomic(path, bytes, { force: opts.force });
   cache.delete(resolve(path));
   return path;
 }

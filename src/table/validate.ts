@@ -1,5 +1,6 @@
 import { StackwrightError } from '../errors.js';
-import { AXES, STORED, tableSize } from './types.js';
+import { showValue } from '../units/index.js';
+import { AXES, STORED, UNITS, tableSize } from './types.js';
 import type { DeviceTable, TableMeta } from './types.js';
 
 /** Kit and corner names become folder and file names, so keep them plain. */
@@ -32,14 +33,14 @@ export function checkAxes(axes: Record<string, ArrayLike<number>>, where: string
     }
     for (let i = 0; i < v.length; i++) {
       if (typeof v[i] !== 'number' || !Number.isFinite(v[i])) {
-        throw new StackwrightError(`axis ${a} point ${i} is not a finite number (${v[i]})`, { where });
+        throw new StackwrightError(`axis ${a} point ${i} is not a finite number (${String(v[i])})`, { where });
       }
       if (i > 0 && !(v[i] > v[i - 1])) {
-        throw new StackwrightError(`axis ${a} is not strictly increasing at point ${i} (${v[i - 1]} then ${v[i]})`, { where });
+        throw new StackwrightError(`axis ${a} is not strictly increasing at point ${i} (${showValue(v[i - 1], UNITS[a])} then ${showValue(v[i], UNITS[a])})`, { where });
       }
     }
   }
-  if (axes.l[0] <= 0) throw new StackwrightError(`axis l must be positive lengths, starts at ${axes.l[0]}`, { where });
+  if (axes.l[0] <= 0) throw new StackwrightError(`axis l must be positive lengths, starts at ${showValue(axes.l[0], 'm')}`, { where });
 }
 
 /** Full check of an in-memory table: meta, axes, and every data block's size and finiteness. */

@@ -20,6 +20,8 @@ export function formatEng(x: number, unit = '', digits = 3): string {
   if (!Number.isFinite(x)) return `${x}${unit ? ' ' + unit : ''}`;
   if (x === 0) return `0${unit ? ' ' + unit : ''}`;
   const ax = Math.abs(x);
+  // Beyond the prefixes (a units mistake, mostly): plain exponent form, not "2e-12 aF".
+  if (ax < 1e-18 * 0.9995 || ax >= 1e15 * 0.9995) return `${Number(x.toPrecision(digits)).toExponential()}${unit ? ' ' + unit : ''}`;
   let chosen = PREFIXES[PREFIXES.length - 1];
   for (const p of PREFIXES) {
     if (ax >= p[0] * 0.9995) {
@@ -31,6 +33,20 @@ export function formatEng(x: number, unit = '', digits = 3): string {
   const text = Number(scaled.toPrecision(digits)).toString();
   const suffix = chosen[1] + unit;
   return suffix ? `${text} ${suffix}` : text;
+}
+
+/**
+ * A number as a message shows it: SI prefix and unit, six significant digits so a value just
+ * outside a limit does not print as the limit, never a raw float such as -0.000009999999999999999.
+ * showValue(-9.999999999999999e-6, 'V') = "-10 µV".
+ */
+export function showValue(x: number, unit = ''): string {
+  return formatEng(x, unit, 6);
+}
+
+/** A unitless number for messages: at most six significant digits. */
+export function showNumber(x: number): string {
+  return Number.isFinite(x) ? String(Number(x.toPrecision(6))) : String(x);
 }
 
 /**

@@ -39,7 +39,7 @@ export function registerIngest(program: Command): void {
     .option('--note <text>', 'free text stored with the table')
     .option('--force', 'overwrite an existing table')
     .option('--json', 'print a JSON summary')
-    .addHelpText('after', '\nExample:\n  stackwright ingest sweeps/nch_tt.csv --kit mykit --device n --corner tt --map "I(Vd)=id"\n')
+    .addHelpText('after', '\nExample:\n  stackwright ingest sweeps/nfet_tt.csv --kit mykit --device n --corner tt --map "I(Vd)=id"\n')
     .action((files: string[], f: IngestFlags) => {
       if ((f.avt === undefined) !== (f.abeta === undefined)) {
         throw new StackwrightError('give both --avt and --abeta, or neither', { where: f.avt === undefined ? '--avt' : '--abeta' });

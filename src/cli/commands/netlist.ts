@@ -52,7 +52,7 @@ export function registerNetlist(program: Command): void {
     .option('--include <file>', 'model file to .include (or a literal .lib/.include line)')
     .option('--bias <ideal|diodes>', 'gates from ideal sources at the reported voltages, or from the sized diode bias devices', 'ideal')
     .option('--force', 'overwrite an existing file')
-    .addHelpText('after', '\nExample:\n  stackwright size spec.yaml --json > result.json\n  stackwright netlist result.json --include models.lib --model-n nch --model-p pch --out stacks.cir\n')
+    .addHelpText('after', '\nExample:\n  stackwright size spec.yaml --json > result.json\n  stackwright netlist result.json --include models.lib --model-n nfet_model --model-p pfet_model --out stacks.cir\n')
     .action((path: string, f: NetlistFlags) => {
       if (f.bias !== 'ideal' && f.bias !== 'diodes') throw new StackwrightError(`expected ideal or diodes, got "${f.bias}"`, { where: '--bias' });
       const result = readSizeResult(path);
