@@ -43,7 +43,7 @@ if (spawnSync('ngspice', ['-v'], { encoding: 'utf8' }).error) {
 } else {
   run(
     'size the demo spec on the invented BSIM4 kit reed180 and confirm every design in ngspice (corners tt, ss)',
-    ['size', spiceSpec, '--spice', '--include', join('demo-tables', 'reed180', 'reed180.lib'), '--model-n', 'nch_reed', '--model-p', 'pch_reed',
+    ['size', spiceSpec, '--spice', '--include', join('demo-tables', 'reed180', 'reed180.lib'), '--model-n', 'nfet_reed', '--model-p', 'pfet_reed',
       '--report', join(outDir, 'report-spice.html'), '--force'],
     [0, 3],
   );

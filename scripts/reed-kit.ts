@@ -19,7 +19,7 @@ import type { Polarity } from '../src/table/types.js';
 export const REED = {
   kit: 'reed180',
   card: 'reed180.lib',
-  models: { n: 'nch_reed', p: 'pch_reed' },
+  models: { n: 'nfet_reed', p: 'pfet_reed' },
   supply: 1.8,
   lengths: [0.18e-6, 0.3e-6, 0.5e-6, 0.8e-6, 1.3e-6, 2e-6],
   w: 1e-6,

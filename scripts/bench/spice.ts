@@ -11,7 +11,7 @@ import { timeSpawn } from './spawn-time.js';
 import { median } from './stats.js';
 
 export const SPICE_SPEC = join('demo-tables', 'specs', 'marsh-wren-spice.yaml');
-const SPICE_ARGS = ['--spice', '--include', join('demo-tables', 'reed180', 'reed180.lib'), '--model-n', 'nch_reed', '--model-p', 'pch_reed'];
+const SPICE_ARGS = ['--spice', '--include', join('demo-tables', 'reed180', 'reed180.lib'), '--model-n', 'nfet_reed', '--model-p', 'pfet_reed'];
 /** The aim: confirming the demo spec takes seconds, not minutes. */
 const TARGET_MS = 10_000;
 
