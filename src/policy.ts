@@ -12,7 +12,10 @@ export function midSpan(t: { headroom: number; span: number }): number {
   return 0.5 * (t.headroom + t.span);
 }
 
-/** Slack on table edges, V: grids are built from decimal text, so allow rounding there. */
+/**
+ * Slack on table edges, as a share of the axis span: grids are built from decimal
+ * text, so rounding there is not "outside". Applied by numeric/axis.ts `edgeTolerance`.
+ */
 export const TABLE_EDGE = 1e-9;
 
 /** Relative tolerance for comparing lengths, widths and areas built by arithmetic. */
@@ -63,6 +66,8 @@ export interface Margins {
   mismatch: number;
   /** Lowest (VDS − VDSsat) / 50 mV at mid-span below the top device (Infinity for one device). */
   saturation: number;
+  /** ln(width limit / widest output device): ≥ 0 when every device fits (Infinity without a limit). */
+  width: number;
 }
 
 export interface Targets {
@@ -70,6 +75,8 @@ export interface Targets {
   headroom: number;
   current: number;
   mismatch?: number;
+  /** Widest allowed output device, m. */
+  wmax?: number;
 }
 
 /** What a design reaches: Rout at the headroom target (Ω), headroom (V), mid-span current (A), σ, saturation margin. */
@@ -79,6 +86,8 @@ export interface Reached {
   iout: number;
   sigma?: number;
   saturation: number;
+  /** Widest output device, m. */
+  width?: number;
 }
 
 /** Margins of what a design reaches against the targets. */
@@ -89,7 +98,16 @@ export function marginsFor(t: Targets, r: Reached): Margins {
     iout: currentMargin(r.iout, t.current),
     mismatch: t.mismatch === undefined || r.sigma === undefined ? Infinity : 1 - r.sigma / t.mismatch,
     saturation: r.saturation,
+    width: t.wmax === undefined || r.width === undefined ? Infinity : Math.log(t.wmax / r.width),
   };
+}
+
+/**
+ * A provided headroom as reported everywhere (results, words, JSON): rounded up to the whole mV, so a
+ * reported value never reads as meeting a target the design misses (the margins use the raw value).
+ */
+export function reportedHeadroom(h: number): number {
+  return Number.isFinite(h) ? Math.ceil(h * 1000 - 1e-6) / 1000 : h;
 }
 
 /** 1 − |i − reference| / (window · |reference|): ≥ 0 inside the current window. */
@@ -98,11 +116,11 @@ export function currentMargin(i: number, reference: number): number {
 }
 
 export function meetsAll(m: Margins): boolean {
-  return m.rout >= 0 && m.headroom >= 0 && m.iout >= 0 && m.mismatch >= 0 && m.saturation >= 0;
+  return m.rout >= 0 && m.headroom >= 0 && m.iout >= 0 && m.mismatch >= 0 && m.saturation >= 0 && m.width >= 0;
 }
 
 /** Distance to feasible: the sum of shortfalls, 0 when every target is met. Infinite shortfalls are capped so designs still rank. */
 export function distanceToFeasible(m: Margins): number {
   const cap = (x: number) => Math.min(Math.max(0, -x), 50);
-  return cap(m.rout) + cap(m.headroom) + cap(m.iout) + cap(m.mismatch) + cap(m.saturation);
+  return cap(m.rout) + cap(m.headroom) + cap(m.iout) + cap(m.mismatch) + cap(m.saturation) + cap(m.width);
 }

@@ -57,7 +57,11 @@ describe('parseSpec', () => {
     ['duplicate name', good.replace('name: load', 'name: tail'), /stacks\[1\]\.name: duplicate stack name "tail"/],
     ['not yaml', 'kit: [a\n', /^spec\.yaml:\d+:\d+: not valid YAML/],
     ['negative current', good.replace('current: 40u', 'current: -40u'), /stacks\[0\]\.current: expected a positive value/],
+    ['zero width limit', good.replace('    objective: area\n', '    objective: area\n    wmax: 0\n'), /stacks\[0\]\.wmax: expected a positive value/],
   ];
+  it('reads the width limit wmax in metres', () => {
+    expect(parseSpec(good.replace('    objective: area\n', '    objective: area\n    wmax: 500u\n'), 'spec.yaml').stacks[0].wmax).toBeCloseTo(500e-6, 15);
+  });
   for (const [label, text, re] of bad) {
     it(`rejects ${label} with a one-line message naming the key path`, () => {
       let msg = '';

@@ -334,7 +334,7 @@ describe('text tables', () => {
     expect(text).toContain(`CAUTION: ${size.caution}`);
     expect(text).toContain('stack tail_sink: n-type cascode — FEASIBLE');
     expect(text).toContain('stack load_source: p-type cascode-stacked — INFEASIBLE');
-    expect(text).toMatch(/the Rout target needs 780 mV of headroom/);
+    expect(text).toMatch(/the Rout target needs 0\.780 V of headroom at best/);
     // Square law gm/ID = 2/Vov (common practice, strong-inversion relation): gm/ID 11.8 /V -> Vov 169 mV.
     expect(text).toMatch(/Vov bottom \(table: 2\/\(gm\/ID\)\)\s+169 mV\s+171 mV/);
     expect(text).toMatch(/bottom\s+6\.5 µm\s+720 nm\s+612 mV/);

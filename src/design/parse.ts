@@ -6,7 +6,7 @@ import { topologyNames } from '../topology/index.js';
 import type { DesignSpec, Objective, StackSpec, Topology } from './types.js';
 
 const TOP_KEYS = ['kit', 'corner', 'supply', 'stacks'];
-const STACK_KEYS = ['name', 'device', 'topology', 'current', 'rout', 'headroom', 'span', 'l', 'gmid', 'objective', 'mismatch', 'bias'];
+const STACK_KEYS = ['name', 'device', 'topology', 'current', 'rout', 'headroom', 'span', 'l', 'gmid', 'objective', 'mismatch', 'bias', 'wmax'];
 const OBJECTIVES: Objective[] = ['area', 'headroom', 'rout'];
 
 type Path = Array<string | number>;
@@ -102,6 +102,7 @@ function parseStack(s: Record<string, unknown>, path: Path, supply: number, fail
   }
   if (s.mismatch !== undefined) out.mismatch = parsePercent(s.mismatch, [...path, 'mismatch'], fail);
   if (s.bias !== undefined) out.biasCurrent = requireNumber(s, 'bias', path, fail, { positive: true });
+  if (s.wmax !== undefined) out.wmax = requireNumber(s, 'wmax', path, fail, { positive: true });
   return out;
 }
 

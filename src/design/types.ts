@@ -29,6 +29,8 @@ export interface StackSpec {
   mismatch?: number;
   /** Current in each bias (diode) branch, A (default: `current`). */
   biasCurrent?: number;
+  /** Widest allowed output device, m (default: the kit's, see solve/width.ts). */
+  wmax?: number;
 }
 
 export interface DesignSpec {

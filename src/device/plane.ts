@@ -60,7 +60,8 @@ export function lengthPlane(table: DeviceTable, l: number): LengthPlane {
 
 // A table without gm, gds or gmb still gives a usable slice: the missing
 // conductance is the slope of id along vgs, vds or vsb in this plane (central
-// differences). gmb = −∂id/∂vsb, since raising vsb raises the threshold.
+// differences, the query-time estimator; src/numeric/difference.ts says why the
+// importer smooths instead). gmb = −∂id/∂vsb, since raising vsb raises the threshold.
 function estimateMissing(plane: LengthPlane, table: DeviceTable): void {
   const { vgs, vds, vsb } = table.axes;
   const id = plane.q.id;

@@ -1,4 +1,5 @@
 import { AxisLocator } from '../numeric/axis.js';
+import { rowMajorStrides } from '../numeric/strides.js';
 import { rangeError } from '../numeric/range-error.js';
 import { tableLabel } from '../table/label.js';
 import { formatEng } from '../units/index.js';
@@ -38,6 +39,9 @@ export class TableSlice implements LengthSlice {
   private readonly sG: number;
   private readonly sD: number;
   private readonly sS: number;
+  // Row-major strides of the plane along vgs and vds (vsb's is 1).
+  private readonly stG: number;
+  private readonly stD: number;
   private readonly label: string;
   // Cell of the last locate(): base offset and fractions.
   private base = 0;
@@ -67,10 +71,13 @@ export class TableSlice implements LengthSlice {
     this.lg = new AxisLocator(table.axes.vgs);
     this.ld = new AxisLocator(table.axes.vds);
     this.ls = new AxisLocator(table.axes.vsb);
-    const [, nd, ns] = this.plane.dims;
+    const [stG, stD] = rowMajorStrides(this.plane.dims);
+    this.stG = stG;
+    this.stD = stD;
+    // Offsets to the upper neighbour along each axis (0 on a single-point axis).
     this.sS = this.ls.step;
-    this.sD = this.ld.step * ns;
-    this.sG = this.lg.step * nd * ns;
+    this.sD = this.ld.step * stD;
+    this.sG = this.lg.step * stG;
     this.range = {
       vgs: [this.lg.lo, this.lg.hi],
       vds: [this.ld.lo, this.ld.hi],
@@ -133,8 +140,7 @@ export class TableSlice implements LengthSlice {
     if (id < 0) throw rangeError('vds', vds, this.ld.lo, this.ld.hi, 'V', this.where());
     const is = this.ls.locate(vsb);
     if (is < 0) throw rangeError('vsb', vsb, this.ls.lo, this.ls.hi, 'V', this.where());
-    const [, nd, ns] = this.plane.dims;
-    this.base = (ig * nd + id) * ns + is;
+    this.base = ig * this.stG + id * this.stD + is;
     this.tg = this.lg.t;
     this.td = this.ld.t;
     this.ts = this.ls.t;

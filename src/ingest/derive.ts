@@ -1,40 +1,29 @@
-import type { Axis } from '../table/types.js';
-import { slopeAt, slopeStencil } from '../numeric/slope.js';
-import { rowMajorStrides } from '../numeric/strides.js';
+import { AXES, gridDims, type Axis } from '../table/types.js';
+import { smoothedDerivative } from '../numeric/difference.js';
 
 export const WINDOW = 5;
 
-/** Layout of a flat row-major grid (l, vgs, vds, vsb). */
-export function strides(axes: Record<Axis, Float64Array>): Record<Axis, number> {
-  const [l, vgs, vds, vsb] = rowMajorStrides([axes.l.length, axes.vgs.length, axes.vds.length, axes.vsb.length]);
-  return { l, vgs, vds, vsb };
-}
-
 /**
- * Smoothed d(id)/d(axis) on the grid by a local quadratic over WINDOW points.
- * With `log`, the fit is of ln(id) and the slope is id·d(ln id): exact for the
- * exponential weak-inversion law and much better than a parabola there. Windows
- * holding a non-positive id fall back to fitting id itself. Returns magnitudes.
+ * Smoothed d(id)/d(axis) on the grid by a local quadratic over WINDOW points
+ * (the import-time estimator; why it differs from the query-time one is said
+ * in src/numeric/difference.ts). With `log`, the fit is of ln(id) and the slope
+ * is id·d(ln id): exact for the exponential weak-inversion law and much better
+ * than a parabola there. Windows holding a non-positive id fall back to fitting
+ * id itself. Returns magnitudes.
  */
 export function deriveAlong(axes: Record<Axis, Float64Array>, id: Float64Array, axis: 'vgs' | 'vds' | 'vsb', log: boolean): Float64Array {
-  const x = axes[axis];
-  const n = x.length;
-  const st = slopeStencil(x, WINDOW);
-  const stride = strides(axes)[axis];
-  const out = new Float64Array(id.length);
-  const lnId = log ? id.map((v) => (v > 0 ? Math.log(v) : NaN)) : id;
-  const block = stride * n;
-  for (let outer = 0; outer < id.length; outer += block) {
-    for (let inner = 0; inner < stride; inner++) {
-      const base = outer + inner;
-      for (let i = 0; i < n; i++) {
-        let g = NaN;
-        if (log) g = id[base + i * stride] * slopeAt(st, i, lnId, base, stride);
-        if (!Number.isFinite(g)) g = slopeAt(st, i, id, base, stride);
-        out[base + i * stride] = Math.abs(g);
-      }
+  const dims = gridDims(axes);
+  const along = AXES.indexOf(axis);
+  const out = smoothedDerivative(id, dims, along, axes[axis], WINDOW);
+  if (log) {
+    const lnId = id.map((v) => (v > 0 ? Math.log(v) : NaN));
+    const dLn = smoothedDerivative(lnId, dims, along, axes[axis], WINDOW);
+    for (let k = 0; k < out.length; k++) {
+      const g = id[k] * dLn[k];
+      if (Number.isFinite(g)) out[k] = g;
     }
   }
+  for (let k = 0; k < out.length; k++) out[k] = Math.abs(out[k]);
   return out;
 }
 

@@ -1,15 +1,11 @@
 import { StackwrightError } from '../errors.js';
-import { AXES, type Axis, type StoredQuantity } from '../table/types.js';
+import { AXES, gridDims, type Axis, type StoredQuantity } from '../table/types.js';
 import { formatEng, showValue } from '../units/index.js';
-import { strides } from './derive.js';
+import { rowMajorIndex } from '../numeric/strides.js';
 
 /** Bias point of flat index `k` of a row-major (l, vgs, vds, vsb) grid, for messages. */
 export function biasPointAt(axes: Record<Axis, Float64Array>, k: number): string {
-  const st = strides(axes);
-  const il = Math.floor(k / st.l);
-  const ig = Math.floor(k / st.vgs) % axes.vgs.length;
-  const id = Math.floor(k / st.vds) % axes.vds.length;
-  const is = k % axes.vsb.length;
+  const [il, ig, id, is] = rowMajorIndex(k, gridDims(axes));
   return `L=${formatEng(axes.l[il], 'm', 4)} vgs=${showValue(axes.vgs[ig], 'V')} vds=${showValue(axes.vds[id], 'V')} vsb=${showValue(axes.vsb[is], 'V')}`;
 }
 

@@ -1,7 +1,7 @@
 import { StackwrightError } from '../errors.js';
 import { formatEng, showValue } from '../units/index.js';
 import { snapVolt } from './pool.js';
-import { blockSize, rowMajorStrides } from '../numeric/strides.js';
+import { blockSize, rowMajorIndex, rowMajorStrides } from '../numeric/strides.js';
 import { hermiteAt, pchipSlopes } from '../numeric/pchip.js';
 
 const NAMES = ['vgs', 'vds', 'vsb'] as const;
@@ -64,10 +64,7 @@ export function resampleLength(
 }
 
 function pointAt(axes: readonly Float64Array[], flat: number): string {
-  const [ng, nd, ns] = axes.map((a) => a.length);
-  const is = flat % ns;
-  const id = Math.floor(flat / ns) % nd;
-  const ig = Math.floor(flat / (ns * nd)) % ng;
+  const [ig, id, is] = rowMajorIndex(flat, axes.map((a) => a.length));
   return `vgs=${showValue(axes[0][ig], 'V')} vds=${showValue(axes[1][id], 'V')} vsb=${showValue(axes[2][is], 'V')}`;
 }
 
@@ -121,17 +118,7 @@ function resampleAxis(src: Float64Array, axes: Float64Array[], k: number, target
 }
 
 function lineLabel(axes: Float64Array[], k: number, o: number, inner: number, dims: number[]): string {
-  const idx = [0, 0, 0];
-  let rest = inner;
-  for (let a = 2; a > k; a--) {
-    idx[a] = rest % dims[a];
-    rest = Math.floor(rest / dims[a]);
-  }
-  rest = o;
-  for (let a = k - 1; a >= 0; a--) {
-    idx[a] = rest % dims[a];
-    rest = Math.floor(rest / dims[a]);
-  }
+  const idx = rowMajorIndex((o * dims[k]) * rowMajorStrides(dims)[k] + inner, dims);
   const parts = [0, 1, 2].filter((a) => a !== k && dims[a] > 1).map((a) => `${NAMES[a]}=${showValue(axes[a][idx[a]], 'V')}`);
   return parts.length ? ` at ${parts.join(' ')}` : '';
 }

@@ -1,3 +1,5 @@
+import { TABLE_EDGE } from '../policy.js';
+
 /**
  * Finds the cell of a strictly increasing axis that holds a value, without
  * allocating. Uniform axes get an O(1) index guess; others a binary search.
@@ -25,7 +27,7 @@ export class AxisLocator {
     this.lo = values[0];
     this.hi = values[this.n - 1];
     const span = this.hi - this.lo;
-    this.tolerance = this.n > 1 ? 1e-9 * span : 1e-12 + 1e-9 * Math.abs(this.lo);
+    this.tolerance = edgeTolerance(this.lo, this.hi);
     this.step = this.n > 1 ? 1 : 0;
     this.uniform = this.n > 2 && isUniform(values);
     this.invStep = this.n > 1 ? (this.n - 1) / span : 0;
@@ -52,18 +54,36 @@ export class AxisLocator {
       while (i > 0 && x < v[i]) i--;
       while (i < last && x >= v[i + 1]) i++;
     } else {
-      let a = 0;
-      let b = this.n - 1;
-      while (b - a > 1) {
-        const m = (a + b) >> 1;
-        if (v[m] <= x) a = m;
-        else b = m;
-      }
-      i = a;
+      i = cellOf(v, x);
     }
     this.t = (x - v[i]) / (v[i + 1] - v[i]);
     return i;
   }
+}
+
+/**
+ * Distance beyond an axis' ends [lo, hi] still taken as on the end: TABLE_EDGE
+ * (1e-9) of the span; for a single-point axis (lo = hi), of the value, plus 1e-12.
+ * The one table-edge rule: the locator, hermiteAt and the stack layer's range checks use it.
+ */
+export function edgeTolerance(lo: number, hi: number): number {
+  return hi !== lo ? TABLE_EDGE * Math.abs(hi - lo) : 1e-12 + TABLE_EDGE * Math.abs(lo);
+}
+
+/**
+ * Lower node of the cell of strictly increasing `v` that holds x, by bisection:
+ * the last i ≤ n − 2 with v[i] ≤ x, 0 below v[1] (numpy.searchsorted(v, x, 'right') − 1,
+ * clipped to [0, n − 2]). Needs n ≥ 2.
+ */
+export function cellOf(v: ArrayLike<number>, x: number): number {
+  let a = 0;
+  let b = v.length - 1;
+  while (b - a > 1) {
+    const m = (a + b) >> 1;
+    if (v[m] <= x) a = m;
+    else b = m;
+  }
+  return a;
 }
 
 function isUniform(v: Float64Array): boolean {

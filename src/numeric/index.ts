@@ -1,8 +1,8 @@
 export { pchip, pchipSlopes, hermiteAt } from './pchip.js';
 export { slopeStencil, slopeAt, type SlopeStencil } from './slope.js';
 export { solveBracket } from './bracket.js';
-export { nodeDerivative } from './difference.js';
-export { rowMajorStrides, blockSize } from './strides.js';
+export { nodeDerivative, smoothedDerivative } from './difference.js';
+export { rowMajorStrides, blockSize, rowMajorIndex, forEachLine } from './strides.js';
 export { AxisLocator } from './axis.js';
 export { RegularGridInterpolator, type GridOptions, type OutOfBounds } from './grid-interpolator.js';
 export { rangeError } from './range-error.js';

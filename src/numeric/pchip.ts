@@ -1,4 +1,5 @@
 import { rangeError } from './range-error.js';
+import { cellOf, edgeTolerance } from './axis.js';
 
 /**
  * Monotone piecewise-cubic Hermite interpolation (Fritsch–Carlson; interior
@@ -59,16 +60,11 @@ function endSlope(h0: number, h1: number, m0: number, m1: number): number {
  */
 export function hermiteAt(x: ArrayLike<number>, y: ArrayLike<number>, d: ArrayLike<number>, t: number): number {
   const n = x.length;
-  const slack = 1e-9 * Math.abs(x[n - 1] - x[0]);
+  const slack = edgeTolerance(x[0], x[n - 1]);
   if (!(t >= x[0] - slack && t <= x[n - 1] + slack)) throw rangeError('x', t, x[0], x[n - 1]);
   if (n === 1) return y[0];
-  let lo = 0;
-  let hi = n - 1;
-  while (hi - lo > 1) {
-    const mid = (lo + hi) >> 1;
-    if (x[mid] <= t) lo = mid;
-    else hi = mid;
-  }
+  const lo = cellOf(x, t);
+  const hi = lo + 1;
   const h = x[hi] - x[lo];
   const s = (t - x[lo]) / h;
   if (s === 0) return y[lo];

@@ -1,5 +1,5 @@
 import type { StackResult } from '../solve/types.js';
-import { verdictText, bindingText } from './verdict.js';
+import { verdictText, bindingText, volts } from './verdict.js';
 import { eng, formatArea, formatPercent, perVolt } from './format.js';
 
 /** Cells that start with a digit or sign are numbers (aligned right). */
@@ -92,16 +92,23 @@ export function cornerGrid(stack: StackResult): Grid | undefined {
   };
 }
 
+/** A warning when the target current is above what the tables carry at the width limit, else undefined. */
+export function currentWarning(stack: StackResult): string | undefined {
+  if (stack.currentLimit === undefined || stack.wmax === undefined) return undefined;
+  return `warning: the target current is above the ${eng(stack.currentLimit, 'A')} the kit's tables carry through one device at the ${eng(stack.wmax, 'm')} width limit (spec key wmax)`;
+}
+
 /** One sentence on feasibility, the binding target and the nearest reachable points. */
 export function statusLine(stack: StackResult): string {
   const tag = stack.chosen === true ? ' (chosen by the objective)' : stack.chosen === false ? ' (alternative)' : '';
   if (stack.feasible) return `meets all targets${tag}`;
   const parts = [`does not meet the targets${stack.binding ? `: ${bindingText(stack)}` : ''}`];
   const n = stack.nearest;
-  // An unreachable Rout target is already said by the binding text.
   if (n?.headroomAtRout !== undefined && Number.isFinite(n.headroomAtRout)) {
-    parts.push(`the Rout target needs ${eng(n.headroomAtRout, 'V')} of headroom`);
+    parts.push(`the Rout target needs ${volts(n.headroomAtRout)} of headroom at best`);
+  } else if (n !== undefined && stack.binding?.target === 'rout') {
+    parts.push('no allowed design reaches the Rout target at any headroom up to the span');
   }
-  if (n?.routAtHeadroom !== undefined) parts.push(`at the headroom target Rout reaches ${eng(n.routAtHeadroom, 'Ω')}`);
+  if (n?.routAtHeadroom !== undefined && n.routAtHeadroom > 0) parts.push(`at the headroom target Rout reaches ${eng(n.routAtHeadroom, 'Ω')}`);
   return parts.join('; ') + tag;
 }

@@ -2,7 +2,7 @@ import type { SizeResult } from '../solve/types.js';
 import { decidingResults } from '../solve/choose.js';
 import { formatArea, polarityName } from './format.js';
 import { formatEng } from '../units/index.js';
-import { biasGrid, columnAlign, cornerGrid, deviceGrid, predictedGrid, squareLawGrid, statusLine, type Grid } from './rows.js';
+import { biasGrid, columnAlign, cornerGrid, currentWarning, deviceGrid, predictedGrid, squareLawGrid, statusLine, type Grid } from './rows.js';
 import { ansi, renderTable } from './text.js';
 import { bindingText } from './verdict.js';
 
@@ -28,6 +28,8 @@ export function renderSizeText(result: SizeResult, opts: SizeTextOptions): strin
     if (s.chosen === false) continue;
     const status = s.feasible ? ansi.green('FEASIBLE', c) : ansi.red('INFEASIBLE', c);
     out.push('', ansi.bold(`stack ${s.name}: ${polarityName(s.device)} ${s.topology} — ${status}`, c), `  ${statusLine(s)}`);
+    const warning = currentWarning(s);
+    if (warning) out.push(`  ${ansi.yellow(warning, c)}`);
     out.push(...block('output stack (bottom first)', deviceGrid(s), c));
     out.push(...block('bias devices', biasGrid(s), c));
     out.push(...block('predicted', predictedGrid(s), c));

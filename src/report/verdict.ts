@@ -1,7 +1,8 @@
 import type { Verdict } from '../solve/evaluate/verdict.js';
 import { formatEng } from '../units/index.js';
 
-const volts = (x: number) => `${x.toFixed(3)} V`;
+/** A voltage as every sentence shows it: three decimals of a volt (headroom is reported to the mV). */
+export const volts = (x: number) => `${x.toFixed(3)} V`;
 const pct = (x: number) => `${(x * 100).toFixed(3)} %`;
 
 /** Words for one verdict: "rout 12.3 MΩ < 20 MΩ at 0.500 V", "headroom 0.520 V ≤ 0.550 V". */
@@ -28,7 +29,9 @@ export function verdictText(v: Verdict): string {
       }
       return `saturation: ${v.device} VDS ${formatEng(got, 'V')} ${need !== null && got >= need ? '≥' : '<'} VDSsat ${formatEng(need ?? 0, 'V')} at mid-span`;
     case 'width':
-      return `width: every candidate needed a device narrower than the minimum width ${formatEng(need ?? 0, 'm')}`;
+      if (got === null) return `width: every candidate needed a device narrower than the minimum width ${formatEng(need ?? 0, 'm')}`;
+      if (need !== null && got > need) return `width: every design meeting Rout and headroom has a device at least ${formatEng(got, 'm')} wide, above the ${formatEng(need, 'm')} width limit`;
+      return `width: ${v.device ?? 'widest'} W ${formatEng(got, 'm')} ≤ the ${formatEng(need ?? 0, 'm')} width limit`;
   }
 }
 

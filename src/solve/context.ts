@@ -7,6 +7,12 @@ import { midSpan } from '../policy.js';
 import type { KitAccess } from './kit.js';
 import { gmidGrid, lengthGrid } from './search/grid.js';
 import type { SweepCache } from './search/stage-options.js';
+import { widthLimit } from './width.js';
+
+/** Highest current density the slice reaches (top of its VGS and VDS axes, VSB = 0), A/m. */
+function peakDensity(s: LengthSlice): number {
+  return s.jd(s.range.vgs[1], s.range.vds[1], s.range.vsb[0]);
+}
 
 /** Everything one stack's search shares: spec, kit, grids, slice cache and counters. */
 export interface SolveContext {
@@ -28,6 +34,10 @@ export interface SolveContext {
   slice(corner: string, l: number): LengthSlice;
   /** Narrowest drawable width: the kit's shortest table length (common practice: minimum W and L are of the same order). */
   wmin: number;
+  /** Widest allowed output device (spec `wmax` or the kit's default), m; also in `spec.wmax`. */
+  wmax: number;
+  /** Highest current the nominal tables carry through one device at the width limit, A. */
+  currentLimit: number;
   /** Thermal voltage kT/q at a corner's table temperature (27 °C when unknown), V. */
   ut(corner: string): number;
   /**
@@ -42,7 +52,10 @@ export interface SolveContext {
 
 /** Work done and candidates turned away, for the report. */
 export interface Counts {
+  /** Combinations the screen covered (rated one by one, or skipped as a group by a bound). */
   screened: number;
+  /** Combinations the screen rated one by one. */
+  rated: number;
   exact: number;
   /** Rejected: a lower device below VDSsat at mid-span. */
   triode: number;
@@ -67,13 +80,18 @@ export function makeContext(spec: StackSpec, kit: KitAccess, supply: number, cor
   if (spec.mismatch !== undefined && !coeff) {
     throw new StackwrightError(`a mismatch target is set but kit ${kit.kit} has no Pelgrom coefficients for ${spec.device}-type devices`, { where: `${where}.mismatch` });
   }
-  const cache = new Map<string, LengthSlice>();
+  const lmin = kit.lengths(corners[0], spec.device)[0];
+  const wmax = widthLimit(spec, lmin);
+  spec = { ...spec, wmax };
+  // Per corner, per length (numeric key): no string built per lookup.
+  const cache = new Map<string, Map<number, LengthSlice>>();
   const slice = (corner: string, l: number): LengthSlice => {
-    const key = `${corner}|${l}`;
-    let s = cache.get(key);
+    let byL = cache.get(corner);
+    if (!byL) cache.set(corner, (byL = new Map()));
+    let s = byL.get(l);
     if (!s) {
       s = kit.slice(corner, spec.device, l);
-      cache.set(key, s);
+      byL.set(l, s);
     }
     return s;
   };
@@ -91,9 +109,11 @@ export function makeContext(spec: StackSpec, kit: KitAccess, supply: number, cor
     spec, kit, supply, corners, nominal, vmid,
     ib: spec.biasCurrent ?? spec.current,
     coeff, lengths, gmids, gmidStep, slice, ut,
-    wmin: kit.lengths(nominal, spec.device)[0],
+    wmin: lmin,
+    wmax,
+    currentLimit: wmax * peakDensity(slice(nominal, lmin)),
     saturation: 'require',
-    count: { screened: 0, exact: 0, triode: 0, narrow: 0 },
+    count: { screened: 0, rated: 0, exact: 0, triode: 0, narrow: 0 },
     sweeps: new Map(),
   };
 }

@@ -1,6 +1,7 @@
 export type { KitAccess } from './kit.js';
 export { sizeStack, sizeDesign, sizeSpec, type SizeRun, type SizeStackResult } from './size.js';
 export { loadKit, type Kit } from './load-kit.js';
+export { parseSizeResult } from './parse-result.js';
 export { portSpec, type PortRun, type PortStack } from './port.js';
 export { evaluateAtCorner } from './evaluate/corners.js';
 export { paretoFront, frontDominates, type FrontPoint } from './pareto.js';

@@ -5,7 +5,8 @@ import type { BiasResult, CornerResult, CurvePoint, DeviceResult, Predicted, Squ
 import type { SolveContext } from './context.js';
 import type { StackSpec } from '../design/types.js';
 import { tightest, type Margins } from './evaluate/checks.js';
-import { meetsAll } from '../policy.js';
+import { meetsAll, reportedHeadroom } from '../policy.js';
+import type { Nearest } from './nearest.js';
 import { verdict, verdictOf, type Verdict } from './evaluate/verdict.js';
 import { ensureCorners, nominalOk, type Evaluated } from './evaluate/evaluate.js';
 import type { StackEval } from './evaluate/stack-eval.js';
@@ -15,11 +16,16 @@ export function absolute(device: Polarity, supply: number, x: number): number {
   return device === 'n' ? x : supply - x;
 }
 
-export function predictedOf(ev: StackEval | null, area: number, biasArea: number, sigma: number | undefined): Predicted {
+/**
+ * Predicted figures of one evaluation. `feasible` false: Rout is the one the spec asks about, the lowest over
+ * [target headroom, span] (the figure the explanation quotes); else over [headroom, span]. Headroom is rounded up
+ * to the mV, as everywhere it is shown.
+ */
+export function predictedOf(ev: StackEval | null, area: number, biasArea: number, sigma: number | undefined, feasible = true): Predicted {
   const p: Predicted = {
     iout: ev ? ev.iout : NaN,
-    rout: ev ? ev.rout : NaN,
-    headroom: ev ? ev.headroom : Infinity,
+    rout: ev ? (feasible ? ev.rout : ev.routAtTarget) : NaN,
+    headroom: ev ? reportedHeadroom(ev.headroom) : Infinity,
     area,
     biasArea,
   };
@@ -68,7 +74,7 @@ export function cornerResult(
   const words = verdictOf(tightest(m), spec, ev, sigma, at.vmid, corner);
   const r: CornerResult = {
     corner, feasible,
-    predicted: predictedOf(ev, at.area, at.biasArea, sigma),
+    predicted: predictedOf(ev, at.area, at.biasArea, sigma, feasible),
     gates: at.gates.map((g) => absolute(spec.device, at.supply, g)),
   };
   if (feasible) r.tightest = words;
@@ -85,31 +91,23 @@ function cornerResults(ctx: SolveContext, e: Evaluated): CornerResult[] {
 }
 
 function smallest(m: Margins): number {
-  return Math.min(m.rout, m.headroom, m.iout, m.mismatch, m.saturation);
+  return Math.min(m.rout, m.headroom, m.iout, m.mismatch, m.saturation, m.width);
 }
 
 /** Why nothing met the targets, and the nearest points reached. */
-function infeasibility(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[]): Pick<StackResult, 'binding' | 'nearest'> {
+function infeasibility(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[], near: Nearest): Pick<StackResult, 'binding' | 'nearest'> {
   const s = ctx.spec;
   const on = (target: Verdict['target'] & keyof Margins, e: { ev: Evaluated['nominal'] | null; sigma?: number }, corner: string) => verdictOf(target, s, e.ev, e.sigma, ctx.vmid, corner);
   const mm = (e: Evaluated) => e.margins.mismatch >= 0;
-  // Nearest points among designs meeting mismatch and current; among all when none does.
-  const usable = pool.some((e) => mm(e) && e.margins.iout >= 0);
-  let headroomAtRout = Infinity;
-  let routAtHeadroom = 0;
-  for (const e of pool) {
-    if (usable && (!mm(e) || e.margins.iout < 0)) continue;
-    // A finite headroom already means Rout ≥ target above it.
-    headroomAtRout = Math.min(headroomAtRout, e.nominal.headroom);
-    routAtHeadroom = Math.max(routAtHeadroom, e.nominal.routAtTarget);
-  }
-  const nearest = { headroomAtRout, routAtHeadroom };
+  const nearest = { headroomAtRout: reportedHeadroom(near.headroomAtRout), routAtHeadroom: near.routAtHeadroom };
   const nominal = { ev: best.nominal, sigma: best.sigma };
   if (!pool.some((e) => e.margins.saturation >= 0)) return { binding: on('saturation', nominal, ctx.nominal), nearest };
   if (nominalOk(best)) {
     const c = (best.corners ?? []).find((x) => !meetsAll(x.margins));
     if (c) return { binding: on(tightest(c.margins), c, c.corner), nearest };
   }
+  // Every design meeting Rout and headroom is wider than the limit: the narrowest width they need.
+  if (near.narrowest !== undefined) return { binding: verdict('width', ctx.wmax, near.narrowest, undefined, ctx.nominal), nearest };
   const physical = pool.filter((e) => e.margins.rout >= 0 && e.margins.headroom >= 0);
   if (s.mismatch !== undefined && physical.length > 0 && !physical.some(mm)) {
     const sig = Math.min(...physical.map((e) => e.sigma ?? Infinity));
@@ -136,40 +134,76 @@ function nearestMiss(ctx: SolveContext, best: Evaluated, nearest: { headroomAtRo
   const { headroomAtRout: h, routAtHeadroom: r } = nearest;
   if (r >= s.rout && h <= s.headroom) return verdictOf(tightest(best.margins), s, best.nominal, best.sigma, ctx.vmid, ctx.nominal);
   if (r >= s.rout && Number.isFinite(h)) return verdict('headroom', s.headroom, h, undefined, ctx.nominal);
+  if (r >= s.rout) {
+    // Rout is there at the target, but no design keeps its current in the window up to the span.
+    const top = best.nominal.curve[best.nominal.curve.length - 1];
+    return verdict('iout', best.nominal.iout, top?.i, s.span, ctx.nominal);
+  }
   return verdict('rout', s.rout, r > 0 ? r : undefined, s.headroom, ctx.nominal);
 }
 
 /** The report for one topology: the chosen design, its corners, and why it fails if it does. */
-export function stackResult(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[], evaluated: number): StackResult {
+export function stackResult(ctx: SolveContext, best: Evaluated, pool: Evaluated[], evaluated: () => number, nearest: () => Nearest): StackResult {
   const { spec, supply } = ctx;
-  const corners = cornerResults(ctx, best);
+  let corners = cornerResults(ctx, best);
   const feasible = corners.every((c) => c.feasible);
+  let near: Nearest | undefined;
+  if (!feasible) {
+    near = nearest();
+    const shown = shownWhenInfeasible(ctx, best, pool, near);
+    if (shown !== best) {
+      best = shown;
+      corners = cornerResults(ctx, best);
+    }
+  }
   const r: StackResult = {
     name: spec.name, device: spec.device, topology: best.cand.topology, feasible,
     devices: devicesOf(best, spec.device, supply),
     bias: biasOf(best, spec.device, supply),
-    predicted: predictedOf(best.nominal, best.area, best.biasArea, best.sigma),
+    predicted: predictedOf(best.nominal, best.area, best.biasArea, best.sigma, feasible),
     curve: curveOf(best.nominal, spec.device, supply),
     corners,
-    evaluated,
+    evaluated: 0,
   };
   const sq = squareLawOf(ctx, best);
   if (sq) r.squareLaw = sq;
-  if (!feasible) Object.assign(r, infeasibility(ctx, best, pool));
+  if (near) Object.assign(r, infeasibility(ctx, best, pool, near));
   else {
     const all = [{ corner: ctx.nominal, m: best.margins }, ...(best.corners ?? []).map((c) => ({ corner: c.corner, m: c.margins }))];
     const worst = all.reduce((a, b) => (smallest(b.m) < smallest(a.m) ? b : a));
     const t = corners.find((c) => c.corner === worst.corner)?.tightest;
     if (t) r.tightest = t;
   }
+  r.evaluated = evaluated();
+  return withLimits(ctx, r);
+}
+
+/**
+ * The design an infeasible stack shows: the one reaching the nearest point of the
+ * target that binds (the best Rout at the headroom target when Rout is short
+ * there, else the lowest headroom at the Rout target), so the figures in its
+ * table are the figures in its explanation. A design meeting the nominal
+ * targets (failing at another corner) or one kept for a saturation failure stays.
+ */
+function shownWhenInfeasible(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[], near: Nearest): Evaluated {
+  if (nominalOk(best) || !pool.some((e) => e.margins.saturation >= 0)) return best;
+  if (near.atHeadroom && near.routAtHeadroom < ctx.spec.rout) return near.atHeadroom;
+  if (near.atRout) return near.atRout;
+  return near.atHeadroom ?? best;
+}
+
+/** The width limit, and the current the tables carry at it when the target is above that. */
+function withLimits(ctx: SolveContext, r: StackResult): StackResult {
+  r.wmax = ctx.wmax;
+  if (ctx.spec.current > ctx.currentLimit) r.currentLimit = ctx.currentLimit;
   return r;
 }
 
 /** A placeholder result when no candidate could be realised from the table at all. */
 export function emptyResult(ctx: SolveContext, topology: StackResult['topology'], evaluated: number, why: Verdict): StackResult {
-  return {
+  return withLimits(ctx, {
     name: ctx.spec.name, device: ctx.spec.device, topology, feasible: false,
     binding: why, nearest: { headroomAtRout: Infinity, routAtHeadroom: 0 },
     devices: [], bias: [], predicted: predictedOf(null, NaN, NaN, undefined), curve: [], evaluated,
-  };
+  });
 }

@@ -10,6 +10,7 @@ import { evaluateOnce, refine, type Seen } from './search/refine.js';
 import { finalize, fullyOk, nominalOk, totalViolation, type Evaluated } from './evaluate/evaluate.js';
 import { compareDesigns, pickBest } from './search/rank.js';
 import { emptyResult, stackResult } from './result.js';
+import { nearestPoints } from './nearest.js';
 import { chooseResult } from './choose.js';
 import { paretoFront, type FrontPoint } from './pareto.js';
 import { verdict, type Verdict } from './evaluate/verdict.js';
@@ -33,17 +34,41 @@ function frontPoint(ctx: SolveContext, e: Evaluated): FrontPoint {
   };
 }
 
-/** Seeds for refinement: the best design and the runner-up of the same kind (meeting targets, or nearest). */
+// Climbs per search: the best design and the best of other length choices (the optimum's lengths may differ).
+const SEEDS = 4;
+
+/** e starts within reach of best by the objective: 30 % of area or Rout, 30 mV of headroom. */
+function near(objective: StackSpec['objective'], e: Evaluated, best: Evaluated): boolean {
+  if (objective === 'area') return e.area <= 1.3 * best.area;
+  if (objective === 'rout') return e.nominal.rout >= best.nominal.rout / 1.3;
+  return e.nominal.headroom <= best.nominal.headroom + 0.03;
+}
+
+/**
+ * Seeds for refinement: the best design and the best of each other length
+ * choice of the same kind (meeting targets and starting near the best, or
+ * nearest to meeting them).
+ */
 function seedsOf(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[]): Evaluated[] {
   const ok = nominalOk(best) && fullyOk(ctx, best);
   const rest = pool
     .filter((e) => e !== best && (ok ? nominalOk(e) : !nominalOk(e)))
     .sort((a, b) => (ok ? compareDesigns(ctx.spec.objective, a, b) : totalViolation(a) - totalViolation(b)));
-  return [best, ...rest.slice(0, 1)];
+  const lengths = (e: Evaluated) => e.cand.l.join(',');
+  const taken = new Set([lengths(best)]);
+  const seeds = [best];
+  for (const e of rest) {
+    if (seeds.length >= (ok ? SEEDS : 2)) break;
+    if (ok && !near(ctx.spec.objective, e, best)) break;
+    if (taken.has(lengths(e))) continue;
+    taken.add(lengths(e));
+    seeds.push(e);
+  }
+  return seeds;
 }
 
 /** Screen, evaluate, refine: the best design and everything evaluated, or null when nothing could be realised. */
-function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool: Evaluated[] } | null {
+function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool: Evaluated[]; seen: Seen } | null {
   const seen: Seen = new Map();
   const pool: Evaluated[] = [];
   for (const c of screen(ctx, topology)) {
@@ -56,7 +81,7 @@ function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool:
   // The report uses the full curve; if that loses a target the scan met, take the next best.
   for (let tries = 0; tries < 5 && !finalize(ctx, best); tries++) best = pickBest(ctx, pool) ?? best;
   finalize(ctx, best);
-  return { best, pool };
+  return { best, pool, seen };
 }
 
 function sizeTopology(ctx: SolveContext, topology: Topology): { result: StackResult; pool: Evaluated[] } {
@@ -64,14 +89,22 @@ function sizeTopology(ctx: SolveContext, topology: Topology): { result: StackRes
   const rejected = { triode: ctx.count.triode, narrow: ctx.count.narrow };
   const run = search(ctx, topology);
   const counted = () => ctx.count.screened + ctx.count.exact - before;
-  if (run) return { result: stackResult(ctx, run.best, run.pool, counted()), pool: run.pool };
+  const nearOf = (r: NonNullable<typeof run>) => () => nearestPoints(ctx, topology, r.pool, r.seen, (w) => fitsWithin(ctx, topology, w));
+  if (run) return { result: stackResult(ctx, run.best, run.pool, counted, nearOf(run)), pool: run.pool };
   // Nothing with saturated lower devices on the screen's grid: search again with them allowed, so refinement
   // can still reach a saturated design or, failing that, show the nearest one failing on saturation.
   // Only saturated designs go on the front.
   // The relaxed context shares the counters, slices and sweeps; only the saturation rule differs.
   const near = search({ ...ctx, saturation: 'report' }, topology);
-  if (near) return { result: stackResult(ctx, near.best, near.pool, counted()), pool: near.pool.filter((e) => e.margins.saturation >= 0) };
+  if (near) return { result: stackResult(ctx, near.best, near.pool, counted, nearOf(near)), pool: near.pool.filter((e) => e.margins.saturation >= 0) };
   return { result: emptyResult(ctx, topology, counted(), noCandidate(ctx, rejected)), pool: [] };
+}
+
+/** The widest device of a design meeting every nominal target within a width limit of `w`, or null when the search finds none. */
+function fitsWithin(ctx: SolveContext, topology: Topology, w: number): number | null {
+  const limited: SolveContext = { ...ctx, wmax: w, spec: { ...ctx.spec, wmax: w } };
+  const run = search(limited, topology);
+  return run && nominalOk(run.best) ? Math.max(...run.best.sized.w) : null;
 }
 
 /** Why a topology got no design at all, from the rejections counted since `from`. */

@@ -88,6 +88,10 @@ export interface StackResult {
   evaluated: number;
   /** With topology 'auto': true on the topology picked by the objective. */
   chosen?: boolean;
+  /** Present when the target current is above what the tables carry through one device at the width limit: that current, A. */
+  currentLimit?: number;
+  /** Widest allowed output device, m (spec `wmax` or the kit's default). */
+  wmax?: number;
 }
 
 export interface SizeResult {

@@ -1,6 +1,5 @@
-import { TABLE_EDGE } from '../policy.js';
 import type { LengthSlice } from '../device/types.js';
-import { covers } from './range.js';
+import { covers, within } from './range.js';
 
 const s4 = new Float64Array(4);
 
@@ -26,7 +25,7 @@ export function vgsWindow(slice: LengthSlice, mode: VdsMode, vsb: number): [numb
     lo = Math.max(lo, r.vds[0]);
     hi = Math.min(hi, r.vds[1]);
   } else if (!covers(slice, lo, mode, vsb)) return null;
-  if (!(vsb >= r.vsb[0] - TABLE_EDGE && vsb <= r.vsb[1] + TABLE_EDGE) || hi <= lo) return null;
+  if (!within(vsb, r.vsb) || hi <= lo) return null;
   return [lo, hi];
 }
 

@@ -11,7 +11,8 @@ export function thermalVoltage(celsius = 27): number {
 }
 
 const SCAN = 64;
-const memo = new WeakMap<LengthSlice, Map<string, number>>();
+// Per slice, per thermal voltage, per VSB in 0.1 mV steps: numeric keys, no strings built per call.
+const memo = new WeakMap<LengthSlice, Map<number, Map<number, number>>>();
 
 /** Highest gm/ID over VGS at one VSB (weak-inversion ceiling), sampled at mid-range VDS; 0 when none. */
 export function gmidCeiling(slice: LengthSlice, vsb: number): number {
@@ -34,13 +35,15 @@ export function gmidCeiling(slice: LengthSlice, vsb: number): number {
 export function slopeFactor(slice: LengthSlice, vsb: number, ut: number): number {
   let bySlice = memo.get(slice);
   if (!bySlice) memo.set(slice, (bySlice = new Map()));
+  let byUt = bySlice.get(ut);
+  if (!byUt) bySlice.set(ut, (byUt = new Map()));
   const v = Math.min(Math.max(Math.round(vsb * 1e4) / 1e4, slice.range.vsb[0]), slice.range.vsb[1]);
-  const key = `${v}|${ut}`;
-  let n = bySlice.get(key);
+  const key = Math.round(v * 1e4);
+  let n = byUt.get(key);
   if (n === undefined) {
     const ceiling = gmidCeiling(slice, v);
     n = ceiling > 0 ? Math.max(1 / (ut * ceiling), 1) : 1;
-    bySlice.set(key, n);
+    byUt.set(key, n);
   }
   return n;
 }

@@ -7,17 +7,10 @@ import { capacitances } from './capacitance.js';
 import { smallSignal } from './derivatives.js';
 import { checkBias, ekvCurrent, type Bias } from './ekv.js';
 import type { EkvParams } from './params.js';
+import type { StoredQuantity } from '../table/types.js';
 
-export interface DeviceValues {
-  id: number;
-  gm: number;
-  gds: number;
-  gmb: number;
-  cgg: number;
-  cgs: number;
-  cgd: number;
-  cdd: number;
-}
+/** One value of every stored quantity (the table's record of a bias point), SI. */
+export type DeviceValues = Record<StoredQuantity, number>;
 
 /** All magnitudes; gmb = ∂ID/∂VBS = −∂ID/∂VSB. */
 export function evalDevice(p: EkvParams, b: Bias): DeviceValues {

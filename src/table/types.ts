@@ -1,3 +1,5 @@
+import { blockSize, rowMajorStrides } from '../numeric/strides.js';
+
 /**
  * The in-memory form of one characterisation table: one kit, one device
  * polarity, one corner. Values are magnitudes (PMOS signs removed) in SI units,
@@ -59,10 +61,16 @@ export interface DeviceTable {
   data: Partial<Record<StoredQuantity, Float64Array>> & { id: Float64Array };
 }
 
+/** Points along each axis, in storage order (l, vgs, vds, vsb). */
+export function gridDims(axes: Record<Axis, Float64Array>): number[] {
+  return AXES.map((a) => axes[a].length);
+}
+
 export function tableSize(axes: Record<Axis, Float64Array>): number {
-  return axes.l.length * axes.vgs.length * axes.vds.length * axes.vsb.length;
+  return blockSize(gridDims(axes));
 }
 
 export function flatIndex(axes: Record<Axis, Float64Array>, il: number, ig: number, id: number, is: number): number {
-  return ((il * axes.vgs.length + ig) * axes.vds.length + id) * axes.vsb.length + is;
+  const st = rowMajorStrides(gridDims(axes));
+  return il * st[0] + ig * st[1] + id * st[2] + is * st[3];
 }

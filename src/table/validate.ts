@@ -1,6 +1,7 @@
 import { StackwrightError } from '../errors.js';
 import { showValue } from '../units/index.js';
-import { AXES, STORED, UNITS, tableSize } from './types.js';
+import { rowMajorIndex } from '../numeric/strides.js';
+import { AXES, STORED, UNITS, gridDims, tableSize } from './types.js';
 import type { DeviceTable, TableMeta } from './types.js';
 
 /** Kit and corner names become folder and file names, so keep them plain. */
@@ -71,9 +72,6 @@ function firstNonFinite(a: Float64Array): number {
 /** Grid coordinates of a flat index, for messages. */
 export function pointName(table: Pick<DeviceTable, 'axes'>, flat: number): string {
   const { l, vgs, vds, vsb } = table.axes;
-  const is = flat % vsb.length;
-  const id = Math.floor(flat / vsb.length) % vds.length;
-  const ig = Math.floor(flat / (vsb.length * vds.length)) % vgs.length;
-  const il = Math.floor(flat / (vsb.length * vds.length * vgs.length));
+  const [il, ig, id, is] = rowMajorIndex(flat, gridDims(table.axes));
   return `l=${l[il]} vgs=${vgs[ig]} vds=${vds[id]} vsb=${vsb[is]}`;
 }

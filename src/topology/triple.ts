@@ -1,4 +1,5 @@
-import type { ScreenTools, TopologyDescriptor } from './types.js';
+import type { ScreenTools, StageOption, TopologyDescriptor } from './types.js';
+import { BottomFinder } from './bottom-finder.js';
 
 /**
  * The coarse triple grid can step over the narrow band where lower devices are just
@@ -26,10 +27,8 @@ export const triple: TopologyDescriptor = {
     const grid = withLowSetpoint(t, t.setpointGrid(0.05));
     const gm = t.gmids.filter((_, j) => j % 2 === 0);
     const bottoms = new Map(grid.map((s1) => [s1, t.prune(t.options({ mode: s1, vsb: 0, gmids: gm, lower: true }), t.crit.bottom)]));
-    // Best case over each bottom set, to skip (top, middle) pairs no bottom could make worth keeping.
-    const bounds = new Map([...bottoms].map(([s1, b]) => [s1, {
-      area: Math.min(...b.map((o) => o.area)), ro: Math.max(...b.map((o) => o.ro)), sigma: Math.min(...b.map((o) => o.sigma)),
-    }]));
+    const picked: StageOption[] = [];
+    const finders = new Map([...bottoms].map(([s1, b]) => [s1, new BottomFinder(b, t.mismatch)]));
     for (const s1 of grid) {
       for (const s2 of grid) {
         const below = Math.round((s1 + s2) * 1e6) / 1e6;
@@ -40,15 +39,20 @@ export const triple: TopologyDescriptor = {
         const mids = t.prune(t.options({ mode: s2, vsb: s1, gmids: gm, lower: true }), t.crit.mid);
         if (mids.length === 0) continue;
         const tops = t.top(below, gm);
-        const lim = bounds.get(s1)!;
+        const find = finders.get(s1)!;
         for (const top of tops) {
           const a3 = 1 + top.gmt * top.ro;
           for (const m of mids) {
+            // Rout ≈ a + b·ro_bottom: for this (top, middle) pair each pool wants one bottom, found by binary
+            // search among the bottoms sorted by ro, so the work per pair grows with the log of their count.
             const a = top.ro + a3 * m.ro;
             const b = a3 * (1 + m.gmt * m.ro);
-            if (!t.mayWant(bottom.length, lim.area + m.area + top.area, a + b * lim.ro, below + top.vdsat, lim.sigma)) continue;
-            for (const o of bottom) {
-              if (t.wants(o.area + m.area + top.area, a + b * o.ro, below + top.vdsat, o.sigma)) t.keep([o.l, m.l, top.l], [o.gmid, m.gmid, top.gmid], [s1, s2]);
+            const hr = below + top.vdsat;
+            const count = find.picks((t.rout - a) / b, (2 * t.rout - a) / b, picked);
+            t.covered(bottom.length - count);
+            for (let j = 0; j < count; j++) {
+              const o = picked[j];
+              if (t.wants(o.area + m.area + top.area, a + b * o.ro, hr, o.sigma)) t.keep([o.l, m.l, top.l], [o.gmid, m.gmid, top.gmid], [s1, s2]);
             }
           }
         }

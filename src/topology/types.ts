@@ -52,6 +52,10 @@ export type Criteria = (o: StageOption) => number[];
 export interface ScreenTools {
   /** Headroom target, V. */
   readonly headroom: number;
+  /** Rout target, Ω. */
+  readonly rout: number;
+  /** Mismatch budget (1-sigma, fraction), when the spec has one. */
+  readonly mismatch?: number;
   /** Mid-span stack voltage, V. */
   readonly vmid: number;
   /** gm/ID grid, 1/V. */
@@ -73,6 +77,8 @@ export interface ScreenTools {
   mayWant(count: number, area: number, rout: number, headroom: number, sigma: number): boolean;
   /** Store the combination last rated by `wants`. */
   keep(l: number[], gmid: number[], setpoints: number[]): void;
+  /** Count `count` combinations as screened without rating them (a search found they cannot beat the ones rated). */
+  covered(count: number): void;
 }
 
 /**

@@ -2,7 +2,7 @@ import type { Command } from 'commander';
 import { StackwrightError } from '../../errors.js';
 import { designNetlist } from '../../spice/index.js';
 import { decidingResults } from '../../solve/choose.js';
-import type { SizeResult } from '../../solve/types.js';
+import { parseSizeResult } from '../../solve/parse-result.js';
 import { writeFilesAtomic } from '../../fsutil.js';
 import { note, out, readText } from '../io.js';
 
@@ -13,32 +13,6 @@ interface NetlistFlags {
   include?: string;
   bias: 'ideal' | 'diodes';
   force?: boolean;
-}
-
-/** Read a `size --json` result back (nulls stand for non-finite numbers). */
-export function readSizeResult(path: string): SizeResult {
-  let data: unknown;
-  try {
-    data = JSON.parse(readText(path, 'result file'));
-  } catch (e) {
-    if (e instanceof StackwrightError) throw e;
-    throw new StackwrightError(`not valid JSON: ${(e as Error).message}`, { where: path });
-  }
-  const r = data as Partial<SizeResult>;
-  if (!r || typeof r !== 'object' || !Array.isArray(r.stacks) || typeof r.supply !== 'number') {
-    throw new StackwrightError('expected the JSON printed by `stackwright size --json` (with "supply" and "stacks")', { where: path });
-  }
-  r.stacks.forEach((s, i) => {
-    if (!Array.isArray(s.devices) || s.devices.length === 0) throw new StackwrightError('stack has no devices', { where: `${path}: stacks[${i}].devices` });
-    s.devices.forEach((d, k) => {
-      for (const key of ['w', 'l', 'gate'] as const) {
-        if (typeof d[key] !== 'number') throw new StackwrightError(`expected a number`, { where: `${path}: stacks[${i}].devices[${k}].${key}` });
-      }
-    });
-  });
-  // JSON has no Infinity: `size --json` writes null for a headroom never reached.
-  for (const s of r.stacks) if (s.predicted && s.predicted.headroom === null) s.predicted.headroom = Infinity;
-  return r as SizeResult;
 }
 
 export function registerNetlist(program: Command): void {
@@ -55,7 +29,7 @@ export function registerNetlist(program: Command): void {
     .addHelpText('after', '\nExample:\n  stackwright size spec.yaml --json > result.json\n  stackwright netlist result.json --include models.lib --model-n nfet_model --model-p pfet_model --out stacks.cir\n')
     .action((path: string, f: NetlistFlags) => {
       if (f.bias !== 'ideal' && f.bias !== 'diodes') throw new StackwrightError(`expected ideal or diodes, got "${f.bias}"`, { where: '--bias' });
-      const result = readSizeResult(path);
+      const result = parseSizeResult(readText(path, 'result file'), path);
       // With topology 'auto' only the chosen design of each stack goes in.
       const chosen = { ...result, stacks: decidingResults(result) };
       const text = designNetlist(chosen, { supply: result.supply, models: { n: f.modelN, p: f.modelP }, include: f.include, bias: f.bias });

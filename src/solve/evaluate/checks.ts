@@ -5,7 +5,7 @@ import { VOLT_SCALE, marginsFor, type Margins } from '../../policy.js';
 export type { Margins };
 
 /** A spec target. */
-export type Target = 'rout' | 'headroom' | 'iout' | 'mismatch' | 'saturation';
+export type Target = 'rout' | 'headroom' | 'iout' | 'mismatch' | 'saturation' | 'width';
 
 /** Index of the device below the top one with the least VDS − VDSsat at mid-span, −1 for a single device. */
 export function leastSaturated(ev: Pick<StackEval, 'mid' | 'vdsat'>): number {
@@ -26,11 +26,18 @@ export function saturationMargin(ev: Pick<StackEval, 'mid' | 'vdsat'>): number {
 /** Margins of one evaluated stack (null eval: nothing is met). */
 export function marginsOf(spec: StackSpec, ev: StackEval | null, sigma: number | undefined): Margins {
   if (!ev) return { ...marginsFor(spec, { rout: 0, headroom: Infinity, iout: NaN, sigma, saturation: -Infinity }), iout: -Infinity };
-  return marginsFor(spec, { rout: ev.routAtTarget, headroom: ev.headroom, iout: ev.iout, sigma, saturation: saturationMargin(ev) });
+  return marginsFor(spec, { rout: ev.routAtTarget, headroom: ev.headroom, iout: ev.iout, sigma, saturation: saturationMargin(ev), width: widest(ev).w });
+}
+
+/** The widest output device and its index. */
+export function widest(ev: Pick<StackEval, 'devices'>): { k: number; w: number } {
+  let k = 0;
+  for (let j = 1; j < ev.devices.length; j++) if (ev.devices[j].w > ev.devices[k].w) k = j;
+  return { k, w: ev.devices[k]?.w ?? 0 };
 }
 
 /** The target with the smallest margin. */
 export function tightest(m: Margins): Target {
-  const order: Target[] = ['rout', 'headroom', 'iout', 'mismatch', 'saturation'];
+  const order: Target[] = ['rout', 'headroom', 'iout', 'mismatch', 'saturation', 'width'];
   return order.reduce((a, b) => (m[b] < m[a] ? b : a));
 }

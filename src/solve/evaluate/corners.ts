@@ -7,6 +7,7 @@ import { cornerResult } from '../result.js';
 import { evaluateAt } from './evaluate.js';
 import { CURVE_INTERVALS } from './stack-eval.js';
 import { midSpan } from '../../policy.js';
+import { widthLimit } from '../width.js';
 
 /**
  * Re-check a sized design on any corner of any kit: the same W, L and bias
@@ -22,7 +23,7 @@ export function evaluateAtCorner(result: StackResult, spec: StackSpec, kit: KitA
   if (result.devices.length === 0) throw new StackwrightError('the result has no sized devices to re-check', { where: `stack "${result.name}"` });
   const vmid = midSpan(spec);
   const c = evaluateAt({
-    spec, corner,
+    spec: { ...spec, wmax: widthLimit(spec, kit.lengths(corner, result.device)[0]) }, corner,
     devices: result.devices.map((d) => ({ slice: kit.slice(corner, result.device, d.l), w: d.w })),
     bias: result.bias, biasSlices: result.bias.map((b) => kit.slice(corner, result.device, b.l)),
     guess: { i: spec.current, nodes: [0, ...result.devices.map((d) => d.vsb + d.vds)] },

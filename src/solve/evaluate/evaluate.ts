@@ -91,6 +91,18 @@ export function evaluateCandidate(ctx: SolveContext, cand: Candidate): Evaluated
   });
 }
 
+/** ΣW·L of a candidate from its sizing alone (no DC solves); NaN when the table cannot realise it. */
+export function candidateArea(ctx: SolveContext, cand: Candidate): number {
+  const sized = rangeSafe(() => sizeStackDevices({
+    shape: topologyOf(cand.topology), slices: cand.l.map((l) => ctx.slice(ctx.nominal, l)),
+    gmid: cand.gmid, setpoints: cand.setpoints, current: ctx.spec.current, vmid: ctx.vmid,
+  }));
+  if (!sized) return NaN;
+  let a = 0;
+  for (let k = 0; k < sized.w.length; k++) a += sized.w[k] * cand.l[k];
+  return a;
+}
+
 function reject(ctx: SolveContext, why: 'narrow' | 'triode'): null {
   ctx.count[why]++;
   return null;
@@ -154,7 +166,7 @@ function quickReject(s: StackSpec, vmid: number, devices: StackDevice[], gates: 
   const rout = at.op ? Math.log(at.rout / s.rout) : -Infinity;
   const iout = currentMargin(mid.i, s.current);
   if (rout >= 0 && iout >= 0) return null;
-  return { rout, iout, headroom: 0, mismatch: Infinity, saturation: 0 };
+  return { rout, iout, headroom: 0, mismatch: Infinity, saturation: 0, width: 0 };
 }
 
 function solveGuess(g: { i: number; nodes: number[] }, v: number): StackOp {

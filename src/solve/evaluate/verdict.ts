@@ -1,10 +1,11 @@
 import type { StackSpec } from '../../design/types.js';
 import type { Role } from '../../stack/types.js';
-import { leastSaturated, type Target } from './checks.js';
+import { leastSaturated, widest, type Target } from './checks.js';
+import { reportedHeadroom } from '../../policy.js';
 import type { StackEval } from './stack-eval.js';
 
-/** What a verdict is about: a spec target, or what kept the search from realising a design. */
-export type VerdictTarget = Target | 'width' | 'table';
+/** What a verdict is about: a spec target (width: the width limit, or the minimum width when nothing was realised), or the table. */
+export type VerdictTarget = Target | 'table';
 
 /**
  * Why a design fails (`binding`) or what has the least margin (`tightest`), as
@@ -44,11 +45,16 @@ export function verdictOf(target: Target, spec: StackSpec, ev: StackEval | null,
     case 'rout':
       return verdict('rout', spec.rout, ev.routAtTarget, spec.headroom, corner);
     case 'headroom':
-      return verdict('headroom', spec.headroom, ev.headroom, undefined, corner);
+      return verdict('headroom', spec.headroom, reportedHeadroom(ev.headroom), undefined, corner);
     case 'iout':
       return verdict('iout', spec.current, ev.iout, vmid, corner);
     case 'mismatch':
       return verdict('mismatch', spec.mismatch, sigma, vmid, corner);
+    case 'width': {
+      const { k, w } = widest(ev);
+      const roles = ev.devices.length === 1 ? ['bottom'] : ev.devices.length === 2 ? ['bottom', 'top'] : ['bottom', 'middle', 'top'];
+      return verdict('width', spec.wmax, w, undefined, corner, roles[k] as Role);
+    }
     case 'saturation': {
       const k = leastSaturated(ev);
       if (k < 0) return verdict('saturation', undefined, undefined, vmid, corner);

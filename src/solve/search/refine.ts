@@ -2,7 +2,8 @@ import { topologyOf } from '../../topology/index.js';
 import type { Candidate } from './candidate.js';
 import { candidateKey } from './candidate.js';
 import type { SolveContext } from '../context.js';
-import { evaluateCandidate, type Evaluated } from '../evaluate/evaluate.js';
+import { candidateArea, evaluateCandidate, fullyOk, nominalOk, type Evaluated } from '../evaluate/evaluate.js';
+import { REL_TOL } from '../../policy.js';
 import { better } from './rank.js';
 
 /** Exactly evaluated candidates by key (null: not realisable), shared by screen and refinement. */
@@ -20,63 +21,93 @@ function nearestIndex(values: readonly number[], x: number): number {
   return best;
 }
 
-/** One-coordinate moves: L to the neighbouring grid lengths, gm/ID and setpoints by ± step. */
-export function neighbours(ctx: SolveContext, c: Candidate, gstep: number, vstep: number): Candidate[] {
+/**
+ * Moves from a candidate: L to the neighbouring grid lengths; each continuous coordinate (gm/ID per device,
+ * setpoints) by ± its step; and every pair of continuous coordinates at once (all four sign pairs), so the
+ * climb can follow a constraint boundary that runs diagonally (e.g. a lower gm/ID bought with a higher setpoint).
+ */
+export function neighbours(ctx: SolveContext, c: Candidate, gstep: number, vstep: number, pairs = true): Candidate[] {
   const out: Candidate[] = [];
   const gLo = ctx.gmids[0];
   const gHi = ctx.gmids[ctx.gmids.length - 1];
-  const with_ = (f: (d: Candidate) => void): void => {
-    const d: Candidate = { topology: c.topology, l: [...c.l], gmid: [...c.gmid], setpoints: [...c.setpoints] };
-    f(d);
-    out.push(d);
+  const n = c.gmid.length;
+  const m = c.setpoints.length;
+  // Continuous coordinate k: gm/ID of device k (k < n), else setpoint k − n.
+  const value = (d: Candidate, k: number) => (k < n ? d.gmid[k] : d.setpoints[k - n]);
+  const step = (k: number) => (k < n ? gstep : vstep);
+  const allowed = (k: number, x: number) => (k < n ? x >= gLo - 1e-9 && x <= gHi + 1e-9 : x >= 0.02);
+  const set = (d: Candidate, k: number, x: number) => {
+    if (k < n) d.gmid[k] = x;
+    else d.setpoints[k - n] = x;
   };
+  const copy = (): Candidate => ({ topology: c.topology, l: [...c.l], gmid: [...c.gmid], setpoints: [...c.setpoints] });
   for (let k = 0; k < c.l.length; k++) {
     const j = nearestIndex(ctx.lengths, c.l[k]);
     for (const dj of [-1, 1]) {
       const l = ctx.lengths[j + dj];
-      if (l !== undefined) with_((d) => (d.l[k] = l));
-    }
-    for (const s of [-1, 1]) {
-      const g = c.gmid[k] + s * gstep;
-      if (g >= gLo - 1e-9 && g <= gHi + 1e-9) with_((d) => (d.gmid[k] = g));
+      if (l === undefined) continue;
+      const d = copy();
+      d.l[k] = l;
+      out.push(d);
     }
   }
-  for (let k = 0; k < c.setpoints.length; k++) {
-    for (const s of [-1, 1]) {
-      const v = c.setpoints[k] + s * vstep;
-      if (v >= 0.02) with_((d) => (d.setpoints[k] = v));
+  const dims = n + m;
+  for (let a = 0; a < dims; a++) {
+    for (const sa of [-1, 1]) {
+      const xa = value(c, a) + sa * step(a);
+      if (!allowed(a, xa)) continue;
+      const d = copy();
+      set(d, a, xa);
+      out.push(d);
+      if (!pairs) continue;
+      for (let b = a + 1; b < dims; b++) {
+        for (const sb of [-1, 1]) {
+          const xb = value(c, b) + sb * step(b);
+          if (!allowed(b, xb)) continue;
+          const e = copy();
+          set(e, a, xa);
+          set(e, b, xb);
+          out.push(e);
+        }
+      }
     }
   }
   return out;
 }
 
 /**
- * Local refinement: hill-climb from the seeds over neighbouring grid values,
- * halving the gm/ID and setpoint steps when no move improves. Every design it
- * returns was evaluated exactly.
+ * Local refinement: from each seed, hill-climb over the neighbouring moves,
+ * halving the gm/ID and setpoint steps when no move improves. Returns the
+ * best design of all climbs by `prefer` (default: the spec's targets and
+ * objective); every design it returns was evaluated exactly.
  */
-export function refine(ctx: SolveContext, seeds: readonly Evaluated[], seen: Seen, pool: Evaluated[]): Evaluated | undefined {
-  let best = seeds[0];
-  if (!best) return undefined;
+export function refine(
+  ctx: SolveContext, seeds: readonly Evaluated[], seen: Seen, pool: Evaluated[],
+  prefer?: (a: Evaluated, b: Evaluated) => boolean,
+): Evaluated | undefined {
+  // With the spec's own order and objective area, a move whose area is no smaller than a design meeting every
+  // target cannot win: its area (from the sizing alone) spares the exact evaluation.
+  const bound = prefer ? () => Infinity : (b: Evaluated) => (ctx.spec.objective === 'area' && nominalOk(b) && fullyOk(ctx, b) ? b.area : Infinity);
+  prefer ??= (a, b) => better(ctx, a, b);
+  let best: Evaluated | undefined;
+  for (const seed of seeds) {
+    const local = climb(ctx, seed, seen, pool, prefer, bound);
+    if (!best || prefer(local, best)) best = local;
+  }
+  return best;
+}
+
+function climb(
+  ctx: SolveContext, seed: Evaluated, seen: Seen, pool: Evaluated[],
+  better: (a: Evaluated, b: Evaluated) => boolean, bound: (best: Evaluated) => number,
+): Evaluated {
+  let best = seed;
   let gstep = ctx.gmidStep / 2;
   let vstep = topologyOf(best.cand.topology).refineVoltageStep;
-  let from = [...seeds];
-  for (let round = 0; round < 12; round++) {
-    let improved = false;
-    for (const s of from) {
-      for (const n of neighbours(ctx, s.cand, gstep, vstep)) {
-        const key = candidateKey(n);
-        if (seen.has(key)) continue;
-        const e = evaluateOnce(ctx, n, seen);
-        if (!e) continue;
-        pool.push(e);
-        if (better(ctx, e, best)) {
-          best = e;
-          improved = true;
-        }
-      }
-    }
-    from = [best];
+  for (let round = 0; round < 16; round++) {
+    // One-coordinate moves first; the pair moves (many more) only when none of those improves.
+    let improved = step(neighbours(ctx, best.cand, gstep, vstep, false));
+    if (!improved) improved = step(neighbours(ctx, best.cand, gstep, vstep, true));
     if (!improved) {
       gstep /= 2;
       vstep /= 2;
@@ -84,4 +115,29 @@ export function refine(ctx: SolveContext, seeds: readonly Evaluated[], seen: See
     }
   }
   return best;
+
+  function step(moves: Candidate[]): boolean {
+    let improved = false;
+    for (const n of moves) {
+      const limit = bound(best);
+      if (limit < Infinity && !(candidateArea(ctx, n) < limit * (1 - REL_TOL))) continue;
+      const key = candidateKey(n);
+      if (seen.has(key)) {
+        const e = seen.get(key);
+        if (e && better(e, best)) {
+          best = e;
+          improved = true;
+        }
+        continue;
+      }
+      const e = evaluateOnce(ctx, n, seen);
+      if (!e) continue;
+      pool.push(e);
+      if (better(e, best)) {
+        best = e;
+        improved = true;
+      }
+    }
+    return improved;
+  }
 }

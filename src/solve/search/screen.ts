@@ -39,6 +39,7 @@ class Pools {
   /** Rate one combination; true when some pool would keep it (then call keep with the candidate). Logs only when needed. */
   wants(area: number, rout: number, headroom: number, sigma: number): boolean {
     this.ctx.count.screened++;
+    this.ctx.count.rated++;
     return this.rate(area, rout, headroom, sigma);
   }
 
@@ -48,6 +49,7 @@ class Pools {
    * in them, so false means the whole group can be skipped without loss.
    */
   mayWant(count: number, area: number, rout: number, headroom: number, sigma: number): boolean {
+    this.ctx.count.rated++;
     if (this.rate(area, rout, headroom, sigma)) return true;
     this.ctx.count.screened += count;
     return false;
@@ -141,6 +143,8 @@ export function screen(ctx: SolveContext, topology: Topology): Candidate[] {
   };
   const tools: ScreenTools = {
     headroom: s.headroom,
+    rout: s.rout,
+    mismatch: s.mismatch,
     vmid: ctx.vmid,
     gmids: ctx.gmids,
     ut: ctx.ut(ctx.nominal),
@@ -153,6 +157,9 @@ export function screen(ctx: SolveContext, topology: Topology): Candidate[] {
     wants: (area, rout, headroom, sigma) => pools.wants(area, rout, headroom, sigma),
     mayWant: (count, area, rout, headroom, sigma) => pools.mayWant(count, area, rout, headroom, sigma),
     keep: (l, gmid, setpoints) => pools.keep({ topology, l, gmid, setpoints }),
+    covered: (count) => {
+      ctx.count.screened += count;
+    },
   };
   topologyOf(topology).screen(tools);
   return pools.candidates();

@@ -65,7 +65,9 @@ export function stageOptions(ctx: SolveContext, at: StageBias): StageOption[] {
       });
     }
   }
-  return out;
+  // Options within the width limit when there are any; else all, so the nearest design can show the limit binding.
+  const fit = out.filter((o) => o.w <= ctx.wmax);
+  return fit.length > 0 ? fit : out;
 }
 
 /**

@@ -43,9 +43,13 @@ export function sweepVgs(slice: LengthSlice, mode: VdsMode, vsb: number): Sweep 
   return s;
 }
 
+// No closure per point: this runs for every option the screen builds.
+function at(a: Float64Array, j: number, t: number): number {
+  return a[j] + t * (a[j + 1] - a[j]);
+}
+
 function lerp(s: Sweep, j: number, t: number): SweepPoint {
-  const m = (a: Float64Array) => a[j] + t * (a[j + 1] - a[j]);
-  return { vgs: m(s.vgs), jd: m(s.jd), gm: m(s.gm), gds: m(s.gds), gmb: m(s.gmb) };
+  return { vgs: at(s.vgs, j, t), jd: at(s.jd, j, t), gm: at(s.gm, j, t), gds: at(s.gds, j, t), gmb: at(s.gmb, j, t) };
 }
 
 /** Where gm/ID falls through `target`, scanning down from the top of the sweep (strong inversion side). */

@@ -1,0 +1,103 @@
+import type { Topology } from '../design/types.js';
+import type { SolveContext } from './context.js';
+import { finalize, type Evaluated } from './evaluate/evaluate.js';
+import { evaluateOnce, refine, type Seen } from './search/refine.js';
+import { screen } from './search/screen.js';
+
+/** The nearest reachable points of an infeasible stack, over the whole allowed design space. */
+export interface Nearest {
+  /** Lowest headroom at which the Rout target (and the current window) holds up to span, V; Infinity when never. */
+  headroomAtRout: number;
+  /** Highest lowest-Rout over [target headroom, span], Ω (0 when the table covers no design there). */
+  routAtHeadroom: number;
+  /** The designs that reach them (evaluated on the full curve), when usable ones exist. */
+  atRout?: Evaluated;
+  atHeadroom?: Evaluated;
+  /** When every design meeting Rout and headroom breaks the width limit: the narrowest widest device among them, m. */
+  narrowest?: number;
+}
+
+// Meets everything but the width limit.
+const physical = (e: Evaluated) => e.margins.rout >= 0 && e.margins.headroom >= 0 && e.margins.mismatch >= 0 && e.margins.iout >= 0 && e.margins.saturation >= 0;
+const widestOf = (e: Evaluated) => Math.max(...e.sized.w);
+
+/** Physical designs first, then the narrower widest device. */
+function narrower(a: Evaluated, b: Evaluated): boolean {
+  if (physical(a) !== physical(b)) return physical(a);
+  return widestOf(a) < widestOf(b);
+}
+
+// Designs counted for the nearest points: within the mismatch budget and the width limit, current at mid-span,
+// lower devices saturated.
+const usable = (e: Evaluated) => e.margins.mismatch >= 0 && e.margins.iout >= 0 && e.margins.saturation >= 0 && e.margins.width >= 0;
+
+/** Lower headroom first; among designs that never reach the target, the higher Rout at span-side first. */
+function lowerHeadroom(a: Evaluated, b: Evaluated): boolean {
+  if (usable(a) !== usable(b)) return usable(a);
+  const ha = a.nominal.headroom;
+  const hb = b.nominal.headroom;
+  if (ha !== hb) return ha < hb;
+  return Number.isFinite(ha) ? a.area < b.area : a.nominal.routAtTarget > b.nominal.routAtTarget;
+}
+
+function higherRout(a: Evaluated, b: Evaluated): boolean {
+  if (usable(a) !== usable(b)) return usable(a);
+  return a.nominal.routAtTarget > b.nominal.routAtTarget;
+}
+
+function bestOf(pool: readonly Evaluated[], prefer: (a: Evaluated, b: Evaluated) => boolean, k: number): Evaluated[] {
+  const out: Evaluated[] = [];
+  for (const e of pool) {
+    let j = out.length;
+    while (j > 0 && prefer(e, out[j - 1])) j--;
+    if (j < k) out.splice(j, 0, e);
+    if (out.length > k) out.pop();
+  }
+  return out;
+}
+
+/**
+ * A dedicated scan for the nearest points, independent of where the sizing
+ * search happened to look: the screen again with the headroom target lifted
+ * towards mid-span (so the VDS setpoints may use all the room below it),
+ * every proposal evaluated exactly at the spec's own targets, then a climb
+ * towards each question from its best few designs.
+ */
+export function nearestPoints(
+  ctx: SolveContext, topology: Topology, pool: Evaluated[], seen: Seen,
+  fitsWithin?: (wmax: number) => number | null,
+): Nearest {
+  const lifted = Math.max(ctx.spec.headroom, ctx.vmid - 0.05);
+  if (lifted > ctx.spec.headroom) {
+    const wide: SolveContext = { ...ctx, spec: { ...ctx.spec, headroom: lifted, objective: 'headroom' } };
+    for (const c of screen(wide, topology)) {
+      const e = evaluateOnce(ctx, c, seen);
+      if (e) pool.push(e);
+    }
+  }
+  const hr = refine(ctx, bestOf(pool, lowerHeadroom, 2), seen, pool, lowerHeadroom);
+  const ro = refine(ctx, bestOf(pool, higherRout, 2), seen, pool, higherRout);
+  // The figures come from the full curve, as every reported design's do, so they match wherever shown.
+  if (hr) finalize(ctx, hr);
+  if (ro) finalize(ctx, ro);
+  let narrowest: number | undefined;
+  if (pool.some(physical) && !pool.some((e) => physical(e) && e.margins.width >= 0)) {
+    const w = refine(ctx, bestOf(pool, narrower, 2), seen, pool, narrower);
+    if (w && physical(w)) narrowest = widestOf(w);
+    // The climb follows one design; bisect on the limit with the whole search for the edge itself.
+    let lo = ctx.wmax;
+    for (let it = 0; it < 4 && fitsWithin && narrowest !== undefined && narrowest > lo * 1.01; it++) {
+      const mid = Math.sqrt(lo * narrowest);
+      const fit = fitsWithin(mid);
+      if (fit === null) lo = mid;
+      else narrowest = Math.min(narrowest, fit);
+    }
+  }
+  const atRout = hr && usable(hr) && Number.isFinite(hr.nominal.headroom) ? hr : undefined;
+  const atHeadroom = ro && usable(ro) ? ro : undefined;
+  return {
+    headroomAtRout: atRout ? atRout.nominal.headroom : Infinity,
+    routAtHeadroom: atHeadroom ? atHeadroom.nominal.routAtTarget : 0,
+    atRout, atHeadroom, narrowest,
+  };
+}

@@ -1,0 +1,224 @@
+import { beforeAll, describe, expect, it } from 'vitest';
+import { join } from 'node:path';
+import { loadKit, sizeStack, type Kit } from '../src/index.js';
+import type { StackSpec, Topology } from '../src/design/types.js';
+import type { StackResult } from '../src/solve/types.js';
+import { sampleAt, holds, type StackDevice } from '../src/stack/index.js';
+import { ensureDemoTables, REPO } from './helpers/cli.js';
+import { exhaustive, type Grid, type RefAnswer } from './helpers/exhaustive.js';
+
+// The search must find what an exhaustive search over the same tables finds (definition of a constrained optimum:
+// no allowed design meets every target with a better objective). The reference (tests/helpers/exhaustive.ts) tries
+// every combination of each device's length and gm/ID and every VDS setpoint on a grid, judging each design with the
+// stack layer only; tolerances: area and Rout within 5 %, headroom within 5 mV, nearest points within 10 mV / 5 %.
+
+let kits: Record<string, Kit>;
+const SUPPLY: Record<string, number> = { demo180: 1.8, demo090: 1.2 };
+beforeAll(() => {
+  ensureDemoTables();
+  kits = { demo180: loadKit('demo180', { tables: join(REPO, 'tables') }), demo090: loadKit('demo090', { tables: join(REPO, 'tables') }) };
+});
+
+interface Case {
+  id: string;
+  kit: 'demo180' | 'demo090';
+  spec: Omit<StackSpec, 'name'> & { topology: Topology };
+  grid?: Partial<Grid>;
+  /** What the case is there to show. */
+  why: string;
+}
+
+const GRID: Grid = { gmidStep: 3, vStep: 0.05, nearest: false };
+
+function run(c: Case): { tool: StackResult; ref: RefAnswer } {
+  const spec: StackSpec = { name: c.id, ...c.spec };
+  const kit = kits[c.kit];
+  const tool = sizeStack(spec, kit, { supply: SUPPLY[c.kit], corners: ['tt'] }).results[0];
+  const ref = exhaustive(spec, kit, c.spec.topology, 'tt', { ...GRID, ...c.grid });
+  return { tool, ref };
+}
+
+/**
+ * Re-judge the tool's design from its reported W, L and gates alone, on the reference's 10 mV grid:
+ * Rout ≥ target and the current within 1 % of its mid-span value at every grid point from the headroom target up
+ * to span (README definition of headroom).
+ */
+function meetsTargets(r: StackResult, spec: Omit<StackSpec, 'name'>, kit: Kit, supply: number): boolean {
+  const { devices, gates } = rebuilt(r, spec, kit, supply);
+  const vmid = 0.5 * (spec.headroom + spec.span);
+  const mid = sampleAt(devices, gates, vmid);
+  if (!mid.op || Math.abs(mid.i - spec.current) > 0.01 * spec.current) return false;
+  const target = { rout: spec.rout * 0.999, iMid: mid.i };
+  for (let v = spec.span; v >= spec.headroom - 1e-9; v -= 0.01) {
+    if (!holds(sampleAt(devices, gates, Math.max(v, spec.headroom), mid.op), target)) return false;
+  }
+  return true;
+}
+
+/** The target named by a stack's `binding` verdict. */
+function bindingTarget(r: StackResult): string | undefined {
+  return r.binding?.target;
+}
+
+/** A reported design from its W, L and gates alone. */
+function rebuilt(r: StackResult, spec: Omit<StackSpec, 'name'>, kit: Kit, supply: number): { devices: StackDevice[]; gates: number[] } {
+  const devices: StackDevice[] = r.devices.map((d) => ({ slice: kit.slice('tt', spec.device, d.l), w: d.w }));
+  const gates = r.devices.map((d) => (spec.device === 'n' ? d.gate : supply - d.gate));
+  return { devices, gates };
+}
+
+/** Lowest Rout over [target headroom, span] of a reported design, on a 10 mV grid plus the target point itself. */
+function routOverSpan(r: StackResult, spec: Omit<StackSpec, 'name'>, kit: Kit, supply: number): number {
+  const { devices, gates } = rebuilt(r, spec, kit, supply);
+  const mid = sampleAt(devices, gates, 0.5 * (spec.headroom + spec.span));
+  let low = Infinity;
+  for (let v = spec.span; v > spec.headroom; v -= 0.01) low = Math.min(low, sampleAt(devices, gates, v, mid.op ?? undefined).rout);
+  return Math.min(low, sampleAt(devices, gates, spec.headroom, mid.op ?? undefined).rout);
+}
+
+const FEASIBLE: Case[] = [
+  {
+    id: 'n180-cascode-area', kit: 'demo180', why: 'n-type, unequal lengths and widths',
+    spec: { device: 'n', topology: 'cascode', current: 40e-6, rout: 50e6, headroom: 0.45, span: 1.6, objective: 'area' },
+  },
+  {
+    id: 'n180-cascode-area-short-top', kit: 'demo180', why: 'optimum with a long bottom and a short top device',
+    spec: { device: 'n', topology: 'cascode', current: 10e-6, rout: 10e6, headroom: 0.4, span: 1.6, objective: 'area' },
+  },
+  {
+    id: 'p180-cascode-area', kit: 'demo180', why: 'p-type, unequal lengths',
+    spec: { device: 'p', topology: 'cascode', current: 2e-6, rout: 50e6, headroom: 0.4, span: 1.6, objective: 'area' },
+  },
+  {
+    id: 'n090-cascode-area', kit: 'demo090', why: 'second kit, area',
+    spec: { device: 'n', topology: 'cascode', current: 40e-6, rout: 2.5e6, headroom: 0.45, span: 1.1, objective: 'area' },
+  },
+  {
+    id: 'p090-cascode-rout', kit: 'demo090', why: 'objective rout',
+    spec: { device: 'p', topology: 'cascode', current: 2e-6, rout: 50e6, headroom: 0.35, span: 1.1, objective: 'rout' },
+  },
+  {
+    id: 'n180-stacked-headroom', kit: 'demo180', why: 'objective headroom, stacked cascode',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 100e-6, rout: 20e6, headroom: 0.8, span: 1.6, objective: 'headroom' },
+  },
+  {
+    id: 'n090-cascode-headroom', kit: 'demo090', why: 'objective headroom, second kit',
+    spec: { device: 'n', topology: 'cascode', current: 20e-6, rout: 20e6, headroom: 0.45, span: 1.1, objective: 'headroom', l: { min: 0.42e-6, max: 1e-6 } },
+  },
+  {
+    id: 'n180-cascode-mismatch', kit: 'demo180', why: 'a mismatch budget binds',
+    spec: { device: 'n', topology: 'cascode', current: 5e-6, rout: 200e6, headroom: 0.5, span: 1.6, objective: 'area', mismatch: 0.005 },
+  },
+  {
+    id: 'n180-cascode-gmid-edge', kit: 'demo180', why: 'the answer sits on the gm/ID range boundary (8 /V)',
+    spec: { device: 'n', topology: 'cascode', current: 40e-6, rout: 20e6, headroom: 0.6, span: 1.6, objective: 'area', gmid: { min: 8, max: 16 } },
+  },
+  {
+    id: 'n090-cascode-low-headroom', kit: 'demo090', why: 'little headroom: both devices deep in moderate inversion',
+    spec: { device: 'n', topology: 'cascode', current: 20e-6, rout: 20e6, headroom: 0.3, span: 1.1, objective: 'area', l: { min: 0.42e-6, max: 1e-6 } },
+  },
+  {
+    id: 'n180-stacked-area', kit: 'demo180', why: 'stacked cascode, area',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 20e-6, rout: 50e6, headroom: 0.8, span: 1.6, objective: 'area' },
+  },
+  {
+    id: 'p090-triple-area', kit: 'demo090', why: 'three devices, p-type, lengths and gm/ID independent per device',
+    spec: { device: 'p', topology: 'triple', current: 10e-6, rout: 50e6, headroom: 0.5, span: 1.1, objective: 'area', l: { min: 0.16e-6, max: 0.22e-6 }, gmid: { min: 8, max: 24 } },
+    grid: { gmidStep: 4 },
+  },
+];
+
+describe('sizing is optimal within the tables (exhaustive reference search)', () => {
+  for (const c of FEASIBLE) {
+    it(`${c.id} (${c.spec.objective}): ${c.why}`, () => {
+      const { tool, ref } = run(c);
+      expect(ref.best, 'the reference finds a feasible design').toBeDefined();
+      const best = ref.best!;
+      expect(tool.feasible).toBe(true);
+      expect(meetsTargets(tool, c.spec, kits[c.kit], SUPPLY[c.kit])).toBe(true);
+      if (c.spec.objective === 'area') expect(tool.predicted.area).toBeLessThanOrEqual(1.05 * best.area);
+      if (c.spec.objective === 'headroom') expect(tool.predicted.headroom).toBeLessThanOrEqual(best.headroom + 0.005);
+      if (c.spec.objective === 'rout') expect(tool.predicted.rout).toBeGreaterThanOrEqual(0.95 * best.rout);
+    });
+  }
+});
+
+const INFEASIBLE: Case[] = [
+  {
+    id: 'n180-cascode-headroom-short', kit: 'demo180', why: 'infeasible only through headroom',
+    spec: { device: 'n', topology: 'cascode', current: 40e-6, rout: 50e6, headroom: 0.25, span: 1.6, objective: 'area' },
+  },
+  {
+    id: 'p180-cascode-rout-unreachable', kit: 'demo180', why: 'Rout target out of reach at any headroom',
+    spec: { device: 'p', topology: 'cascode', current: 10e-6, rout: 20e9, headroom: 0.5, span: 1.5, objective: 'area' },
+  },
+  {
+    id: 'n090-cascode-headroom-short', kit: 'demo090', why: 'second kit, headroom too low for the Rout target',
+    spec: { device: 'n', topology: 'cascode', current: 20e-6, rout: 20e6, headroom: 0.22, span: 1.1, objective: 'area', l: { min: 0.42e-6, max: 1e-6 } },
+  },
+  {
+    id: 'p180-single-window', kit: 'demo180', why: 'Rout is met at the target but the current leaves its 1 % window',
+    spec: { device: 'p', topology: 'single', current: 2e-6, rout: 3e6, headroom: 0.3, span: 1.6, objective: 'area' },
+  },
+];
+
+describe('explanations of infeasible specs are true (exhaustive reference search)', () => {
+  for (const c of INFEASIBLE) {
+    it(`${c.id}: ${c.why}`, () => {
+      const { tool, ref } = run({ ...c, grid: { ...c.grid, nearest: true } });
+      expect(ref.best).toBeUndefined();
+      expect(tool.feasible).toBe(false);
+      const h = tool.nearest?.headroomAtRout;
+      if (Number.isFinite(ref.headroomAtRout)) {
+        expect(h).toBeDefined();
+        expect(Math.abs(h! - ref.headroomAtRout)).toBeLessThanOrEqual(0.01);
+      } else {
+        expect(h === undefined || h === null || !Number.isFinite(h)).toBe(true);
+      }
+      const r = tool.nearest?.routAtHeadroom ?? 0;
+      // What binds: Rout when the best Rout at the target headroom is short of the target, else the current window.
+      const binds = ref.routAtHeadroom < c.spec.rout ? 'rout' : 'iout';
+      expect(bindingTarget(tool)).toBe(binds);
+      expect(r).toBeGreaterThanOrEqual(0.95 * ref.routAtHeadroom);
+      if (binds === 'rout') {
+        // The design shown is the one reaching that Rout: re-judged from its sizes, it has it (and the table shows it).
+        expect(Math.abs(routOverSpan(tool, c.spec, kits[c.kit], SUPPLY[c.kit]) - r)).toBeLessThanOrEqual(0.02 * r);
+        expect(tool.predicted.rout).toBe(r);
+      } else {
+        expect(r).toBeLessThanOrEqual(1.05 * ref.routAtHeadroom);
+      }
+    });
+  }
+});
+
+describe('width limit (spec key wmax)', () => {
+  const tail = { device: 'n', topology: 'cascode', current: 40e-6, rout: 50e6, headroom: 0.45, span: 1.6, objective: 'area' } as const;
+
+  it('a limit below what the targets need makes the stack infeasible on width, and the width it names is the true edge', () => {
+    const tool = sizeStack({ name: 'w', ...tail, wmax: 20e-6 }, kits.demo180, { supply: 1.8, corners: ['tt'] }).results[0];
+    expect(tool.feasible).toBe(false);
+    expect(bindingTarget(tool)).toBe('width');
+    expect(tool.binding).toMatchObject({ target: 'width', required: 20e-6 });
+    const w = tool.binding!.achieved!;
+    expect(w).toBeGreaterThan(20e-6);
+    // The exhaustive reference agrees: nothing fits a limit 5 % below the named width, something fits 10 % above.
+    const grid: Grid = { gmidStep: 3, vStep: 0.05, nearest: false };
+    expect(exhaustive({ name: 'w', ...tail, wmax: 0.95 * w }, kits.demo180, 'cascode', 'tt', grid).best).toBeUndefined();
+    const wider = exhaustive({ name: 'w', ...tail, wmax: 1.1 * w }, kits.demo180, 'cascode', 'tt', grid).best;
+    expect(wider).toBeDefined();
+    expect(Math.max(...wider!.w)).toBeLessThanOrEqual(1.1 * w);
+  });
+
+  it('a current no device of the kit carries at the default limit is infeasible on width, with a warning figure', () => {
+    const tool = sizeStack({ name: 'big', ...tail, current: 10, rout: 1e3, headroom: 0.5 }, kits.demo180, { supply: 1.8, corners: ['tt'] }).results[0];
+    expect(tool.feasible).toBe(false);
+    expect(bindingTarget(tool)).toBe('width');
+    // Default limit: 64 fingers of 100 × the 0.18 µm shortest length (README).
+    expect(tool.wmax).toBeCloseTo(64 * 100 * 0.18e-6, 12);
+    expect(tool.currentLimit).toBeGreaterThan(0);
+    expect(tool.currentLimit).toBeLessThan(10);
+    // What one device at the limit carries cannot exceed the table's highest current density (top of VGS and VDS).
+    const s = kits.demo180.slice('tt', 'n', 0.18e-6);
+    expect(tool.currentLimit!).toBeLessThanOrEqual(tool.wmax! * s.jd(s.range.vgs[1], s.range.vds[1], 0) * (1 + 1e-9));
+  });
+});

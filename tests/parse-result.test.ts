@@ -1,0 +1,61 @@
+import { beforeAll, describe, expect, it } from 'vitest';
+import { join } from 'node:path';
+import { loadKit, parseSpec, sizeSpec, type Kit } from '../src/index.js';
+import { parseSizeResult } from '../src/solve/index.js';
+import { StackwrightError } from '../src/errors.js';
+import { ensureDemoTables, REPO } from './helpers/cli.js';
+
+let kit: Kit;
+beforeAll(() => {
+  ensureDemoTables();
+  kit = loadKit('demo180', { tables: join(REPO, 'tables') });
+});
+
+// Invented targets on the invented demo kit: a single device cannot give 100 MΩ within 0.5 V, a cascode can
+// (the demo spec marsh-wren.yaml sizes the same load), so one stack carries a headroom that was never reached.
+const SPEC = `kit: demo180
+supply: 1.8
+stacks:
+  - {name: load, device: p, topology: single, current: 10u, rout: 100meg, headroom: 0.5, span: 1.5}
+  - {name: tail, device: n, topology: cascode, current: 40u, rout: 50meg, headroom: 0.45, span: 1.6}
+`;
+
+const errorOf = (text: string): StackwrightError => {
+  try {
+    parseSizeResult(text, 'r.json');
+  } catch (e) {
+    expect(e).toBeInstanceOf(StackwrightError);
+    return e as StackwrightError;
+  }
+  throw new Error('no error');
+};
+
+describe('parseSizeResult', () => {
+  it('reads a sized result back through JSON, with the unreached headroom restored to Infinity', () => {
+    const { result } = sizeSpec(parseSpec(SPEC, 'spec.yaml'), kit);
+    expect(result.stacks[0].feasible).toBe(false);
+    expect(result.stacks[0].predicted.headroom).toBe(Infinity);
+    // ECMA-262 JSON.stringify writes null for a non-finite number (RFC 8259 §6: JSON has no Infinity or NaN).
+    const text = JSON.stringify(result);
+    expect(text).toContain('"headroom":null');
+    const back = parseSizeResult(text, 'r.json');
+    expect(back.supply).toBe(1.8);
+    expect(back.stacks[0].predicted.headroom).toBe(Infinity);
+    expect(back.stacks[1].predicted.headroom).toBe(result.stacks[1].predicted.headroom);
+    back.stacks.forEach((s, i) => {
+      expect(s.devices.map((d) => [d.w, d.l, d.gate])).toEqual(result.stacks[i].devices.map((d) => [d.w, d.l, d.gate]));
+    });
+  });
+
+  it('refuses text that is not a size result, naming where', () => {
+    expect(errorOf('{"stacks": [').message).toMatch(/^r\.json: not valid JSON/);
+    expect(errorOf('{"stacks": [').where).toBe('r.json');
+    expect(errorOf('{"stacks": 3}').message).toMatch(/expected the JSON printed by/);
+    expect(errorOf('null').message).toMatch(/expected the JSON printed by/);
+    expect(errorOf('{"supply": 1.8, "stacks": [null]}').where).toBe('r.json: stacks[0].devices');
+    expect(errorOf('{"supply": 1.8, "stacks": [{"devices": []}]}').where).toBe('r.json: stacks[0].devices');
+    const e = errorOf('{"supply": 1.8, "stacks": [{"devices": [{"w": 1e-6, "l": 1e-6, "gate": 0.6}, {"w": 1e-6, "l": "1u", "gate": 1}]}]}');
+    expect(e.where).toBe('r.json: stacks[0].devices[1].l');
+    expect(e.kind).toBe('input');
+  });
+});
