@@ -20,3 +20,6 @@ export type { Grid } from './rows.js';
 export { renderPortText } from './port-text.js';
 export { verdictText, verdictLine, bindingText } from './verdict.js';
 export { stageVerdictText, stageVerdict, stagePredictedGrid, stageSquareLawGrid, stageCornerGrid, stageTopologiesGrid } from './stage-rows.js';
+export { renderConfirmText } from './confirm-text.js';
+export { confirmVerdict, confirmGrid, correctedGrid, missWords } from './confirm-rows.js';
+export type { Confirmation } from '../confirm/types.js';

@@ -9,8 +9,11 @@ import { stageVerdictText } from '../../report/index.js';
 import { writeFilesAtomic } from '../../fsutil.js';
 import { EXIT } from '../../errors.js';
 import { note, out, packageVersion, readText, toJson, useColor } from '../io.js';
+import { checkSpiceFlags, confirmRun, spiceOptions, type SpiceFlags } from './size-spice.js';
+import { withCorrection } from '../../confirm/index.js';
+import { renderConfirmText, missWords, type Confirmation } from '../../report/index.js';
 
-interface SizeFlags {
+interface SizeFlags extends SpiceFlags {
   tables?: string;
   json?: boolean;
   brief?: boolean;
@@ -21,7 +24,7 @@ interface SizeFlags {
 }
 
 export function registerSize(program: Command): void {
-  program
+  const cmd = program
     .command('size')
     .description('size every current source/sink of a spec so Rout and headroom are met at once')
     .argument('<spec>', 'design spec (YAML or JSON)')
@@ -31,13 +34,16 @@ export function registerSize(program: Command): void {
     .option('--front <file.csv>', 'write the Pareto front (headroom, Rout, area) as CSV, and an SVG chart per stack beside it')
     .option('--netlist <file.cir>', 'write a SPICE3 netlist of the sized stacks with their bias')
     .option('--report <file.html>', 'write a self-contained HTML report')
-    .option('--force', 'overwrite existing output files')
-    .addHelpText('after', '\nExit status: 0 every stack feasible, 3 a stack infeasible, 2 bad input.\nExample:\n  stackwright size demo-tables/specs/marsh-wren.yaml --report report.html\n')
-    .action((specPath: string, f: SizeFlags) => {
+    .option('--force', 'overwrite existing output files');
+  spiceOptions(cmd)
+    .addHelpText('after', '\nExit status: 0 every stack feasible (and confirmed with --spice), 3 a stack infeasible (or not confirmed in simulation), 2 bad input.\nExample:\n  stackwright size demo-tables/specs/marsh-wren.yaml --report report.html\n  stackwright size demo-tables/specs/marsh-wren-spice.yaml --spice --include demo-tables/reed180/reed180.lib --model-n nfet_reed --model-p pfet_reed\n')
+    .action(async (specPath: string, f: SizeFlags) => {
+      checkSpiceFlags(f, (flag) => cmd.getOptionValueSource(flag) === 'cli');
       const source = readText(specPath, 'spec file');
       const spec = parseSpec(source, specPath);
       const kit = loadKit(spec.kit, { tables: f.tables });
       const run = sizeSpec(spec, kit);
+      const confirmations = f.spice ? await confirmRun(spec, run.result, kit, f) : undefined;
 
       // Build every output first, then write them together: nothing half-written.
       const files: Array<[string, string]> = [];
@@ -47,7 +53,8 @@ export function registerSize(program: Command): void {
         for (const [name, svg] of frontCharts(spec, run)) files.push([`${stem}.${name}.svg`, svg]);
       }
       if (f.netlist) {
-        const chosen = { ...run.result, stacks: decidingResults(run.result) };
+        // With --spice the netlist carries the sizes simulation confirmed.
+        const chosen = { ...run.result, stacks: decidingResults(run.result).map((r) => withCorrection(r, confirmations?.find((c) => c.name === r.name))) };
         if (chosen.stacks.length > 0) files.push([f.netlist, designNetlist(chosen, { supply: spec.supply, specs: spec.stacks, title: `stackwright ${basename(specPath)}` })]);
         // Each stage gets its own deck beside it (its own .dc sweep of the input).
         const stem = f.netlist.slice(0, f.netlist.length - extname(f.netlist).length);
@@ -55,13 +62,14 @@ export function registerSize(program: Command): void {
           if (st.input.devices.length > 0) files.push([`${stem}.${st.name}.cir`, stageNetlist(st, { supply: spec.supply })]);
         }
       }
-      if (f.report) files.push([f.report, reportHtml(spec, source, kit, run, `stackwright ${packageVersion()}`)]);
+      if (f.report) files.push([f.report, reportHtml(spec, source, kit, run, `stackwright ${packageVersion()}`, confirmations)]);
       writeFilesAtomic(files, { force: f.force });
 
       if (f.json) out(toJson(run.stageFronts ? { ...run.result, fronts: run.fronts, stageFronts: run.stageFronts } : { ...run.result, fronts: run.fronts }));
       else {
         const stageGains = Object.fromEntries((spec.stages ?? []).map((st) => [st.name, st.gain]));
         out((f.brief ? renderSizeBrief : renderSizeText)(run.result, { color: useColor(), stageFronts: run.stageFronts, stageGains }));
+        if (confirmations) out(renderConfirmText(confirmations, run.result, spec, { color: useColor() }));
       }
       for (const [path] of files) note(`wrote ${path}`);
       const failed = decidingResults(run.result).filter((s) => !s.feasible);
@@ -72,6 +80,11 @@ export function registerSize(program: Command): void {
           ...failedStages.map((s) => `${s.name} (${s.binding ? stageVerdictText(s.binding, true) : 'targets not met'})`),
         ];
         note(`infeasible: ${words.join('; ')}`);
+        process.exitCode = EXIT.infeasible;
+      }
+      const missed = (confirmations ?? []).filter((c) => !c.confirmed);
+      if (missed.length > 0) {
+        note(`not confirmed in simulation: ${missed.map((c) => `${c.name} (${c.misses.map(missWords).join('; ') || 'no design step helps'})`).join('; ')}`);
         process.exitCode = EXIT.infeasible;
       }
     });
