@@ -1,7 +1,8 @@
 /**
  * `npm run demo`: the main job on the invented demo kits, end to end through the CLI:
  * build the demo tables from their CSV sweeps, size the demo spec (report, Pareto
- * front, netlist), probe one device, and port the design to the second kit.
+ * front, netlist), probe one device, port the design to the second kit, and (with
+ * ngspice installed) confirm the sizes of a spec on the invented BSIM4 kit in simulation.
  */
 import { spawnSync } from 'node:child_process';
 import { mkdirSync } from 'node:fs';
@@ -37,6 +38,17 @@ const sized = run(
 );
 run('size the amplifier sources at every corner (tt, ff, ss)', ['size', join('demo-tables', 'specs', 'marsh-wren-corners.yaml')], [0, 3]);
 run('port the design from demo180 to demo090', ['port', spec, '--from', 'demo180', '--to', 'demo090'], [0, 3]);
+const spiceSpec = join('demo-tables', 'specs', 'marsh-wren-spice.yaml');
+if (spawnSync('ngspice', ['-v'], { encoding: 'utf8' }).error) {
+  process.stdout.write(`\n=== confirm sizes in simulation (size --spice): ngspice is not installed; to run this step: sudo apt-get install ngspice\n`);
+} else {
+  run(
+    'size the demo spec on the invented BSIM4 kit reed180 and confirm every design in ngspice (corners tt, ss)',
+    ['size', spiceSpec, '--spice', '--include', join('demo-tables', 'reed180', 'reed180.lib'), '--model-n', 'nfet_reed', '--model-p', 'pfet_reed',
+      '--report', join(outDir, 'report-spice.html'), '--force'],
+    [0, 3],
+  );
+}
 run('design charts of the demo kit', ['chart', '--kit', 'demo180', '--device', 'n', '--out', join(outDir, 'charts'), '--force']);
 process.stdout.write(
   `\ndemo: done${sized === 3 ? ' (some stacks infeasible, as reported above)' : ''}. Open ${join(outDir, 'report.html')} in a browser; ` +

@@ -22,6 +22,8 @@ export { kitAccessFromTables, kitAccessFromSources } from './solve/kit-tables.js
 export type { TableSource } from './solve/kit-tables.js';
 export type { KitAccess, SizeResult, StackResult, DeviceResult, BiasResult, CurvePoint, Predicted, CornerResult, FrontPoint, Verdict, VerdictTarget } from './solve/index.js';
 export { stackNetlist, designNetlist } from './spice/index.js';
+export { confirmStacks, confirmItems, stackItem, withCorrection } from './confirm/index.js';
+export type { Confirmation, ConfirmItem, ConfirmOptions, Simulated, SimulatedFigures, Miss, CorrectedDesign } from './confirm/index.js';
 export { htmlReport, renderSizeText, lineChart } from './report/index.js';
 export { parseEng, formatEng, formatSpice } from './units/index.js';
 export { StackwrightError, EXIT } from './errors.js';

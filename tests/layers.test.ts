@@ -14,7 +14,7 @@ const RANK: Record<string, number> = {
   topology: 5,
   design: 6,
   solve: 7,
-  report: 8, spice: 8, synth: 8,
+  report: 8, spice: 8, confirm: 8, synth: 8,
   cli: 9, 'api.ts': 9, 'index.ts': 9,
 };
 

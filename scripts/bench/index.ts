@@ -16,3 +16,4 @@ export type { Paired, Sample } from './paired.js';
 export { benchProbe, PROBE_ARGS } from './probe.js';
 export { benchSize, DEMO_SPEC } from './size.js';
 export { benchKitLoad } from './kitload.js';
+export { benchSpice, SPICE_SPEC } from './spice.js';

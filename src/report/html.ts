@@ -9,6 +9,8 @@ import { chosenFirst, farAreaNote, farAreaRatio } from './order.js';
 import { escapeXml as esc } from './svg.js';
 import type { HtmlReportInput } from './types.js';
 import { stageSection, stageSpecGrid, stageSummaryGrid } from './stage-html.js';
+import { confirmGrid, confirmVerdict, correctedGrid } from './confirm-rows.js';
+import { confirmRoutChart } from './confirm-charts.js';
 
 export function htmlTable(grid: Grid, caption?: string): string {
   const align = columnAlign(grid);
@@ -69,6 +71,7 @@ function stackSection(s: StackResult, input: HtmlReportInput, spec?: StackSpec):
     `<div class="tables">${htmlTable(deviceGrid(s), 'output stack (bottom first)')}${s.bias.length ? htmlTable(biasGrid(s), 'bias devices') : ''}</div>`,
     `<div class="tables">${htmlTable(predictedGrid(s), 'predicted')}${sq ? htmlTable(sq, 'lookup table against square law') : ''}${corners ? htmlTable(corners, 'per corner') : ''}</div>`,
     `<div class="charts">${figure(charts.rout)}${figure(charts.iout)}${figure(charts.pareto)}${figure(charts.area)}</div>`,
+    simulationBlock(s, input, spec),
     '</section>',
   ].join('\n');
 }
@@ -83,6 +86,18 @@ function stagesHtml(input: HtmlReportInput): string {
     return s.chosen === false ? `<details class="alternative"><summary>${esc(s.name)}: alternative ${esc(s.load.topology)} load (${s.feasible ? 'feasible' : 'infeasible'})</summary>${section}</details>` : section;
   });
   return `<section id="stages"><h2>Gain stages</h2>${htmlTable(stageSummaryGrid(stages, specs))}${htmlTable(stageSpecGrid([...specs.values()]), 'stage targets')}</section>\n${sections.join('\n')}`;
+}
+
+/** With `size --spice`: predicted beside simulated, the corrected sizes and the simulated Rout(v) over the predicted. */
+function simulationBlock(s: StackResult, input: HtmlReportInput, spec?: StackSpec): string {
+  const c = s.chosen === false ? undefined : input.confirmations?.find((x) => x.name === s.name);
+  if (!c) return '';
+  const corrected = correctedGrid(c, s);
+  return [
+    `<h3>Confirmed in simulation?</h3><p class="verdict${c.confirmed ? '' : ' bad'}">${esc(confirmVerdict(c))}</p>`,
+    `<div class="tables">${htmlTable(confirmGrid(c, s, spec), 'predicted (lookup tables) and simulated (ngspice)')}${corrected ? htmlTable(corrected, 'corrected devices') : ''}</div>`,
+    `<div class="charts">${figure(confirmRoutChart(c, s, spec))}</div>`,
+  ].join('\n');
 }
 
 /**

@@ -21,3 +21,6 @@ export { renderPortText } from './port-text.js';
 export { lengthClampNotes } from './notes.js';
 export { verdictText, verdictLine, bindingText } from './verdict.js';
 export { stageVerdictText, stageVerdict, stagePredictedGrid, stageSquareLawGrid, stageCornerGrid, stageTopologiesGrid } from './stage-rows.js';
+export { renderConfirmText } from './confirm-text.js';
+export { confirmVerdict, confirmGrid, correctedGrid, missWords } from './confirm-rows.js';
+export type { Confirmation } from '../confirm/types.js';

@@ -4,6 +4,7 @@ import type { SizeResult } from '../solve/types.js';
 import type { FrontPoint } from '../solve/pareto.js';
 import type { DesignCurve } from '../device/curves.js';
 import type { StageFrontPoint } from '../solve/stage-types.js';
+import type { Confirmation } from '../confirm/types.js';
 
 
 /** Design curves of one device of one kit and corner, one curve per length. */
@@ -37,4 +38,6 @@ export interface HtmlReportInput {
   generatedAt?: string;
   /** Extra lines for the header, e.g. "kit demo180: invented demonstration data, not a real process". */
   notes?: string[];
+  /** With `size --spice`: each chosen design confirmed in simulation. */
+  confirmations?: Confirmation[];
 }

@@ -119,7 +119,8 @@ function deck(stacks: readonly StackResult[], opts: NetlistOptions, specs: (Netl
   return lines.join('\n');
 }
 
-function stackLines(
+/** The elements of one stack (tag `tag`), its output following node SWEEP_NODE; used by decks that batch many circuits. */
+export function stackLines(
   s: StackResult,
   tag: string,
   opts: NetlistOptions,

@@ -10,6 +10,8 @@ import { designNetlist } from '../../spice/netlist.js';
 import { stageNetlist } from '../../spice/stage-netlist.js';
 import { decidingStages } from '../../solve/stage-choose.js';
 import { packageVersion } from '../io.js';
+import { withCorrection } from '../../confirm/index.js';
+import type { Confirmation } from '../../confirm/index.js';
 
 export interface SizeFileFlags {
   front?: string;
@@ -17,7 +19,7 @@ export interface SizeFileFlags {
   report?: string;
 }
 
-export function sizeFiles(f: SizeFileFlags, spec: DesignSpec, specPath: string, source: string, kit: Kit, run: SizeRun, notes: readonly string[] = []): Array<[string, string]> {
+export function sizeFiles(f: SizeFileFlags, spec: DesignSpec, specPath: string, source: string, kit: Kit, run: SizeRun, notes: readonly string[] = [], confirmations?: Confirmation[]): Array<[string, string]> {
   const files: Array<[string, string]> = [];
   if (f.front) {
     files.push([f.front, frontCsv(run.fronts)]);
@@ -25,7 +27,8 @@ export function sizeFiles(f: SizeFileFlags, spec: DesignSpec, specPath: string, 
     for (const [name, svg] of frontCharts(spec, run)) files.push([`${stem}.${name}.svg`, svg]);
   }
   if (f.netlist) {
-    const chosen = { ...run.result, stacks: decidingResults(run.result) };
+    // With --spice the netlist carries the sizes simulation confirmed.
+    const chosen = { ...run.result, stacks: decidingResults(run.result).map((r) => withCorrection(r, confirmations?.find((c) => c.name === r.name))) };
     if (chosen.stacks.length > 0) files.push([f.netlist, designNetlist(chosen, { supply: spec.supply, specs: spec.stacks, title: `stackwright ${basename(specPath)}` })]);
     // Each stage gets its own deck beside it (its own .dc sweep of the input).
     const stem = f.netlist.slice(0, f.netlist.length - extname(f.netlist).length);
@@ -33,6 +36,6 @@ export function sizeFiles(f: SizeFileFlags, spec: DesignSpec, specPath: string, 
       if (st.input.devices.length > 0) files.push([`${stem}.${st.name}.cir`, stageNetlist(st, { supply: spec.supply })]);
     }
   }
-  if (f.report) files.push([f.report, reportHtml(spec, source, kit, run, `stackwright ${packageVersion()}`, notes)]);
+  if (f.report) files.push([f.report, reportHtml(spec, source, kit, run, `stackwright ${packageVersion()}`, notes, confirmations)]);
   return files;
 }

@@ -10,8 +10,11 @@ import { lengthClamps } from '../../solve/table-cover.js';
 import { lengthClampNotes } from '../../report/notes.js';
 import { EXIT } from '../../errors.js';
 import { note, out, readText, toJson, useColor } from '../io.js';
+import { checkSpiceFlags, confirmRun, spiceOptions, type SpiceFlags } from './size-spice.js';
+import { renderConfirmText } from '../../report/confirm-text.js';
+import { missWords } from '../../report/confirm-rows.js';
 
-interface SizeFlags {
+interface SizeFlags extends SpiceFlags {
   tables?: string;
   json?: boolean;
   brief?: boolean;
@@ -22,7 +25,7 @@ interface SizeFlags {
 }
 
 export function registerSize(program: Command): void {
-  program
+  const cmd = program
     .command('size')
     .description('size every current source/sink of a spec so Rout and headroom are met at once')
     .argument('<spec>', 'design spec (YAML or JSON)')
@@ -32,18 +35,23 @@ export function registerSize(program: Command): void {
     .option('--front <file.csv>', 'write the Pareto front (headroom, Rout, area) as CSV, and an SVG chart per stack beside it')
     .option('--netlist <file.cir>', 'write a SPICE3 netlist of the sized stacks with their bias')
     .option('--report <file.html>', 'write a self-contained HTML report')
-    .option('--force', 'overwrite existing output files')
-    .addHelpText('after', '\nExit status: 0 every stack feasible, 3 a stack infeasible, 2 bad input.\nExample:\n  stackwright size demo-tables/specs/marsh-wren.yaml --report report.html\n')
+    .option('--force', 'overwrite existing output files');
+  spiceOptions(cmd)
+    .addHelpText('after', '\nExit status: 0 every stack feasible (and confirmed with --spice), 3 a stack infeasible (or not confirmed in simulation), 2 bad input.\nExample:\n  stackwright size demo-tables/specs/marsh-wren.yaml --report report.html\n  stackwright size demo-tables/specs/marsh-wren-spice.yaml --spice --include demo-tables/reed180/reed180.lib --model-n nfet_reed --model-p pfet_reed\n')
     .action(async (specPath: string, f: SizeFlags) => {
+      checkSpiceFlags(f, (flag) => cmd.getOptionValueSource(flag) === 'cli');
       const source = readText(specPath, 'spec file');
       const spec = parseSpec(source, specPath);
       const kit = loadKit(spec.kit, { tables: f.tables });
       const run = sizeSpec(spec, kit);
       const notes = lengthClampNotes(lengthClamps(spec.stacks, kit, run.result.corners[0]));
+      const confirmations = f.spice ? await confirmRun(spec, run.result, kit, f) : undefined;
 
       // Build every output first, then write them together: nothing half-written.
       // Charts, report and netlist code load only when one of them is asked for.
-      const files = f.front || f.netlist || f.report ? (await import('./size-files.js')).sizeFiles(f, spec, specPath, source, kit, run, notes) : [];
+      const files = f.front || f.netlist || f.report
+        ? (await import('./size-files.js')).sizeFiles(f, spec, specPath, source, kit, run, notes, confirmations)
+        : [];
       writeFilesAtomic(files, { force: f.force });
 
       // The spec's targets ride along so `netlist` can place its .op at each stack's mid-span.
@@ -51,6 +59,7 @@ export function registerSize(program: Command): void {
       else {
         const stageGains = Object.fromEntries((spec.stages ?? []).map((st) => [st.name, st.gain]));
         out((f.brief ? renderSizeBrief : renderSizeText)(run.result, { color: useColor(), stageFronts: run.stageFronts, stageGains }));
+        if (confirmations) out(renderConfirmText(confirmations, run.result, spec, { color: useColor() }));
       }
       for (const line of notes) note(`note: ${line}`);
       for (const [path] of files) note(`wrote ${path}`);
@@ -62,6 +71,11 @@ export function registerSize(program: Command): void {
           ...failedStages.map((s) => `${s.name} (${s.binding ? stageVerdictText(s.binding, true) : 'targets not met'})`),
         ];
         note(`infeasible: ${words.join('; ')}`);
+        process.exitCode = EXIT.infeasible;
+      }
+      const missed = (confirmations ?? []).filter((c) => !c.confirmed);
+      if (missed.length > 0) {
+        note(`not confirmed in simulation: ${missed.map((c) => `${c.name} (${c.misses.map(missWords).join('; ') || 'no design step helps'})`).join('; ')}`);
         process.exitCode = EXIT.infeasible;
       }
     });

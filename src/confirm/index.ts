@@ -1,0 +1,12 @@
+export { confirmItems, MAX_ROUNDS, TIGHTEN_ROUNDS, SWEEP_STEP, type ConfirmOptions } from './confirm.js';
+export { confirmStacks, type StackConfirmInput } from './stacks.js';
+export { stackItem, type StackContext } from './stack-item.js';
+export { batchDeck, runBatch, type BatchCircuit, type BatchDeck, type BatchColumns } from './batch.js';
+export { cornerModels, librarySections, type ModelSource } from './sections.js';
+export { stackFigures, CURVE_POINTS } from './measure.js';
+export { stackMisses } from './check.js';
+export { correctionCandidates, pickVariant, HEADROOM_AIM } from './correct.js';
+export { shrinkStep, TIGHTEN_MARGIN } from './tighten.js';
+export type { ConfirmItem } from './hook.js';
+export type { Confirmation, CorrectedDesign, CorrectedDevice, Miss, MissTarget, Simulated, SimulatedFigures, SimulatedPoint } from './types.js';
+export { withCorrection } from './apply.js';

@@ -1,0 +1,68 @@
+/**
+ * Rendering of size --spice results (text and HTML) from hand-made confirmations
+ * on the invented report fixtures. Project rule (COMMON.md, README): no NaN,
+ * Infinity or undefined reaches text or a report; a headroom never reached reads "never".
+ */
+import { describe, expect, it } from 'vitest';
+import { htmlReport, renderConfirmText, confirmVerdict, missWords, type Confirmation } from '../src/report/index.js';
+import { loadReportInput } from './fixtures/report/load.js';
+
+const input = loadReportInput();
+const [sink, source] = input.size.stacks;
+
+function figures(corner: string, headroom: number, scale: number) {
+  const curve = sink.curve.map((p) => ({ v: p.v, iout: p.iout * scale, rout: p.v < 0.05 ? Infinity : p.rout * 1.1 }));
+  return { corner, iout: sink.predicted.iout * scale, rout: sink.predicted.rout * 1.1, routAtTarget: sink.predicted.rout, headroom, curve };
+}
+
+const confirmed: Confirmation = {
+  name: sink.name,
+  simulated: { ...figures('tt', 0.43, 1), corners: input.size.corners.map((c, k) => figures(c, 0.43 + 0.01 * k, 1 + 0.001 * k)) },
+  confirmed: true, rounds: 2, misses: [],
+  corrected: {
+    devices: sink.devices.map((d) => ({ role: d.role, w: d.w * 1.05, l: d.l, gate: d.gate })),
+    bias: sink.bias.map((b) => ({ ...b, w: b.w * 1.1 })), area: sink.predicted.area * 1.05,
+    predicted: { iout: sink.predicted.iout, rout: sink.predicted.rout, headroom: 0.46 },
+  },
+};
+const missed: Confirmation = {
+  name: source.name,
+  simulated: { ...figures('tt', Infinity, 0.97), corners: input.size.corners.map((c) => figures(c, Infinity, 0.97)) },
+  confirmed: false, rounds: 4,
+  misses: [
+    { target: 'iout', required: 10e-6, achieved: 9.7e-6, at: 1.0, device: null, corner: 'tt' },
+    { target: 'rout', required: 100e6, achieved: 41e6, at: 0.5, device: null, corner: 'ss' },
+    { target: 'headroom', required: 0.5, achieved: null, at: null, device: null, corner: 'ff' },
+  ],
+};
+
+describe('size --spice rendering', () => {
+  it('text: targets, prediction and simulation per corner, corrected sizes, misses in words; never NaN/Infinity/undefined', () => {
+    const text = renderConfirmText([confirmed, missed], input.size, input.spec.parsed, { color: false });
+    expect(text).toMatch(/predicted tt +simulated tt +predicted ss +simulated ss +predicted ff +simulated ff/);
+    expect(text).toMatch(/W \(tables\) +W \(corrected\) +change/);
+    expect(text).toMatch(/\+5 %/);
+    expect(text).toContain('confirmed in simulation after correction (2 simulated rounds)');
+    expect(text).toContain('NOT confirmed in simulation after 4 simulated rounds');
+    expect(text).toContain('headroom at ff: needs ≤ 500 mV, simulated never');
+    expect(text).toContain('rout at ss: needs ≥ 100 MΩ, simulated 41 MΩ (lowest at 500 mV)');
+    expect(text).not.toMatch(/NaN|Infinity|undefined/);
+  });
+
+  it('verdict and miss words follow the data', () => {
+    expect(confirmVerdict({ ...confirmed, corrected: undefined, rounds: 1 })).toBe('confirmed in simulation: the table design meets every target (1 simulated round)');
+    expect(missWords(missed.misses[0])).toBe('iout at tt: needs 10 µA ± 1 %, simulated 9.7 µA');
+  });
+
+  it('HTML: a simulation block per confirmed stack with the simulated Rout(v) drawn over the predicted one', () => {
+    const html = htmlReport({ ...input, confirmations: [confirmed, missed] });
+    const charts = (html.match(/<svg[\s\S]*?<\/svg>/g) ?? []).filter((svg) => svg.includes('simulated over predicted'));
+    expect(charts).toHaveLength(2);
+    // Each draws the predicted curve and one simulated curve per corner.
+    for (const svg of charts) expect((svg.match(/<path[^>]*class="series/g) ?? []).length).toBeGreaterThanOrEqual(1 + input.size.corners.length);
+    expect(html).toContain('tables (predicted)');
+    expect(html).toContain('ngspice ss, corrected');
+    expect(html).toContain('Confirmed in simulation?');
+    expect(html).not.toMatch(/NaN|Infinity|undefined/);
+  });
+});
