@@ -113,6 +113,10 @@ describe('slice interpolation', () => {
     for (const [g, d, b] of [[0.05, 0.6, 0.1], [0.137, 0.93, 0.37], [0.2999, 0.5, 0]]) {
       s.jdSlopes(g, d, b, out);
       expect(out[0]).toBe(s.jd(g, d, b)); // the same current Newton's residuals use
+      const two = new Float64Array(2);
+      s.jdGm(g, d, b, two);
+      expect(two[1] / two[0]).toBeCloseTo(1 / (n * ut), 10); // gm/ID = 1/(n·UT) in weak inversion (Tsividis)
+      expect([...two]).toEqual([...s.small(g, d, b)].slice(0, 2)); // jdGm gives small()'s own first two values
       const id = f(g, d, b) / 1e-6;
       expect(out[1] / (id / (n * ut))).toBeCloseTo(1, 10);
       expect(out[2] / ((id * lam) / (1 + lam * d))).toBeCloseTo(1, 10);

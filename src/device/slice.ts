@@ -163,6 +163,13 @@ export class TableSlice implements LengthSlice {
     out[3] = this.ls.step ? (fv * k) / (this.ls.values[this.cellS + 1] - this.ls.values[this.cellS]) : 0;
   }
 
+  /** [jd, gm/W] into out[0..1], the same values as small(): half the work for gm/ID searches. */
+  jdGm(vgs: number, vds: number, vsb: number, out: Float64Array): void {
+    this.locate(vgs, vds, vsb);
+    this.evalInto(this.pId, out, 0, this.perW);
+    this.evalInto(this.pGm, out, 1, this.perW);
+  }
+
   /** One quantity at the reference width (NaN when the table lacks it). */
   value(q: StoredQuantity, vgs: number, vds: number, vsb: number): number {
     const block = this.plane.q[q];

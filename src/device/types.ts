@@ -44,6 +44,8 @@ export interface LengthSlice {
    * `out` = [jd, ∂jd/∂vgs, ∂jd/∂vds, ∂jd/∂vsb], for Newton; callers fall back to differences without it.
    */
   jdSlopes?(vgs: number, vds: number, vsb: number, out: Float64Array): void;
+  /** Optional: [jd, gm/W] only (the first two entries of `small`, the same values) into `out`, for gm/ID searches. */
+  jdGm?(vgs: number, vds: number, vsb: number, out: Float64Array): void;
   /** Full operating point at width w. */
   op(vgs: number, vds: number, vsb: number, w: number): OperatingPoint;
   /** Valid voltage ranges of this slice. */
