@@ -9,7 +9,7 @@ import { makeContext, type SolveContext } from './context.js';
 import { screen } from './search/screen.js';
 import { evaluateOnce, refine, type Seen } from './search/refine.js';
 import { finalize, fullyOk, nominalOk, totalViolation, type Evaluated } from './evaluate/evaluate.js';
-import { compareDesigns, pickBest } from './search/rank.js';
+import { compareDesigns, pickBest, shortfall } from './search/rank.js';
 import { emptyResult, stackResult } from './result.js';
 import { nearestPoints } from './nearest.js';
 import { chooseResult } from './choose.js';
@@ -54,9 +54,11 @@ function near(objective: StackSpec['objective'], e: Evaluated, best: Evaluated):
  */
 function seedsOf(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[]): Evaluated[] {
   const ok = nominalOk(best) && fullyOk(ctx, best);
+  // Without a design meeting every corner, seed from those nearest to it over all corners (designs meeting
+  // the nominal targets but missing at another corner included: they are often the nearest).
   const rest = pool
-    .filter((e) => e !== best && (ok ? nominalOk(e) : !nominalOk(e)))
-    .sort((a, b) => (ok ? compareDesigns(ctx.spec.objective, a, b) : totalViolation(a) - totalViolation(b)));
+    .filter((e) => e !== best && (ok ? nominalOk(e) : true))
+    .sort((a, b) => (ok ? compareDesigns(ctx.spec.objective, a, b) : shortfall(ctx, a) - shortfall(ctx, b)));
   const lengths = (e: Evaluated) => e.cand.l.join(',');
   const taken = new Set([lengths(best)]);
   const seeds = [best];

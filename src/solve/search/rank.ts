@@ -1,6 +1,6 @@
 import { objectiveCompare, type Measures, type Objective } from '../../policy.js';
 import type { SolveContext } from '../context.js';
-import { fullyOk, nominalOk, totalViolation, type Evaluated } from '../evaluate/evaluate.js';
+import { ensureCorners, fullyOk, nominalOk, totalViolation, type Evaluated } from '../evaluate/evaluate.js';
 
 /** The measures a design is ordered by (nominal corner). */
 export function measuresOf(e: Evaluated): Measures {
@@ -14,17 +14,25 @@ export function compareDesigns(objective: Objective, a: Evaluated, b: Evaluated)
 
 /**
  * a better than b (b usually the incumbent): meeting every target at every
- * corner first, then the objective; otherwise the smaller shortfall. Corners
- * of a are only computed when a could win.
+ * corner first, then the objective; otherwise the smaller shortfall summed
+ * over every corner. Corners are computed on demand.
  */
 export function better(ctx: SolveContext, a: Evaluated, b: Evaluated): boolean {
   const obj = ctx.spec.objective;
   if (nominalOk(b) && fullyOk(ctx, b)) return nominalOk(a) && compareDesigns(obj, a, b) < 0 && fullyOk(ctx, a);
   if (nominalOk(a) && fullyOk(ctx, a)) return true;
+  // Neither meets everything: judge both by their shortfall at every corner, not only where it was computed,
+  // or a nominal-only shortfall would look smaller than one that includes a corner's miss.
   // Shortfalls within ~2 % of Rout (1 mV of headroom) tie, so the nearest design is not bought with huge area.
-  const va = Math.round(totalViolation(a) / 0.02);
-  const vb = Math.round(totalViolation(b) / 0.02);
+  const va = Math.round(shortfall(ctx, a) / 0.02);
+  const vb = Math.round(shortfall(ctx, b) / 0.02);
   return va < vb || (va === vb && compareDesigns(obj, a, b) < 0);
+}
+
+/** Shortfall summed over every corner of the spec (computes the corners if needed). */
+export function shortfall(ctx: SolveContext, e: Evaluated): number {
+  ensureCorners(ctx, e);
+  return totalViolation(e);
 }
 
 /**
