@@ -8,7 +8,7 @@ import { checkTableCover } from './table-cover.js';
 import { makeContext, type SolveContext } from './context.js';
 import { screen } from './search/screen.js';
 import { evaluateOnce, refine, type Seen } from './search/refine.js';
-import { finalize, fullyOk, nominalOk, totalViolation, type Evaluated } from './evaluate/evaluate.js';
+import { finalize, fullyOk, nominalOk, type Evaluated } from './evaluate/evaluate.js';
 import { compareDesigns, pickBest, shortfall } from './search/rank.js';
 import { emptyResult, stackResult } from './result.js';
 import { nearestPoints } from './nearest.js';
