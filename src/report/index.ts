@@ -23,3 +23,4 @@ export { stageVerdictText, stageVerdict, stagePredictedGrid, stageSquareLawGrid,
 export { renderConfirmText } from './confirm-text.js';
 export { confirmVerdict, confirmGrid, correctedGrid, missWords } from './confirm-rows.js';
 export type { Confirmation } from '../confirm/types.js';
+export { stageConfirmGrid, stageCorrectedGrid, stageConfirmChart } from './confirm-stage.js';

@@ -10,7 +10,7 @@ import { writeFilesAtomic } from '../../fsutil.js';
 import { EXIT } from '../../errors.js';
 import { note, out, packageVersion, readText, toJson, useColor } from '../io.js';
 import { checkSpiceFlags, confirmRun, spiceOptions, type SpiceFlags } from './size-spice.js';
-import { withCorrection } from '../../confirm/index.js';
+import { withCorrection, withStageCorrection } from '../../confirm/index.js';
 import { renderConfirmText, missWords, type Confirmation } from '../../report/index.js';
 
 interface SizeFlags extends SpiceFlags {
@@ -43,7 +43,8 @@ export function registerSize(program: Command): void {
       const spec = parseSpec(source, specPath);
       const kit = loadKit(spec.kit, { tables: f.tables });
       const run = sizeSpec(spec, kit);
-      const confirmations = f.spice ? await confirmRun(spec, run.result, kit, f) : undefined;
+      const confirmed = f.spice ? await confirmRun(spec, run.result, kit, f) : undefined;
+      const confirmations = confirmed?.stacks;
 
       // Build every output first, then write them together: nothing half-written.
       const files: Array<[string, string]> = [];
@@ -59,17 +60,17 @@ export function registerSize(program: Command): void {
         // Each stage gets its own deck beside it (its own .dc sweep of the input).
         const stem = f.netlist.slice(0, f.netlist.length - extname(f.netlist).length);
         for (const st of decidingStages(run.result)) {
-          if (st.input.devices.length > 0) files.push([`${stem}.${st.name}.cir`, stageNetlist(st, { supply: spec.supply })]);
+          if (st.input.devices.length > 0) files.push([`${stem}.${st.name}.cir`, stageNetlist(withStageCorrection(st, confirmed?.stages.find((c) => c.name === st.name)), { supply: spec.supply })]);
         }
       }
-      if (f.report) files.push([f.report, reportHtml(spec, source, kit, run, `stackwright ${packageVersion()}`, confirmations)]);
+      if (f.report) files.push([f.report, reportHtml(spec, source, kit, run, `stackwright ${packageVersion()}`, confirmations, confirmed?.stages)]);
       writeFilesAtomic(files, { force: f.force });
 
       if (f.json) out(toJson(run.stageFronts ? { ...run.result, fronts: run.fronts, stageFronts: run.stageFronts } : { ...run.result, fronts: run.fronts }));
       else {
         const stageGains = Object.fromEntries((spec.stages ?? []).map((st) => [st.name, st.gain]));
         out((f.brief ? renderSizeBrief : renderSizeText)(run.result, { color: useColor(), stageFronts: run.stageFronts, stageGains }));
-        if (confirmations) out(renderConfirmText(confirmations, run.result, spec, { color: useColor() }));
+        if (confirmed) out(renderConfirmText(confirmed.stacks, run.result, spec, { color: useColor() }, confirmed.stages));
       }
       for (const [path] of files) note(`wrote ${path}`);
       const failed = decidingResults(run.result).filter((s) => !s.feasible);
@@ -82,7 +83,7 @@ export function registerSize(program: Command): void {
         note(`infeasible: ${words.join('; ')}`);
         process.exitCode = EXIT.infeasible;
       }
-      const missed = (confirmations ?? []).filter((c) => !c.confirmed);
+      const missed = [...(confirmed?.stacks ?? []), ...(confirmed?.stages ?? [])].filter((c) => !c.confirmed);
       if (missed.length > 0) {
         note(`not confirmed in simulation: ${missed.map((c) => `${c.name} (${c.misses.map(missWords).join('; ') || 'no design step helps'})`).join('; ')}`);
         process.exitCode = EXIT.infeasible;

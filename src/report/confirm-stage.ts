@@ -1,0 +1,68 @@
+import type { StageSpec } from '../design/types.js';
+import type { StageResult } from '../solve/stage-types.js';
+import type { StageConfirmation } from '../confirm/stage-types.js';
+import { lineChart, targetLabel } from './chart.js';
+import { eng, formatArea } from './format.js';
+import type { Grid } from './rows.js';
+import { slug } from './svg.js';
+
+const gainText = (x: number) => (Number.isFinite(x) ? String(Number(x.toPrecision(4))) : '—');
+const volts = (x: number | null) => (x === null ? '—' : eng(x, 'V'));
+
+/** A stage's targets, table prediction and simulation side by side, one column pair per simulated corner. */
+export function stageConfirmGrid(c: StageConfirmation, stage: StageResult | undefined, spec: StageSpec | undefined): Grid {
+  const corners = c.simulated.corners;
+  const predictedAt = (corner: string) => stage?.corners?.find((x) => x.corner === corner)?.predicted ?? (corner === corners[0].corner ? stage?.predicted : undefined);
+  type Figures = { gain: number; vlow: number | null; vhigh: number | null; swing: number; vin: number };
+  const row = (label: string, target: string, pick: (x: Figures) => string) => [
+    label, target, ...corners.flatMap((f) => {
+      const p = predictedAt(f.corner);
+      return [p ? pick(p) : '—', pick(f)];
+    }),
+  ];
+  return {
+    headers: ['', 'target', ...corners.flatMap((f) => [`predicted ${f.corner}`, `simulated ${f.corner}`])],
+    rows: [
+      row('gain at the design point', spec ? `≥ ${gainText(spec.gain)} at ${eng(spec.output, 'V')}` : '—', (x) => gainText(x.gain)),
+      row('swing (gain ≥ target)', spec ? `≥ ${eng(spec.swing, 'V')}` : '—', (x) => eng(x.swing, 'V')),
+      row('vlow', '', (x) => volts(x.vlow)),
+      row('vhigh', '', (x) => volts(x.vhigh)),
+      row('input DC voltage', '', (x) => eng(x.vin, 'V')),
+    ],
+  };
+}
+
+/** A corrected stage's widths against the table design's. */
+export function stageCorrectedGrid(c: StageConfirmation, stage: StageResult | undefined): Grid | undefined {
+  if (!c.corrected || !stage) return undefined;
+  const change = (a: number, b: number) => `${b >= a ? '+' : ''}${Number((100 * (b / a - 1)).toFixed(1))} %`;
+  const rows: string[][] = [];
+  for (const kind of ['input', 'load'] as const) {
+    const was = stage[kind];
+    const now = c.corrected[kind];
+    now.devices.forEach((d, k) => rows.push([`${kind} ${d.role}`, eng(was.devices[k]?.w ?? NaN, 'm'), eng(d.w, 'm'), was.devices[k] ? change(was.devices[k].w, d.w) : '—', eng(d.l, 'm')]));
+    now.bias.forEach((b, k) => rows.push([`${kind} bias for ${b.drives}`, eng(was.bias[k]?.w ?? NaN, 'm'), eng(b.w, 'm'), was.bias[k] ? change(was.bias[k].w, b.w) : '—', eng(b.l, 'm')]));
+  }
+  rows.push(['area (output devices)', formatArea(stage.predicted.area), formatArea(c.corrected.area), change(stage.predicted.area, c.corrected.area), '']);
+  return { headers: ['device', 'W (tables)', 'W (corrected)', 'change', 'L'], rows };
+}
+
+/** The simulated gain against output voltage over the predicted one, with the gain target and the simulated swing. */
+export function stageConfirmChart(c: StageConfirmation, stage: StageResult, spec?: StageSpec): string {
+  const sim = c.simulated.corners.map((f, k) => ({
+    name: `ngspice ${f.corner}${c.corrected ? ', corrected' : ''}`,
+    points: f.curve.filter((p) => p.gain > 0).map((p) => ({ x: p.vout, y: p.gain })),
+    dash: k === 0 ? undefined : '6 3',
+  }));
+  const s = c.simulated;
+  return lineChart({
+    id: slug(`confirm-stage-${stage.name}-gain`),
+    title: `Gain against output voltage, simulated over predicted — ${stage.name}`,
+    subtitle: `predicted from the lookup tables, simulated in ngspice with bias diodes (input swept, output held on a sweep)`,
+    x: { label: 'output voltage', unit: 'V' },
+    y: { label: 'gain |dVout/dVin|', unit: '', scale: 'log' },
+    series: [{ name: 'tables (predicted)', points: stage.curve.filter((p) => p.gain > 0).map((p) => ({ x: p.vout, y: p.gain })) }, ...sim],
+    targets: spec ? [{ axis: 'y' as const, value: spec.gain, label: targetLabel('gain target', spec.gain, '') }] : [],
+    regions: s.vlow !== null && s.vhigh !== null ? [{ x: [s.vlow, s.vhigh], label: `simulated swing ${(s.swing * 1000).toFixed(0)} mV` }] : [],
+  });
+}
