@@ -58,7 +58,7 @@ export function stageConfirmChart(c: StageConfirmation, stage: StageResult, spec
   return lineChart({
     id: slug(`confirm-stage-${stage.name}-gain`),
     title: `Gain against output voltage, simulated over predicted — ${stage.name}`,
-    subtitle: `predicted from the lookup tables, simulated in ngspice with bias diodes (input swept, output held on a sweep)`,
+    subtitle: "lookup tables against ngspice (bias diodes, input set so the output steps along a sweep)",
     x: { label: 'output voltage', unit: 'V' },
     y: { label: 'gain |dVout/dVin|', unit: '', scale: 'log' },
     series: [{ name: 'tables (predicted)', points: stage.curve.filter((p) => p.gain > 0).map((p) => ({ x: p.vout, y: p.gain })) }, ...sim],

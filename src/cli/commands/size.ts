@@ -36,7 +36,7 @@ export function registerSize(program: Command): void {
     .option('--report <file.html>', 'write a self-contained HTML report')
     .option('--force', 'overwrite existing output files');
   spiceOptions(cmd)
-    .addHelpText('after', '\nExit status: 0 every stack feasible (and confirmed with --spice), 3 a stack infeasible (or not confirmed in simulation), 2 bad input.\nExample:\n  stackwright size demo-tables/specs/marsh-wren.yaml --report report.html\n  stackwright size demo-tables/specs/marsh-wren-spice.yaml --spice --include demo-tables/reed180/reed180.lib --model-n nfet_reed --model-p pfet_reed\n')
+    .addHelpText('after', '\nExit status: 0 every stack and stage feasible (and confirmed with --spice), 3 one infeasible (or not confirmed in simulation), 2 bad input.\nExample:\n  stackwright size demo-tables/specs/marsh-wren.yaml --report report.html\n  stackwright size demo-tables/specs/marsh-wren-spice.yaml --spice --include demo-tables/reed180/reed180.lib --model-n nfet_reed --model-p pfet_reed\n')
     .action(async (specPath: string, f: SizeFlags) => {
       checkSpiceFlags(f, (flag) => cmd.getOptionValueSource(flag) === 'cli');
       const source = readText(specPath, 'spec file');
