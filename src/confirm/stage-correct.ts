@@ -52,11 +52,19 @@ export function stageCorrections(inp: StageStepInput, misses: readonly Miss[]): 
   const residual = target === 'gain' ? Math.log((inp.spec.gain * GAIN_AIM) / Math.max(f.gain, 1e-9)) : inp.spec.swing + SWING_AIM - f.swing;
   const base = tableFigure(inp.design, inp, f.corner, target);
   const out: StageResult[] = [];
-  for (const knob of stageKnobs(inp.design)) {
+  const newton: Array<[StageKnob, number]> = [];
+  const knobs = stageKnobs(inp.design);
+  for (const knob of knobs) {
     const moved = base === null ? null : tableFigure(turnStage(inp.design, knob, DELTA), inp, f.corner, target);
     const slope = base !== null && moved !== null ? (moved - base) / DELTA : 0;
-    const moves = Math.abs(slope) * MAX_MOVE > Math.abs(residual) * 0.1 ? SCALES.map((s) => clamp((s * residual) / slope, -MAX_MOVE, MAX_MOVE)) : BLIND;
-    for (const x of new Set(moves)) out.push(turnStage(inp.design, knob as StageKnob, x));
+    const sloped = Math.abs(slope) * MAX_MOVE > Math.abs(residual) * 0.1;
+    if (sloped) newton.push([knob, residual / slope]);
+    const moves = sloped ? SCALES.map((s) => clamp((s * residual) / slope, -MAX_MOVE, MAX_MOVE)) : BLIND;
+    for (const x of new Set(moves)) out.push(turnStage(inp.design, knob, x));
+  }
+  // The residual shared among every sloped knob at once (each end of the swing has its own side), once and twice over.
+  if (newton.length > 1) {
+    for (const s of [1, 2]) out.push(newton.reduce((d, [knob, x]) => turnStage(d, knob, clamp((s * x) / newton.length, -MAX_MOVE, MAX_MOVE)), inp.design));
   }
   return out;
 }

@@ -9,15 +9,20 @@ import type { StageResult, StageSide } from '../solve/stage-types.js';
  *  - `inputTop` / `loadTop`: the width of a side's top (cascode) device: at its
  *    fixed gate it sits at a lower overdrive, more gm/ID and intrinsic gain,
  *    so that side's Rout and the gain rise (area too).
- * A side without a cascode has neither.
+ *  - `inputWidth`: the input device's width: with the output held, the current
+ *    stays the load's, so the input device sits at a lower overdrive: less
+ *    VDSsat (the input side's end of the swing moves out) and more gm (gain);
+ *  - `loadWidth`: every load device and its bias diodes together: same
+ *    current, lower overdrive, less VDSsat at the load side's end.
+ * A side without a cascode has no setpoint or top knob.
  */
-export type StageKnob = 'inputSetpoint' | 'loadSetpoint' | 'inputTop' | 'loadTop';
+export type StageKnob = 'inputSetpoint' | 'loadSetpoint' | 'inputTop' | 'loadTop' | 'inputWidth' | 'loadWidth';
 
 const sideOf = (knob: StageKnob): 'input' | 'load' => (knob.startsWith('input') ? 'input' : 'load');
 
 /** Knobs this stage has (sides with a cascode device and its bias diode). */
 export function stageKnobs(stage: StageResult): StageKnob[] {
-  const out: StageKnob[] = [];
+  const out: StageKnob[] = ['inputWidth', 'loadWidth'];
   for (const kind of ['input', 'load'] as const) {
     const side = stage[kind];
     if (side.devices.length < 2) continue;
@@ -41,10 +46,15 @@ export function turnStage(stage: StageResult, knob: StageKnob, x: number): Stage
   if (x === 0) return stage;
   const kind = sideOf(knob);
   const side = copySide(stage[kind]);
-  if (knob.endsWith('Setpoint')) {
+  const f = Math.exp(x);
+  if (knob === 'inputWidth') side.devices[0].w *= f;
+  else if (knob === 'loadWidth') {
+    for (const d of side.devices) d.w *= f;
+    for (const b of side.bias) b.w *= f;
+  } else if (knob.endsWith('Setpoint')) {
     const k = topDiode(side);
-    if (k >= 0) side.bias[k].w *= Math.exp(x);
-  } else side.devices[side.devices.length - 1].w *= Math.exp(x);
+    if (k >= 0) side.bias[k].w *= f;
+  } else side.devices[side.devices.length - 1].w *= f;
   return { ...stage, [kind]: side };
 }
 
