@@ -1,6 +1,7 @@
 /**
- * `npm run bench`: speed against baselines measured in the same run, medians of
- * repeated runs (the machines are shared and noisy). MISS is reported, not an
+ * `npm run bench`: speed against baselines measured in the same run, medians and
+ * ranges of repeated runs (the machines are shared and noisy); whole-process rows
+ * run A/B interleaved. MISS is reported, not an
  * exit failure. Results also go to test-output/bench.json.
  */
 import { mkdirSync, renameSync, writeFileSync } from 'node:fs';
@@ -8,13 +9,17 @@ import { cpus } from 'node:os';
 import { join } from 'node:path';
 import { packageRoot } from '../src/table/locate.js';
 import { buildDemoTables } from './build-demo-tables.js';
-import { benchIngest, benchInterp, benchKitLoad, benchProbe, benchSize, benchSpice, renderRows, type BenchRow } from './bench/index.js';
+import { benchIngest, benchSliceLookups, benchKitLoad, benchProbe, benchSize, benchSpice, renderRows, type BenchRow } from './bench/index.js';
 import { msSince } from './bench/stats.js';
 
 const log = (s: string) => process.stderr.write(s + '\n');
 
 /** A section that throws becomes one ERROR row, so the others still run. */
+/** Sections named on the command line (by letter, e.g. `b c d`), or all. */
+const only = process.argv.slice(2);
+
 function section(name: string, run: () => BenchRow[]): BenchRow[] {
+  if (only.length > 0 && !only.includes(name.split(' ')[0])) return [];
   try {
     return run();
   } catch (e) {
@@ -31,7 +36,7 @@ function main(): void {
   const t0 = process.hrtime.bigint();
   const rows = [
     ...section('a ingest', () => benchIngest({ root, log })),
-    ...section('b queries', () => benchInterp({ root, log })),
+    ...section('b lookups', () => benchSliceLookups({ root, log })),
     ...section('c probe', () => benchProbe({ root, log })),
     ...section('d size', () => benchSize({ root, log })),
     ...section('e kit load', () => benchKitLoad({ root, log })),

@@ -9,9 +9,10 @@ import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { buildDemoTables } from './build-demo-tables.js';
 import { packageRoot } from '../src/table/locate.js';
+import { cliPath } from './cli-path.js';
 
 const root = packageRoot();
-const cli = join(root, 'dist', 'src', 'cli', 'main.js');
+const cli = cliPath(root);
 const spec = join('demo-tables', 'specs', 'marsh-wren.yaml');
 const outDir = 'demo-output';
 

@@ -1,6 +1,5 @@
-import { closeSync, existsSync, fsyncSync, linkSync, mkdirSync, openSync, renameSync, rmSync, writeSync } from 'node:fs';
-import { dirname, basename, join } from 'node:path';
-import { randomBytes } from 'node:crypto';
+import { closeSync, existsSync, fsyncSync, linkSync, mkdirSync, openSync, renameSync, rmSync, statSync, writeSync } from 'node:fs';
+import { dirname, basename, join, resolve } from 'node:path';
 import { StackwrightError } from './errors.js';
 
 /** File content: text, bytes, or pieces of bytes written one after another (no joined copy). */
@@ -47,19 +46,23 @@ function refuseExisting(paths: readonly string[]): void {
   }
 }
 
-/** Create the folder and write `data` to a synced temp file beside `path`; returns the temp path. */
-function stage(path: string, data: FileData): string {
-  const dir = dirname(path);
+/** Create a folder (and its parents) for output, or say why not: `--out /proc/x` fails at once. */
+export function ensureFolder(dir: string): void {
   try {
-    mkdirSync(dir, { recursive: true });
+    makeFolders(dir);
   } catch (e) {
-    // mkdir -p reports a plain file at the folder's own name as EEXIST, which reads as if the folder existed.
     const why = (e as NodeJS.ErrnoException).code === 'EEXIST' ? 'a file of that name is in the way (EEXIST)' : reason(e);
     throw new StackwrightError(`cannot create folder ${dir}: ${why}`);
   }
-  const tmp = join(dir, `.${basename(path)}.${process.pid}.${randomBytes(4).toString('hex')}.tmp`);
+}
+
+/** Create the folder and write `data` to a synced temp file beside `path`; returns the temp path. */
+function stage(path: string, data: FileData): string {
+  const dir = dirname(path);
+  ensureFolder(dir);
+  const tmp = join(dir, `.${basename(path)}.${process.pid}.${tmpTag()}.tmp`);
   try {
-    const fd = openSync(tmp, 'w');
+    const fd = openSync(tmp, 'wx'); // exclusive: never write into someone else's file
     try {
       const pieces = typeof data === 'string' ? [Buffer.from(data, 'utf8')] : data instanceof Uint8Array ? [data] : data;
       for (const buf of pieces) {
@@ -75,6 +78,16 @@ function stage(path: string, data: FileData): string {
     throw new StackwrightError(`cannot write ${path}: ${reason(e)}`);
   }
   return tmp;
+}
+
+let tmpCount = 0;
+/**
+ * Distinct per call in this process (the pid separates processes). Not node:crypto:
+ * loading it costs every command start-up ~10 ms, and a temp name needs no secrecy.
+ */
+function tmpTag(): string {
+  tmpCount += 1;
+  return `${tmpCount.toString(36)}${Math.floor(Math.random() * 0x100000000).toString(16)}`;
 }
 
 /**
@@ -125,4 +138,32 @@ function reason(e: unknown): string {
   const m = /^[A-Z0-9_]+: ([^,]+)/.exec(msg);
   if (m && err.code) return `${m[1]} (${err.code})`;
   return err?.code ? `${msg} (${err.code})` : msg;
+}
+
+/**
+ * `mkdir -p` one level at a time from the nearest existing ancestor. Node's own
+ * recursive mkdir loops without end where mkdir answers ENOENT for a parent that
+ * exists (as under /proc), so a bad output path would hang instead of failing.
+ * Throws the first mkdir error as it is (with its code).
+ */
+function makeFolders(dir: string): void {
+  const missing: string[] = [];
+  let at = resolve(dir);
+  for (;;) {
+    try {
+      statSync(at);
+      break; // exists; mkdir below reports a file in the way as EEXIST / ENOTDIR
+    } catch (e) {
+      if ((e as NodeJS.ErrnoException).code !== 'ENOENT') throw e;
+    }
+    missing.push(at);
+    const up = dirname(at);
+    if (up === at) break;
+    at = up;
+  }
+  if (missing.length === 0) {
+    if (!statSync(at).isDirectory()) mkdirSync(at); // throws EEXIST: a file is in the way
+    return;
+  }
+  for (const d of missing.reverse()) mkdirSync(d);
 }

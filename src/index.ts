@@ -18,7 +18,8 @@ export { TOPOLOGIES, registerTopology, topologyOf, topologyNames } from './topol
 export type { TopologyDescriptor, ScreenTools, StageOption, StageBias, Candidate } from './topology/index.js';
 export type { DesignSpec, StackSpec, Topology, Objective, StageSpec, StageSideSpec, InputTopology, StageObjective } from './design/index.js';
 export { sizeDesign, evaluateAtCorner, paretoFront, pelgromSigma, CAUTION } from './solve/index.js';
-export { kitAccessFromTables } from './solve/kit-tables.js';
+export { kitAccessFromTables, kitAccessFromSources } from './solve/kit-tables.js';
+export type { TableSource } from './solve/kit-tables.js';
 export type { KitAccess, SizeResult, StackResult, DeviceResult, BiasResult, CurvePoint, Predicted, CornerResult, FrontPoint, Verdict, VerdictTarget } from './solve/index.js';
 export { stackNetlist, designNetlist } from './spice/index.js';
 export { confirmStacks, confirmItems, stackItem, withCorrection } from './confirm/index.js';

@@ -39,7 +39,8 @@ const missed: Confirmation = {
 describe('size --spice rendering', () => {
   it('text: targets, prediction and simulation per corner, corrected sizes, misses in words; never NaN/Infinity/undefined', () => {
     const text = renderConfirmText([confirmed, missed], input.size, input.spec.parsed, { color: false });
-    expect(text).toMatch(/predicted tt +simulated tt +predicted ss +simulated ss +predicted ff +simulated ff/);
+    expect(text).toMatch(/predicted tt +simulated tt \(corrected\) +predicted ss +simulated ss \(corrected\) +predicted ff +simulated ff \(corrected\)/);
+    expect(text).toMatch(/predicted tt +simulated tt +predicted ss +simulated ss +predicted ff +simulated ff\n/);
     expect(text).toMatch(/W \(tables\) +W \(corrected\) +change/);
     expect(text).toMatch(/\+5 %/);
     expect(text).toContain('confirmed in simulation after correction (2 simulated rounds)');

@@ -96,6 +96,43 @@ describe('slice interpolation', () => {
     }
   });
 
+  it('gives jd and its exact slopes from one lookup (jdSlopes), the analytic ones where the scheme is exact', () => {
+    // Weak inversion id ∝ exp(vgs/(n·UT)) (Tsividis, Operation and Modeling of the MOS Transistor): ∂id/∂vgs = id/(n·UT).
+    // Linear in vds and vsb, which the bilinear part reproduces exactly, so ∂/∂vds and ∂/∂vsb are the analytic ones.
+    const n = 1.4;
+    const ut = 0.025852;
+    const lam = 0.08;
+    const kb = 0.2;
+    const f = (g: number, d: number, s: number) => 1e-12 * Math.exp(g / (n * ut)) * (1 + lam * d) * (1 - kb * s);
+    const wi = build({ l: [1e-6, 2e-6], vgs: [0, 0.1, 0.25, 0.3], vds: [0.5, 0.8, 1], vsb: [0, 0.5] }, (_l, g, d, s) => {
+      const id = f(g, d, s);
+      return { id, gm: id / (n * ut), gds: id * lam / (1 + lam * d), gmb: id * kb / (1 - kb * s) };
+    });
+    const s = sliceAt(wi, 1e-6);
+    const out = new Float64Array(4);
+    for (const [g, d, b] of [[0.05, 0.6, 0.1], [0.137, 0.93, 0.37], [0.2999, 0.5, 0]]) {
+      s.jdSlopes(g, d, b, out);
+      expect(out[0]).toBe(s.jd(g, d, b)); // the same current Newton's residuals use
+      const two = new Float64Array(2);
+      s.jdGm(g, d, b, two);
+      expect(two[1] / two[0]).toBeCloseTo(1 / (n * ut), 10); // gm/ID = 1/(n·UT) in weak inversion (Tsividis)
+      expect([...two]).toEqual([...s.small(g, d, b)].slice(0, 2)); // jdGm gives small()'s own first two values
+      const id = f(g, d, b) / 1e-6;
+      expect(out[1] / (id / (n * ut))).toBeCloseTo(1, 10);
+      expect(out[2] / ((id * lam) / (1 + lam * d))).toBeCloseTo(1, 10);
+      expect(out[3] / ((-id * kb) / (1 - kb * b))).toBeCloseTo(1, 10);
+    }
+    // Elsewhere: the central difference of jd inside one cell, O(h²) (common practice).
+    const q = sliceAt(sq, 1.3e-6);
+    const h = 1e-6;
+    for (const [g, d, b] of [[0.713, 0.62, 0.13], [1.204, 1.17, 0.41]]) {
+      q.jdSlopes(g, d, b, out);
+      expect(out[1] / ((q.jd(g + h, d, b) - q.jd(g - h, d, b)) / (2 * h))).toBeCloseTo(1, 5);
+      expect(out[2] / ((q.jd(g, d + h, b) - q.jd(g, d - h, b)) / (2 * h))).toBeCloseTo(1, 5);
+      expect(out[3] / ((q.jd(g, d, b + h) - q.jd(g, d, b - h)) / (2 * h))).toBeCloseTo(1, 5);
+    }
+  });
+
   it('is bounded by the neighbouring nodes along VGS and by the neighbouring lengths', () => {
     // Geometric and linear means of two numbers lie between them (common practice).
     const s = sliceAt(sq, 1e-6);

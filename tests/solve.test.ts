@@ -171,12 +171,14 @@ describe('auto topology and the Pareto front', () => {
     expect(r.results[1].feasible).toBe(true);
   });
 
-  it('no front point is dominated by another (headroom ↓, Rout ↑, area ↓)', () => {
+  // The front holds each topology's own Pareto points (meant to change: the chosen topology must show
+  // in the chart even where another topology dominates it), so dominance is checked within a topology.
+  it('no front point is dominated by another of its topology (headroom ↓, Rout ↑, area ↓)', () => {
     expect(r.front.length).toBeGreaterThan(3);
     // Pareto dominance, written out independently of the library's helper.
     const dom = (a: FrontPoint, b: FrontPoint) =>
       a.headroom <= b.headroom && a.rout >= b.rout && a.area <= b.area && (a.headroom < b.headroom || a.rout > b.rout || a.area < b.area);
-    for (const a of r.front) for (const b of r.front) expect(dom(a, b)).toBe(false);
+    for (const a of r.front) for (const b of r.front) if (a.topology === b.topology) expect(dom(a, b)).toBe(false);
     expect(new Set(r.front.map((p) => p.topology)).size).toBeGreaterThan(1);
     for (const p of r.front) expect(p.devices.every((d) => d.l > 0 && d.gmid > 0)).toBe(true);
   });

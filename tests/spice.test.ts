@@ -28,8 +28,8 @@ function spiceNumber(text: string): number {
   return Number(m[1]) * (m[2] ? SPICE3[m[2].toLowerCase()] : 1);
 }
 
-// SPICE3 MOSFET element line: Mname nd ng ns nb model W=.. L=..
-const M_LINE = /^m\S*\s+(\S+)\s+(\S+)\s+(\S+)\s+(\S+)\s+([A-Za-z_]\S*)\s+W=(\S+)\s+L=(\S+)\s*$/i;
+// SPICE3 MOSFET element line: Mname nd ng ns nb model W=.. L=.. [m=..] (m: parallel instances, SPICE3 manual)
+const M_LINE = /^m\S*\s+(\S+)\s+(\S+)\s+(\S+)\s+(\S+)\s+([A-Za-z_]\S*)\s+W=(\S+)\s+L=(\S+)(?:\s+m=(\d+))?\s*$/i;
 const mLines = (net: string) => net.split('\n').filter((l) => /^m/i.test(l));
 const elementLines = (net: string) => net.split('\n').filter((l) => l.trim() !== '' && !l.startsWith('*') && !l.startsWith('.'));
 
@@ -51,7 +51,8 @@ describe('stackNetlist text', () => {
       s.devices.forEach((d) => {
         const line = lines.find((l) => l.startsWith(`m_s1_${d.role} `))!;
         const m = M_LINE.exec(line)!;
-        expect(spiceNumber(m[6])).toBeCloseTo(d.w, 12);
+        // Wide devices are split into m fingers: total width W·m.
+        expect(spiceNumber(m[6]) * Number(m[8] ?? 1)).toBeCloseTo(d.w, 12);
         expect(spiceNumber(m[7])).toBeCloseTo(d.l, 12);
         expect(m[5]).toBe(s.device === 'n' ? 'nch_test' : 'pch_test');
       });

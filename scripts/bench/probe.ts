@@ -1,39 +1,33 @@
-/** (c) `probe` start to finish against bare node start-up, interleaved so drift hits both alike. */
+/** (c) `probe` whole process against bare node start-up, A/B interleaved. */
 import { existsSync } from 'node:fs';
-import { join } from 'node:path';
+import { pairedSpawns, showSample } from './paired.js';
 import { verdict, type BenchRow } from './result.js';
-import { timeSpawn } from './spawn-time.js';
-import { median } from './stats.js';
+import { cliPath } from '../cli-path.js';
 
 export const PROBE_ARGS = ['probe', '--kit', 'demo180', '--device', 'n', '--l', '0.5u', '--gmid', '12'];
 
-export function benchProbe(opts: { root: string; runs?: number; log?: (s: string) => void }): BenchRow[] {
-  const runs = opts.runs ?? 15;
-  const cli = join(opts.root, 'dist', 'src', 'cli', 'main.js');
+export function benchProbe(opts: { root: string; pairs?: number; log?: (s: string) => void }): BenchRow[] {
+  const pairs = opts.pairs ?? 11;
+  const cli = cliPath(opts.root);
   const row: BenchRow = {
-    section: 'c probe', measured: 'probe --kit demo180 --device n --l 0.5u --gmid 12', unit: 'ms',
-    baseline: null, baselineLabel: 'node -e 0', ours: null, ratio: null, target: '<= 3x', status: 'ERROR',
+    section: 'c probe', measured: 'probe --kit demo180 --device n --l 0.5u --gmid 12, whole process', unit: 'ms',
+    baseline: null, baselineLabel: 'node -e 0', ours: null, ratio: null, target: '<= 1.5x', status: 'ERROR',
   };
   if (!existsSync(cli)) {
-    row.note = `${cli} not built (run tsc first)`;
+    row.note = `${cli} not built (run npm run build first)`;
     return [row];
   }
-  const bare: number[] = [];
-  const ours: number[] = [];
-  for (let i = 0; i < runs; i++) {
-    bare.push(timeSpawn(process.execPath, ['-e', '0'], opts.root).ms);
-    const r = timeSpawn(process.execPath, [cli, ...PROBE_ARGS], opts.root);
-    if (r.status !== 0) {
-      row.note = `probe exited ${r.status}: ${r.stderr.trim().split('\n').pop() ?? ''}`;
-      return [row];
-    }
-    ours.push(r.ms);
+  try {
+    const p = pairedSpawns(['-e', '0'], [cli, ...PROBE_ARGS], opts.root, pairs);
+    row.baseline = p.a.median;
+    row.ours = p.b.median;
+    row.ratio = p.ratio;
+    row.status = verdict(p.ratio, (x) => x <= 1.5);
+    row.note = `${pairs} A/B pairs interleaved, spawn to exit; medians (ranges): node -e 0 ${showSample(p.a)}, probe ${showSample(p.b)}; ` +
+      `per-pair ratio ${p.ratioRange[0].toFixed(2)}–${p.ratioRange[1].toFixed(2)}`;
+    opts.log?.(`probe: node -e 0 ${showSample(p.a)}, probe ${showSample(p.b)}`);
+  } catch (e) {
+    row.note = (e as Error).message.split('\n')[0];
   }
-  row.baseline = median(bare);
-  row.ours = median(ours);
-  row.ratio = row.ours / row.baseline;
-  row.status = verdict(row.ratio, (x) => x <= 3);
-  row.note = `median of ${runs} runs each, interleaved; spawn to exit`;
-  opts.log?.(`probe: node -e 0 ${row.baseline.toFixed(0)} ms, probe ${row.ours.toFixed(0)} ms (medians)`);
   return [row];
 }

@@ -50,9 +50,9 @@ function parseStage(s: Record<string, unknown>, path: Path, supply: number, fail
 
 function parseSide(s: Record<string, unknown>, path: Path, fail: Fail): StageSideSpec {
   const out: StageSideSpec = {};
-  if (s.l !== undefined) out.l = parseRange(s.l, [...path, 'l'], fail, true);
+  if (s.l !== undefined) out.l = parseRange(s.l, [...path, 'l'], fail, true, 'm');
   if (s.gmid !== undefined) {
-    const g = parseRange(s.gmid, [...path, 'gmid'], fail, false);
+    const g = parseRange(s.gmid, [...path, 'gmid'], fail, false, '1/V');
     out.gmid = { min: g.min, max: g.max };
   }
   if (s.bias !== undefined) out.biasCurrent = requireNumber(s, 'bias', path, fail, { positive: true });

@@ -1,6 +1,6 @@
 import { LineCounter, isMap, isSeq, parseDocument, type Node as YamlNode } from 'yaml';
 import { StackwrightError } from '../errors.js';
-import { parseEng } from '../units/index.js';
+import { formatEng, parseEng } from '../units/index.js';
 import type { Polarity } from '../table/types.js';
 import { parseStages } from './parse-stage.js';
 import { topologyNames } from '../topology/index.js';
@@ -9,6 +9,21 @@ import type { DesignSpec, Objective, StackSpec, Topology } from './types.js';
 const TOP_KEYS = ['kit', 'corner', 'supply', 'stacks', 'stages'];
 const STACK_KEYS = ['name', 'device', 'topology', 'current', 'rout', 'headroom', 'span', 'l', 'gmid', 'objective', 'mismatch', 'bias', 'wmax'];
 const OBJECTIVES: Objective[] = ['area', 'headroom', 'rout'];
+/**
+ * Stack names become parts of file names (`--front f.csv` writes `f.<name>.svg`), and the
+ * kit name a folder, so both are kept plain: no path separators, no leading dot.
+ */
+const NAME = /^[A-Za-z0-9_][A-Za-z0-9._-]{0,63}$/;
+const NAME_RULE = 'letters, digits, ".", "_" and "-", starting with a letter, digit or "_", at most 64 characters';
+/** Kit names as the table files allow them (src/table/validate.ts). */
+const KIT_NAME = /^[A-Za-z0-9_+][A-Za-z0-9._+-]*$/;
+/**
+ * Each alias may be expanded at most this many times in total. A spec has no need of
+ * more, and nested aliases otherwise grow exponentially (the "billion laughs" pattern).
+ */
+export const MAX_ALIAS_COUNT = 100;
+/** Units of the numeric keys, for messages. */
+const UNIT: Record<string, string> = { supply: 'V', current: 'A', rout: 'Ω', headroom: 'V', span: 'V', bias: 'A' };
 
 export type Path = Array<string | number>;
 
@@ -34,7 +49,14 @@ export function parseSpec(text: string, file: string): DesignSpec {
     const where = pos ? `${file}:${pos.line}:${pos.col}` : file;
     throw new StackwrightError(`not valid YAML/JSON: ${e.message.split('\n')[0]}`, { where });
   }
-  const root = doc.toJS() as unknown;
+  let root: unknown;
+  try {
+    root = doc.toJS({ maxAliasCount: MAX_ALIAS_COUNT });
+  } catch (e) {
+    // The yaml library throws a ReferenceError when aliases expand past the cap.
+    if (!(e instanceof ReferenceError)) throw e;
+    throw new StackwrightError(`YAML aliases expand too far (more than ${MAX_ALIAS_COUNT} alias uses); write the values out`, { where: file });
+  }
 
   const locate = (path: Path): string => {
     let node: unknown = doc.contents;
@@ -60,6 +82,7 @@ export function parseSpec(text: string, file: string): DesignSpec {
   checkKeys(top, TOP_KEYS, [], fail);
 
   const kit = requireString(top, 'kit', [], fail);
+  if (!KIT_NAME.test(kit)) fail(['kit'], `kit names use letters, digits, ".", "_", "+" and "-", not starting with "." or "-"; got ${JSON.stringify(kit)}`);
   const supply = requireNumber(top, 'supply', [], fail, { positive: true });
   const corners = parseCorners(top.corner, fail);
 
@@ -84,6 +107,7 @@ export function parseSpec(text: string, file: string): DesignSpec {
 
 function parseStack(s: Record<string, unknown>, path: Path, supply: number, fail: Fail): StackSpec {
   const name = requireString(s, 'name', path, fail);
+  if (!NAME.test(name)) fail([...path, 'name'], `stack names use ${NAME_RULE}; got ${JSON.stringify(name)}`);
   const device = requireString(s, 'device', path, fail) as Polarity;
   if (device !== 'n' && device !== 'p') fail([...path, 'device'], `expected n (sink to ground) or p (source from supply), got "${device}"`);
   const topology = (s.topology === undefined ? 'auto' : String(s.topology)) as Topology | 'auto';
@@ -94,14 +118,14 @@ function parseStack(s: Record<string, unknown>, path: Path, supply: number, fail
   const rout = requireNumber(s, 'rout', path, fail, { positive: true });
   const headroom = requireNumber(s, 'headroom', path, fail, { positive: true });
   const span = s.span === undefined ? supply : requireNumber(s, 'span', path, fail, { positive: true });
-  if (span > supply) fail([...path, 'span'], `span ${span} V exceeds the supply ${supply} V`);
-  if (headroom >= span) fail([...path, 'headroom'], `headroom ${headroom} V must be below span ${span} V`);
+  if (span > supply) fail([...path, 'span'], `span ${volts(span)} exceeds the supply ${volts(supply)}`);
+  if (headroom >= span) fail([...path, 'headroom'], `headroom ${volts(headroom)} must be below span ${volts(span)}`);
   const objective = (s.objective === undefined ? 'area' : String(s.objective)) as Objective;
   if (!OBJECTIVES.includes(objective)) fail([...path, 'objective'], `expected one of ${OBJECTIVES.join(', ')}, got "${objective}"`);
   const out: StackSpec = { name, device, topology, current, rout, headroom, span, objective };
-  if (s.l !== undefined) out.l = parseRange(s.l, [...path, 'l'], fail, true) as StackSpec['l'];
+  if (s.l !== undefined) out.l = parseRange(s.l, [...path, 'l'], fail, true, 'm') as StackSpec['l'];
   if (s.gmid !== undefined) {
-    const g = parseRange(s.gmid, [...path, 'gmid'], fail, false);
+    const g = parseRange(s.gmid, [...path, 'gmid'], fail, false, '1/V');
     out.gmid = { min: g.min, max: g.max };
   }
   if (s.mismatch !== undefined) out.mismatch = parsePercent(s.mismatch, [...path, 'mismatch'], fail);
@@ -111,6 +135,12 @@ function parseStack(s: Record<string, unknown>, path: Path, supply: number, fail
 }
 
 export type Fail = (path: Path, message: string) => never;
+
+/** A value for a message: engineering notation with its unit, 4 significant digits. */
+function show(x: number, unit: string): string {
+  return unit === '1/V' ? `${Number(x.toPrecision(4))} 1/V` : formatEng(x, unit, 4);
+}
+const volts = (x: number): string => show(x, 'V');
 
 export function isObject(x: unknown): x is Record<string, unknown> {
   return typeof x === 'object' && x !== null && !Array.isArray(x);
@@ -142,11 +172,11 @@ export function requireNumber(obj: Record<string, unknown>, key: string, path: P
   const v = obj[key];
   if (v === undefined) return fail([...path, key], 'required key is missing');
   const x = number(v, [...path, key], fail);
-  if (opts.positive && !(x > 0)) fail([...path, key], `expected a positive value, got ${x}`);
+  if (opts.positive && !(x > 0)) fail([...path, key], `expected a positive value, got ${show(x, UNIT[key] ?? '')}`);
   return x;
 }
 
-export function parseRange(v: unknown, path: Path, fail: Fail, allowStep: boolean): { min: number; max: number; step?: number } {
+export function parseRange(v: unknown, path: Path, fail: Fail, allowStep: boolean, unit: string): { min: number; max: number; step?: number } {
   let min: unknown, max: unknown, step: unknown;
   if (Array.isArray(v)) {
     if (v.length !== 2 && !(allowStep && v.length === 3)) {
@@ -163,12 +193,12 @@ export function parseRange(v: unknown, path: Path, fail: Fail, allowStep: boolea
   }
   const lo = number(min, [...path, 'min'], fail);
   const hi = number(max, [...path, 'max'], fail);
-  if (!(lo > 0)) fail([...path, 'min'], `expected a positive value, got ${lo}`);
-  if (!(hi >= lo)) fail([...path, 'max'], `max ${hi} is below min ${lo}`);
+  if (!(lo > 0)) fail([...path, 'min'], `expected a positive value, got ${show(lo, unit)}`);
+  if (!(hi >= lo)) fail([...path, 'max'], `max ${show(hi, unit)} is below min ${show(lo, unit)}`);
   const out: { min: number; max: number; step?: number } = { min: lo, max: hi };
   if (step !== undefined) {
     out.step = number(step, [...path, 'step'], fail);
-    if (!(out.step > 0)) fail([...path, 'step'], `expected a positive step, got ${out.step}`);
+    if (!(out.step > 0)) fail([...path, 'step'], `expected a positive step, got ${show(out.step, unit)}`);
   }
   return out;
 }

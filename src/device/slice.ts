@@ -48,6 +48,10 @@ export class TableSlice implements LengthSlice {
   private tg = 0;
   private td = 0;
   private ts = 0;
+  // Lower node of that cell along each axis.
+  private cellG = 0;
+  private cellD = 0;
+  private cellS = 0;
   private readonly scratch = new Float64Array(4);
   // Direct references for the hot path.
   private readonly pId: Float64Array;
@@ -99,11 +103,71 @@ export class TableSlice implements LengthSlice {
     const res = out ?? new Float64Array(4);
     this.locate(vgs, vds, vsb);
     const k = this.perW;
-    res[0] = this.eval(this.pId, true) * k;
-    res[1] = this.eval(this.pGm, true) * k;
-    res[2] = this.eval(this.pGds, true) * k;
-    res[3] = this.eval(this.pGmb, true) * k;
+    this.evalInto(this.pId, res, 0, k);
+    this.evalInto(this.pGm, res, 1, k);
+    this.evalInto(this.pGds, res, 2, k);
+    this.evalInto(this.pGmb, res, 3, k);
     return res;
+  }
+
+  /**
+   * jd and the exact partial derivatives of this slice's interpolant (per metre of width), one cell lookup:
+   * out = [jd, ∂jd/∂vgs, ∂jd/∂vds, ∂jd/∂vsb]. jd is bit-identical to `jd()`. The derivatives are those of
+   * the cell holding the point (the cell above on a node, the last cell at the upper edge), i.e. the limit of
+   * a forward difference (backward at the upper edge); 0 along a single-point axis.
+   */
+  jdSlopes(vgs: number, vds: number, vsb: number, out: Float64Array): void {
+    this.locate(vgs, vds, vsb);
+    const p = this.pId;
+    const b = this.base;
+    const u = this.td;
+    const v = this.ts;
+    const sD = this.sD;
+    const sS = this.sS;
+    // Lower VGS plane (a) and upper (c): value and slopes along u (vds) and v (vsb) of the bilinear form.
+    const a00 = p[b], a01 = p[b + sS], a10 = p[b + sD], a11 = p[b + sD + sS];
+    const bG = b + this.sG;
+    const c00 = p[bG], c01 = p[bG + sS], c10 = p[bG + sD], c11 = p[bG + sD + sS];
+    const aLo = (1 - v) * a00 + v * a01;
+    const aHi = (1 - v) * a10 + v * a11;
+    const a = (1 - u) * aLo + u * aHi;
+    const au = aHi - aLo;
+    const av = (1 - u) * (a01 - a00) + u * (a11 - a10);
+    const cLo = (1 - v) * c00 + v * c01;
+    const cHi = (1 - v) * c10 + v * c11;
+    const c = (1 - u) * cLo + u * cHi;
+    const cu = cHi - cLo;
+    const cv = (1 - u) * (c01 - c00) + u * (c11 - c10);
+    const t = this.tg;
+    let f: number;
+    let ft: number;
+    let fu: number;
+    let fv: number;
+    if (a > 0 && c > 0) {
+      // Geometric along VGS: f = a·(c/a)^t, the same expression as eval().
+      const lr = Math.log(c / a);
+      f = t === 0 ? a : t === 1 ? c : a * Math.exp(t * lr);
+      ft = f * lr;
+      fu = f * ((1 - t) * (au / a) + t * (cu / c));
+      fv = f * ((1 - t) * (av / a) + t * (cv / c));
+    } else {
+      f = t === 0 ? a : t === 1 ? c : (1 - t) * a + t * c;
+      ft = c - a;
+      fu = (1 - t) * au + t * cu;
+      fv = (1 - t) * av + t * cv;
+    }
+    const k = this.perW;
+    out[0] = f * k;
+    out[1] = this.lg.step ? (ft * k) / (this.lg.values[this.cellG + 1] - this.lg.values[this.cellG]) : 0;
+    out[2] = this.ld.step ? (fu * k) / (this.ld.values[this.cellD + 1] - this.ld.values[this.cellD]) : 0;
+    out[3] = this.ls.step ? (fv * k) / (this.ls.values[this.cellS + 1] - this.ls.values[this.cellS]) : 0;
+  }
+
+  /** [jd, gm/W] into out[0..1], the same values as small(): half the work for gm/ID searches. */
+  jdGm(vgs: number, vds: number, vsb: number, out: Float64Array): void {
+    this.locate(vgs, vds, vsb);
+    this.evalInto(this.pId, out, 0, this.perW);
+    this.evalInto(this.pGm, out, 1, this.perW);
   }
 
   /** One quantity at the reference width (NaN when the table lacks it). */
@@ -141,6 +205,9 @@ export class TableSlice implements LengthSlice {
     const is = this.ls.locate(vsb);
     if (is < 0) throw rangeError('vsb', vsb, this.ls.lo, this.ls.hi, 'V', this.where());
     this.base = ig * this.stG + id * this.stD + is;
+    this.cellG = ig;
+    this.cellD = id;
+    this.cellS = is;
     this.tg = this.lg.t;
     this.td = this.ld.t;
     this.ts = this.ls.t;
@@ -151,10 +218,16 @@ export class TableSlice implements LengthSlice {
   }
 
   // Bilinear in (vds, vsb) at both VGS neighbours, then geometric or linear along VGS.
+  // The bilinear form is written out twice: a helper returning a double boxes it whenever it is not inlined.
   private eval(p: Float64Array, logVgs: boolean): number {
     const b = this.base;
-    const a = this.bilinear(p, b);
-    const c = this.bilinear(p, b + this.sG);
+    const u = this.td;
+    const v = this.ts;
+    const sD = this.sD;
+    const sS = this.sS;
+    const a = (1 - u) * ((1 - v) * p[b] + v * p[b + sS]) + u * ((1 - v) * p[b + sD] + v * p[b + sD + sS]);
+    const g = b + this.sG;
+    const c = (1 - u) * ((1 - v) * p[g] + v * p[g + sS]) + u * ((1 - v) * p[g + sD] + v * p[g + sD + sS]);
     const t = this.tg;
     if (t === 0) return a;
     if (t === 1) return c;
@@ -163,14 +236,21 @@ export class TableSlice implements LengthSlice {
     return (1 - t) * a + t * c;
   }
 
-  private bilinear(p: Float64Array, b: number): number {
+  // eval(p, true) · k written into out[j]: no double is returned, so none is boxed when this is not inlined.
+  private evalInto(p: Float64Array, out: Float64Array, j: number, k: number): void {
+    const b = this.base;
     const u = this.td;
     const v = this.ts;
     const sD = this.sD;
     const sS = this.sS;
-    const lo = (1 - v) * p[b] + v * p[b + sS];
-    const hi = (1 - v) * p[b + sD] + v * p[b + sD + sS];
-    return (1 - u) * lo + u * hi;
+    const a = (1 - u) * ((1 - v) * p[b] + v * p[b + sS]) + u * ((1 - v) * p[b + sD] + v * p[b + sD + sS]);
+    const g = b + this.sG;
+    const c = (1 - u) * ((1 - v) * p[g] + v * p[g + sS]) + u * ((1 - v) * p[g + sD] + v * p[g + sD + sS]);
+    const t = this.tg;
+    if (t === 0) out[j] = a * k;
+    else if (t === 1) out[j] = c * k;
+    else if (a > 0 && c > 0) out[j] = a * Math.exp(t * Math.log(c / a)) * k;
+    else out[j] = ((1 - t) * a + t * c) * k;
   }
 }
 

@@ -39,6 +39,13 @@ export interface LengthSlice {
   jd(vgs: number, vds: number, vsb: number): number;
   /** Small-signal per metre of width: [jd, gm/W, gds/W, gmb/W]. */
   small(vgs: number, vds: number, vsb: number, out?: Float64Array): Float64Array;
+  /**
+   * Optional: jd and its exact partial derivatives along VGS, VDS and VSB (per metre of width) into
+   * `out` = [jd, ∂jd/∂vgs, ∂jd/∂vds, ∂jd/∂vsb], for Newton; callers fall back to differences without it.
+   */
+  jdSlopes?(vgs: number, vds: number, vsb: number, out: Float64Array): void;
+  /** Optional: [jd, gm/W] only (the first two entries of `small`, the same values) into `out`, for gm/ID searches. */
+  jdGm?(vgs: number, vds: number, vsb: number, out: Float64Array): void;
   /** Full operating point at width w. */
   op(vgs: number, vds: number, vsb: number, w: number): OperatingPoint;
   /** Valid voltage ranges of this slice. */

@@ -4,7 +4,13 @@ interface PolyFit {
   coefficients: number[];
 }
 type PolyCtor = new (x: number[], y: number[], degree: number) => PolyFit;
-const { PolynomialRegression } = createRequire(import.meta.url)('ml-regression') as { PolynomialRegression: PolyCtor };
+// Loaded on first use, not at import: device/ and the table slice import this module for
+// conductance estimates, and `probe`/`size` should not pay ml-regression's start-up.
+let polyCtor: PolyCtor | undefined;
+function PolynomialRegressionCtor(): PolyCtor {
+  polyCtor ??= (createRequire(import.meta.url)('ml-regression') as { PolynomialRegression: PolyCtor }).PolynomialRegression;
+  return polyCtor;
+}
 
 /**
  * Weights for the slope of a local least-squares polynomial (Savitzky–Golay
@@ -40,7 +46,7 @@ export function slopeStencil(x: ArrayLike<number>, window = 5, maxDegree = 2): S
     for (let k = 0; k < width; k++) {
       const e = new Array<number>(width).fill(0);
       e[k] = 1;
-      const c = new PolynomialRegression(xs, e, degree).coefficients;
+      const c = new (PolynomialRegressionCtor())(xs, e, degree).coefficients;
       weights[i * width + k] = (c[1] ?? 0) / span;
     }
   }

@@ -47,6 +47,8 @@ export interface ScatterSeries {
   name: string;
   points: ScatterPoint[];
   color?: string;
+  /** Outline only (e.g. designs that miss a target), so they read apart from filled ones. */
+  hollow?: boolean;
 }
 
 /** A dashed horizontal (axis 'y') or vertical (axis 'x') line with a label. */
@@ -275,7 +277,9 @@ export function buildChart(opts: LineChartOptions): ChartBuild {
         const d = symbol(shape, Math.PI * r * r).digits(2)();
         return el('path', {
           class: p.highlight ? 'point highlight' : 'point', d, transform: `translate(${px(x(p.x))} ${px(y(p.y))})`,
-          fill: color, 'fill-opacity': 0.8, stroke: p.highlight ? INK.text : '#ffffff', 'stroke-width': p.highlight ? 2 : 0.8,
+          ...(s.hollow
+            ? { fill: '#ffffff', 'fill-opacity': 0.9, stroke: p.highlight ? INK.text : color, 'stroke-width': p.highlight ? 2 : 1.4 }
+            : { fill: color, 'fill-opacity': 0.8, stroke: p.highlight ? INK.text : '#ffffff', 'stroke-width': p.highlight ? 2 : 0.8 }),
         });
       });
     if (marks.length === 0) fail(opts.title, `scatter series "${s.name}" has no points that can be drawn`);
@@ -323,7 +327,12 @@ export function buildChart(opts: LineChartOptions): ChartBuild {
       text(s.name, { x: 26, y: 4 }),
     ])),
     ...scatter.map((s, i) => el('g', { class: 'legend-item', transform: row(series.length + i) }, [
-      el('path', { d: symbol(SYMBOLS[i % SYMBOLS.length], 50).digits(2)(), transform: 'translate(10 0)', fill: s.color ?? colorAt(series.length + i), 'fill-opacity': 0.8 }),
+      el('path', {
+        d: symbol(SYMBOLS[i % SYMBOLS.length], 50).digits(2)(), transform: 'translate(10 0)',
+        ...(s.hollow
+          ? { fill: '#ffffff', stroke: s.color ?? colorAt(series.length + i), 'stroke-width': 1.4 }
+          : { fill: s.color ?? colorAt(series.length + i), 'fill-opacity': 0.8 }),
+      }),
       text(s.name, { x: 26, y: 4 }),
     ])),
   ];

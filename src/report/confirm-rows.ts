@@ -32,7 +32,9 @@ export function confirmVerdict(c: { rounds: number; confirmed: boolean; correcte
 export function confirmGrid(c: Confirmation, stack: StackResult | undefined, spec: StackSpec | undefined): Grid {
   const corners = c.simulated.corners;
   const predictedAt = (corner: string) => stack?.corners?.find((x) => x.corner === corner)?.predicted ?? (corner === corners[0].corner ? stack?.predicted : undefined);
-  const headers = ['', 'target', ...corners.flatMap((f) => [`predicted ${f.corner}`, `simulated ${f.corner}`])];
+  // Predicted is the table design's; simulated is the last design simulated (the corrected one when correction ran).
+  const after = c.corrected ? ' (corrected)' : '';
+  const headers = ['', 'target', ...corners.flatMap((f) => [`predicted ${f.corner}`, `simulated ${f.corner}${after}`])];
   const row = (label: string, target: string, pick: (x: { iout: number; rout: number; headroom: number }) => string) => [
     label, target, ...corners.flatMap((f) => {
       const p = predictedAt(f.corner);

@@ -1,10 +1,8 @@
 import type { StageSpec } from '../design/types.js';
 import type { StageResult } from '../solve/stage-types.js';
 import type { StageConfirmation } from '../confirm/stage-types.js';
-import { lineChart, targetLabel } from './chart.js';
 import { eng, formatArea } from './format.js';
 import type { Grid } from './rows.js';
-import { slug } from './svg.js';
 
 const gainText = (x: number) => (Number.isFinite(x) ? String(Number(x.toPrecision(4))) : '—');
 const volts = (x: number | null) => (x === null ? '—' : eng(x, 'V'));
@@ -45,24 +43,4 @@ export function stageCorrectedGrid(c: StageConfirmation, stage: StageResult | un
   }
   rows.push(['area (output devices)', formatArea(stage.predicted.area), formatArea(c.corrected.area), change(stage.predicted.area, c.corrected.area), '']);
   return { headers: ['device', 'W (tables)', 'W (corrected)', 'change', 'L'], rows };
-}
-
-/** The simulated gain against output voltage over the predicted one, with the gain target and the simulated swing. */
-export function stageConfirmChart(c: StageConfirmation, stage: StageResult, spec?: StageSpec): string {
-  const sim = c.simulated.corners.map((f, k) => ({
-    name: `ngspice ${f.corner}${c.corrected ? ', corrected' : ''}`,
-    points: f.curve.filter((p) => p.gain > 0).map((p) => ({ x: p.vout, y: p.gain })),
-    dash: k === 0 ? undefined : '6 3',
-  }));
-  const s = c.simulated;
-  return lineChart({
-    id: slug(`confirm-stage-${stage.name}-gain`),
-    title: `Gain against output voltage, simulated over predicted — ${stage.name}`,
-    subtitle: "lookup tables against ngspice (bias diodes, input set so the output steps along a sweep)",
-    x: { label: 'output voltage', unit: 'V' },
-    y: { label: 'gain |dVout/dVin|', unit: '', scale: 'log' },
-    series: [{ name: 'tables (predicted)', points: stage.curve.filter((p) => p.gain > 0).map((p) => ({ x: p.vout, y: p.gain })) }, ...sim],
-    targets: spec ? [{ axis: 'y' as const, value: spec.gain, label: targetLabel('gain target', spec.gain, '') }] : [],
-    regions: s.vlow !== null && s.vhigh !== null ? [{ x: [s.vlow, s.vhigh], label: `simulated swing ${(s.swing * 1000).toFixed(0)} mV` }] : [],
-  });
 }

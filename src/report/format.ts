@@ -2,16 +2,18 @@ import { formatEng } from '../units/index.js';
 
 /** Areas in µm²: an SI prefix on m² ("pm²") would misread as (pm)². */
 export function formatArea(m2: number): string {
-  if (!Number.isFinite(m2)) return String(m2);
+  if (!Number.isFinite(m2)) return '—'; // no design at all; never print NaN
   return `${Number((m2 * 1e12).toPrecision(3))} µm²`;
 }
 
 /** Lengths for legends, in µm as designers quote them: "L = 0.18 µm". */
 export function formatMicrons(m: number): string {
+  if (!Number.isFinite(m)) return '—';
   return `${Number((m * 1e6).toPrecision(3))} µm`;
 }
 
 export function formatPercent(fraction: number): string {
+  if (!Number.isFinite(fraction)) return '—';
   return `${Number((fraction * 100).toPrecision(3))} %`;
 }
 

@@ -16,6 +16,9 @@ table { border-collapse: collapse; margin: 4px 0 10px; font-variant-numeric: tab
 th, td { padding: 4px 10px; border-bottom: 1px solid var(--line); text-align: left; white-space: nowrap; }
 th { background: var(--panel); font-weight: 600; font-size: 13px; }
 td.num, th.num { text-align: right; }
+tr.chosen td { font-weight: 700; background: #eef7f1; }
+tr.chosen td:first-child { box-shadow: inset 4px 0 0 var(--ok); }
+.far { color: var(--bad); font-weight: 600; }
 .badge { display: inline-block; padding: 1px 9px; border-radius: 10px; font-size: 12px; font-weight: 700; letter-spacing: 0.05em; vertical-align: middle; margin-left: 8px; color: #fff; }
 .badge.ok { background: var(--ok); }
 .badge.bad { background: var(--bad); }

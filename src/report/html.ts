@@ -5,12 +5,14 @@ import { eng, formatArea, formatMicrons, formatPercent, polarityName } from './f
 import { REPORT_CSS } from './html-style.js';
 import { biasGrid, columnAlign, cornerGrid, deviceGrid, predictedGrid, squareLawGrid, statusLine, type Grid } from './rows.js';
 import { stackCharts } from './stack-charts.js';
+import { chosenFirst, farAreaNote, farAreaRatio } from './order.js';
 import { escapeXml as esc } from './svg.js';
 import type { HtmlReportInput } from './types.js';
 import { stageSection, stageSpecGrid, stageSummaryGrid } from './stage-html.js';
 import { confirmGrid, confirmVerdict, correctedGrid } from './confirm-rows.js';
 import { confirmRoutChart } from './confirm-charts.js';
-import { stageConfirmChart, stageConfirmGrid, stageCorrectedGrid } from './confirm-stage.js';
+import { stageConfirmGrid, stageCorrectedGrid } from './confirm-stage.js';
+import { stageConfirmChart } from './confirm-charts.js';
 import type { StageResult } from '../solve/stage-types.js';
 
 export function htmlTable(grid: Grid, caption?: string): string {
@@ -18,7 +20,7 @@ export function htmlTable(grid: Grid, caption?: string): string {
   const cls = (c: number): string => (align[c] === 'right' ? ' class="num"' : '');
   const head = grid.headers.map((h, c) => `<th${cls(c)}>${esc(h)}</th>`).join('');
   const body = grid.rows
-    .map((r) => `<tr>${r.map((cell, c) => `<td${cls(c)}>${esc(cell)}</td>`).join('')}</tr>`)
+    .map((r, k) => `<tr${grid.highlight?.[k] ? ' class="chosen"' : ''}>${r.map((cell, c) => `<td${cls(c)}>${esc(cell)}</td>`).join('')}</tr>`)
     .join('\n');
   return `<div>${caption ? `<h3>${esc(caption)}</h3>` : ''}<table><thead><tr>${head}</tr></thead><tbody>\n${body}\n</tbody></table></div>`;
 }
@@ -40,18 +42,22 @@ function specGrid(stacks: StackSpec[]): Grid {
 }
 
 function summaryGrid(stacks: StackResult[], specs: Map<string, StackSpec>): Grid {
+  // Per stack the chosen design first and highlighted; alternatives far larger in area are marked.
+  const ordered = chosenFirst(stacks);
   return {
-    headers: ['stack', 'topology', 'result', 'Iout', 'Rout (target)', 'headroom (target)', 'area'],
-    rows: stacks.map((s) => {
+    headers: ['stack', 'topology', 'result', 'Iout', 'Rout (target)', 'headroom (target)', 'area', 'note'],
+    rows: ordered.map((s) => {
       const t = specs.get(s.name);
       const tag = s.chosen === true ? ' (chosen)' : s.chosen === false ? ' (alternative)' : '';
+      const far = farAreaRatio(s, stacks);
       return [
         s.name, s.topology + tag, s.feasible ? 'meets targets' : 'INFEASIBLE', eng(s.predicted.iout, 'A'),
         `${eng(s.predicted.rout, 'Ω')}${t ? ` (≥ ${eng(t.rout, 'Ω')})` : ''}`,
         `${eng(s.predicted.headroom, 'V')}${t ? ` (≤ ${eng(t.headroom, 'V')})` : ''}`,
-        formatArea(s.predicted.area),
+        formatArea(s.predicted.area), far === undefined ? '' : farAreaNote(far),
       ];
     }),
+    highlight: ordered.map((s) => s.chosen === true),
   };
 }
 
@@ -141,10 +147,13 @@ ${input.notes?.length ? `<ul class="notes">${input.notes.map((n) => `<li>${esc(n
 <section id="summary"><h2>Summary</h2>${htmlTable(summaryGrid(size.stacks, specs))}</section>
 <section id="spec"><h2>Specification</h2>${htmlTable(specGrid(spec.parsed.stacks))}
 <details open><summary>source of ${esc(spec.parsed.file)}</summary><pre class="source">${esc(spec.source)}</pre></details></section>
-${size.stacks.map((s) => {
+${chosenFirst(size.stacks).map((s) => {
   const section = stackSection(s, input, specs.get(s.name));
   // With topology 'auto' the alternatives are folded away under the chosen design.
-  return s.chosen === false ? `<details class="alternative"><summary>${esc(s.name)}: alternative ${esc(s.topology)} (${s.feasible ? 'feasible' : 'infeasible'})</summary>${section}</details>` : section;
+  const far = farAreaRatio(s, size.stacks);
+  return s.chosen === false
+    ? `<details class="alternative"><summary>${esc(s.name)}: alternative ${esc(s.topology)} (${s.feasible ? 'feasible' : 'infeasible'}${far === undefined ? '' : `, <span class="far">${esc(farAreaNote(far))}</span>`})</summary>${section}</details>`
+    : section;
 }).join('\n')}
 ${stagesHtml(input)}
 ${design.length ? `<section id="design"><h2>Design curves of the devices used</h2>${design.join('\n')}</section>` : ''}

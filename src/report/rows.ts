@@ -24,6 +24,8 @@ export function columnAlign(grid: Grid): Array<'left' | 'right'> {
 export interface Grid {
   headers: string[];
   rows: string[][];
+  /** Per row: emphasised (the chosen design), where the renderer can show it. */
+  highlight?: boolean[];
 }
 
 /** Output-stack devices, bottom first. */

@@ -66,7 +66,7 @@ export function curvesFor(kit: TableSource, result: SizeResult): DesignCurves[] 
 }
 
 /** The self-contained HTML report of a size run, with the kit's note (demo kits say they are invented). */
-export function reportHtml(spec: DesignSpec, source: string, kit: TableSource, run: Run, generatedBy: string, confirmations?: Confirmation[], stageConfirmations?: StageConfirmation[]): string {
+export function reportHtml(spec: DesignSpec, source: string, kit: TableSource, run: Run, generatedBy: string, extraNotes: readonly string[] = [], confirmations?: Confirmation[], stageConfirmations?: StageConfirmation[]): string {
   const note = kit.table(run.result.stacks[0]?.device ?? run.result.stages?.[0]?.input.device ?? 'n', run.result.corners[0]).meta.note;
   return htmlReport({
     spec: { parsed: spec, source },
@@ -75,7 +75,7 @@ export function reportHtml(spec: DesignSpec, source: string, kit: TableSource, r
     stageFronts: Object.entries(run.stageFronts ?? {}).map(([stage, points]) => ({ stage, points })),
     designCurves: curvesFor(kit, run.result),
     generatedBy,
-    notes: note ? [`kit ${kit.kit}: ${note}`] : [],
+    notes: [...(note ? [`kit ${kit.kit}: ${note}`] : []), ...extraNotes],
     confirmations,
     stageConfirmations,
   });

@@ -1,12 +1,13 @@
 import type { SizeResult } from '../solve/types.js';
 import type { StageFrontPoint } from '../solve/stage-types.js';
 import { decidingResults } from '../solve/choose.js';
-import { formatArea, polarityName } from './format.js';
+import { eng, formatArea, polarityName } from './format.js';
 import { formatEng } from '../units/index.js';
 import { biasGrid, columnAlign, cornerGrid, currentWarning, deviceGrid, predictedGrid, squareLawGrid, statusLine, type Grid } from './rows.js';
-import { ansi, renderTable } from './text.js';
+import { ansi, renderTable, wrapText, TEXT_WIDTH } from './text.js';
 import { bindingText } from './verdict.js';
 import { stageCornerGrid, stageCurveGrid, stageFrontGrid, stagePredictedGrid, stageSquareLawGrid, stageTopologiesGrid, stageVerdict, stageVerdictText } from './stage-rows.js';
+import { farAreaNote, farAreaRatio } from './order.js';
 
 export interface SizeTextOptions {
   /** ANSI colour; the CLI passes isTTY && !NO_COLOR. */
@@ -17,38 +18,55 @@ export interface SizeTextOptions {
   stageGains?: Record<string, number>;
 }
 
-function block(title: string, grid: Grid | undefined, color: boolean): string[] {
+/**
+ * A titled table. With `noteColumn` that column (a sentence) is printed under its row
+ * instead, so tables fit TEXT_WIDTH columns.
+ */
+function block(title: string, grid: Grid | undefined, color: boolean, extra: { noteColumn?: number; highlight?: boolean[] } = {}): string[] {
   if (!grid || grid.rows.length === 0) return [];
-  return ['', `  ${ansi.dim(title, color)}`, renderTable(grid.headers, grid.rows, { color, indent: 2, align: columnAlign(grid) })];
+  const k = extra.noteColumn;
+  const keep = (r: string[]): string[] => (k === undefined ? r : r.filter((_, c) => c !== k));
+  const shown: Grid = { headers: keep(grid.headers), rows: grid.rows.map(keep) };
+  const notes = k === undefined ? undefined : grid.rows.map((r) => (r[k] && r[k] !== '—' ? `${grid.headers[k]}: ${r[k]}` : undefined));
+  return ['', `  ${ansi.dim(title, color)}`, renderTable(shown.headers, shown.rows, { color, indent: 2, align: columnAlign(shown), notes, highlight: extra.highlight })];
 }
 
-/** The `size` result as fixed-width text for a terminal. */
+function heading(result: SizeResult, color: boolean): string[] {
+  return [
+    `kit ${result.kit}, corners ${result.corners.join(', ')}, supply ${formatEng(result.supply, 'V', 4)}`,
+    ansi.yellow(wrapText(`CAUTION: ${result.caution}`, TEXT_WIDTH), color),
+  ];
+}
+
+/** The `size` result as fixed-width text for a terminal, at most TEXT_WIDTH columns wide. */
 export function renderSizeText(result: SizeResult, opts: SizeTextOptions): string {
   const c = opts.color;
-  const out: string[] = [
-    `kit ${result.kit}, corners ${result.corners.join(', ')}, supply ${result.supply} V`,
-    ansi.yellow(`CAUTION: ${result.caution}`, c),
-  ];
+  const out: string[] = heading(result, c);
   for (const s of result.stacks) {
     // With topology 'auto' the alternatives get one line each; the chosen design gets the full account.
     if (s.chosen === false) continue;
     const status = s.feasible ? ansi.green('FEASIBLE', c) : ansi.red('INFEASIBLE', c);
-    out.push('', ansi.bold(`stack ${s.name}: ${polarityName(s.device)} ${s.topology} — ${status}`, c), `  ${statusLine(s)}`);
+    out.push('', ansi.bold(`stack ${s.name}: ${polarityName(s.device)} ${s.topology} — ${status}`, c), wrapText(statusLine(s), TEXT_WIDTH, '  '));
     const warning = currentWarning(s);
-    if (warning) out.push(`  ${ansi.yellow(warning, c)}`);
+    if (warning) out.push(ansi.yellow(wrapText(warning, TEXT_WIDTH, '  '), c));
     out.push(...block('output stack (bottom first)', deviceGrid(s), c));
     out.push(...block('bias devices', biasGrid(s), c));
     out.push(...block('predicted', predictedGrid(s), c));
     out.push(...block('lookup table against square law', squareLawGrid(s), c));
-    out.push(...block('per corner', cornerGrid(s), c));
+    const corners = cornerGrid(s);
+    out.push(...block('per corner', corners, c, { noteColumn: corners ? corners.headers.length - 1 : undefined }));
     const others = result.stacks.filter((x) => x.name === s.name && x.chosen === false);
     if (others.length > 0) {
-      const rows = [s, ...others].map((x) => [
-        x.topology, x === s ? 'chosen' : x.feasible ? 'feasible' : 'INFEASIBLE', formatEng(x.predicted.rout, 'Ω'),
-        Number.isFinite(x.predicted.headroom) ? formatEng(x.predicted.headroom, 'V') : 'never', formatArea(x.predicted.area),
-        x.feasible ? '' : bindingText(x),
-      ]);
-      out.push(...block('topologies tried (auto)', { headers: ['topology', 'status', 'Rout', 'headroom', 'area', 'binding'], rows }, c));
+      // The chosen design first and marked; alternatives far larger in area say so.
+      const all = [s, ...others];
+      const rows = all.map((x) => {
+        const far = farAreaRatio(x, result.stacks);
+        const why = [x.feasible ? '' : bindingText(x), far === undefined ? '' : farAreaNote(far)].filter(Boolean).join('; ');
+        return [x.topology, x === s ? 'chosen' : x.feasible ? 'feasible' : 'INFEASIBLE', eng(x.predicted.rout, 'Ω'), eng(x.predicted.headroom, 'V'), formatArea(x.predicted.area), why];
+      });
+      out.push(...block('topologies tried (auto)', { headers: ['topology', 'status', 'Rout', 'headroom', 'area', 'why'], rows }, c, {
+        noteColumn: 5, highlight: all.map((x) => x === s),
+      }));
     }
   }
   out.push(...stageText(result, c, opts));
@@ -78,15 +96,19 @@ function stageText(result: SizeResult, c: boolean, opts: SizeTextOptions): strin
   return out;
 }
 
-/** One line per stack (its chosen design): for a quick look at many stacks. */
+/** A length in µm without the unit (the column header carries it), 3 significant digits. */
+function microns(m: number): string {
+  return Number.isFinite(m) ? String(Number((m * 1e6).toPrecision(3))) : '—';
+}
+
+/** One line per stack (its chosen design), the binding target under an infeasible one: for a quick look at many stacks. */
 export function renderSizeBrief(result: SizeResult, opts: SizeTextOptions): string {
-  const rows = decidingResults(result).map((s) => [
+  const stacks = decidingResults(result);
+  const rows = stacks.map((s) => [
     s.name, `${s.device}-type ${s.topology}`, s.feasible ? 'feasible' : 'INFEASIBLE',
-    s.devices.map((d) => `${formatEng(d.w, 'm')}/${formatEng(d.l, 'm')}`).join(' + '),
-    formatEng(s.predicted.iout, 'A'), formatEng(s.predicted.rout, 'Ω'),
-    Number.isFinite(s.predicted.headroom) ? formatEng(s.predicted.headroom, 'V') : 'never',
+    s.devices.map((d) => `${microns(d.w)}/${microns(d.l)}`).join(' + ') || '—',
+    eng(s.predicted.iout, 'A'), eng(s.predicted.rout, 'Ω'), eng(s.predicted.headroom, 'V'),
     formatArea(s.predicted.area), s.predicted.sigma === undefined ? '—' : `${Number((s.predicted.sigma * 100).toPrecision(3))} %`,
-    s.feasible ? '' : bindingText(s),
   ]);
   const stages = (result.stages ?? []).filter((s) => s.chosen !== false).map((s) => [
     s.name, `${s.input.device}-input ${s.input.topology} / ${s.load.device}-type ${s.load.topology}`, s.feasible ? 'feasible' : 'INFEASIBLE',
@@ -97,10 +119,10 @@ export function renderSizeBrief(result: SizeResult, opts: SizeTextOptions): stri
     color: opts.color, align: ['left', 'left', 'left', 'right', 'right', 'right', 'left'],
   })];
   return [
-    `kit ${result.kit}, corners ${result.corners.join(', ')}, supply ${result.supply} V`,
-    ansi.yellow(`CAUTION: ${result.caution}`, opts.color),
-    renderTable(['stack', 'topology', 'status', 'W/L (bottom first)', 'Iout', 'Rout', 'headroom', 'area', 'σ(Iout)/Iout', 'binding'], rows, {
-      color: opts.color, align: ['left', 'left', 'left', 'left', 'right', 'right', 'right', 'right', 'right', 'left'],
+    ...heading(result, opts.color),
+    renderTable(['stack', 'topology', 'status', 'W/L in µm, bottom first', 'Iout', 'Rout', 'headroom', 'area', 'σ(I)/I'], rows, {
+      color: opts.color, align: ['left', 'left', 'left', 'left', 'right', 'right', 'right', 'right', 'right'],
+      notes: stacks.map((s) => (s.feasible ? undefined : `binding: ${bindingText(s) || 'targets not met'}`)),
     }),
     ...stageLines,
   ].join('\n') + '\n';

@@ -2,12 +2,15 @@ import type { StackSpec } from '../design/types.js';
 import type { StackResult } from '../solve/types.js';
 import { lineChart, targetLabel, type ScatterSeries, type TargetLine } from './chart.js';
 import { formatArea, polarityName } from './format.js';
+import { colorAt } from './palette.js';
 import { slug } from './svg.js';
 import type { FrontPoint } from '../solve/pareto.js';
 
 export interface StackChartSet {
-  rout: string;
-  iout: string;
+  /** Absent when the design has no Rout that a log axis can show (e.g. 0 Ω everywhere). */
+  rout?: string;
+  /** Absent when the curve has no finite current. */
+  iout?: string;
   /** Present when a front was given. */
   pareto?: string;
   area?: string;
@@ -33,10 +36,13 @@ export function stackCharts(stack: StackResult, spec?: StackSpec, front?: FrontP
   const vAxis = { label: 'stack voltage', unit: 'V' };
   const region = spec ? [{ x: [spec.headroom, spec.span] as [number, number], label: 'targets must hold here' }] : [];
 
-  const rout = lineChart({
+  // An infeasible design can have no usable curve at all; then there is no chart rather than a failed report.
+  const routPoints = stack.curve.map((c) => ({ x: c.v, y: c.rout })).filter((p) => Number.isFinite(p.x) && Number.isFinite(p.y) && p.y > 0);
+  const ioutPoints = stack.curve.map((c) => ({ x: c.v, y: c.iout })).filter((p) => Number.isFinite(p.x) && Number.isFinite(p.y));
+  const rout = routPoints.length === 0 ? undefined : lineChart({
     id: `${base}-rout`, title: `Rout against stack voltage — ${stack.name}`, subtitle: sub, x: vAxis,
     y: { label: 'Rout', unit: 'Ω', scale: 'log' },
-    series: [{ name: 'Rout (lookup table)', points: stack.curve.map((c) => ({ x: c.v, y: c.rout })) }],
+    series: [{ name: 'Rout (lookup table)', points: routPoints }],
     targets: [
       ...(spec ? [{ axis: 'y' as const, value: spec.rout, label: targetLabel('Rout target', spec.rout, 'Ω') }] : []),
       ...headroomGuides(stack, spec),
@@ -44,10 +50,10 @@ export function stackCharts(stack: StackResult, spec?: StackSpec, front?: FrontP
     regions: region,
   });
 
-  const iout = lineChart({
+  const iout = ioutPoints.length === 0 ? undefined : lineChart({
     id: `${base}-iout`, title: `Output current against stack voltage — ${stack.name}`, subtitle: sub, x: vAxis,
     y: { label: 'Iout', unit: 'A', zero: true },
-    series: [{ name: 'Iout (lookup table)', points: stack.curve.map((c) => ({ x: c.v, y: c.iout })) }],
+    series: [{ name: 'Iout (lookup table)', points: ioutPoints }],
     targets: [
       ...(spec ? [{ axis: 'y' as const, value: spec.current, label: targetLabel('Iout target', spec.current, 'A') }] : []),
       ...headroomGuides(stack, spec),
@@ -62,16 +68,29 @@ export function stackCharts(stack: StackResult, spec?: StackSpec, front?: FrontP
     color: '#000000',
   };
   const byTopology = new Map<string, FrontPoint[]>();
+  // The chosen design's topology first, so the legend starts with it.
+  byTopology.set(stack.topology, []);
   for (const p of front) {
     const key = p.topology ?? stack.topology;
     byTopology.set(key, [...(byTopology.get(key) ?? []), p]);
   }
-  const groups = [...byTopology.entries()];
+  const groups = [...byTopology.entries()].filter(([, pts]) => pts.length > 0);
   const drawChosen = Number.isFinite(stack.predicted.headroom) && stack.predicted.rout > 0;
+  // One colour per topology; designs that miss a target are drawn hollow in a series of their own.
   const spread = (pick: (p: FrontPoint) => number): ScatterSeries[] =>
-    groups.map(([topology, pts]) => ({ name: `front: ${topology}`, points: pts.map((p) => ({ x: p.headroom, y: pick(p), size: p.area })) }));
+    groups.flatMap(([topology, pts], k) => {
+      const color = colorAt(k);
+      const series = (feasible: boolean): ScatterSeries => ({
+        name: `front: ${topology}${topology === stack.topology ? ' (chosen)' : ''}${feasible ? '' : ', misses a target'}`,
+        points: pts.filter((p) => (p.feasible !== false) === feasible).map((p) => ({ x: p.headroom, y: pick(p), size: p.area }))
+          .filter((q) => Number.isFinite(q.x) && Number.isFinite(q.y) && q.y > 0), // log axes: positive, finite
+        color,
+        hollow: !feasible,
+      });
+      return [series(true), series(false)].filter((s) => s.points.length > 0);
+    });
   const pareto = lineChart({
-    id: `${base}-pareto`, title: `Pareto front: headroom against Rout — ${stack.name}`, subtitle: 'each point a candidate no other beats on headroom, Rout and area',
+    id: `${base}-pareto`, title: `Pareto front: headroom against Rout — ${stack.name}`, subtitle: 'per topology, the candidates no other of it beats on headroom, Rout and area; hollow: misses a target',
     x: { label: 'headroom', unit: 'V' }, y: { label: 'Rout at headroom', unit: 'Ω', scale: 'log' },
     scatter: [...spread((p) => p.rout), ...(drawChosen ? [chosen] : [])],
     targets: spec ? [

@@ -11,6 +11,29 @@ export interface TableOptions {
   gap?: number;
   /** Indent of every line. */
   indent?: number;
+  /** Per row: a longer explanation printed on its own line(s) under the row, wrapped to `width`. */
+  notes?: Array<string | undefined>;
+  /** Per row: drawn bold (on a colour terminal) and marked with ▸ in front. */
+  highlight?: boolean[];
+  /** Line width the notes wrap to (default TEXT_WIDTH). */
+  width?: number;
+}
+
+/** Widest line the text output aims for: fits a 120-column terminal. */
+export const TEXT_WIDTH = 120;
+
+/** Words of `text` in lines of at most `width` columns, each starting with `indent` (a longer word stays whole). */
+export function wrapText(text: string, width = TEXT_WIDTH, indent = ''): string {
+  const lines: string[] = [];
+  let cur = '';
+  for (const word of text.split(/\s+/).filter(Boolean)) {
+    if (cur && displayWidth(indent + cur + ' ' + word) > width) {
+      lines.push(indent + cur);
+      cur = word;
+    } else cur = cur ? `${cur} ${word}` : word;
+  }
+  if (cur || lines.length === 0) lines.push(indent + cur);
+  return lines.join('\n');
 }
 
 // ECMA-48 SGR sequences: ESC [ n m.
@@ -51,8 +74,18 @@ export function renderTable(headers: string[], rows: string[][], opts: TableOpti
   const widths = headers.map((h, c) => Math.max(displayWidth(h), ...rows.map((r) => displayWidth(r[c]))));
   const gap = ' '.repeat(opts.gap ?? 2);
   const indent = ' '.repeat(opts.indent ?? 0);
-  const line = (cells: string[]): string => indent + cells.map((s, c) => pad(s, widths[c], align[c])).join(gap);
+  const marks = opts.highlight?.some(Boolean) ?? false;
+  // A highlighted row starts with ▸; the others with two spaces, so columns stay aligned.
+  const lead = (k: number | undefined): string => (!marks ? '' : k !== undefined && opts.highlight?.[k] ? '▸ ' : '  ');
+  const line = (cells: string[], k?: number): string => indent + lead(k) + cells.map((s, c) => pad(s, widths[c], align[c])).join(gap);
   const head = line(headers.map((h) => ansi.bold(h, opts.color ?? false)));
-  const rule = indent + widths.map((w) => '─'.repeat(w)).join(gap);
-  return [head, rule, ...rows.map(line)].join('\n');
+  const rule = indent + (marks ? '  ' : '') + widths.map((w) => '─'.repeat(w)).join(gap);
+  const body = rows.flatMap((r, k) => {
+    const text = line(r, k);
+    const out = [opts.highlight?.[k] ? ansi.bold(text, opts.color ?? false) : text];
+    const note = opts.notes?.[k];
+    if (note) out.push(wrapText(note, opts.width ?? TEXT_WIDTH, indent + (marks ? '  ' : '') + '    '));
+    return out;
+  });
+  return [head, rule, ...body].join('\n');
 }

@@ -1,5 +1,6 @@
 import type { StackSpec } from '../design/types.js';
 import type { StackResult } from './types.js';
+import type { Role } from '../stack/types.js';
 
 /** One compared number: old, new and the change in percent (NaN when undefined). */
 export interface Change {
@@ -16,25 +17,31 @@ export function change(what: string, unit: string, from: number, to: number): Ch
   return { what, unit, from, to, percent };
 }
 
+const ROLE_ORDER: readonly Role[] = ['bottom', 'middle', 'top'];
+
+/** Roles present on either side, once each, from the rail outwards. */
+function rolesOf(a: readonly Role[], b: readonly Role[]): Role[] {
+  const present = new Set([...a, ...b]);
+  return [...ROLE_ORDER.filter((r) => present.has(r)), ...[...present].filter((r) => !ROLE_ORDER.includes(r))];
+}
+
 /** Every size, bias, Rout, headroom, area and mismatch of two designs of one stack, side by side. */
 export function compareResults(from: StackResult, to: StackResult): Change[] {
   const rows: Change[] = [];
-  const n = Math.max(from.devices.length, to.devices.length);
-  for (let k = 0; k < n; k++) {
-    const a = from.devices[k];
-    const b = to.devices[k];
-    const role = (a ?? b).role;
+  // Rows are matched by role, not position: a cascode's top is a triple's top, and a role
+  // on one side only (the triple's middle) is NaN on the other.
+  for (const role of rolesOf(from.devices.map((d) => d.role), to.devices.map((d) => d.role))) {
+    const a = from.devices.find((d) => d.role === role);
+    const b = to.devices.find((d) => d.role === role);
     rows.push(change(`${role} W`, 'm', a?.w ?? NaN, b?.w ?? NaN));
     rows.push(change(`${role} L`, 'm', a?.l ?? NaN, b?.l ?? NaN));
     rows.push(change(`${role} gm/ID`, '1/V', a?.gmid ?? NaN, b?.gmid ?? NaN));
     rows.push(change(`${role} gate`, 'V', a?.gate ?? NaN, b?.gate ?? NaN));
     rows.push(change(`${role} VDS`, 'V', a?.vds ?? NaN, b?.vds ?? NaN));
   }
-  const m = Math.max(from.bias.length, to.bias.length);
-  for (let k = 0; k < m; k++) {
-    const a = from.bias[k];
-    const b = to.bias[k];
-    const role = (a ?? b).drives;
+  for (const role of rolesOf(from.bias.map((b) => b.drives), to.bias.map((b) => b.drives))) {
+    const a = from.bias.find((x) => x.drives === role);
+    const b = to.bias.find((x) => x.drives === role);
     rows.push(change(`bias(${role}) W`, 'm', a?.w ?? NaN, b?.w ?? NaN));
     rows.push(change(`bias(${role}) L`, 'm', a?.l ?? NaN, b?.l ?? NaN));
     rows.push(change(`bias(${role}) voltage`, 'V', a?.voltage ?? NaN, b?.voltage ?? NaN));
@@ -58,7 +65,7 @@ export function harderTargets(spec: StackSpec, from: StackResult, to: StackResul
   const out: string[] = [];
   const p = from.predicted;
   const q = to.predicted;
-  if (!to.feasible) out.push(`infeasible on the new kit${to.binding ? `: ${to.binding}` : ''}`);
+  if (!to.feasible) out.push('infeasible on the new kit'); // the report adds the binding verdict
   const routMargin = (x: number): number => x / spec.rout;
   if (routMargin(q.rout) < routMargin(p.rout) * 0.999) {
     out.push(`rout: margin ${routMargin(p.rout).toFixed(2)}x -> ${routMargin(q.rout).toFixed(2)}x of the target`);

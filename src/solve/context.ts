@@ -7,6 +7,7 @@ import { midSpan } from '../policy.js';
 import type { KitAccess } from './kit.js';
 import { gmidGrid, lengthGrid } from './search/grid.js';
 import type { SweepCache } from './search/stage-options.js';
+import { formatEng } from '../units/index.js';
 import { widthLimit } from './width.js';
 
 /** Highest current density the slice reaches (top of its VGS and VDS axes, VSB = 0), A/m. */
@@ -71,11 +72,11 @@ export function makeContext(spec: StackSpec, kit: KitAccess, supply: number, cor
   for (const c of corners) {
     if (!kit.corners.includes(c)) throw new StackwrightError(`corner "${c}" is not in kit ${kit.kit} (has ${kit.corners.join(', ')})`, { where });
   }
-  if (!(spec.headroom < spec.span)) throw new StackwrightError(`headroom ${spec.headroom} V must be below span ${spec.span} V`, { where: `${where}.headroom` });
-  if (spec.span > supply + 1e-12) throw new StackwrightError(`span ${spec.span} V exceeds the supply ${supply} V`, { where: `${where}.span` });
+  if (!(spec.headroom < spec.span)) throw new StackwrightError(`headroom ${formatEng(spec.headroom, 'V', 4)} must be below span ${formatEng(spec.span, 'V', 4)}`, { where: `${where}.headroom` });
+  if (spec.span > supply + 1e-12) throw new StackwrightError(`span ${formatEng(spec.span, 'V', 4)} exceeds the supply ${formatEng(supply, 'V', 4)}`, { where: `${where}.span` });
   const coeff = kit.mismatch(spec.device);
   if (coeff && !(coeff.avt >= 0 && coeff.abeta >= 0)) {
-    throw new StackwrightError(`kit ${kit.kit} has unusable Pelgrom coefficients for ${spec.device}-type devices (avt ${coeff.avt}, abeta ${coeff.abeta}; SI expected)`, { where });
+    throw new StackwrightError(`kit ${kit.kit} has unusable Pelgrom coefficients for ${spec.device}-type devices (A_VT ${formatEng(coeff.avt, 'V·m')}, A_β ${formatEng(coeff.abeta, 'm')}; SI expected)`, { where });
   }
   if (spec.mismatch !== undefined && !coeff) {
     throw new StackwrightError(`a mismatch target is set but kit ${kit.kit} has no Pelgrom coefficients for ${spec.device}-type devices`, { where: `${where}.mismatch` });

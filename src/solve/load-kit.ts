@@ -1,8 +1,8 @@
 import { StackwrightError } from '../errors.js';
-import { listKits, listTables, loadTable } from '../table/store.js';
+import { listKits, listTables, loadTable, readTableHeader, tablePath } from '../table/store.js';
 import type { DeviceTable, Polarity } from '../table/types.js';
 import { tablesDirFor } from '../table/locate.js';
-import { kitAccessFromTables } from './kit-tables.js';
+import { kitAccessFromSources } from './kit-tables.js';
 import type { KitAccess } from './kit.js';
 
 /** A kit's tables, loaded, with what the search needs. */
@@ -13,8 +13,9 @@ export interface Kit extends KitAccess {
 }
 
 /**
- * Load every table of a kit. Without `tables`, looks in ./tables and then in the
- * package's bundled demo tables.
+ * A kit's tables by name; each table is read when first needed (sizing at tt
+ * reads only the tt tables it uses). Without `tables`, looks in ./tables and
+ * then in the package's bundled demo tables.
  */
 export function loadKit(kit: string, opts: { tables?: string } = {}): Kit {
   const dir = tablesDirFor(kit, opts.tables);
@@ -23,8 +24,12 @@ export function loadKit(kit: string, opts: { tables?: string } = {}): Kit {
     const have = listKits(dir);
     throw new StackwrightError(`kit ${kit} not found in ${dir}` + (have.length ? ` (has ${have.join(', ')})` : ' (no kits there)'));
   }
-  const tables = names.map((name) => loadTable(dir, kit, name.slice(0, 1) as Polarity, name.slice(2)));
-  const access = kitAccessFromTables(tables);
+  const sources = names.map((name) => {
+    const device = name.slice(0, 1) as Polarity;
+    const corner = name.slice(2);
+    return { device, corner, load: () => loadTable(dir, kit, device, corner), meta: () => readTableHeader(tablePath(dir, kit, device, corner)).meta };
+  });
+  const access = kitAccessFromSources(kit, sources);
   return {
     ...access,
     dir,

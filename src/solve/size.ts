@@ -4,6 +4,7 @@ import type { DesignSpec, StackSpec, Topology } from '../design/types.js';
 import { topologyNames } from '../topology/index.js';
 import { CAUTION, type SizeResult, type StackResult } from './types.js';
 import type { KitAccess } from './kit.js';
+import { checkTableCover } from './table-cover.js';
 import { makeContext, type SolveContext } from './context.js';
 import { screen } from './search/screen.js';
 import { evaluateOnce, refine, type Seen } from './search/refine.js';
@@ -123,21 +124,24 @@ function noCandidate(ctx: SolveContext, from: { triode: number; narrow: number }
  * Size one current source/sink: for its topology (or each of the four for
  * 'auto') screen the design space cheaply, evaluate the most promising few
  * hundred exactly, refine locally, and check every corner. Returns one result
- * per topology tried and the Pareto front of all exactly evaluated designs.
+ * per topology tried and, per topology, the Pareto front of its exactly evaluated designs.
  *
  * @example sizeStack(spec, kit, { supply: 1.8, corners: ['tt', 'ss'] }).results[0].feasible
  */
 export function sizeStack(spec: StackSpec, kit: KitAccess, opts: { supply: number; corners: string[] }): SizeStackResult {
+  checkTableCover(spec, kit, opts.corners, opts.supply, `stack "${spec.name}"`);
   const ctx = makeContext(spec, kit, opts.supply, opts.corners);
   const topologies: readonly Topology[] = spec.topology === 'auto' ? topologyNames() : [spec.topology];
   const results: StackResult[] = [];
-  const all: Evaluated[] = [];
+  const front: FrontPoint[] = [];
   for (const t of topologies) {
     const { result, pool } = sizeTopology(ctx, t);
     results.push(result);
-    all.push(...pool);
+    // Each topology's own front: the overall front is contained in their union, and every
+    // topology tried (the chosen one above all) keeps its points even where another dominates it.
+    front.push(...paretoFront(pool.map((e) => frontPoint(ctx, e))));
   }
-  return { results, front: paretoFront(all.map((e) => frontPoint(ctx, e))), evaluated: ctx.count.screened + ctx.count.exact };
+  return { results, front, evaluated: ctx.count.screened + ctx.count.exact };
 }
 
 /**
@@ -150,6 +154,8 @@ export function sizeDesign(design: DesignSpec, kit: KitAccess): SizeResult & { f
     throw new StackwrightError(`spec asks for kit "${design.kit}" but the tables are for "${kit.kit}"`, { where: `${design.file}: kit` });
   }
   const corners = resolveCorners(design, kit.corners);
+  // Every stack first, so a spec the tables cannot describe fails before any search.
+  design.stacks.forEach((s, i) => checkTableCover(s, kit, corners, design.supply, `${design.file}: stacks[${i}]`));
   const stacks: StackResult[] = [];
   const fronts: Record<string, FrontPoint[]> = {};
   for (const s of design.stacks) {

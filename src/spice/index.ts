@@ -1,4 +1,4 @@
-export { stackNetlist, designNetlist, stackLines, DEFAULT_MODELS, SWEEP_SOURCE, SWEEP_NODE, PROBE_PREFIX, type NetlistOptions } from './netlist.js';
+export { stackNetlist, designNetlist, stackLines, fingers, MAX_FINGER_WIDTH, DEFAULT_MODELS, SWEEP_SOURCE, SWEEP_NODE, PROBE_PREFIX, type NetlistOptions } from './netlist.js';
 export { characterisationDeck, CHAR_COLUMNS, DEFAULT_DATA_FILE, DEFAULT_PINS, dataFileFor, devicePath, type CharacterisationOptions, type Pin, type SweepRange } from './characterise.js';
 export { characterisationCsv } from './characterise-csv.js';
 export { characterise } from './characterise-run.js';

@@ -16,14 +16,49 @@ export interface NetlistOptions {
   bias?: 'ideal' | 'diodes';
   /** Stack-voltage sweep, V (default 0 .. supply in 10 mV). */
   sweep?: { from: number; to: number; step: number };
-  /** Stack voltage of the `.op` point, V (default the middle of the sweep). */
+  /**
+   * Stack voltage of the `.op` point, V. Default: the stack's mid-span, (headroom + span)/2,
+   * where the design current is defined; the middle of the sweep when no targets are known.
+   */
   at?: number;
+  /** Widest single device, m: wider devices are written as `m` parallel fingers (default 10 µm). */
+  maxFingerWidth?: number;
   /** Targets, for the header comment. */
   spec?: Pick<StackSpec, 'current' | 'rout' | 'headroom' | 'span'>;
   title?: string;
 }
 
 export const DEFAULT_MODELS = { n: 'nmos_model', p: 'pmos_model' } as const;
+
+/**
+ * Default widest finger, m. Layouts split wide devices into parallel fingers of a few µm
+ * (common practice); models are characterised at such widths, not at hundreds of µm.
+ */
+export const MAX_FINGER_WIDTH = 10e-6;
+
+/**
+ * Fingers for a device of total width `w`: the fewest of equal width ≤ `max`.
+ * SPICE's instance multiplier `m` puts that many identical devices in parallel.
+ */
+export function fingers(w: number, max = MAX_FINGER_WIDTH): { count: number; width: number } {
+  const count = Math.max(1, Math.ceil(w / max - 1e-9));
+  return { count, width: w / count };
+}
+
+/** `W=.. L=..` plus ` m=N` when the device is split. */
+function geometry(w: number, l: number, max: number | undefined): string {
+  const f = fingers(w, max);
+  return `W=${formatSpice(f.width)} L=${formatSpice(l)}${f.count > 1 ? ` m=${f.count}` : ''}`;
+}
+
+function midNote(distinct: number): string {
+  return distinct === 1 ? ' (mid-span: (headroom + span)/2)' : " (the first stack's mid-span; each stack's own is on its targets line)";
+}
+
+/** Stack voltage where the design current is defined (README: mid-span). */
+function midSpanOf(spec: Pick<StackSpec, 'headroom' | 'span'>): number {
+  return 0.5 * (spec.headroom + spec.span);
+}
 
 /** Names of the sweep source and the stack-voltage node every netlist uses. */
 export const SWEEP_SOURCE = 'vstack';
@@ -50,7 +85,10 @@ function deck(stacks: readonly StackResult[], opts: NetlistOptions, specs: (Netl
   checkOptions(opts);
   const models = opts.models ?? DEFAULT_MODELS;
   const sweep = opts.sweep ?? { from: 0, to: opts.supply, step: 0.01 };
-  const at = opts.at ?? 0.5 * (sweep.from + sweep.to);
+  // One sweep source serves every stack, so one .op point: the mid-span when the stacks share it
+  // (always for one stack); otherwise the first stack's, and each stack's own is noted beside it.
+  const mids = [...new Set(specs.flatMap((x, k) => (x && stacks[k].devices.length > 0 ? [midSpanOf(x)] : [])))];
+  const at = opts.at ?? mids[0] ?? 0.5 * (sweep.from + sweep.to);
   const lines: string[] = [
     `* ${opts.title ?? 'stackwright cascode netlist'} (Berkeley SPICE3 syntax, tested with ngspice)`,
     `* ${CAUTION}`,
@@ -59,6 +97,10 @@ function deck(stacks: readonly StackResult[], opts: NetlistOptions, specs: (Netl
   ];
   const inc = includeLines(opts.include);
   lines.push(...(inc.length ? inc : ['* .lib \'/path/to/foundry/models.lib\' tt']));
+  lines.push(
+    `* .op at stack voltage ${formatEng(at, 'V', 4)}${opts.at === undefined && mids.length > 0 ? midNote(mids.length) : ''}; ` +
+      `wide devices are written as parallel fingers (m=) of at most ${formatEng(opts.maxFingerWidth ?? MAX_FINGER_WIDTH, 'm')}`,
+  );
   lines.push(`vdd vdd 0 dc ${formatSpice(opts.supply)}`, `${SWEEP_SOURCE} ${SWEEP_NODE} 0 dc ${formatSpice(at)}`);
   stacks.forEach((s, k) => {
     // A design may hold stacks the search could not size: note them, keep the deck simulatable.
@@ -97,9 +139,9 @@ export function stackLines(
     `* ---- stack "${s.name}": ${s.device}-type ${s.topology}${p ? ', hanging from the supply' : ', on ground'}${s.feasible ? '' : ` -- INFEASIBLE (${bindingText(s) || 'targets not met'})`}`,
   ];
   if (spec) {
-    lines.push(`* targets: iout ${formatEng(spec.current, 'A')}, rout >= ${formatEng(spec.rout, 'ohm')}, headroom ${formatEng(spec.headroom, 'V')}, span ${formatEng(spec.span, 'V')}`);
+    lines.push(`* targets: iout ${formatEng(spec.current, 'A')}, rout >= ${formatEng(spec.rout, 'ohm')}, headroom ${formatEng(spec.headroom, 'V')}, span ${formatEng(spec.span, 'V')}; mid-span ${formatEng(midSpanOf(spec), 'V', 4)}`);
   }
-  lines.push(`* predicted: iout ${formatEng(pr.iout, 'A')}, rout ${formatEng(pr.rout, 'ohm')}, headroom ${formatEng(pr.headroom, 'V')}`);
+  lines.push(`* predicted: iout ${shown(pr.iout, 'A')}, rout ${shown(pr.rout, 'ohm')}, headroom ${shown(pr.headroom, 'V')}`);
   lines.push(`${PROBE_PREFIX} ${tag} ${s.device} ${ammeter} ${s.name}`);
   // Output node follows the stack voltage; the ammeter reads iout positive for either type.
   lines.push(p ? `e_${tag} ${out} vdd ${SWEEP_NODE} 0 -1` : `e_${tag} ${out} 0 ${SWEEP_NODE} 0 1`);
@@ -107,11 +149,17 @@ export function stackLines(
   let below = rail;
   s.devices.forEach((d, k) => {
     const drain = k === s.devices.length - 1 ? `d_${tag}` : `n${k + 1}_${tag}`;
-    lines.push(`m_${tag}_${d.role} ${drain} ${gates.get(d.role)} ${below} ${rail} ${model} W=${formatSpice(d.w)} L=${formatSpice(d.l)}`);
+    lines.push(`m_${tag}_${d.role} ${drain} ${gates.get(d.role)} ${below} ${rail} ${model} ${geometry(d.w, d.l, opts.maxFingerWidth)}`);
     below = drain;
   });
   lines.push(p ? `${ammeter} d_${tag} ${out} dc 0` : `${ammeter} ${out} d_${tag} dc 0`);
   return lines;
+}
+
+/** A predicted value for a comment: "never" for a headroom never reached, "n/a" when there is none. */
+function shown(x: number, unit: string): string {
+  if (x === Infinity) return 'never';
+  return Number.isFinite(x) ? formatEng(x, unit) : 'n/a';
 }
 
 /** Emit the gate drive (ideal sources or sized bias diodes) and return role -> gate node. */
@@ -141,7 +189,7 @@ export function gateNodes(
       throw new StackwrightError(`bias[${j}].stackedOn = ${b.stackedOn} is not another bias device`, { where });
     }
     lines.push(`* bias diode for the ${b.drives} gate: produces ${formatEng(b.voltage, 'V')} at ${formatEng(b.current, 'A')}`);
-    lines.push(`m_${tag}_bias${j} ${node} ${node} ${src} ${rail} ${model} W=${formatSpice(b.w)} L=${formatSpice(b.l)}`);
+    lines.push(`m_${tag}_bias${j} ${node} ${node} ${src} ${rail} ${model} ${geometry(b.w, b.l, opts.maxFingerWidth)}`);
     // A diode others sit on already gets their current; feed only what is missing.
     const fromAbove = s.bias.reduce((sum, o) => sum + (o.stackedOn === j ? o.current : 0), 0);
     const feed = b.current - fromAbove;
@@ -157,13 +205,16 @@ export function gateNodes(
 }
 
 function checkOptions(o: NetlistOptions): void {
-  if (!(o.supply > 0)) throw new StackwrightError(`supply must be > 0 V, got ${o.supply}`, { where: 'netlist: supply' });
+  if (!(o.supply > 0)) throw new StackwrightError(`supply must be > 0 V, got ${formatEng(o.supply, 'V', 4)}`, { where: 'netlist: supply' });
   const m = o.models ?? DEFAULT_MODELS;
   for (const key of ['n', 'p'] as const) {
     if (!/^[A-Za-z_][\w.$-]*$/.test(m[key])) throw new StackwrightError(`"${m[key]}" is not a SPICE model name`, { where: `netlist: models.${key}` });
   }
+  if (o.maxFingerWidth !== undefined && !(o.maxFingerWidth > 0)) {
+    throw new StackwrightError(`expected a positive width, got ${formatEng(o.maxFingerWidth, 'm')}`, { where: 'netlist: maxFingerWidth' });
+  }
   const s = o.sweep;
   if (s && (!(s.step > 0) || !(s.to > s.from) || s.from < 0 || s.to > o.supply + 1e-12)) {
-    throw new StackwrightError(`need 0 <= from < to <= supply and step > 0, got ${s.from}..${s.to} step ${s.step}`, { where: 'netlist: sweep' });
+    throw new StackwrightError(`need 0 <= from < to <= supply and step > 0, got ${formatEng(s.from, 'V', 4)}..${formatEng(s.to, 'V', 4)} step ${formatEng(s.step, 'V', 4)}`, { where: 'netlist: sweep' });
   }
 }

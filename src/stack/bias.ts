@@ -3,6 +3,7 @@ import type { Role, StackShape } from './types.js';
 import { vgsForCurrent } from './invert.js';
 import { covers, outsideSlice } from './range.js';
 import { StackwrightError } from '../errors.js';
+import { formatEng } from '../units/index.js';
 
 /** A diode-connected bias device in stack coordinates. */
 export interface BiasDevice {
@@ -62,7 +63,7 @@ export function biasDevices(
     const slice = slices[k];
     if (!covers(slice, vgs, vgs, vsb)) throw outsideSlice(slice, vgs, vgs, vsb, `bias diode for the ${drives} gate`);
     let w = diodeWidth(slice, vgs, vsb, ib);
-    if (w === null) throw new StackwrightError(`bias diode for the ${drives} gate carries no current at VGS = ${vgs.toFixed(3)} V`, { kind: 'range' });
+    if (w === null) throw new StackwrightError(`bias diode for the ${drives} gate carries no current at VGS = ${formatEng(vgs, 'V', 4)}`, { kind: 'range' });
     let l = slice.l;
     if (widen && w < widen.wmin) {
       const next = widen.lengths.find((x) => x > l * (1 + 1e-9) && (diodeWidth(widen.slice(x), vgs, vsb, ib) ?? 0) >= widen.wmin);
@@ -89,7 +90,7 @@ export function biasGates(bias: readonly Pick<BiasDevice, 'w' | 'current' | 'sta
     const vsb = b.stackedOn === undefined ? 0 : gates[b.stackedOn];
     const vgs = vgsForCurrent(slices[k], b.w, b.current, 'diode', vsb);
     if (vgs === null) {
-      throw new StackwrightError(`bias diode for the ${b.drives} gate cannot carry ${b.current.toExponential(3)} A within the table (VSB = ${vsb.toFixed(3)} V)`, { kind: 'range' });
+      throw new StackwrightError(`bias diode for the ${b.drives} gate cannot carry ${formatEng(b.current, 'A', 4)} within the table (VSB = ${formatEng(vsb, 'V', 4)})`, { kind: 'range' });
     }
     gates.push(vsb + vgs);
   });

@@ -2,6 +2,7 @@ import { StackwrightError } from '../errors.js';
 import type { StackDevice, StackOp } from './types.js';
 import { solveOperatingPoint } from './operating.js';
 import { routAt } from './rout.js';
+import { formatEng } from '../units/index.js';
 
 /** One point of the I–V curve; `op` is null where the table cannot cover it. */
 export interface CurveSample {
@@ -26,7 +27,7 @@ export function stackCurve(
   opts: { intervals?: number; anchor?: StackOp; lowest?: (s: CurveSample) => boolean } = {},
 ): CurveSample[] {
   const n = Math.max(Math.round(opts.intervals ?? 64), 2);
-  if (!(span > 0)) throw new StackwrightError(`span must be positive, got ${span}`, { kind: 'input' });
+  if (!(span > 0)) throw new StackwrightError(`span must be positive, got ${formatEng(span, 'V', 4)}`, { kind: 'input' });
   const out: CurveSample[] = new Array(n + 1);
   const vAt = (j: number) => (span * j) / n;
   const start = opts.anchor ? Math.min(n, Math.max(0, Math.round((opts.anchor.v / span) * n))) : n;
@@ -61,8 +62,39 @@ export function sampleAt(devices: readonly StackDevice[], gates: readonly number
   }
 }
 
-/** A DC-solve guess at v from a solved point: internal nodes barely move in saturation, so keep them, shrinking the share above each node with v. */
+// Within this distance of a solved point the tangent predicts the next one (Newton then needs fewer steps).
+const TANGENT_SPAN = 0.25;
+
+/**
+ * Start of the solve at v from a solved point. Near it, the tangent of the solution path (Euler predictor of
+ * continuation, common practice): dI/dV = 1/Rout and dx_k/dV = z_k/Rout, z_k the node voltages the Rout
+ * recurrence gives for a 1 A test current. Farther, or without small-signal values: internal nodes barely move
+ * in saturation, so keep them, shrinking the share above each node with v.
+ */
 export function continued(op: StackOp, v: number): { i: number; nodes: number[] } {
+  const n = op.nodes.length - 1;
+  const dv = v - op.v;
+  if (op.devices.length === n && n > 0 && Math.abs(dv) <= TANGENT_SPAN) {
+    const nodes = new Array<number>(n + 1);
+    nodes[0] = 0;
+    nodes[n] = v;
+    let z = 0;
+    let ok = true;
+    for (let k = 0; k < n; k++) {
+      const d = op.devices[k];
+      if (!(d.gds > 0)) {
+        ok = false;
+        break;
+      }
+      z += (1 + (d.gm + d.gmb) * z) / d.gds;
+      if (k < n - 1) nodes[k + 1] = z;
+    }
+    const rout = z;
+    if (ok && rout > 0 && Number.isFinite(rout)) {
+      for (let k = 1; k < n; k++) nodes[k] = Math.min(Math.max(op.nodes[k] + (dv * nodes[k]) / rout, nodes[k - 1]), v);
+      return { i: Math.max(op.i + dv / rout, 0.5 * op.i), nodes };
+    }
+  }
   const ratio = op.v > 0 ? Math.min(v / op.v, 1) : 1;
   return { i: op.i, nodes: op.nodes.map((x) => Math.max(0, Math.min(x, v - (op.v - x) * ratio))) };
 }

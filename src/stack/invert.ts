@@ -5,7 +5,8 @@ const s4 = new Float64Array(4);
 
 /** gm/ID at a bias; +Infinity where the device carries no current (square-law cut-off). */
 export function gmidAt(slice: LengthSlice, vgs: number, vds: number, vsb: number): number {
-  const s = slice.small(vgs, vds, vsb, s4);
+  // Only jd and gm are needed: a slice that can give just those skips gds and gmb.
+  const s = slice.jdGm ? (slice.jdGm(vgs, vds, vsb, s4), s4) : slice.small(vgs, vds, vsb, s4);
   return s[0] > 0 ? s[1] / s[0] : Infinity;
 }
 

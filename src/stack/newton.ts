@@ -26,15 +26,19 @@ export function newtonOperatingPoint(devices: readonly StackDevice[], gates: rea
 
   for (let it = 0; it < MAX_ITER; it++) {
     let rmax = 0;
+    let exact = true;
     for (let k = 0; k < n; k++) {
       const b = slope[k];
-      if (!current(devices[k], gates[k] - x[k], x[k + 1] - x[k], x[k], b)) return null;
+      const d = devices[k];
+      // A slice with exact slopes gives current and slopes from one lookup; others get differences below.
+      const ok = d.slice.jdSlopes ? currentAndSlopes(d, gates[k] - x[k], x[k + 1] - x[k], x[k], b) : ((exact = false), current(d, gates[k] - x[k], x[k + 1] - x[k], x[k], b));
+      if (!ok) return null;
       r[k] = b.id - i;
       rmax = Math.max(rmax, Math.abs(r[k]));
     }
     if (rmax <= 1e-10 * Math.abs(i) + 1e-24) return finish(devices, gates, v, i, x);
-    // Slopes only when another step is needed: the converged pass costs one lookup per device.
-    for (let k = 0; k < n; k++) slopes(devices[k], slope[k]);
+    // Differences only when another step is needed: the converged pass costs one lookup per device.
+    if (!exact) for (let k = 0; k < n; k++) if (!devices[k].slice.jdSlopes) slopes(devices[k], slope[k]);
     if (!chainStep(slope, r, dx)) return null;
     // dx[0..n−2] are node steps, dx[n−1] the current step.
     let scale = 1;
@@ -60,6 +64,23 @@ function current(d: StackDevice, vgs: number, vds: number, vsb: number, out: Dev
   out.vds = vds;
   out.vsb = vsb;
   out.id = d.w * d.slice.jd(vgs, vds, vsb);
+  return true;
+}
+
+const js = new Float64Array(4);
+
+/** Current and its exact slopes (the interpolant's derivatives, gmb as −∂I/∂VSB) into `out`; false outside the table. */
+function currentAndSlopes(d: StackDevice, vgs: number, vds: number, vsb: number, out: DeviceBias): boolean {
+  if (!covers(d.slice, vgs, vds, vsb)) return false;
+  d.slice.jdSlopes!(vgs, vds, vsb, js);
+  const w = d.w;
+  out.vgs = vgs;
+  out.vds = vds;
+  out.vsb = vsb;
+  out.id = w * js[0];
+  out.gm = w * js[1];
+  out.gds = w * js[2];
+  out.gmb = -w * js[3];
   return true;
 }
 
@@ -134,5 +155,6 @@ function fill(bias: readonly DeviceBias[], r: Float64Array, dx: Float64Array, di
     dx[k] = xk;
     prev = xk;
   }
-  return dx.every(Number.isFinite);
+  for (let k = 0; k < dx.length; k++) if (!Number.isFinite(dx[k])) return false;
+  return true;
 }

@@ -4,6 +4,7 @@ import { newtonOperatingPoint } from './newton.js';
 import { bracketedOperatingPoint } from './bracketed.js';
 import { emptyBias, evalDevice } from './evaluate-device.js';
 import { outsideSlice } from './range.js';
+import { formatEng } from '../units/index.js';
 
 /**
  * DC operating point of a stack at stack voltage `v` with fixed gate voltages
@@ -17,7 +18,7 @@ export function solveOperatingPoint(devices: readonly StackDevice[], gates: read
   if (devices.length === 0 || devices.length !== gates.length) {
     throw new StackwrightError(`stack needs one gate voltage per device (got ${devices.length} devices, ${gates.length} gates)`, { kind: 'internal' });
   }
-  if (!(v >= 0) || !Number.isFinite(v)) throw new StackwrightError(`stack voltage must be ≥ 0 V, got ${v}`, { kind: 'input' });
+  if (!(v >= 0) || !Number.isFinite(v)) throw new StackwrightError(`stack voltage must be ≥ 0 V, got ${Number.isFinite(v) ? formatEng(v, 'V', 4) : 'a value that is not a finite number'}`, { kind: 'input' });
   if (devices.length === 1) return singleDevice(devices[0], gates[0], v);
   const g = guess ?? defaultGuess(devices.length, v);
   return newtonOperatingPoint(devices, gates, v, g) ?? bracketedOperatingPoint(devices, gates, v);

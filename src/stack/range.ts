@@ -10,9 +10,12 @@ export function covers(slice: LengthSlice, vgs: number, vds: number, vsb: number
   const r = slice.range;
   return within(vgs, r.vgs) && within(vds, r.vds) && within(vsb, r.vsb);
 }
+// Hot path (every DC solve step): indexing, not parameter destructuring, which allocates an iterator when not inlined.
 
 /** x on the axis [lo, hi] up to the table-edge tolerance (the slice's locator accepts the same). */
-export function within(x: number, [lo, hi]: readonly [number, number]): boolean {
+export function within(x: number, axis: readonly [number, number]): boolean {
+  const lo = axis[0];
+  const hi = axis[1];
   const slack = edgeTolerance(lo, hi);
   return x >= lo - slack && x <= hi + slack;
 }

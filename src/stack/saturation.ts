@@ -21,7 +21,9 @@ export function gmidCeiling(slice: LengthSlice, vsb: number): number {
   const out = new Float64Array(4);
   let best = 0;
   for (let j = 0; j <= SCAN; j++) {
-    const s = slice.small(r.vgs[0] + ((r.vgs[1] - r.vgs[0]) * j) / SCAN, vds, vsb, out);
+    const vgs = r.vgs[0] + ((r.vgs[1] - r.vgs[0]) * j) / SCAN;
+    // Only jd and gm are needed (the same values small() gives).
+    const s = slice.jdGm ? (slice.jdGm(vgs, vds, vsb, out), out) : slice.small(vgs, vds, vsb, out);
     if (s[0] > 0 && s[1] > 0) best = Math.max(best, s[1] / s[0]);
   }
   return best;

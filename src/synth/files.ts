@@ -7,7 +7,7 @@ import { join } from 'node:path';
 import { promisify } from 'node:util';
 import { gzip, gzipSync } from 'node:zlib';
 import { StackwrightError } from '../errors.js';
-import { writeFileAtomic } from '../fsutil.js';
+import { ensureFolder, writeFileAtomic } from '../fsutil.js';
 import { synthCsv } from './csv.js';
 import { csvFileName, kitJson } from './kit-json.js';
 import { DEMO_KIT_NAMES } from './kits.js';
@@ -70,6 +70,8 @@ export async function writeSynthKits(outDir: string, opts: { force?: boolean; ki
       throw new StackwrightError(`${taken[0]} exists${more}; pass --force to overwrite`, { kind: 'exists' });
     }
   }
+  // Every folder first: a bad --out fails before any CSV is generated.
+  for (const k of kits) ensureFolder(join(outDir, k.kit));
   const pending: Array<Promise<void>> = [];
   for (const t of targets) {
     const kit = t.path.split('/')[0];

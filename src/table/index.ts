@@ -11,4 +11,5 @@ export {
   TABLE_EXT, tablePath, writeTable, readTable, readTableHeader, listKits, listTables, loadTable, clearTableCache,
 } from './store.js';
 export { kitInventory } from './inventory.js';
-export type { KitSummary, TableSummary } from './inventory.js';
+export { readTableAround } from './partial.js';
+export type { KitSummary, TableSummary, BrokenTable } from './inventory.js';

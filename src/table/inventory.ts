@@ -1,4 +1,5 @@
 import { join } from 'node:path';
+import { StackwrightError } from '../errors.js';
 import { listKits, listTables, readTableHeader, TABLE_EXT } from './store.js';
 import type { MismatchCoefficients, Polarity, SourceFile, StoredQuantity } from './types.js';
 
@@ -23,17 +24,37 @@ export interface TableSummary {
   points: number;
 }
 
+/** A table file whose header cannot be read, with why. */
+export interface BrokenTable {
+  /** `<device>-<corner>` from the file name. */
+  name: string;
+  file: string;
+  error: string;
+}
+
 export interface KitSummary {
   kit: string;
   tables: TableSummary[];
+  /** Files that look like tables of this kit but cannot be read; listed, not fatal. */
+  broken: BrokenTable[];
 }
 
 /** What every kit in a table folder holds, read from the headers only. */
 export function kitInventory(dir: string): KitSummary[] {
-  return listKits(dir).map((kit) => ({
-    kit,
-    tables: listTables(dir, kit).map((name) => summarise(join(dir, kit, name + TABLE_EXT))),
-  }));
+  return listKits(dir).map((kit) => {
+    const tables: TableSummary[] = [];
+    const broken: BrokenTable[] = [];
+    for (const name of listTables(dir, kit)) {
+      const file = join(dir, kit, name + TABLE_EXT);
+      try {
+        tables.push(summarise(file));
+      } catch (e) {
+        if (!(e instanceof StackwrightError)) throw e;
+        broken.push({ name, file, error: e.message });
+      }
+    }
+    return { kit, tables, broken };
+  });
 }
 
 function summarise(file: string): TableSummary {

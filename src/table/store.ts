@@ -51,21 +51,26 @@ export function readTableHeader(path: string): TableHeader {
   }
   try {
     const total = statSync(path).size;
-    let buf = Buffer.alloc(Math.min(total, 1 << 16));
-    let got = readSync(fd, buf, 0, buf.length, 0);
-    // Headers with long axis lists can exceed the first chunk.
-    while (buf.indexOf(10, buf.indexOf(10) + 1) < 0 && got < total) {
-      const more = Buffer.alloc(Math.min(total, buf.length * 4));
-      buf.copy(more, 0, 0, got);
-      got += readSync(fd, more, got, more.length - got, got);
-      buf = more;
-    }
-    const { header, dataStart } = decodeHeader(buf.subarray(0, got), path);
+    const { header, dataStart } = readHeadFrom(fd, total, path);
     checkLayout(header, Math.max(0, total - dataStart), path);
     return header;
   } finally {
     closeSync(fd);
   }
+}
+
+/** Lines 1-2 of an open table file of `total` bytes, decoded. */
+export function readHeadFrom(fd: number, total: number, path: string): ReturnType<typeof decodeHeader> {
+  let buf = Buffer.alloc(Math.min(total, 1 << 16));
+  let got = readSync(fd, buf, 0, buf.length, 0);
+  // Headers with long axis lists can exceed the first chunk.
+  while (buf.indexOf(10, buf.indexOf(10) + 1) < 0 && got < total) {
+    const more = Buffer.alloc(Math.min(total, buf.length * 4));
+    buf.copy(more, 0, 0, got);
+    got += readSync(fd, more, got, more.length - got, got);
+    buf = more;
+  }
+  return decodeHeader(buf.subarray(0, got), path);
 }
 
 /** Kits in a table folder: sub-folders holding at least one .swtab file, sorted. */

@@ -1,6 +1,7 @@
 import type { Command } from 'commander';
 import { kitInventory } from '../../table/index.js';
-import { renderTable, formatMicrons } from '../../report/index.js';
+import { renderTable } from '../../report/text.js';
+import { formatMicrons } from '../../report/format.js';
 import { formatEng } from '../../units/index.js';
 import { note, out, tablesDirFor, toJson } from '../io.js';
 
@@ -46,6 +47,9 @@ export function registerKits(program: Command): void {
             { align: ['left', 'right', 'left', 'right', 'left', 'left', 'left', 'left', 'left', 'left'] },
           ),
         );
+        for (const b of k.broken) out(`broken table ${b.name}: ${b.error}`);
       }
+      const broken = kits.reduce((n, k) => n + k.broken.length, 0);
+      if (broken > 0) note(`${broken} broken table${broken > 1 ? 's' : ''} listed above; other tables of the kit still work`);
     });
 }

@@ -1,7 +1,10 @@
 import type { Command } from 'commander';
 import { StackwrightError } from '../../errors.js';
-import { designNetlist, stageNetlist } from '../../spice/index.js';
+import { designNetlist } from '../../spice/netlist.js';
+import { stageNetlist } from '../../spice/stage-netlist.js';
 import { decidingResults } from '../../solve/choose.js';
+import type { SizeResult } from '../../solve/types.js';
+import type { StackSpec } from '../../design/types.js';
 import { parseSizeResult } from '../../solve/parse-result.js';
 import { writeFilesAtomic } from '../../fsutil.js';
 import { note, out, readText } from '../io.js';
@@ -14,6 +17,15 @@ interface NetlistFlags {
   bias: 'ideal' | 'diodes';
   stage?: string;
   force?: boolean;
+}
+
+/** The spec targets `size --json` writes beside the result (absent in older files: .op then at mid-sweep). */
+function targetsOf(result: SizeResult): StackSpec[] | undefined {
+  const t = (result as SizeResult & { targets?: unknown }).targets;
+  if (!Array.isArray(t)) return undefined;
+  const ok = t.filter((x): x is StackSpec => !!x && typeof x === 'object' && typeof x.name === 'string' && typeof x.headroom === 'number' && typeof x.span === 'number'
+    && typeof x.current === 'number' && typeof x.rout === 'number');
+  return ok.length ? ok : undefined;
 }
 
 export function registerNetlist(program: Command): void {
@@ -41,7 +53,7 @@ export function registerNetlist(program: Command): void {
         const stage = all.find((s) => s.name === f.stage && s.chosen !== false);
         if (!stage) throw new StackwrightError(`no stage "${f.stage}" in ${path}` + (all.length ? ` (has ${[...new Set(all.map((s) => s.name))].join(', ')})` : ' (it has no stages)'), { where: '--stage' });
         text = stageNetlist(stage, { supply: result.supply, models, include: f.include, bias: f.bias });
-      } else text = designNetlist(chosen, { supply: result.supply, models, include: f.include, bias: f.bias });
+      } else text = designNetlist(chosen, { supply: result.supply, models, include: f.include, bias: f.bias, specs: targetsOf(result) });
       if (f.out) {
         writeFilesAtomic([[f.out, text]], { force: f.force });
         note(`wrote ${f.out}`);

@@ -2,7 +2,9 @@ import type { Command } from 'commander';
 import { loadKit, portSpec } from '../../api.js';
 import { parseSpec } from '../../design/index.js';
 import { renderPortText, bindingText, stageVerdictText } from '../../report/index.js';
-import { EXIT } from '../../errors.js';
+import { EXIT, StackwrightError } from '../../errors.js';
+import { kitVdsTop } from '../../solve/table-cover.js';
+import { formatEng } from '../../units/index.js';
 import { engFlag } from '../options.js';
 import { note, out, readText, toJson, useColor } from '../io.js';
 
@@ -29,6 +31,14 @@ export function registerPort(program: Command): void {
       const spec = parseSpec(readText(specPath, 'spec file'), specPath);
       const from = loadKit(f.from ?? spec.kit, { tables: f.tables });
       const to = loadKit(f.to, { tables: f.tables });
+      if (f.supply !== undefined) {
+        // A supply the new tables cannot describe is bad input, not an infeasible design.
+        if (!(f.supply > 0)) throw new StackwrightError(`expected a positive supply, got ${formatEng(f.supply, 'V', 4)}`, { where: '--supply' });
+        const top = kitVdsTop(to, to.corners);
+        if (f.supply > top * (1 + 1e-9)) {
+          throw new StackwrightError(`${formatEng(f.supply, 'V', 4)} is above the VDS range of kit ${to.kit}'s tables, which ends at ${formatEng(top, 'V', 4)}`, { where: '--supply' });
+        }
+      }
       const run = portSpec(spec, from, to, { supply: f.supply });
       if (f.json) {
         out(toJson({ from: from.kit, to: to.kit, notes: run.notes, supply: { from: spec.supply, to: run.toSpec.supply }, caution: run.to.result.caution, stacks: run.stacks, ...(run.stages.length ? { stages: run.stages } : {}) }));

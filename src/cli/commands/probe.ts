@@ -1,7 +1,10 @@
 import type { Command } from 'commander';
 import { StackwrightError } from '../../errors.js';
-import { probe } from '../../device/index.js';
-import { loadTable } from '../../table/index.js';
+import { probe } from '../../device/probe.js';
+import { existsSync } from 'node:fs';
+import { loadTable } from '../../table/store.js';
+import { readTableAround } from '../../table/partial.js';
+import { tablePath } from '../../table/store.js';
 import { renderTable } from '../../report/text.js';
 import { formatEng } from '../../units/index.js';
 import { engFlag, polarityFlag } from '../options.js';
@@ -44,7 +47,10 @@ export function registerProbe(program: Command): void {
       if (given.length !== 1) {
         throw new StackwrightError(`give exactly one of --gmid, --vgs, --jd (got ${given.length ? given.map((g) => '--' + g).join(', ') : 'none'})`, { where: 'probe' });
       }
-      const table = loadTable(tablesDirFor(f.kit, f.tables), f.kit, f.device, f.corner);
+      const dir = tablesDirFor(f.kit, f.tables);
+      // One query needs the two table lengths around --l only; the whole table otherwise (and for range messages).
+      const path = tablePath(dir, f.kit, f.device, f.corner);
+      const table = (existsSync(path) ? readTableAround(path, f.l) : undefined) ?? loadTable(dir, f.kit, f.device, f.corner);
       const op = probe(table, { l: f.l, vgs: f.vgs, gmid: f.gmid, jd: f.jd, vds: f.vds, vsb: f.vsb, w: f.w });
       if (f.json) {
         out(toJson({ kit: f.kit, device: f.device, corner: f.corner, ...op }));

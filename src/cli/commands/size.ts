@@ -1,17 +1,18 @@
-import { basename, extname } from 'node:path';
 import type { Command } from 'commander';
-import { loadKit, sizeSpec, decidingResults, type SizeRun } from '../../api.js';
+import { loadKit, sizeSpec, decidingResults } from '../../api.js';
 import { parseSpec } from '../../design/index.js';
-import { bindingText, frontCharts, frontCsv, renderSizeText, renderSizeBrief, reportHtml } from '../../report/index.js';
-import { designNetlist, stageNetlist } from '../../spice/index.js';
+import { renderSizeText, renderSizeBrief } from '../../report/size-text.js';
+import { bindingText } from '../../report/verdict.js';
+import { stageVerdictText } from '../../report/stage-rows.js';
 import { decidingStages } from '../../solve/stage-choose.js';
-import { stageVerdictText } from '../../report/index.js';
 import { writeFilesAtomic } from '../../fsutil.js';
+import { lengthClamps } from '../../solve/table-cover.js';
+import { lengthClampNotes } from '../../report/notes.js';
 import { EXIT } from '../../errors.js';
-import { note, out, packageVersion, readText, toJson, useColor } from '../io.js';
+import { note, out, readText, toJson, useColor } from '../io.js';
 import { checkSpiceFlags, confirmRun, spiceOptions, type SpiceFlags } from './size-spice.js';
-import { withCorrection, withStageCorrection } from '../../confirm/index.js';
-import { renderConfirmText, missWords, type Confirmation } from '../../report/index.js';
+import { renderConfirmText } from '../../report/confirm-text.js';
+import { missWords } from '../../report/confirm-rows.js';
 
 interface SizeFlags extends SpiceFlags {
   tables?: string;
@@ -43,35 +44,24 @@ export function registerSize(program: Command): void {
       const spec = parseSpec(source, specPath);
       const kit = loadKit(spec.kit, { tables: f.tables });
       const run = sizeSpec(spec, kit);
+      const notes = lengthClampNotes(lengthClamps(spec.stacks, kit, run.result.corners[0]));
       const confirmed = f.spice ? await confirmRun(spec, run.result, kit, f) : undefined;
-      const confirmations = confirmed?.stacks;
 
       // Build every output first, then write them together: nothing half-written.
-      const files: Array<[string, string]> = [];
-      if (f.front) {
-        files.push([f.front, frontCsv(run.fronts)]);
-        const stem = f.front.slice(0, f.front.length - extname(f.front).length);
-        for (const [name, svg] of frontCharts(spec, run)) files.push([`${stem}.${name}.svg`, svg]);
-      }
-      if (f.netlist) {
-        // With --spice the netlist carries the sizes simulation confirmed.
-        const chosen = { ...run.result, stacks: decidingResults(run.result).map((r) => withCorrection(r, confirmations?.find((c) => c.name === r.name))) };
-        if (chosen.stacks.length > 0) files.push([f.netlist, designNetlist(chosen, { supply: spec.supply, specs: spec.stacks, title: `stackwright ${basename(specPath)}` })]);
-        // Each stage gets its own deck beside it (its own .dc sweep of the input).
-        const stem = f.netlist.slice(0, f.netlist.length - extname(f.netlist).length);
-        for (const st of decidingStages(run.result)) {
-          if (st.input.devices.length > 0) files.push([`${stem}.${st.name}.cir`, stageNetlist(withStageCorrection(st, confirmed?.stages.find((c) => c.name === st.name)), { supply: spec.supply })]);
-        }
-      }
-      if (f.report) files.push([f.report, reportHtml(spec, source, kit, run, `stackwright ${packageVersion()}`, confirmations, confirmed?.stages)]);
+      // Charts, report and netlist code load only when one of them is asked for.
+      const files = f.front || f.netlist || f.report
+        ? (await import('./size-files.js')).sizeFiles(f, spec, specPath, source, kit, run, notes, confirmed?.stacks, confirmed?.stages)
+        : [];
       writeFilesAtomic(files, { force: f.force });
 
-      if (f.json) out(toJson(run.stageFronts ? { ...run.result, fronts: run.fronts, stageFronts: run.stageFronts } : { ...run.result, fronts: run.fronts }));
+      // The spec's targets ride along so `netlist` can place its .op at each stack's mid-span.
+      if (f.json) out(toJson({ ...run.result, fronts: run.fronts, ...(run.stageFronts ? { stageFronts: run.stageFronts } : {}), targets: spec.stacks }));
       else {
         const stageGains = Object.fromEntries((spec.stages ?? []).map((st) => [st.name, st.gain]));
         out((f.brief ? renderSizeBrief : renderSizeText)(run.result, { color: useColor(), stageFronts: run.stageFronts, stageGains }));
         if (confirmed) out(renderConfirmText(confirmed.stacks, run.result, spec, { color: useColor() }, confirmed.stages));
       }
+      for (const line of notes) note(`note: ${line}`);
       for (const [path] of files) note(`wrote ${path}`);
       const failed = decidingResults(run.result).filter((s) => !s.feasible);
       const failedStages = decidingStages(run.result).filter((s) => !s.feasible);

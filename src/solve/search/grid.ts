@@ -3,7 +3,8 @@ import type { LengthSlice } from '../../device/types.js';
 import type { StackSpec } from '../../design/types.js';
 import { gmidAt, vgsWindow } from '../../stack/invert.js';
 
-const um = (x: number) => `${(x * 1e6).toPrecision(3)} µm`;
+const um = (x: number) => `${Number((x * 1e6).toPrecision(3))} µm`;
+const perVolt = (x: number): string => `${Number(x.toPrecision(3))} /V`;
 
 /**
  * Channel lengths to try: the table lengths inside spec.l, or a grid with
@@ -63,7 +64,7 @@ export function gmidGrid(spec: StackSpec, slices: readonly LengthSlice[], vmid: 
   const lo = spec.gmid?.min ?? GMID_FLOOR;
   const hi = Math.min(spec.gmid?.max ?? Infinity, reach);
   if (!(hi > lo)) {
-    throw new StackwrightError(`gm/ID range ${lo}..${spec.gmid?.max ?? reach} /V is beyond what the table reaches (up to ${reach.toFixed(1)} /V)`, { where: `${where}.gmid` });
+    throw new StackwrightError(`gm/ID range ${perVolt(lo)}..${perVolt(spec.gmid?.max ?? reach)} is beyond what the table reaches (up to ${perVolt(reach)})`, { where: `${where}.gmid` });
   }
   const step = (hi - lo) / (GMID_POINTS - 1);
   return { values: Array.from({ length: GMID_POINTS }, (_, j) => lo + j * step), step };

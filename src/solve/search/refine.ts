@@ -97,10 +97,22 @@ export function refine(
   return best;
 }
 
+// Per search (one `seen` map, one sizing context).
+const areaMemo = new WeakMap<Seen, Map<string, number>>();
+
 function climb(
   ctx: SolveContext, seed: Evaluated, seen: Seen, pool: Evaluated[],
   better: (a: Evaluated, b: Evaluated) => boolean, bound: (best: Evaluated) => number,
 ): Evaluated {
+  // Areas from the sizing alone, by candidate key: the same moves recur from round to round.
+  let areas = areaMemo.get(seen);
+  if (!areas) areaMemo.set(seen, (areas = new Map()));
+  const areaOf = (key: string, c: Candidate): number => {
+    let a = areas!.get(key);
+    if (a === undefined) areas!.set(key, (a = candidateArea(ctx, c)));
+    return a;
+  };
+
   let best = seed;
   let gstep = ctx.gmidStep / 2;
   let vstep = topologyOf(best.cand.topology).refineVoltageStep;
@@ -119,9 +131,9 @@ function climb(
   function step(moves: Candidate[]): boolean {
     let improved = false;
     for (const n of moves) {
-      const limit = bound(best);
-      if (limit < Infinity && !(candidateArea(ctx, n) < limit * (1 - REL_TOL))) continue;
       const key = candidateKey(n);
+      const limit = bound(best);
+      if (limit < Infinity && !(areaOf(key, n) < limit * (1 - REL_TOL))) continue;
       if (seen.has(key)) {
         const e = seen.get(key);
         if (e && better(e, best)) {
