@@ -43,6 +43,7 @@ async function table(device: 'n' | 'p', section: string, corner: string): Promis
 }
 
 const amp: StageSpec = { name: 'amp', current: 20e-6, gain: 300, swing: 0.9, output: 0.9, input: { device: 'n', topology: 'cascode' }, load: { topology: 'cascode' }, objective: 'area' };
+const pamp: StageSpec = { name: 'pamp', current: 20e-6, gain: 200, swing: 0.8, output: 0.8, input: { device: 'p', topology: 'single' }, load: { topology: 'cascode' }, objective: 'area' };
 const sink: StackSpec = { name: 'sink', device: 'n', topology: 'cascode', objective: 'area', current: 20e-6, rout: 20e6, headroom: 0.5, span: 1.6 };
 const design = (stages: StageSpec[], stacks: StackSpec[] = []): DesignSpec => ({ file: 'stage.yaml', kit: KIT, corners: ['typical'], supply: SUPPLY, stacks, stages });
 
@@ -78,28 +79,31 @@ withNgspice('size --spice for gain stages with the invented BSIM4 test card (ref
     for (const t of tables) writeTable(tablesDir, t);
   }, 900_000);
 
-  it('a stage and a stack in the same decks: the stage is confirmed in one round with the gain and swing an independent input sweep gives', async () => {
+  it('an n-input and a p-input stage and a stack in the same decks: each stage is confirmed in one round with the gain and swing an independent input sweep gives', async () => {
     const kit = kitAccessFromTables(tables);
-    const spec = design([amp], [sink]);
+    const spec = design([amp, pamp], [sink]);
     const result = sizeDesign(spec, kit);
-    const stage = decidingStages(result)[0];
-    expect(stage.feasible, JSON.stringify(stage.binding)).toBe(true);
     const got = await confirmDesign({ spec, result, kit, models: TEST_MODELS }, { include: TEST_LIB, sections: { typical: 'tt' } });
     expect(got.stacks.map((c) => c.name)).toEqual(['sink']);
-    const [c] = got.stages;
-    expect(c.confirmed, JSON.stringify(c.misses)).toBe(true);
-    expect(c.rounds).toBe(1);
-    expect(c.corrected).toBeUndefined();
-    const ref = await resimulate(stage, 'tt', amp, c.simulated.vin);
-    console.log(`amp: gain predicted ${stage.predicted.gain.toFixed(1)}, confirm ${c.simulated.gain.toFixed(1)}, input sweep ${ref.gain.toFixed(1)} at ${ref.at.toFixed(4)} V; ` +
-      `swing predicted ${stage.predicted.vlow}..${stage.predicted.vhigh}, confirm ${c.simulated.vlow}..${c.simulated.vhigh}, input sweep ${ref.vlow}..${ref.vhigh}`);
-    // Same simulator, same circuit, same DC points sampled two ways: gain within 3 %, swing ends within 10 mV (the held sweep steps 5 mV).
-    expect(Math.abs(ref.at - amp.output)).toBeLessThan(0.005);
-    expect(Math.abs(c.simulated.gain / ref.gain - 1)).toBeLessThan(0.03);
-    expect(Math.abs(c.simulated.vlow! - ref.vlow!)).toBeLessThan(0.01);
-    expect(Math.abs(c.simulated.vhigh! - ref.vhigh!)).toBeLessThan(0.01);
-    expect(ref.swing).toBeGreaterThanOrEqual(amp.swing);
-    expect(ref.gain).toBeGreaterThanOrEqual(amp.gain);
+    expect(got.stages.map((c) => c.name)).toEqual(['amp', 'pamp']);
+    for (const target of [amp, pamp]) {
+      const stage = decidingStages(result).find((s) => s.name === target.name)!;
+      expect(stage.feasible, JSON.stringify(stage.binding)).toBe(true);
+      const c = got.stages.find((x) => x.name === target.name)!;
+      expect(c.confirmed, JSON.stringify(c.misses)).toBe(true);
+      expect(c.rounds).toBe(1);
+      expect(c.corrected).toBeUndefined();
+      const ref = await resimulate(stage, 'tt', target, c.simulated.vin);
+      console.log(`${target.name}: gain predicted ${stage.predicted.gain.toFixed(1)}, confirm ${c.simulated.gain.toFixed(1)}, input sweep ${ref.gain.toFixed(1)} at ${ref.at.toFixed(4)} V; ` +
+        `swing predicted ${stage.predicted.vlow}..${stage.predicted.vhigh}, confirm ${c.simulated.vlow}..${c.simulated.vhigh}, input sweep ${ref.vlow}..${ref.vhigh}`);
+      // Same simulator, same circuit, same DC points sampled two ways: gain within 3 %, swing ends within 10 mV (the held sweep steps 5 mV).
+      expect(Math.abs(ref.at - target.output)).toBeLessThan(0.005);
+      expect(Math.abs(c.simulated.gain / ref.gain - 1)).toBeLessThan(0.03);
+      expect(Math.abs(c.simulated.vlow! - ref.vlow!)).toBeLessThan(0.01);
+      expect(Math.abs(c.simulated.vhigh! - ref.vhigh!)).toBeLessThan(0.01);
+      expect(ref.swing).toBeGreaterThanOrEqual(target.swing);
+      expect(ref.gain).toBeGreaterThanOrEqual(target.gain);
+    }
   }, 900_000);
 
   it('simulated with the slow section, a stage sized on tt tables misses its swing, is corrected, and meets gain and swing when re-simulated independently', async () => {
