@@ -43,7 +43,7 @@ if (spawnSync('ngspice', ['-v'], { encoding: 'utf8' }).error) {
   process.stdout.write(`\n=== confirm sizes in simulation (size --spice): ngspice is not installed; to run this step: sudo apt-get install ngspice\n`);
 } else {
   run(
-    'size the demo spec on the invented BSIM4 kit reed180 and confirm every design in ngspice (corners tt, ss)',
+    'size the demo spec on the invented BSIM4 kit reed180 and confirm every stack and the gain stage in ngspice (corners tt, ss)',
     ['size', spiceSpec, '--spice', '--include', join('demo-tables', 'reed180', 'reed180.lib'), '--model-n', 'nfet_reed', '--model-p', 'pfet_reed',
       '--report', join(outDir, 'report-spice.html'), '--force'],
     [0, 3],

@@ -1,4 +1,6 @@
 import type { StackResult } from '../solve/types.js';
+import type { StageResult, StageSide } from '../solve/stage-types.js';
+import type { CorrectedSide, StageConfirmation } from './stage-types.js';
 import type { Confirmation } from './types.js';
 
 /** The stack result with the sizes simulation confirmed (for netlists): corrected widths, gates and bias devices. */
@@ -10,4 +12,12 @@ export function withCorrection(stack: StackResult, c: Confirmation | undefined):
     devices: stack.devices.map((d, i) => ({ ...d, w: k.devices[i]?.w ?? d.w, gate: k.devices[i]?.gate ?? d.gate })),
     bias: k.bias,
   };
+}
+
+/** The stage result with the widths simulation confirmed (for netlists): corrected output devices and bias diodes of both sides. */
+export function withStageCorrection(stage: StageResult, c: StageConfirmation | undefined): StageResult {
+  const k = c?.corrected;
+  if (!k) return stage;
+  const side = (s: StageSide, ks: CorrectedSide): StageSide => ({ ...s, devices: s.devices.map((d, i) => ({ ...d, w: ks.devices[i]?.w ?? d.w })), bias: ks.bias });
+  return { ...stage, input: side(stage.input, k.input), load: side(stage.load, k.load) };
 }

@@ -4,7 +4,7 @@ import type { RunOptions } from '../spice/run.js';
 import { runBatch, type BatchColumns } from './batch.js';
 import type { ConfirmItem } from './hook.js';
 import { cornerModels, type ModelSource } from './sections.js';
-import type { Confirmation, Miss, SimulatedFigures } from './types.js';
+import type { Confirmation, Miss } from './types.js';
 
 /** Simulated rounds a design may take before it is declared missing: the table design and up to three corrections. */
 export const MAX_ROUNDS = 4;
@@ -26,8 +26,8 @@ export interface ConfirmOptions extends ModelSource {
   title?: string;
 }
 
-interface State<F extends SimulatedFigures> {
-  item: ConfirmItem<F>;
+interface State<F extends { corner: string }, C> {
+  item: ConfirmItem<F, C>;
   tag: string;
   rounds: number;
   phase: 'correct' | 'tighten' | 'done';
@@ -46,9 +46,9 @@ interface State<F extends SimulatedFigures> {
  * designs with headroom to spare are shrunk and confirmed again (a shrink that
  * fails is undone).
  */
-export async function confirmItems<F extends SimulatedFigures>(items: ConfirmItem<F>[], opts: ConfirmOptions): Promise<Confirmation[]> {
+export async function confirmItems<F extends { corner: string }, C = Confirmation>(items: ConfirmItem<F, C>[], opts: ConfirmOptions): Promise<C[]> {
   const models = opts.corners.map((c) => cornerModels(opts, c, opts.corners));
-  const states: State<F>[] = items.map((item, k) => ({
+  const states: State<F, C>[] = items.map((item, k) => ({
     item, tag: `c${k + 1}`, rounds: 0, phase: 'correct', confirmed: false, tightened: false,
     tightenLeft: opts.tighten ? TIGHTEN_ROUNDS : 0, last: [], misses: [],
   }));
@@ -72,7 +72,7 @@ export async function confirmItems<F extends SimulatedFigures>(items: ConfirmIte
 
 const variantTag = (tag: string, k: number) => `${tag}v${k}`;
 
-function advance<F extends SimulatedFigures>(s: State<F>, figures: F[], misses: Miss[]): void {
+function advance<F extends { corner: string }, C>(s: State<F, C>, figures: F[], misses: Miss[]): void {
   if (s.phase === 'tighten') {
     if (misses.length === 0) {
       s.tightened = true;
@@ -100,8 +100,8 @@ function advance<F extends SimulatedFigures>(s: State<F>, figures: F[], misses: 
   } else s.phase = 'done';
 }
 
-async function simulateRound<F extends SimulatedFigures>(
-  pending: State<F>[], models: string[], round: number, opts: ConfirmOptions,
+async function simulateRound<F extends { corner: string }, C>(
+  pending: State<F, C>[], models: string[], round: number, opts: ConfirmOptions,
 ): Promise<Map<string, BatchColumns>[]> {
   const top = Math.min(opts.supply, Math.max(...pending.map((s) => s.item.sweepTop)) + 2 * SWEEP_STEP);
   const circuits = pending.flatMap((s) => Array.from({ length: s.item.variants() }, (_, k) => s.item.circuit(variantTag(s.tag, k), k)));

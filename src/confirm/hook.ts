@@ -6,7 +6,7 @@ import type { Confirmation, Miss, Simulated, SimulatedFigures } from './types.js
  * it (stack-item.ts); a gain stage plugs in the same way with its own circuit
  * (input sweep mapped from the shared sweep node), measurement and correction.
  */
-export interface ConfirmItem<F extends SimulatedFigures = SimulatedFigures> {
+export interface ConfirmItem<F extends { corner: string } = SimulatedFigures, C = Confirmation> {
   name: string;
   /** Highest value of the shared sweep the circuit needs, V. */
   sweepTop: number;
@@ -31,7 +31,7 @@ export interface ConfirmItem<F extends SimulatedFigures = SimulatedFigures> {
   /** Mark the current design as confirmed by `figures`. */
   keep(figures: F[]): void;
   /** The outcome after the last round. */
-  outcome(last: F[], misses: Miss[], rounds: number, confirmed: boolean, tightened: boolean): Confirmation;
+  outcome(last: F[], misses: Miss[], rounds: number, confirmed: boolean, tightened: boolean): C;
 }
 
 /** Nominal figures on top, every corner below (nominal first). */

@@ -28,7 +28,8 @@ export interface Simulated extends SimulatedFigures {
   corners: SimulatedFigures[];
 }
 
-export type MissTarget = 'iout' | 'rout' | 'headroom';
+/** Stacks miss iout, rout or headroom; gain stages miss gain (at the design point) or swing. */
+export type MissTarget = 'iout' | 'rout' | 'headroom' | 'gain' | 'swing';
 
 /**
  * A target simulation does not meet, shaped like the solver's verdict objects:

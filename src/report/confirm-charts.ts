@@ -1,6 +1,9 @@
 import type { StackSpec } from '../design/types.js';
 import type { StackResult } from '../solve/types.js';
 import type { Confirmation } from '../confirm/types.js';
+import type { StageSpec } from '../design/types.js';
+import type { StageResult } from '../solve/stage-types.js';
+import type { StageConfirmation } from '../confirm/stage-types.js';
 import { lineChart, targetLabel } from './chart.js';
 import { polarityName } from './format.js';
 import { slug } from './svg.js';
@@ -29,5 +32,25 @@ export function confirmRoutChart(c: Confirmation, stack: StackResult, spec?: Sta
       ...(Number.isFinite(c.simulated.headroom) ? [{ axis: 'x' as const, value: c.simulated.headroom, label: targetLabel('simulated headroom', c.simulated.headroom, 'V'), kind: 'mark' as const }] : []),
     ],
     regions: spec ? [{ x: [spec.headroom, spec.span], label: 'targets must hold here' }] : [],
+  });
+}
+
+/** The simulated gain against output voltage over the predicted one, with the gain target and the simulated swing. */
+export function stageConfirmChart(c: StageConfirmation, stage: StageResult, spec?: StageSpec): string {
+  const sim = c.simulated.corners.map((f, k) => ({
+    name: `ngspice ${f.corner}${c.corrected ? ', corrected' : ''}`,
+    points: f.curve.filter((p) => p.gain > 0).map((p) => ({ x: p.vout, y: p.gain })),
+    dash: k === 0 ? undefined : '6 3',
+  }));
+  const s = c.simulated;
+  return lineChart({
+    id: slug(`confirm-stage-${stage.name}-gain`),
+    title: `Gain against output voltage, simulated over predicted — ${stage.name}`,
+    subtitle: "lookup tables against ngspice (bias diodes, input set so the output steps along a sweep)",
+    x: { label: 'output voltage', unit: 'V' },
+    y: { label: 'gain |dVout/dVin|', unit: '', scale: 'log' },
+    series: [{ name: 'tables (predicted)', points: stage.curve.filter((p) => p.gain > 0).map((p) => ({ x: p.vout, y: p.gain })) }, ...sim],
+    targets: spec ? [{ axis: 'y' as const, value: spec.gain, label: targetLabel('gain target', spec.gain, '') }] : [],
+    regions: s.vlow !== null && s.vhigh !== null ? [{ x: [s.vlow, s.vhigh], label: `simulated swing ${(s.swing * 1000).toFixed(0)} mV` }] : [],
   });
 }

@@ -6,14 +6,19 @@ import type { Grid } from './rows.js';
 
 /** One miss in words: "headroom at ss: needs ≤ 450 mV, simulated 470 mV". */
 export function missWords(m: Miss): string {
+  if (m.target === 'gain') return `gain at ${m.corner}: needs ≥ ${num(m.required)} at ${eng(m.at ?? NaN, 'V')}, simulated ${m.achieved === null ? 'none' : num(m.achieved)}`;
+  if (m.target === 'swing') return `swing at ${m.corner}: needs ≥ ${eng(m.required, 'V')} with the gain target held, simulated ${m.achieved === null ? 'none' : eng(m.achieved, 'V')}`;
   const unit = m.target === 'iout' ? 'A' : m.target === 'rout' ? 'Ω' : 'V';
   const need = m.target === 'iout' ? `${eng(m.required, unit)} ± 1 %` : `${m.target === 'rout' ? '≥' : '≤'} ${eng(m.required, unit)}`;
   const where = m.target === 'rout' && m.at !== null ? ` (lowest at ${eng(m.at, 'V')})` : '';
   return `${m.target} at ${m.corner}: needs ${need}, simulated ${m.achieved === null ? 'never' : eng(m.achieved, unit)}${where}`;
 }
 
+/** A gain (V/V) with four significant digits. */
+const num = (x: number) => (Number.isFinite(x) ? String(Number(x.toPrecision(4))) : '—');
+
 /** The verdict of a confirmation in one line. */
-export function confirmVerdict(c: Confirmation): string {
+export function confirmVerdict(c: { rounds: number; confirmed: boolean; corrected?: unknown; tightened?: boolean; misses: readonly Miss[] }): string {
   const rounds = `${c.rounds} simulated round${c.rounds === 1 ? '' : 's'}`;
   if (c.confirmed) {
     if (!c.corrected) return `confirmed in simulation: the table design meets every target (${rounds})`;

@@ -1,4 +1,4 @@
-import type { StackSpec } from '../design/types.js';
+import type { StackSpec, StageSpec } from '../design/types.js';
 import type { StackResult } from '../solve/types.js';
 import { designCharts } from './design-charts.js';
 import { eng, formatArea, formatMicrons, formatPercent, polarityName } from './format.js';
@@ -11,6 +11,9 @@ import type { HtmlReportInput } from './types.js';
 import { stageSection, stageSpecGrid, stageSummaryGrid } from './stage-html.js';
 import { confirmGrid, confirmVerdict, correctedGrid } from './confirm-rows.js';
 import { confirmRoutChart } from './confirm-charts.js';
+import { stageConfirmGrid, stageCorrectedGrid } from './confirm-stage.js';
+import { stageConfirmChart } from './confirm-charts.js';
+import type { StageResult } from '../solve/stage-types.js';
 
 export function htmlTable(grid: Grid, caption?: string): string {
   const align = columnAlign(grid);
@@ -82,10 +85,22 @@ function stagesHtml(input: HtmlReportInput): string {
   const specs = new Map((input.spec.parsed.stages ?? []).map((s) => [s.name, s]));
   if (stages.length === 0) return '';
   const sections = stages.map((s) => {
-    const section = stageSection(s, htmlTable, specs.get(s.name), input.stageFronts?.find((f) => f.stage === s.name)?.points);
+    const section = stageSection(s, htmlTable, specs.get(s.name), input.stageFronts?.find((f) => f.stage === s.name)?.points) + stageSimulationBlock(s, input, specs.get(s.name));
     return s.chosen === false ? `<details class="alternative"><summary>${esc(s.name)}: alternative ${esc(s.load.topology)} load (${s.feasible ? 'feasible' : 'infeasible'})</summary>${section}</details>` : section;
   });
   return `<section id="stages"><h2>Gain stages</h2>${htmlTable(stageSummaryGrid(stages, specs))}${htmlTable(stageSpecGrid([...specs.values()]), 'stage targets')}</section>\n${sections.join('\n')}`;
+}
+
+/** With `size --spice`, per stage: predicted beside simulated, the corrected widths and the simulated gain curve over the predicted. */
+function stageSimulationBlock(s: StageResult, input: HtmlReportInput, spec?: StageSpec): string {
+  const c = s.chosen === false ? undefined : input.stageConfirmations?.find((x) => x.name === s.name);
+  if (!c) return '';
+  const corrected = stageCorrectedGrid(c, s);
+  return [
+    `<section class="stage-simulation"><h3>${esc(s.name)}: confirmed in simulation?</h3><p class="verdict${c.confirmed ? '' : ' bad'}">${esc(confirmVerdict(c))}</p>`,
+    `<div class="tables">${htmlTable(stageConfirmGrid(c, s, spec), 'predicted (lookup tables) and simulated (ngspice)')}${corrected ? htmlTable(corrected, 'corrected devices') : ''}</div>`,
+    `<div class="charts">${figure(stageConfirmChart(c, s, spec))}</div></section>`,
+  ].join('\n');
 }
 
 /** With `size --spice`: predicted beside simulated, the corrected sizes and the simulated Rout(v) over the predicted. */

@@ -8,6 +8,7 @@ import { designCurves, defaultVds } from '../device/index.js';
 import { stackCharts } from './stack-charts.js';
 import { htmlReport } from './html.js';
 import type { DesignCurves } from './types.js';
+import type { StageConfirmation } from '../confirm/stage-types.js';
 import type { Confirmation } from '../confirm/types.js';
 
 /** Where the report reads a kit's tables from (a loaded Kit fits). */
@@ -65,7 +66,7 @@ export function curvesFor(kit: TableSource, result: SizeResult): DesignCurves[] 
 }
 
 /** The self-contained HTML report of a size run, with the kit's note (demo kits say they are invented). */
-export function reportHtml(spec: DesignSpec, source: string, kit: TableSource, run: Run, generatedBy: string, extraNotes: readonly string[] = [], confirmations?: Confirmation[]): string {
+export function reportHtml(spec: DesignSpec, source: string, kit: TableSource, run: Run, generatedBy: string, extraNotes: readonly string[] = [], confirmations?: Confirmation[], stageConfirmations?: StageConfirmation[]): string {
   const note = kit.table(run.result.stacks[0]?.device ?? run.result.stages?.[0]?.input.device ?? 'n', run.result.corners[0]).meta.note;
   return htmlReport({
     spec: { parsed: spec, source },
@@ -76,5 +77,6 @@ export function reportHtml(spec: DesignSpec, source: string, kit: TableSource, r
     generatedBy,
     notes: [...(note ? [`kit ${kit.kit}: ${note}`] : []), ...extraNotes],
     confirmations,
+    stageConfirmations,
   });
 }

@@ -5,6 +5,7 @@ import type { FrontPoint } from '../solve/pareto.js';
 import type { DesignCurve } from '../device/curves.js';
 import type { StageFrontPoint } from '../solve/stage-types.js';
 import type { Confirmation } from '../confirm/types.js';
+import type { StageConfirmation } from '../confirm/stage-types.js';
 
 
 /** Design curves of one device of one kit and corner, one curve per length. */
@@ -40,4 +41,6 @@ export interface HtmlReportInput {
   notes?: string[];
   /** With `size --spice`: each chosen design confirmed in simulation. */
   confirmations?: Confirmation[];
+  /** With `size --spice`: each chosen gain stage confirmed in simulation. */
+  stageConfirmations?: StageConfirmation[];
 }

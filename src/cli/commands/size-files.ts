@@ -10,8 +10,8 @@ import { designNetlist } from '../../spice/netlist.js';
 import { stageNetlist } from '../../spice/stage-netlist.js';
 import { decidingStages } from '../../solve/stage-choose.js';
 import { packageVersion } from '../io.js';
-import { withCorrection } from '../../confirm/index.js';
-import type { Confirmation } from '../../confirm/index.js';
+import { withCorrection, withStageCorrection } from '../../confirm/apply.js';
+import type { Confirmation, StageConfirmation } from '../../confirm/index.js';
 
 export interface SizeFileFlags {
   front?: string;
@@ -19,7 +19,7 @@ export interface SizeFileFlags {
   report?: string;
 }
 
-export function sizeFiles(f: SizeFileFlags, spec: DesignSpec, specPath: string, source: string, kit: Kit, run: SizeRun, notes: readonly string[] = [], confirmations?: Confirmation[]): Array<[string, string]> {
+export function sizeFiles(f: SizeFileFlags, spec: DesignSpec, specPath: string, source: string, kit: Kit, run: SizeRun, notes: readonly string[] = [], confirmations?: Confirmation[], stageConfirmations?: StageConfirmation[]): Array<[string, string]> {
   const files: Array<[string, string]> = [];
   if (f.front) {
     files.push([f.front, frontCsv(run.fronts)]);
@@ -33,9 +33,9 @@ export function sizeFiles(f: SizeFileFlags, spec: DesignSpec, specPath: string, 
     // Each stage gets its own deck beside it (its own .dc sweep of the input).
     const stem = f.netlist.slice(0, f.netlist.length - extname(f.netlist).length);
     for (const st of decidingStages(run.result)) {
-      if (st.input.devices.length > 0) files.push([`${stem}.${st.name}.cir`, stageNetlist(st, { supply: spec.supply })]);
+      if (st.input.devices.length > 0) files.push([`${stem}.${st.name}.cir`, stageNetlist(withStageCorrection(st, stageConfirmations?.find((c) => c.name === st.name)), { supply: spec.supply })]);
     }
   }
-  if (f.report) files.push([f.report, reportHtml(spec, source, kit, run, `stackwright ${packageVersion()}`, notes, confirmations)]);
+  if (f.report) files.push([f.report, reportHtml(spec, source, kit, run, `stackwright ${packageVersion()}`, notes, confirmations, stageConfirmations)]);
   return files;
 }

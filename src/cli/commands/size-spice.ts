@@ -1,10 +1,11 @@
 import type { Command } from 'commander';
 import { StackwrightError } from '../../errors.js';
-import { confirmStacks, type Confirmation } from '../../confirm/index.js';
+import { confirmDesign, type Confirmation, type StageConfirmation } from '../../confirm/index.js';
 import type { DesignSpec } from '../../design/types.js';
 import type { SizeResult } from '../../solve/types.js';
 import type { KitAccess } from '../../solve/kit.js';
 import { decidingResults } from '../../solve/choose.js';
+import { decidingStages } from '../../solve/stage-choose.js';
 import { progressBar } from '../progress.js';
 
 export interface SpiceFlags {
@@ -45,11 +46,11 @@ export function checkSpiceFlags(f: SpiceFlags, given: (flag: string) => boolean)
   }
 }
 
-/** Run the confirmation and merge its fields into the chosen stack results. */
-export async function confirmRun(spec: DesignSpec, result: SizeResult, kit: KitAccess, f: SpiceFlags): Promise<Confirmation[]> {
+/** Run the confirmation of stacks and stages (same decks) and merge its fields into the chosen results. */
+export async function confirmRun(spec: DesignSpec, result: SizeResult, kit: KitAccess, f: SpiceFlags): Promise<{ stacks: Confirmation[]; stages: StageConfirmation[] }> {
   let bar = progressBar('ngspice round 1');
   let round = 1;
-  const confirmations = await confirmStacks(
+  const confirmations = await confirmDesign(
     { spec, result, kit, models: { n: f.modelN ?? 'nmos_model', p: f.modelP ?? 'pmos_model' } },
     {
       include: f.include!,
@@ -68,9 +69,14 @@ export async function confirmRun(spec: DesignSpec, result: SizeResult, kit: KitA
   );
   bar.done();
   const chosen = decidingResults(result);
-  for (const c of confirmations) {
+  for (const c of confirmations.stacks) {
     const s = chosen.find((r) => r.name === c.name);
     if (s) Object.assign(s, { simulated: c.simulated, confirmed: c.confirmed, rounds: c.rounds, misses: c.misses }, c.corrected ? { corrected: c.corrected } : {}, c.tightened ? { tightened: true } : {});
+  }
+  const stages = decidingStages(result);
+  for (const c of confirmations.stages) {
+    const s = stages.find((r) => r.name === c.name);
+    if (s) Object.assign(s, { simulated: c.simulated, confirmed: c.confirmed, rounds: c.rounds, misses: c.misses }, c.corrected ? { corrected: c.corrected } : {});
   }
   return confirmations;
 }

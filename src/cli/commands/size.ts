@@ -37,7 +37,7 @@ export function registerSize(program: Command): void {
     .option('--report <file.html>', 'write a self-contained HTML report')
     .option('--force', 'overwrite existing output files');
   spiceOptions(cmd)
-    .addHelpText('after', '\nExit status: 0 every stack feasible (and confirmed with --spice), 3 a stack infeasible (or not confirmed in simulation), 2 bad input.\nExample:\n  stackwright size demo-tables/specs/marsh-wren.yaml --report report.html\n  stackwright size demo-tables/specs/marsh-wren-spice.yaml --spice --include demo-tables/reed180/reed180.lib --model-n nfet_reed --model-p pfet_reed\n')
+    .addHelpText('after', '\nExit status: 0 every stack and stage feasible (and confirmed with --spice), 3 one infeasible (or not confirmed in simulation), 2 bad input.\nExample:\n  stackwright size demo-tables/specs/marsh-wren.yaml --report report.html\n  stackwright size demo-tables/specs/marsh-wren-spice.yaml --spice --include demo-tables/reed180/reed180.lib --model-n nfet_reed --model-p pfet_reed\n')
     .action(async (specPath: string, f: SizeFlags) => {
       checkSpiceFlags(f, (flag) => cmd.getOptionValueSource(flag) === 'cli');
       const source = readText(specPath, 'spec file');
@@ -45,12 +45,12 @@ export function registerSize(program: Command): void {
       const kit = loadKit(spec.kit, { tables: f.tables });
       const run = sizeSpec(spec, kit);
       const notes = lengthClampNotes(lengthClamps(spec.stacks, kit, run.result.corners[0]));
-      const confirmations = f.spice ? await confirmRun(spec, run.result, kit, f) : undefined;
+      const confirmed = f.spice ? await confirmRun(spec, run.result, kit, f) : undefined;
 
       // Build every output first, then write them together: nothing half-written.
       // Charts, report and netlist code load only when one of them is asked for.
       const files = f.front || f.netlist || f.report
-        ? (await import('./size-files.js')).sizeFiles(f, spec, specPath, source, kit, run, notes, confirmations)
+        ? (await import('./size-files.js')).sizeFiles(f, spec, specPath, source, kit, run, notes, confirmed?.stacks, confirmed?.stages)
         : [];
       writeFilesAtomic(files, { force: f.force });
 
@@ -59,7 +59,7 @@ export function registerSize(program: Command): void {
       else {
         const stageGains = Object.fromEntries((spec.stages ?? []).map((st) => [st.name, st.gain]));
         out((f.brief ? renderSizeBrief : renderSizeText)(run.result, { color: useColor(), stageFronts: run.stageFronts, stageGains }));
-        if (confirmations) out(renderConfirmText(confirmations, run.result, spec, { color: useColor() }));
+        if (confirmed) out(renderConfirmText(confirmed.stacks, run.result, spec, { color: useColor() }, confirmed.stages));
       }
       for (const line of notes) note(`note: ${line}`);
       for (const [path] of files) note(`wrote ${path}`);
@@ -73,7 +73,7 @@ export function registerSize(program: Command): void {
         note(`infeasible: ${words.join('; ')}`);
         process.exitCode = EXIT.infeasible;
       }
-      const missed = (confirmations ?? []).filter((c) => !c.confirmed);
+      const missed = [...(confirmed?.stacks ?? []), ...(confirmed?.stages ?? [])].filter((c) => !c.confirmed);
       if (missed.length > 0) {
         note(`not confirmed in simulation: ${missed.map((c) => `${c.name} (${c.misses.map(missWords).join('; ') || 'no design step helps'})`).join('; ')}`);
         process.exitCode = EXIT.infeasible;

@@ -1,0 +1,84 @@
+import type { StageSpec } from '../design/types.js';
+import type { KitAccess } from '../solve/kit.js';
+import type { StageResult } from '../solve/stage-types.js';
+import { stageAsIs } from '../solve/stage-port.js';
+import { stageArea, stageKnobs, turnStage, type StageKnob } from './stage-knobs.js';
+import type { StageSimulatedFigures } from './stage-types.js';
+import type { Miss } from './types.js';
+
+export interface StageStepInput {
+  design: StageResult;
+  spec: StageSpec;
+  kit: KitAccess;
+  supply: number;
+  /** Simulated figures of `design`, one per corner. */
+  figures: readonly StageSimulatedFigures[];
+}
+
+/** Finite-difference step of the knobs (ln of the width factor). */
+const DELTA = 0.1;
+/** Largest move of a knob in one round. */
+const MAX_MOVE = 0.7;
+/** Aim this far beyond a missed target (swing in V, gain as a ratio) so the corrected design does not land on the edge. */
+const SWING_AIM = 0.02;
+const GAIN_AIM = 1.05;
+/** Probes beside the Newton step, in units of its length; probes either way when the tables see no slope. */
+const SCALES = [1, 0.5, 1.5];
+const BLIND = [-0.3, -0.15, 0.15, 0.3];
+
+const clamp = (x: number, lo: number, hi: number) => Math.max(lo, Math.min(hi, x));
+
+/** What the tables predict for a stage at a corner (its bias diodes re-derive the gates): the figure a miss is about. */
+function tableFigure(d: StageResult, inp: StageStepInput, corner: string, target: Miss['target']): number | null {
+  const at = stageAsIs(d, inp.spec, inp.kit, corner, inp.supply);
+  if ('error' in at) return null;
+  const v = target === 'gain' ? Math.log(Math.max(at.predicted.gain, 1e-9)) : at.predicted.swing;
+  return Number.isFinite(v) ? v : null;
+}
+
+/**
+ * Corrections of a stage that simulation showed missing its gain or swing:
+ * for every knob, a Newton step whose residual comes from simulation (the
+ * worst corner's shortfall, aimed a little beyond the target) and whose slope
+ * comes from the tables (the same design re-evaluated in them with the knob
+ * turned), with probes at half and one and a half times the step; a knob the
+ * tables see no slope for is probed either way. Simulation picks among them.
+ */
+export function stageCorrections(inp: StageStepInput, misses: readonly Miss[]): StageResult[] {
+  const worst = misses.find((m) => m.target === 'gain') ?? misses[0];
+  if (!worst) return [];
+  const f = inp.figures.find((x) => x.corner === worst.corner) ?? inp.figures[0];
+  const target = worst.target === 'gain' ? 'gain' : 'swing';
+  const residual = target === 'gain' ? Math.log((inp.spec.gain * GAIN_AIM) / Math.max(f.gain, 1e-9)) : inp.spec.swing + SWING_AIM - f.swing;
+  const base = tableFigure(inp.design, inp, f.corner, target);
+  const out: StageResult[] = [];
+  const newton: Array<[StageKnob, number]> = [];
+  const knobs = stageKnobs(inp.design);
+  for (const knob of knobs) {
+    const moved = base === null ? null : tableFigure(turnStage(inp.design, knob, DELTA), inp, f.corner, target);
+    const slope = base !== null && moved !== null ? (moved - base) / DELTA : 0;
+    const sloped = Math.abs(slope) * MAX_MOVE > Math.abs(residual) * 0.1;
+    if (sloped) newton.push([knob, residual / slope]);
+    const moves = sloped ? SCALES.map((s) => clamp((s * residual) / slope, -MAX_MOVE, MAX_MOVE)) : BLIND;
+    for (const x of new Set(moves)) out.push(turnStage(inp.design, knob, x));
+  }
+  // The residual shared among every sloped knob at once (each end of the swing has its own side), once and twice over.
+  if (newton.length > 1) {
+    for (const s of [1, 2]) out.push(newton.reduce((d, [knob, x]) => turnStage(d, knob, clamp((s * x) / newton.length, -MAX_MOVE, MAX_MOVE)), inp.design));
+  }
+  return out;
+}
+
+/** Of stage variants simulated side by side: among those meeting every target the smallest, else the nearest. */
+export function pickStage(spec: StageSpec, variants: ReadonlyArray<{ figures: readonly StageSimulatedFigures[]; misses: readonly Miss[]; design: StageResult }>): number {
+  const short = (v: (typeof variants)[number]) => Math.max(...v.figures.map((f) =>
+    Math.max(0, (spec.swing - f.swing) / spec.swing) + (f.gain > 0 ? Math.max(0, Math.log(spec.gain / f.gain)) : 50)));
+  let best = 0;
+  const key = (v: (typeof variants)[number]): [number, number] => (v.misses.length === 0 ? [0, stageArea(v.design)] : [1, short(v)]);
+  variants.forEach((v, k) => {
+    const a = key(v);
+    const b = key(variants[best]);
+    if (a[0] < b[0] || (a[0] === b[0] && a[1] < b[1])) best = k;
+  });
+  return best;
+}

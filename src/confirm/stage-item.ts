@@ -1,0 +1,68 @@
+import type { StageSpec } from '../design/types.js';
+import type { KitAccess } from '../solve/kit.js';
+import type { StageResult, StageSide } from '../solve/stage-types.js';
+import type { ConfirmItem } from './hook.js';
+import { stageMisses } from './stage-check.js';
+import { stageCircuit } from './stage-circuit.js';
+import { pickStage, stageCorrections } from './stage-correct.js';
+import { stageArea } from './stage-knobs.js';
+import { stageFigures } from './stage-measure.js';
+import type { CorrectedSide, StageConfirmation, StageSimulatedFigures } from './stage-types.js';
+
+export interface StageContext {
+  kit: KitAccess;
+  supply: number;
+  models: { n: string; p: string };
+}
+
+/**
+ * A sized gain stage as a confirm item: both sides diode-biased, the output
+ * held on the shared sweep by a loop driving the input (the input DC source of
+ * the transfer curve), gain and swing measured as the README defines them,
+ * corrected with table-sloped steps of the cascode setpoints and devices.
+ */
+export function stageItem(result: StageResult, spec: StageSpec, ctx: StageContext): ConfirmItem<StageSimulatedFigures, StageConfirmation> {
+  const original = result;
+  const vin0 = result.predicted.vin;
+  let design = result;
+  let variants: StageResult[] = [result];
+  let confirmedFigures: StageSimulatedFigures[] | null = null;
+  return {
+    name: result.name,
+    // The output is held over the whole supply: the swing ends are wherever the gain falls.
+    sweepTop: ctx.supply,
+    variants: () => variants.length,
+    circuit: (tag, k) => stageCircuit(variants[k], tag, vin0, ctx.models),
+    measure: (data, corner) => stageFigures(data, vin0, spec, corner),
+    misses: (f) => stageMisses(spec, f),
+    pick: (results) => pickStage(spec, results.map((r, k) => ({ ...r, design: variants[k] }))),
+    select(k) {
+      design = variants[k];
+      variants = [design];
+    },
+    correct(figures, misses) {
+      const next = stageCorrections({ design, spec, kit: ctx.kit, supply: ctx.supply, figures }, misses);
+      if (next.length === 0) return false;
+      variants = next;
+      return true;
+    },
+    // Tightening is for stacks; a stage keeps its confirmed design.
+    shrink: () => false,
+    revert() {
+      variants = [design];
+    },
+    keep(figures) {
+      confirmedFigures = figures;
+    },
+    outcome(last, misses, rounds, ok): StageConfirmation {
+      const figures = ok && confirmedFigures ? confirmedFigures : last;
+      const out: StageConfirmation = { name: result.name, simulated: { ...figures[0], corners: figures }, confirmed: ok, rounds, misses };
+      if (design !== original) out.corrected = { input: sideOf(design.input), load: sideOf(design.load), area: stageArea(design) };
+      return out;
+    },
+  };
+}
+
+function sideOf(side: StageSide): CorrectedSide {
+  return { devices: side.devices.map((d) => ({ role: d.role, w: d.w, l: d.l })), bias: side.bias.map((b) => ({ ...b })) };
+}

@@ -1,0 +1,78 @@
+/**
+ * Rendering of size --spice results for gain stages (text and HTML) from
+ * hand-made stage confirmations on the demo spec's sized stage. Project rule
+ * (COMMON.md, README): no NaN, Infinity or undefined reaches text or a
+ * report; a swing end never reached reads "—".
+ */
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { loadKit, parseSpec, sizeSpec } from '../src/index.js';
+import { decidingStages } from '../src/solve/stage-choose.js';
+import type { StageResult } from '../src/solve/stage-types.js';
+import type { SizeResult } from '../src/solve/types.js';
+import type { DesignSpec } from '../src/design/types.js';
+import { htmlReport, renderConfirmText, missWords } from '../src/report/index.js';
+import type { StageConfirmation, StageSimulatedFigures } from '../src/confirm/index.js';
+import { ensureDemoTables, REPO } from './helpers/cli.js';
+
+let result: SizeResult;
+let spec: DesignSpec;
+let source: string;
+let stage: StageResult;
+
+beforeAll(() => {
+  ensureDemoTables();
+  const file = join(REPO, 'demo-tables', 'specs', 'marsh-wren.yaml');
+  source = readFileSync(file, 'utf8');
+  spec = parseSpec(source, file);
+  result = sizeSpec(spec, loadKit('demo180', { tables: join(REPO, 'tables') })).result;
+  stage = decidingStages(result)[0];
+}, 120_000);
+
+function figures(corner: string, scale: number, swing: boolean): StageSimulatedFigures {
+  const p = stage.predicted;
+  return {
+    corner, gain: p.gain * scale, vin: p.vin + 0.002, vlow: swing ? p.vlow! + 0.01 : null, vhigh: swing ? p.vhigh! - 0.01 : null,
+    swing: swing ? p.swing - 0.02 : 0, curve: stage.curve.map((c) => ({ vout: c.vout, vin: c.vin, gain: c.gain * scale })),
+  };
+}
+
+describe('size --spice rendering of gain stages', () => {
+  it('text: gain, swing ends and input voltage predicted beside simulated; corrected widths; misses in words', () => {
+    const ok: StageConfirmation = {
+      name: stage.name, simulated: { ...figures('tt', 0.9, true), corners: [figures('tt', 0.9, true)] }, confirmed: true, rounds: 2, misses: [],
+      corrected: {
+        input: { devices: stage.input.devices.map((d) => ({ role: d.role, w: d.w, l: d.l })), bias: stage.input.bias },
+        load: { devices: stage.load.devices.map((d, k) => ({ role: d.role, w: k === stage.load.devices.length - 1 ? d.w * 1.5 : d.w, l: d.l })), bias: stage.load.bias },
+        area: stage.predicted.area * 1.1,
+      },
+    };
+    const text = renderConfirmText([], result, spec, { color: false }, [ok]);
+    expect(text).toContain(`stage ${stage.name}: confirmed in simulation after correction (2 simulated rounds)`);
+    expect(text).toMatch(/gain at the design point +≥ 1500 at 900 mV +\d+ +\d+/);
+    expect(text).toMatch(/load top +[\d.]+ [µn]m +[\d.]+ [µn]m +\+50 %/);
+    expect(text).not.toMatch(/NaN|Infinity|undefined/);
+  });
+
+  it('a stage that misses: the verdict names the target, the needed and the simulated value; no swing ends reads "—"', () => {
+    const miss = { target: 'gain' as const, required: 1500, achieved: 812.4, at: 0.9, device: null, corner: 'tt' };
+    const bad: StageConfirmation = { name: stage.name, simulated: { ...figures('tt', 0.1, false), corners: [figures('tt', 0.1, false)] }, confirmed: false, rounds: 4, misses: [miss] };
+    expect(missWords(miss)).toBe('gain at tt: needs ≥ 1500 at 900 mV, simulated 812.4');
+    expect(missWords({ ...miss, target: 'swing', required: 1, achieved: 0.85 })).toBe('swing at tt: needs ≥ 1 V with the gain target held, simulated 850 mV');
+    const text = renderConfirmText([], result, spec, { color: false }, [bad]);
+    expect(text).toContain('NOT confirmed in simulation after 4 simulated rounds: gain at tt: needs ≥ 1500 at 900 mV, simulated 812.4');
+    expect(text).toMatch(/vlow +[\d.]+ mV +—/);
+    expect(text).not.toMatch(/NaN|Infinity|undefined/);
+  });
+
+  it('HTML: the stage section carries the simulation block with the simulated gain curve over the predicted one', () => {
+    const c: StageConfirmation = { name: stage.name, simulated: { ...figures('tt', 0.9, true), corners: [figures('tt', 0.9, true)] }, confirmed: true, rounds: 1, misses: [] };
+    const html = htmlReport({ spec: { parsed: spec, source }, size: result, generatedBy: 'test', stageConfirmations: [c] });
+    expect(html).toContain(`${stage.name}: confirmed in simulation?`);
+    const charts = (html.match(/<svg[\s\S]*?<\/svg>/g) ?? []).filter((svg) => svg.includes('simulated over predicted'));
+    expect(charts).toHaveLength(1);
+    expect((charts[0].match(/<path[^>]*class="series/g) ?? []).length).toBeGreaterThanOrEqual(2);
+    expect(html).not.toMatch(/NaN|Infinity|undefined/);
+  });
+});
