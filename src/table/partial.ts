@@ -1,4 +1,4 @@
-import { closeSync, fstatSync, openSync, readSync } from 'node:fs';
+import { closeSync, fstatSync, readSync } from 'node:fs';
 import { endianness } from 'node:os';
 import { StackwrightError } from '../errors.js';
 import { AxisLocator } from '../numeric/axis.js';
@@ -6,7 +6,7 @@ import { checkLayout } from './codec.js';
 import { STORED } from './types.js';
 import type { DeviceTable, StoredQuantity } from './types.js';
 import { validateTable } from './validate.js';
-import { readHeadFrom } from './store.js';
+import { openTableFile, readHeadFrom } from './store.js';
 
 const LITTLE = endianness() === 'LE';
 
@@ -18,12 +18,7 @@ const LITTLE = endianness() === 'LE';
  * the length axis, so the caller loads the whole table and reports the range as usual.
  */
 export function readTableAround(path: string, l: number): DeviceTable | undefined {
-  let fd: number;
-  try {
-    fd = openSync(path, 'r');
-  } catch (e) {
-    throw new StackwrightError(`cannot read table: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`, { where: path });
-  }
+  const fd = openTableFile(path);
   try {
     const total = fstatSync(fd).size;
     const { header, dataStart } = readHeadFrom(fd, total, path);

@@ -41,14 +41,18 @@ export function readTable(path: string): DeviceTable {
   return decodeTable(buf, path);
 }
 
-/** Reads only the header lines (and checks the data size against it), for listings. */
-export function readTableHeader(path: string): TableHeader {
-  let fd: number;
+/** Opens a table file for reading; a file that cannot be opened is a one-line error naming it. */
+export function openTableFile(path: string): number {
   try {
-    fd = openSync(path, 'r');
+    return openSync(path, 'r');
   } catch (e) {
     throw new StackwrightError(`cannot read table: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`, { where: path });
   }
+}
+
+/** Reads only the header lines (and checks the data size against it), for listings. */
+export function readTableHeader(path: string): TableHeader {
+  const fd = openTableFile(path);
   try {
     const total = statSync(path).size;
     const { header, dataStart } = readHeadFrom(fd, total, path);
