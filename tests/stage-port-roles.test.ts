@@ -11,6 +11,7 @@ const stage = (load: StageSide): StageResult =>
     load,
     predicted: { gain: 1000, swing: 0.8, vlow: 0.4, vhigh: 1.2, output: 0.9, vin: 0.7, gbw: null, cout: null, area: 1e-11, current: 1e-5 },
     curve: [],
+    evaluated: 1,
   }) as StageResult;
 
 describe('port compares stage devices by role', () => {
