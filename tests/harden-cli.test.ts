@@ -61,6 +61,20 @@ describe('a supply above the tables', () => {
     expect(existsSync(report)).toBe(false);
   });
 
+  it('is the same one exit-2 message for a spec with only stages, and nothing is written', () => {
+    // A stage's output swings between the rails, so a single-device side sees up to the whole
+    // supply as VDS (common practice: the output node of a common-source stage); tables ending at
+    // 1.8 V cannot describe a 2.5 V stage, which sized silently before.
+    const path = join(dir, 'high-supply-stage.yaml');
+    writeFileSync(path, 'kit: demo180\nsupply: 2.5\nstages:\n  - name: amp\n    current: 10u\n    gain: 300\n    swing: 0.5\n    input: {device: n, topology: single}\n');
+    const report = join(dir, 'high-stage', 'r.html');
+    const want = /high-supply-stage\.yaml: supply: supply 2\.5 V is above the tables' VDS range, which ends at 1\.8 V \(kit demo180, n-type, corner tt\); stage "amp"/;
+    for (const extra of [[], ['--brief'], ['--json'], ['--report', report]]) {
+      expectOneLineError(cli(['size', path, '--tables', tables(), ...extra]), 2, want);
+    }
+    expect(existsSync(report)).toBe(false);
+  });
+
   it('port --supply above the new kit is bad input (exit 2), naming the flag', () => {
     expectOneLineError(cli(['port', DEMO, '--to', 'demo090', '--supply', '5', '--tables', tables()]), 2, /--supply: 5 V is above the VDS range of kit demo090's tables, which ends at 1\.2 V/);
     expectOneLineError(cli(['port', DEMO, '--to', 'demo090', '--supply', '-1', '--tables', tables()]), 2, /--supply: expected a positive supply, got -1 V/);

@@ -30,6 +30,14 @@ describe('spec names', () => {
     expect(parseSpec(stack('').replace('name: sink', 'name: ota-tail_2.b'), 's.yaml').stacks[0].name).toBe('ota-tail_2.b');
   });
 
+  it('refuses stage names the same way (each stage gets its own netlist file named after it)', () => {
+    const stage = (name: string) => `kit: demo180\nsupply: 1.8\nstages:\n  - name: ${name}\n    current: 10u\n    gain: 300\n    swing: 0.5\n    input: {device: n}\n`;
+    for (const name of ['"../../../escaped"', '"a/b"', '".hidden"', '"a\\\\b"', '"x y"']) {
+      expect(refusal(stage(name)), name).toMatch(/^spec\.yaml:4:11: stages\[0\]\.name: stage names use letters, digits, "\.", "_" and "-"/);
+    }
+    expect(parseSpec(stage('ota-gain_2.b'), 's.yaml').stages![0].name).toBe('ota-gain_2.b');
+  });
+
   it('refuses a kit name with a path in it', () => {
     expect(refusal(stack('').replace('kit: demo180', 'kit: ../tables/demo180'))).toMatch(/spec\.yaml:1:6: kit: kit names use letters/);
   });

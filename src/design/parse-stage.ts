@@ -1,5 +1,5 @@
 import type { Polarity } from '../table/types.js';
-import { checkKeys, isObject, parseRange, requireNumber, requireString, type Fail, type Path } from './parse.js';
+import { checkKeys, isObject, NAME, NAME_RULE, parseRange, requireNumber, requireString, type Fail, type Path } from './parse.js';
 import { topologyNames } from '../topology/index.js';
 import { INPUT_TOPOLOGIES, type InputTopology, type StageObjective, type StageSideSpec, type StageSpec, type Topology } from './types.js';
 
@@ -28,6 +28,8 @@ export function parseStages(raw: unknown, supply: number, names: Set<string>, fa
 
 function parseStage(s: Record<string, unknown>, path: Path, supply: number, fail: Fail): StageSpec {
   const name = requireString(s, 'name', path, fail);
+  // Stage names become file names (per-stage netlists, fronts), as stack names do.
+  if (!NAME.test(name)) fail([...path, 'name'], `stage names use ${NAME_RULE}; got ${JSON.stringify(name)}`);
   const current = requireNumber(s, 'current', path, fail, { positive: true });
   const gain = requireNumber(s, 'gain', path, fail, { positive: true });
   if (!(gain > 1)) fail([...path, 'gain'], `expected a gain above 1 (|dVout/dVin|), got ${gain}`);

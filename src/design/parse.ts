@@ -13,8 +13,8 @@ const OBJECTIVES: Objective[] = ['area', 'headroom', 'rout'];
  * Stack names become parts of file names (`--front f.csv` writes `f.<name>.svg`), and the
  * kit name a folder, so both are kept plain: no path separators, no leading dot.
  */
-const NAME = /^[A-Za-z0-9_][A-Za-z0-9._-]{0,63}$/;
-const NAME_RULE = 'letters, digits, ".", "_" and "-", starting with a letter, digit or "_", at most 64 characters';
+export const NAME = /^[A-Za-z0-9_][A-Za-z0-9._-]{0,63}$/;
+export const NAME_RULE = 'letters, digits, ".", "_" and "-", starting with a letter, digit or "_", at most 64 characters';
 /** Kit names as the table files allow them (src/table/validate.ts). */
 const KIT_NAME = /^[A-Za-z0-9_+][A-Za-z0-9._+-]*$/;
 /**

@@ -20,7 +20,7 @@ export function change(what: string, unit: string, from: number, to: number): Ch
 const ROLE_ORDER: readonly Role[] = ['bottom', 'middle', 'top'];
 
 /** Roles present on either side, once each, from the rail outwards. */
-function rolesOf(a: readonly Role[], b: readonly Role[]): Role[] {
+export function rolesOf(a: readonly Role[], b: readonly Role[]): Role[] {
   const present = new Set([...a, ...b]);
   return [...ROLE_ORDER.filter((r) => present.has(r)), ...[...present].filter((r) => !ROLE_ORDER.includes(r))];
 }

@@ -4,7 +4,7 @@ import type { DesignSpec, StackSpec, Topology } from '../design/types.js';
 import { topologyNames } from '../topology/index.js';
 import { CAUTION, type SizeResult, type StackResult } from './types.js';
 import type { KitAccess } from './kit.js';
-import { checkTableCover } from './table-cover.js';
+import { checkStageCover, checkTableCover } from './table-cover.js';
 import { makeContext, type SolveContext } from './context.js';
 import { screen } from './search/screen.js';
 import { evaluateOnce, refine, type Seen } from './search/refine.js';
@@ -158,6 +158,7 @@ export function sizeDesign(design: DesignSpec, kit: KitAccess): SizeResult & { f
   const corners = resolveCorners(design, kit.corners);
   // Every stack first, so a spec the tables cannot describe fails before any search.
   design.stacks.forEach((s, i) => checkTableCover(s, kit, corners, design.supply, `${design.file}: stacks[${i}]`));
+  (design.stages ?? []).forEach((s) => checkStageCover(s, kit, corners, design.supply, `${design.file}: supply`));
   const stacks: StackResult[] = [];
   const fronts: Record<string, FrontPoint[]> = {};
   for (const s of design.stacks) {

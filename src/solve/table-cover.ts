@@ -1,5 +1,5 @@
 import { StackwrightError } from '../errors.js';
-import type { StackSpec } from '../design/types.js';
+import type { StackSpec, StageSpec } from '../design/types.js';
 import { formatEng } from '../units/index.js';
 import type { Polarity } from '../table/types.js';
 import type { KitAccess } from './kit.js';
@@ -61,6 +61,27 @@ export function checkTableCover(stack: StackSpec, kit: KitAccess, corners: reado
           `but the table's vsb axis holds ${V(cover.vsb[0])} only (${table}); characterise with VSB steps up to about ${V(stack.span)}, or use topology: single`,
         { where: `${where}.topology` },
       );
+    }
+  }
+}
+
+/**
+ * Refuse, as bad input, a gain stage the tables cannot describe: the output swings
+ * between the rails, so one side's devices see up to the whole supply across them;
+ * a supply above either polarity's VDS axis would be read outside the table.
+ */
+export function checkStageCover(stage: StageSpec, kit: KitAccess, corners: readonly string[], supply: number, where: string): void {
+  const load: Polarity = stage.input.device === 'n' ? 'p' : 'n';
+  for (const corner of corners) {
+    for (const device of [stage.input.device, load]) {
+      const cover = tableCover(kit, corner, device);
+      if (supply > cover.vds[1] * (1 + TOL)) {
+        throw new StackwrightError(
+          `supply ${V(supply)} is above the tables' VDS range, which ends at ${V(cover.vds[1])} (kit ${kit.kit}, ${device}-type, corner ${corner}); ` +
+            `stage "${stage.name}" swings its output between the rails, so lower the supply`,
+          { where },
+        );
+      }
     }
   }
 }

@@ -37,15 +37,29 @@ function sideLines(side: StageSide, tag: string, models: { n: string; p: string 
  * design input voltage), cascode gates from ideal sources or their bias diodes.
  * The output node `out` is left open (the DC sweep is the open-loop transfer).
  */
+/**
+ * The input DC voltage ± 50 mV, kept within the rails. A design whose input DC voltage
+ * lies outside the rails (a large current at a low supply) is swept around it as it is,
+ * so the deck still reproduces the sized design instead of failing to be written.
+ */
+function defaultSweep(vin: number, supply: number): { from: number; to: number; step: number } {
+  const from = Math.max(0, vin - 0.05);
+  const to = Math.min(supply, vin + 0.05);
+  return to > from ? { from, to, step: 50e-6 } : { from: vin - 0.05, to: vin + 0.05, step: 50e-6 };
+}
+
 export function stageNetlist(stage: StageResult, opts: StageNetlistOptions): string {
   const where = `netlist: stage "${stage.name}"`;
   if (stage.input.devices.length === 0 || stage.load.devices.length === 0) throw new StackwrightError('has no sized devices to write', { where });
   if (!(opts.supply > 0)) throw new StackwrightError(`supply must be > 0 V, got ${opts.supply}`, { where: 'netlist: supply' });
   const models = opts.models ?? DEFAULT_MODELS;
   const vin = stage.input.devices[0].gate;
-  const sweep = opts.sweep ?? { from: Math.max(0, vin - 0.05), to: Math.min(opts.supply, vin + 0.05), step: 50e-6 };
-  if (!(sweep.step > 0) || !(sweep.to > sweep.from) || sweep.from < 0 || sweep.to > opts.supply + 1e-12) {
-    throw new StackwrightError(`need 0 <= from < to <= supply and step > 0, got ${sweep.from}..${sweep.to} step ${sweep.step}`, { where: 'netlist: sweep' });
+  const sweep = opts.sweep ?? defaultSweep(vin, opts.supply);
+  if (opts.sweep && (!(sweep.step > 0) || !(sweep.to > sweep.from) || sweep.from < 0 || sweep.to > opts.supply + 1e-12)) {
+    throw new StackwrightError(
+      `need 0 V <= from < to <= supply and step > 0, got ${formatEng(sweep.from, 'V', 4)}..${formatEng(sweep.to, 'V', 4)} step ${formatEng(sweep.step, 'V', 4)}`,
+      { where: 'netlist: sweep' },
+    );
   }
   const pr = stage.predicted;
   const lines: string[] = [
