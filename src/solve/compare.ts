@@ -1,5 +1,5 @@
 import type { StackSpec } from '../design/types.js';
-import type { StackResult } from './types.js';
+import type { DeviceResult, StackResult } from './types.js';
 import type { Role } from '../stack/types.js';
 
 /** One compared number: old, new and the change in percent (NaN when undefined). */
@@ -25,20 +25,31 @@ export function rolesOf(a: readonly Role[], b: readonly Role[]): Role[] {
   return [...ROLE_ORDER.filter((r) => present.has(r)), ...[...present].filter((r) => !ROLE_ORDER.includes(r))];
 }
 
+/**
+ * W, L, gm/ID and gate (and VDS with `vds`) of two device lists, matched by role and labelled
+ * `${prefix}${role}`: a role on one side only is NaN on the other.
+ */
+export function deviceChanges(from: readonly DeviceResult[], to: readonly DeviceResult[], prefix: string, vds: boolean): Change[] {
+  const rows: Change[] = [];
+  for (const r of rolesOf(from.map((d) => d.role), to.map((d) => d.role))) {
+    const a = from.find((d) => d.role === r);
+    const b = to.find((d) => d.role === r);
+    const role = `${prefix}${r}`;
+    rows.push(change(`${role} W`, 'm', a?.w ?? NaN, b?.w ?? NaN));
+    rows.push(change(`${role} L`, 'm', a?.l ?? NaN, b?.l ?? NaN));
+    rows.push(change(`${role} gm/ID`, '1/V', a?.gmid ?? NaN, b?.gmid ?? NaN));
+    rows.push(change(`${role} gate`, 'V', a?.gate ?? NaN, b?.gate ?? NaN));
+    if (vds) rows.push(change(`${role} VDS`, 'V', a?.vds ?? NaN, b?.vds ?? NaN));
+  }
+  return rows;
+}
+
 /** Every size, bias, Rout, headroom, area and mismatch of two designs of one stack, side by side. */
 export function compareResults(from: StackResult, to: StackResult): Change[] {
   const rows: Change[] = [];
   // Rows are matched by role, not position: a cascode's top is a triple's top, and a role
   // on one side only (the triple's middle) is NaN on the other.
-  for (const role of rolesOf(from.devices.map((d) => d.role), to.devices.map((d) => d.role))) {
-    const a = from.devices.find((d) => d.role === role);
-    const b = to.devices.find((d) => d.role === role);
-    rows.push(change(`${role} W`, 'm', a?.w ?? NaN, b?.w ?? NaN));
-    rows.push(change(`${role} L`, 'm', a?.l ?? NaN, b?.l ?? NaN));
-    rows.push(change(`${role} gm/ID`, '1/V', a?.gmid ?? NaN, b?.gmid ?? NaN));
-    rows.push(change(`${role} gate`, 'V', a?.gate ?? NaN, b?.gate ?? NaN));
-    rows.push(change(`${role} VDS`, 'V', a?.vds ?? NaN, b?.vds ?? NaN));
-  }
+  rows.push(...deviceChanges(from.devices, to.devices, '', true));
   for (const role of rolesOf(from.bias.map((b) => b.drives), to.bias.map((b) => b.drives))) {
     const a = from.bias.find((x) => x.drives === role);
     const b = to.bias.find((x) => x.drives === role);

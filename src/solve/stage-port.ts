@@ -2,7 +2,7 @@ import { StackwrightError } from '../errors.js';
 import type { StageSpec } from '../design/types.js';
 import { biasGates, traceStage, type StackDevice, type StageCircuit } from '../stack/index.js';
 import type { KitAccess } from './kit.js';
-import { change, rolesOf, type Change } from './compare.js';
+import { change, deviceChanges, type Change } from './compare.js';
 import { absolute } from './result.js';
 import { TRACE_STEP, gbwOf } from './stage-eval.js';
 import type { StageCorner, StageResult, StageSide } from './stage-types.js';
@@ -25,17 +25,7 @@ export function compareStages(from: StageResult, to: StageResult): Change[] {
   for (const side of ['input', 'load'] as const) {
     // Matched by role, as stacks are: a cascode load's top is a triple load's top; a role on
     // one side only is NaN on the other (shown as a dash).
-    const fromDevices = from[side].devices;
-    const toDevices = to[side].devices;
-    for (const r of rolesOf(fromDevices.map((d) => d.role), toDevices.map((d) => d.role))) {
-      const a = fromDevices.find((d) => d.role === r);
-      const b = toDevices.find((d) => d.role === r);
-      const role = `${side} ${r}`;
-      rows.push(change(`${role} W`, 'm', a?.w ?? NaN, b?.w ?? NaN));
-      rows.push(change(`${role} L`, 'm', a?.l ?? NaN, b?.l ?? NaN));
-      rows.push(change(`${role} gm/ID`, '1/V', a?.gmid ?? NaN, b?.gmid ?? NaN));
-      rows.push(change(`${role} gate`, 'V', a?.gate ?? NaN, b?.gate ?? NaN));
-    }
+    rows.push(...deviceChanges(from[side].devices, to[side].devices, `${side} `, false));
   }
   const p = from.predicted;
   const q = to.predicted;
