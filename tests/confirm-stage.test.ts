@@ -14,33 +14,20 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import type { DeviceTable } from '../src/table/types.js';
 import type { DesignSpec, StackSpec, StageSpec } from '../src/design/types.js';
 import type { StageResult } from '../src/solve/stage-types.js';
-import { ingestTexts } from '../src/ingest/index.js';
 import { writeTable } from '../src/table/index.js';
 import { sizeDesign } from '../src/solve/index.js';
 import { decidingStages } from '../src/solve/stage-choose.js';
 import { kitAccessFromTables } from '../src/solve/kit-tables.js';
-import { characterise, measuredGain, simulateStage, stageNetlist, type CharacterisationOptions } from '../src/spice/index.js';
+import { measuredGain, simulateStage, stageNetlist } from '../src/spice/index.js';
 import { designIndex, swingOnGrid } from '../src/stack/index.js';
 import { confirmDesign, withStageCorrection } from '../src/confirm/index.js';
-import { TEST_LIB, TEST_MODELS, libLine, ngspiceStatus } from './fixtures/spice/ngspice.js';
+import { TEST_LIB, TEST_MODELS, libLine, ngspiceStatus, testCardTable } from './fixtures/spice/ngspice.js';
 import { cli } from './helpers/cli.js';
 
 const KIT = 'stagecard';
 const SUPPLY = 1.8;
 
-function sweep(device: 'n' | 'p', section: string): CharacterisationOptions {
-  return {
-    model: TEST_MODELS[device], device, lengths: [0.18e-6, 0.27e-6, 0.36e-6, 0.54e-6, 0.72e-6, 1.08e-6, 1.44e-6], w: 1e-6,
-    vgs: { from: 0, to: 1.8, step: 0.025 }, vds: { from: 0, to: 1.8, step: 0.05 }, vsb: [0, 0.25, 0.5, 0.75, 1.0], supply: SUPPLY, include: libLine(section),
-  };
-}
-
-async function table(device: 'n' | 'p', section: string, corner: string): Promise<DeviceTable> {
-  const text = await characterise(sweep(device, section), { timeoutMs: 280_000 });
-  return ingestTexts([{ file: `ngspice-${device}-${section}.csv`, text }], {
-    kit: KIT, device, corner, note: 'ngspice sweeps of the invented test card tests/fixtures/spice/test-bsim4.lib, not a real process',
-  });
-}
+const table = (device: 'n' | 'p', section: string, corner: string): Promise<DeviceTable> => testCardTable(KIT, device, section, corner);
 
 const amp: StageSpec = { name: 'amp', current: 20e-6, gain: 300, swing: 0.9, output: 0.9, input: { device: 'n', topology: 'cascode' }, load: { topology: 'cascode' }, objective: 'area' };
 const pamp: StageSpec = { name: 'pamp', current: 20e-6, gain: 200, swing: 0.8, output: 0.8, input: { device: 'p', topology: 'single' }, load: { topology: 'cascode' }, objective: 'area' };

@@ -12,14 +12,13 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import type { DeviceTable } from '../src/table/types.js';
 import type { DesignSpec, StackSpec } from '../src/design/types.js';
 import type { SizeResult, StackResult } from '../src/solve/types.js';
-import { ingestTexts } from '../src/ingest/index.js';
 import { writeTable } from '../src/table/index.js';
 import { sizeDesign } from '../src/solve/index.js';
 import { decidingResults } from '../src/solve/choose.js';
 import { kitAccessFromTables } from '../src/solve/kit-tables.js';
-import { characterise, designNetlist, measuredHeadroom, midSpan, routOf, interpolateCurve, simulateStacks, type CharacterisationOptions } from '../src/spice/index.js';
+import { designNetlist, measuredHeadroom, midSpan, routOf, interpolateCurve, simulateStacks } from '../src/spice/index.js';
 import { confirmStacks, cornerModels, type Confirmation } from '../src/confirm/index.js';
-import { TEST_LIB, TEST_MODELS, libLine, ngspiceStatus } from './fixtures/spice/ngspice.js';
+import { TEST_LIB, TEST_MODELS, libLine, ngspiceStatus, testCardTable } from './fixtures/spice/ngspice.js';
 import { cli } from './helpers/cli.js';
 
 const KIT = 'confirmcard';
@@ -30,20 +29,7 @@ const stacks: StackSpec[] = [
   { name: 'source', device: 'p', topology: 'cascode', objective: 'area', ...TARGET },
 ];
 
-function sweep(device: 'n' | 'p', section: string): CharacterisationOptions {
-  return {
-    model: TEST_MODELS[device], device, lengths: [0.18e-6, 0.27e-6, 0.36e-6, 0.54e-6, 0.72e-6, 1.08e-6, 1.44e-6], w: 1e-6,
-    vgs: { from: 0, to: 1.8, step: 0.025 }, vds: { from: 0, to: 1.8, step: 0.05 }, vsb: [0, 0.25, 0.5, 0.75, 1.0], supply: SUPPLY, include: libLine(section),
-  };
-}
-
-/** Tables of the test card, section `section` stored under corner name `corner`. */
-async function table(device: 'n' | 'p', section: string, corner: string): Promise<DeviceTable> {
-  const text = await characterise(sweep(device, section), { timeoutMs: 280_000 });
-  return ingestTexts([{ file: `ngspice-${device}-${section}.csv`, text }], {
-    kit: KIT, device, corner, note: 'ngspice sweeps of the invented test card tests/fixtures/spice/test-bsim4.lib, not a real process',
-  });
-}
+const table = (device: 'n' | 'p', section: string, corner: string): Promise<DeviceTable> => testCardTable(KIT, device, section, corner);
 
 const design = (corners: string[], list = stacks): DesignSpec => ({ file: 'confirm.yaml', kit: KIT, corners, supply: SUPPLY, stacks: list });
 
