@@ -1,6 +1,6 @@
 import { LineCounter, isMap, isSeq, parseDocument, type Node as YamlNode } from 'yaml';
 import { StackwrightError } from '../errors.js';
-import { formatEng, parseEng } from '../units/index.js';
+import { formatEng, parseEngShifted } from '../units/index.js';
 import type { Polarity } from '../table/types.js';
 import { parseStages } from './parse-stage.js';
 import { topologyNames } from '../topology/index.js';
@@ -159,10 +159,11 @@ export function requireString(obj: Record<string, unknown>, key: string, path: P
   return v;
 }
 
-export function number(v: unknown, path: Path, fail: Fail): number {
+/** A spec number (engineering notation allowed), times 10^`shift` read exactly (a percentage: -2). */
+export function number(v: unknown, path: Path, fail: Fail, shift = 0): number {
   if (typeof v !== 'number' && typeof v !== 'string') return fail(path, `expected a number (engineering notation allowed, e.g. 40u), got ${JSON.stringify(v)}`);
   try {
-    return parseEng(v);
+    return parseEngShifted(v, shift);
   } catch (e) {
     return fail(path, (e as Error).message);
   }
@@ -206,7 +207,7 @@ export function parseRange(v: unknown, path: Path, fail: Fail, allowStep: boolea
 /** `0.5%` -> 0.005; a bare number is a fraction (0.005). */
 function parsePercent(v: unknown, path: Path, fail: Fail): number {
   let x: number;
-  if (typeof v === 'string' && v.trim().endsWith('%')) x = number(v.trim().slice(0, -1), path, fail) / 100;
+  if (typeof v === 'string' && v.trim().endsWith('%')) x = number(v.trim().slice(0, -1), path, fail, -2); // "0.5" as 0.5e-2, no division noise
   else x = number(v, path, fail);
   if (!(x > 0 && x < 1)) fail(path, `expected a 1-sigma mismatch such as 0.5% or 0.005, got ${JSON.stringify(v)}`);
   return x;

@@ -9,19 +9,33 @@ import { showText } from './show.js';
  * SPICE it usually means mega.
  */
 const SCALE: ReadonlyArray<readonly [string, number]> = [
-  ['meg', 1e6],
-  ['mil', 25.4e-6],
-  ['t', 1e12],
-  ['g', 1e9],
-  ['k', 1e3],
-  ['m', 1e-3],
-  ['u', 1e-6],
-  ['µ', 1e-6],
-  ['μ', 1e-6],
-  ['n', 1e-9],
-  ['p', 1e-12],
-  ['f', 1e-15],
+  ['meg', 6],
+  ['mil', NaN], // 25.4e-6: not a power of ten, multiplied
+  ['t', 12],
+  ['g', 9],
+  ['k', 3],
+  ['m', -3],
+  ['u', -6],
+  ['µ', -6],
+  ['μ', -6],
+  ['n', -9],
+  ['p', -12],
+  ['f', -15],
 ];
+const MIL = 25.4e-6;
+
+/**
+ * The decimal `text` (as NUMBER matched it) times 10^`shift`, read as one decimal
+ * literal ("10" and -6 -> Number("10e-6")), so the result is the double nearest the
+ * exact value (IEEE 754 round-to-nearest), not the product of two rounded doubles.
+ */
+function shifted(text: string, shift: number): number {
+  if (shift === 0) return Number(text);
+  const e = text.search(/[eE]/);
+  const mantissa = e < 0 ? text : text.slice(0, e);
+  const exp = e < 0 ? 0 : Number(text.slice(e + 1));
+  return Number(`${mantissa}e${exp + shift}`);
+}
 
 const NUMBER = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?/;
 
@@ -36,14 +50,22 @@ const NUMBER = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?/;
  * @example parseEng('50meg')  // 5e7
  */
 export function parseEng(input: string | number, where?: string): number {
+  return parseEngShifted(input, 0, where);
+}
+
+/**
+ * parseEng of `input` times 10^`shift`, exact in the decimal digits as parseEng is
+ * (a percentage is parseEngShifted(text, -2): "0.5" -> Number("0.5e-2")).
+ */
+export function parseEngShifted(input: string | number, shift: number, where?: string): number {
   if (typeof input === 'number') {
     if (!Number.isFinite(input)) throw new StackwrightError(`expected a finite number, got ${input}`, { where });
-    return input;
+    return shift === 0 ? input : parseEngShifted(String(input), shift, where);
   }
   const text = input.trim();
   const m = NUMBER.exec(text);
   if (!m) throw new StackwrightError(`expected a number with optional scale suffix (e.g. 40u, 50meg), got ${showText(input)}`, { where });
-  const base = Number(m[0]);
+  const base = shifted(m[0], shift);
   const rest = text.slice(m[0].length).replace(/^ (?=\S)/, '');
   if (rest === '') return finite(base, input, where);
   if (rest.startsWith('M') && !/^(meg|mil)/i.test(rest)) {
@@ -57,7 +79,7 @@ export function parseEng(input: string | number, where?: string): number {
     if (lower.startsWith(suffix)) {
       const tail = rest.slice(suffix.length);
       checkUnitTail(tail, input, where);
-      return finite(base * scale, input, where);
+      return finite(Number.isNaN(scale) ? base * MIL : shifted(m[0], shift + scale), input, where);
     }
   }
   checkUnitTail(rest, input, where);
