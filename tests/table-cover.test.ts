@@ -3,9 +3,11 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { kitAccessFromTables } from '../src/solve/kit-tables.js';
 import { sizeDesign } from '../src/solve/size.js';
 import { parseSpec } from '../src/design/index.js';
-import { loadTable } from '../src/table/index.js';
+import { loadTable, writeTable } from '../src/table/index.js';
 import type { DeviceTable } from '../src/table/types.js';
-import { ensureDemoTables, REPO } from './helpers/cli.js';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { cli, ensureDemoTables, REPO } from './helpers/cli.js';
 
 /** The demo table cut to its VSB = 0 points, as a sweep without body bias would give. */
 function vsbZeroOnly(t: DeviceTable): DeviceTable {
@@ -65,5 +67,59 @@ describe('numbers in sizing messages carry units', () => {
     expect(msg).not.toMatch(RAW);
     const stack = { ...base.stacks[0], gmid: undefined, headroom: 0.1 + 0.2 + 1.4, span: 1.6 };
     expect(() => sizeStack(stack, kit, { supply: 1.8, corners: ['tt'] })).toThrow(/headroom 1\.7 V must be below span 1\.6 V$/);
+  });
+});
+
+describe('gain stages on tables with VSB = 0 only', () => {
+  let kit: ReturnType<typeof kitAccessFromTables>;
+  beforeAll(() => {
+    ensureDemoTables();
+    const t = (d: 'n' | 'p') => vsbZeroOnly(loadTable(join(REPO, 'tables'), 'demo180', d, 'tt'));
+    kit = kitAccessFromTables([t('n'), t('p')]);
+  });
+  const stageSpec = (input: string, load: string) =>
+    parseSpec(
+      `kit: demo180\nsupply: 1.8\nstacks: []\nstages:\n  - name: amp\n    current: 10u\n    gain: 20\n    swing: 0.6\n    input: {device: n, topology: ${input}}\n    load: {topology: ${load}}\n`,
+      'stage.yaml',
+    );
+
+  // An input cascode's upper device sits on the input device's drain, a cascoded load's upper devices on
+  // their lower ones' drains: VSB > 0 for both (common practice; Razavi, body effect in cascodes).
+  it('cascode input: one line naming the input side and the missing vsb axis', () => {
+    expect(() => sizeDesign(stageSpec('cascode', 'single'), kit)).toThrow(
+      /^stage\.yaml: stages\[0\]\.input\.topology: stage "amp" input side: topology cascode needs VSB data for its upper devices .* the table's vsb axis holds 0 V only \(kit demo180, n-type, corner tt\)[^\n]*$/,
+    );
+  });
+  for (const load of ['cascode', 'triple', 'auto']) {
+    it(`${load} load: one line naming the load side and the missing vsb axis`, () => {
+      expect(() => sizeDesign(stageSpec('single', load), kit)).toThrow(
+        new RegExp(`^stage\\.yaml: stages\\[0\\]\\.load\\.topology: stage "amp" load side: topology ${load} needs VSB data .* vsb axis holds 0 V only \\(kit demo180, p-type, corner tt\\)[^\\n]*$`),
+      );
+    });
+  }
+  it('the library entry sizeStage refuses it the same way', async () => {
+    const { sizeStage } = await import('../src/solve/stage-size.js');
+    expect(() => sizeStage(stageSpec('cascode', 'single').stages![0], kit, { supply: 1.8, corners: ['tt'] })).toThrow(/stage "amp" input side: topology cascode needs VSB data/);
+  });
+  it('single input into a single load still sizes (both sources on their rails)', () => {
+    const r = sizeDesign(stageSpec('single', 'single'), kit);
+    expect(r.stages?.[0].input.devices).toHaveLength(1);
+    expect(Number.isFinite(r.stages?.[0].predicted.area)).toBe(true);
+  });
+});
+
+describe('size on VSB = 0 tables from the command line', () => {
+  it('a cascode-input stage exits 2 with one line naming the spec location, the side and the missing axis', () => {
+    ensureDemoTables();
+    const dir = mkdtempSync(join(tmpdir(), 'sw-vsb0-'));
+    for (const d of ['n', 'p'] as const) writeTable(dir, vsbZeroOnly(loadTable(join(REPO, 'tables'), 'demo180', d, 'tt')));
+    const spec = join(dir, 'stage.yaml');
+    writeFileSync(spec, 'kit: demo180\nsupply: 1.8\nstacks: []\nstages:\n  - name: amp\n    current: 10u\n    gain: 20\n    swing: 0.6\n    input: {device: n, topology: cascode}\n    load: {topology: single}\n');
+    const r = cli(['size', spec, '--tables', dir]);
+    // Exit 2 for bad input, one line on stderr, nothing on stdout (the project's error convention).
+    expect(r.code).toBe(2);
+    expect(r.stdout).toBe('');
+    expect(r.stderr.trim().split('\n')).toHaveLength(1);
+    expect(r.stderr).toMatch(/stage\.yaml: stages\[0\]\.input\.topology: stage "amp" input side: topology cascode needs VSB data .*vsb axis holds 0 V only/);
   });
 });

@@ -158,7 +158,7 @@ export function sizeDesign(design: DesignSpec, kit: KitAccess): SizeResult & { f
   const corners = resolveCorners(design, kit.corners);
   // Every stack first, so a spec the tables cannot describe fails before any search.
   design.stacks.forEach((s, i) => checkTableCover(s, kit, corners, design.supply, `${design.file}: stacks[${i}]`));
-  (design.stages ?? []).forEach((s) => checkStageCover(s, kit, corners, design.supply, `${design.file}: supply`));
+  (design.stages ?? []).forEach((s, i) => checkStageCover(s, kit, corners, design.supply, `${design.file}: supply`, `${design.file}: stages[${i}]`));
   const stacks: StackResult[] = [];
   const fronts: Record<string, FrontPoint[]> = {};
   for (const s of design.stacks) {

@@ -10,6 +10,7 @@ import { emptyStageResult, stageFrontPoint, stageResult } from './stage-result.j
 import { chooseStage } from './stage-choose.js';
 import type { StageFrontPoint, StageResult } from './stage-types.js';
 import { paretoStages } from './stage-front.js';
+import { checkStageCover } from './table-cover.js';
 
 /** Output grid step of the pair screen, V. */
 const SCREEN_STEP = 0.05;
@@ -67,6 +68,7 @@ function designs(sides: StageSides, side: StageSides['input'], topology: Topolog
  * @example sizeStage(spec.stages[0], kit, { supply: 1.8, corners: ['tt'] }).results[0].predicted.swing
  */
 export function sizeStage(stage: StageSpec, kit: KitAccess, opts: { supply: number; corners: string[] }): SizeStageResult {
+  checkStageCover(stage, kit, opts.corners, opts.supply, `stage "${stage.name}".supply`);
   const input = makeSide(stage, 'input', kit, opts.supply, opts.corners);
   const load = makeSide(stage, 'load', kit, opts.supply, opts.corners);
   const sides: StageSides = { stage, supply: opts.supply, input, load };

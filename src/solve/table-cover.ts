@@ -69,17 +69,32 @@ export function checkTableCover(stack: StackSpec, kit: KitAccess, corners: reado
  * Refuse, as bad input, a gain stage the tables cannot describe: the output swings
  * between the rails, so one side's devices see up to the whole supply across them;
  * a supply above either polarity's VDS axis would be read outside the table.
+ * A cascoded side (input cascode, or a load other than single) on tables without
+ * VSB data is refused as a stack is: its upper devices' sources sit above the rail.
+ * `where` locates the supply, `at` the stage (e.g. "spec.yaml: stages[0]").
  */
-export function checkStageCover(stage: StageSpec, kit: KitAccess, corners: readonly string[], supply: number, where: string): void {
+export function checkStageCover(stage: StageSpec, kit: KitAccess, corners: readonly string[], supply: number, where: string, at = `stage "${stage.name}"`): void {
   const load: Polarity = stage.input.device === 'n' ? 'p' : 'n';
+  const sides = [
+    { side: 'input', device: stage.input.device, topology: stage.input.topology as string },
+    { side: 'load', device: load, topology: stage.load.topology as string },
+  ];
   for (const corner of corners) {
-    for (const device of [stage.input.device, load]) {
+    for (const { side, device, topology } of sides) {
       const cover = tableCover(kit, corner, device);
+      const table = `kit ${kit.kit}, ${device}-type, corner ${corner}`;
       if (supply > cover.vds[1] * (1 + TOL)) {
         throw new StackwrightError(
-          `supply ${V(supply)} is above the tables' VDS range, which ends at ${V(cover.vds[1])} (kit ${kit.kit}, ${device}-type, corner ${corner}); ` +
+          `supply ${V(supply)} is above the tables' VDS range, which ends at ${V(cover.vds[1])} (${table}); ` +
             `stage "${stage.name}" swings its output between the rails, so lower the supply`,
           { where },
+        );
+      }
+      if (topology !== 'single' && !(cover.vsb[1] > 0)) {
+        throw new StackwrightError(
+          `stage "${stage.name}" ${side} side: topology ${topology} needs VSB data for its upper devices (their sources sit above the rail), ` +
+            `but the table's vsb axis holds ${V(cover.vsb[0])} only (${table}); characterise with VSB steps up to about ${V(supply)}, or use topology: single`,
+          { where: `${at}.${side}.topology` },
         );
       }
     }
