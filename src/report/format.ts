@@ -14,7 +14,9 @@ export function formatMicrons(m: number): string {
 
 export function formatPercent(fraction: number): string {
   if (!Number.isFinite(fraction)) return '—';
-  return `${Number((fraction * 100).toPrecision(3))} %`;
+  // Three decimals of a percent everywhere σ and its target are shown (tables, verdicts, port rows),
+  // so one σ never reads as two numbers ("2 %" in a table, "1.995 %" in a verdict).
+  return `${(fraction * 100).toFixed(3)} %`;
 }
 
 /** formatEng that prints "never" for Infinity (e.g. a headroom that is never reached). */

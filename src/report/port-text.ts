@@ -1,7 +1,7 @@
 import type { PortRun } from '../solve/port.js';
 import { formatEng } from '../units/index.js';
 import { renderTable } from './text.js';
-import { formatArea } from './format.js';
+import { formatArea, formatPercent } from './format.js';
 import { bindingText, verdictText } from './verdict.js';
 import { stageVerdictText } from './stage-rows.js';
 
@@ -10,7 +10,7 @@ function value(x: number, unit: string): string {
   if (!Number.isFinite(x)) return 'never';
   if (unit === 'm²') return formatArea(x);
   if (unit === '1/V') return `${Number(x.toPrecision(3))} /V`;
-  if (unit === '') return `${Number((x * 100).toPrecision(3))} %`;
+  if (unit === '') return formatPercent(x); // σ, as verdicts show it
   return formatEng(x, unit);
 }
 

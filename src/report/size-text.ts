@@ -1,7 +1,7 @@
 import type { SizeResult } from '../solve/types.js';
 import type { StageFrontPoint } from '../solve/stage-types.js';
 import { decidingResults } from '../solve/choose.js';
-import { eng, formatArea, polarityName } from './format.js';
+import { eng, formatArea, formatPercent, polarityName } from './format.js';
 import { formatEng } from '../units/index.js';
 import { biasGrid, columnAlign, cornerGrid, currentWarning, deviceGrid, predictedGrid, squareLawGrid, statusLine, type Grid } from './rows.js';
 import { ansi, renderTable, wrapText, TEXT_WIDTH } from './text.js';
@@ -108,7 +108,7 @@ export function renderSizeBrief(result: SizeResult, opts: SizeTextOptions): stri
     s.name, `${s.device}-type ${s.topology}`, s.feasible ? 'feasible' : 'INFEASIBLE',
     s.devices.map((d) => `${microns(d.w)}/${microns(d.l)}`).join(' + ') || '—',
     eng(s.predicted.iout, 'A'), eng(s.predicted.rout, 'Ω'), eng(s.predicted.headroom, 'V'),
-    formatArea(s.predicted.area), s.predicted.sigma === undefined ? '—' : `${Number((s.predicted.sigma * 100).toPrecision(3))} %`,
+    formatArea(s.predicted.area), s.predicted.sigma === undefined ? '—' : formatPercent(s.predicted.sigma),
   ]);
   const stages = (result.stages ?? []).filter((s) => s.chosen !== false).map((s) => [
     s.name, `${s.input.device}-input ${s.input.topology} / ${s.load.device}-type ${s.load.topology}`, s.feasible ? 'feasible' : 'INFEASIBLE',

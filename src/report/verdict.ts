@@ -1,9 +1,10 @@
 import type { Verdict } from '../solve/evaluate/verdict.js';
 import { formatEng } from '../units/index.js';
+import { formatPercent } from './format.js';
 
 /** A voltage as every sentence shows it: three decimals of a volt (headroom is reported to the mV). */
 export const volts = (x: number) => `${x.toFixed(3)} V`;
-const pct = (x: number) => `${(x * 100).toFixed(3)} %`;
+const pct = formatPercent;
 
 /** Words for one verdict: "rout 12.3 MΩ < 20 MΩ at 0.500 V", "headroom 0.520 V ≤ 0.550 V". */
 export function verdictText(v: Verdict): string {

@@ -98,7 +98,6 @@ function smallest(m: Margins): number {
 function infeasibility(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[], near: Nearest): Pick<StackResult, 'binding' | 'nearest'> {
   const s = ctx.spec;
   const on = (target: Verdict['target'] & keyof Margins, e: { ev: Evaluated['nominal'] | null; sigma?: number }, corner: string) => verdictOf(target, s, e.ev, e.sigma, ctx.vmid, corner);
-  const mm = (e: Evaluated) => e.margins.mismatch >= 0;
   const nearest = { headroomAtRout: reportedHeadroom(near.headroomAtRout), routAtHeadroom: near.routAtHeadroom };
   const nominal = { ev: best.nominal, sigma: best.sigma };
   if (!pool.some((e) => e.margins.saturation >= 0)) return { binding: on('saturation', nominal, ctx.nominal), nearest };
@@ -109,10 +108,8 @@ function infeasibility(ctx: SolveContext, best: Evaluated, pool: readonly Evalua
   // Every design meeting Rout and headroom is wider than the limit: the narrowest width they need.
   if (near.narrowest !== undefined) return { binding: verdict('width', ctx.wmax, near.narrowest, undefined, ctx.nominal), nearest };
   const physical = pool.filter((e) => e.margins.rout >= 0 && e.margins.headroom >= 0);
-  if (s.mismatch !== undefined && physical.length > 0 && !physical.some(mm)) {
-    const sig = Math.min(...physical.map((e) => e.sigma ?? Infinity));
-    return { binding: verdict('mismatch', s.mismatch, sig, ctx.vmid, ctx.nominal), nearest };
-  }
+  const lowest = mismatchNearest(ctx, pool);
+  if (lowest) return { binding: verdict('mismatch', s.mismatch, lowest.sigma, ctx.vmid, ctx.nominal), nearest };
   if (physical.some((e) => e.margins.iout < 0) && !physical.some((e) => e.margins.iout >= 0)) {
     return { binding: on('iout', nominal, ctx.nominal), nearest };
   }
@@ -187,9 +184,27 @@ export function stackResult(ctx: SolveContext, best: Evaluated, pool: Evaluated[
  */
 function shownWhenInfeasible(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[], near: Nearest): Evaluated {
   if (nominalOk(best) || !pool.some((e) => e.margins.saturation >= 0)) return best;
+  // Mismatch binds: the design with the lowest σ, so the verdict's σ is the σ shown (one number everywhere).
+  if (near.narrowest === undefined) {
+    const lowest = mismatchNearest(ctx, pool);
+    if (lowest) return lowest;
+  }
   if (near.atHeadroom && near.routAtHeadroom < ctx.spec.rout) return near.atHeadroom;
   if (near.atRout) return near.atRout;
   return near.atHeadroom ?? best;
+}
+
+/**
+ * When mismatch alone stands in the way (designs meet Rout and headroom, none
+ * the σ target): the one of them with the lowest σ; else undefined.
+ */
+function mismatchNearest(ctx: SolveContext, pool: readonly Evaluated[]): (Evaluated & { sigma: number }) | undefined {
+  if (ctx.spec.mismatch === undefined) return undefined;
+  const physical = pool.filter((e) => e.margins.rout >= 0 && e.margins.headroom >= 0);
+  if (physical.length === 0 || physical.some((e) => e.margins.mismatch >= 0)) return undefined;
+  let lowest: (Evaluated & { sigma: number }) | undefined;
+  for (const e of physical) if (e.sigma !== undefined && (!lowest || e.sigma < lowest.sigma)) lowest = e as Evaluated & { sigma: number };
+  return lowest;
 }
 
 /** The width limit, and the current the tables carry at it when the target is above that. */
