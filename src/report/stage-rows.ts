@@ -11,6 +11,7 @@ function quantity(v: StageVerdict, x: number | null): string {
   if (v.target === 'gain') return gainText(x);
   if (v.target === 'swing') return x === null ? '—' : eng(x, 'V');
   if (v.target === 'gbw') return x === null ? '—' : eng(x, 'Hz');
+  if (v.target === 'vin') return x === null ? '—' : eng(x, 'V');
   return '—';
 }
 
@@ -22,6 +23,12 @@ export function stageVerdictText(v: StageVerdict, showCorner = false): string {
   const where = showCorner && v.corner ? `corner ${v.corner}: ` : '';
   if (v.target === 'table') return `${where}the tables cannot hold the stage's bias (a bias diode or the design point lies outside them)`;
   if (v.target === 'saturation') return `${where}a lower device would leave saturation at the design point`;
+  if (v.target === 'vin') {
+    // Short: it also stands in the brief table's binding column.
+    if (v.achieved === null || v.required === null) return `${where}input DC voltage: not reached`;
+    const side = v.achieved < v.required ? `below the ${eng(v.required, 'V')} rail` : `above the ${eng(v.required, 'V')} supply`;
+    return `${where}input DC voltage ${eng(v.achieved, 'V')} ${side}`;
+  }
   const name = v.target === 'gain' ? (v.at === null ? 'gain held over the swing target' : `gain at the ${eng(v.at, 'V')} design point`) : v.target === 'swing' ? 'swing at the gain target' : 'GBW';
   if (v.achieved === null || v.required === null) return `${where}${name}: not reached`;
   const ok = v.achieved >= v.required;

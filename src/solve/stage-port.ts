@@ -6,6 +6,7 @@ import { change, deviceChanges, type Change } from './compare.js';
 import { absolute } from './result.js';
 import { TRACE_STEP, gbwOf } from './stage-eval.js';
 import type { StageCorner, StageResult, StageSide } from './stage-types.js';
+import { vinMargin, vinRail } from './stage-rails.js';
 
 /**
  * A stage spec on a kit with another supply: the design point and the swing
@@ -58,7 +59,8 @@ export function stageAsIs(r: StageResult, spec: StageSpec, kit: KitAccess, corne
     const trace = traceStage(circuit, spec.output, spec.gain, { step: TRACE_STEP });
     const p = trace.points[trace.j0];
     const gbw = p ? gbwOf(spec, p.gm, null) : null;
-    const feasible = trace.swing >= spec.swing - 1e-9 && (spec.gbw === undefined || (gbw ?? 0) >= spec.gbw);
+    const railsOk = !p || vinMargin(p.vin, supply) >= 0;
+    const feasible = railsOk && trace.swing >= spec.swing - 1e-9 && (spec.gbw === undefined || (gbw ?? 0) >= spec.gbw);
     const out: StageCorner = {
       corner, feasible,
       predicted: {
@@ -69,6 +71,7 @@ export function stageAsIs(r: StageResult, spec: StageSpec, kit: KitAccess, corne
     };
     const verdict = { target: 'swing' as const, required: spec.swing, achieved: trace.swing, at: null, device: null, corner };
     if (feasible) out.tightest = verdict;
+    else if (!railsOk && p) out.binding = { target: 'vin', required: vinRail(p.vin, supply), achieved: p.vin, at: spec.output, device: null, corner };
     else out.binding = trace.swing < spec.swing ? verdict : { target: 'gbw', required: spec.gbw ?? null, achieved: gbw, at: spec.output, device: null, corner };
     return out;
   } catch (e) {

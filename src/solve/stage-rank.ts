@@ -1,32 +1,37 @@
 import type { StageObjective, StageSpec } from '../design/types.js';
 import type { StageAt, StageDesign } from './stage-eval.js';
+import { vinMargin } from './stage-rails.js';
 
 /** Normalised margins of one traced corner (≥ 0 met): gain in ln units, swing relative to its target, gbw in ln units. */
 export interface StageMargins {
   gain: number;
   swing: number;
   gbw: number;
+  /** Input DC voltage inside the rails: ≥ 0 within [0, supply] (see stage-rails.ts). */
+  vin: number;
 }
 
 export function stageMargins(stage: StageSpec, at: StageAt | { error: string }): StageMargins {
-  if ('error' in at) return { gain: -Infinity, swing: -Infinity, gbw: -Infinity };
+  if ('error' in at) return { gain: -Infinity, swing: -Infinity, gbw: -Infinity, vin: -Infinity };
+  const p = at.trace.points[at.trace.j0];
   const gbw = stage.gbw === undefined ? Infinity : at.gbw !== null && at.gbw > 0 ? Math.log(at.gbw / stage.gbw) : -Infinity;
   return {
     gain: at.gainAtSwing > 0 ? Math.log(at.gainAtSwing / stage.gain) : -Infinity,
     swing: (at.trace.swing - stage.swing) / stage.swing,
     gbw,
+    vin: p ? vinMargin(p.vin, at.circuit.supply) : Infinity,
   };
 }
 
-/** Met when the swing with gain ≥ target reaches the swing target (which is the gain held over it) and the gbw target holds. */
+/** Met when the swing with gain ≥ target reaches the swing target (which is the gain held over it) and the gbw target holds, with the input DC voltage within the rails. */
 export function meets(m: StageMargins): boolean {
-  return m.swing >= -1e-9 && m.gbw >= 0;
+  return m.swing >= -1e-9 && m.gbw >= 0 && m.vin >= 0;
 }
 
 /** Sum of shortfalls (capped so every design still ranks). */
 export function shortfall(m: StageMargins): number {
   const cap = (x: number) => Math.min(Math.max(0, -x), 50);
-  return cap(m.gain) + cap(m.swing) + cap(m.gbw);
+  return cap(m.gain) + cap(m.swing) + cap(m.gbw) + cap(m.vin);
 }
 
 export function nominalOk(stage: StageSpec, d: StageDesign): boolean {

@@ -9,6 +9,7 @@ import type { BiasResult, DeviceResult } from './types.js';
 import { absolute } from './result.js';
 import { fineTrace, type StageAt, type StageDesign, type StageSides } from './stage-eval.js';
 import { meets, nominalOk, stageMargins, type StageMargins } from './stage-rank.js';
+import { vinRail } from './stage-rails.js';
 import type {
   StageCorner, StageCurvePoint, StageFrontPoint, StagePredicted, StageResult, StageSide, StageSquareLaw, StageTarget, StageVerdict,
 } from './stage-types.js';
@@ -95,10 +96,16 @@ function verdict(stage: StageSpec, target: StageTarget, at: StageAt | null, corn
   if (target === 'gain') return { target, required: stage.gain, achieved: finite(at?.gainAtSwing), at: null, device: null, corner };
   if (target === 'swing') return { target, required: stage.swing, achieved: finite(at?.trace.swing), at: null, device: null, corner };
   if (target === 'gbw') return { target, required: stage.gbw ?? null, achieved: finite(at?.gbw), at: stage.output, device: null, corner };
+  if (target === 'vin') {
+    const vin = at?.trace.points[at.trace.j0]?.vin;
+    const rail = vin === undefined || at === null ? null : vinRail(vin, at.circuit.supply);
+    return { target, required: rail, achieved: finite(vin), at: stage.output, device: null, corner };
+  }
   return { target, required: null, achieved: null, at: null, device: null, corner };
 }
 
 function smallestTarget(m: StageMargins): StageTarget {
+  if (m.vin < 0) return 'vin'; // an input outside the rails is no design, whatever else it meets
   const order: Array<keyof StageMargins> = ['swing', 'gain', 'gbw'];
   return order.reduce((a, b) => (m[b] < m[a] ? b : a));
 }
@@ -159,10 +166,25 @@ function squareLawOf(sides: StageSides, d: StageDesign): StageSquareLaw | undefi
   return nums.every(Number.isFinite) ? s : undefined;
 }
 
+/** Best gain held over the swing target and best swing at the gain target over some designs. */
+function nearestOf(pool: readonly StageDesign[]): { gainAtSwing: number; swingAtGain: number } {
+  let gainAtSwing = 0;
+  let swingAtGain = 0;
+  for (const d of pool) {
+    gainAtSwing = Math.max(gainAtSwing, d.nominal.gainAtSwing);
+    swingAtGain = Math.max(swingAtGain, d.nominal.trace.swing);
+  }
+  return { gainAtSwing, swingAtGain };
+}
+
 /** Why nothing met the targets: the nearest points over the explored designs and which target binds, by how much. */
-function infeasibility(sides: StageSides, best: StageDesign, pool: readonly StageDesign[]): Pick<StageResult, 'binding' | 'nearest'> {
+function infeasibility(sides: StageSides, best: StageDesign, explored: readonly StageDesign[]): Pick<StageResult, 'binding' | 'nearest'> {
   const stage = sides.stage;
   const nominal = sides.input.ctx.nominal;
+  // Only designs with the input DC voltage within the rails count; when there are none, that binds
+  // (the shown design is then the one closest to the rails, see pickStage).
+  const pool = explored.filter((d) => stageMargins(stage, d.nominal).vin >= 0);
+  if (pool.length === 0) return { binding: verdict(stage, 'vin', best.nominal, nominal), nearest: nearestOf(explored) };
   let gainAtSwing = 0;
   let swingAtGain = 0;
   let peak = 0;

@@ -32,7 +32,11 @@ function totalShortfall(sides: StageSides, d: StageDesign): number {
 }
 
 /** Best of the evaluated designs: meeting the targets at every corner in objective order, else the nearest. */
-export function pickStage(sides: StageSides, pool: readonly StageDesign[]): StageDesign | undefined {
+export function pickStage(sides: StageSides, explored: readonly StageDesign[]): StageDesign | undefined {
+  // Designs with the input DC voltage outside the rails only when there is nothing else: the one closest to them.
+  const rails = (d: StageDesign) => stageMargins(sides.stage, d.nominal).vin;
+  const pool = explored.filter((d) => rails(d) >= 0);
+  if (pool.length === 0 && explored.length > 0) return explored.reduce((a, b) => (rails(b) > rails(a) ? b : a));
   const ok = pool.filter((d) => nominalOk(sides.stage, d)).sort((a, b) => stageCompare(sides.stage.objective, a, b));
   for (const d of ok) if (fullyOk(sides, d)) return d;
   if (ok.length > 0) return ok.reduce((a, b) => (totalShortfall(sides, b) < totalShortfall(sides, a) ? b : a));
@@ -74,7 +78,10 @@ export function sizeStage(stage: StageSpec, kit: KitAccess, opts: { supply: numb
   const sides: StageSides = { stage, supply: opts.supply, input, load };
   const vs = outputGrid(stage.output, opts.supply, SCREEN_STEP);
   const j0 = designIndex(vs, stage.output);
-  const inputs = designs(sides, input, stage.input.topology, vs, j0);
+  const sized = designs(sides, input, stage.input.topology, vs, j0);
+  // The input gate (gates[0], from the input rail) must sit within the rails; others only when nothing else exists.
+  const within = sized.filter((d) => d.sized.gates[0] <= opts.supply);
+  const inputs = within.length > 0 ? within : sized;
   const gmMax = Math.max(0, ...inputs.map((d) => Math.max(...(d.gm as Float64Array))));
   const topologies: readonly Topology[] = stage.load.topology === 'auto' ? topologyNames() : [stage.load.topology];
   const results: StageResult[] = [];
