@@ -1,4 +1,8 @@
 import { spawnSync } from 'node:child_process';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { cli, ensureDemoTables, REPO } from './helpers/cli.js';
 import { describe, expect, it } from 'vitest';
 import { parseEng, parseEngShifted } from '../src/units/index.js';
 import { parseSpec } from '../src/design/index.js';
@@ -66,5 +70,28 @@ describe('spec values carry no float noise', () => {
     expect(spec.stacks[0].wmax).toBe(w);
     expect(spec.stacks[0].mismatch).toBe(m);
     expect(JSON.stringify(spec.stacks[0])).not.toMatch(/\d{12,}/);
+  });
+});
+
+describe('size --json echoes spec values without float noise', () => {
+  it('current 10u and wmax 200u print as 0.00001 and 0.0002 in the verdict and the result (Python float() repr)', () => {
+    ensureDemoTables();
+    const dir = mkdtempSync(join(tmpdir(), 'sw-exact-'));
+    const file = join(dir, 'w.yaml');
+    // Rout 100 MΩ at 0.3 V headroom needs wider devices than 200 µm here, so width binds and quotes wmax.
+    writeFileSync(file, 'kit: demo180\nsupply: 1.8\nstacks:\n  - name: s\n    device: n\n    topology: cascode\n    current: 10u\n    rout: 100meg\n    headroom: 0.3\n    wmax: 200u\n');
+    const r = cli(['size', file, '--json', '--tables', join(REPO, 'tables')]);
+    const j = JSON.parse(r.stdout);
+    const [i, w] = nearestDoubles(['10e-6', '200e-6']);
+    expect(j.stacks[0].binding).toMatchObject({ target: 'width', required: w });
+    expect(j.stacks[0].wmax).toBe(w);
+    // Python's repr of the nearest doubles is the shortest round-trip text, as JSON.stringify prints it.
+    expect(r.stdout).toContain('"required": 0.0002');
+    expect(r.stdout).toContain('"current": 0.00001');
+    // Every echo of a spec value (computed figures such as a device's solved id may differ in the last digits).
+    const echoed = [...r.stdout.matchAll(/"(required|current|wmax)": ([^,\n}]+)/g)].map((m) => m[2]);
+    expect(echoed.length).toBeGreaterThan(3);
+    for (const v of echoed) expect(v).not.toMatch(/9999999|0000001/);
+    expect(i).toBe(0.00001);
   });
 });
