@@ -76,3 +76,28 @@ describe('a stage whose input DC voltage would lie outside the rails', () => {
     });
   }
 });
+
+describe('port: old stage sizes on a lower supply', () => {
+  it('an as-is check whose input gate falls below ground fails with binding vin; the retargeted swing is 0.4 V, not 0.39999999999999997', async () => {
+    const { stageAsIs, retargetStage } = await import('../src/solve/stage-port.js');
+    // A p-input stage sized on 1.8 V has its gate near 1.8 V − VSG ≈ 0.9 V; on a 0.8 V supply the same VSG
+    // puts the gate at 0.8 V − VSG < 0 (source on the supply, common practice).
+    const spec = parseSpec(
+      'kit: demo180\nsupply: 1.8\nstacks: []\nstages:\n  - name: amp\n    current: 10u\n    gain: 20\n    swing: 0.6\n    input: {device: p, topology: single, gmid: [4, 8]}\n    load: {topology: single}\n',
+      'port.yaml',
+    );
+    const r = sizeSpec(spec, kit).result.stages![0];
+    expect(r.feasible).toBe(true);
+    const vsg = r.input.devices[0].vgs;
+    expect(0.8 - vsg).toBeLessThan(0);
+    const at = retargetStage(spec.stages![0], 1.8, 0.8);
+    // Same share of the supply, by hand: 0.6 V · 1.2/1.8 = 0.4 V and 0.9 V · 0.8/1.8 = 0.4 V exactly (decimal arithmetic).
+    expect(retargetStage(spec.stages![0], 1.8, 1.2).swing).toBe(0.4);
+    expect(at.output).toBe(0.4);
+    const a = stageAsIs(r, at, kit, 'tt', 0.8);
+    if ('error' in a) throw new Error(a.error);
+    expect(a.feasible).toBe(false);
+    expect(a.binding).toMatchObject({ target: 'vin', required: 0, achieved: a.predicted.vin });
+    expect(a.predicted.vin).toBeLessThan(0);
+  });
+});

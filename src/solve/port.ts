@@ -3,6 +3,7 @@ import type { Polarity } from '../table/types.js';
 import type { CornerResult, StackResult } from './types.js';
 import type { Kit } from './load-kit.js';
 import { sizeSpec, type SizeRun } from './size.js';
+import { specDecimal } from '../units/index.js';
 import { decidingResults } from './choose.js';
 import { compareResults, harderTargets, type Change } from './compare.js';
 import { evaluateAtCorner } from './evaluate/corners.js';
@@ -59,8 +60,8 @@ export function portSpec(spec: DesignSpec, from: Kit, to: Kit, opts: { supply?: 
   if (supply !== spec.supply) notes.push(`supply ${spec.supply} V -> ${supply} V on kit ${to.kit}`);
   const stacks = spec.stacks.map((s) => {
     if (s.span <= supply) return s;
-    let span = s.span - (spec.supply - supply);
-    if (!(span > s.headroom + 0.05)) span = (s.span * supply) / spec.supply;
+    let span = specDecimal(s.span - (spec.supply - supply));
+    if (!(span > s.headroom + 0.05)) span = specDecimal((s.span * supply) / spec.supply);
     notes.push(`${s.name}: span ${s.span} V -> ${Number(span.toFixed(3))} V`);
     return { ...s, span };
   });

@@ -1,4 +1,5 @@
 import { StackwrightError } from '../errors.js';
+import { specDecimal } from '../units/index.js';
 import type { StageSpec } from '../design/types.js';
 import { biasGates, traceStage, type StackDevice, type StageCircuit } from '../stack/index.js';
 import type { KitAccess } from './kit.js';
@@ -16,7 +17,7 @@ import { vinMargin, vinRail } from './stage-rails.js';
 export function retargetStage(s: StageSpec, from: number, to: number): StageSpec {
   if (from === to) return s;
   const k = to / from;
-  return { ...s, output: s.output * k, swing: s.swing * k };
+  return { ...s, output: specDecimal(s.output * k), swing: specDecimal(s.swing * k) };
 }
 
 

@@ -98,6 +98,15 @@ function finite(x: number, input: string, where?: string): number {
   return x;
 }
 
+/**
+ * A derived spec value as the decimal it stands for: `x` to 12 significant digits
+ * (0.6·1.2/1.8 = 0.39999999999999997 -> 0.4), so values scaled from a spec carry
+ * no float noise into verdicts and JSON.
+ */
+export function specDecimal(x: number): number {
+  return Number.isFinite(x) ? Number(x.toPrecision(12)) : x;
+}
+
 /** Parse a value that may be a number (JSON/YAML) or an engineering string. */
 export function parseEngValue(value: unknown, where?: string): number {
   if (typeof value === 'number' || typeof value === 'string') return parseEng(value, where);
