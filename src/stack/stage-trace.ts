@@ -1,5 +1,6 @@
 import type { StackOp } from './types.js';
 import { stagePoint, type StageCircuit, type StagePoint } from './stage-point.js';
+import { guessOf } from './stage-input.js';
 import { indexOf, outputGrid, swingOnGrid } from './stage-swing.js';
 
 /** A stage's transfer curve on an output grid through the design point, with its swing. */
@@ -29,16 +30,20 @@ export function traceStage(c: StageCircuit, output: number, target: number, opts
   const j0 = indexOf(vs, output);
   const points: Array<StagePoint | null> = new Array(vs.length).fill(null);
   const gains = new Float64Array(vs.length);
+  // Each solve starts from the last solved neighbour towards the design point.
+  let near: StagePoint | null = null;
   const at = (j: number, guess: StackOp | undefined): StackOp | undefined => {
-    const p = stagePoint(c, vs[j], guess);
+    const p = stagePoint(c, vs[j], guess, near ? guessOf(near.input) : undefined);
     points[j] = p;
     gains[j] = p ? p.gain : 0;
+    if (p) near = p;
     return p?.load ?? guess;
   };
   const mid = at(j0, undefined);
   let g = mid;
   for (let j = j0 + 1; j < vs.length; j++) g = at(j, g);
   g = mid;
+  near = points[j0];
   for (let j = j0 - 1; j >= 0; j--) g = at(j, g);
   const grid = swingOnGrid(vs, gains, j0, target);
   if (!grid) return { vs, gains, points, j0, vlow: null, vhigh: null, swing: 0 };
@@ -46,13 +51,13 @@ export function traceStage(c: StageCircuit, output: number, target: number, opts
   const edge = (inside: number, outside: number): number => {
     let a = vs[inside];
     let b = vs[outside];
-    let guess = points[inside]?.load;
+    let guess = points[inside];
     while (Math.abs(b - a) > res) {
       const m = 0.5 * (a + b);
-      const p = stagePoint(c, m, guess);
+      const p = stagePoint(c, m, guess?.load, guess ? guessOf(guess.input) : undefined);
       if (p && p.gain >= target) {
         a = m;
-        guess = p.load;
+        guess = p;
       } else b = m;
     }
     return a;
@@ -80,7 +85,8 @@ export function heldGain(c: StageCircuit, trace: StageTrace, width: number, reso
   let hi = Math.min(output, vs[vs.length - 1] - width);
   if (!(hi >= lo)) return 0;
   const gainAt = (v: number): number => {
-    const p = stagePoint(c, v, nearestLoad(trace, v));
+    const q = nearestPoint(trace, v);
+    const p = stagePoint(c, v, q?.load, q ? guessOf(q.input) : undefined);
     return p ? p.gain : 0;
   };
   let a = lo;
@@ -97,15 +103,15 @@ export function heldGain(c: StageCircuit, trace: StageTrace, width: number, reso
   return held;
 }
 
-// The solved load point of the grid sample nearest to v, as a starting guess.
-function nearestLoad(trace: StageTrace, v: number): StackOp | undefined {
-  let best: StackOp | undefined;
+// The solved grid sample nearest to v, as a starting guess.
+function nearestPoint(trace: StageTrace, v: number): StagePoint | undefined {
+  let best: StagePoint | undefined;
   let dist = Infinity;
   trace.points.forEach((p, j) => {
     const d = Math.abs(trace.vs[j] - v);
     if (p && d < dist) {
       dist = d;
-      best = p.load;
+      best = p;
     }
   });
   return best;
