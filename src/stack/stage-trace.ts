@@ -1,6 +1,7 @@
 import type { StackOp } from './types.js';
 import { stagePoint, type StageCircuit, type StagePoint } from './stage-point.js';
 import { guessOf } from './stage-input.js';
+import { swingEdge } from './stage-edge.js';
 import { indexOf, outputGrid, swingOnGrid } from './stage-swing.js';
 
 /** A stage's transfer curve on an output grid through the design point, with its swing. */
@@ -22,7 +23,7 @@ export interface StageTrace {
 /**
  * Trace the transfer curve outwards from the design point on a grid of `step`
  * (continuation: each DC solve starts from its neighbour), then refine each
- * swing edge by bisection on the circuit to `resolution`. A swing edge at the
+ * swing edge on the circuit to `resolution` (the answer bisection gives, see swingEdge). A swing edge at the
  * end of the grid stays there (the circuit holds the gain up to the last point).
  */
 export function traceStage(c: StageCircuit, output: number, target: number, opts: { step: number; resolution?: number }): StageTrace {
@@ -48,20 +49,8 @@ export function traceStage(c: StageCircuit, output: number, target: number, opts
   const grid = swingOnGrid(vs, gains, j0, target);
   if (!grid) return { vs, gains, points, j0, vlow: null, vhigh: null, swing: 0 };
   const res = opts.resolution ?? 5e-4;
-  const edge = (inside: number, outside: number): number => {
-    let a = vs[inside];
-    let b = vs[outside];
-    let guess = points[inside];
-    while (Math.abs(b - a) > res) {
-      const m = 0.5 * (a + b);
-      const p = stagePoint(c, m, guess?.load, guess ? guessOf(guess.input) : undefined);
-      if (p && p.gain >= target) {
-        a = m;
-        guess = p;
-      } else b = m;
-    }
-    return a;
-  };
+  const solve = (v: number, near: StagePoint | null): StagePoint | null => stagePoint(c, v, near?.load, near ? guessOf(near.input) : undefined);
+  const edge = (inside: number, outside: number): number => swingEdge(solve, vs[inside], vs[outside], gains[inside], gains[outside], target, res, points[inside]);
   let lo = j0;
   while (lo > 0 && gains[lo - 1] >= target) lo--;
   let hi = j0;
