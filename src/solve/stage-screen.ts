@@ -126,10 +126,12 @@ export function screenPairs(stage: StageSpec, inputs: readonly SideDesign[], loa
       const swU = Math.min(ib[ia].swing, lb[ib2].swing);
       // Every window holds the grid points [core0, core1]: the held gain is at most the gain at either end.
       const heldU = Math.min(ib[ia].held, lb[ib2].held, gainAt(a, b, core0), gainAt(a, b, core1));
-      const objMay = (sw: number): boolean => sw >= stage.swing - SLACK && gbwShort === 0 && (stage.objective !== 'area' || could(obj, area));
-      const heldMay = (sw: number): boolean => could(hold, -Math.log(Math.max(heldU, 1e-30)) + tie)
-        || could(short, Math.max(0, Math.log(stage.gain / Math.max(heldU, 1e-30))) + Math.max(0, stage.swing - sw) / stage.swing + gbwShort + tie);
-      if (!objMay(swU) && !could(swing, -swU + tie) && !heldMay(swU)) continue;
+      // Lowest keys the pair could have (the shortfall key also gains the swing shortfall, below).
+      const objOpen = gbwShort === 0 && (stage.objective !== 'area' || could(obj, area));
+      const holdOpen = could(hold, -Math.log(Math.max(heldU, 1e-30)) + tie);
+      const shortLow = Math.max(0, Math.log(stage.gain / Math.max(heldU, 1e-30))) + gbwShort + tie;
+      if (!(objOpen && swU >= stage.swing - SLACK) && !could(swing, -swU + tie) && !holdOpen
+        && !could(short, shortLow + Math.max(0, stage.swing - swU) / stage.swing)) continue;
       // The exact swing needs the curve only out to the first point below the gain target either way.
       gains[j0] = gainAt(a, b, j0);
       if (gains[j0] >= stage.gain) {
@@ -137,20 +139,19 @@ export function screenPairs(stage: StageSpec, inputs: readonly SideDesign[], loa
         for (let j = j0 + 1; j < n && (gains[j] = gainAt(a, b, j)) >= stage.gain; j++);
       }
       const sw = swingAtGain(vs, gains, j0, stage.gain);
-      const pair = (): Pair => ({ input: a, load: b });
       if (sw >= stage.swing && gbwShort === 0) {
         const key = stage.objective === 'area' ? area : stage.objective === 'swing' ? -sw + tie : -Math.log(gains[j0]) + tie;
-        if (obj.accepts(key)) obj.push(key, pair());
+        if (obj.accepts(key)) obj.push(key, { input: a, load: b });
       }
-      if (swing.accepts(-sw + tie)) swing.push(-sw + tie, pair());
+      if (swing.accepts(-sw + tie)) swing.push(-sw + tie, { input: a, load: b });
       // The gain held over the swing target needs the whole curve: only when it could still count.
-      if (!heldMay(sw)) continue;
+      if (!holdOpen && !could(short, shortLow + Math.max(0, stage.swing - sw) / stage.swing)) continue;
       for (let j = 0; j < n; j++) gains[j] = gainAt(a, b, j);
       const held = gainOverWindow(gains, j0, m, left, right);
       const h = -Math.log(Math.max(held, 1e-30)) + tie;
-      if (hold.accepts(h)) hold.push(h, pair());
+      if (hold.accepts(h)) hold.push(h, { input: a, load: b });
       const s = Math.max(0, Math.log(stage.gain / Math.max(held, 1e-30))) + Math.max(0, stage.swing - sw) / stage.swing + gbwShort + tie;
-      if (short.accepts(s)) short.push(s, pair());
+      if (short.accepts(s)) short.push(s, { input: a, load: b });
     }
   }
   const out: Pair[] = [];
