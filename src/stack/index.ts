@@ -9,7 +9,7 @@ export { sizeStackDevices, type StackDesign, type SizedStack } from './sizing.js
 export { biasDevices, biasGates, type BiasDevice, type DiodeWidening } from './bias.js';
 export { thermalVoltage, gmidCeiling, slopeFactor, inversionCoefficient, ekvVdsat, saturationVoltage } from './saturation.js';
 export { fitSquareLaw, squareLawCheck, type SquareLawFit } from './squarelaw.js';
-export { inputAtCurrent, type InputOp } from './stage-input.js';
+export { inputAtCurrent, guessOf, type InputOp, type InputGuess } from './stage-input.js';
 export { stagePoint, sideVoltage, parallel, type StageCircuit, type StagePoint } from './stage-point.js';
 export { swingOnGrid, gainOverSwing, swingAtGain, outputGrid, indexOf as designIndex } from './stage-swing.js';
 export { traceStage, heldGain, type StageTrace } from './stage-trace.js';

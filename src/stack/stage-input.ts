@@ -15,6 +15,48 @@ export interface InputOp {
   rout: number;
 }
 
+/** Where a neighbouring solution put the cascode's source node and the input gate (stack coordinates), V. */
+export interface InputGuess {
+  x1: number;
+  gate: number;
+}
+
+/** First half-width of the bracket tried around a guess, V; widened ×4 until it holds the root. */
+const GUESS_SPAN = 4e-3;
+
+/**
+ * Root of f in [lo, hi] with f(lo) ≥ 0 > f(hi) (one sign change: f falls
+ * monotonically) to `tol`, by Illinois. With a guess (a neighbouring
+ * solution), the bracket is first narrowed around it, so a few samples do
+ * instead of a search over the whole interval; the root is the same to `tol`.
+ */
+function rootNear(f: (x: number) => number, lo: number, hi: number, tol: number, guess?: number): number {
+  if (guess === undefined || !(guess > lo && guess < hi)) return illinois(f, lo, hi, tol);
+  const fg = f(guess);
+  if (!(fg >= 0) && !(fg < 0)) return illinois(f, lo, hi, tol);
+  // Grow the bracket away from the guess towards the root, keeping f(a) ≥ 0 > f(b).
+  const up = fg >= 0;
+  let a = up ? guess : lo;
+  let b = up ? hi : guess;
+  let fa = up ? fg : NaN;
+  let fb = up ? NaN : fg;
+  for (let d = GUESS_SPAN; up ? guess + d < hi : guess - d > lo; d *= 4) {
+    const x = up ? guess + d : guess - d;
+    const fx = f(x);
+    if (!(fx >= 0) && !(fx < 0)) return illinois(f, lo, hi, tol);
+    if (fx >= 0) {
+      a = x;
+      fa = fx;
+    } else {
+      b = x;
+      fb = fx;
+    }
+    if (up ? fx < 0 : fx >= 0) break;
+  }
+  // The samples already taken at the bracket ends are not taken again.
+  return illinois((x) => (x === a && !Number.isNaN(fa) ? fa : x === b && !Number.isNaN(fb) ? fb : f(x)), a, b, tol);
+}
+
 /**
  * Solve the input side (one device, or input device plus a cascode with a
  * fixed gate `cascodeGate`) at stack voltage `v` carrying current `i`.
@@ -22,8 +64,9 @@ export interface InputOp {
  * rises (VGS and VDS fall, VSB rises), so x1 is found by bisection; then the
  * input gate follows from the input device's current at VDS = x1. Null when the
  * side cannot carry `i` at `v` within the table (no input voltage would do).
+ * `guess`, a solution at a nearby voltage or current, only speeds up the root searches.
  */
-export function inputAtCurrent(devices: readonly StackDevice[], cascodeGate: number | undefined, v: number, i: number): InputOp | null {
+export function inputAtCurrent(devices: readonly StackDevice[], cascodeGate: number | undefined, v: number, i: number, guess?: InputGuess): InputOp | null {
   if (!(v > 0) || !(i > 0)) return null;
   const d0 = devices[0];
   let x1 = v;
@@ -40,9 +83,9 @@ export function inputAtCurrent(devices: readonly StackDevice[], cascodeGate: num
     if (!(flo >= i)) return null;
     const fhi = top(hi);
     if (fhi >= i) return null;
-    x1 = illinois((x) => top(x) - i, lo, hi, 1e-10);
+    x1 = rootNear((x) => top(x) - i, lo, hi, 1e-10, guess?.x1);
   }
-  const g0 = gateForCurrent(d0, i, x1);
+  const g0 = gateForCurrent(d0, i, x1, guess?.gate);
   if (g0 === null) return null;
   const b0 = emptyBias();
   if (!evalDevice(d0, g0, x1, 0, b0)) return null;
@@ -57,11 +100,16 @@ export function inputAtCurrent(devices: readonly StackDevice[], cascodeGate: num
   return { gate: g0, nodes, devices: out, rout: routOf(out) };
 }
 
+/** The guess a solved input side gives a neighbouring solve. */
+export function guessOf(op: { nodes: readonly number[]; devices: readonly DeviceBias[] }): InputGuess {
+  return { x1: op.nodes[1], gate: op.devices[0].vgs };
+}
+
 /** VGS at which the device carries i at VDS = vds, VSB = 0 (current rises with VGS); null when the table does not reach it. */
-function gateForCurrent(d: StackDevice, i: number, vds: number): number | null {
+function gateForCurrent(d: StackDevice, i: number, vds: number, guess?: number): number | null {
   const win = vgsWindow(d.slice, vds, 0);
   if (!win) return null;
   const f = (vgs: number) => i - d.w * d.slice.jd(vgs, vds, 0);
   if (f(win[0]) < 0 || f(win[1]) >= 0) return null;
-  return illinois(f, win[0], win[1], 1e-10);
+  return rootNear(f, win[0], win[1], 1e-10, guess);
 }

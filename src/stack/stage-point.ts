@@ -4,7 +4,7 @@ import type { DeviceBias, StackDevice, StackOp } from './types.js';
 import { solveOperatingPoint } from './operating.js';
 import { routAt } from './rout.js';
 import { continued } from './curve.js';
-import { inputAtCurrent } from './stage-input.js';
+import { inputAtCurrent, type InputGuess } from './stage-input.js';
 
 /**
  * A gain stage as one circuit: the input side (its input gate free) and the
@@ -46,8 +46,9 @@ export function sideVoltage(device: Polarity, supply: number, vout: number): num
  * input side must carry it at its stack voltage, which fixes the input gate.
  * A = gm_in·(Rout_in ∥ Rout_load), Rout_in with the input gate at AC ground.
  * Null where the table cannot cover the point (no input voltage holds vout there).
+ * The guesses (solutions nearby) only speed up the solves.
  */
-export function stagePoint(c: StageCircuit, vout: number, loadGuess?: StackOp): StagePoint | null {
+export function stagePoint(c: StageCircuit, vout: number, loadGuess?: StackOp, inputGuess?: InputGuess): StagePoint | null {
   const load = c.device === 'n' ? 'p' : 'n';
   const vl = sideVoltage(load, c.supply, vout);
   const vi = sideVoltage(c.device, c.supply, vout);
@@ -59,7 +60,7 @@ export function stagePoint(c: StageCircuit, vout: number, loadGuess?: StackOp): 
     if (e instanceof StackwrightError && e.kind === 'range') return null;
     throw e;
   }
-  const inp = inputAtCurrent(c.input.devices, c.input.cascodeGate, vi, op.i);
+  const inp = inputAtCurrent(c.input.devices, c.input.cascodeGate, vi, op.i, inputGuess);
   if (!inp) return null;
   const rload = routAt(op);
   const gm = inp.devices[0].gm;

@@ -1,5 +1,7 @@
 import type { StackOp } from './types.js';
 import { stagePoint, type StageCircuit, type StagePoint } from './stage-point.js';
+import { guessOf } from './stage-input.js';
+import { swingEdge } from './stage-edge.js';
 import { indexOf, outputGrid, swingOnGrid } from './stage-swing.js';
 
 /** A stage's transfer curve on an output grid through the design point, with its swing. */
@@ -21,7 +23,7 @@ export interface StageTrace {
 /**
  * Trace the transfer curve outwards from the design point on a grid of `step`
  * (continuation: each DC solve starts from its neighbour), then refine each
- * swing edge by bisection on the circuit to `resolution`. A swing edge at the
+ * swing edge on the circuit to `resolution` (the answer bisection gives, see swingEdge). A swing edge at the
  * end of the grid stays there (the circuit holds the gain up to the last point).
  */
 export function traceStage(c: StageCircuit, output: number, target: number, opts: { step: number; resolution?: number }): StageTrace {
@@ -29,34 +31,26 @@ export function traceStage(c: StageCircuit, output: number, target: number, opts
   const j0 = indexOf(vs, output);
   const points: Array<StagePoint | null> = new Array(vs.length).fill(null);
   const gains = new Float64Array(vs.length);
+  // Each solve starts from the last solved neighbour towards the design point.
+  let near: StagePoint | null = null;
   const at = (j: number, guess: StackOp | undefined): StackOp | undefined => {
-    const p = stagePoint(c, vs[j], guess);
+    const p = stagePoint(c, vs[j], guess, near ? guessOf(near.input) : undefined);
     points[j] = p;
     gains[j] = p ? p.gain : 0;
+    if (p) near = p;
     return p?.load ?? guess;
   };
   const mid = at(j0, undefined);
   let g = mid;
   for (let j = j0 + 1; j < vs.length; j++) g = at(j, g);
   g = mid;
+  near = points[j0];
   for (let j = j0 - 1; j >= 0; j--) g = at(j, g);
   const grid = swingOnGrid(vs, gains, j0, target);
   if (!grid) return { vs, gains, points, j0, vlow: null, vhigh: null, swing: 0 };
   const res = opts.resolution ?? 5e-4;
-  const edge = (inside: number, outside: number): number => {
-    let a = vs[inside];
-    let b = vs[outside];
-    let guess = points[inside]?.load;
-    while (Math.abs(b - a) > res) {
-      const m = 0.5 * (a + b);
-      const p = stagePoint(c, m, guess);
-      if (p && p.gain >= target) {
-        a = m;
-        guess = p.load;
-      } else b = m;
-    }
-    return a;
-  };
+  const solve = (v: number, near: StagePoint | null): StagePoint | null => stagePoint(c, v, near?.load, near ? guessOf(near.input) : undefined);
+  const edge = (inside: number, outside: number): number => swingEdge(solve, vs[inside], vs[outside], gains[inside], gains[outside], target, res, points[inside]);
   let lo = j0;
   while (lo > 0 && gains[lo - 1] >= target) lo--;
   let hi = j0;
@@ -80,7 +74,8 @@ export function heldGain(c: StageCircuit, trace: StageTrace, width: number, reso
   let hi = Math.min(output, vs[vs.length - 1] - width);
   if (!(hi >= lo)) return 0;
   const gainAt = (v: number): number => {
-    const p = stagePoint(c, v, nearestLoad(trace, v));
+    const q = nearestPoint(trace, v);
+    const p = stagePoint(c, v, q?.load, q ? guessOf(q.input) : undefined);
     return p ? p.gain : 0;
   };
   let a = lo;
@@ -97,15 +92,15 @@ export function heldGain(c: StageCircuit, trace: StageTrace, width: number, reso
   return held;
 }
 
-// The solved load point of the grid sample nearest to v, as a starting guess.
-function nearestLoad(trace: StageTrace, v: number): StackOp | undefined {
-  let best: StackOp | undefined;
+// The solved grid sample nearest to v, as a starting guess.
+function nearestPoint(trace: StageTrace, v: number): StagePoint | undefined {
+  let best: StagePoint | undefined;
   let dist = Infinity;
   trace.points.forEach((p, j) => {
     const d = Math.abs(trace.vs[j] - v);
     if (p && d < dist) {
       dist = d;
-      best = p.load;
+      best = p;
     }
   });
   return best;
