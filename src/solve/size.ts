@@ -8,6 +8,7 @@ import { checkStageCover, checkTableCover } from './table-cover.js';
 import { makeContext, type SolveContext } from './context.js';
 import { screen } from './search/screen.js';
 import { evaluateOnce, refine, type Seen } from './search/refine.js';
+import { reuseOf, type Reuse } from './search/reuse.js';
 import { finalize, fullyOk, nominalOk, type Evaluated } from './evaluate/evaluate.js';
 import { compareDesigns, pickBest, shortfall } from './search/rank.js';
 import { emptyResult, stackResult } from './result.js';
@@ -94,7 +95,11 @@ function sizeTopology(ctx: SolveContext, topology: Topology): { result: StackRes
   const rejected = { triode: ctx.count.triode, narrow: ctx.count.narrow };
   const run = search(ctx, topology);
   const counted = () => ctx.count.screened + ctx.count.exact - before;
-  const nearOf = (r: NonNullable<typeof run>) => () => nearestPoints(ctx, topology, r.pool, r.seen, (w) => fitsWithin(ctx, topology, w));
+  const nearOf = (r: NonNullable<typeof run>) => () => {
+    // The bisection's searches share their evaluations with each other and with this one.
+    const reuse = reuseOf(r.seen);
+    return nearestPoints(ctx, topology, r.pool, r.seen, (w) => fitsWithin(ctx, topology, w, reuse));
+  };
   if (run) return { result: stackResult(ctx, run.best, run.pool, counted, nearOf(run)), pool: run.pool };
   // Nothing with saturated lower devices on the screen's grid: search again with them allowed, so refinement
   // can still reach a saturated design or, failing that, show the nearest one failing on saturation.
@@ -106,8 +111,8 @@ function sizeTopology(ctx: SolveContext, topology: Topology): { result: StackRes
 }
 
 /** The widest device of a design meeting every nominal target within a width limit of `w`, or null when the search finds none. */
-function fitsWithin(ctx: SolveContext, topology: Topology, w: number): number | null {
-  const limited: SolveContext = { ...ctx, wmax: w, spec: { ...ctx.spec, wmax: w } };
+function fitsWithin(ctx: SolveContext, topology: Topology, w: number, reuse?: Reuse): number | null {
+  const limited: SolveContext = { ...ctx, wmax: w, spec: { ...ctx.spec, wmax: w }, reuse };
   const run = search(limited, topology);
   return run && nominalOk(run.best) ? Math.max(...run.best.sized.w) : null;
 }

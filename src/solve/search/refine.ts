@@ -5,14 +5,23 @@ import type { SolveContext } from '../context.js';
 import { candidateArea, evaluateCandidate, fullyOk, nominalOk, type Evaluated } from '../evaluate/evaluate.js';
 import { REL_TOL } from '../../policy.js';
 import { better } from './rank.js';
+import { rejudged, type Reuse, type Seen } from './reuse.js';
 
-/** Exactly evaluated candidates by key (null: not realisable), shared by screen and refinement. */
-export type Seen = Map<string, Evaluated | null>;
+export type { Seen };
 
+/** The candidate's evaluation: from `seen`, else re-judged from ctx.reuse, else evaluated exactly (and remembered in both). */
 export function evaluateOnce(ctx: SolveContext, c: Candidate, seen: Seen): Evaluated | null {
   const k = candidateKey(c);
-  if (!seen.has(k)) seen.set(k, evaluateCandidate(ctx, c));
+  if (!seen.has(k)) seen.set(k, ctx.reuse ? reusedOrEvaluated(ctx, ctx.reuse, k, c) : evaluateCandidate(ctx, c));
   return seen.get(k)!;
+}
+
+function reusedOrEvaluated(ctx: SolveContext, reuse: Reuse, k: string, c: Candidate): Evaluated | null {
+  const known = reuse.lookup(k);
+  if (known !== undefined) return rejudged(ctx, known);
+  const e = evaluateCandidate(ctx, c);
+  reuse.store(k, e);
+  return e;
 }
 
 function nearestIndex(values: readonly number[], x: number): number {
