@@ -7,7 +7,7 @@ import type { KitAccess } from './kit.js';
 import { checkStageCover, checkTableCover } from './table-cover.js';
 import { makeContext, type SolveContext } from './context.js';
 import { screen } from './search/screen.js';
-import { evaluateOnce, refine, type Seen } from './search/refine.js';
+import { evaluateOnce, refine, settle, type Seen } from './search/refine.js';
 import { reuseOf, type Reuse } from './search/reuse.js';
 import { finalize, fullyOk, nominalOk, type Evaluated } from './evaluate/evaluate.js';
 import { compareDesigns, pickBest, shortfall } from './search/rank.js';
@@ -85,7 +85,10 @@ function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool:
   if (!first) return null;
   let best = refine(ctx, seedsOf(ctx, first, pool), seen, pool) ?? first;
   // The report uses the full curve; if that loses a target the scan met, take the next best.
-  for (let tries = 0; tries < 5 && !finalize(ctx, best); tries++) best = pickBest(ctx, pool) ?? best;
+  for (let tries = 0; tries < 5 && !finalize(ctx, best); tries++) {
+    settle(ctx, seen, pool);
+    best = pickBest(ctx, pool) ?? best;
+  }
   finalize(ctx, best);
   return { best, pool, seen };
 }
@@ -98,6 +101,7 @@ function sizeTopology(ctx: SolveContext, topology: Topology): { result: StackRes
   const nearOf = (r: NonNullable<typeof run>) => () => {
     // The bisection's searches share their evaluations with each other and with this one.
     const reuse = reuseOf(r.seen);
+    settle(ctx, r.seen, r.pool);
     return nearestPoints(ctx, topology, r.pool, r.seen, (w) => fitsWithin(ctx, topology, w, reuse));
   };
   if (run) return { result: stackResult(ctx, run.best, run.pool, counted, nearOf(run)), pool: run.pool };

@@ -6,6 +6,7 @@ import { candidateArea, evaluateCandidate, fullyOk, nominalOk, type Evaluated } 
 import { REL_TOL } from '../../policy.js';
 import { better } from './rank.js';
 import { rejudged, type Reuse, type Seen } from './reuse.js';
+import { mayMeetTargets } from './quick.js';
 
 export type { Seen };
 
@@ -96,30 +97,62 @@ export function refine(
 ): Evaluated | undefined {
   // With the spec's own order and objective area, a move whose area is no smaller than a design meeting every
   // target cannot win: its area (from the sizing alone) spares the exact evaluation.
+  const specOrder = prefer === undefined;
   const bound = prefer ? () => Infinity : (b: Evaluated) => (ctx.spec.objective === 'area' && nominalOk(b) && fullyOk(ctx, b) ? b.area : Infinity);
   prefer ??= (a, b) => better(ctx, a, b);
   let best: Evaluated | undefined;
   for (const seed of seeds) {
-    const local = climb(ctx, seed, seen, pool, prefer, bound);
+    const local = climb(ctx, seed, seen, pool, prefer, bound, specOrder);
     if (!best || prefer(local, best)) best = local;
   }
   return best;
 }
 
-// Per search (one `seen` map, one sizing context).
-const areaMemo = new WeakMap<Seen, Map<string, number>>();
+// Per search (one `seen` map, one sizing context): areas from the sizing alone and the quick looks, by candidate
+// key (the same moves recur from round to round), and the moves a look ruled out without an exact evaluation.
+interface Memo {
+  areas: Map<string, number>;
+  looks: Map<string, boolean>;
+  deferred: Map<string, Candidate>;
+}
+const memos = new WeakMap<Seen, Memo>();
+
+function memoOf(seen: Seen): Memo {
+  let m = memos.get(seen);
+  if (!m) memos.set(seen, (m = { areas: new Map(), looks: new Map(), deferred: new Map() }));
+  return m;
+}
+
+/**
+ * Evaluate exactly every move the climbs skipped because it could not meet the targets (see climb), adding
+ * them to the pool: for uses of the pool beyond "is anything better than a design meeting every target".
+ */
+export function settle(ctx: SolveContext, seen: Seen, pool: Evaluated[]): void {
+  const d = memos.get(seen)?.deferred;
+  if (!d) return;
+  for (const [k, c] of d) {
+    if (seen.has(k)) continue;
+    const e = evaluateOnce(ctx, c, seen);
+    if (e) pool.push(e);
+  }
+  d.clear();
+}
 
 function climb(
   ctx: SolveContext, seed: Evaluated, seen: Seen, pool: Evaluated[],
-  better: (a: Evaluated, b: Evaluated) => boolean, bound: (best: Evaluated) => number,
+  better: (a: Evaluated, b: Evaluated) => boolean, bound: (best: Evaluated) => number, specOrder: boolean,
 ): Evaluated {
-  // Areas from the sizing alone, by candidate key: the same moves recur from round to round.
-  let areas = areaMemo.get(seen);
-  if (!areas) areaMemo.set(seen, (areas = new Map()));
+  const memo = memoOf(seen);
   const areaOf = (key: string, c: Candidate): number => {
-    let a = areas!.get(key);
-    if (a === undefined) areas!.set(key, (a = candidateArea(ctx, c)));
+    let a = memo.areas.get(key);
+    if (a === undefined) memo.areas.set(key, (a = candidateArea(ctx, c)));
     return a;
+  };
+  const mayMeet = (key: string, c: Candidate): boolean => {
+    let ok = memo.looks.get(key);
+    if (ok === undefined) memo.looks.set(key, (ok = mayMeetTargets(ctx, c)));
+    if (!ok) memo.deferred.set(key, c);
+    return ok;
   };
 
   let best = seed;
@@ -151,6 +184,9 @@ function climb(
         }
         continue;
       }
+      // By the spec's order nothing short of the nominal targets beats a design meeting every target: a move
+      // the quick look rules out is left unevaluated (settle evaluates it if the pool is needed in full).
+      if (specOrder && nominalOk(best) && fullyOk(ctx, best) && !mayMeet(key, n)) continue;
       const e = evaluateOnce(ctx, n, seen);
       if (!e) continue;
       pool.push(e);
