@@ -8,39 +8,62 @@ import { rangeSafe } from '../evaluate/evaluate.js';
 import { midPoint } from '../evaluate/stack-eval.js';
 import type { Candidate } from './candidate.js';
 
-// Rout at the headroom target must fall this far below the target before the look rules the design out, so the
-// DC solve's own tolerance (the exact evaluation solves that point from another starting guess) cannot decide.
+// A Rout figure counts as surely below a value only this far below it, so the DC solve's own tolerance (the
+// exact evaluation solves that point from another starting guess) cannot decide.
 const ROUT_SLACK = 1e-3;
 
-/**
- * Whether a candidate can meet the nominal targets, from its sizing and its mid-span DC solve alone (the first
- * steps of evaluateCandidate, done the same way), plus one DC solve at the headroom target. false only when a
- * target is surely missed: the widest device above the width limit, the current outside its window, σ above
- * the mismatch budget, a lower device below VDSsat, or Rout at the headroom target below the target (the exact
- * evaluation's Rout figure is the lowest over [target headroom, span], that point included). true otherwise,
- * and whenever the look cannot tell (the exact evaluation then decides, rejections included).
- */
-export function mayMeetTargets(ctx: SolveContext, c: Candidate): boolean {
-  return rangeSafe(() => look(ctx, c)) ?? true;
+/** What a candidate's sizing and mid-span DC solve (plus one solve at the headroom target) surely show. */
+export interface Look {
+  /** Widest output device, m. */
+  widest: number;
+  /** The current window, the mismatch budget or a lower device's saturation is missed (margins fixed at mid-span). */
+  midMiss: boolean;
+  /** Rout at the headroom target, Ω (NaN when not solved): the exact Rout figure (lowest over [target headroom, span]) is at most this. */
+  routAtHeadroom: number;
 }
 
-function look(ctx: SolveContext, c: Candidate): boolean {
+/**
+ * The look at a candidate, done the way evaluateCandidate starts (same sizing, same mid-span solve); null when it
+ * cannot tell (not realisable, or a lower device below VDSsat when saturation is required: the exact evaluation
+ * rejects those itself, cheaply).
+ */
+export function lookAt(ctx: SolveContext, c: Candidate): Look | null {
+  return rangeSafe(() => look(ctx, c));
+}
+
+function look(ctx: SolveContext, c: Candidate): Look | null {
   const s = ctx.spec;
   const slices = c.l.map((l) => ctx.slice(ctx.nominal, l));
   const sized = sizeStackDevices({
     shape: topologyOf(c.topology), slices, gmid: c.gmid, setpoints: c.setpoints, current: s.current, vmid: ctx.vmid,
   });
-  if (!sized || sized.w.some((w) => w < ctx.wmin * (1 - 1e-9))) return true;
-  if (s.wmax !== undefined && Math.max(...sized.w) > s.wmax) return false;
+  if (!sized || sized.w.some((w) => w < ctx.wmin * (1 - 1e-9))) return null;
   const devices: StackDevice[] = slices.map((slice, k) => ({ slice, w: sized.w[k] }));
+  const widest = Math.max(...sized.w);
   const m = midPoint(devices, sized.gates, ctx.vmid, { i: s.current, nodes: sized.nodes }, ctx.ut(ctx.nominal));
-  if (!m) return true;
-  if (saturationMargin(m) < 0) return ctx.saturation === 'require';
-  if (currentMargin(m.mid.i, s.current) < 0) return false;
+  if (!m) return null;
+  let midMiss = currentMargin(m.mid.i, s.current) < 0;
+  if (saturationMargin(m) < 0) {
+    if (ctx.saturation === 'require') return null;
+    midMiss = true;
+  }
   if (s.mismatch !== undefined && ctx.coeff) {
     const b = m.mid.devices[0];
-    if (pelgromSigma(b.gm / b.id, devices[0].w, devices[0].slice.l, ctx.coeff) > s.mismatch) return false;
+    if (pelgromSigma(b.gm / b.id, devices[0].w, devices[0].slice.l, ctx.coeff) > s.mismatch) midMiss = true;
   }
   const at = sampleAt(devices, sized.gates, s.headroom, m.mid);
-  return !(Number.isFinite(at.rout) && at.rout < s.rout * (1 - ROUT_SLACK));
+  return { widest, midMiss, routAtHeadroom: Number.isFinite(at.rout) ? at.rout : NaN };
+}
+
+/** The look shows Rout at the headroom target surely below `r` (so the exact Rout figure is too). */
+export function routSurelyBelow(l: Look, r: number): boolean {
+  return l.routAtHeadroom < r * (1 - ROUT_SLACK);
+}
+
+/**
+ * The look shows a sure miss of a nominal target: width, current window, σ, saturation, or Rout (at the headroom
+ * target, a point of the exact figure's range).
+ */
+export function surelyMisses(ctx: SolveContext, l: Look): boolean {
+  return l.midMiss || (ctx.spec.wmax !== undefined && l.widest > ctx.spec.wmax) || routSurelyBelow(l, ctx.spec.rout);
 }

@@ -6,7 +6,7 @@ import { candidateArea, evaluateCandidate, fullyOk, nominalOk, type Evaluated } 
 import { REL_TOL } from '../../policy.js';
 import { better } from './rank.js';
 import { rejudged, type Reuse, type Seen } from './reuse.js';
-import { mayMeetTargets } from './quick.js';
+import { lookAt, surelyMisses, type Look } from './quick.js';
 
 export type { Seen };
 
@@ -93,26 +93,33 @@ export function neighbours(ctx: SolveContext, c: Candidate, gstep: number, vstep
  */
 export function refine(
   ctx: SolveContext, seeds: readonly Evaluated[], seen: Seen, pool: Evaluated[],
-  prefer?: (a: Evaluated, b: Evaluated) => boolean,
+  prefer?: (a: Evaluated, b: Evaluated) => boolean, hopeless?: Hopeless,
 ): Evaluated | undefined {
   // With the spec's own order and objective area, a move whose area is no smaller than a design meeting every
   // target cannot win: its area (from the sizing alone) spares the exact evaluation.
-  const specOrder = prefer === undefined;
   const bound = prefer ? () => Infinity : (b: Evaluated) => (ctx.spec.objective === 'area' && nominalOk(b) && fullyOk(ctx, b) ? b.area : Infinity);
+  // By the spec's order nothing short of the nominal targets beats a design meeting every target.
+  if (!prefer) hopeless = (l, b) => nominalOk(b) && fullyOk(ctx, b) && surelyMisses(ctx, l);
   prefer ??= (a, b) => better(ctx, a, b);
   let best: Evaluated | undefined;
   for (const seed of seeds) {
-    const local = climb(ctx, seed, seen, pool, prefer, bound, specOrder);
+    const local = climb(ctx, seed, seen, pool, prefer, bound, hopeless);
     if (!best || prefer(local, best)) best = local;
   }
   return best;
 }
 
+/**
+ * A move with this look surely cannot beat `best` (by the climb's order): it is left unevaluated. The caller
+ * answers for the rest of the pool's uses (skipped moves are in none of them, unless `settle` runs).
+ */
+export type Hopeless = (look: Look, best: Evaluated) => boolean;
+
 // Per search (one `seen` map, one sizing context): areas from the sizing alone and the quick looks, by candidate
 // key (the same moves recur from round to round), and the moves a look ruled out without an exact evaluation.
 interface Memo {
   areas: Map<string, number>;
-  looks: Map<string, boolean>;
+  looks: Map<string, Look | null>;
   deferred: Map<string, Candidate>;
 }
 const memos = new WeakMap<Seen, Memo>();
@@ -145,7 +152,7 @@ export function settle(ctx: SolveContext, seen: Seen, pool: Evaluated[]): void {
 
 function climb(
   ctx: SolveContext, seed: Evaluated, seen: Seen, pool: Evaluated[],
-  better: (a: Evaluated, b: Evaluated) => boolean, bound: (best: Evaluated) => number, specOrder: boolean,
+  better: (a: Evaluated, b: Evaluated) => boolean, bound: (best: Evaluated) => number, hopeless: Hopeless | undefined,
 ): Evaluated {
   const memo = memoOf(seen);
   const areaOf = (key: string, c: Candidate): number => {
@@ -153,11 +160,13 @@ function climb(
     if (a === undefined) memo.areas.set(key, (a = candidateArea(ctx, c)));
     return a;
   };
-  const mayMeet = (key: string, c: Candidate): boolean => {
-    let ok = memo.looks.get(key);
-    if (ok === undefined) memo.looks.set(key, (ok = mayMeetTargets(ctx, c)));
-    if (!ok) memo.deferred.set(key, c);
-    return ok;
+  // A move the look rules out; recorded for settle.
+  const ruledOut = (key: string, c: Candidate): boolean => {
+    let l = memo.looks.get(key);
+    if (l === undefined) memo.looks.set(key, (l = lookAt(ctx, c)));
+    if (!l || !hopeless!(l, best)) return false;
+    memo.deferred.set(key, c);
+    return true;
   };
 
   let best = seed;
@@ -189,9 +198,7 @@ function climb(
         }
         continue;
       }
-      // By the spec's order nothing short of the nominal targets beats a design meeting every target: a move
-      // the quick look rules out is left unevaluated (settle evaluates it if the pool is needed in full).
-      if (specOrder && nominalOk(best) && fullyOk(ctx, best) && !mayMeet(key, n)) continue;
+      if (hopeless && ruledOut(key, n)) continue;
       const e = evaluateOnce(ctx, n, seen);
       if (!e) continue;
       pool.push(e);
