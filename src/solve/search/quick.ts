@@ -18,8 +18,11 @@ export interface Look {
   widest: number;
   /** The current window, the mismatch budget or a lower device's saturation is missed (margins fixed at mid-span). */
   midMiss: boolean;
-  /** Rout at the headroom target, Ω (NaN when not solved): the exact Rout figure (lowest over [target headroom, span]) is at most this. */
-  routAtHeadroom: number;
+  /**
+   * Rout at the headroom target, Ω (NaN when not solved): the exact Rout figure (lowest over [target headroom,
+   * span]) is at most this. One more DC solve, done on first use only.
+   */
+  routAtTargetHeadroom(): number;
 }
 
 /**
@@ -51,13 +54,20 @@ function look(ctx: SolveContext, c: Candidate): Look | null {
     const b = m.mid.devices[0];
     if (pelgromSigma(b.gm / b.id, devices[0].w, devices[0].slice.l, ctx.coeff) > s.mismatch) midMiss = true;
   }
-  const at = sampleAt(devices, sized.gates, s.headroom, m.mid);
-  return { widest, midMiss, routAtHeadroom: Number.isFinite(at.rout) ? at.rout : NaN };
+  let rout: number | undefined;
+  const routAtTargetHeadroom = (): number => {
+    if (rout === undefined) {
+      const at = rangeSafe(() => sampleAt(devices, sized.gates, s.headroom, m.mid));
+      rout = at && Number.isFinite(at.rout) ? at.rout : NaN;
+    }
+    return rout;
+  };
+  return { widest, midMiss, routAtTargetHeadroom };
 }
 
 /** The look shows Rout at the headroom target surely below `r` (so the exact Rout figure is too). */
 export function routSurelyBelow(l: Look, r: number): boolean {
-  return l.routAtHeadroom < r * (1 - ROUT_SLACK);
+  return l.routAtTargetHeadroom() < r * (1 - ROUT_SLACK);
 }
 
 /**
