@@ -9,6 +9,7 @@ import { gmidGrid, lengthGrid } from './search/grid.js';
 import type { SweepCache } from './search/stage-options.js';
 import { formatEng } from '../units/index.js';
 import { widthLimit } from './width.js';
+import type { Reuse } from './search/reuse.js';
 
 /** Highest current density the slice reaches (top of its VGS and VDS axes, VSB = 0), A/m. */
 function peakDensity(s: LengthSlice): number {
@@ -49,6 +50,8 @@ export interface SolveContext {
   count: Counts;
   /** VGS sweeps by length, VDS mode and VSB on the nominal corner, shared by this stack's topologies. */
   sweeps: SweepCache;
+  /** Evaluations of the same candidates under another width limit, re-judged rather than repeated (fitsWithin). */
+  reuse?: Reuse;
 }
 
 /** Work done and candidates turned away, for the report. */

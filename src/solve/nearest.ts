@@ -1,7 +1,8 @@
 import type { Topology } from '../design/types.js';
 import type { SolveContext } from './context.js';
 import { finalize, type Evaluated } from './evaluate/evaluate.js';
-import { evaluateOnce, refine, type Seen } from './search/refine.js';
+import { evaluateOnce, refine, settle, type Hopeless, type Seen } from './search/refine.js';
+import { routSurelyBelow } from './search/quick.js';
 import { screen } from './search/screen.js';
 
 /** The nearest reachable points of an infeasible stack, over the whole allowed design space. */
@@ -45,6 +46,25 @@ function higherRout(a: Evaluated, b: Evaluated): boolean {
   return a.nominal.routAtTarget > b.nominal.routAtTarget;
 }
 
+/*
+ * Moves the climbs below leave unevaluated: only from a usable design (so the pool keeps a saturated one), and only
+ * moves surely neither usable nor physical (a mid-span miss) or, climbing Rout, surely below both the target and
+ * the climb's Rout. The report reads the pool for saturated and physical designs only, so these change nothing
+ * there; the seeds of a later climb are the best two by an order putting usable (or physical) designs first, so
+ * the pool is settled before one only when it holds fewer than two such designs.
+ */
+const midMissFromUsable: Hopeless = (l, best) => usable(best) && l.midMiss;
+const routBelowFromUsable = (ctx: SolveContext): Hopeless => (l, best) =>
+  usable(best) && (l.midMiss || routSurelyBelow(l, Math.min(best.nominal.routAtTarget, ctx.spec.rout)));
+
+/** The best k of the pool by `prefer`, after settling skipped moves when fewer than two designs are of `first`'s kind. */
+function seedsOf(ctx: SolveContext, pool: Evaluated[], seen: Seen, prefer: (a: Evaluated, b: Evaluated) => boolean, first: (e: Evaluated) => boolean): Evaluated[] {
+  let n = 0;
+  for (const e of pool) if (first(e) && ++n >= 2) break;
+  if (n < 2) settle(ctx, seen, pool);
+  return bestOf(pool, prefer, 2);
+}
+
 function bestOf(pool: readonly Evaluated[], prefer: (a: Evaluated, b: Evaluated) => boolean, k: number): Evaluated[] {
   const out: Evaluated[] = [];
   for (const e of pool) {
@@ -75,14 +95,14 @@ export function nearestPoints(
       if (e) pool.push(e);
     }
   }
-  const hr = refine(ctx, bestOf(pool, lowerHeadroom, 2), seen, pool, lowerHeadroom);
-  const ro = refine(ctx, bestOf(pool, higherRout, 2), seen, pool, higherRout);
+  const hr = refine(ctx, bestOf(pool, lowerHeadroom, 2), seen, pool, lowerHeadroom, midMissFromUsable);
+  const ro = refine(ctx, seedsOf(ctx, pool, seen, higherRout, usable), seen, pool, higherRout, routBelowFromUsable(ctx));
   // The figures come from the full curve, as every reported design's do, so they match wherever shown.
   if (hr) finalize(ctx, hr);
   if (ro) finalize(ctx, ro);
   let narrowest: number | undefined;
   if (pool.some(physical) && !pool.some((e) => physical(e) && e.margins.width >= 0)) {
-    const w = refine(ctx, bestOf(pool, narrower, 2), seen, pool, narrower);
+    const w = refine(ctx, seedsOf(ctx, pool, seen, narrower, physical), seen, pool, narrower);
     if (w && physical(w)) narrowest = widestOf(w);
     // The climb follows one design; bisect on the limit with the whole search for the edge itself.
     let lo = ctx.wmax;

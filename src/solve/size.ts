@@ -7,8 +7,11 @@ import type { KitAccess } from './kit.js';
 import { checkStageCover, checkTableCover } from './table-cover.js';
 import { makeContext, type SolveContext } from './context.js';
 import { screen } from './search/screen.js';
-import { evaluateOnce, refine, type Seen } from './search/refine.js';
-import { finalize, fullyOk, nominalOk, type Evaluated } from './evaluate/evaluate.js';
+import { defer, evaluateOnce, refine, settle, type Seen } from './search/refine.js';
+import type { Candidate } from './search/candidate.js';
+import { REL_TOL } from '../policy.js';
+import { reuseOf, type Reuse } from './search/reuse.js';
+import { candidateArea, finalize, fullyOk, nominalOk, type Evaluated } from './evaluate/evaluate.js';
 import { compareDesigns, pickBest, shortfall } from './search/rank.js';
 import { emptyResult, stackResult } from './result.js';
 import { nearestPoints } from './nearest.js';
@@ -39,10 +42,12 @@ function frontPoint(ctx: SolveContext, e: Evaluated): FrontPoint {
 
 // Climbs per search: the best design and the best of other length choices (the optimum's lengths may differ).
 const SEEDS = 4;
+// A seed's reach by area (objective area): within this factor of the best design's.
+const AREA_REACH = 1.3;
 
 /** e starts within reach of best by the objective: 30 % of area or Rout, 30 mV of headroom. */
 function near(objective: StackSpec['objective'], e: Evaluated, best: Evaluated): boolean {
-  if (objective === 'area') return e.area <= 1.3 * best.area;
+  if (objective === 'area') return e.area <= AREA_REACH * best.area;
   if (objective === 'rout') return e.nominal.rout >= best.nominal.rout / 1.3;
   return e.nominal.headroom <= best.nominal.headroom + 0.03;
 }
@@ -72,19 +77,50 @@ function seedsOf(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[])
   return seeds;
 }
 
+/**
+ * Evaluate the screen's proposals into the pool. With objective area they go in order of area (from the sizing
+ * alone): the first design meeting every target is then the pool's best (pickBest's own order and corner checks),
+ * and a proposal beyond AREA_REACH × its area can be neither the best nor a seed, so it is deferred (settle
+ * evaluates it if the pool is needed in full); the climbs evaluate it themselves if they reach it.
+ */
+function evaluateProposals(ctx: SolveContext, proposals: Candidate[], seen: Seen, pool: Evaluated[]): void {
+  if (ctx.spec.objective !== 'area') {
+    for (const c of proposals) {
+      const e = evaluateOnce(ctx, c, seen);
+      if (e) pool.push(e);
+    }
+    return;
+  }
+  // Unrealisable ones (NaN) last: their evaluation is null either way.
+  const area = proposals.map((c) => candidateArea(ctx, c));
+  const order = proposals.map((_, j) => j).sort((a, b) => (Number.isNaN(area[a]) ? Infinity : area[a]) - (Number.isNaN(area[b]) ? Infinity : area[b]) || a - b);
+  let reach = Infinity;
+  for (const j of order) {
+    const c = proposals[j];
+    if (!(area[j] <= reach)) {
+      defer(seen, c);
+      continue;
+    }
+    const e = evaluateOnce(ctx, c, seen);
+    if (!e) continue;
+    pool.push(e);
+    if (reach === Infinity && nominalOk(e) && fullyOk(ctx, e)) reach = AREA_REACH * e.area * (1 + REL_TOL);
+  }
+}
+
 /** Screen, evaluate, refine: the best design and everything evaluated, or null when nothing could be realised. */
 function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool: Evaluated[]; seen: Seen } | null {
   const seen: Seen = new Map();
   const pool: Evaluated[] = [];
-  for (const c of screen(ctx, topology)) {
-    const e = evaluateOnce(ctx, c, seen);
-    if (e) pool.push(e);
-  }
+  evaluateProposals(ctx, screen(ctx, topology), seen, pool);
   const first = pickBest(ctx, pool);
   if (!first) return null;
   let best = refine(ctx, seedsOf(ctx, first, pool), seen, pool) ?? first;
   // The report uses the full curve; if that loses a target the scan met, take the next best.
-  for (let tries = 0; tries < 5 && !finalize(ctx, best); tries++) best = pickBest(ctx, pool) ?? best;
+  for (let tries = 0; tries < 5 && !finalize(ctx, best); tries++) {
+    settle(ctx, seen, pool);
+    best = pickBest(ctx, pool) ?? best;
+  }
   finalize(ctx, best);
   return { best, pool, seen };
 }
@@ -94,7 +130,12 @@ function sizeTopology(ctx: SolveContext, topology: Topology): { result: StackRes
   const rejected = { triode: ctx.count.triode, narrow: ctx.count.narrow };
   const run = search(ctx, topology);
   const counted = () => ctx.count.screened + ctx.count.exact - before;
-  const nearOf = (r: NonNullable<typeof run>) => () => nearestPoints(ctx, topology, r.pool, r.seen, (w) => fitsWithin(ctx, topology, w));
+  const nearOf = (r: NonNullable<typeof run>) => () => {
+    // The bisection's searches share their evaluations with each other and with this one.
+    const reuse = reuseOf(r.seen);
+    settle(ctx, r.seen, r.pool);
+    return nearestPoints(ctx, topology, r.pool, r.seen, (w) => fitsWithin(ctx, topology, w, reuse));
+  };
   if (run) return { result: stackResult(ctx, run.best, run.pool, counted, nearOf(run)), pool: run.pool };
   // Nothing with saturated lower devices on the screen's grid: search again with them allowed, so refinement
   // can still reach a saturated design or, failing that, show the nearest one failing on saturation.
@@ -106,8 +147,8 @@ function sizeTopology(ctx: SolveContext, topology: Topology): { result: StackRes
 }
 
 /** The widest device of a design meeting every nominal target within a width limit of `w`, or null when the search finds none. */
-function fitsWithin(ctx: SolveContext, topology: Topology, w: number): number | null {
-  const limited: SolveContext = { ...ctx, wmax: w, spec: { ...ctx.spec, wmax: w } };
+function fitsWithin(ctx: SolveContext, topology: Topology, w: number, reuse?: Reuse): number | null {
+  const limited: SolveContext = { ...ctx, wmax: w, spec: { ...ctx.spec, wmax: w }, reuse };
   const run = search(limited, topology);
   return run && nominalOk(run.best) ? Math.max(...run.best.sized.w) : null;
 }

@@ -5,14 +5,24 @@ import type { SolveContext } from '../context.js';
 import { candidateArea, evaluateCandidate, fullyOk, nominalOk, type Evaluated } from '../evaluate/evaluate.js';
 import { REL_TOL } from '../../policy.js';
 import { better } from './rank.js';
+import { rejudged, type Reuse, type Seen } from './reuse.js';
+import { lookAt, surelyMisses, type Look } from './quick.js';
 
-/** Exactly evaluated candidates by key (null: not realisable), shared by screen and refinement. */
-export type Seen = Map<string, Evaluated | null>;
+export type { Seen };
 
+/** The candidate's evaluation: from `seen`, else re-judged from ctx.reuse, else evaluated exactly (and remembered in both). */
 export function evaluateOnce(ctx: SolveContext, c: Candidate, seen: Seen): Evaluated | null {
   const k = candidateKey(c);
-  if (!seen.has(k)) seen.set(k, evaluateCandidate(ctx, c));
+  if (!seen.has(k)) seen.set(k, ctx.reuse ? reusedOrEvaluated(ctx, ctx.reuse, k, c) : evaluateCandidate(ctx, c));
   return seen.get(k)!;
+}
+
+function reusedOrEvaluated(ctx: SolveContext, reuse: Reuse, k: string, c: Candidate): Evaluated | null {
+  const known = reuse.lookup(k);
+  if (known !== undefined) return rejudged(ctx, known);
+  const e = evaluateCandidate(ctx, c);
+  reuse.store(k, e);
+  return e;
 }
 
 function nearestIndex(values: readonly number[], x: number): number {
@@ -83,34 +93,80 @@ export function neighbours(ctx: SolveContext, c: Candidate, gstep: number, vstep
  */
 export function refine(
   ctx: SolveContext, seeds: readonly Evaluated[], seen: Seen, pool: Evaluated[],
-  prefer?: (a: Evaluated, b: Evaluated) => boolean,
+  prefer?: (a: Evaluated, b: Evaluated) => boolean, hopeless?: Hopeless,
 ): Evaluated | undefined {
   // With the spec's own order and objective area, a move whose area is no smaller than a design meeting every
   // target cannot win: its area (from the sizing alone) spares the exact evaluation.
   const bound = prefer ? () => Infinity : (b: Evaluated) => (ctx.spec.objective === 'area' && nominalOk(b) && fullyOk(ctx, b) ? b.area : Infinity);
+  // By the spec's order nothing short of the nominal targets beats a design meeting every target.
+  if (!prefer) hopeless = (l, b) => nominalOk(b) && fullyOk(ctx, b) && surelyMisses(ctx, l);
   prefer ??= (a, b) => better(ctx, a, b);
   let best: Evaluated | undefined;
   for (const seed of seeds) {
-    const local = climb(ctx, seed, seen, pool, prefer, bound);
+    const local = climb(ctx, seed, seen, pool, prefer, bound, hopeless);
     if (!best || prefer(local, best)) best = local;
   }
   return best;
 }
 
-// Per search (one `seen` map, one sizing context).
-const areaMemo = new WeakMap<Seen, Map<string, number>>();
+/**
+ * A move with this look surely cannot beat `best` (by the climb's order): it is left unevaluated. The caller
+ * answers for the rest of the pool's uses (skipped moves are in none of them, unless `settle` runs).
+ */
+export type Hopeless = (look: Look, best: Evaluated) => boolean;
+
+// Per search (one `seen` map, one sizing context): areas from the sizing alone and the quick looks, by candidate
+// key (the same moves recur from round to round), and the moves a look ruled out without an exact evaluation.
+interface Memo {
+  areas: Map<string, number>;
+  looks: Map<string, Look | null>;
+  deferred: Map<string, Candidate>;
+}
+const memos = new WeakMap<Seen, Memo>();
+
+function memoOf(seen: Seen): Memo {
+  let m = memos.get(seen);
+  if (!m) memos.set(seen, (m = { areas: new Map(), looks: new Map(), deferred: new Map() }));
+  return m;
+}
+
+/** Leave a candidate unevaluated for now: `settle` evaluates it when the pool is needed in full. */
+export function defer(seen: Seen, c: Candidate): void {
+  memoOf(seen).deferred.set(candidateKey(c), c);
+}
+
+/**
+ * Evaluate exactly every candidate deferred (screen proposals no seed could come from) or every move the climbs skipped because it could not meet the targets (see climb), adding
+ * them to the pool: for uses of the pool beyond "is anything better than a design meeting every target".
+ */
+export function settle(ctx: SolveContext, seen: Seen, pool: Evaluated[]): void {
+  const d = memos.get(seen)?.deferred;
+  if (!d) return;
+  for (const [k, c] of d) {
+    if (seen.has(k)) continue;
+    const e = evaluateOnce(ctx, c, seen);
+    if (e) pool.push(e);
+  }
+  d.clear();
+}
 
 function climb(
   ctx: SolveContext, seed: Evaluated, seen: Seen, pool: Evaluated[],
-  better: (a: Evaluated, b: Evaluated) => boolean, bound: (best: Evaluated) => number,
+  better: (a: Evaluated, b: Evaluated) => boolean, bound: (best: Evaluated) => number, hopeless: Hopeless | undefined,
 ): Evaluated {
-  // Areas from the sizing alone, by candidate key: the same moves recur from round to round.
-  let areas = areaMemo.get(seen);
-  if (!areas) areaMemo.set(seen, (areas = new Map()));
+  const memo = memoOf(seen);
   const areaOf = (key: string, c: Candidate): number => {
-    let a = areas!.get(key);
-    if (a === undefined) areas!.set(key, (a = candidateArea(ctx, c)));
+    let a = memo.areas.get(key);
+    if (a === undefined) memo.areas.set(key, (a = candidateArea(ctx, c)));
     return a;
+  };
+  // A move the look rules out; recorded for settle.
+  const ruledOut = (key: string, c: Candidate): boolean => {
+    let l = memo.looks.get(key);
+    if (l === undefined) memo.looks.set(key, (l = lookAt(ctx, c)));
+    if (!l || !hopeless!(l, best)) return false;
+    memo.deferred.set(key, c);
+    return true;
   };
 
   let best = seed;
@@ -142,6 +198,7 @@ function climb(
         }
         continue;
       }
+      if (hopeless && ruledOut(key, n)) continue;
       const e = evaluateOnce(ctx, n, seen);
       if (!e) continue;
       pool.push(e);

@@ -1,0 +1,79 @@
+import { sampleAt, sizeStackDevices, type StackDevice } from '../../stack/index.js';
+import { topologyOf } from '../../topology/index.js';
+import { currentMargin } from '../../policy.js';
+import type { SolveContext } from '../context.js';
+import { saturationMargin } from '../evaluate/checks.js';
+import { pelgromSigma } from '../evaluate/mismatch.js';
+import { rangeSafe } from '../evaluate/evaluate.js';
+import { midPoint } from '../evaluate/stack-eval.js';
+import type { Candidate } from './candidate.js';
+
+// A Rout figure counts as surely below a value only this far below it, so the DC solve's own tolerance (the
+// exact evaluation solves that point from another starting guess) cannot decide.
+const ROUT_SLACK = 1e-3;
+
+/** What a candidate's sizing and mid-span DC solve (plus one solve at the headroom target) surely show. */
+export interface Look {
+  /** Widest output device, m. */
+  widest: number;
+  /** The current window, the mismatch budget or a lower device's saturation is missed (margins fixed at mid-span). */
+  midMiss: boolean;
+  /**
+   * Rout at the headroom target, Ω (NaN when not solved): the exact Rout figure (lowest over [target headroom,
+   * span]) is at most this. One more DC solve, done on first use only.
+   */
+  routAtTargetHeadroom(): number;
+}
+
+/**
+ * The look at a candidate, done the way evaluateCandidate starts (same sizing, same mid-span solve); null when it
+ * cannot tell (not realisable, or a lower device below VDSsat when saturation is required: the exact evaluation
+ * rejects those itself, cheaply).
+ */
+export function lookAt(ctx: SolveContext, c: Candidate): Look | null {
+  return rangeSafe(() => look(ctx, c));
+}
+
+function look(ctx: SolveContext, c: Candidate): Look | null {
+  const s = ctx.spec;
+  const slices = c.l.map((l) => ctx.slice(ctx.nominal, l));
+  const sized = sizeStackDevices({
+    shape: topologyOf(c.topology), slices, gmid: c.gmid, setpoints: c.setpoints, current: s.current, vmid: ctx.vmid,
+  });
+  if (!sized || sized.w.some((w) => w < ctx.wmin * (1 - 1e-9))) return null;
+  const devices: StackDevice[] = slices.map((slice, k) => ({ slice, w: sized.w[k] }));
+  const widest = Math.max(...sized.w);
+  const m = midPoint(devices, sized.gates, ctx.vmid, { i: s.current, nodes: sized.nodes }, ctx.ut(ctx.nominal));
+  if (!m) return null;
+  let midMiss = currentMargin(m.mid.i, s.current) < 0;
+  if (saturationMargin(m) < 0) {
+    if (ctx.saturation === 'require') return null;
+    midMiss = true;
+  }
+  if (s.mismatch !== undefined && ctx.coeff) {
+    const b = m.mid.devices[0];
+    if (pelgromSigma(b.gm / b.id, devices[0].w, devices[0].slice.l, ctx.coeff) > s.mismatch) midMiss = true;
+  }
+  let rout: number | undefined;
+  const routAtTargetHeadroom = (): number => {
+    if (rout === undefined) {
+      const at = rangeSafe(() => sampleAt(devices, sized.gates, s.headroom, m.mid));
+      rout = at && Number.isFinite(at.rout) ? at.rout : NaN;
+    }
+    return rout;
+  };
+  return { widest, midMiss, routAtTargetHeadroom };
+}
+
+/** The look shows Rout at the headroom target surely below `r` (so the exact Rout figure is too). */
+export function routSurelyBelow(l: Look, r: number): boolean {
+  return l.routAtTargetHeadroom() < r * (1 - ROUT_SLACK);
+}
+
+/**
+ * The look shows a sure miss of a nominal target: width, current window, σ, saturation, or Rout (at the headroom
+ * target, a point of the exact figure's range).
+ */
+export function surelyMisses(ctx: SolveContext, l: Look): boolean {
+  return l.midMiss || (ctx.spec.wmax !== undefined && l.widest > ctx.spec.wmax) || routSurelyBelow(l, ctx.spec.rout);
+}
