@@ -7,11 +7,9 @@ import type { KitAccess } from './kit.js';
 import { checkStageCover, checkTableCover } from './table-cover.js';
 import { makeContext, type SolveContext } from './context.js';
 import { screen } from './search/screen.js';
-import { defer, evaluateOnce, refine, settle, type Seen } from './search/refine.js';
-import type { Candidate } from './search/candidate.js';
-import { REL_TOL } from '../policy.js';
+import { evaluateOnce, refine, settle, type Seen } from './search/refine.js';
 import { reuseOf, type Reuse } from './search/reuse.js';
-import { candidateArea, finalize, fullyOk, nominalOk, type Evaluated } from './evaluate/evaluate.js';
+import { finalize, fullyOk, nominalOk, type Evaluated } from './evaluate/evaluate.js';
 import { compareDesigns, pickBest, shortfall } from './search/rank.js';
 import { emptyResult, stackResult } from './result.js';
 import { nearestPoints } from './nearest.js';
@@ -42,12 +40,10 @@ function frontPoint(ctx: SolveContext, e: Evaluated): FrontPoint {
 
 // Climbs per search: the best design and the best of other length choices (the optimum's lengths may differ).
 const SEEDS = 4;
-// A seed's reach by area (objective area): within this factor of the best design's.
-const AREA_REACH = 1.3;
 
 /** e starts within reach of best by the objective: 30 % of area or Rout, 30 mV of headroom. */
 function near(objective: StackSpec['objective'], e: Evaluated, best: Evaluated): boolean {
-  if (objective === 'area') return e.area <= AREA_REACH * best.area;
+  if (objective === 'area') return e.area <= 1.3 * best.area;
   if (objective === 'rout') return e.nominal.rout >= best.nominal.rout / 1.3;
   return e.nominal.headroom <= best.nominal.headroom + 0.03;
 }
@@ -77,42 +73,14 @@ function seedsOf(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[])
   return seeds;
 }
 
-/**
- * Evaluate the screen's proposals into the pool. With objective area they go in order of area (from the sizing
- * alone): the first design meeting every target is then the pool's best (pickBest's own order and corner checks),
- * and a proposal beyond AREA_REACH × its area can be neither the best nor a seed, so it is deferred (settle
- * evaluates it if the pool is needed in full); the climbs evaluate it themselves if they reach it.
- */
-function evaluateProposals(ctx: SolveContext, proposals: Candidate[], seen: Seen, pool: Evaluated[]): void {
-  if (ctx.spec.objective !== 'area') {
-    for (const c of proposals) {
-      const e = evaluateOnce(ctx, c, seen);
-      if (e) pool.push(e);
-    }
-    return;
-  }
-  // Unrealisable ones (NaN) last: their evaluation is null either way.
-  const area = proposals.map((c) => candidateArea(ctx, c));
-  const order = proposals.map((_, j) => j).sort((a, b) => (Number.isNaN(area[a]) ? Infinity : area[a]) - (Number.isNaN(area[b]) ? Infinity : area[b]) || a - b);
-  let reach = Infinity;
-  for (const j of order) {
-    const c = proposals[j];
-    if (!(area[j] <= reach)) {
-      defer(seen, c);
-      continue;
-    }
-    const e = evaluateOnce(ctx, c, seen);
-    if (!e) continue;
-    pool.push(e);
-    if (reach === Infinity && nominalOk(e) && fullyOk(ctx, e)) reach = AREA_REACH * e.area * (1 + REL_TOL);
-  }
-}
-
 /** Screen, evaluate, refine: the best design and everything evaluated, or null when nothing could be realised. */
 function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool: Evaluated[]; seen: Seen } | null {
   const seen: Seen = new Map();
   const pool: Evaluated[] = [];
-  evaluateProposals(ctx, screen(ctx, topology), seen, pool);
+  for (const c of screen(ctx, topology)) {
+    const e = evaluateOnce(ctx, c, seen);
+    if (e) pool.push(e);
+  }
   const first = pickBest(ctx, pool);
   if (!first) return null;
   let best = refine(ctx, seedsOf(ctx, first, pool), seen, pool) ?? first;

@@ -130,13 +130,8 @@ function memoOf(seen: Seen): Memo {
   return m;
 }
 
-/** Leave a candidate unevaluated for now: `settle` evaluates it when the pool is needed in full. */
-export function defer(seen: Seen, c: Candidate): void {
-  memoOf(seen).deferred.set(candidateKey(c), c);
-}
-
 /**
- * Evaluate exactly every candidate deferred (screen proposals no seed could come from) or every move the climbs skipped because it could not meet the targets (see climb), adding
+ * Evaluate exactly every move the climbs skipped because it could not meet the targets (see climb), adding
  * them to the pool: for uses of the pool beyond "is anything better than a design meeting every target".
  */
 export function settle(ctx: SolveContext, seen: Seen, pool: Evaluated[]): void {
