@@ -52,6 +52,11 @@ export class TableSlice implements LengthSlice {
   private cellG = 0;
   private cellD = 0;
   private cellS = 0;
+  // The point of that cell: a lookup at the same point again (Newton's last pass, then the small-signal
+  // values at the solution) reuses it. NaN until the first lookup succeeds.
+  private atG = NaN;
+  private atD = NaN;
+  private atS = NaN;
   private readonly scratch = new Float64Array(4);
   // Direct references for the hot path.
   private readonly pId: Float64Array;
@@ -198,6 +203,7 @@ export class TableSlice implements LengthSlice {
   }
 
   private locate(vgs: number, vds: number, vsb: number): void {
+    if (vgs === this.atG && vds === this.atD && vsb === this.atS) return;
     const ig = this.lg.locate(vgs);
     if (ig < 0) throw rangeError('vgs', vgs, this.lg.lo, this.lg.hi, 'V', this.where());
     const id = this.ld.locate(vds);
@@ -211,6 +217,9 @@ export class TableSlice implements LengthSlice {
     this.tg = this.lg.t;
     this.td = this.ld.t;
     this.ts = this.ls.t;
+    this.atG = vgs;
+    this.atD = vds;
+    this.atS = vsb;
   }
 
   private where(): string {
