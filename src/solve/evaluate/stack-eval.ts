@@ -1,7 +1,7 @@
 import { StackwrightError } from '../../errors.js';
 import type { StackSpec } from '../../design/types.js';
 import {
-  findHeadroom,
+  headroomPoint,
   holds,
   sampleAt,
   saturationVoltage,
@@ -37,12 +37,15 @@ export const CURVE_INTERVALS = 64;
 /** Intervals of the scan used while ranking candidates; the chosen design is re-evaluated on the full curve. */
 export const SCAN_INTERVALS = 16;
 
-/** Lowest Rout over [lo, span]: the exact point at lo plus every curve point above; uncovered points count as 0. */
-function minRout(devices: readonly StackDevice[], gates: readonly number[], curve: readonly CurveSample[], lo: number): number {
+/**
+ * Lowest Rout over [lo, span]: the exact point at lo plus every curve point above; uncovered points count as 0.
+ * `solved` is a sample already solved at lo (the headroom search's answer), so it is not solved again.
+ */
+function minRout(devices: readonly StackDevice[], gates: readonly number[], curve: readonly CurveSample[], lo: number, solved?: CurveSample | null): number {
   let j = curve.findIndex((c) => c.v >= lo);
   if (j < 0) j = curve.length - 1;
   const guess = curve[j].op ?? curve.find((c) => c.op)?.op ?? undefined;
-  const at = sampleAt(devices, gates, lo, guess);
+  const at = solved && solved.v === lo ? solved : sampleAt(devices, gates, lo, guess);
   let r = Number.isFinite(at.rout) ? at.rout : 0;
   for (let k = j; k < curve.length; k++) r = Math.min(r, Number.isNaN(curve[k].rout) ? 0 : curve[k].rout);
   return r;
@@ -74,9 +77,9 @@ export function evaluateFrom(devices: StackDevice[], gates: number[], spec: Stac
   // While ranking, points below both the headroom target and the first failing point change nothing.
   const lowest = intervals >= CURVE_INTERVALS ? undefined : (c: CurveSample) => c.v < spec.headroom && !holds(c, target);
   const curve = stackCurve(devices, gates, spec.span, { intervals, anchor: mid, lowest });
-  const headroom = findHeadroom(devices, gates, curve, target);
+  const { v: headroom, sample: atHeadroom } = headroomPoint(devices, gates, curve, target);
   const routAtTarget = minRout(devices, gates, curve, spec.headroom);
-  const rout = Number.isFinite(headroom) && headroom > spec.headroom ? minRout(devices, gates, curve, headroom) : routAtTarget;
+  const rout = Number.isFinite(headroom) && headroom > spec.headroom ? minRout(devices, gates, curve, headroom, atHeadroom) : routAtTarget;
   return { gates, devices, mid, curve, headroom, routAtTarget, rout, iout: mid.i, vdsat };
 }
 
