@@ -168,6 +168,15 @@ export class TableSlice implements LengthSlice {
     out[3] = this.ls.step ? (fv * k) / (this.ls.values[this.cellS + 1] - this.ls.values[this.cellS]) : 0;
   }
 
+  /** [gm/W, gds/W, gmb/W] into out[0..2], the same values as small()[1..3]: a DC solve has jd from jdSlopes. */
+  conductances(vgs: number, vds: number, vsb: number, out: Float64Array): void {
+    this.locate(vgs, vds, vsb);
+    const k = this.perW;
+    this.evalInto(this.pGm, out, 0, k);
+    this.evalInto(this.pGds, out, 1, k);
+    this.evalInto(this.pGmb, out, 2, k);
+  }
+
   /** [jd, gm/W] into out[0..1], the same values as small(): half the work for gm/ID searches. */
   jdGm(vgs: number, vds: number, vsb: number, out: Float64Array): void {
     this.locate(vgs, vds, vsb);

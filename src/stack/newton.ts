@@ -36,7 +36,7 @@ export function newtonOperatingPoint(devices: readonly StackDevice[], gates: rea
       r[k] = b.id - i;
       rmax = Math.max(rmax, Math.abs(r[k]));
     }
-    if (rmax <= 1e-10 * Math.abs(i) + 1e-24) return finish(devices, gates, v, i, x);
+    if (rmax <= 1e-10 * Math.abs(i) + 1e-24) return finish(devices, gates, v, i, x, exact ? slope : null);
     // Differences only when another step is needed: the converged pass costs one lookup per device.
     if (!exact) for (let k = 0; k < n; k++) if (!devices[k].slice.jdSlopes) slopes(devices[k], slope[k]);
     if (!chainStep(slope, r, dx)) return null;
@@ -106,13 +106,28 @@ function scratchFor(n: number): { slope: DeviceBias[]; r: Float64Array; dx: Floa
   return s;
 }
 
-/** The reported operating point: table small-signal values at the solved bias. */
-function finish(devices: readonly StackDevice[], gates: readonly number[], v: number, i: number, x: number[]): StackOp | null {
-  const out: DeviceBias[] = [];
+/**
+ * The reported operating point: table small-signal values at the solved bias. `last` is the converged pass
+ * (exact slopes): its currents are the table's at this very bias (jdSlopes gives jd bit-identical to small),
+ * so only the conductances are read.
+ */
+function finish(devices: readonly StackDevice[], gates: readonly number[], v: number, i: number, x: number[], last: readonly DeviceBias[] | null): StackOp | null {
+  const out: DeviceBias[] = new Array(devices.length);
   for (let k = 0; k < devices.length; k++) {
     const b = emptyBias();
-    if (!evalDevice(devices[k], gates[k] - x[k], x[k + 1] - x[k], x[k], b)) return null;
-    out.push(b);
+    const d = devices[k];
+    if (last && d.slice.conductances) {
+      const p = last[k];
+      d.slice.conductances(p.vgs, p.vds, p.vsb, js);
+      b.vgs = p.vgs;
+      b.vds = p.vds;
+      b.vsb = p.vsb;
+      b.id = p.id;
+      b.gm = js[0] * d.w;
+      b.gds = js[1] * d.w;
+      b.gmb = js[2] * d.w;
+    } else if (!evalDevice(d, gates[k] - x[k], x[k + 1] - x[k], x[k], b)) return null;
+    out[k] = b;
   }
   return { v, i, nodes: x, devices: out };
 }
