@@ -32,14 +32,18 @@ export interface HeadroomPoint {
   sample: CurveSample | null;
 }
 
-/** findHeadroom, also giving the sample solved at the answer, so callers need not solve it again. */
-export function headroomPoint(devices: readonly StackDevice[], gates: readonly number[], curve: readonly CurveSample[], t: HeadroomTarget): HeadroomPoint {
+/**
+ * findHeadroom, also giving the sample solved at the answer, so callers need not solve it again.
+ * `known` is a sample the caller solved anyway (Rout at the target headroom): between the curve points
+ * the search starts from, it narrows the bracket for free.
+ */
+export function headroomPoint(devices: readonly StackDevice[], gates: readonly number[], curve: readonly CurveSample[], t: HeadroomTarget, known?: CurveSample): HeadroomPoint {
   const last = curve.length - 1;
   if (last < 0 || !holds(curve[last], t)) return { v: Infinity, sample: null };
   let j = last;
   while (j > 0 && holds(curve[j - 1], t)) j--;
   if (j === 0) return { v: curve[0].v, sample: curve[0] };
-  return crossing(devices, gates, curve[j - 1], curve[j], t);
+  return crossing(devices, gates, curve[j - 1], curve[j], t, known);
 }
 
 // Guessed probes before the probes fall back to the open midpoint (a plain bisection of a 0.1 V gap to 1 mV takes 7).
@@ -58,7 +62,7 @@ const MAX_PROBES = 64;
  * gives (when the targets fail below the crossing and hold above it), in fewer DC solves. The reported
  * headroom is always a solved point where the targets hold.
  */
-function crossing(devices: readonly StackDevice[], gates: readonly number[], below: CurveSample, above: CurveSample, t: HeadroomTarget): HeadroomPoint {
+function crossing(devices: readonly StackDevice[], gates: readonly number[], below: CurveSample, above: CurveSample, t: HeadroomTarget, known?: CurveSample): HeadroomPoint {
   const res = t.resolution ?? 1e-3;
   const v0 = below.v;
   const v1 = above.v;
@@ -73,6 +77,20 @@ function crossing(devices: readonly StackDevice[], gates: readonly number[], bel
   let ma = mFail;
   let xb = above.v;
   let mb = mHold;
+  if (known && known.v > v0 && known.v < v1) {
+    const m = margin(known, t);
+    xa = xb;
+    ma = mb;
+    if (holds(known, t)) {
+      hold = known;
+      mHold = m;
+    } else {
+      fail = known;
+      mFail = m;
+    }
+    xb = known.v;
+    mb = m;
+  }
   for (let probes = 0; probes < MAX_PROBES; probes++) {
     let lo = v0;
     let hi = v1;
@@ -86,7 +104,14 @@ function crossing(devices: readonly StackDevice[], gates: readonly number[], bel
         break;
       }
     }
-    if (Number.isNaN(open)) return hi === hold.v ? { v: hi, sample: hold } : bisect(devices, gates, below, above, t);
+    if (Number.isNaN(open)) {
+      if (hi === hold.v) return { v: hi, sample: hold };
+      // The answer lies above a holding point that is off the grid (the known sample): solve it to report it.
+      if (!(hi > hold.v) || probes >= GUESSES) break;
+      const s = sampleAt(devices, gates, hi, hold.op ?? undefined);
+      if (!holds(s, t)) break;
+      return { v: hi, sample: s };
+    }
     // The probe: the grid point nearest the estimate (secant through the latest two solves, else regula
     // falsi on the bracket), or the other end of its cell when that one is known; the open midpoint without an estimate.
     let p = open;
@@ -124,6 +149,7 @@ function crossing(devices: readonly StackDevice[], gates: readonly number[], bel
       side = -1;
     }
   }
+  // Not settled (the targets do not fail below and hold above one crossing): the plain bisection decides.
   return bisect(devices, gates, below, above, t);
 }
 
