@@ -117,6 +117,12 @@ describe('slice interpolation', () => {
       s.jdGm(g, d, b, two);
       expect(two[1] / two[0]).toBeCloseTo(1 / (n * ut), 10); // gm/ID = 1/(n·UT) in weak inversion (Tsividis)
       expect([...two]).toEqual([...s.small(g, d, b)].slice(0, 2)); // jdGm gives small()'s own first two values
+      // A DC solve keeps jdSlopes' current and reads only the conductances: together they are small()'s values.
+      const three = new Float64Array(3);
+      s.conductances(g, d, b, three);
+      s.jdSlopes(g, d, b, out);
+      expect([out[0], ...three]).toEqual([...s.small(g, d, b)]);
+      expect(three[0] / two[0]).toBeCloseTo(1 / (n * ut), 10); // gm/ID = 1/(n·UT) in weak inversion (Tsividis)
       const id = f(g, d, b) / 1e-6;
       expect(out[1] / (id / (n * ut))).toBeCloseTo(1, 10);
       expect(out[2] / ((id * lam) / (1 + lam * d))).toBeCloseTo(1, 10);

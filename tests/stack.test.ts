@@ -13,6 +13,7 @@ import {
   thermalVoltage,
   findHeadroom,
   fitSquareLaw,
+  holds,
   routAt,
   sampleAt,
   sizeStackDevices,
@@ -186,6 +187,35 @@ describe('headroom on square-law devices (rule of thumb, common practice)', () =
     // Common practice: wide-swing cascode headroom VDS1 + Vov2 ≈ 2Vov (Razavi ch. 5).
     expect(Math.abs(h - (2 * vov + margin))).toBeLessThan(0.015);
     expect(h).toBeLessThan(headroomOf('cascode-stacked', []) - vth + 0.05);
+  });
+
+  it('the headroom search gives the answer of a plain 1 mV bisection, where the targets hold and fail 1 mV lower', () => {
+    // Reference: bisection between the last failing and first holding curve points, a DC solve at every
+    // midpoint (the definition of the headroom in the README; bisection is common practice).
+    for (const topology of ['cascode', 'cascode-stacked'] as const) {
+      const slices = [slSlice(l), slSlice(l)];
+      const sized = sizeStackDevices({ shape: topologyOf(topology), slices, gmid: [gmid, gmid], setpoints: topology === 'cascode' ? [vov + 0.02] : [], current: 20e-6, vmid: 1.35 });
+      if (!sized) throw new Error('unreachable');
+      const devices = slices.map((slice, k) => ({ slice, w: sized.w[k] }));
+      const mid = solveOperatingPoint(devices, sized.gates, 1.35);
+      const curve = stackCurve(devices, sized.gates, 1.8, { intervals: 16, anchor: mid });
+      for (const share of [0.2, 0.5, 0.8, 0.95, 0.99]) {
+        const target = { rout: share * routAt(mid), iMid: mid.i };
+        const h = findHeadroom(devices, sized.gates, curve, target);
+        let j = curve.length - 1;
+        while (j > 0 && holds(curve[j - 1], target)) j--;
+        let lo = curve[j - 1].v;
+        let hi = curve[j].v;
+        while (hi - lo > 1e-3) {
+          const m = 0.5 * (lo + hi);
+          if (holds(sampleAt(devices, sized.gates, m, mid), target)) hi = m;
+          else lo = m;
+        }
+        expect(h).toBe(hi);
+        expect(holds(sampleAt(devices, sized.gates, h, mid), target)).toBe(true);
+        expect(holds(sampleAt(devices, sized.gates, h - 1e-3, mid), target)).toBe(false);
+      }
+    }
   });
 
   it('max-slope sqrt(ID) extrapolation recovers Vth and k\' of a pure square-law device', () => {

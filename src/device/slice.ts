@@ -52,6 +52,11 @@ export class TableSlice implements LengthSlice {
   private cellG = 0;
   private cellD = 0;
   private cellS = 0;
+  // The point of that cell: a lookup at the same point again (Newton's last pass, then the small-signal
+  // values at the solution) reuses it. NaN until the first lookup succeeds.
+  private atG = NaN;
+  private atD = NaN;
+  private atS = NaN;
   private readonly scratch = new Float64Array(4);
   // Direct references for the hot path.
   private readonly pId: Float64Array;
@@ -163,6 +168,15 @@ export class TableSlice implements LengthSlice {
     out[3] = this.ls.step ? (fv * k) / (this.ls.values[this.cellS + 1] - this.ls.values[this.cellS]) : 0;
   }
 
+  /** [gm/W, gds/W, gmb/W] into out[0..2], the same values as small()[1..3]: a DC solve has jd from jdSlopes. */
+  conductances(vgs: number, vds: number, vsb: number, out: Float64Array): void {
+    this.locate(vgs, vds, vsb);
+    const k = this.perW;
+    this.evalInto(this.pGm, out, 0, k);
+    this.evalInto(this.pGds, out, 1, k);
+    this.evalInto(this.pGmb, out, 2, k);
+  }
+
   /** [jd, gm/W] into out[0..1], the same values as small(): half the work for gm/ID searches. */
   jdGm(vgs: number, vds: number, vsb: number, out: Float64Array): void {
     this.locate(vgs, vds, vsb);
@@ -198,6 +212,7 @@ export class TableSlice implements LengthSlice {
   }
 
   private locate(vgs: number, vds: number, vsb: number): void {
+    if (vgs === this.atG && vds === this.atD && vsb === this.atS) return;
     const ig = this.lg.locate(vgs);
     if (ig < 0) throw rangeError('vgs', vgs, this.lg.lo, this.lg.hi, 'V', this.where());
     const id = this.ld.locate(vds);
@@ -211,6 +226,9 @@ export class TableSlice implements LengthSlice {
     this.tg = this.lg.t;
     this.td = this.ld.t;
     this.ts = this.ls.t;
+    this.atG = vgs;
+    this.atD = vds;
+    this.atS = vsb;
   }
 
   private where(): string {

@@ -44,6 +44,11 @@ export interface LengthSlice {
    * `out` = [jd, ∂jd/∂vgs, ∂jd/∂vds, ∂jd/∂vsb], for Newton; callers fall back to differences without it.
    */
   jdSlopes?(vgs: number, vds: number, vsb: number, out: Float64Array): void;
+  /**
+   * Optional: [gm/W, gds/W, gmb/W] only (entries 1..3 of `small`, the same values) into `out`, for a DC solve
+   * that already has jd at the point from `jdSlopes`.
+   */
+  conductances?(vgs: number, vds: number, vsb: number, out: Float64Array): void;
   /** Optional: [jd, gm/W] only (the first two entries of `small`, the same values) into `out`, for gm/ID searches. */
   jdGm?(vgs: number, vds: number, vsb: number, out: Float64Array): void;
   /** Full operating point at width w. */

@@ -40,6 +40,28 @@ const SCAN = 16;
  * the table does not reach the target.
  */
 export function vgsForGmid(slice: LengthSlice, target: number, mode: VdsMode, vsb: number): number | null {
+  // Memoised: candidates share most device biases (same L, gm/ID, setpoint), and the search is pure.
+  let bySlice = solved.get(slice);
+  if (!bySlice) solved.set(slice, (bySlice = new Map()));
+  const m = mode === 'diode' ? -1 : mode;
+  let byMode = bySlice.get(m);
+  if (!byMode) bySlice.set(m, (byMode = new Map()));
+  let byVsb = byMode.get(vsb);
+  if (!byVsb) byMode.set(vsb, (byVsb = new Map()));
+  let g = byVsb.get(target);
+  if (g === undefined) {
+    if (byVsb.size >= MEMO_LIMIT) byVsb.clear();
+    byVsb.set(target, (g = searchVgsForGmid(slice, target, mode, vsb)));
+  }
+  return g;
+}
+
+// Per slice, per VDS (−1 for a diode), per VSB, per target gm/ID: numeric keys, no strings built per call.
+const solved = new WeakMap<LengthSlice, Map<number, Map<number, Map<number, number | null>>>>();
+// Bounds the memory one (slice, VDS, VSB) can hold when targets never repeat.
+const MEMO_LIMIT = 4096;
+
+function searchVgsForGmid(slice: LengthSlice, target: number, mode: VdsMode, vsb: number): number | null {
   const win = vgsWindow(slice, mode, vsb);
   if (!win) return null;
   const [lo, hi] = win;

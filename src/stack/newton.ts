@@ -17,7 +17,8 @@ export function newtonOperatingPoint(devices: readonly StackDevice[], gates: rea
   x[0] = 0;
   x[n] = v;
   for (let k = 1; k < n; k++) x[k] = Math.min(Math.max(guess.nodes[k] ?? (v * k) / n, x[k - 1]), v);
-  const { slope, r, dx } = scratchFor(n);
+  const w = scratchFor(n);
+  const { r, dx } = w;
   let i = guess.i;
   if (!(i > 0)) {
     if (!covers(devices[0].slice, gates[0], x[1], 0)) return null;
@@ -28,18 +29,17 @@ export function newtonOperatingPoint(devices: readonly StackDevice[], gates: rea
     let rmax = 0;
     let exact = true;
     for (let k = 0; k < n; k++) {
-      const b = slope[k];
       const d = devices[k];
       // A slice with exact slopes gives current and slopes from one lookup; others get differences below.
-      const ok = d.slice.jdSlopes ? currentAndSlopes(d, gates[k] - x[k], x[k + 1] - x[k], x[k], b) : ((exact = false), current(d, gates[k] - x[k], x[k + 1] - x[k], x[k], b));
+      const ok = d.slice.jdSlopes ? currentAndSlopes(d, gates[k] - x[k], x[k + 1] - x[k], x[k], w, k) : ((exact = false), current(d, gates[k] - x[k], x[k + 1] - x[k], x[k], w, k));
       if (!ok) return null;
-      r[k] = b.id - i;
+      r[k] = w.id[k] - i;
       rmax = Math.max(rmax, Math.abs(r[k]));
     }
-    if (rmax <= 1e-10 * Math.abs(i) + 1e-24) return finish(devices, gates, v, i, x);
+    if (rmax <= 1e-10 * Math.abs(i) + 1e-24) return finish(devices, gates, v, i, x, exact ? w : null);
     // Differences only when another step is needed: the converged pass costs one lookup per device.
-    if (!exact) for (let k = 0; k < n; k++) if (!devices[k].slice.jdSlopes) slopes(devices[k], slope[k]);
-    if (!chainStep(slope, r, dx)) return null;
+    if (!exact) for (let k = 0; k < n; k++) if (!devices[k].slice.jdSlopes) slopes(devices[k], w, k);
+    if (!chainStep(w, r, dx)) return null;
     // dx[0..n−2] are node steps, dx[n−1] the current step.
     let scale = 1;
     for (let k = 0; k < n - 1; k++) scale = Math.min(scale, MAX_STEP / Math.max(Math.abs(dx[k]), 1e-300));
@@ -57,62 +57,94 @@ export function newtonOperatingPoint(devices: readonly StackDevice[], gates: rea
 // (stored gm/gds are not its exact derivatives), or Newton only converges linearly.
 const H = 1e-5;
 
-/** Current at a bias into `out` (with the bias), false outside the table. */
-function current(d: StackDevice, vgs: number, vds: number, vsb: number, out: DeviceBias): boolean {
+/**
+ * Working arrays of one chain length: each device's bias, current and slopes (gm, gds, gmb as −∂I/∂VSB) of
+ * the latest pass, the residuals and the step. Typed arrays: a pass stores numbers without boxing them.
+ */
+interface Pass {
+  vgs: Float64Array;
+  vds: Float64Array;
+  vsb: Float64Array;
+  id: Float64Array;
+  gm: Float64Array;
+  gds: Float64Array;
+  gmb: Float64Array;
+  r: Float64Array;
+  dx: Float64Array;
+}
+
+/** Current at a bias into device k of the pass (with the bias), false outside the table. */
+function current(d: StackDevice, vgs: number, vds: number, vsb: number, p: Pass, k: number): boolean {
   if (!covers(d.slice, vgs, vds, vsb)) return false;
-  out.vgs = vgs;
-  out.vds = vds;
-  out.vsb = vsb;
-  out.id = d.w * d.slice.jd(vgs, vds, vsb);
+  p.vgs[k] = vgs;
+  p.vds[k] = vds;
+  p.vsb[k] = vsb;
+  p.id[k] = d.w * d.slice.jd(vgs, vds, vsb);
   return true;
 }
 
 const js = new Float64Array(4);
 
-/** Current and its exact slopes (the interpolant's derivatives, gmb as −∂I/∂VSB) into `out`; false outside the table. */
-function currentAndSlopes(d: StackDevice, vgs: number, vds: number, vsb: number, out: DeviceBias): boolean {
+/** Current and its exact slopes (the interpolant's derivatives, gmb as −∂I/∂VSB) into device k of the pass; false outside the table. */
+function currentAndSlopes(d: StackDevice, vgs: number, vds: number, vsb: number, p: Pass, k: number): boolean {
   if (!covers(d.slice, vgs, vds, vsb)) return false;
   d.slice.jdSlopes!(vgs, vds, vsb, js);
   const w = d.w;
-  out.vgs = vgs;
-  out.vds = vds;
-  out.vsb = vsb;
-  out.id = w * js[0];
-  out.gm = w * js[1];
-  out.gds = w * js[2];
-  out.gmb = -w * js[3];
+  p.vgs[k] = vgs;
+  p.vds[k] = vds;
+  p.vsb[k] = vsb;
+  p.id[k] = w * js[0];
+  p.gm[k] = w * js[1];
+  p.gds[k] = w * js[2];
+  p.gmb[k] = -w * js[3];
   return true;
 }
 
-/** Slopes of the current along VGS, VDS and VSB from jd alone at the bias in `out` (gmb as −∂I/∂VSB). */
-function slopes(d: StackDevice, out: DeviceBias): void {
+/** Slopes of the current along VGS, VDS and VSB from jd alone at device k's bias in the pass (gmb as −∂I/∂VSB). */
+function slopes(d: StackDevice, p: Pass, k: number): void {
   const s = d.slice;
-  const { vgs, vds, vsb, id } = out;
+  const vgs = p.vgs[k];
+  const vds = p.vds[k];
+  const vsb = p.vsb[k];
+  const id = p.id[k];
   const r = s.range;
   // Forward steps, backward at the table's upper edge.
   const hg = vgs + H <= r.vgs[1] ? H : -H;
   const hd = vds + H <= r.vds[1] ? H : -H;
   const hs = vsb + H <= r.vsb[1] ? H : -H;
-  out.gm = (d.w * s.jd(vgs + hg, vds, vsb) - id) / hg;
-  out.gds = (d.w * s.jd(vgs, vds + hd, vsb) - id) / hd;
-  out.gmb = -(d.w * s.jd(vgs, vds, vsb + hs) - id) / hs;
+  p.gm[k] = (d.w * s.jd(vgs + hg, vds, vsb) - id) / hg;
+  p.gds[k] = (d.w * s.jd(vgs, vds + hd, vsb) - id) / hd;
+  p.gmb[k] = -(d.w * s.jd(vgs, vds, vsb + hs) - id) / hs;
 }
 
-// Working arrays per chain length, reused across solves (the solver is not re-entrant).
-const scratch = new Map<number, { slope: DeviceBias[]; r: Float64Array; dx: Float64Array }>();
-function scratchFor(n: number): { slope: DeviceBias[]; r: Float64Array; dx: Float64Array } {
+// Working arrays per chain length, reused across solves (the solver calls nothing that solves again).
+const scratch = new Map<number, Pass>();
+function scratchFor(n: number): Pass {
   let s = scratch.get(n);
-  if (!s) scratch.set(n, (s = { slope: Array.from({ length: n }, emptyBias), r: new Float64Array(n), dx: new Float64Array(n) }));
+  if (!s) {
+    const f = () => new Float64Array(n);
+    scratch.set(n, (s = { vgs: f(), vds: f(), vsb: f(), id: f(), gm: f(), gds: f(), gmb: f(), r: f(), dx: f() }));
+  }
   return s;
 }
 
-/** The reported operating point: table small-signal values at the solved bias. */
-function finish(devices: readonly StackDevice[], gates: readonly number[], v: number, i: number, x: number[]): StackOp | null {
-  const out: DeviceBias[] = [];
+/**
+ * The reported operating point: table small-signal values at the solved bias. `last` is the converged pass
+ * (exact slopes): its currents are the table's at this very bias (jdSlopes gives jd bit-identical to small),
+ * so only the conductances are read.
+ */
+function finish(devices: readonly StackDevice[], gates: readonly number[], v: number, i: number, x: number[], last: Pass | null): StackOp | null {
+  const out: DeviceBias[] = new Array(devices.length);
   for (let k = 0; k < devices.length; k++) {
-    const b = emptyBias();
-    if (!evalDevice(devices[k], gates[k] - x[k], x[k + 1] - x[k], x[k], b)) return null;
-    out.push(b);
+    const d = devices[k];
+    if (last && d.slice.conductances) {
+      d.slice.conductances(last.vgs[k], last.vds[k], last.vsb[k], js);
+      out[k] = { vgs: last.vgs[k], vds: last.vds[k], vsb: last.vsb[k], id: last.id[k], gm: js[0] * d.w, gds: js[1] * d.w, gmb: js[2] * d.w };
+    } else {
+      const b = emptyBias();
+      if (!evalDevice(d, gates[k] - x[k], x[k + 1] - x[k], x[k], b)) return null;
+      out[k] = b;
+    }
   }
   return { v, i, nodes: x, devices: out };
 }
@@ -122,13 +154,13 @@ function finish(devices: readonly StackDevice[], gates: readonly number[], v: nu
  * −(gm+gds+gmb)_k on x_{k−1}, gds_k on x_k and −1 on I. Write x_k = a_k + b_k·dI
  * and substitute upwards from x_0 = 0; the top row (x_N fixed) gives dI.
  */
-function chainStep(bias: readonly DeviceBias[], r: Float64Array, dx: Float64Array): boolean {
-  const n = bias.length;
+function chainStep(p: Pass, r: Float64Array, dx: Float64Array): boolean {
+  const n = r.length;
   let a = 0;
   let b = 0;
   for (let k = 0; k < n; k++) {
-    const d = bias[k];
-    const src = d.gm + d.gds + d.gmb;
+    const gds = p.gds[k];
+    const src = p.gm[k] + gds + p.gmb[k];
     // −src·x_{k−1} + gds·x_k − dI = −r_k
     const ra = -r[k] + src * a;
     const rb = 1 + src * b;
@@ -137,21 +169,20 @@ function chainStep(bias: readonly DeviceBias[], r: Float64Array, dx: Float64Arra
       if (!(Math.abs(rb) > 0)) return false;
       const di = -ra / rb;
       dx[n - 1] = di;
-      return Number.isFinite(di) && fill(bias, r, dx, di);
+      return Number.isFinite(di) && fill(p, r, dx, di);
     }
-    if (!(d.gds > 0)) return false;
-    a = ra / d.gds;
-    b = rb / d.gds;
+    if (!(gds > 0)) return false;
+    a = ra / gds;
+    b = rb / gds;
   }
   return false;
 }
 
 // Node steps from the current step, by the same forward substitution.
-function fill(bias: readonly DeviceBias[], r: Float64Array, dx: Float64Array, di: number): boolean {
+function fill(p: Pass, r: Float64Array, dx: Float64Array, di: number): boolean {
   let prev = 0;
-  for (let k = 0; k < bias.length - 1; k++) {
-    const d = bias[k];
-    const xk = (-r[k] + (d.gm + d.gds + d.gmb) * prev + di) / d.gds;
+  for (let k = 0; k < r.length - 1; k++) {
+    const xk = (-r[k] + (p.gm[k] + p.gds[k] + p.gmb[k]) * prev + di) / p.gds[k];
     dx[k] = xk;
     prev = xk;
   }

@@ -1,7 +1,7 @@
 import { StackwrightError } from '../../errors.js';
 import type { StackSpec } from '../../design/types.js';
 import {
-  findHeadroom,
+  headroomPoint,
   holds,
   sampleAt,
   saturationVoltage,
@@ -37,12 +37,18 @@ export const CURVE_INTERVALS = 64;
 /** Intervals of the scan used while ranking candidates; the chosen design is re-evaluated on the full curve. */
 export const SCAN_INTERVALS = 16;
 
-/** Lowest Rout over [lo, span]: the exact point at lo plus every curve point above; uncovered points count as 0. */
-function minRout(devices: readonly StackDevice[], gates: readonly number[], curve: readonly CurveSample[], lo: number): number {
-  let j = curve.findIndex((c) => c.v >= lo);
+/** The exact sample at v, solved from the nearest curve point at or above it. */
+function exactAt(devices: readonly StackDevice[], gates: readonly number[], curve: readonly CurveSample[], v: number): CurveSample {
+  let j = curve.findIndex((c) => c.v >= v);
   if (j < 0) j = curve.length - 1;
   const guess = curve[j].op ?? curve.find((c) => c.op)?.op ?? undefined;
-  const at = sampleAt(devices, gates, lo, guess);
+  return sampleAt(devices, gates, v, guess);
+}
+
+/** Lowest Rout over [at.v, span]: the exact sample `at` plus every curve point above; uncovered points count as 0. */
+function minRout(curve: readonly CurveSample[], at: CurveSample): number {
+  let j = curve.findIndex((c) => c.v >= at.v);
+  if (j < 0) j = curve.length - 1;
   let r = Number.isFinite(at.rout) ? at.rout : 0;
   for (let k = j; k < curve.length; k++) r = Math.min(r, Number.isNaN(curve[k].rout) ? 0 : curve[k].rout);
   return r;
@@ -74,9 +80,11 @@ export function evaluateFrom(devices: StackDevice[], gates: number[], spec: Stac
   // While ranking, points below both the headroom target and the first failing point change nothing.
   const lowest = intervals >= CURVE_INTERVALS ? undefined : (c: CurveSample) => c.v < spec.headroom && !holds(c, target);
   const curve = stackCurve(devices, gates, spec.span, { intervals, anchor: mid, lowest });
-  const headroom = findHeadroom(devices, gates, curve, target);
-  const routAtTarget = minRout(devices, gates, curve, spec.headroom);
-  const rout = Number.isFinite(headroom) && headroom > spec.headroom ? minRout(devices, gates, curve, headroom) : routAtTarget;
+  // The sample at the target headroom serves both the Rout there and, when it falls in it, the headroom search.
+  const atTarget = exactAt(devices, gates, curve, spec.headroom);
+  const { v: headroom, sample: atHeadroom } = headroomPoint(devices, gates, curve, target, atTarget);
+  const routAtTarget = minRout(curve, atTarget);
+  const rout = Number.isFinite(headroom) && headroom > spec.headroom ? minRout(curve, atHeadroom?.v === headroom ? atHeadroom : exactAt(devices, gates, curve, headroom)) : routAtTarget;
   return { gates, devices, mid, curve, headroom, routAtTarget, rout, iout: mid.i, vdsat };
 }
 
