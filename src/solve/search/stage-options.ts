@@ -159,34 +159,73 @@ export function prune<T>(items: readonly T[], crit: (t: T) => readonly number[])
     }
   }
   const keep = new Uint8Array(n);
-  if (nan) {
-    for (let a = 0; a < n; a++) {
-      let out = false;
-      for (let b = 0; b < n && !out; b++) out = b !== a && dominates(c, k, b, a);
-      keep[a] = out ? 0 : 1;
-    }
-  } else {
-    const order = Array.from({ length: n }, (_, a) => a).sort((a, b) => {
-      for (let q = 0; q < k; q++) {
-        const d = c[a * k + q] - c[b * k + q];
-        if (d !== 0 && !Number.isNaN(d)) return d;
-        // Equal infinities give NaN differences: equal.
-      }
-      return 0;
-    });
-    const front: number[] = [];
-    for (const a of order) {
-      let out = false;
-      for (let f = 0; f < front.length && !out; f++) out = dominates(c, k, front[f], a);
-      if (!out) {
-        front.push(a);
-        keep[a] = 1;
-      }
-    }
-  }
+  if (nan) everyPair(c, k, n, keep);
+  else if (k === 2) sweepTwo(c, lexOrder(c, k, n), keep);
+  else skyline(c, k, lexOrder(c, k, n), keep);
   const kept: T[] = [];
   for (let a = 0; a < n; a++) if (keep[a]) kept.push(items[a]);
   return kept;
+}
+
+// Indices 0..n−1 in lexicographic order of the rows of c (no NaN in c).
+function lexOrder(c: Float64Array, k: number, n: number): number[] {
+  const order = new Array<number>(n);
+  for (let a = 0; a < n; a++) order[a] = a;
+  return order.sort((a, b) => {
+    for (let q = 0; q < k; q++) {
+      const d = c[a * k + q] - c[b * k + q];
+      // Equal infinities give a NaN difference: equal.
+      if (d !== 0 && d === d) return d;
+    }
+    return 0;
+  });
+}
+
+// keep[a] = 1 for the rows no other row dominates, comparing every pair.
+function everyPair(c: Float64Array, k: number, n: number, keep: Uint8Array): void {
+  for (let a = 0; a < n; a++) {
+    let out = false;
+    for (let b = 0; b < n && !out; b++) out = b !== a && dominates(c, k, b, a);
+    keep[a] = out ? 0 : 1;
+  }
+}
+
+// The same for any k, rows visited in lexicographic order: each checked against the non-dominated rows before it.
+function skyline(c: Float64Array, k: number, order: readonly number[], keep: Uint8Array): void {
+  const front: number[] = [];
+  for (const a of order) {
+    let out = false;
+    for (let f = 0; f < front.length && !out; f++) out = dominates(c, k, front[f], a);
+    if (!out) {
+      front.push(a);
+      keep[a] = 1;
+    }
+  }
+}
+
+/**
+ * The same for two criteria in one pass over the lexicographic order: a row is
+ * dominated by an earlier one with a smaller first criterion and a second no
+ * larger, or with an equal first criterion and a smaller second.
+ */
+function sweepTwo(c: Float64Array, order: readonly number[], keep: Uint8Array): void {
+  // Smallest second criterion over rows with a smaller first one (when there are any).
+  let before = Infinity;
+  let any = false;
+  let i = 0;
+  while (i < order.length) {
+    const x = c[2 * order[i]];
+    // A run of equal first criteria: its first row has the run's smallest second one.
+    const least = c[2 * order[i] + 1];
+    let j = i;
+    for (; j < order.length && c[2 * order[j]] === x; j++) {
+      const y = c[2 * order[j] + 1];
+      if (!(any && before <= y) && !(least < y)) keep[order[j]] = 1;
+    }
+    if (least < before) before = least;
+    any = true;
+    i = j;
+  }
 }
 
 // Row b of c no worse than row a everywhere and strictly better somewhere (NaN compares false).

@@ -2,16 +2,13 @@ import type { LengthSlice } from '../../device/types.js';
 import { vgsWindow, type VdsMode } from '../../stack/invert.js';
 
 const N = 64;
-// Row offsets within a sweep's block: vgs, jd, gm, gm/ID, gds, gmb at the N + 1 samples.
-const VGS = 0;
-const JD = N + 1;
-const GM = 2 * (N + 1);
-const GMID = 3 * (N + 1);
-const GDS = 4 * (N + 1);
-const GMB = 5 * (N + 1);
-const BLOCK = 6 * (N + 1);
+// Rows of a sweep's block: jd and gm at the N + 1 samples (VGS and gm/ID follow from them).
+const JD = 0;
+const GM = N + 1;
+const BLOCK = 2 * (N + 1);
 
 // Sweeps take their blocks from shared chunks: one typed array per sweep would be an allocation each.
+// Memory is what costs here (fresh pages), so blocks hold only what every sweep needs.
 const PER_CHUNK = 64;
 let chunk = new Float64Array(0);
 let used = PER_CHUNK;
@@ -20,10 +17,7 @@ function block(): [Float64Array, number] {
     chunk = new Float64Array(PER_CHUNK * BLOCK);
     used = 0;
   }
-  const o = used++ * BLOCK;
-  // NaN marks gds and gmb not yet looked up.
-  chunk.fill(NaN, o + GDS, o + BLOCK);
-  return [chunk, o];
+  return [chunk, used++ * BLOCK];
 }
 
 const buf = new Float64Array(4);
@@ -40,6 +34,8 @@ export class Sweep {
   private readonly o: number;
   // Samples j ≥ low are taken.
   private low = N + 1;
+  // gds, gmb at the samples (rows of N + 1; NaN until looked up), for sweeps whose crossings need them.
+  private sm: Float64Array | undefined;
   /** Cell and fraction of the last crossing found by `atGmid`. */
   j = 0;
   t = 0;
@@ -60,6 +56,11 @@ export class Sweep {
     [this.v, this.o] = block();
   }
 
+  // VGS of sample j (the same expression every time, so the same value).
+  private vgsOf(j: number): number {
+    return this.lo + ((this.hi - this.lo) * j) / N;
+  }
+
   // Take samples down to j (jd and gm only: the same values small() gives, half the work).
   private reach(j: number): void {
     const s = this.slice;
@@ -67,26 +68,26 @@ export class Sweep {
     const o = this.o;
     while (this.low > j) {
       const k = --this.low;
-      const vgs = this.lo + ((this.hi - this.lo) * k) / N;
+      const vgs = this.vgsOf(k);
       const vds = this.mode === 'diode' ? vgs : this.mode;
       if (s.jdGm) s.jdGm(vgs, vds, this.vsb, buf);
       else s.small(vgs, vds, this.vsb, buf);
-      v[o + VGS + k] = vgs;
       v[o + JD + k] = buf[0];
       v[o + GM + k] = buf[1];
-      v[o + GMID + k] = buf[0] > 0 ? buf[1] / buf[0] : Infinity;
     }
   }
 
-  // gds and gmb at sample j (NaN until looked up; a NaN from the table is merely looked up again).
-  private withSmall(j: number): void {
-    const v = this.v;
-    const o = this.o;
-    if (!Number.isNaN(v[o + GDS + j])) return;
-    const vgs = v[o + VGS + j];
-    const r = this.slice.small(vgs, this.mode === 'diode' ? vgs : this.mode, this.vsb, buf);
-    v[o + GDS + j] = r[2];
-    v[o + GMB + j] = r[3];
+  // gds and gmb at sample j (a NaN from the table is merely looked up again).
+  private withSmall(j: number): Float64Array {
+    let sm = this.sm;
+    if (!sm) this.sm = sm = new Float64Array(2 * (N + 1)).fill(NaN);
+    if (Number.isNaN(sm[j])) {
+      const vgs = this.vgsOf(j);
+      const r = this.slice.small(vgs, this.mode === 'diode' ? vgs : this.mode, this.vsb, buf);
+      sm[j] = r[2];
+      sm[N + 1 + j] = r[3];
+    }
+    return sm;
   }
 
   /**
@@ -95,51 +96,61 @@ export class Sweep {
    * `j`, `t`; false when it does not, or jd there is not positive.
    */
   atGmid(target: number, from = N - 1): boolean {
+    if (from < 0) {
+      this.stop = -1;
+      return false;
+    }
+    if (from < this.low) this.reach(from);
     const v = this.v;
-    const g = this.o + GMID;
+    const jd = this.o + JD;
+    const gm = this.o + GM;
+    // gm/ID (Infinity where jd ≤ 0) at sample j + 1 (b) and j (a); b carries over as the next a.
+    let x = v[jd + from + 1];
+    let b = x > 0 ? v[gm + from + 1] / x : Infinity;
     for (let j = from; j >= 0; j--) {
       if (j < this.low) this.reach(j);
-      const a = v[g + j];
-      const b = v[g + j + 1];
+      x = v[jd + j];
+      const a = x > 0 ? v[gm + j] / x : Infinity;
       if (b < target && a >= target) {
         this.stop = j;
         this.j = j;
         this.t = Number.isFinite(a) ? (a - target) / (a - b) : 1;
-        return this.value(JD) > 0;
+        return this.value(v, jd) > 0;
       }
       if (b >= target) {
         this.stop = j;
         return false;
       }
+      b = a;
     }
     this.stop = -1;
     return false;
   }
 
-  // Linear between the samples of the last crossing (no closure: this runs for every option).
-  private value(row: number): number {
-    const v = this.v;
-    const j = this.o + row + this.j;
+  // Linear between the samples of the last crossing in row `row` of `v` (no closure: this runs for every option).
+  private value(v: Float64Array, row: number): number {
+    const j = row + this.j;
     return v[j] + this.t * (v[j + 1] - v[j]);
   }
 
   /** VGS at the last crossing, V. */
   crossVgs(): number {
-    return this.value(VGS);
+    const a = this.vgsOf(this.j);
+    return a + this.t * (this.vgsOf(this.j + 1) - a);
   }
 
   /** jd (per width) at the last crossing, A/m. */
   crossJd(): number {
-    return this.value(JD);
+    return this.value(this.v, this.o + JD);
   }
 
   /** gm, gds, gmb (per width) at the last crossing into out[0..2]. */
   crossSmall(out: Float64Array): void {
     this.withSmall(this.j);
-    this.withSmall(this.j + 1);
-    out[0] = this.value(GM);
-    out[1] = this.value(GDS);
-    out[2] = this.value(GMB);
+    const sm = this.withSmall(this.j + 1);
+    out[0] = this.value(this.v, this.o + GM);
+    out[1] = this.value(sm, 0);
+    out[2] = this.value(sm, N + 1);
   }
 }
 
