@@ -14,7 +14,7 @@ type SliceSweeps = Map<VdsMode, Map<number, Sweep | null>>;
 export type SweepCache = Map<string, unknown>;
 
 // Sweeps depend only on the slice and the bias, so stacks sizing on the same slices share them (keyed by the
-// slice object: they go with it). Past this many in all (about 3 kB each) every one is dropped and rebuilt on demand.
+// slice object: they go with it). Past this many in all (1 to 2 kB each) every one is dropped and rebuilt on demand.
 const MAX_SWEEPS = 8192;
 let shared = new WeakMap<LengthSlice, SliceSweeps>();
 let held = 0;
