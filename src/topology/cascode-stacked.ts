@@ -1,4 +1,5 @@
 import type { StageOption, TopologyDescriptor } from './types.js';
+import { bounds } from './bounds.js';
 
 /** Two devices biased by stacked diodes: the bottom device's VDS equals its VGS. */
 export const cascodeStacked: TopologyDescriptor = {
@@ -20,9 +21,13 @@ export const cascodeStacked: TopologyDescriptor = {
     }
     for (const [x1, bottom] of groups) {
       if (x1 >= t.vmid - 0.05) continue;
+      const bb = bounds(bottom);
       for (const top of t.top(x1)) {
         const a = top.ro;
         const b = 1 + top.gmt * top.ro;
+        // As for the cascode: skip the group when its best case (lowest VGS for the headroom) cannot enter a pool.
+        const best = a + b * bb.ro;
+        if (Number.isFinite(best) && !t.mayWant(bottom.length, bb.area + top.area, best, bb.vgs + top.vdsat, bb.sigma)) continue;
         for (const o of bottom) {
           if (t.wants(o.area + top.area, a + b * o.ro, o.vgs + top.vdsat, o.sigma)) t.keep([o.l, top.l], [o.gmid, top.gmid], []);
         }

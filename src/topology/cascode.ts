@@ -1,4 +1,5 @@
 import type { TopologyDescriptor } from './types.js';
+import { bounds } from './bounds.js';
 
 /** Two devices with low-voltage biasing: the bottom drain sits at a chosen VDS setpoint. */
 export const cascode: TopologyDescriptor = {
@@ -14,11 +15,17 @@ export const cascode: TopologyDescriptor = {
     for (const s1 of t.setpointGrid(0.025)) {
       const bottom = t.prune(t.options({ mode: s1, vsb: 0, lower: true }), t.crit.bottom);
       if (bottom.length === 0) continue;
+      const b = bounds(bottom);
       for (const top of t.top(s1)) {
         const a = top.ro;
-        const b = 1 + top.gmt * top.ro;
+        const g = 1 + top.gmt * top.ro;
+        const hr = s1 + top.vdsat;
+        // Rout grows with ro_bottom and every pool key is monotone: when the best-case bottom cannot enter, none can
+        // (an infinite bound would be refused for not being finite, so it proves nothing).
+        const best = a + g * b.ro;
+        if (Number.isFinite(best) && !t.mayWant(bottom.length, b.area + top.area, best, hr, b.sigma)) continue;
         for (const o of bottom) {
-          if (t.wants(o.area + top.area, a + b * o.ro, s1 + top.vdsat, o.sigma)) t.keep([o.l, top.l], [o.gmid, top.gmid], [s1]);
+          if (t.wants(o.area + top.area, a + g * o.ro, hr, o.sigma)) t.keep([o.l, top.l], [o.gmid, top.gmid], [s1]);
         }
       }
     }

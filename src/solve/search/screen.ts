@@ -96,10 +96,14 @@ class Pools {
   }
 
   candidates(): Candidate[] {
+    // A combination kept by several pools is one object: skip those before building keys.
+    const same = new Set<Candidate>();
     const seen = new Set<string>();
     const out: Candidate[] = [];
     for (const h of this.heaps) {
       for (const c of h.sorted()) {
+        if (same.has(c)) continue;
+        same.add(c);
         const k = candidateKey(c);
         if (!seen.has(k)) {
           seen.add(k);
@@ -111,7 +115,14 @@ class Pools {
   }
 }
 
-const bottomCrit = (ctx: SolveContext) => (o: StageOption) => (ctx.spec.mismatch === undefined ? [o.area, -o.ro] : [o.area, -o.ro, o.sigma]);
+// Criteria of each kind, written out (no spread): prune calls them once per option.
+const bottomCrit = (o: StageOption) => [o.area, -o.ro];
+const bottomCritSigma = (o: StageOption) => [o.area, -o.ro, o.sigma];
+// The stacked bottom's VGS is also its drain voltage, which adds to the headroom.
+const diodeCrit = (o: StageOption) => [o.area, -o.ro, o.vgs];
+const diodeCritSigma = (o: StageOption) => [o.area, -o.ro, o.sigma, o.vgs];
+const midCrit = (o: StageOption) => [o.area, -o.ro, -o.gmt];
+const topCrit = (o: StageOption) => [o.area, -o.ro, -o.gmt, o.vdsat];
 
 /**
  * Screen every combination the topology enumerates with saturation
@@ -125,20 +136,16 @@ export function screen(ctx: SolveContext, topology: Topology): Candidate[] {
   const s = ctx.spec;
   const topVds = (below: number) => Math.max(s.headroom - below, VDS_FLOOR);
   const options = (at: StageBias) => stageOptions(ctx, at);
-  const bottom = bottomCrit(ctx);
-  const crit = {
-    bottom,
-    // The stacked bottom's VGS is also its drain voltage, which adds to the headroom.
-    diode: (o: StageOption) => [...bottom(o), o.vgs],
-    mid: (o: StageOption) => [o.area, -o.ro, -o.gmt],
-    top: (o: StageOption) => [o.area, -o.ro, -o.gmt, o.vdsat],
-  };
-  // The same top-device options recur for every split of the voltage below it.
-  const topMemo = new Map<string, StageOption[]>();
+  const sigma = ctx.spec.mismatch !== undefined;
+  const crit = { bottom: sigma ? bottomCritSigma : bottomCrit, diode: sigma ? diodeCritSigma : diodeCrit, mid: midCrit, top: topCrit };
+  // The same top-device options recur for every split of the voltage below it (by µV of `below`, then grid size).
+  const topMemo = new Map<number, Map<number, StageOption[]>>();
   const top = (below: number, gmids: readonly number[] = ctx.gmids): StageOption[] => {
-    const key = `${below.toFixed(6)}|${gmids.length}`;
-    let t = topMemo.get(key);
-    if (!t) topMemo.set(key, (t = prune(options({ mode: ctx.vmid - below, vsb: below, smallAt: topVds(below), gmids }), crit.top)));
+    const key = Math.round(below * 1e6);
+    let byGrid = topMemo.get(key);
+    if (!byGrid) topMemo.set(key, (byGrid = new Map()));
+    let t = byGrid.get(gmids.length);
+    if (!t) byGrid.set(gmids.length, (t = prune(options({ mode: ctx.vmid - below, vsb: below, smallAt: topVds(below), gmids }), crit.top)));
     return t;
   };
   const tools: ScreenTools = {

@@ -3,26 +3,70 @@ import type { LengthSlice } from '../../device/types.js';
 import { covers, saturationVoltage } from '../../stack/index.js';
 import type { SolveContext } from '../context.js';
 import { pelgromSigma } from '../evaluate/mismatch.js';
-import { atGmid, sweepVgs, type Sweep } from './sweep.js';
+import { SWEEP_TOP, sweepVgs, type Sweep } from './sweep.js';
 
-import { nonDominated } from '../../numeric/pareto.js';
 import type { StageBias, StageOption } from '../../topology/types.js';
 
-export type SweepCache = Map<string, Sweep | null>;
+/** VGS sweeps of one slice by VDS mode, then VSB (exact numbers as keys: a sweep depends on nothing else). */
+type SliceSweeps = Map<VdsMode, Map<number, Sweep | null>>;
 
-function sweepOf(ctx: SolveContext, l: number, mode: VdsMode, vsb: number): Sweep | null {
-  const key = `${l}|${mode}|${vsb.toFixed(4)}`;
-  if (!ctx.sweeps.has(key)) ctx.sweeps.set(key, sweepVgs(ctx.slice(ctx.nominal, l), mode, vsb));
-  return ctx.sweeps.get(key)!;
+/** Formerly the context's VGS sweeps; they are now shared by slice (see `sweepOf`), so this stays empty. */
+export type SweepCache = Map<string, unknown>;
+
+// Sweeps depend only on the slice and the bias, so stacks sizing on the same slices share them (keyed by the
+// slice object: they go with it). Past this many in all (1 to 2 kB each) every one is dropped and rebuilt on demand.
+const MAX_SWEEPS = 8192;
+let shared = new WeakMap<LengthSlice, SliceSweeps>();
+let held = 0;
+
+function sweepOf(slice: LengthSlice, mode: VdsMode, vsb: number): Sweep | null {
+  if (held >= MAX_SWEEPS) {
+    shared = new WeakMap();
+    held = 0;
+  }
+  let byMode = shared.get(slice);
+  if (!byMode) shared.set(slice, (byMode = new Map()));
+  let byVsb = byMode.get(mode);
+  if (!byVsb) byMode.set(mode, (byVsb = new Map()));
+  let s = byVsb.get(vsb);
+  if (s === undefined) {
+    byVsb.set(vsb, (s = sweepVgs(slice, mode, vsb)));
+    held++;
+  }
+  return s;
 }
 
 const buf = new Float64Array(4);
+const small3 = new Float64Array(3);
 
-// Per-width gm, gds, gmb at one bias, null outside the table.
-function smallThere(slice: LengthSlice, vgs: number, vds: number, vsb: number): { gm: number; gds: number; gmb: number } | null {
-  if (!covers(slice, vgs, vds, vsb)) return null;
-  const r = slice.small(vgs, vds, vsb, buf);
-  return { gm: r[1], gds: r[2], gmb: r[3] };
+/**
+ * One device choice; `sat` (a table scan per new VSB) is worked out only when
+ * read, as only lower devices are judged by it.
+ */
+class Option implements StageOption {
+  private satValue = NaN;
+  constructor(
+    readonly l: number,
+    readonly gmid: number,
+    readonly w: number,
+    readonly area: number,
+    readonly vgs: number,
+    readonly ro: number,
+    readonly gmt: number,
+    readonly vdsat: number,
+    readonly sigma: number,
+    sat: number,
+    private readonly slice: LengthSlice,
+    private readonly vsb: number,
+    private readonly ut: number,
+  ) {
+    this.satValue = sat;
+  }
+
+  get sat(): number {
+    if (Number.isNaN(this.satValue)) this.satValue = saturationVoltage(this.slice, this.gmid, this.vsb, this.ut);
+    return this.satValue;
+  }
 }
 
 /**
@@ -41,39 +85,159 @@ export function stageOptions(ctx: SolveContext, at: StageBias): StageOption[] {
   const lower = at.lower === true && ctx.saturation === 'require';
   // VDSsat ≥ 4·UT at any inversion level: no lower device fits below that.
   if (lower && typeof mode === 'number' && mode < 4 * ut) return out;
+  let fit = 0;
   for (const l of ctx.lengths) {
-    const nom = sweepOf(ctx, l, mode, vsb);
-    if (!nom) continue;
     const slice = ctx.slice(ctx.nominal, l);
+    const nom = sweepOf(slice, mode, vsb);
+    if (!nom) continue;
+    // Targets usually ascend: each scan resumes where the last one stopped (see Sweep.stop).
+    let from = SWEEP_TOP;
+    let prev = -Infinity;
     for (const gmid of gmids) {
-      const p = atGmid(nom, gmid);
-      if (!p) continue;
-      // One lookup per option at the other VDS beats a shared sweep there (fewer options than sweep points).
-      const q = smallAt === undefined ? p : smallThere(slice, p.vgs, smallAt, vsb);
-      if (!q) continue;
-      const w = i / p.jd;
+      if (!(gmid >= prev)) from = SWEEP_TOP;
+      prev = gmid;
+      const hit = nom.atGmid(gmid, from);
+      from = nom.stop;
+      if (!hit) continue;
+      const vgs = nom.crossVgs();
+      const w = i / nom.crossJd();
       if (w < ctx.wmin) continue;
-      const sat = saturationVoltage(slice, gmid, vsb, ut);
-      if (lower && sat > (mode === 'diode' ? p.vgs : mode)) continue;
-      out.push({
-        l, gmid, w, area: w * l, vgs: p.vgs,
-        ro: 1 / (q.gds * w),
-        gmt: (q.gm + q.gmb) * w,
-        vdsat: Math.max(2 / gmid, 0.1),
-        sat,
-        sigma: ctx.coeff ? pelgromSigma(gmid, w, l, ctx.coeff) : 0,
-      });
+      const sat = lower ? saturationVoltage(slice, gmid, vsb, ut) : NaN;
+      if (lower && sat > (mode === 'diode' ? vgs : mode)) continue;
+      let gm: number, gds: number, gmb: number;
+      if (smallAt === undefined) {
+        nom.crossSmall(small3);
+        gm = small3[0];
+        gds = small3[1];
+        gmb = small3[2];
+      } else {
+        // One lookup per option at the other VDS beats a shared sweep there (fewer options than sweep points).
+        if (!covers(slice, vgs, smallAt, vsb)) continue;
+        const r = slice.small(vgs, smallAt, vsb, buf);
+        gm = r[1];
+        gds = r[2];
+        gmb = r[3];
+      }
+      const o = new Option(
+        l, gmid, w, w * l, vgs,
+        1 / (gds * w),
+        (gm + gmb) * w,
+        Math.max(2 / gmid, 0.1),
+        ctx.coeff ? pelgromSigma(gmid, w, l, ctx.coeff) : 0,
+        sat, slice, vsb, ut,
+      );
+      if (w <= ctx.wmax) fit++;
+      out.push(o);
     }
   }
   // Options within the width limit when there are any; else all, so the nearest design can show the limit binding.
-  const fit = out.filter((o) => o.w <= ctx.wmax);
-  return fit.length > 0 ? fit : out;
+  return fit > 0 && fit < out.length ? out.filter((o) => o.w <= ctx.wmax) : out;
 }
 
 /**
  * Drop options another option beats on every listed criterion (all to be
  * minimised): lossless for a screen whose estimate is monotone in them.
+ * The same set, in input order, as numeric/pareto's nonDominated (ties all
+ * kept), found faster: in lexicographic order of the criteria anything that
+ * dominates an option comes before it, and so does something non-dominated
+ * that does (dominance is a strict order), so each option is checked against
+ * the front found so far only. With a NaN criterion (no strict order) every pair is compared.
  */
-export function prune<T>(items: readonly T[], crit: (t: T) => number[]): T[] {
-  return nonDominated(items, crit);
+export function prune<T>(items: readonly T[], crit: (t: T) => readonly number[]): T[] {
+  const n = items.length;
+  if (n < 2) return items.slice();
+  const first = crit(items[0]);
+  const k = first.length;
+  const c = new Float64Array(n * k);
+  let nan = false;
+  for (let a = 0; a < n; a++) {
+    const v = a === 0 ? first : crit(items[a]);
+    for (let q = 0; q < k; q++) {
+      const x = v[q];
+      if (Number.isNaN(x)) nan = true;
+      c[a * k + q] = x;
+    }
+  }
+  const keep = new Uint8Array(n);
+  if (nan) everyPair(c, k, n, keep);
+  else if (k === 2) sweepTwo(c, lexOrder(c, k, n), keep);
+  else skyline(c, k, lexOrder(c, k, n), keep);
+  const kept: T[] = [];
+  for (let a = 0; a < n; a++) if (keep[a]) kept.push(items[a]);
+  return kept;
+}
+
+// Indices 0..n−1 in lexicographic order of the rows of c (no NaN in c).
+function lexOrder(c: Float64Array, k: number, n: number): number[] {
+  const order = new Array<number>(n);
+  for (let a = 0; a < n; a++) order[a] = a;
+  return order.sort((a, b) => {
+    for (let q = 0; q < k; q++) {
+      const d = c[a * k + q] - c[b * k + q];
+      // Equal infinities give a NaN difference: equal.
+      if (d !== 0 && d === d) return d;
+    }
+    return 0;
+  });
+}
+
+// keep[a] = 1 for the rows no other row dominates, comparing every pair.
+function everyPair(c: Float64Array, k: number, n: number, keep: Uint8Array): void {
+  for (let a = 0; a < n; a++) {
+    let out = false;
+    for (let b = 0; b < n && !out; b++) out = b !== a && dominates(c, k, b, a);
+    keep[a] = out ? 0 : 1;
+  }
+}
+
+// The same for any k, rows visited in lexicographic order: each checked against the non-dominated rows before it.
+function skyline(c: Float64Array, k: number, order: readonly number[], keep: Uint8Array): void {
+  const front: number[] = [];
+  for (const a of order) {
+    let out = false;
+    for (let f = 0; f < front.length && !out; f++) out = dominates(c, k, front[f], a);
+    if (!out) {
+      front.push(a);
+      keep[a] = 1;
+    }
+  }
+}
+
+/**
+ * The same for two criteria in one pass over the lexicographic order: a row is
+ * dominated by an earlier one with a smaller first criterion and a second no
+ * larger, or with an equal first criterion and a smaller second.
+ */
+function sweepTwo(c: Float64Array, order: readonly number[], keep: Uint8Array): void {
+  // Smallest second criterion over rows with a smaller first one (when there are any).
+  let before = Infinity;
+  let any = false;
+  let i = 0;
+  while (i < order.length) {
+    const x = c[2 * order[i]];
+    // A run of equal first criteria: its first row has the run's smallest second one.
+    const least = c[2 * order[i] + 1];
+    let j = i;
+    for (; j < order.length && c[2 * order[j]] === x; j++) {
+      const y = c[2 * order[j] + 1];
+      if (!(any && before <= y) && !(least < y)) keep[order[j]] = 1;
+    }
+    if (least < before) before = least;
+    any = true;
+    i = j;
+  }
+}
+
+// Row b of c no worse than row a everywhere and strictly better somewhere (NaN compares false).
+function dominates(c: Float64Array, k: number, b: number, a: number): boolean {
+  const ob = b * k;
+  const oa = a * k;
+  let strictly = false;
+  for (let q = 0; q < k; q++) {
+    const x = c[ob + q];
+    const y = c[oa + q];
+    if (x > y) return false;
+    if (x < y) strictly = true;
+  }
+  return strictly;
 }
