@@ -1,10 +1,10 @@
 /**
  * Bundles the compiled CLI (dist/src/cli/main.js) into dist/cli/ as one CommonJS file
  * (stackwright-bundle.cjs: commander, yaml and d3 inlined; each command's code runs only
- * when that command is asked for) and makes V8's code cache for it by one training run.
+ * when that command is asked for) and makes V8's code caches for it by training runs.
  * dist/cli/stackwright.cjs (scripts/cli-launcher.cjs, which `bin` points at) compiles the
- * bundle with that cache, and without it when node rejects it. On node 20 only a
- * CommonJS script can use a code cache (vm.Script cachedData); ES modules are parsed at
+ * bundle with the cache of the command asked for, and without it when node rejects it.
+ * On node 20 only a CommonJS script can use a code cache (vm.Script cachedData); ES modules are parsed at
  * every start, and an ES module entry alone starts node's ESM loader (about 8 ms).
  * dist/cli/stackwright.mjs stays as a one-line ES module that starts the same launcher.
  * The CJS packages loaded only for ingest (papaparse, ml-regression) stay external.
@@ -17,14 +17,26 @@ import { join } from 'node:path';
 import { packageRoot } from '../src/table/locate.js';
 
 export const CLI_BUNDLE = join('dist', 'cli', 'stackwright.cjs');
-/** The bundle beside the launcher; its code cache is this name plus `.cache`. */
+/** The bundle beside the launcher. */
 export const BUNDLE_NAME = 'stackwright-bundle.cjs';
 
-/** What the training run does: parse and check a spec, size it, print the brief account. */
-export const TRAINING_ARGS = ['size', join('demo-tables', 'specs', 'marsh-wren.yaml'), '--brief'];
+/**
+ * The training run of each code cache (see scripts/cli-launcher.cjs): `size` parses and
+ * checks a spec, sizes it and prints the brief account; `other` serves every other command.
+ */
+export const TRAINING: Record<string, string[]> = {
+  size: ['size', join('demo-tables', 'specs', 'marsh-wren.yaml'), '--brief'],
+  probe: ['probe', '--kit', 'demo180', '--device', 'n', '--l', '0.5u', '--gmid', '12'],
+  other: ['--version'],
+};
+
+/** The code cache the launcher uses for a command (`size`, `probe` or `other`). */
+export function codeCacheFile(outdir: string, command: string): string {
+  return join(outdir, `${BUNDLE_NAME}.${command}.cache`);
+}
 
 /**
- * Writes the bundle, its launchers and its code cache to `outdir` (default dist/cli) from
+ * Writes the bundle, its launchers and its code caches to `outdir` (default dist/cli) from
  * `entry` (default the tsc output; the TypeScript source works too) and returns the launcher.
  */
 export async function bundleCli(root = packageRoot(), opts: { entry?: string; outdir?: string } = {}): Promise<string> {
@@ -60,7 +72,7 @@ export async function bundleCli(root = packageRoot(), opts: { entry?: string; ou
   writeFileSync(esmEntry, "#!/usr/bin/env node\nimport { createRequire } from 'node:module';\ncreateRequire(import.meta.url)('./stackwright.cjs');\n");
   chmodSync(esmEntry, 0o755);
 
-  writeCodeCache(root, launcher, `${bundle}.cache`);
+  for (const [command, args] of Object.entries(TRAINING)) writeCodeCache(root, launcher, args, codeCacheFile(outdir, command));
   return launcher;
 }
 
@@ -83,18 +95,18 @@ const lazyChildProcessForCommander: Plugin = {
 };
 
 /**
- * Runs the CLI once with the demo tables so the launcher writes the code cache at exit.
- * Without the demo tables (the first `prepare` builds them after this) the training
- * run stops at the kit and the cache holds less; the CLI works the same either way.
+ * Runs the CLI once so the launcher writes the code cache at exit. `prepare` builds the
+ * demo tables first; without them a training run stops at the kit and its cache holds
+ * less (the CLI works the same either way).
  */
-function writeCodeCache(root: string, launcher: string, cacheFile: string): void {
-  const r = spawnSync(process.execPath, [launcher, ...TRAINING_ARGS], {
+function writeCodeCache(root: string, launcher: string, args: string[], cacheFile: string): void {
+  const r = spawnSync(process.execPath, [launcher, ...args], {
     cwd: root,
     env: { ...process.env, STACKWRIGHT_WRITE_CODE_CACHE: cacheFile, NO_COLOR: '1' },
     stdio: ['ignore', 'ignore', 'pipe'],
     encoding: 'utf8',
   });
-  if (!existsSync(cacheFile)) process.stderr.write(`bundle-cli: no code cache written (the CLI starts without it): ${r.stderr.trim().split('\n').pop() ?? ''}\n`);
+  if (!existsSync(cacheFile)) process.stderr.write(`bundle-cli: no code cache ${cacheFile} (the CLI starts without it): ${r.stderr.trim().split('\n').pop() ?? ''}\n`);
 }
 
 if (process.argv[1] && /bundle-cli\.(js|ts)$/.test(process.argv[1])) {

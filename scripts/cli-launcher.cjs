@@ -1,7 +1,7 @@
 'use strict';
 /**
  * Starts the bundled CLI (stackwright-bundle.cjs beside this file) from V8's code cache
- * (stackwright-bundle.cjs.cache, made by `npm run build` with this machine's node), so
+ * (stackwright-bundle.cjs.<command>.cache, made by `npm run build` with this machine's node), so
  * V8 deserialises the compiled code instead of parsing ~0.5 MB of JavaScript at each
  * start. V8 checks the cache against its own version, flags and the source length and
  * rejects a cache that does not fit (another node, a rebuilt bundle): the script is then
@@ -15,7 +15,9 @@ const { createRequire } = require('node:module');
 const { pathToFileURL } = require('node:url');
 
 const file = join(__dirname, 'stackwright-bundle.cjs');
-const cacheFile = `${file}.cache`;
+// One cache per command the build trained (V8 deserialises a whole cache, so each holds only what its command runs).
+const command = process.argv[2];
+const cacheFile = `${file}.${command === 'size' || command === 'probe' ? command : 'other'}.cache`;
 // esbuild writes ASCII only, so latin1 reads the same text without UTF-8 decoding.
 const source = readFileSync(file, 'latin1');
 let cachedData;
