@@ -11,7 +11,6 @@
 const { readFileSync, writeFileSync } = require('node:fs');
 const { join } = require('node:path');
 const { Script } = require('node:vm');
-const { createRequire } = require('node:module');
 const { pathToFileURL } = require('node:url');
 
 const file = join(__dirname, 'stackwright-bundle.cjs');
@@ -32,4 +31,5 @@ if (process.env.STACKWRIGHT_DEBUG_CODE_CACHE) process.stderr.write(`code cache: 
 // The build writes the cache after a training run, so it holds the functions a run compiles, not only the top level.
 if (process.env.STACKWRIGHT_WRITE_CODE_CACHE === cacheFile) process.once('exit', () => writeFileSync(cacheFile, script.createCachedData()));
 const bundle = { exports: {} };
-script.runInThisContext()(bundle.exports, createRequire(file), bundle, file, __dirname, pathToFileURL(file).href);
+// The bundle lies beside this file, so this file's require resolves its externals (papaparse, ml-regression) alike.
+script.runInThisContext()(bundle.exports, require, bundle, file, __dirname, pathToFileURL(file).href);
