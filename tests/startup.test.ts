@@ -41,6 +41,8 @@ describe('start-up: what size and probe load', () => {
       for (const p of ['papaparse', 'ml-regression', 'd3-scale', 'd3-shape', 'd3-interpolate']) expect(packages.has(p), p).toBe(false);
       const files = [...main.files, ...cmd.files].map((f) => f.slice(REPO.length + 1));
       expect(files.filter((f) => f.startsWith('src/ingest/') || f.startsWith('src/spice/characterise') || f === 'src/report/chart.ts')).toEqual([]);
+      // The simulator runner (child processes, fs/promises) loads only with --spice.
+      expect(files.filter((f) => f === 'src/spice/run.ts' || f.startsWith('src/confirm/'))).toEqual([]);
     });
   }
 });

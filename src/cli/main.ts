@@ -23,7 +23,8 @@ export async function buildProgram(argv: string[] = process.argv): Promise<Comma
   const program = new Command('stackwright');
   program
     .description('gm/ID lookup-table sizing of cascode current sources and sinks from characterisation sweeps.\nSizes are first-cut estimates: verify them with the foundry models across corners before tape-out.')
-    .version(packageVersion())
+    // package.json is read only when the version is asked for (any -V or --version: commander's own rule is narrower).
+    .version(argv.some((a) => a === '--version' || /^-[^-]*V/.test(a)) ? packageVersion() : '')
     .configureOutput({ outputError: () => {} })
     .exitOverride();
   const wanted = argv[2] !== undefined && argv[2] in COMMANDS ? [argv[2]] : Object.keys(COMMANDS);

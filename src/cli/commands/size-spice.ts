@@ -1,6 +1,6 @@
 import type { Command } from 'commander';
 import { StackwrightError } from '../../errors.js';
-import { confirmDesign, type Confirmation, type StageConfirmation } from '../../confirm/index.js';
+import type { Confirmation, StageConfirmation } from '../../confirm/index.js';
 import type { DesignSpec } from '../../design/types.js';
 import type { SizeResult } from '../../solve/types.js';
 import type { KitAccess } from '../../solve/kit.js';
@@ -48,6 +48,8 @@ export function checkSpiceFlags(f: SpiceFlags, given: (flag: string) => boolean)
 
 /** Run the confirmation of stacks and stages (same decks) and merge its fields into the chosen results. */
 export async function confirmRun(spec: DesignSpec, result: SizeResult, kit: KitAccess, f: SpiceFlags): Promise<{ stacks: Confirmation[]; stages: StageConfirmation[] }> {
+  // The simulator code (child processes, temporary folders) loads only with --spice.
+  const { confirmDesign } = await import('../../confirm/design.js');
   let bar = progressBar('ngspice round 1');
   let round = 1;
   const confirmations = await confirmDesign(
