@@ -18,7 +18,8 @@ export async function bundleCli(root = packageRoot()): Promise<string> {
   const outdir = join(root, 'dist', 'cli');
   rmSync(outdir, { recursive: true, force: true });
   await build({
-    entryPoints: { stackwright: join(root, 'dist', 'src', 'cli', 'main.js') },
+    // The sizing worker is an entry of its own, written beside the chunks that start it (size-worker-start.ts).
+    entryPoints: { stackwright: join(root, 'dist', 'src', 'cli', 'main.js'), 'size-worker': join(root, 'dist', 'src', 'solve', 'size-worker.js') },
     outdir,
     bundle: true,
     splitting: true,
