@@ -18,10 +18,11 @@ export const AUTO_TOPOLOGIES = 4;
 
 /**
  * The spec's items in spec order (the order sizeDesign sizes and reports them).
- * Cost: one search per topology tried, each run at every corner.
+ * Cost: one search per topology tried, each run at every corner (`corners`:
+ * how many the spec's resolve to, as 'all' names every corner of the kit).
  */
-export function sizeItems(design: DesignSpec): SizeItem[] {
-  const corners = Math.max(1, design.corners.length);
+export function sizeItems(design: DesignSpec, corners = design.corners.length): SizeItem[] {
+  corners = Math.max(1, corners);
   const per = (auto: boolean) => (auto ? AUTO_TOPOLOGIES : 1) * corners;
   return [
     ...design.stacks.map((s, index): SizeItem => ({ kind: 'stack', index, cost: per(s.topology === 'auto') })),

@@ -48,7 +48,7 @@ export async function sizeSpecParallel(spec: DesignSpec, kit: KitAccess & { dir?
   const spare = [...(opts.workers ?? [])];
   const used: Worker[] = [];
   try {
-    const items = sizeItems(spec);
+    const items = sizeItems(spec, spec.corners.includes('all') ? kit.corners.length : spec.corners.length);
     const threads = threadsFor(items.length, availableParallelism(), opts.jobs);
     if (threads <= 1 || kit.dir === undefined) return sizeSpec(spec, kit);
     // Refuse bad input before any search, as sizeDesign does.
