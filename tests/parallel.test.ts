@@ -11,6 +11,7 @@ import { AUTO_TOPOLOGIES, sizeItems, splitItems, threadsFor, type SizeItem } fro
 import { fromWire, toWire } from '../src/solve/parallel-error.js';
 import { exitCodeFor, StackwrightError } from '../src/errors.js';
 import { jobsArg, mayUseWorkers } from '../src/cli/size-prestart.js';
+import { sizeWorkerUrl } from '../src/solve/size-worker-start.js';
 
 const DEMO = join('demo-tables', 'specs', 'marsh-wren.yaml');
 const tables = () => join(REPO, 'tables');
@@ -93,6 +94,14 @@ describe('parallel sizing plan (pure)', () => {
     expect(mayUseWorkers(argv('--jobs', '1'), 2)).toBe(false);
     expect(mayUseWorkers(argv('--jobs', 'x'), 2)).toBe(false);
     expect(mayUseWorkers(argv('--help'), 2)).toBe(false);
+  });
+
+  it('the worker entry is found beside the code that starts it: source, tsc output and the CLI bundle', () => {
+    expect(sizeWorkerUrl('file:///p/src/solve/size-worker-start.ts').href).toBe('file:///p/src/solve/size-worker.ts');
+    expect(sizeWorkerUrl('file:///p/dist/src/solve/size-worker-start.js').href).toBe('file:///p/dist/src/solve/size-worker.js');
+    // scripts/bundle-cli.ts writes the entry `size-worker` beside the chunks.
+    expect(sizeWorkerUrl('file:///p/dist/cli/chunk-ABC123.mjs').href).toBe('file:///p/dist/cli/size-worker.mjs');
+    expect(readFileSync(join(REPO, 'scripts', 'bundle-cli.ts'), 'utf8')).toMatch(/'size-worker': join\(root, 'dist', 'src', 'solve', 'size-worker\.js'\)/);
   });
 
   it('an error crossing from a worker keeps its message, where and exit status', () => {
