@@ -11,7 +11,7 @@ import { AUTO_TOPOLOGIES, sizeItems, splitItems, threadsFor, type SizeItem } fro
 import { fromWire, toWire } from '../src/solve/parallel-error.js';
 import { exitCodeFor, StackwrightError } from '../src/errors.js';
 import { jobsArg, mayUseWorkers } from '../src/cli/size-prestart.js';
-import { sizeWorkerUrl } from '../src/solve/size-worker-start.js';
+import { sizeWorkerUrl, startSizeWorker } from '../src/solve/size-worker-start.js';
 
 const DEMO = join('demo-tables', 'specs', 'marsh-wren.yaml');
 const tables = () => join(REPO, 'tables');
@@ -214,5 +214,16 @@ describe('parallel sizing gives the serial result (demo180, invented demo kit)',
     }
     expect(serial).toBeInstanceOf(StackwrightError);
     await expect(sizeSpecParallel(spec, kit, { jobs: 2 })).rejects.toMatchObject({ message: (serial as Error).message, kind: (serial as StackwrightError).kind });
+  });
+
+  it('a worker that stopped before taking its share is an internal error (exit 1), not a hang or a half result', async () => {
+    const spec = parseSpec(readFileSync(join(REPO, DEMO), 'utf8'), DEMO);
+    const worker = startSizeWorker();
+    await worker.terminate();
+    const kit = loadKit(spec.kit, { tables: tables() });
+    const err = await sizeSpecParallel(spec, kit, { jobs: 2, workers: [worker] }).then(() => undefined, (e: unknown) => e);
+    expect(err).toBeInstanceOf(StackwrightError);
+    expect((err as Error).message).toMatch(/^size worker stopped/);
+    expect(exitCodeFor(err)).toBe(1);
   });
 });

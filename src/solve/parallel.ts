@@ -15,7 +15,7 @@ import { sizeItems, splitItems, threadsFor } from './parallel-plan.js';
 import { assembleRun, checkDesign } from './parallel-assemble.js';
 import { fromWire } from './parallel-error.js';
 import { sizeShare, type ShareOutcome } from './parallel-share.js';
-import { startSizeWorker } from './size-worker-start.js';
+import { startSizeWorker, workerGone } from './size-worker-start.js';
 import type { ShareRequest } from './size-worker.js';
 
 export interface ParallelOptions {
@@ -29,6 +29,8 @@ export interface ParallelOptions {
 function runOnWorker(worker: Worker, req: ShareRequest): Promise<ShareOutcome> {
   return new Promise((resolve, reject) => {
     const fail = (why: string) => reject(new StackwrightError(`size worker ${why}`, { kind: 'internal' }));
+    const early = workerGone(worker);
+    if (early) return fail(`${early} before its share was given`);
     worker.ref();
     worker.once('message', (m: ShareOutcome) => resolve(m));
     worker.once('error', (e: Error) => fail(`failed: ${e.message}`));

@@ -25,9 +25,17 @@ export function startSizeWorker(): Worker {
   const url = sizeWorkerUrl();
   const worker = url.pathname.endsWith('ts') ? new Worker(fromSource(url), { eval: true }) : new Worker(url);
   worker.unref();
-  // A failure before any work is given surfaces when the share is run (parallel.ts); never as an uncaught event.
-  worker.on('error', () => {});
+  // A failure before any work is given is kept and surfaces when the share is run (parallel.ts), never as an uncaught event.
+  worker.on('error', (e: Error) => gone.set(worker, `failed: ${e.message}`));
+  worker.on('exit', (code) => gone.has(worker) || gone.set(worker, `stopped (exit ${code})`));
   return worker;
+}
+
+const gone = new WeakMap<Worker, string>();
+
+/** Why a started worker can take no work (it failed or stopped), or undefined while it can. */
+export function workerGone(worker: Worker): string | undefined {
+  return gone.get(worker);
 }
 
 /**
