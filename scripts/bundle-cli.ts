@@ -13,7 +13,7 @@
 import { build, type Plugin } from 'esbuild';
 import { spawnSync } from 'node:child_process';
 import { chmodSync, copyFileSync, existsSync, mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
-import { join } from 'node:path';
+import { dirname, extname, join } from 'node:path';
 import { packageRoot } from '../src/table/locate.js';
 
 export const CLI_BUNDLE = join('dist', 'cli', 'stackwright.cjs');
@@ -44,8 +44,9 @@ export async function bundleCli(root = packageRoot(), opts: { entry?: string; ou
   rmSync(outdir, { recursive: true, force: true });
   mkdirSync(outdir, { recursive: true });
   const bundle = join(outdir, BUNDLE_NAME);
+  const entry = opts.entry ?? join(root, 'dist', 'src', 'cli', 'main.js');
   await build({
-    entryPoints: [opts.entry ?? join(root, 'dist', 'src', 'cli', 'main.js')],
+    entryPoints: [entry],
     outfile: bundle,
     bundle: true,
     format: 'cjs',
@@ -59,6 +60,22 @@ export async function bundleCli(root = packageRoot(), opts: { entry?: string; ou
     // The launcher passes the bundle's own URL (see scripts/cli-launcher.cjs).
     define: { 'import.meta.url': '__swImportMetaUrl' },
     plugins: [lazyChildProcessForCommander],
+    logLevel: 'warning',
+  });
+  // The sizing worker (src/solve/size-worker.ts) is a bundle of its own beside the CLI bundle: a worker thread
+  // is started from a file, and size-worker-start.ts finds it by the starter's extension (.cjs -> .mjs here).
+  await build({
+    entryPoints: [join(dirname(entry), '..', 'solve', `size-worker${extname(entry)}`)],
+    outfile: join(outdir, 'size-worker.mjs'),
+    bundle: true,
+    format: 'esm',
+    platform: 'node',
+    target: 'node20',
+    minifyWhitespace: true,
+    minifySyntax: true,
+    charset: 'ascii',
+    external: ['papaparse', 'ml-regression'],
+    banner: { js: "import { createRequire as __swRequire } from 'node:module';\nconst require = __swRequire(import.meta.url);" },
     logLevel: 'warning',
   });
   // main.ts starts with a #! line, which is a syntax error inside the launcher's function wrapper.

@@ -9,6 +9,8 @@
  */
 export { loadKit, type Kit } from './solve/load-kit.js';
 export { sizeStack, sizeDesign, sizeSpec, type SizeRun, type SizeStackResult } from './solve/size.js';
+export { sizeSpecParallel, type ParallelOptions } from './solve/parallel.js';
+export { startSizeWorker } from './solve/size-worker-start.js';
 export { decidingResults } from './solve/choose.js';
 export { portSpec, type PortRun, type PortStack } from './solve/port.js';
 export { sizeStage, type SizeStageResult } from './solve/stage-size.js';

@@ -3,8 +3,8 @@
  * Sizes are first-cut estimates; verify them with the foundry models across
  * corners before tape-out.
  */
-export { loadKit, sizeStack, sizeStage, sizeSpec, portSpec, decidingResults } from './api.js';
-export type { Kit, SizeRun, PortRun, PortStack, PortStage } from './api.js';
+export { loadKit, sizeStack, sizeStage, sizeSpec, sizeSpecParallel, portSpec, decidingResults } from './api.js';
+export type { Kit, SizeRun, ParallelOptions, PortRun, PortStack, PortStage } from './api.js';
 export type { StageResult, StageSide, StagePredicted, StageCurvePoint, StageCorner, StageVerdict, StageTarget, StageSquareLaw, StageFrontPoint } from './solve/stage-types.js';
 export { stageNetlist } from './spice/index.js';
 export { probe, sliceAt, vgsFor, designCurves } from './device/index.js';

@@ -1,6 +1,6 @@
 /** (d) Sizing the demo spec: whole process cold against `node -e 0`, and in process cold and warm. */
 import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { availableParallelism, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { parseSpec } from '../../src/design/index.js';
 import { sizeDesign } from '../../src/solve/index.js';
@@ -13,7 +13,7 @@ import { cliPath } from '../cli-path.js';
 export const DEMO_SPEC = join('demo-tables', 'specs', 'marsh-wren.yaml');
 
 export function benchSize(opts: { root: string; pairs?: number; warmRuns?: number; log?: (s: string) => void }): BenchRow[] {
-  return [wholeProcessRow(opts), stageRow(opts), ...inProcessRows(opts)];
+  return [wholeProcessRow(opts), jobsRow(opts), stageRow(opts), ...inProcessRows(opts)];
 }
 
 /** What a user waits for: `stackwright size SPEC`, spawn to exit, beside bare node start-up. */
@@ -103,6 +103,35 @@ function stageRow(opts: { root: string; pairs?: number; log?: (s: string) => voi
     row.status = 'ERROR';
   } finally {
     rmSync(dir, { recursive: true, force: true });
+  }
+  return row;
+}
+
+/** `size --brief --jobs <cores>` against the default one thread: whole process, interleaved pairs. */
+function jobsRow(opts: { root: string; pairs?: number; log?: (s: string) => void }): BenchRow {
+  const pairs = opts.pairs ?? 5;
+  const cli = cliPath(opts.root);
+  const cores = availableParallelism();
+  const row: BenchRow = {
+    section: 'd size', measured: `size ${DEMO_SPEC} --brief --jobs ${cores}, against one thread (the default)`, unit: 'ms',
+    baseline: null, baselineLabel: 'one thread', ours: null, ratio: null, target: '< 1x with a free core', status: 'SKIP',
+  };
+  if (!existsSync(cli) || cores < 2) {
+    row.note = existsSync(cli) ? 'one core: nothing to compare, skipped' : 'CLI not built: skipped';
+    return row;
+  }
+  try {
+    const p = pairedSpawns([cli, 'size', DEMO_SPEC, '--brief'], [cli, 'size', DEMO_SPEC, '--brief', '--jobs', String(cores)], opts.root, pairs, [0, 3]);
+    row.baseline = p.a.median;
+    row.ours = p.b.median;
+    row.ratio = p.ratio;
+    row.status = verdict(p.ratio, (x) => x < 1);
+    row.note = `${pairs} A/B pairs interleaved, spawn to exit; medians (ranges): one thread ${showSample(p.a)}, --jobs ${cores} ${showSample(p.b)}; ` +
+      `per-pair ratio ${p.ratioRange[0].toFixed(2)}–${p.ratioRange[1].toFixed(2)}; a worker thread pays its own start-up, table reading and JIT warm-up, so it gains only with a core to spare`;
+    opts.log?.(`size threads: one ${showSample(p.a)}, --jobs ${cores} ${showSample(p.b)}`);
+  } catch (e) {
+    row.note = (e as Error).message.split('\n')[0];
+    row.status = 'ERROR';
   }
   return row;
 }

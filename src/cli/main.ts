@@ -35,6 +35,8 @@ export async function buildProgram(argv: string[] = process.argv): Promise<Comma
 
 export async function main(argv: string[]): Promise<number> {
   try {
+    // A sizing worker starts now so its module loading overlaps ours (src/cli/size-prestart.ts).
+    if (argv[2] === 'size') (await import('./size-prestart.js')).prestartSizeWorker(argv);
     const program = await buildProgram(argv);
     await program.parseAsync(argv);
     return process.exitCode === undefined ? EXIT.ok : Number(process.exitCode);

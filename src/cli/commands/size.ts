@@ -1,5 +1,5 @@
 import type { Command } from 'commander';
-import { loadKit, sizeSpec, decidingResults } from '../../api.js';
+import { loadKit, sizeSpecParallel, decidingResults } from '../../api.js';
 import { parseSpec } from '../../design/index.js';
 import { renderSizeText, renderSizeBrief } from '../../report/size-text.js';
 import { bindingText } from '../../report/verdict.js';
@@ -8,7 +8,8 @@ import { decidingStages } from '../../solve/stage-choose.js';
 import { writeFilesAtomic } from '../../fsutil.js';
 import { lengthClamps } from '../../solve/table-cover.js';
 import { lengthClampNotes } from '../../report/notes.js';
-import { EXIT } from '../../errors.js';
+import { EXIT, StackwrightError } from '../../errors.js';
+import { takeEarlyWorkers } from '../size-prestart.js';
 import { note, out, readText, toJson, useColor } from '../io.js';
 import { checkSpiceFlags, confirmRun, spiceOptions, type SpiceFlags } from './size-spice.js';
 import { renderConfirmText } from '../../report/confirm-text.js';
@@ -22,6 +23,14 @@ interface SizeFlags extends SpiceFlags {
   netlist?: string;
   report?: string;
   force?: boolean;
+  jobs?: string;
+}
+
+/** --jobs: threads to size with, a positive whole number. */
+export function parseJobs(value: string | undefined): number | undefined {
+  if (value === undefined) return undefined;
+  if (!/^\s*\d+\s*$/.test(value) || !(Number(value) >= 1)) throw new StackwrightError(`expected a positive whole number of threads, got "${value}"`, { where: '--jobs' });
+  return Number(value);
 }
 
 export function registerSize(program: Command): void {
@@ -35,15 +44,18 @@ export function registerSize(program: Command): void {
     .option('--front <file.csv>', 'write the Pareto front (headroom, Rout, area) as CSV, and an SVG chart per stack beside it')
     .option('--netlist <file.cir>', 'write a SPICE3 netlist of the sized stacks with their bias')
     .option('--report <file.html>', 'write a self-contained HTML report')
-    .option('--force', 'overwrite existing output files');
+    .option('--force', 'overwrite existing output files')
+    .option('--jobs <n>', 'threads to size stacks and stages on (default 1; more than 1 pays only with cores to spare: node already compiles and collects garbage on a second core)');
   spiceOptions(cmd)
     .addHelpText('after', '\nExit status: 0 every stack and stage feasible (and confirmed with --spice), 3 one infeasible (or not confirmed in simulation), 2 bad input.\nExample:\n  stackwright size demo-tables/specs/marsh-wren.yaml --report report.html\n  stackwright size demo-tables/specs/marsh-wren-spice.yaml --spice --include demo-tables/reed180/reed180.lib --model-n nfet_reed --model-p pfet_reed\n')
     .action(async (specPath: string, f: SizeFlags) => {
       checkSpiceFlags(f, (flag) => cmd.getOptionValueSource(flag) === 'cli');
+      const jobs = parseJobs(f.jobs) ?? 1;
+      const workers = takeEarlyWorkers();
       const source = readText(specPath, 'spec file');
       const spec = parseSpec(source, specPath);
       const kit = loadKit(spec.kit, { tables: f.tables });
-      const run = sizeSpec(spec, kit);
+      const run = await sizeSpecParallel(spec, kit, { jobs, workers });
       const notes = lengthClampNotes(lengthClamps(spec.stacks, kit, run.result.corners[0]));
       const confirmed = f.spice ? await confirmRun(spec, run.result, kit, f) : undefined;
 
