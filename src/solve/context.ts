@@ -6,7 +6,6 @@ import { cornerUt } from './evaluate/temperature.js';
 import { midSpan } from '../policy.js';
 import type { KitAccess } from './kit.js';
 import { gmidGrid, lengthGrid } from './search/grid.js';
-import type { SweepCache } from './search/stage-options.js';
 import { formatEng } from '../units/index.js';
 import { widthLimit } from './width.js';
 import type { Reuse } from './search/reuse.js';
@@ -48,8 +47,6 @@ export interface SolveContext {
    */
   saturation: 'require' | 'report';
   count: Counts;
-  /** VGS sweeps by length, VDS mode and VSB on the nominal corner, shared by this stack's topologies. */
-  sweeps: SweepCache;
   /** Evaluations of the same candidates under another width limit, re-judged rather than repeated (fitsWithin). */
   reuse?: Reuse;
 }
@@ -118,6 +115,5 @@ export function makeContext(spec: StackSpec, kit: KitAccess, supply: number, cor
     currentLimit: wmax * peakDensity(slice(nominal, lmin)),
     saturation: 'require',
     count: { screened: 0, rated: 0, exact: 0, triode: 0, narrow: 0 },
-    sweeps: new Map(),
   };
 }

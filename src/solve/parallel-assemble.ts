@@ -1,25 +1,11 @@
 /**
- * Putting a spec's sizing back together from its items sized apart, and the
- * checks sizeDesign makes on the whole spec before any search (so a parallel
- * run refuses bad input with the same message, before any item is sized).
+ * Putting a spec's sizing back together from its items sized apart (the whole-spec
+ * checks before any item is sized are size.ts's checkDesign, shared with sizeDesign).
  */
 import { StackwrightError } from '../errors.js';
-import { resolveCorners } from '../design/index.js';
 import type { DesignSpec } from '../design/types.js';
-import type { KitAccess } from './kit.js';
-import { checkStageCover, checkTableCover } from './table-cover.js';
 import type { SizeRun } from './size.js';
 import type { SizeResult } from './types.js';
-
-/** sizeDesign's checks of the whole spec, in its order (kit, corners, every stack's and stage's table cover). */
-export function checkDesign(design: DesignSpec, kit: KitAccess): void {
-  if (design.kit !== kit.kit) {
-    throw new StackwrightError(`spec asks for kit "${design.kit}" but the tables are for "${kit.kit}"`, { where: `${design.file}: kit` });
-  }
-  const corners = resolveCorners(design, kit.corners);
-  design.stacks.forEach((s, i) => checkTableCover(s, kit, corners, design.supply, `${design.file}: stacks[${i}]`));
-  (design.stages ?? []).forEach((s) => checkStageCover(s, kit, corners, design.supply, `${design.file}: supply`));
-}
 
 /**
  * The run of the whole spec from the runs of its items (each from itemDesign),

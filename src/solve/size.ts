@@ -160,14 +160,22 @@ export function sizeStack(spec: StackSpec, kit: KitAccess, opts: { supply: numbe
  * (resolved against the kit: default nominal, "all" for every corner). With
  * topology 'auto' each topology gets a result and the chosen one has `chosen: true`.
  */
-export function sizeDesign(design: DesignSpec, kit: KitAccess): SizeResult & { fronts: Record<string, FrontPoint[]>; stageFronts?: Record<string, StageFrontPoint[]> } {
+/**
+ * The whole-spec checks made before any search (kit, corners, table cover of every stack and stage), so a spec
+ * the tables cannot describe fails first. Returns the resolved corners. Shared by sizeDesign and sizeSpecParallel.
+ */
+export function checkDesign(design: DesignSpec, kit: KitAccess): string[] {
   if (design.kit !== kit.kit) {
     throw new StackwrightError(`spec asks for kit "${design.kit}" but the tables are for "${kit.kit}"`, { where: `${design.file}: kit` });
   }
   const corners = resolveCorners(design, kit.corners);
-  // Every stack first, so a spec the tables cannot describe fails before any search.
   design.stacks.forEach((s, i) => checkTableCover(s, kit, corners, design.supply, `${design.file}: stacks[${i}]`));
   (design.stages ?? []).forEach((s, i) => checkStageCover(s, kit, corners, design.supply, `${design.file}: supply`, `${design.file}: stages[${i}]`));
+  return corners;
+}
+
+export function sizeDesign(design: DesignSpec, kit: KitAccess): SizeResult & { fronts: Record<string, FrontPoint[]>; stageFronts?: Record<string, StageFrontPoint[]> } {
+  const corners = checkDesign(design, kit);
   const stacks: StackResult[] = [];
   const fronts: Record<string, FrontPoint[]> = {};
   for (const s of design.stacks) {

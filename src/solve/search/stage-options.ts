@@ -10,8 +10,6 @@ import type { StageBias, StageOption } from '../../topology/types.js';
 /** VGS sweeps of one slice by VDS mode, then VSB (exact numbers as keys: a sweep depends on nothing else). */
 type SliceSweeps = Map<VdsMode, Map<number, Sweep | null>>;
 
-/** Formerly the context's VGS sweeps; they are now shared by slice (see `sweepOf`), so this stays empty. */
-export type SweepCache = Map<string, unknown>;
 
 // Sweeps depend only on the slice and the bias, so stacks sizing on the same slices share them (keyed by the
 // slice object: they go with it). Past this many in all (1 to 2 kB each) every one is dropped and rebuilt on demand.
