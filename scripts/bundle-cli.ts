@@ -10,7 +10,7 @@
  * The CJS packages loaded only for ingest (papaparse, ml-regression) stay external.
  * `npm run build` and `prepare` run it after tsc.
  */
-import { build, type Plugin } from 'esbuild';
+import { build, type BuildOptions, type Plugin } from 'esbuild';
 import { spawnSync } from 'node:child_process';
 import { chmodSync, copyFileSync, existsSync, mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { dirname, extname, join } from 'node:path';
@@ -45,38 +45,28 @@ export async function bundleCli(root = packageRoot(), opts: { entry?: string; ou
   mkdirSync(outdir, { recursive: true });
   const bundle = join(outdir, BUNDLE_NAME);
   const entry = opts.entry ?? join(root, 'dist', 'src', 'cli', 'main.js');
+  // Less text to read and hash; names are kept so an internal error's stack stays readable.
+  const common: BuildOptions = {
+    bundle: true, platform: 'node', target: 'node20', minifyWhitespace: true, minifySyntax: true, charset: 'ascii',
+    external: ['papaparse', 'ml-regression'], logLevel: 'warning',
+  };
   await build({
+    ...common,
     entryPoints: [entry],
     outfile: bundle,
-    bundle: true,
     format: 'cjs',
-    platform: 'node',
-    target: 'node20',
-    // Less text to read and hash; names are kept so an internal error's stack stays readable.
-    minifyWhitespace: true,
-    minifySyntax: true,
-    charset: 'ascii',
-    external: ['papaparse', 'ml-regression'],
     // The launcher passes the bundle's own URL (see scripts/cli-launcher.cjs).
     define: { 'import.meta.url': '__swImportMetaUrl' },
     plugins: [lazyChildProcessForCommander],
-    logLevel: 'warning',
   });
   // The sizing worker (src/solve/size-worker.ts) is a bundle of its own beside the CLI bundle: a worker thread
   // is started from a file, and size-worker-start.ts finds it by the starter's extension (.cjs -> .mjs here).
   await build({
+    ...common,
     entryPoints: [join(dirname(entry), '..', 'solve', `size-worker${extname(entry)}`)],
     outfile: join(outdir, 'size-worker.mjs'),
-    bundle: true,
     format: 'esm',
-    platform: 'node',
-    target: 'node20',
-    minifyWhitespace: true,
-    minifySyntax: true,
-    charset: 'ascii',
-    external: ['papaparse', 'ml-regression'],
     banner: { js: "import { createRequire as __swRequire } from 'node:module';\nconst require = __swRequire(import.meta.url);" },
-    logLevel: 'warning',
   });
   // main.ts starts with a #! line, which is a syntax error inside the launcher's function wrapper.
   writeFileSync(bundle, readFileSync(bundle, 'latin1').replace(/^#!/, '//'), 'latin1');
