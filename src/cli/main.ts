@@ -56,6 +56,13 @@ export async function main(argv: string[]): Promise<number> {
   }
 }
 
+// A reader that stops early (`stackwright kits | head -1`) closes the pipe: stop quietly, as Unix tools do (common
+// practice), instead of dying on an unhandled EPIPE with a stack trace.
+process.stdout.on('error', (e: NodeJS.ErrnoException) => {
+  if (e.code !== 'EPIPE') throw e;
+  process.exit(process.exitCode ?? EXIT.ok);
+});
+
 main(process.argv).then((code) => {
   process.exitCode = code;
 });
