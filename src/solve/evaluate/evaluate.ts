@@ -9,7 +9,7 @@ import type { SolveContext } from '../context.js';
 import { marginsOf, saturationMargin, type Margins } from './checks.js';
 import { currentMargin, distanceToFeasible, meetsAll } from '../../policy.js';
 import { pelgromSigma } from './mismatch.js';
-import { CURVE_INTERVALS, SCAN_INTERVALS, evaluateFrom, evaluateStack, midPoint, type StackEval } from './stack-eval.js';
+import { CURVE_INTERVALS, SCAN_INTERVALS, evaluateFrom, evaluateStack, midPoint, type MidPoint, type StackEval } from './stack-eval.js';
 
 /** The same design re-evaluated at another corner with the gates its bias diodes produce there. */
 export interface CornerEval {
@@ -57,25 +57,51 @@ export function sigmaFor(coeff: MismatchCoefficients | undefined, ev: StackEval)
   return pelgromSigma(b.gm / b.id, d.w, d.slice.l, coeff);
 }
 
+/** A candidate sized on the nominal corner (the table's answer, null when it cannot realise it). */
+function sizeOf(ctx: SolveContext, cand: Candidate): { slices: LengthSlice[]; sized: SizedStack | null } {
+  const slices = cand.l.map((l) => ctx.slice(ctx.nominal, l));
+  const sized = sizeStackDevices({
+    shape: topologyOf(cand.topology), slices, gmid: cand.gmid, setpoints: cand.setpoints, current: ctx.spec.current, vmid: ctx.vmid,
+  });
+  return { slices, sized };
+}
+
+/** Where every exact evaluation of a candidate starts: its sizing and its mid-span DC solve on the nominal corner. */
+export interface Start {
+  slices: LengthSlice[];
+  sized: SizedStack;
+  devices: StackDevice[];
+  mid: MidPoint;
+}
+
+/**
+ * The start of a candidate, or why there is none: 'none' when the table cannot realise it, 'narrow' when a device
+ * would be narrower than the minimum width. Throws a 'range' error where the tables end (callers use rangeSafe).
+ */
+export function startOf(ctx: SolveContext, cand: Candidate): Start | 'none' | 'narrow' {
+  const { slices, sized } = sizeOf(ctx, cand);
+  if (!sized) return 'none';
+  if (sized.w.some((w) => w < ctx.wmin * (1 - 1e-9))) return 'narrow';
+  const devices: StackDevice[] = slices.map((slice, k) => ({ slice, w: sized.w[k] }));
+  const mid = midPoint(devices, sized.gates, ctx.vmid, { i: ctx.spec.current, nodes: sized.nodes }, ctx.ut(ctx.nominal));
+  return mid ? { slices, sized, devices, mid } : 'none';
+}
+
 /**
  * Size and evaluate one candidate exactly; null when the table cannot realise
  * it, a device would be narrower than the minimum width (bias diodes first try
  * longer lengths), or a device below the top one is not saturated at mid-span.
+ * `start`, when the caller already has it (a quick look), spares its sizing and mid-span solve.
  */
-export function evaluateCandidate(ctx: SolveContext, cand: Candidate): Evaluated | null {
+export function evaluateCandidate(ctx: SolveContext, cand: Candidate, start?: Start): Evaluated | null {
   ctx.count.exact++;
   return rangeSafe(() => {
-    const shape = topologyOf(cand.topology);
-    const slices = cand.l.map((l) => ctx.slice(ctx.nominal, l));
-    const sized = sizeStackDevices({
-      shape, slices, gmid: cand.gmid, setpoints: cand.setpoints, current: ctx.spec.current, vmid: ctx.vmid,
-    });
-    if (!sized) return null;
-    if (sized.w.some((w) => w < ctx.wmin * (1 - 1e-9))) return reject(ctx, 'narrow');
-    const devices: StackDevice[] = slices.map((slice, k) => ({ slice, w: sized.w[k] }));
-    const m = midPoint(devices, sized.gates, ctx.vmid, { i: ctx.spec.current, nodes: sized.nodes }, ctx.ut(ctx.nominal));
-    if (!m) return null;
+    const st = start ?? startOf(ctx, cand);
+    if (st === 'none') return null;
+    if (st === 'narrow') return reject(ctx, 'narrow');
+    const { slices, sized, devices, mid: m } = st;
     if (ctx.saturation === 'require' && saturationMargin(m) < 0) return reject(ctx, 'triode');
+    const shape = topologyOf(cand.topology);
     const bias = biasDevices(shape, slices, sized.gates, ctx.ib, {
       wmin: ctx.wmin, lengths: ctx.lengths, slice: (l) => ctx.slice(ctx.nominal, l),
     });
@@ -94,10 +120,7 @@ export function evaluateCandidate(ctx: SolveContext, cand: Candidate): Evaluated
 
 /** ΣW·L of a candidate from its sizing alone (no DC solves); NaN when the table cannot realise it. */
 export function candidateArea(ctx: SolveContext, cand: Candidate): number {
-  const sized = rangeSafe(() => sizeStackDevices({
-    shape: topologyOf(cand.topology), slices: cand.l.map((l) => ctx.slice(ctx.nominal, l)),
-    gmid: cand.gmid, setpoints: cand.setpoints, current: ctx.spec.current, vmid: ctx.vmid,
-  }));
+  const sized = rangeSafe(() => sizeOf(ctx, cand).sized);
   if (!sized) return NaN;
   let a = 0;
   for (let k = 0; k < sized.w.length; k++) a += sized.w[k] * cand.l[k];

@@ -1,11 +1,9 @@
-import { sampleAt, sizeStackDevices, type StackDevice } from '../../stack/index.js';
-import { topologyOf } from '../../topology/index.js';
+import { sampleAt } from '../../stack/index.js';
 import { currentMargin } from '../../policy.js';
 import type { SolveContext } from '../context.js';
 import { saturationMargin } from '../evaluate/checks.js';
 import { pelgromSigma } from '../evaluate/mismatch.js';
-import { rangeSafe } from '../evaluate/evaluate.js';
-import { midPoint } from '../evaluate/stack-eval.js';
+import { rangeSafe, startOf, type Start } from '../evaluate/evaluate.js';
 import type { Candidate } from './candidate.js';
 
 // A Rout figure counts as surely below a value only this far below it, so the DC solve's own tolerance (the
@@ -14,6 +12,8 @@ const ROUT_SLACK = 1e-3;
 
 /** What a candidate's sizing and mid-span DC solve (plus one solve at the headroom target) surely show. */
 export interface Look {
+  /** The sizing and mid-span solve the look made: the exact evaluation continues from them (evaluateCandidate). */
+  start: Start;
   /** Widest output device, m. */
   widest: number;
   /** The current window, the mismatch budget or a lower device's saturation is missed (margins fixed at mid-span). */
@@ -26,7 +26,7 @@ export interface Look {
 }
 
 /**
- * The look at a candidate, done the way evaluateCandidate starts (same sizing, same mid-span solve); null when it
+ * The look at a candidate, from the start every exact evaluation makes (startOf: sizing, mid-span solve); null when it
  * cannot tell (not realisable, or a lower device below VDSsat when saturation is required: the exact evaluation
  * rejects those itself, cheaply).
  */
@@ -36,15 +36,10 @@ export function lookAt(ctx: SolveContext, c: Candidate): Look | null {
 
 function look(ctx: SolveContext, c: Candidate): Look | null {
   const s = ctx.spec;
-  const slices = c.l.map((l) => ctx.slice(ctx.nominal, l));
-  const sized = sizeStackDevices({
-    shape: topologyOf(c.topology), slices, gmid: c.gmid, setpoints: c.setpoints, current: s.current, vmid: ctx.vmid,
-  });
-  if (!sized || sized.w.some((w) => w < ctx.wmin * (1 - 1e-9))) return null;
-  const devices: StackDevice[] = slices.map((slice, k) => ({ slice, w: sized.w[k] }));
+  const start = startOf(ctx, c);
+  if (typeof start === 'string') return null;
+  const { devices, sized, mid: m } = start;
   const widest = Math.max(...sized.w);
-  const m = midPoint(devices, sized.gates, ctx.vmid, { i: s.current, nodes: sized.nodes }, ctx.ut(ctx.nominal));
-  if (!m) return null;
   let midMiss = currentMargin(m.mid.i, s.current) < 0;
   if (saturationMargin(m) < 0) {
     if (ctx.saturation === 'require') return null;
@@ -62,7 +57,7 @@ function look(ctx: SolveContext, c: Candidate): Look | null {
     }
     return rout;
   };
-  return { widest, midMiss, routAtTargetHeadroom };
+  return { start, widest, midMiss, routAtTargetHeadroom };
 }
 
 /** The look shows Rout at the headroom target surely below `r` (so the exact Rout figure is too). */

@@ -2,7 +2,7 @@ import { topologyOf } from '../../topology/index.js';
 import type { Candidate } from './candidate.js';
 import { candidateKey } from './candidate.js';
 import type { SolveContext } from '../context.js';
-import { candidateArea, evaluateCandidate, fullyOk, nominalOk, type Evaluated } from '../evaluate/evaluate.js';
+import { candidateArea, evaluateCandidate, fullyOk, nominalOk, type Evaluated, type Start } from '../evaluate/evaluate.js';
 import { REL_TOL } from '../../policy.js';
 import { better } from './rank.js';
 import { rejudged, type Reuse, type Seen } from './reuse.js';
@@ -10,17 +10,20 @@ import { lookAt, surelyMisses, type Look } from './quick.js';
 
 export type { Seen };
 
-/** The candidate's evaluation: from `seen`, else re-judged from ctx.reuse, else evaluated exactly (and remembered in both). */
-export function evaluateOnce(ctx: SolveContext, c: Candidate, seen: Seen): Evaluated | null {
+/**
+ * The candidate's evaluation: from `seen`, else re-judged from ctx.reuse, else evaluated exactly (and remembered
+ * in both), continuing from `start` when a quick look already made it.
+ */
+export function evaluateOnce(ctx: SolveContext, c: Candidate, seen: Seen, start?: Start): Evaluated | null {
   const k = candidateKey(c);
-  if (!seen.has(k)) seen.set(k, ctx.reuse ? reusedOrEvaluated(ctx, ctx.reuse, k, c) : evaluateCandidate(ctx, c));
+  if (!seen.has(k)) seen.set(k, ctx.reuse ? reusedOrEvaluated(ctx, ctx.reuse, k, c, start) : evaluateCandidate(ctx, c, start));
   return seen.get(k)!;
 }
 
-function reusedOrEvaluated(ctx: SolveContext, reuse: Reuse, k: string, c: Candidate): Evaluated | null {
+function reusedOrEvaluated(ctx: SolveContext, reuse: Reuse, k: string, c: Candidate, start?: Start): Evaluated | null {
   const known = reuse.lookup(k);
   if (known !== undefined) return rejudged(ctx, known);
-  const e = evaluateCandidate(ctx, c);
+  const e = evaluateCandidate(ctx, c, start);
   reuse.store(k, e);
   return e;
 }
@@ -135,11 +138,12 @@ function memoOf(seen: Seen): Memo {
  * them to the pool: for uses of the pool beyond "is anything better than a design meeting every target".
  */
 export function settle(ctx: SolveContext, seen: Seen, pool: Evaluated[]): void {
-  const d = memos.get(seen)?.deferred;
-  if (!d) return;
+  const memo = memos.get(seen);
+  if (!memo) return;
+  const d = memo.deferred;
   for (const [k, c] of d) {
     if (seen.has(k)) continue;
-    const e = evaluateOnce(ctx, c, seen);
+    const e = evaluateOnce(ctx, c, seen, memo.looks.get(k)?.start);
     if (e) pool.push(e);
   }
   d.clear();
@@ -194,7 +198,7 @@ function climb(
         continue;
       }
       if (hopeless && ruledOut(key, n)) continue;
-      const e = evaluateOnce(ctx, n, seen);
+      const e = evaluateOnce(ctx, n, seen, memo.looks.get(key)?.start);
       if (!e) continue;
       pool.push(e);
       if (better(e, best)) {
