@@ -10,10 +10,9 @@ import { availableParallelism } from 'node:os';
 import { StackwrightError } from '../errors.js';
 import type { DesignSpec } from '../design/types.js';
 import type { KitAccess } from './kit.js';
-import { sizeSpec, type SizeRun } from './size.js';
+import { checkDesign, sizeSpec, type SizeRun } from './size.js';
 import { sizeItems, splitItems, threadsFor } from './parallel-plan.js';
 import { assembleRun } from './parallel-assemble.js';
-import { checkDesign } from './size.js';
 import { fromWire } from './parallel-error.js';
 import { sizeShare, type ShareOutcome } from './parallel-share.js';
 import { startSizeWorker, workerGone } from './size-worker-start.js';
@@ -51,11 +50,10 @@ export async function sizeSpecParallel(spec: DesignSpec, kit: KitAccess & { dir?
   const spare = [...(opts.workers ?? [])];
   const used: Worker[] = [];
   try {
-    const items = sizeItems(spec, spec.corners.includes('all') ? kit.corners.length : spec.corners.length);
+    // Refuse bad input before any search, as sizeDesign does; the resolved corners weigh each item's cost.
+    const items = sizeItems(spec, checkDesign(spec, kit).length);
     const threads = threadsFor(items.length, availableParallelism(), opts.jobs);
     if (threads <= 1 || kit.dir === undefined) return sizeSpec(spec, kit);
-    // Refuse bad input before any search, as sizeDesign does.
-    checkDesign(spec, kit);
     const [mine, ...theirs] = splitItems(items, threads);
     const remote = theirs.map((positions) => {
       const worker = spare.shift() ?? startSizeWorker();
