@@ -1,9 +1,11 @@
 import type { Topology } from '../design/types.js';
 import type { SolveContext } from './context.js';
-import { finalize, type Evaluated } from './evaluate/evaluate.js';
-import { evaluateOnce, refine, settle, type Hopeless, type Seen } from './search/refine.js';
-import { routSurelyBelow } from './search/quick.js';
+import { finalize, type Evaluated, type Start } from './evaluate/evaluate.js';
+import { defer, evaluateOnce, lookOnce, refine, settle, type Hopeless, type Seen } from './search/refine.js';
+import { routSurelyBelow, routSurelyBelowAt, type Look } from './search/quick.js';
 import { screen } from './search/screen.js';
+import { candidateKey } from './search/candidate.js';
+import { SCAN_INTERVALS } from './evaluate/stack-eval.js';
 
 /** The nearest reachable points of an infeasible stack, over the whole allowed design space. */
 export interface Nearest {
@@ -77,24 +79,70 @@ function bestOf(pool: readonly Evaluated[], prefer: (a: Evaluated, b: Evaluated)
 }
 
 /**
+ * The lowest point of the scan's voltage grid (SCAN_INTERVALS steps up to span) at or above v: a design whose
+ * targets fail at a scanned point has its exact headroom above that point.
+ */
+function scanPointAtOrAbove(span: number, v: number): number {
+  const n = SCAN_INTERVALS;
+  let j = Math.ceil((v * n) / span);
+  while ((span * j) / n < v) j++;
+  return (span * j) / n;
+}
+
+/**
+ * A lifted proposal that surely changes nothing the nearest points read: not physical (Rout at the headroom target
+ * surely short of the target, so neither the Rout/headroom pair nor the width question can use it), and surely
+ * outside the two best by lower headroom and by higher Rout that seed the climbs (the pool already holds two usable
+ * designs; this one is not usable, or its targets fail at a scanned point above the second-lowest headroom and its
+ * Rout at the headroom target is below the second-highest). The pool only gains designs, so the second-best figures
+ * only improve and the judgement stays true. A climb that reaches it evaluates it then (or rules it out surely).
+ */
+function outOfReach(ctx: SolveContext, l: Look | null, pool: readonly Evaluated[]): boolean {
+  if (!l || !routSurelyBelow(l, ctx.spec.rout)) return false;
+  const [, h2] = bestOf(pool, lowerHeadroom, 2);
+  const [, r2] = bestOf(pool, higherRout, 2);
+  if (!h2 || !r2 || !usable(h2) || !usable(r2)) return false;
+  if (l.midMiss || l.widest > ctx.wmax) return true;
+  const h = h2.nominal.headroom;
+  if (!Number.isFinite(h) || !routSurelyBelow(l, r2.nominal.routAtTarget)) return false;
+  return routSurelyBelowAt(l, scanPointAtOrAbove(ctx.spec.span, h), ctx.spec.rout);
+}
+
+/**
+ * The screen again with the headroom target lifted towards mid-span (so the VDS setpoints may use all the room below
+ * it), each proposal evaluated exactly at the spec's own targets unless a quick look shows it out of reach
+ * (left for settle).
+ */
+function liftedScreen(ctx: SolveContext, topology: Topology, pool: Evaluated[], seen: Seen): void {
+  const lifted = Math.max(ctx.spec.headroom, ctx.vmid - 0.05);
+  if (!(lifted > ctx.spec.headroom)) return;
+  const wide: SolveContext = { ...ctx, spec: { ...ctx.spec, headroom: lifted, objective: 'headroom' } };
+  for (const c of screen(wide, topology)) {
+    const k = candidateKey(c);
+    let start: Start | undefined;
+    if (!seen.has(k)) {
+      const l = lookOnce(ctx, seen, k, c);
+      if (outOfReach(ctx, l, pool)) {
+        defer(seen, k, c);
+        continue;
+      }
+      start = l?.start;
+    }
+    const e = evaluateOnce(ctx, c, seen, start);
+    if (e) pool.push(e);
+  }
+}
+
+/**
  * A dedicated scan for the nearest points, independent of where the sizing
- * search happened to look: the screen again with the headroom target lifted
- * towards mid-span (so the VDS setpoints may use all the room below it),
- * every proposal evaluated exactly at the spec's own targets, then a climb
- * towards each question from its best few designs.
+ * search happened to look: the lifted screen (above), then a climb towards
+ * each question from its best few designs.
  */
 export function nearestPoints(
   ctx: SolveContext, topology: Topology, pool: Evaluated[], seen: Seen,
   fitsWithin?: (wmax: number) => number | null,
 ): Nearest {
-  const lifted = Math.max(ctx.spec.headroom, ctx.vmid - 0.05);
-  if (lifted > ctx.spec.headroom) {
-    const wide: SolveContext = { ...ctx, spec: { ...ctx.spec, headroom: lifted, objective: 'headroom' } };
-    for (const c of screen(wide, topology)) {
-      const e = evaluateOnce(ctx, c, seen);
-      if (e) pool.push(e);
-    }
-  }
+  liftedScreen(ctx, topology, pool, seen);
   const hr = refine(ctx, bestOf(pool, lowerHeadroom, 2), seen, pool, lowerHeadroom, midMissFromUsable);
   const ro = refine(ctx, seedsOf(ctx, pool, seen, higherRout, usable), seen, pool, higherRout, routBelowFromUsable(ctx));
   // The figures come from the full curve, as every reported design's do, so they match wherever shown.

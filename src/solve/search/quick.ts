@@ -23,6 +23,8 @@ export interface Look {
    * span]) is at most this. One more DC solve, done on first use only.
    */
   routAtTargetHeadroom(): number;
+  /** Rout at stack voltage v, Ω (NaN when not solved): one more DC solve per call. */
+  routAt(v: number): number;
 }
 
 /**
@@ -57,12 +59,21 @@ function look(ctx: SolveContext, c: Candidate): Look | null {
     }
     return rout;
   };
-  return { start, widest, midMiss, routAtTargetHeadroom };
+  const routAt = (v: number): number => {
+    const at = rangeSafe(() => sampleAt(devices, sized.gates, v, m.mid));
+    return at && Number.isFinite(at.rout) ? at.rout : NaN;
+  };
+  return { start, widest, midMiss, routAtTargetHeadroom, routAt };
 }
 
 /** The look shows Rout at the headroom target surely below `r` (so the exact Rout figure is too). */
 export function routSurelyBelow(l: Look, r: number): boolean {
   return l.routAtTargetHeadroom() < r * (1 - ROUT_SLACK);
+}
+
+/** The look shows Rout at stack voltage v surely below `r` (one more DC solve). */
+export function routSurelyBelowAt(l: Look, v: number, r: number): boolean {
+  return l.routAt(v) < r * (1 - ROUT_SLACK);
 }
 
 /**

@@ -133,8 +133,22 @@ function memoOf(seen: Seen): Memo {
   return m;
 }
 
+/** The quick look at a candidate, made once per search (the climbs and settle use the same). */
+export function lookOnce(ctx: SolveContext, seen: Seen, key: string, c: Candidate): Look | null {
+  const looks = memoOf(seen).looks;
+  let l = looks.get(key);
+  if (l === undefined) looks.set(key, (l = lookAt(ctx, c)));
+  return l;
+}
+
+/** Leave a candidate unevaluated for now; settle evaluates it with the rest the climbs skipped. */
+export function defer(seen: Seen, key: string, c: Candidate): void {
+  memoOf(seen).deferred.set(key, c);
+}
+
 /**
- * Evaluate exactly every move the climbs skipped because it could not meet the targets (see climb), adding
+ * Evaluate exactly every move the climbs skipped because it could not meet the targets (see climb), and every
+ * candidate left deferred by a caller (defer), adding
  * them to the pool: for uses of the pool beyond "is anything better than a design meeting every target".
  */
 export function settle(ctx: SolveContext, seen: Seen, pool: Evaluated[]): void {
