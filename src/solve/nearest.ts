@@ -142,6 +142,8 @@ export function nearestPoints(
   ctx: SolveContext, topology: Topology, pool: Evaluated[], seen: Seen,
   fitsWithin?: (wmax: number) => number | null,
 ): Nearest {
+  // What the sizing search left unevaluated, then the lifted screen: only what the nearest points may read.
+  settle(ctx, seen, pool, (l) => outOfReach(ctx, l, pool));
   liftedScreen(ctx, topology, pool, seen);
   const hr = refine(ctx, bestOf(pool, lowerHeadroom, 2), seen, pool, lowerHeadroom, midMissFromUsable);
   const ro = refine(ctx, seedsOf(ctx, pool, seen, higherRout, usable), seen, pool, higherRout, routBelowFromUsable(ctx));

@@ -101,7 +101,6 @@ function sizeTopology(ctx: SolveContext, topology: Topology): { result: StackRes
   const nearOf = (r: NonNullable<typeof run>) => () => {
     // The bisection's searches share their evaluations with each other and with this one.
     const reuse = reuseOf(r.seen);
-    settle(ctx, r.seen, r.pool);
     return nearestPoints(ctx, topology, r.pool, r.seen, (w) => fitsWithin(ctx, topology, w, reuse));
   };
   if (run) return { result: stackResult(ctx, run.best, run.pool, counted, nearOf(run)), pool: run.pool };

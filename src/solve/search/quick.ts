@@ -1,5 +1,5 @@
 import { sampleAt } from '../../stack/index.js';
-import { currentMargin } from '../../policy.js';
+import { marginsFor, type Margins } from '../../policy.js';
 import type { SolveContext } from '../context.js';
 import { saturationMargin } from '../evaluate/checks.js';
 import { pelgromSigma } from '../evaluate/mismatch.js';
@@ -18,6 +18,8 @@ export interface Look {
   widest: number;
   /** The current window, the mismatch budget or a lower device's saturation is missed (margins fixed at mid-span). */
   midMiss: boolean;
+  /** The margins fixed at mid-span and by the sizing: the exact evaluation's own (the same solve and widths). */
+  fixed: Pick<Margins, 'iout' | 'mismatch' | 'saturation' | 'width'>;
   /**
    * Rout at the headroom target, Ω (NaN when not solved): the exact Rout figure (lowest over [target headroom,
    * span]) is at most this. One more DC solve, done on first use only.
@@ -42,15 +44,14 @@ function look(ctx: SolveContext, c: Candidate): Look | null {
   if (typeof start === 'string') return null;
   const { devices, sized, mid: m } = start;
   const widest = Math.max(...sized.w);
-  let midMiss = currentMargin(m.mid.i, s.current) < 0;
-  if (saturationMargin(m) < 0) {
-    if (ctx.saturation === 'require') return null;
-    midMiss = true;
-  }
-  if (s.mismatch !== undefined && ctx.coeff) {
-    const b = m.mid.devices[0];
-    if (pelgromSigma(b.gm / b.id, devices[0].w, devices[0].slice.l, ctx.coeff) > s.mismatch) midMiss = true;
-  }
+  const saturation = saturationMargin(m);
+  if (saturation < 0 && ctx.saturation === 'require') return null;
+  const b = m.mid.devices[0];
+  const sigma = ctx.coeff ? pelgromSigma(b.gm / b.id, devices[0].w, devices[0].slice.l, ctx.coeff) : undefined;
+  // As marginsOf makes them.
+  const { iout, mismatch, width } = marginsFor(s, { rout: 0, headroom: Infinity, iout: m.mid.i, sigma, saturation, width: widest });
+  const fixed = { iout, mismatch, saturation, width };
+  const midMiss = iout < 0 || saturation < 0 || (s.mismatch !== undefined && sigma !== undefined && sigma > s.mismatch);
   let rout: number | undefined;
   const routAtTargetHeadroom = (): number => {
     if (rout === undefined) {
@@ -63,7 +64,7 @@ function look(ctx: SolveContext, c: Candidate): Look | null {
     const at = rangeSafe(() => sampleAt(devices, sized.gates, v, m.mid));
     return at && Number.isFinite(at.rout) ? at.rout : NaN;
   };
-  return { start, widest, midMiss, routAtTargetHeadroom, routAt };
+  return { start, widest, midMiss, fixed, routAtTargetHeadroom, routAt };
 }
 
 /** The look shows Rout at the headroom target surely below `r` (so the exact Rout figure is too). */
@@ -74,6 +75,23 @@ export function routSurelyBelow(l: Look, r: number): boolean {
 /** The look shows Rout at stack voltage v surely below `r` (one more DC solve). */
 export function routSurelyBelowAt(l: Look, v: number, r: number): boolean {
   return l.routAt(v) < r * (1 - ROUT_SLACK);
+}
+
+// One target's shortfall as distanceToFeasible counts it.
+const shortOf = (x: number) => Math.min(Math.max(0, -x), 50);
+
+/**
+ * The exact nominal shortfall (distanceToFeasible of the margins; other corners only add to a design's) is surely
+ * above `x`: the fixed margins are the evaluation's own, Rout's is at least the miss at the headroom target (solved
+ * only when the rest does not decide), headroom's at least 0. Summed in distanceToFeasible's order, so each
+ * term and the rounding of the sum are no larger than the exact ones.
+ */
+export function shortfallSurelyAbove(ctx: SolveContext, l: Look, x: number): boolean {
+  const f = l.fixed;
+  const sum = (rout: number) => shortOf(rout) + 0 + shortOf(f.iout) + shortOf(f.mismatch) + shortOf(f.saturation) + shortOf(f.width);
+  if (sum(Infinity) > x) return true;
+  const r = l.routAtTargetHeadroom();
+  return r > 0 && sum(Math.log((r * (1 + ROUT_SLACK)) / ctx.spec.rout)) > x;
 }
 
 /**

@@ -4,9 +4,9 @@ import { candidateKey } from './candidate.js';
 import type { SolveContext } from '../context.js';
 import { candidateArea, evaluateCandidate, fullyOk, nominalOk, type Evaluated, type Start } from '../evaluate/evaluate.js';
 import { REL_TOL } from '../../policy.js';
-import { better } from './rank.js';
+import { better, shortfall } from './rank.js';
 import { rejudged, type Reuse, type Seen } from './reuse.js';
-import { lookAt, surelyMisses, type Look } from './quick.js';
+import { lookAt, shortfallSurelyAbove, surelyMisses, type Look } from './quick.js';
 
 export type { Seen };
 
@@ -101,8 +101,9 @@ export function refine(
   // With the spec's own order and objective area, a move whose area is no smaller than a design meeting every
   // target cannot win: its area (from the sizing alone) spares the exact evaluation.
   const bound = prefer ? () => Infinity : (b: Evaluated) => (ctx.spec.objective === 'area' && nominalOk(b) && fullyOk(ctx, b) ? b.area : Infinity);
-  // By the spec's order nothing short of the nominal targets beats a design meeting every target.
-  if (!prefer) hopeless = (l, b) => nominalOk(b) && fullyOk(ctx, b) && surelyMisses(ctx, l);
+  // By the spec's order nothing short of the nominal targets beats a design meeting every target; short of them,
+  // a move beats one only with a smaller shortfall in rank.better's 0.02 steps.
+  if (!prefer) hopeless = (l, b) => (nominalOk(b) && fullyOk(ctx, b) ? surelyMisses(ctx, l) : shortfallSurelyAbove(ctx, l, stepTop(shortfall(ctx, b))));
   prefer ??= (a, b) => better(ctx, a, b);
   let best: Evaluated | undefined;
   for (const seed of seeds) {
@@ -110,6 +111,11 @@ export function refine(
     if (!best || prefer(local, best)) best = local;
   }
   return best;
+}
+
+// The largest shortfall that rank.better still rounds to the same 0.02 step as x (less a hair for rounding).
+function stepTop(x: number): number {
+  return (Math.round(x / 0.02) + 0.5) * 0.02 + 1e-9;
 }
 
 /**
@@ -148,19 +154,22 @@ export function defer(seen: Seen, key: string, c: Candidate): void {
 
 /**
  * Evaluate exactly every move the climbs skipped because it could not meet the targets (see climb), and every
- * candidate left deferred by a caller (defer), adding
- * them to the pool: for uses of the pool beyond "is anything better than a design meeting every target".
+ * candidate left deferred by a caller (defer), adding them to the pool: for uses of the pool beyond "is anything
+ * better than a design meeting every target". With `stays`, a candidate whose look it accepts stays deferred (the
+ * caller answers for that, as for `defer`).
  */
-export function settle(ctx: SolveContext, seen: Seen, pool: Evaluated[]): void {
+export function settle(ctx: SolveContext, seen: Seen, pool: Evaluated[], stays?: (l: Look | null) => boolean): void {
   const memo = memos.get(seen);
   if (!memo) return;
   const d = memo.deferred;
   for (const [k, c] of d) {
-    if (seen.has(k)) continue;
-    const e = evaluateOnce(ctx, c, seen, memo.looks.get(k)?.start);
-    if (e) pool.push(e);
+    if (!seen.has(k)) {
+      if (stays && stays(lookOnce(ctx, seen, k, c))) continue;
+      const e = evaluateOnce(ctx, c, seen, memo.looks.get(k)?.start);
+      if (e) pool.push(e);
+    }
+    d.delete(k);
   }
-  d.clear();
 }
 
 function climb(
