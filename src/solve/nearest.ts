@@ -49,15 +49,31 @@ function higherRout(a: Evaluated, b: Evaluated): boolean {
 }
 
 /*
- * Moves the climbs below leave unevaluated: only from a usable design (so the pool keeps a saturated one), and only
- * moves surely neither usable nor physical (a mid-span miss) or, climbing Rout, surely below both the target and
- * the climb's Rout. The report reads the pool for saturated and physical designs only, so these change nothing
+ * Moves the climbs below leave unevaluated, each surely no better than the climb's best and surely changing nothing
+ * the report or a later climb reads. Climbing headroom and Rout: only from a usable design (so the pool keeps a
+ * saturated one), and only moves surely neither usable nor physical (a mid-span miss; too wide with Rout short at
+ * the headroom target), or, climbing Rout, surely below both the target and the climb's Rout, or, climbing headroom,
+ * not physical, failing at a scanned point above the climb's headroom and surely outside the two best by Rout (the
+ * Rout climb's seeds). The report reads the pool for saturated and physical designs only, so these change nothing
  * there; the seeds of a later climb are the best two by an order putting usable (or physical) designs first, so
- * the pool is settled before one only when it holds fewer than two such designs.
+ * the pool is settled before one only when it holds fewer than two such designs. Climbing width from a physical
+ * design: moves not physical, or no narrower.
  */
-const midMissFromUsable: Hopeless = (l, best) => usable(best) && l.midMiss;
+const headroomHopeless = (ctx: SolveContext, pool: readonly Evaluated[]): Hopeless => (l, best) => {
+  if (!usable(best)) return false;
+  if (l.midMiss) return true;
+  if (!routSurelyBelow(l, ctx.spec.rout)) return false;
+  if (l.widest > ctx.wmax) return true;
+  const h = best.nominal.headroom;
+  if (!Number.isFinite(h)) return false;
+  const [, r2] = bestOf(pool, higherRout, 2);
+  if (!r2 || !usable(r2) || !routSurelyBelow(l, r2.nominal.routAtTarget)) return false;
+  return routSurelyBelowAt(l, scanPointAtOrAbove(ctx.spec.span, h), ctx.spec.rout);
+};
 const routBelowFromUsable = (ctx: SolveContext): Hopeless => (l, best) =>
-  usable(best) && (l.midMiss || routSurelyBelow(l, Math.min(best.nominal.routAtTarget, ctx.spec.rout)));
+  usable(best) && (l.midMiss || routSurelyBelow(l, Math.min(best.nominal.routAtTarget, ctx.spec.rout)) || (l.widest > ctx.wmax && routSurelyBelow(l, ctx.spec.rout)));
+const widerFromPhysical = (ctx: SolveContext): Hopeless => (l, best) =>
+  physical(best) && (l.midMiss || l.widest >= widestOf(best) || routSurelyBelow(l, ctx.spec.rout));
 
 /** The best k of the pool by `prefer`, after settling skipped moves when fewer than two designs are of `first`'s kind. */
 function seedsOf(ctx: SolveContext, pool: Evaluated[], seen: Seen, prefer: (a: Evaluated, b: Evaluated) => boolean, first: (e: Evaluated) => boolean): Evaluated[] {
@@ -145,14 +161,14 @@ export function nearestPoints(
   // What the sizing search left unevaluated, then the lifted screen: only what the nearest points may read.
   settle(ctx, seen, pool, (l) => outOfReach(ctx, l, pool));
   liftedScreen(ctx, topology, pool, seen);
-  const hr = refine(ctx, bestOf(pool, lowerHeadroom, 2), seen, pool, lowerHeadroom, midMissFromUsable);
+  const hr = refine(ctx, bestOf(pool, lowerHeadroom, 2), seen, pool, lowerHeadroom, headroomHopeless(ctx, pool));
   const ro = refine(ctx, seedsOf(ctx, pool, seen, higherRout, usable), seen, pool, higherRout, routBelowFromUsable(ctx));
   // The figures come from the full curve, as every reported design's do, so they match wherever shown.
   if (hr) finalize(ctx, hr);
   if (ro) finalize(ctx, ro);
   let narrowest: number | undefined;
   if (pool.some(physical) && !pool.some((e) => physical(e) && e.margins.width >= 0)) {
-    const w = refine(ctx, seedsOf(ctx, pool, seen, narrower, physical), seen, pool, narrower);
+    const w = refine(ctx, seedsOf(ctx, pool, seen, narrower, physical), seen, pool, narrower, widerFromPhysical(ctx));
     if (w && physical(w)) narrowest = widestOf(w);
     // The climb follows one design; bisect on the limit with the whole search for the edge itself.
     let lo = ctx.wmax;
