@@ -19,7 +19,8 @@ export interface StackEval {
   gates: number[];
   devices: StackDevice[];
   mid: StackOp;
-  curve: CurveSample[];
+  /** The I–V curve's points (their operating points are dropped once evaluated: designs keep only these figures). */
+  curve: CurvePoint[];
   /** Provided headroom, V (Infinity when never met). */
   headroom: number;
   /** Lowest Rout over [spec.headroom, span], Ω. */
@@ -31,6 +32,9 @@ export interface StackEval {
   /** Table-derived VDSsat of each device at mid-span (EKV interpolation), V. */
   vdsat: number[];
 }
+
+/** One point of an evaluated curve: stack voltage, current and Rout (NaN where the table cannot cover it). */
+export type CurvePoint = Pick<CurveSample, 'v' | 'i' | 'rout'>;
 
 /** Intervals of the reported curve (≥ 60 points); the full curve from 0 V is kept only at this resolution. */
 export const CURVE_INTERVALS = 64;
@@ -85,7 +89,9 @@ export function evaluateFrom(devices: StackDevice[], gates: number[], spec: Stac
   const { v: headroom, sample: atHeadroom } = headroomPoint(devices, gates, curve, target, atTarget);
   const routAtTarget = minRout(curve, atTarget);
   const rout = Number.isFinite(headroom) && headroom > spec.headroom ? minRout(curve, atHeadroom?.v === headroom ? atHeadroom : exactAt(devices, gates, curve, headroom)) : routAtTarget;
-  return { gates, devices, mid, curve, headroom, routAtTarget, rout, iout: mid.i, vdsat };
+  const points: CurvePoint[] = new Array(curve.length);
+  for (let j = 0; j < curve.length; j++) points[j] = { v: curve[j].v, i: curve[j].i, rout: curve[j].rout };
+  return { gates, devices, mid, curve: points, headroom, routAtTarget, rout, iout: mid.i, vdsat };
 }
 
 /** One stack to evaluate: devices at their widths, absolute gates in stack coordinates, against a spec. */
