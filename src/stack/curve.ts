@@ -1,9 +1,7 @@
 import { StackwrightError } from '../errors.js';
 import type { StackDevice, StackOp } from './types.js';
 import { solveOperatingPoint } from './operating.js';
-import { bracketedOperatingPoint } from './bracketed.js';
-import { newtonSolve, solutionOf, type Solution } from './newton.js';
-import { PackedOp, gdsAt, gmAt, gmbAt, packOp } from './packed-op.js';
+import { PackedOp, gdsAt, gmAt, gmbAt, nodeAt, packedOperatingPoint, packedRout } from './packed-op.js';
 import { routAt } from './rout.js';
 import { formatEng } from '../units/index.js';
 
@@ -63,7 +61,7 @@ export function sampleAt(devices: readonly StackDevice[], gates: readonly number
       const op = solveOperatingPoint(devices, gates, v, guess ? continued(guess, v) : undefined);
       return { v, i: op.i, rout: routAt(op), op };
     }
-    // Newton into the solver's working arrays, from a start written into `start`: nothing is built unless it converges.
+    // The start is written into `start` (continueInto), and nothing but the packed answer is built.
     let i0 = 0;
     let count = 0;
     if (guess) {
@@ -71,13 +69,8 @@ export function sampleAt(devices: readonly StackDevice[], gates: readonly number
       if (start.length < count) start = new Float64Array(count);
       i0 = continueInto(guess, v, start);
     }
-    const i = newtonSolve(devices, gates, v, i0, start, count);
-    if (Number.isNaN(i)) {
-      const op = bracketedOperatingPoint(devices, gates, v);
-      return { v, i: op.i, rout: routAt(op), op };
-    }
-    const sol = solutionOf(n);
-    return { v, i, rout: solutionRout(sol, n), op: packOp(n, v, i, sol) };
+    const op = packedOperatingPoint(devices, gates, v, i0, start, count);
+    return { v, i: op.i, rout: op instanceof PackedOp ? packedRout(op) : routAt(op), op };
   } catch (e) {
     if (e instanceof StackwrightError && e.kind === 'range') return { v, i: NaN, rout: NaN, op: null };
     throw e;
@@ -86,17 +79,6 @@ export function sampleAt(devices: readonly StackDevice[], gates: readonly number
 
 // The start of the next solve (continueInto writes it, newtonSolve reads it at once).
 let start = new Float64Array(8);
-
-/** routOf over a solution's devices (the same recurrence, the same order of operations). */
-function solutionRout(s: Solution, n: number): number {
-  let vs = 0;
-  for (let k = 0; k < n; k++) {
-    const gds = s.gds[k];
-    if (!(gds > 0)) return Infinity;
-    vs += (1 + (s.gm[k] + s.gmb[k]) * vs) / gds;
-  }
-  return vs;
-}
 
 // Within this distance of a solved point the tangent predicts the next one (Newton then needs fewer steps).
 const TANGENT_SPAN = 0.25;
@@ -167,11 +149,11 @@ function continuePacked(op: PackedOp, v: number, out: Float64Array): number {
     }
     const rout = z;
     if (ok && rout > 0 && Number.isFinite(rout)) {
-      for (let k = 1; k < n; k++) out[k] = Math.min(Math.max(p[k] + (dv * out[k]) / rout, out[k - 1]), v);
+      for (let k = 1; k < n; k++) out[k] = Math.min(Math.max(p[nodeAt(k)] + (dv * out[k]) / rout, out[k - 1]), v);
       return Math.max(op.i + dv / rout, 0.5 * op.i);
     }
   }
   const ratio = op.v > 0 ? Math.min(v / op.v, 1) : 1;
-  for (let k = 0; k <= n; k++) out[k] = Math.max(0, Math.min(p[k], v - (op.v - p[k]) * ratio));
+  for (let k = 0; k <= n; k++) out[k] = Math.max(0, Math.min(p[nodeAt(k)], v - (op.v - p[nodeAt(k)]) * ratio));
   return op.i;
 }
