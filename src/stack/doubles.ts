@@ -5,6 +5,11 @@ const templates: number[][] = [];
 /** A new array of `n` numbers (contents unspecified until written), stored unboxed. */
 export function doubles(n: number): number[] {
   let t = templates[n];
-  if (t === undefined) templates[n] = t = new Array<number>(n).fill(0.5);
+  if (t === undefined) {
+    // Built by push: packed storage (no holes to check on reads), which the copies keep.
+    t = [];
+    for (let k = 0; k < n; k++) t.push(0.5);
+    templates[n] = t;
+  }
   return t.slice();
 }
