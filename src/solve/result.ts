@@ -9,7 +9,7 @@ import { meetsAll, reportedHeadroom } from '../policy.js';
 import type { Nearest } from './nearest.js';
 import { verdict, verdictOf, type Verdict } from './evaluate/verdict.js';
 import { ensureCorners, nominalOk, type Evaluated } from './evaluate/evaluate.js';
-import type { StackEval } from './evaluate/stack-eval.js';
+import { curveFigures, type StackEval } from './evaluate/stack-eval.js';
 
 /** Absolute voltage to ground of a stack-coordinate voltage. */
 export function absolute(device: Polarity, supply: number, x: number): number {
@@ -34,7 +34,7 @@ export function predictedOf(ev: StackEval | null, area: number, biasArea: number
 }
 
 export function curveOf(ev: StackEval, device: Polarity, supply: number): CurvePoint[] {
-  return ev.curve.map((c) => ({ v: c.v, vout: absolute(device, supply, c.v), iout: c.i, rout: c.rout }));
+  return curveFigures(ev).map((c) => ({ v: c.v, vout: absolute(device, supply, c.v), iout: c.i, rout: c.rout }));
 }
 
 function devicesOf(e: Evaluated, device: Polarity, supply: number): DeviceResult[] {
@@ -133,7 +133,7 @@ function nearestMiss(ctx: SolveContext, best: Evaluated, nearest: { headroomAtRo
   if (r >= s.rout && Number.isFinite(h)) return verdict('headroom', s.headroom, h, undefined, ctx.nominal);
   if (r >= s.rout) {
     // Rout is there at the target, but no design keeps its current in the window up to the span.
-    const top = best.nominal.curve[best.nominal.curve.length - 1];
+    const top = curveFigures(best.nominal).at(-1);
     return verdict('iout', best.nominal.iout, top?.i, s.span, ctx.nominal);
   }
   return verdict('rout', s.rout, r > 0 ? r : undefined, s.headroom, ctx.nominal);

@@ -1,6 +1,7 @@
 import { StackwrightError } from '../errors.js';
 import type { StackDevice, StackOp } from './types.js';
 import { solveOperatingPoint } from './operating.js';
+import { PackedOp, gdsAt, gmAt, gmbAt, nodeAt, packedOperatingPoint, packedRout } from './packed-op.js';
 import { routAt } from './rout.js';
 import { formatEng } from '../units/index.js';
 
@@ -54,13 +55,30 @@ export function stackCurve(
 /** One curve sample at v, NaN where the table cannot cover it. */
 export function sampleAt(devices: readonly StackDevice[], gates: readonly number[], v: number, guess?: StackOp): CurveSample {
   try {
-    const op = solveOperatingPoint(devices, gates, v, guess ? continued(guess, v) : undefined);
-    return { v, i: op.i, rout: routAt(op), op };
+    const n = devices.length;
+    // One device, or bad input: the general solve (it says what is wrong).
+    if (n < 2 || gates.length !== n || !(v >= 0) || !Number.isFinite(v)) {
+      const op = solveOperatingPoint(devices, gates, v, guess ? continued(guess, v) : undefined);
+      return { v, i: op.i, rout: routAt(op), op };
+    }
+    // The start is written into `start` (continueInto), and nothing but the packed answer is built.
+    let i0 = 0;
+    let count = 0;
+    if (guess) {
+      count = guess instanceof PackedOp ? guess.n + 1 : guess.nodes.length;
+      if (start.length < count) start = new Float64Array(count);
+      i0 = continueInto(guess, v, start);
+    }
+    const op = packedOperatingPoint(devices, gates, v, i0, start, count);
+    return { v, i: op.i, rout: op instanceof PackedOp ? packedRout(op) : routAt(op), op };
   } catch (e) {
     if (e instanceof StackwrightError && e.kind === 'range') return { v, i: NaN, rout: NaN, op: null };
     throw e;
   }
 }
+
+// The start of the next solve (continueInto writes it, newtonSolve reads it at once).
+let start = new Float64Array(8);
 
 // Within this distance of a solved point the tangent predicts the next one (Newton then needs fewer steps).
 const TANGENT_SPAN = 0.25;
@@ -72,12 +90,22 @@ const TANGENT_SPAN = 0.25;
  * in saturation, so keep them, shrinking the share above each node with v.
  */
 export function continued(op: StackOp, v: number): { i: number; nodes: number[] } {
+  const count = op instanceof PackedOp ? op.n + 1 : op.nodes.length;
+  const out = new Float64Array(count);
+  const i = continueInto(op, v, out);
+  const nodes = new Array<number>(count);
+  for (let k = 0; k < count; k++) nodes[k] = out[k];
+  return { i, nodes };
+}
+
+/** continued, writing the nodes into `out` (as many as the point has) and returning the current. */
+function continueInto(op: StackOp, v: number, out: Float64Array): number {
+  if (op instanceof PackedOp) return continuePacked(op, v, out);
   const n = op.nodes.length - 1;
   const dv = v - op.v;
   if (op.devices.length === n && n > 0 && Math.abs(dv) <= TANGENT_SPAN) {
-    const nodes = new Array<number>(n + 1);
-    nodes[0] = 0;
-    nodes[n] = v;
+    out[0] = 0;
+    out[n] = v;
     let z = 0;
     let ok = true;
     for (let k = 0; k < n; k++) {
@@ -87,14 +115,45 @@ export function continued(op: StackOp, v: number): { i: number; nodes: number[] 
         break;
       }
       z += (1 + (d.gm + d.gmb) * z) / d.gds;
-      if (k < n - 1) nodes[k + 1] = z;
+      if (k < n - 1) out[k + 1] = z;
     }
     const rout = z;
     if (ok && rout > 0 && Number.isFinite(rout)) {
-      for (let k = 1; k < n; k++) nodes[k] = Math.min(Math.max(op.nodes[k] + (dv * nodes[k]) / rout, nodes[k - 1]), v);
-      return { i: Math.max(op.i + dv / rout, 0.5 * op.i), nodes };
+      for (let k = 1; k < n; k++) out[k] = Math.min(Math.max(op.nodes[k] + (dv * out[k]) / rout, out[k - 1]), v);
+      return Math.max(op.i + dv / rout, 0.5 * op.i);
     }
   }
   const ratio = op.v > 0 ? Math.min(v / op.v, 1) : 1;
-  return { i: op.i, nodes: op.nodes.map((x) => Math.max(0, Math.min(x, v - (op.v - x) * ratio))) };
+  const nodes = op.nodes;
+  for (let k = 0; k <= n; k++) out[k] = Math.max(0, Math.min(nodes[k], v - (op.v - nodes[k]) * ratio));
+  return op.i;
+}
+
+// The same, reading the packed values.
+function continuePacked(op: PackedOp, v: number, out: Float64Array): number {
+  const { n, p } = op;
+  const dv = v - op.v;
+  if (n > 0 && Math.abs(dv) <= TANGENT_SPAN) {
+    out[0] = 0;
+    out[n] = v;
+    let z = 0;
+    let ok = true;
+    for (let k = 0; k < n; k++) {
+      const gds = p[gdsAt(n, k)];
+      if (!(gds > 0)) {
+        ok = false;
+        break;
+      }
+      z += (1 + (p[gmAt(n, k)] + p[gmbAt(n, k)]) * z) / gds;
+      if (k < n - 1) out[k + 1] = z;
+    }
+    const rout = z;
+    if (ok && rout > 0 && Number.isFinite(rout)) {
+      for (let k = 1; k < n; k++) out[k] = Math.min(Math.max(p[nodeAt(k)] + (dv * out[k]) / rout, out[k - 1]), v);
+      return Math.max(op.i + dv / rout, 0.5 * op.i);
+    }
+  }
+  const ratio = op.v > 0 ? Math.min(v / op.v, 1) : 1;
+  for (let k = 0; k <= n; k++) out[k] = Math.max(0, Math.min(p[nodeAt(k)], v - (op.v - p[nodeAt(k)]) * ratio));
+  return op.i;
 }

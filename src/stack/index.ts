@@ -3,6 +3,8 @@ export { covers, outsideSlice } from './range.js';
 export { solveOperatingPoint } from './operating.js';
 export { routAt, routOf } from './rout.js';
 export { stackCurve, sampleAt, type CurveSample } from './curve.js';
+export { packedOperatingPoint, PackedOp } from './packed-op.js';
+export { doubles } from './doubles.js';
 export { findHeadroom, headroomPoint, holds, type HeadroomTarget, type HeadroomPoint } from './headroom.js';
 export { gmidAt, vgsForGmid, vgsForCurrent, vgsWindow, type VdsMode } from './invert.js';
 export { sizeStackDevices, type StackDesign, type SizedStack } from './sizing.js';

@@ -64,7 +64,9 @@ const MEMO_LIMIT = 4096;
 function searchVgsForGmid(slice: LengthSlice, target: number, mode: VdsMode, vsb: number): number | null {
   const win = vgsWindow(slice, mode, vsb);
   if (!win) return null;
-  const [lo, hi] = win;
+  // Indexed, not destructured: destructuring runs the iterator protocol (an allocation) in unoptimised code.
+  const lo = win[0];
+  const hi = win[1];
   const f = (vgs: number) => gmidAt(slice, vgs, vdsOf(mode, vgs), vsb) - target;
   let b = hi;
   if (f(b) >= 0) return null;
@@ -116,7 +118,8 @@ export function illinois(f: (x: number) => number, a: number, b: number, tol: nu
 export function vgsForCurrent(slice: LengthSlice, w: number, i: number, mode: VdsMode, vsb: number): number | null {
   const win = vgsWindow(slice, mode, vsb);
   if (!win) return null;
-  let [a, b] = win;
+  let a = win[0];
+  let b = win[1];
   const f = (vgs: number) => w * slice.jd(vgs, vdsOf(mode, vgs), vsb) - i;
   if (f(b) < 0 || f(a) > 0) return null;
   for (let it = 0; it < 60 && b - a > 1e-12; it++) {

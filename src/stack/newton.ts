@@ -1,5 +1,4 @@
 import type { DeviceBias, OpGuess, StackDevice, StackOp } from './types.js';
-import { emptyBias, evalDevice } from './evaluate-device.js';
 import { covers } from './range.js';
 
 const MAX_ITER = 40;
@@ -12,16 +11,25 @@ const MAX_STEP = 0.1;
  * it leaves the table or does not converge, so the caller can fall back.
  */
 export function newtonOperatingPoint(devices: readonly StackDevice[], gates: readonly number[], v: number, guess: OpGuess): StackOp | null {
+  const i = newtonSolve(devices, gates, v, guess.i, guess.nodes, guess.nodes.length);
+  return Number.isNaN(i) ? null : opOf(devices.length, v, i, scratchFor(devices.length));
+}
+
+/**
+ * newtonOperatingPoint without building the result: the current, NaN when it fails; the nodes and each device's
+ * bias and small-signal values are left in the solution of the chain length (solutionOf), valid until the next
+ * solve. The first `count` entries of `nodes` are the start (missing ones spread evenly). Allocates nothing once warm.
+ */
+export function newtonSolve(devices: readonly StackDevice[], gates: readonly number[], v: number, i0: number, nodes: ArrayLike<number>, count: number): number {
   const n = devices.length;
-  const x = new Array<number>(n + 1);
+  const w = scratchFor(n);
+  const { r, dx, x } = w;
   x[0] = 0;
   x[n] = v;
-  for (let k = 1; k < n; k++) x[k] = Math.min(Math.max(guess.nodes[k] ?? (v * k) / n, x[k - 1]), v);
-  const w = scratchFor(n);
-  const { r, dx } = w;
-  let i = guess.i;
+  for (let k = 1; k < n; k++) x[k] = Math.min(Math.max(k < count ? nodes[k] : (v * k) / n, x[k - 1]), v);
+  let i = i0;
   if (!(i > 0)) {
-    if (!covers(devices[0].slice, gates[0], x[1], 0)) return null;
+    if (!covers(devices[0].slice, gates[0], x[1], 0)) return NaN;
     i = devices[0].w * devices[0].slice.jd(gates[0], x[1], 0);
   }
 
@@ -32,25 +40,25 @@ export function newtonOperatingPoint(devices: readonly StackDevice[], gates: rea
       const d = devices[k];
       // A slice with exact slopes gives current and slopes from one lookup; others get differences below.
       const ok = d.slice.jdSlopes ? currentAndSlopes(d, gates[k] - x[k], x[k + 1] - x[k], x[k], w, k) : ((exact = false), current(d, gates[k] - x[k], x[k + 1] - x[k], x[k], w, k));
-      if (!ok) return null;
+      if (!ok) return NaN;
       r[k] = w.id[k] - i;
       rmax = Math.max(rmax, Math.abs(r[k]));
     }
-    if (rmax <= 1e-10 * Math.abs(i) + 1e-24) return finish(devices, gates, v, i, x, exact ? w : null);
+    if (rmax <= 1e-10 * Math.abs(i) + 1e-24) return finish(devices, gates, w, exact) ? i : NaN;
     // Differences only when another step is needed: the converged pass costs one lookup per device.
     if (!exact) for (let k = 0; k < n; k++) if (!devices[k].slice.jdSlopes) slopes(devices[k], w, k);
-    if (!chainStep(w, r, dx)) return null;
+    if (!chainStep(w, r, dx)) return NaN;
     // dx[0..n−2] are node steps, dx[n−1] the current step.
     let scale = 1;
     for (let k = 0; k < n - 1; k++) scale = Math.min(scale, MAX_STEP / Math.max(Math.abs(dx[k]), 1e-300));
     const di = dx[n - 1] * scale;
     if (i + di < 0.2 * i) scale *= (0.8 * i) / Math.max(-di, 1e-300);
-    if (!(scale > 0) || !Number.isFinite(scale)) return null;
+    if (!(scale > 0) || !Number.isFinite(scale)) return NaN;
     for (let k = 1; k < n; k++) x[k] = Math.min(Math.max(x[k] + scale * dx[k - 1], x[k - 1]), v);
     i = Math.max(i + scale * dx[n - 1], 0);
-    if (!Number.isFinite(i)) return null;
+    if (!Number.isFinite(i)) return NaN;
   }
-  return null;
+  return NaN;
 }
 
 // Finite-difference step: the Jacobian must match the interpolated jd itself
@@ -71,6 +79,8 @@ interface Pass {
   gmb: Float64Array;
   r: Float64Array;
   dx: Float64Array;
+  /** Node voltages x_0..x_N. */
+  x: Float64Array;
 }
 
 /** Current at a bias into device k of the pass (with the bias), false outside the table. */
@@ -123,30 +133,57 @@ function scratchFor(n: number): Pass {
   let s = scratch.get(n);
   if (!s) {
     const f = () => new Float64Array(n);
-    scratch.set(n, (s = { vgs: f(), vds: f(), vsb: f(), id: f(), gm: f(), gds: f(), gmb: f(), r: f(), dx: f() }));
+    scratch.set(n, (s = { vgs: f(), vds: f(), vsb: f(), id: f(), gm: f(), gds: f(), gmb: f(), r: f(), dx: f(), x: new Float64Array(n + 1) }));
   }
   return s;
 }
 
 /**
- * The reported operating point: table small-signal values at the solved bias. `last` is the converged pass
- * (exact slopes): its currents are the table's at this very bias (jdSlopes gives jd bit-identical to small),
- * so only the conductances are read.
+ * The reported operating point, in the pass: table small-signal values at the solved bias. When the converged
+ * pass had exact slopes (`exact`), its currents are the table's at this very bias (jdSlopes gives jd
+ * bit-identical to small), so only the conductances are read; otherwise small() gives them all.
  */
-function finish(devices: readonly StackDevice[], gates: readonly number[], v: number, i: number, x: number[], last: Pass | null): StackOp | null {
-  const out: DeviceBias[] = new Array(devices.length);
+function finish(devices: readonly StackDevice[], gates: readonly number[], p: Pass, exact: boolean): boolean {
+  const x = p.x;
   for (let k = 0; k < devices.length; k++) {
     const d = devices[k];
-    if (last && d.slice.conductances) {
-      d.slice.conductances(last.vgs[k], last.vds[k], last.vsb[k], js);
-      out[k] = { vgs: last.vgs[k], vds: last.vds[k], vsb: last.vsb[k], id: last.id[k], gm: js[0] * d.w, gds: js[1] * d.w, gmb: js[2] * d.w };
+    if (exact && d.slice.conductances) {
+      d.slice.conductances(p.vgs[k], p.vds[k], p.vsb[k], js);
+      p.gm[k] = js[0] * d.w;
+      p.gds[k] = js[1] * d.w;
+      p.gmb[k] = js[2] * d.w;
     } else {
-      const b = emptyBias();
-      if (!evalDevice(d, gates[k] - x[k], x[k + 1] - x[k], x[k], b)) return null;
-      out[k] = b;
+      const vgs = gates[k] - x[k];
+      const vds = x[k + 1] - x[k];
+      const vsb = x[k];
+      if (!covers(d.slice, vgs, vds, vsb)) return false;
+      const s = d.slice.small(vgs, vds, vsb, js);
+      p.vgs[k] = vgs;
+      p.vds[k] = vds;
+      p.vsb[k] = vsb;
+      p.id[k] = s[0] * d.w;
+      p.gm[k] = s[1] * d.w;
+      p.gds[k] = s[2] * d.w;
+      p.gmb[k] = s[3] * d.w;
     }
   }
-  return { v, i, nodes: x, devices: out };
+  return true;
+}
+
+/** The solution newtonSolve left for chain length n: nodes in `x`, each device's values in vgs..gmb. */
+export type Solution = Readonly<Pick<Pass, 'x' | 'vgs' | 'vds' | 'vsb' | 'id' | 'gm' | 'gds' | 'gmb'>>;
+
+export function solutionOf(n: number): Solution {
+  return scratchFor(n);
+}
+
+/** The operating point of a solution, as a record of its own. */
+export function opOf(n: number, v: number, i: number, p: Solution): StackOp {
+  const nodes = new Array<number>(n + 1);
+  const out: DeviceBias[] = new Array(n);
+  for (let k = 0; k <= n; k++) nodes[k] = p.x[k];
+  for (let k = 0; k < n; k++) out[k] = { vgs: p.vgs[k], vds: p.vds[k], vsb: p.vsb[k], id: p.id[k], gm: p.gm[k], gds: p.gds[k], gmb: p.gmb[k] };
+  return { v, i, nodes, devices: out };
 }
 
 /**

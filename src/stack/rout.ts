@@ -9,7 +9,9 @@ import type { DeviceBias, StackOp } from './types.js';
  */
 export function routOf(devices: readonly Pick<DeviceBias, 'gm' | 'gds' | 'gmb'>[]): number {
   let vs = 0;
-  for (const d of devices) {
+  // Indexed: a for-of allocates an iterator wherever this runs unoptimised.
+  for (let k = 0; k < devices.length; k++) {
+    const d = devices[k];
     if (!(d.gds > 0)) return Infinity;
     vs += (1 + (d.gm + d.gmb) * vs) / d.gds;
   }

@@ -2,6 +2,7 @@ import { StackwrightError } from '../errors.js';
 import type { LengthSlice } from '../device/types.js';
 import type { StackShape } from './types.js';
 import { vgsForGmid } from './invert.js';
+import { doubles } from './doubles.js';
 
 /** The design variables of one stack. */
 export interface StackDesign {
@@ -44,9 +45,11 @@ export function sizeStackDevices(d: StackDesign): SizedStack | null {
   if (d.setpoints.length !== d.shape.setpoints) {
     throw new StackwrightError(`${d.shape.name} takes ${d.shape.setpoints} VDS setpoints, got ${d.setpoints.length}`, { kind: 'internal' });
   }
-  const nodes = [0];
-  const vgs: number[] = [];
-  const w: number[] = [];
+  // Arrays of exactly their length, stored unboxed (designs keep them).
+  const nodes = doubles(n + 1);
+  nodes[0] = 0;
+  const vgs = doubles(n);
+  const w = doubles(n);
   for (let k = 0; k < n; k++) {
     const xs = nodes[k];
     let g: number | null;
@@ -64,11 +67,12 @@ export function sizeStackDevices(d: StackDesign): SizedStack | null {
     if (!(jd > 0)) return null;
     const width = d.current / jd;
     if (d.wmin !== undefined && width < d.wmin * (1 - 1e-9)) return null;
-    vgs.push(g);
-    w.push(width);
-    nodes.push(xs + vds);
+    vgs[k] = g;
+    w[k] = width;
+    nodes[k + 1] = xs + vds;
   }
   if (Math.abs(nodes[n] - d.vmid) > 1e-9) return null;
-  const gates = vgs.map((g, k) => g + nodes[k]);
+  const gates = doubles(n);
+  for (let k = 0; k < n; k++) gates[k] = vgs[k] + nodes[k];
   return { w, vgs, gates, nodes };
 }

@@ -7,6 +7,8 @@ import {
   saturationVoltage,
   thermalVoltage,
   solveOperatingPoint,
+  packedOperatingPoint,
+  doubles,
   stackCurve,
   type CurveSample,
   type OpGuess,
@@ -19,7 +21,11 @@ export interface StackEval {
   gates: number[];
   devices: StackDevice[];
   mid: StackOp;
-  curve: CurveSample[];
+  /**
+   * The I–V curve's figures, packed: v, I and Rout of each point in turn (NaN where the table cannot cover it).
+   * Designs keep only these numbers, not the operating points; curveFigures gives them as records.
+   */
+  curve: readonly number[];
   /** Provided headroom, V (Infinity when never met). */
   headroom: number;
   /** Lowest Rout over [spec.headroom, span], Ω. */
@@ -30,6 +36,17 @@ export interface StackEval {
   iout: number;
   /** Table-derived VDSsat of each device at mid-span (EKV interpolation), V. */
   vdsat: number[];
+}
+
+/** One point of an evaluated curve: stack voltage, current and Rout (NaN where the table cannot cover it). */
+export type CurveFigures = Pick<CurveSample, 'v' | 'i' | 'rout'>;
+
+/** The points of an evaluated curve, from the lowest stack voltage up. */
+export function curveFigures(ev: Pick<StackEval, 'curve'>): CurveFigures[] {
+  const c = ev.curve;
+  const out: CurveFigures[] = new Array(c.length / 3);
+  for (let j = 0; j < out.length; j++) out[j] = { v: c[3 * j], i: c[3 * j + 1], rout: c[3 * j + 2] };
+  return out;
 }
 
 /** Intervals of the reported curve (≥ 60 points); the full curve from 0 V is kept only at this resolution. */
@@ -64,7 +81,11 @@ export interface MidPoint {
 export function midPoint(devices: readonly StackDevice[], gates: readonly number[], vmid: number, guess?: OpGuess, ut = thermalVoltage()): MidPoint | null {
   let mid: StackOp;
   try {
-    mid = solveOperatingPoint(devices, gates, vmid, guess);
+    // Two or more devices: the packed solve (the same answer, kept compactly); else the general one.
+    const n = devices.length;
+    mid = n >= 2 && gates.length === n && vmid >= 0 && Number.isFinite(vmid)
+      ? packedOperatingPoint(devices, gates, vmid, guess ? guess.i : 0, guess ? guess.nodes : [], guess ? guess.nodes.length : 0)
+      : solveOperatingPoint(devices, gates, vmid, guess);
   } catch (e) {
     if (e instanceof StackwrightError && e.kind === 'range') return null;
     throw e;
@@ -85,7 +106,13 @@ export function evaluateFrom(devices: StackDevice[], gates: number[], spec: Stac
   const { v: headroom, sample: atHeadroom } = headroomPoint(devices, gates, curve, target, atTarget);
   const routAtTarget = minRout(curve, atTarget);
   const rout = Number.isFinite(headroom) && headroom > spec.headroom ? minRout(curve, atHeadroom?.v === headroom ? atHeadroom : exactAt(devices, gates, curve, headroom)) : routAtTarget;
-  return { gates, devices, mid, curve, headroom, routAtTarget, rout, iout: mid.i, vdsat };
+  const packed = doubles(3 * curve.length);
+  for (let j = 0; j < curve.length; j++) {
+    packed[3 * j] = curve[j].v;
+    packed[3 * j + 1] = curve[j].i;
+    packed[3 * j + 2] = curve[j].rout;
+  }
+  return { gates, devices, mid, curve: packed, headroom, routAtTarget, rout, iout: mid.i, vdsat };
 }
 
 /** One stack to evaluate: devices at their widths, absolute gates in stack coordinates, against a spec. */

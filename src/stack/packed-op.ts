@@ -1,0 +1,132 @@
+import type { DeviceBias, StackDevice, StackOp } from './types.js';
+import { newtonSolve, solutionOf } from './newton.js';
+import { bracketedOperatingPoint } from './bracketed.js';
+import { doubles } from './doubles.js';
+
+/**
+ * A solved operating point kept in one array of unboxed numbers: v, I, the nodes x_0..x_N, then each device's
+ * VGS, VDS, VSB, ID, gm, gds and gmb (one block of N per quantity). Most DC solves only serve as the start of the
+ * next one, so `nodes` and `devices` are built on first read, and a device's values are read from the array: a
+ * point costs one array of numbers instead of an object with a boxed number per value.
+ */
+export class PackedOp implements StackOp {
+  private nodesCache: number[] | undefined = undefined;
+  private devicesCache: DeviceBias[] | undefined = undefined;
+
+  constructor(
+    /** Number of devices. */
+    readonly n: number,
+    /** The packed values (layout above). */
+    readonly p: readonly number[],
+  ) {}
+
+  get v(): number {
+    return this.p[0];
+  }
+
+  get i(): number {
+    return this.p[1];
+  }
+
+  get nodes(): number[] {
+    if (this.nodesCache === undefined) this.nodesCache = this.p.slice(2, this.n + 3);
+    return this.nodesCache;
+  }
+
+  get devices(): DeviceBias[] {
+    if (this.devicesCache === undefined) {
+      const out: DeviceBias[] = new Array(this.n);
+      for (let k = 0; k < this.n; k++) out[k] = new PackedBias(this.p, this.n + 3 + k, this.n);
+      this.devicesCache = out;
+    }
+    return this.devicesCache;
+  }
+}
+
+/** One device's values in a PackedOp's array (read there, nothing copied). */
+class PackedBias implements DeviceBias {
+  constructor(
+    private readonly p: readonly number[],
+    /** Index of the device's VGS; each further quantity is `n` on. */
+    private readonly o: number,
+    private readonly n: number,
+  ) {}
+
+  get vgs(): number {
+    return this.p[this.o];
+  }
+
+  get vds(): number {
+    return this.p[this.o + this.n];
+  }
+
+  get vsb(): number {
+    return this.p[this.o + 2 * this.n];
+  }
+
+  get id(): number {
+    return this.p[this.o + 3 * this.n];
+  }
+
+  get gm(): number {
+    return this.p[this.o + 4 * this.n];
+  }
+
+  get gds(): number {
+    return this.p[this.o + 5 * this.n];
+  }
+
+  get gmb(): number {
+    return this.p[this.o + 6 * this.n];
+  }
+}
+
+/** Index of node k in a PackedOp's array. */
+export const nodeAt = (k: number): number => 2 + k;
+/** Indices of gm, gds and gmb of device k in a PackedOp's array of n devices. */
+export const gmAt = (n: number, k: number): number => n + 3 + 4 * n + k;
+export const gdsAt = (n: number, k: number): number => n + 3 + 5 * n + k;
+export const gmbAt = (n: number, k: number): number => n + 3 + 6 * n + k;
+
+/**
+ * The DC solve of a chain of two or more devices from a start (current `i0`, nodes[0..count), the rest spread
+ * evenly): Newton into the solver's working arrays, packed when it converges, else the bracketed solve.
+ * Throws kind 'range' when the table cannot cover v (as solveOperatingPoint, which checks the input first).
+ */
+export function packedOperatingPoint(devices: readonly StackDevice[], gates: readonly number[], v: number, i0: number, nodes: ArrayLike<number>, count: number): StackOp {
+  const n = devices.length;
+  const i = newtonSolve(devices, gates, v, i0, nodes, count);
+  if (Number.isNaN(i)) return bracketedOperatingPoint(devices, gates, v);
+  const s = solutionOf(n);
+  const p = doubles(8 * n + 3);
+  p[0] = v;
+  p[1] = i;
+  for (let k = 0; k <= n; k++) p[2 + k] = s.x[k];
+  let o = n + 3;
+  for (let k = 0; k < n; k++) p[o + k] = s.vgs[k];
+  o += n;
+  for (let k = 0; k < n; k++) p[o + k] = s.vds[k];
+  o += n;
+  for (let k = 0; k < n; k++) p[o + k] = s.vsb[k];
+  o += n;
+  for (let k = 0; k < n; k++) p[o + k] = s.id[k];
+  o += n;
+  for (let k = 0; k < n; k++) p[o + k] = s.gm[k];
+  o += n;
+  for (let k = 0; k < n; k++) p[o + k] = s.gds[k];
+  o += n;
+  for (let k = 0; k < n; k++) p[o + k] = s.gmb[k];
+  return new PackedOp(n, p);
+}
+
+/** routOf over a PackedOp's devices (the same recurrence, the same order of operations). */
+export function packedRout(op: PackedOp): number {
+  const { n, p } = op;
+  let vs = 0;
+  for (let k = 0; k < n; k++) {
+    const gds = p[gdsAt(n, k)];
+    if (!(gds > 0)) return Infinity;
+    vs += (1 + (p[gmAt(n, k)] + p[gmbAt(n, k)]) * vs) / gds;
+  }
+  return vs;
+}
