@@ -36,15 +36,16 @@ export class BottomFinder {
 
   /** The distinct picks into `out` (reused between calls); returns how many. */
   picks(need: number, need2: number, out: StageOption[]): number {
-    let n = 0;
-    const add = (o: StageOption | undefined) => {
-      if (o && (n < 1 || out[0] !== o) && (n < 2 || out[1] !== o) && (n < 3 || out[2] !== o)) out[n++] = o;
-    };
-    add(this.atLeast(need));
-    add(this.atLeast(need2));
-    add(this.maxOk);
-    add(this.maxAll);
-    return n;
+    let n = add(out, 0, this.atLeast(need));
+    n = add(out, n, this.atLeast(need2));
+    n = add(out, n, this.maxOk);
+    return add(out, n, this.maxAll);
   }
 }
 
+// Append o to the first n picks unless absent or already there; the new count (no closure: this runs per pair).
+function add(out: StageOption[], n: number, o: StageOption | undefined): number {
+  if (!o || (n > 0 && out[0] === o) || (n > 1 && out[1] === o) || (n > 2 && out[2] === o)) return n;
+  out[n] = o;
+  return n + 1;
+}

@@ -12,6 +12,28 @@ function withLowSetpoint(t: ScreenTools, grid: number[]): number[] {
   return [...grid, Math.round(low * 1e6) / 1e6].sort((a, b) => a - b);
 }
 
+/**
+ * Best case of a group of lower devices (each taken over the group): largest ro
+ * and gmt·ro, smallest area and σ; `positive` when every ro and gmt is (then
+ * Rout grows with each, so the best case bounds every member).
+ */
+function groupBounds(options: readonly StageOption[]): { ro: number; gain: number; area: number; sigma: number; positive: boolean } {
+  let ro = -Infinity;
+  let gain = -Infinity;
+  let area = Infinity;
+  let sigma = Infinity;
+  let positive = true;
+  for (const o of options) {
+    if (!(o.ro >= 0 && o.gmt >= 0)) positive = false;
+    if (o.ro > ro) ro = o.ro;
+    const g = o.gmt * o.ro;
+    if (g > gain) gain = g;
+    if (o.area < area) area = o.area;
+    if (o.sigma < sigma) sigma = o.sigma;
+  }
+  return { ro, gain, area, sigma, positive };
+}
+
 /** Three devices with low-voltage biasing: two VDS setpoints below the top device. */
 export const triple: TopologyDescriptor = {
   name: 'triple',
@@ -29,6 +51,7 @@ export const triple: TopologyDescriptor = {
     const bottoms = new Map(grid.map((s1) => [s1, t.prune(t.options({ mode: s1, vsb: 0, gmids: gm, lower: true }), t.crit.bottom)]));
     const picked: StageOption[] = [];
     const finders = new Map([...bottoms].map(([s1, b]) => [s1, new BottomFinder(b, t.mismatch)]));
+    const bottomBounds = new Map([...bottoms].map(([s1, b]) => [s1, groupBounds(b)]));
     for (const s1 of grid) {
       for (const s2 of grid) {
         const below = Math.round((s1 + s2) * 1e6) / 1e6;
@@ -40,14 +63,26 @@ export const triple: TopologyDescriptor = {
         if (mids.length === 0) continue;
         const tops = t.top(below, gm);
         const find = finders.get(s1)!;
+        const mb = groupBounds(mids);
+        const bb = bottomBounds.get(s1)!;
+        // The bound needs every term non-negative (then Rout grows with each of them).
+        const bounded = mb.positive && bb.positive;
         for (const top of tops) {
           const a3 = 1 + top.gmt * top.ro;
+          if (bounded && top.ro >= 0 && a3 >= 1) {
+            // Best case of the top's mids × bottoms: when it cannot enter a pool, none of them can (every key is monotone).
+            const best = top.ro + a3 * mb.ro + a3 * (1 + mb.gain) * bb.ro;
+            if (Number.isFinite(best) && !t.mayWant(mids.length * bottom.length, bb.area + mb.area + top.area, best, below + top.vdsat, bb.sigma)) continue;
+          }
           for (const m of mids) {
             // Rout ≈ a + b·ro_bottom: for this (top, middle) pair each pool wants one bottom, found by binary
             // search among the bottoms sorted by ro, so the work per pair grows with the log of their count.
             const a = top.ro + a3 * m.ro;
             const b = a3 * (1 + m.gmt * m.ro);
             const hr = below + top.vdsat;
+            // The same bound for this pair's bottoms.
+            const best = a + b * bb.ro;
+            if (bounded && Number.isFinite(best) && !t.mayWant(bottom.length, bb.area + m.area + top.area, best, hr, bb.sigma)) continue;
             const count = find.picks((t.rout - a) / b, (2 * t.rout - a) / b, picked);
             t.covered(bottom.length - count);
             for (let j = 0; j < count; j++) {

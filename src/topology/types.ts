@@ -62,10 +62,12 @@ export interface ScreenTools {
   readonly gmids: readonly number[];
   /** Thermal voltage at the nominal corner, V. */
   readonly ut: number;
-  options(bias: StageBias): StageOption[];
-  prune(options: readonly StageOption[], crit: Criteria): StageOption[];
+  /** Options for one device (shared with later calls asking the same: read only). */
+  options(bias: StageBias): readonly StageOption[];
+  /** Options no other one beats on every criterion (shared like the options: read only). */
+  prune(options: readonly StageOption[], crit: Criteria): readonly StageOption[];
   /** Pruned top-device options above `below` volts, small-signal values taken at the target headroom. */
-  top(below: number, gmids?: readonly number[]): StageOption[];
+  top(below: number, gmids?: readonly number[]): readonly StageOption[];
   /** VDS that the top device sees at the headroom target with `below` volts under it, V. */
   topVds(below: number): number;
   /** VDS setpoint grid for the lower devices, V. */

@@ -1,4 +1,4 @@
-import { topologyOf, type Candidate, type ScreenTools, type StageBias, type StageOption, type Topology } from '../../topology/index.js';
+import { topologyOf, type Candidate, type Criteria, type ScreenTools, type StageBias, type StageOption, type Topology } from '../../topology/index.js';
 import { candidateKey } from './candidate.js';
 import type { SolveContext } from '../context.js';
 import { setpointGrid } from './grid.js';
@@ -124,6 +124,16 @@ const diodeCritSigma = (o: StageOption) => [o.area, -o.ro, o.sigma, o.vgs];
 const midCrit = (o: StageOption) => [o.area, -o.ro, -o.gmt];
 const topCrit = (o: StageOption) => [o.area, -o.ro, -o.gmt, o.vdsat];
 
+// Pruned lists by the option list they came from (stageOptions hands out the same list for the same ask) and criteria.
+const pruned = new WeakMap<readonly StageOption[], Map<Criteria, readonly StageOption[]>>();
+function prunedOf(options: readonly StageOption[], crit: Criteria): readonly StageOption[] {
+  let byCrit = pruned.get(options);
+  if (!byCrit) pruned.set(options, (byCrit = new Map()));
+  let out = byCrit.get(crit);
+  if (!out) byCrit.set(crit, (out = prune(options, crit)));
+  return out;
+}
+
 /**
  * Screen every combination the topology enumerates with saturation
  * small-signal estimates at nominal bias: Rout ≈ ro_N + (1 + gmt_N·ro_N)·R_below,
@@ -139,13 +149,13 @@ export function screen(ctx: SolveContext, topology: Topology): Candidate[] {
   const sigma = ctx.spec.mismatch !== undefined;
   const crit = { bottom: sigma ? bottomCritSigma : bottomCrit, diode: sigma ? diodeCritSigma : diodeCrit, mid: midCrit, top: topCrit };
   // The same top-device options recur for every split of the voltage below it (by µV of `below`, then grid size).
-  const topMemo = new Map<number, Map<number, StageOption[]>>();
-  const top = (below: number, gmids: readonly number[] = ctx.gmids): StageOption[] => {
+  const topMemo = new Map<number, Map<number, readonly StageOption[]>>();
+  const top = (below: number, gmids: readonly number[] = ctx.gmids): readonly StageOption[] => {
     const key = Math.round(below * 1e6);
     let byGrid = topMemo.get(key);
     if (!byGrid) topMemo.set(key, (byGrid = new Map()));
     let t = byGrid.get(gmids.length);
-    if (!t) byGrid.set(gmids.length, (t = prune(options({ mode: ctx.vmid - below, vsb: below, smallAt: topVds(below), gmids }), crit.top)));
+    if (!t) byGrid.set(gmids.length, (t = prunedOf(options({ mode: ctx.vmid - below, vsb: below, smallAt: topVds(below), gmids }), crit.top)));
     return t;
   };
   const tools: ScreenTools = {
@@ -156,7 +166,7 @@ export function screen(ctx: SolveContext, topology: Topology): Candidate[] {
     gmids: ctx.gmids,
     ut: ctx.ut(ctx.nominal),
     options,
-    prune,
+    prune: prunedOf,
     top,
     topVds,
     setpointGrid: (step) => setpointGrid(s, ctx.vmid, step),

@@ -68,68 +68,168 @@ class Option implements StageOption {
 }
 
 /**
+ * Options of one device over the L × gm/ID grid of a context, by bias, each
+ * built when first asked for. Every value depends only on the bias and what a
+ * context's derivatives share (slices, lengths, gm/ID grid, current, minimum
+ * width, Pelgrom coefficients), so the screens of one stack (its search, the
+ * nearest-point scan, the width-limit bisection, the topologies of 'auto', a
+ * gain stage's side) build each option once.
+ */
+interface Family {
+  lengths: readonly number[];
+  gmids: readonly number[];
+  current: number;
+  wmin: number;
+  coeff: SolveContext['coeff'];
+  /** Every position of the gm/ID grid, in order. */
+  every: readonly number[];
+  byBias: Map<string, Built>;
+}
+
+/** One bias: option per (length, gm/ID) slot (null: none there; undefined: not built yet), and the lists handed out. */
+interface Built {
+  slots: (Option | null | undefined)[];
+  /** By gm/ID positions and width limit. */
+  lists: Map<string, StageOption[]>;
+}
+
+// Keyed by the context's slice accessor: made once per context and shared by every context derived from it.
+const families = new WeakMap<SolveContext['slice'], Family>();
+
+function familyOf(ctx: SolveContext): Family {
+  let f = families.get(ctx.slice);
+  if (!f || f.lengths !== ctx.lengths || f.gmids !== ctx.gmids || f.current !== ctx.spec.current || f.wmin !== ctx.wmin || f.coeff !== ctx.coeff) {
+    const every = ctx.gmids.map((_, j) => j);
+    f = { lengths: ctx.lengths, gmids: ctx.gmids, current: ctx.spec.current, wmin: ctx.wmin, coeff: ctx.coeff, every, byBias: new Map() };
+    families.set(ctx.slice, f);
+  }
+  return f;
+}
+
+/**
  * Options for one device over the L × gm/ID grid. gm/ID fixes VGS at the
  * design bias (VDS `mode`, `vsb`); W = I / jd. Small-signal values come from
  * the design bias, or from `smallAt` (another VDS at the same VGS) when given.
  * Options narrower than the minimum width, and lower devices below their
  * VDSsat, are left out (the exact evaluation would reject them).
+ * The list is shared by later calls asking the same: read it, do not change it.
  */
-export function stageOptions(ctx: SolveContext, at: StageBias): StageOption[] {
-  const { mode, vsb, smallAt } = at;
+export function stageOptions(ctx: SolveContext, at: StageBias): readonly StageOption[] {
   const gmids = at.gmids ?? ctx.gmids;
-  const out: StageOption[] = [];
-  const i = ctx.spec.current;
-  const ut = ctx.ut(ctx.nominal);
   const lower = at.lower === true && ctx.saturation === 'require';
-  // VDSsat ≥ 4·UT at any inversion level: no lower device fits below that.
-  if (lower && typeof mode === 'number' && mode < 4 * ut) return out;
-  let fit = 0;
-  for (const l of ctx.lengths) {
-    const slice = ctx.slice(ctx.nominal, l);
-    const nom = sweepOf(slice, mode, vsb);
-    if (!nom) continue;
-    // Targets usually ascend: each scan resumes where the last one stopped (see Sweep.stop).
-    let from = SWEEP_TOP;
-    let prev = -Infinity;
-    for (const gmid of gmids) {
-      if (!(gmid >= prev)) from = SWEEP_TOP;
-      prev = gmid;
-      const hit = nom.atGmid(gmid, from);
-      from = nom.stop;
-      if (!hit) continue;
-      const vgs = nom.crossVgs();
-      const w = i / nom.crossJd();
-      if (w < ctx.wmin) continue;
-      const sat = lower ? saturationVoltage(slice, gmid, vsb, ut) : NaN;
-      if (lower && sat > (mode === 'diode' ? vgs : mode)) continue;
-      let gm: number, gds: number, gmb: number;
-      if (smallAt === undefined) {
-        nom.crossSmall(small3);
-        gm = small3[0];
-        gds = small3[1];
-        gmb = small3[2];
-      } else {
-        // One lookup per option at the other VDS beats a shared sweep there (fewer options than sweep points).
-        if (!covers(slice, vgs, smallAt, vsb)) continue;
-        const r = slice.small(vgs, smallAt, vsb, buf);
-        gm = r[1];
-        gds = r[2];
-        gmb = r[3];
+  const fam = familyOf(ctx);
+  // Positions of the asked gm/ID values in the context's grid.
+  let pos = fam.every;
+  if (gmids !== ctx.gmids) {
+    const p: number[] = [];
+    for (const g of gmids) {
+      const j = ctx.gmids.indexOf(g);
+      // A value off the grid: built for this call only.
+      if (j < 0) return uncached(ctx, at, lower, gmids);
+      p.push(j);
+    }
+    pos = p;
+  }
+  const key = `${at.mode}|${at.vsb}|${at.smallAt}|${lower}`;
+  let built = fam.byBias.get(key);
+  if (!built) fam.byBias.set(key, (built = { slots: new Array(ctx.lengths.length * ctx.gmids.length).fill(undefined), lists: new Map() }));
+  const list = `${pos === fam.every ? '*' : pos.join(',')}|${ctx.wmax}`;
+  let out = built.lists.get(list);
+  if (!out) {
+    const n = ctx.gmids.length;
+    const all: Option[] = [];
+    for (let li = 0; li < ctx.lengths.length; li++) {
+      fillLength(ctx, at, lower, li, ctx.gmids, pos, built.slots, li * n);
+      for (const j of pos) {
+        const o = built.slots[li * n + j];
+        if (o) all.push(o);
       }
-      const o = new Option(
-        l, gmid, w, w * l, vgs,
-        1 / (gds * w),
-        (gm + gmb) * w,
-        Math.max(2 / gmid, 0.1),
-        ctx.coeff ? pelgromSigma(gmid, w, l, ctx.coeff) : 0,
-        sat, slice, vsb, ut,
-      );
-      if (w <= ctx.wmax) fit++;
-      out.push(o);
+    }
+    built.lists.set(list, (out = withinWidth(ctx, all)));
+  }
+  return out;
+}
+
+function uncached(ctx: SolveContext, at: StageBias, lower: boolean, gmids: readonly number[]): StageOption[] {
+  const n = gmids.length;
+  const pos = gmids.map((_, j) => j);
+  const slots: (Option | null | undefined)[] = new Array(ctx.lengths.length * n).fill(undefined);
+  const all: Option[] = [];
+  for (let li = 0; li < ctx.lengths.length; li++) {
+    fillLength(ctx, at, lower, li, gmids, pos, slots, li * n);
+    for (let j = 0; j < n; j++) {
+      const o = slots[li * n + j];
+      if (o) all.push(o);
     }
   }
-  // Options within the width limit when there are any; else all, so the nearest design can show the limit binding.
-  return fit > 0 && fit < out.length ? out.filter((o) => o.w <= ctx.wmax) : out;
+  return withinWidth(ctx, all);
+}
+
+// Options within the width limit when there are any; else all, so the nearest design can show the limit binding.
+function withinWidth(ctx: SolveContext, all: Option[]): StageOption[] {
+  let fit = 0;
+  for (const o of all) if (o.w <= ctx.wmax) fit++;
+  return fit > 0 && fit < all.length ? all.filter((o) => o.w <= ctx.wmax) : all;
+}
+
+/**
+ * Build the options of length ctx.lengths[li] at gm/ID values gmids[p], p in
+ * `pos`, into slots[base + p] where not built yet. A sweep scan finds the same
+ * crossing whichever lower target it resumed from, so an option does not
+ * depend on which others were built with it.
+ */
+function fillLength(
+  ctx: SolveContext, at: StageBias, lower: boolean, li: number,
+  gmids: readonly number[], pos: readonly number[], slots: (Option | null | undefined)[], base: number,
+): void {
+  const { mode, vsb, smallAt } = at;
+  const ut = ctx.ut(ctx.nominal);
+  // VDSsat ≥ 4·UT at any inversion level: no lower device fits below that.
+  const none = lower && typeof mode === 'number' && mode < 4 * ut;
+  const l = ctx.lengths[li];
+  const slice = ctx.slice(ctx.nominal, l);
+  const nom = none ? null : sweepOf(slice, mode, vsb);
+  // Targets usually ascend: each scan resumes where the last one stopped (see Sweep.stop).
+  let from = SWEEP_TOP;
+  let prev = -Infinity;
+  for (const p of pos) {
+    if (slots[base + p] !== undefined) continue;
+    slots[base + p] = null;
+    if (!nom) continue;
+    const gmid = gmids[p];
+    if (!(gmid >= prev)) from = SWEEP_TOP;
+    prev = gmid;
+    const hit = nom.atGmid(gmid, from);
+    from = nom.stop;
+    if (!hit) continue;
+    const vgs = nom.crossVgs();
+    const w = ctx.spec.current / nom.crossJd();
+    if (w < ctx.wmin) continue;
+    const sat = lower ? saturationVoltage(slice, gmid, vsb, ut) : NaN;
+    if (lower && sat > (mode === 'diode' ? vgs : mode)) continue;
+    let gm: number, gds: number, gmb: number;
+    if (smallAt === undefined) {
+      nom.crossSmall(small3);
+      gm = small3[0];
+      gds = small3[1];
+      gmb = small3[2];
+    } else {
+      // One lookup per option at the other VDS beats a shared sweep there (fewer options than sweep points).
+      if (!covers(slice, vgs, smallAt, vsb)) continue;
+      const r = slice.small(vgs, smallAt, vsb, buf);
+      gm = r[1];
+      gds = r[2];
+      gmb = r[3];
+    }
+    slots[base + p] = new Option(
+      l, gmid, w, w * l, vgs,
+      1 / (gds * w),
+      (gm + gmb) * w,
+      Math.max(2 / gmid, 0.1),
+      ctx.coeff ? pelgromSigma(gmid, w, l, ctx.coeff) : 0,
+      sat, slice, vsb, ut,
+    );
+  }
 }
 
 /**
