@@ -2,10 +2,9 @@ import type { Topology } from '../design/types.js';
 import type { SolveContext } from './context.js';
 import { finalize, type Evaluated, type Start } from './evaluate/evaluate.js';
 import { defer, evaluateOnce, lookOnce, refine, settle, type Hopeless, type Seen } from './search/refine.js';
-import { routSurelyBelow, routSurelyBelowAt, type Look } from './search/quick.js';
+import { routSurelyBelow, routSurelyBelowAt, scanPointAtOrAbove, type Look } from './search/quick.js';
 import { screen } from './search/screen.js';
 import { candidateKey } from './search/candidate.js';
-import { SCAN_INTERVALS } from './evaluate/stack-eval.js';
 
 /** The nearest reachable points of an infeasible stack, over the whole allowed design space. */
 export interface Nearest {
@@ -92,17 +91,6 @@ function bestOf(pool: readonly Evaluated[], prefer: (a: Evaluated, b: Evaluated)
     if (out.length > k) out.pop();
   }
   return out;
-}
-
-/**
- * The lowest point of the scan's voltage grid (SCAN_INTERVALS steps up to span) at or above v: a design whose
- * targets fail at a scanned point has its exact headroom above that point.
- */
-function scanPointAtOrAbove(span: number, v: number): number {
-  const n = SCAN_INTERVALS;
-  let j = Math.ceil((v * n) / span);
-  while ((span * j) / n < v) j++;
-  return (span * j) / n;
 }
 
 /**

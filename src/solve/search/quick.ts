@@ -1,5 +1,6 @@
 import { sampleAt } from '../../stack/index.js';
-import { marginsFor, type Margins } from '../../policy.js';
+import { VOLT_SCALE, marginsFor, type Margins } from '../../policy.js';
+import { SCAN_INTERVALS } from '../evaluate/stack-eval.js';
 import type { SolveContext } from '../context.js';
 import { saturationMargin } from '../evaluate/checks.js';
 import { pelgromSigma } from '../evaluate/mismatch.js';
@@ -81,17 +82,41 @@ export function routSurelyBelowAt(l: Look, v: number, r: number): boolean {
 const shortOf = (x: number) => Math.min(Math.max(0, -x), 50);
 
 /**
+ * The lowest point of the scan's voltage grid (SCAN_INTERVALS steps up to span, as stackCurve places them) at or
+ * above v. Where a design's Rout misses the target at such a point, its exact headroom lies above the point (every
+ * scanned point above the headroom holds, see headroomPoint; points below the headroom target the scan skips lie
+ * below a failing one).
+ */
+export function scanPointAtOrAbove(span: number, v: number): number {
+  const n = SCAN_INTERVALS;
+  let j = Math.ceil((v * n) / span);
+  while ((span * j) / n < v) j++;
+  return (span * j) / n;
+}
+
+/**
  * The exact nominal shortfall (distanceToFeasible of the margins; other corners only add to a design's) is surely
- * above `x`: the fixed margins are the evaluation's own, Rout's is at least the miss at the headroom target (solved
- * only when the rest does not decide), headroom's at least 0. Summed in distanceToFeasible's order, so each
- * term and the rounding of the sum are no larger than the exact ones.
+ * above `x`: the fixed margins are the evaluation's own; Rout's is at least the miss at the headroom target (the
+ * exact figure is the lowest over [target, span]); headroom's at least the distance to a scanned point where Rout
+ * surely misses the target. DC solves only while the sum does not yet decide. Summed in distanceToFeasible's order,
+ * so no term and no rounding of the sum is larger than the exact one's.
  */
 export function shortfallSurelyAbove(ctx: SolveContext, l: Look, x: number): boolean {
   const f = l.fixed;
-  const sum = (rout: number) => shortOf(rout) + 0 + shortOf(f.iout) + shortOf(f.mismatch) + shortOf(f.saturation) + shortOf(f.width);
-  if (sum(Infinity) > x) return true;
-  const r = l.routAtTargetHeadroom();
-  return r > 0 && sum(Math.log((r * (1 + ROUT_SLACK)) / ctx.spec.rout)) > x;
+  const s = ctx.spec;
+  const sum = (rout: number, headroom: number) => shortOf(rout) + shortOf(headroom) + shortOf(f.iout) + shortOf(f.mismatch) + shortOf(f.saturation) + shortOf(f.width);
+  const routMargin = (r: number) => (r > 0 ? Math.log((r * (1 + ROUT_SLACK)) / s.rout) : Infinity);
+  if (sum(Infinity, Infinity) > x) return true;
+  const rt = l.routAtTargetHeadroom();
+  const known = sum(routMargin(rt), Infinity);
+  if (known > x) return true;
+  const need = x - known;
+  if (!(need < 50)) return false;
+  const v = scanPointAtOrAbove(s.span, s.headroom + need * VOLT_SCALE);
+  if (!(v <= s.span)) return false;
+  const rv = l.routAt(v);
+  if (!(rv < s.rout * (1 - ROUT_SLACK))) return false;
+  return sum(routMargin(Math.min(rt, rv)), (s.headroom - v) / VOLT_SCALE) > x;
 }
 
 /**
