@@ -115,14 +115,46 @@ class Pools {
   }
 }
 
-// Criteria of each kind, written out (no spread): prune calls them once per option.
-const bottomCrit = (o: StageOption) => [o.area, -o.ro];
-const bottomCritSigma = (o: StageOption) => [o.area, -o.ro, o.sigma];
+// Criteria of each kind, written out (no spread) into prune's table: prune reads them once per option.
+function criteria(size: number, into: (o: StageOption, out: Float64Array, at: number) => void): Criteria {
+  const row = new Float64Array(size);
+  return Object.assign((o: StageOption) => {
+    into(o, row, 0);
+    return Array.from(row);
+  }, { size, into });
+}
+const bottomCrit = criteria(2, (o, c, j) => {
+  c[j] = o.area;
+  c[j + 1] = -o.ro;
+});
+const bottomCritSigma = criteria(3, (o, c, j) => {
+  c[j] = o.area;
+  c[j + 1] = -o.ro;
+  c[j + 2] = o.sigma;
+});
 // The stacked bottom's VGS is also its drain voltage, which adds to the headroom.
-const diodeCrit = (o: StageOption) => [o.area, -o.ro, o.vgs];
-const diodeCritSigma = (o: StageOption) => [o.area, -o.ro, o.sigma, o.vgs];
-const midCrit = (o: StageOption) => [o.area, -o.ro, -o.gmt];
-const topCrit = (o: StageOption) => [o.area, -o.ro, -o.gmt, o.vdsat];
+const diodeCrit = criteria(3, (o, c, j) => {
+  c[j] = o.area;
+  c[j + 1] = -o.ro;
+  c[j + 2] = o.vgs;
+});
+const diodeCritSigma = criteria(4, (o, c, j) => {
+  c[j] = o.area;
+  c[j + 1] = -o.ro;
+  c[j + 2] = o.sigma;
+  c[j + 3] = o.vgs;
+});
+const midCrit = criteria(3, (o, c, j) => {
+  c[j] = o.area;
+  c[j + 1] = -o.ro;
+  c[j + 2] = -o.gmt;
+});
+const topCrit = criteria(4, (o, c, j) => {
+  c[j] = o.area;
+  c[j + 1] = -o.ro;
+  c[j + 2] = -o.gmt;
+  c[j + 3] = o.vdsat;
+});
 
 // Pruned lists by the option list they came from (stageOptions hands out the same list for the same ask) and criteria.
 const pruned = new WeakMap<readonly StageOption[], Map<Criteria, readonly StageOption[]>>();

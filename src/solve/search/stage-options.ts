@@ -241,21 +241,26 @@ function fillLength(
  * that does (dominance is a strict order), so each option is checked against
  * the front found so far only. With a NaN criterion (no strict order) every pair is compared.
  */
-export function prune<T>(items: readonly T[], crit: (t: T) => readonly number[]): T[] {
+export function prune<T>(items: readonly T[], crit: ((t: T) => readonly number[]) & { readonly size?: number; readonly into?: (t: T, out: Float64Array, at: number) => void }): T[] {
   const n = items.length;
   if (n < 2) return items.slice();
-  const first = crit(items[0]);
-  const k = first.length;
-  const c = new Float64Array(n * k);
-  let nan = false;
-  for (let a = 0; a < n; a++) {
-    const v = a === 0 ? first : crit(items[a]);
-    for (let q = 0; q < k; q++) {
-      const x = v[q];
-      if (Number.isNaN(x)) nan = true;
-      c[a * k + q] = x;
+  let k: number;
+  let c: Float64Array;
+  if (crit.into && crit.size !== undefined) {
+    k = crit.size;
+    c = new Float64Array(n * k);
+    for (let a = 0; a < n; a++) crit.into(items[a], c, a * k);
+  } else {
+    const first = crit(items[0]);
+    k = first.length;
+    c = new Float64Array(n * k);
+    for (let a = 0; a < n; a++) {
+      const v = a === 0 ? first : crit(items[a]);
+      for (let q = 0; q < k; q++) c[a * k + q] = v[q];
     }
   }
+  let nan = false;
+  for (let q = 0; q < n * k; q++) if (Number.isNaN(c[q])) nan = true;
   const keep = new Uint8Array(n);
   if (nan) everyPair(c, k, n, keep);
   else if (k === 2) sweepTwo(c, lexOrder(c, k, n), keep);
@@ -271,9 +276,11 @@ function lexOrder(c: Float64Array, k: number, n: number): number[] {
   for (let a = 0; a < n; a++) order[a] = a;
   return order.sort((a, b) => {
     for (let q = 0; q < k; q++) {
-      const d = c[a * k + q] - c[b * k + q];
-      // Equal infinities give a NaN difference: equal.
-      if (d !== 0 && d === d) return d;
+      const x = c[a * k + q];
+      const y = c[b * k + q];
+      // Equal values (infinities too) are equal; a sign, not the difference, so nothing is boxed.
+      if (x < y) return -1;
+      if (x > y) return 1;
     }
     return 0;
   });
