@@ -37,12 +37,19 @@ function sweepOf(slice: LengthSlice, mode: VdsMode, vsb: number): Sweep | null {
 const buf = new Float64Array(4);
 const small3 = new Float64Array(3);
 
+/** What a length's options at one bias share, for their saturation voltage on demand. */
+interface SatAt {
+  slice: LengthSlice;
+  vsb: number;
+  ut: number;
+}
+
 /**
  * One device choice; `sat` (a table scan per new VSB) is worked out only when
  * read, as only lower devices are judged by it.
  */
 class Option implements StageOption {
-  private satValue = NaN;
+  private satValue: number;
   constructor(
     readonly l: number,
     readonly gmid: number,
@@ -54,15 +61,13 @@ class Option implements StageOption {
     readonly vdsat: number,
     readonly sigma: number,
     sat: number,
-    private readonly slice: LengthSlice,
-    private readonly vsb: number,
-    private readonly ut: number,
+    private readonly at: SatAt,
   ) {
     this.satValue = sat;
   }
 
   get sat(): number {
-    if (Number.isNaN(this.satValue)) this.satValue = saturationVoltage(this.slice, this.gmid, this.vsb, this.ut);
+    if (Number.isNaN(this.satValue)) this.satValue = saturationVoltage(this.at.slice, this.gmid, this.at.vsb, this.at.ut);
     return this.satValue;
   }
 }
@@ -189,6 +194,7 @@ function fillLength(
   const l = ctx.lengths[li];
   const slice = ctx.slice(ctx.nominal, l);
   const nom = none ? null : sweepOf(slice, mode, vsb);
+  const satAt: SatAt = { slice, vsb, ut };
   // Targets usually ascend: each scan resumes where the last one stopped (see Sweep.stop).
   let from = SWEEP_TOP;
   let prev = -Infinity;
@@ -227,7 +233,7 @@ function fillLength(
       (gm + gmb) * w,
       Math.max(2 / gmid, 0.1),
       ctx.coeff ? pelgromSigma(gmid, w, l, ctx.coeff) : 0,
-      sat, slice, vsb, ut,
+      sat, satAt,
     );
   }
 }
