@@ -26,7 +26,9 @@ class Pools {
   private objective: SolveContext['spec']['objective'];
   private headroom: number;
   private mismatch: number;
-  constructor(private ctx: SolveContext) {
+  private count: SolveContext['count'];
+  constructor(ctx: SolveContext) {
+    this.count = ctx.count;
     this.rout = ctx.spec.rout;
     this.objective = ctx.spec.objective;
     this.headroom = ctx.spec.headroom;
@@ -36,24 +38,25 @@ class Pools {
   private keys = new Float64Array(6);
   private heaps = [this.obj, this.margin, this.area, this.hr, this.ro, this.viol];
 
+  // Arrow fields: the screen tools hand these out as they are (one call fewer per combination).
   /** Rate one combination; true when some pool would keep it (then call keep with the candidate). Logs only when needed. */
-  wants(area: number, rout: number, headroom: number, sigma: number): boolean {
-    this.ctx.count.screened++;
-    this.ctx.count.rated++;
+  readonly wants = (area: number, rout: number, headroom: number, sigma: number): boolean => {
+    this.count.screened++;
+    this.count.rated++;
     return this.rate(area, rout, headroom, sigma);
-  }
+  };
 
   /**
    * Could any of `count` combinations bounded by these values (smallest area,
    * largest Rout, their headroom, smallest σ) enter a pool? Every key is monotone
    * in them, so false means the whole group can be skipped without loss.
    */
-  mayWant(count: number, area: number, rout: number, headroom: number, sigma: number): boolean {
-    this.ctx.count.rated++;
+  readonly mayWant = (count: number, area: number, rout: number, headroom: number, sigma: number): boolean => {
+    this.count.rated++;
     if (this.rate(area, rout, headroom, sigma)) return true;
-    this.ctx.count.screened += count;
+    this.count.screened += count;
     return false;
-  }
+  };
 
   private rate(area: number, rout: number, headroom: number, sigma: number): boolean {
     const routOk = rout >= this.rout;
@@ -203,8 +206,8 @@ export function screen(ctx: SolveContext, topology: Topology): Candidate[] {
     topVds,
     setpointGrid: (step) => setpointGrid(s, ctx.vmid, step),
     crit,
-    wants: (area, rout, headroom, sigma) => pools.wants(area, rout, headroom, sigma),
-    mayWant: (count, area, rout, headroom, sigma) => pools.mayWant(count, area, rout, headroom, sigma),
+    wants: pools.wants,
+    mayWant: pools.mayWant,
     keep: (l, gmid, setpoints) => pools.keep({ topology, l, gmid, setpoints }),
     covered: (count) => {
       ctx.count.screened += count;
