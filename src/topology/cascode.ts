@@ -1,6 +1,6 @@
 import type { TopologyDescriptor } from './types.js';
 import { bounds } from './bounds.js';
-import { runsByLength } from './runs.js';
+import { runsOf } from './runs.js';
 
 /** Two devices with low-voltage biasing: the bottom drain sits at a chosen VDS setpoint. */
 export const cascode: TopologyDescriptor = {
@@ -17,7 +17,8 @@ export const cascode: TopologyDescriptor = {
       const bottom = t.prune(t.options({ mode: s1, vsb: 0, lower: true }), t.crit.bottom);
       if (bottom.length === 0) continue;
       const b = bounds(bottom);
-      const runs = runsByLength(bottom);
+      // Runs of one length, at most 8 long: rates least on the demo specs.
+      const runs = runsOf(bottom, 8, true);
       for (const top of t.top(s1)) {
         const a = top.ro;
         const g = 1 + top.gmt * top.ro;

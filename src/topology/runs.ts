@@ -10,20 +10,19 @@ export interface Run {
   vgs: number;
 }
 
-// Longest run: shorter runs bound tighter, more runs cost more bounds (8 rates least on the demo specs).
-const RUN = 8;
-
 /**
- * Options split into runs of equal length (at most RUN long), in list order.
- * Options of one length carry nearly the same ro (about VA/I), so a run's best
- * case is close to each member's and a run that cannot enter a pool is skipped whole.
+ * Options split into runs of at most `most` consecutive ones, in list order,
+ * also split where the channel length changes when `sameLength` (options of
+ * one length carry nearly the same ro, about VA/I, so a run's best case is
+ * close to each member's). A run that cannot enter a pool is skipped whole;
+ * shorter runs bound tighter but cost more bounds.
  */
-export function runsByLength(options: readonly StageOption[]): Run[] {
+export function runsOf(options: readonly StageOption[], most: number, sameLength: boolean): Run[] {
   const runs: Run[] = [];
   let r: Run | undefined;
   for (let j = 0; j < options.length; j++) {
     const o = options[j];
-    if (!r || o.l !== options[r.start].l || j - r.start >= RUN) runs.push((r = { start: j, end: j, area: Infinity, ro: -Infinity, sigma: Infinity, vgs: Infinity }));
+    if (!r || (sameLength && o.l !== options[r.start].l) || j - r.start >= most) runs.push((r = { start: j, end: j, area: Infinity, ro: -Infinity, sigma: Infinity, vgs: Infinity }));
     r.end = j + 1;
     if (o.area < r.area) r.area = o.area;
     if (o.ro > r.ro) r.ro = o.ro;
