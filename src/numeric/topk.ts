@@ -36,9 +36,14 @@ export class TopK<T> {
     return this.keys.map((key, i) => [key, i] as const).sort((a, b) => a[0] - b[0]).map(([, i]) => this.items[i]);
   }
 
+  // Through temporaries: a destructuring swap builds an array in unoptimised code.
   private swap(a: number, b: number): void {
-    [this.keys[a], this.keys[b]] = [this.keys[b], this.keys[a]];
-    [this.items[a], this.items[b]] = [this.items[b], this.items[a]];
+    const k = this.keys[a];
+    this.keys[a] = this.keys[b];
+    this.keys[b] = k;
+    const t = this.items[a];
+    this.items[a] = this.items[b];
+    this.items[b] = t;
   }
 
   private up(i: number): void {

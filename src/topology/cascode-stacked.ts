@@ -1,5 +1,6 @@
 import type { StageOption, TopologyDescriptor } from './types.js';
 import { bounds } from './bounds.js';
+import { runsOf } from './runs.js';
 
 /** Two devices biased by stacked diodes: the bottom device's VDS equals its VGS. */
 export const cascodeStacked: TopologyDescriptor = {
@@ -22,14 +23,22 @@ export const cascodeStacked: TopologyDescriptor = {
     for (const [x1, bottom] of groups) {
       if (x1 >= t.vmid - 0.05) continue;
       const bb = bounds(bottom);
+      // Runs of 4 in list order (a group mixes lengths): rates least on the demo specs.
+      const runs = runsOf(bottom, 4, false);
       for (const top of t.top(x1)) {
         const a = top.ro;
         const b = 1 + top.gmt * top.ro;
         // As for the cascode: skip the group when its best case (lowest VGS for the headroom) cannot enter a pool.
         const best = a + b * bb.ro;
         if (Number.isFinite(best) && !t.mayWant(bottom.length, bb.area + top.area, best, bb.vgs + top.vdsat, bb.sigma)) continue;
-        for (const o of bottom) {
-          if (t.wants(o.area + top.area, a + b * o.ro, o.vgs + top.vdsat, o.sigma)) t.keep([o.l, top.l], [o.gmid, top.gmid], []);
+        for (const r of runs) {
+          // The same bound per run (Rout grows with ro_bottom only when b is not negative).
+          const bestRun = a + b * r.ro;
+          if (runs.length > 1 && b >= 0 && Number.isFinite(bestRun) && !t.mayWant(r.end - r.start, r.area + top.area, bestRun, r.vgs + top.vdsat, r.sigma)) continue;
+          for (let j = r.start; j < r.end; j++) {
+            const o = bottom[j];
+            if (t.wants(o.area + top.area, a + b * o.ro, o.vgs + top.vdsat, o.sigma)) t.keep([o.l, top.l], [o.gmid, top.gmid], []);
+          }
         }
       }
     }

@@ -1,5 +1,6 @@
 import type { TopologyDescriptor } from './types.js';
 import { bounds } from './bounds.js';
+import { runsOf } from './runs.js';
 
 /** Two devices with low-voltage biasing: the bottom drain sits at a chosen VDS setpoint. */
 export const cascode: TopologyDescriptor = {
@@ -16,6 +17,8 @@ export const cascode: TopologyDescriptor = {
       const bottom = t.prune(t.options({ mode: s1, vsb: 0, lower: true }), t.crit.bottom);
       if (bottom.length === 0) continue;
       const b = bounds(bottom);
+      // Runs of one length, at most 8 long: rates least on the demo specs.
+      const runs = runsOf(bottom, 8, true);
       for (const top of t.top(s1)) {
         const a = top.ro;
         const g = 1 + top.gmt * top.ro;
@@ -24,8 +27,14 @@ export const cascode: TopologyDescriptor = {
         // (an infinite bound would be refused for not being finite, so it proves nothing).
         const best = a + g * b.ro;
         if (Number.isFinite(best) && !t.mayWant(bottom.length, b.area + top.area, best, hr, b.sigma)) continue;
-        for (const o of bottom) {
-          if (t.wants(o.area + top.area, a + g * o.ro, hr, o.sigma)) t.keep([o.l, top.l], [o.gmid, top.gmid], [s1]);
+        for (const r of runs) {
+          // The same bound per run of one length (Rout grows with ro_bottom only when g is not negative).
+          const bestRun = a + g * r.ro;
+          if (runs.length > 1 && g >= 0 && Number.isFinite(bestRun) && !t.mayWant(r.end - r.start, r.area + top.area, bestRun, hr, r.sigma)) continue;
+          for (let j = r.start; j < r.end; j++) {
+            const o = bottom[j];
+            if (t.wants(o.area + top.area, a + g * o.ro, hr, o.sigma)) t.keep([o.l, top.l], [o.gmid, top.gmid], [s1]);
+          }
         }
       }
     }

@@ -41,8 +41,14 @@ export interface StageBias {
   lower?: boolean;
 }
 
-/** Criteria (all minimised) by which per-stage options are pruned before combining. */
-export type Criteria = (o: StageOption) => number[];
+/**
+ * Criteria (all minimised) by which per-stage options are pruned before
+ * combining; optionally also as `size` values written by `into` (no array per option).
+ */
+export type Criteria = ((o: StageOption) => number[]) & {
+  readonly size?: number;
+  readonly into?: (o: StageOption, out: Float64Array, at: number) => void;
+};
 
 /**
  * What the search lends a topology to enumerate its screen: per-stage options

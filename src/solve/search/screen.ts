@@ -26,7 +26,9 @@ class Pools {
   private objective: SolveContext['spec']['objective'];
   private headroom: number;
   private mismatch: number;
-  constructor(private ctx: SolveContext) {
+  private count: SolveContext['count'];
+  constructor(ctx: SolveContext) {
+    this.count = ctx.count;
     this.rout = ctx.spec.rout;
     this.objective = ctx.spec.objective;
     this.headroom = ctx.spec.headroom;
@@ -36,24 +38,25 @@ class Pools {
   private keys = new Float64Array(6);
   private heaps = [this.obj, this.margin, this.area, this.hr, this.ro, this.viol];
 
+  // Arrow fields: the screen tools hand these out as they are (one call fewer per combination).
   /** Rate one combination; true when some pool would keep it (then call keep with the candidate). Logs only when needed. */
-  wants(area: number, rout: number, headroom: number, sigma: number): boolean {
-    this.ctx.count.screened++;
-    this.ctx.count.rated++;
+  readonly wants = (area: number, rout: number, headroom: number, sigma: number): boolean => {
+    this.count.screened++;
+    this.count.rated++;
     return this.rate(area, rout, headroom, sigma);
-  }
+  };
 
   /**
    * Could any of `count` combinations bounded by these values (smallest area,
    * largest Rout, their headroom, smallest σ) enter a pool? Every key is monotone
    * in them, so false means the whole group can be skipped without loss.
    */
-  mayWant(count: number, area: number, rout: number, headroom: number, sigma: number): boolean {
-    this.ctx.count.rated++;
+  readonly mayWant = (count: number, area: number, rout: number, headroom: number, sigma: number): boolean => {
+    this.count.rated++;
     if (this.rate(area, rout, headroom, sigma)) return true;
-    this.ctx.count.screened += count;
+    this.count.screened += count;
     return false;
-  }
+  };
 
   private rate(area: number, rout: number, headroom: number, sigma: number): boolean {
     const routOk = rout >= this.rout;
@@ -115,14 +118,46 @@ class Pools {
   }
 }
 
-// Criteria of each kind, written out (no spread): prune calls them once per option.
-const bottomCrit = (o: StageOption) => [o.area, -o.ro];
-const bottomCritSigma = (o: StageOption) => [o.area, -o.ro, o.sigma];
+// Criteria of each kind, written out (no spread) into prune's table: prune reads them once per option.
+function criteria(size: number, into: (o: StageOption, out: Float64Array, at: number) => void): Criteria {
+  const row = new Float64Array(size);
+  return Object.assign((o: StageOption) => {
+    into(o, row, 0);
+    return Array.from(row);
+  }, { size, into });
+}
+const bottomCrit = criteria(2, (o, c, j) => {
+  c[j] = o.area;
+  c[j + 1] = -o.ro;
+});
+const bottomCritSigma = criteria(3, (o, c, j) => {
+  c[j] = o.area;
+  c[j + 1] = -o.ro;
+  c[j + 2] = o.sigma;
+});
 // The stacked bottom's VGS is also its drain voltage, which adds to the headroom.
-const diodeCrit = (o: StageOption) => [o.area, -o.ro, o.vgs];
-const diodeCritSigma = (o: StageOption) => [o.area, -o.ro, o.sigma, o.vgs];
-const midCrit = (o: StageOption) => [o.area, -o.ro, -o.gmt];
-const topCrit = (o: StageOption) => [o.area, -o.ro, -o.gmt, o.vdsat];
+const diodeCrit = criteria(3, (o, c, j) => {
+  c[j] = o.area;
+  c[j + 1] = -o.ro;
+  c[j + 2] = o.vgs;
+});
+const diodeCritSigma = criteria(4, (o, c, j) => {
+  c[j] = o.area;
+  c[j + 1] = -o.ro;
+  c[j + 2] = o.sigma;
+  c[j + 3] = o.vgs;
+});
+const midCrit = criteria(3, (o, c, j) => {
+  c[j] = o.area;
+  c[j + 1] = -o.ro;
+  c[j + 2] = -o.gmt;
+});
+const topCrit = criteria(4, (o, c, j) => {
+  c[j] = o.area;
+  c[j + 1] = -o.ro;
+  c[j + 2] = -o.gmt;
+  c[j + 3] = o.vdsat;
+});
 
 // Pruned lists by the option list they came from (stageOptions hands out the same list for the same ask) and criteria.
 const pruned = new WeakMap<readonly StageOption[], Map<Criteria, readonly StageOption[]>>();
@@ -171,8 +206,8 @@ export function screen(ctx: SolveContext, topology: Topology): Candidate[] {
     topVds,
     setpointGrid: (step) => setpointGrid(s, ctx.vmid, step),
     crit,
-    wants: (area, rout, headroom, sigma) => pools.wants(area, rout, headroom, sigma),
-    mayWant: (count, area, rout, headroom, sigma) => pools.mayWant(count, area, rout, headroom, sigma),
+    wants: pools.wants,
+    mayWant: pools.mayWant,
     keep: (l, gmid, setpoints) => pools.keep({ topology, l, gmid, setpoints }),
     covered: (count) => {
       ctx.count.screened += count;

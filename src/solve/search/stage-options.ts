@@ -37,12 +37,19 @@ function sweepOf(slice: LengthSlice, mode: VdsMode, vsb: number): Sweep | null {
 const buf = new Float64Array(4);
 const small3 = new Float64Array(3);
 
+/** What a length's options at one bias share, for their saturation voltage on demand. */
+interface SatAt {
+  slice: LengthSlice;
+  vsb: number;
+  ut: number;
+}
+
 /**
  * One device choice; `sat` (a table scan per new VSB) is worked out only when
  * read, as only lower devices are judged by it.
  */
 class Option implements StageOption {
-  private satValue = NaN;
+  private satValue: number;
   constructor(
     readonly l: number,
     readonly gmid: number,
@@ -54,15 +61,13 @@ class Option implements StageOption {
     readonly vdsat: number,
     readonly sigma: number,
     sat: number,
-    private readonly slice: LengthSlice,
-    private readonly vsb: number,
-    private readonly ut: number,
+    private readonly at: SatAt,
   ) {
     this.satValue = sat;
   }
 
   get sat(): number {
-    if (Number.isNaN(this.satValue)) this.satValue = saturationVoltage(this.slice, this.gmid, this.vsb, this.ut);
+    if (Number.isNaN(this.satValue)) this.satValue = saturationVoltage(this.at.slice, this.gmid, this.at.vsb, this.at.ut);
     return this.satValue;
   }
 }
@@ -189,6 +194,7 @@ function fillLength(
   const l = ctx.lengths[li];
   const slice = ctx.slice(ctx.nominal, l);
   const nom = none ? null : sweepOf(slice, mode, vsb);
+  const satAt: SatAt = { slice, vsb, ut };
   // Targets usually ascend: each scan resumes where the last one stopped (see Sweep.stop).
   let from = SWEEP_TOP;
   let prev = -Infinity;
@@ -227,7 +233,7 @@ function fillLength(
       (gm + gmb) * w,
       Math.max(2 / gmid, 0.1),
       ctx.coeff ? pelgromSigma(gmid, w, l, ctx.coeff) : 0,
-      sat, slice, vsb, ut,
+      sat, satAt,
     );
   }
 }
@@ -241,21 +247,26 @@ function fillLength(
  * that does (dominance is a strict order), so each option is checked against
  * the front found so far only. With a NaN criterion (no strict order) every pair is compared.
  */
-export function prune<T>(items: readonly T[], crit: (t: T) => readonly number[]): T[] {
+export function prune<T>(items: readonly T[], crit: ((t: T) => readonly number[]) & { readonly size?: number; readonly into?: (t: T, out: Float64Array, at: number) => void }): T[] {
   const n = items.length;
   if (n < 2) return items.slice();
-  const first = crit(items[0]);
-  const k = first.length;
-  const c = new Float64Array(n * k);
-  let nan = false;
-  for (let a = 0; a < n; a++) {
-    const v = a === 0 ? first : crit(items[a]);
-    for (let q = 0; q < k; q++) {
-      const x = v[q];
-      if (Number.isNaN(x)) nan = true;
-      c[a * k + q] = x;
+  let k: number;
+  let c: Float64Array;
+  if (crit.into && crit.size !== undefined) {
+    k = crit.size;
+    c = new Float64Array(n * k);
+    for (let a = 0; a < n; a++) crit.into(items[a], c, a * k);
+  } else {
+    const first = crit(items[0]);
+    k = first.length;
+    c = new Float64Array(n * k);
+    for (let a = 0; a < n; a++) {
+      const v = a === 0 ? first : crit(items[a]);
+      for (let q = 0; q < k; q++) c[a * k + q] = v[q];
     }
   }
+  let nan = false;
+  for (let q = 0; q < n * k; q++) if (Number.isNaN(c[q])) nan = true;
   const keep = new Uint8Array(n);
   if (nan) everyPair(c, k, n, keep);
   else if (k === 2) sweepTwo(c, lexOrder(c, k, n), keep);
@@ -271,9 +282,11 @@ function lexOrder(c: Float64Array, k: number, n: number): number[] {
   for (let a = 0; a < n; a++) order[a] = a;
   return order.sort((a, b) => {
     for (let q = 0; q < k; q++) {
-      const d = c[a * k + q] - c[b * k + q];
-      // Equal infinities give a NaN difference: equal.
-      if (d !== 0 && d === d) return d;
+      const x = c[a * k + q];
+      const y = c[b * k + q];
+      // Equal values (infinities too) are equal; a sign, not the difference, so nothing is boxed.
+      if (x < y) return -1;
+      if (x > y) return 1;
     }
     return 0;
   });
