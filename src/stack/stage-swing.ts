@@ -11,8 +11,8 @@ export function indexOf(vs: ArrayLike<number>, output: number): number {
   return best;
 }
 
-// Where the linear segment from (v0, g0) (≥ target) to (v1, g1) (< target) crosses the target.
-function crossing(v0: number, g0: number, v1: number, g1: number, target: number): number {
+/** Where the linear segment from (v0, g0) (≥ target) to (v1, g1) (< target) crosses the target. */
+export function crossing(v0: number, g0: number, v1: number, g1: number, target: number): number {
   const t = g0 > g1 ? (g0 - target) / (g0 - g1) : 0;
   return v0 + Math.min(Math.max(t, 0), 1) * (v1 - v0);
 }
@@ -70,8 +70,16 @@ export function gainOverSwing(vs: ArrayLike<number>, gains: ArrayLike<number>, j
 
 /** Widest swing with gain ≥ target around the design point, V (0 when the design point misses the target). */
 export function swingAtGain(vs: ArrayLike<number>, gains: ArrayLike<number>, j0: number, target: number): number {
-  const s = swingOnGrid(vs, gains, j0, target);
-  return s ? s.vhigh - s.vlow : 0;
+  // swingOnGrid's arithmetic without its object: this runs for every pair a stage screen rates.
+  if (!(gains[j0] >= target)) return 0;
+  const n = vs.length;
+  let a = j0;
+  while (a > 0 && gains[a - 1] >= target) a--;
+  let b = j0;
+  while (b < n - 1 && gains[b + 1] >= target) b++;
+  const vlow = a > 0 ? crossing(vs[a], gains[a], vs[a - 1], gains[a - 1], target) : vs[a];
+  const vhigh = b < n - 1 ? crossing(vs[b], gains[b], vs[b + 1], gains[b + 1], target) : vs[b];
+  return vhigh - vlow;
 }
 
 /** Output grid through the design point: output + k·step inside (0, supply). */
