@@ -1,4 +1,4 @@
-import type { DeviceBias, OpGuess, StackDevice, StackOp } from './types.js';
+import type { StackDevice } from './types.js';
 import { covers } from './range.js';
 
 const MAX_ITER = 40;
@@ -7,18 +7,10 @@ const MAX_STEP = 0.1;
 
 /**
  * Newton on KCL of the series chain: unknowns x_1..x_{N−1} and I, residuals
- * r_k = W_k·jd_k(g_k − x_{k−1}, x_k − x_{k−1}, x_{k−1}) − I. Returns null when
- * it leaves the table or does not converge, so the caller can fall back.
- */
-export function newtonOperatingPoint(devices: readonly StackDevice[], gates: readonly number[], v: number, guess: OpGuess): StackOp | null {
-  const i = newtonSolve(devices, gates, v, guess.i, guess.nodes, guess.nodes.length);
-  return Number.isNaN(i) ? null : opOf(devices.length, v, i, scratchFor(devices.length));
-}
-
-/**
- * newtonOperatingPoint without building the result: the current, NaN when it fails; the nodes and each device's
- * bias and small-signal values are left in the solution of the chain length (solutionOf), valid until the next
- * solve. The first `count` entries of `nodes` are the start (missing ones spread evenly). Allocates nothing once warm.
+ * r_k = W_k·jd_k(g_k − x_{k−1}, x_k − x_{k−1}, x_{k−1}) − I. Returns the current, NaN when it leaves the table or
+ * does not converge (the caller falls back); the nodes and each device's bias and small-signal values are left in
+ * the solution of the chain length (solutionOf), valid until the next solve, so nothing is built here. The first
+ * `count` entries of `nodes` are the start (missing ones spread evenly). Allocates nothing once warm.
  */
 export function newtonSolve(devices: readonly StackDevice[], gates: readonly number[], v: number, i0: number, nodes: ArrayLike<number>, count: number): number {
   const n = devices.length;
@@ -175,15 +167,6 @@ export type Solution = Readonly<Pick<Pass, 'x' | 'vgs' | 'vds' | 'vsb' | 'id' | 
 
 export function solutionOf(n: number): Solution {
   return scratchFor(n);
-}
-
-/** The operating point of a solution, as a record of its own. */
-export function opOf(n: number, v: number, i: number, p: Solution): StackOp {
-  const nodes = new Array<number>(n + 1);
-  const out: DeviceBias[] = new Array(n);
-  for (let k = 0; k <= n; k++) nodes[k] = p.x[k];
-  for (let k = 0; k < n; k++) out[k] = { vgs: p.vgs[k], vds: p.vds[k], vsb: p.vsb[k], id: p.id[k], gm: p.gm[k], gds: p.gds[k], gmb: p.gmb[k] };
-  return { v, i, nodes, devices: out };
 }
 
 /**

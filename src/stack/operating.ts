@@ -1,7 +1,6 @@
 import { StackwrightError } from '../errors.js';
 import type { OpGuess, StackDevice, StackOp } from './types.js';
-import { newtonOperatingPoint } from './newton.js';
-import { bracketedOperatingPoint } from './bracketed.js';
+import { packedOperatingPoint } from './packed-op.js';
 import { emptyBias, evalDevice } from './evaluate-device.js';
 import { outsideSlice } from './range.js';
 import { formatEng } from '../units/index.js';
@@ -20,12 +19,9 @@ export function solveOperatingPoint(devices: readonly StackDevice[], gates: read
   }
   if (!(v >= 0) || !Number.isFinite(v)) throw new StackwrightError(`stack voltage must be ≥ 0 V, got ${Number.isFinite(v) ? formatEng(v, 'V', 4) : 'a value that is not a finite number'}`, { kind: 'input' });
   if (devices.length === 1) return singleDevice(devices[0], gates[0], v);
-  const g = guess ?? defaultGuess(devices.length, v);
-  return newtonOperatingPoint(devices, gates, v, g) ?? bracketedOperatingPoint(devices, gates, v);
-}
-
-function defaultGuess(n: number, v: number): OpGuess {
-  return { i: 0, nodes: Array.from({ length: n + 1 }, (_, k) => (v * k) / n) };
+  // Newton, else the bracketed solve; the answer packed (its device values are read where they are kept).
+  if (!guess) return packedOperatingPoint(devices, gates, v, 0, [], 0);
+  return packedOperatingPoint(devices, gates, v, guess.i, guess.nodes, guess.nodes.length);
 }
 
 // One device: no unknown node, the table gives the current directly.

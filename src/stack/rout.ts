@@ -1,4 +1,5 @@
 import type { DeviceBias, StackOp } from './types.js';
+import { PackedOp, packedRout } from './packed-op.js';
 
 /**
  * Small-signal resistance looking into the top of the chain, gates and rail at
@@ -20,5 +21,5 @@ export function routOf(devices: readonly Pick<DeviceBias, 'gm' | 'gds' | 'gmb'>[
 
 /** Rout at a solved operating point. */
 export function routAt(op: StackOp): number {
-  return routOf(op.devices);
+  return op instanceof PackedOp ? packedRout(op) : routOf(op.devices);
 }

@@ -7,7 +7,6 @@ import {
   saturationVoltage,
   thermalVoltage,
   solveOperatingPoint,
-  packedOperatingPoint,
   doubles,
   stackCurve,
   type CurveSample,
@@ -81,11 +80,7 @@ export interface MidPoint {
 export function midPoint(devices: readonly StackDevice[], gates: readonly number[], vmid: number, guess?: OpGuess, ut = thermalVoltage()): MidPoint | null {
   let mid: StackOp;
   try {
-    // Two or more devices: the packed solve (the same answer, kept compactly); else the general one.
-    const n = devices.length;
-    mid = n >= 2 && gates.length === n && vmid >= 0 && Number.isFinite(vmid)
-      ? packedOperatingPoint(devices, gates, vmid, guess ? guess.i : 0, guess ? guess.nodes : [], guess ? guess.nodes.length : 0)
-      : solveOperatingPoint(devices, gates, vmid, guess);
+    mid = solveOperatingPoint(devices, gates, vmid, guess);
   } catch (e) {
     if (e instanceof StackwrightError && e.kind === 'range') return null;
     throw e;
