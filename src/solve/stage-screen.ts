@@ -1,5 +1,5 @@
 import type { StageSpec } from '../design/types.js';
-import { swingAtGain } from '../stack/index.js';
+import { swingAtGain, swingOnGrid } from '../stack/index.js';
 import { crossing } from '../stack/stage-swing.js';
 import { TopK } from '../numeric/index.js';
 import type { SideDesign } from './stage-side.js';
@@ -40,12 +40,18 @@ const SLACK = 1e-9;
  * Both measures only grow when the curve rises pointwise. `lo`..`hi`: the grid
  * points around the design point where that curve meets the gain target (empty
  * when it misses there); every pair with this side misses just outside them.
+ * `vlow`, `vhigh`: that curve's swing edges (the design point when it misses
+ * there). A pair's curve, lying below, crosses the target inside them on the
+ * same grid segment or nearer the design point, so its swing edges lie within
+ * both sides' edges.
  */
 interface Bound {
   swing: number;
   held: number;
   lo: number;
   hi: number;
+  vlow: number;
+  vhigh: number;
 }
 
 function boundOf(stage: StageSpec, curve: Float64Array, vs: Float64Array, j0: number, m: number, left: Float64Array, right: Float64Array): Bound {
@@ -55,11 +61,13 @@ function boundOf(stage: StageSpec, curve: Float64Array, vs: Float64Array, j0: nu
     for (lo = j0; lo > 0 && curve[lo - 1] >= stage.gain; lo--);
     for (hi = j0; hi < vs.length - 1 && curve[hi + 1] >= stage.gain; hi++);
   }
-  return {
-    swing: swingAtGain(vs, curve, j0, stage.gain) + SLACK,
-    held: gainOverWindow(curve, j0, m, left, right) * (1 + SLACK),
-    lo, hi,
-  };
+  const edges = swingOnGrid(vs, curve, j0, stage.gain);
+  const n = vs.length;
+  // An infinite Rout makes an interpolated edge NaN: then only the grid points bound (NaN bounds would skip pairs).
+  const vlow = edges ? (Number.isFinite(edges.vlow) ? edges.vlow : vs[Math.max(lo - 1, 0)]) : vs[j0];
+  const vhigh = edges ? (Number.isFinite(edges.vhigh) ? edges.vhigh : vs[Math.min(hi + 1, n - 1)]) : vs[j0];
+  const held = gainOverWindow(curve, j0, m, left, right) * (1 + SLACK);
+  return { swing: vhigh - vlow + SLACK, held: Number.isNaN(held) ? Infinity : held, lo, hi, vlow, vhigh };
 }
 
 function inputBounds(stage: StageSpec, inputs: readonly SideDesign[], vs: Float64Array, j0: number, m: number, left: Float64Array, right: Float64Array): Bound[] {
@@ -152,6 +160,10 @@ class PairScreen {
   readonly swIn: Float64Array;
   readonly heldIn: Float64Array;
   readonly swLoad: Float64Array;
+  readonly vlowIn: Float64Array;
+  readonly vhighIn: Float64Array;
+  readonly vlowLoad: Float64Array;
+  readonly vhighLoad: Float64Array;
   readonly heldLoad: Float64Array;
   readonly loIn: Int32Array;
   readonly hiIn: Int32Array;
@@ -189,6 +201,10 @@ class PairScreen {
     this.swIn = Float64Array.from(ib, (b) => b.swing);
     this.heldIn = Float64Array.from(ib, (b) => b.held);
     this.swLoad = Float64Array.from(lb, (b) => b.swing);
+    this.vlowIn = Float64Array.from(ib, (b) => b.vlow);
+    this.vhighIn = Float64Array.from(ib, (b) => b.vhigh);
+    this.vlowLoad = Float64Array.from(lb, (b) => b.vlow);
+    this.vhighLoad = Float64Array.from(lb, (b) => b.vhigh);
     this.heldLoad = Float64Array.from(lb, (b) => b.held);
     this.loIn = Int32Array.from(ib, (b) => b.lo);
     this.hiIn = Int32Array.from(ib, (b) => b.hi);
@@ -208,6 +224,11 @@ class PairScreen {
     this.cddLoad = Float64Array.from(loads, (b) => b.cdd);
     this.core0 = Math.min(j0, n - 1 - this.m);
     this.core1 = Math.max(0, j0 - this.m) + this.m;
+  }
+
+  /** Upper bound on the swing of pair (ia, ib) from the two sides' swing edges (the input side usually bounds vlow, the load vhigh). */
+  swingBound(ia: number, ib: number): number {
+    return Math.min(this.vhighIn[ia], this.vhighLoad[ib]) - Math.max(this.vlowIn[ia], this.vlowLoad[ib]) + SLACK;
   }
 
   private gainAt(oa: number, ob: number, j: number): number {
@@ -267,7 +288,7 @@ class PairScreen {
       const c = (stage.cap ?? 0) + (this.cddIn[ia] > 0 ? this.cddIn[ia] : 0) + (this.cddLoad[ib] > 0 ? this.cddLoad[ib] : 0);
       gbwShort = Math.max(0, Math.log(stage.gbw / (this.gm[oa + j0] / (2 * Math.PI * c))));
     }
-    let swU = Math.min(this.swIn[ia], this.swLoad[ib]);
+    let swU = this.swingBound(ia, ib);
     let heldU = Math.min(this.heldIn[ia], this.heldLoad[ib]);
     // Every window holds the grid points [core0, core1]: the held gain is at most the gain at either end
     // (read only when the sides' bound leaves the held or the shortfall pool open).
@@ -376,8 +397,9 @@ export function screenPairs(stage: StageSpec, inputs: readonly SideDesign[], loa
     const tie = (screen.area[ia] + minLoad) * 1e6;
     if (!(screen.swIn[ia] >= swingNeed(swing, tie))) continue;
     for (const ib of swLoads) {
-      if (!(screen.swLoad[ib] >= swingNeed(swing, tie))) break;
-      rate(ia, ib);
+      const need = swingNeed(swing, tie);
+      if (!(screen.swLoad[ib] >= need)) break;
+      if (screen.swingBound(ia, ib) >= need) rate(ia, ib);
     }
   }
   const heldIns = byBound(screen.heldIn);

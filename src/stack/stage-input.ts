@@ -1,6 +1,6 @@
 import type { DeviceBias, StackDevice } from './types.js';
 import { covers } from './range.js';
-import { illinois, vgsWindow } from './invert.js';
+import { vgsWindow } from './invert.js';
 import { emptyBias, evalDevice } from './evaluate-device.js';
 import { routOf } from './rout.js';
 
@@ -25,15 +25,84 @@ export interface InputGuess {
 const GUESS_SPAN = 4e-3;
 
 /**
+ * A falling function of one voltage whose root a solve needs. The two kinds
+ * are objects reused from call to call rather than closures made per solve:
+ * the root searches below then call one kind of `at`, and build nothing.
+ */
+interface Falling {
+  at(x: number): number;
+}
+
+/** Current the cascode passes over the current asked for, as its source node x rises (NaN outside the table). */
+class CascodeExcess implements Falling {
+  d: StackDevice = null as unknown as StackDevice;
+  gate = 0;
+  v = 0;
+  i = 0;
+  at(x: number): number {
+    const d = this.d;
+    return (covers(d.slice, this.gate - x, this.v - x, x) ? d.w * d.slice.jd(this.gate - x, this.v - x, x) : NaN) - this.i;
+  }
+}
+
+/** Current asked for over what the input device carries, as its VGS rises (VSB = 0). */
+class InputShortfall implements Falling {
+  d: StackDevice = null as unknown as StackDevice;
+  vds = 0;
+  i = 0;
+  at(vgs: number): number {
+    return this.i - this.d.w * this.d.slice.jd(vgs, this.vds, 0);
+  }
+}
+
+const cascodeExcess = new CascodeExcess();
+const inputShortfall = new InputShortfall();
+
+/**
+ * Root of f in [a, b] with f(a) ≥ 0 > f(b) by the Illinois variant of regula
+ * falsi: the arithmetic of illinois() (stack/invert.ts) step for step, so the
+ * same root, with the values at the ends passed in when already known (NaN:
+ * not known) instead of sampled again.
+ */
+function illinoisAt(f: Falling, a: number, b: number, tol: number, fa0: number, fb0: number): number {
+  let fa = Number.isNaN(fa0) ? f.at(a) : fa0;
+  let fb = Number.isNaN(fb0) ? f.at(b) : fb0;
+  let side = 0;
+  let m = 0.5 * (a + b);
+  const a0 = a;
+  const b0 = b;
+  for (let it = 0; it < 80 && b - a > tol; it++) {
+    const t = Number.isFinite(fa) && Number.isFinite(fb) && fa !== fb ? fa / (fa - fb) : 0.5;
+    m = a + (b - a) * (t > 0 && t < 1 ? t : 0.5);
+    // A sample at an end of the starting bracket is the value known there.
+    const fm = m === a0 && !Number.isNaN(fa0) ? fa0 : m === b0 && !Number.isNaN(fb0) ? fb0 : f.at(m);
+    if (fm >= 0) {
+      if (m - a < 0.5 * tol) return m;
+      a = m;
+      fa = fm;
+      if (side === 1) fb *= 0.5;
+      side = 1;
+    } else {
+      if (b - m < 0.5 * tol) return m;
+      b = m;
+      fb = fm;
+      if (side === -1) fa *= 0.5;
+      side = -1;
+    }
+  }
+  return m;
+}
+
+/**
  * Root of f in [lo, hi] with f(lo) ≥ 0 > f(hi) (one sign change: f falls
  * monotonically) to `tol`, by Illinois. With a guess (a neighbouring
  * solution), the bracket is first narrowed around it, so a few samples do
  * instead of a search over the whole interval; the root is the same to `tol`.
  */
-function rootNear(f: (x: number) => number, lo: number, hi: number, tol: number, guess?: number): number {
-  if (guess === undefined || !(guess > lo && guess < hi)) return illinois(f, lo, hi, tol);
-  const fg = f(guess);
-  if (!(fg >= 0) && !(fg < 0)) return illinois(f, lo, hi, tol);
+function rootNear(f: Falling, lo: number, hi: number, tol: number, guess?: number): number {
+  if (guess === undefined || !(guess > lo && guess < hi)) return illinoisAt(f, lo, hi, tol, NaN, NaN);
+  const fg = f.at(guess);
+  if (!(fg >= 0) && !(fg < 0)) return illinoisAt(f, lo, hi, tol, NaN, NaN);
   // Grow the bracket away from the guess towards the root, keeping f(a) ≥ 0 > f(b).
   const up = fg >= 0;
   let a = up ? guess : lo;
@@ -42,8 +111,8 @@ function rootNear(f: (x: number) => number, lo: number, hi: number, tol: number,
   let fb = up ? NaN : fg;
   for (let d = GUESS_SPAN; up ? guess + d < hi : guess - d > lo; d *= 4) {
     const x = up ? guess + d : guess - d;
-    const fx = f(x);
-    if (!(fx >= 0) && !(fx < 0)) return illinois(f, lo, hi, tol);
+    const fx = f.at(x);
+    if (!(fx >= 0) && !(fx < 0)) return illinoisAt(f, lo, hi, tol, NaN, NaN);
     if (fx >= 0) {
       a = x;
       fa = fx;
@@ -54,7 +123,7 @@ function rootNear(f: (x: number) => number, lo: number, hi: number, tol: number,
     if (up ? fx < 0 : fx >= 0) break;
   }
   // The samples already taken at the bracket ends are not taken again.
-  return illinois((x) => (x === a && !Number.isNaN(fa) ? fa : x === b && !Number.isNaN(fb) ? fb : f(x)), a, b, tol);
+  return illinoisAt(f, a, b, tol, fa, fb);
 }
 
 /**
@@ -74,16 +143,18 @@ export function inputAtCurrent(devices: readonly StackDevice[], cascodeGate: num
     const d1 = devices[1];
     const g = cascodeGate as number;
     const r = d1.slice.range;
-    const top = (x: number): number => (covers(d1.slice, g - x, v - x, x) ? d1.w * d1.slice.jd(g - x, v - x, x) : NaN);
-    let lo = Math.max(0, r.vsb[0], g - r.vgs[1], v - r.vds[1]);
-    let hi = Math.min(v - r.vds[0], r.vsb[1], g - r.vgs[0]);
+    const lo = Math.max(0, r.vsb[0], g - r.vgs[1], v - r.vds[1]);
+    const hi = Math.min(v - r.vds[0], r.vsb[1], g - r.vgs[0]);
     if (!(hi > lo)) return null;
+    const top = cascodeExcess;
+    top.d = d1;
+    top.gate = g;
+    top.v = v;
+    top.i = i;
     // The cascode must be able to pass i at the lowest x1 the table allows; at the highest it passes less.
-    const flo = top(lo);
-    if (!(flo >= i)) return null;
-    const fhi = top(hi);
-    if (fhi >= i) return null;
-    x1 = rootNear((x) => top(x) - i, lo, hi, 1e-10, guess?.x1);
+    if (!(top.at(lo) >= 0)) return null;
+    if (top.at(hi) >= 0) return null;
+    x1 = rootNear(top, lo, hi, 1e-10, guess?.x1);
   }
   const g0 = gateForCurrent(d0, i, x1, guess?.gate);
   if (g0 === null) return null;
@@ -109,7 +180,10 @@ export function guessOf(op: { nodes: readonly number[]; devices: readonly Device
 function gateForCurrent(d: StackDevice, i: number, vds: number, guess?: number): number | null {
   const win = vgsWindow(d.slice, vds, 0);
   if (!win) return null;
-  const f = (vgs: number) => i - d.w * d.slice.jd(vgs, vds, 0);
-  if (f(win[0]) < 0 || f(win[1]) >= 0) return null;
+  const f = inputShortfall;
+  f.d = d;
+  f.vds = vds;
+  f.i = i;
+  if (f.at(win[0]) < 0 || f.at(win[1]) >= 0) return null;
   return rootNear(f, win[0], win[1], 1e-10, guess);
 }
