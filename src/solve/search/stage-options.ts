@@ -94,7 +94,7 @@ interface Family {
 /** One bias: option per (length, gm/ID) slot (null: none there; undefined: not built yet), and the lists handed out. */
 interface Built {
   slots: (Option | null | undefined)[];
-  /** By gm/ID positions (the whole list), and by positions and width limit (those within it). */
+  /** By gm/ID positions and width limit. */
   lists: Map<string, StageOption[]>;
 }
 
@@ -138,28 +138,20 @@ export function stageOptions(ctx: SolveContext, at: StageBias): readonly StageOp
   const key = `${at.mode}|${at.vsb}|${at.smallAt}|${lower}`;
   let built = fam.byBias.get(key);
   if (!built) fam.byBias.set(key, (built = { slots: new Array(ctx.lengths.length * ctx.gmids.length).fill(undefined), lists: new Map() }));
-  const asked = pos === fam.every ? '*' : pos.join(',');
-  let all = built.lists.get(asked);
-  if (!all) {
+  const list = `${pos === fam.every ? '*' : pos.join(',')}|${ctx.wmax}`;
+  let out = built.lists.get(list);
+  if (!out) {
     const n = ctx.gmids.length;
-    const made: Option[] = [];
+    const all: Option[] = [];
     for (let li = 0; li < ctx.lengths.length; li++) {
       fillLength(ctx, at, lower, li, ctx.gmids, pos, built.slots, li * n);
       for (const j of pos) {
         const o = built.slots[li * n + j];
-        if (o) made.push(o);
+        if (o) all.push(o);
       }
     }
-    built.lists.set(asked, (all = made));
+    built.lists.set(list, (out = withinWidth(ctx, all)));
   }
-  // As withinWidth; a limit that keeps all or none gets the whole list, one object for every such limit, so
-  // the width-limit bisection's screens share its pruning.
-  let fit = 0;
-  for (const o of all) if (o.w <= ctx.wmax) fit++;
-  if (fit === 0 || fit === all.length) return all;
-  const limited = `${asked}|${ctx.wmax}`;
-  let out = built.lists.get(limited);
-  if (!out) built.lists.set(limited, (out = all.filter((o) => o.w <= ctx.wmax)));
   return out;
 }
 
@@ -309,29 +301,14 @@ function everyPair(c: Float64Array, k: number, n: number, keep: Uint8Array): voi
   }
 }
 
-/**
- * The same for any k, rows visited in lexicographic order: each checked against
- * the non-dominated rows before it, of which only those with a second
- * criterion no larger can dominate it (the front is kept sorted by it).
- */
+// The same for any k, rows visited in lexicographic order: each checked against the non-dominated rows before it.
 function skyline(c: Float64Array, k: number, order: readonly number[], keep: Uint8Array): void {
-  const front = new Int32Array(order.length);
-  let m = 0;
+  const front: number[] = [];
   for (const a of order) {
-    const y = c[a * k + 1];
-    let lo = 0;
-    let hi = m;
-    while (lo < hi) {
-      const mid = (lo + hi) >> 1;
-      if (c[front[mid] * k + 1] <= y) lo = mid + 1;
-      else hi = mid;
-    }
     let out = false;
-    for (let f = 0; f < lo && !out; f++) out = dominates(c, k, front[f], a);
+    for (let f = 0; f < front.length && !out; f++) out = dominates(c, k, front[f], a);
     if (!out) {
-      front.copyWithin(lo + 1, lo, m);
-      front[lo] = a;
-      m++;
+      front.push(a);
       keep[a] = 1;
     }
   }
