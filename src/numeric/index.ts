@@ -8,3 +8,4 @@ export { RegularGridInterpolator, type GridOptions, type OutOfBounds } from './g
 export { rangeError } from './range-error.js';
 export { TopK } from './topk.js';
 export { dominates, nonDominated } from './pareto.js';
+export { fallingRoot, type Falling } from './illinois.js';

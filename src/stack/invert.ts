@@ -1,4 +1,5 @@
 import type { LengthSlice } from '../device/types.js';
+import { fallingRoot } from '../numeric/illinois.js';
 import { covers, within } from './range.js';
 
 const s4 = new Float64Array(4);
@@ -80,35 +81,9 @@ function searchVgsForGmid(slice: LengthSlice, target: number, mode: VdsMode, vsb
   return illinois(f, a, b, 1e-9);
 }
 
-/**
- * Root of f in [a, b] with f(a) ≥ 0 > f(b) by the Illinois variant of regula
- * falsi (superlinear on smooth f, never leaves the bracket; bisection when the
- * interpolation cannot be used). Stops when the bracket or the step is below `tol`.
- */
+/** Root of the falling f in [a, b] to `tol` (Illinois regula falsi: src/numeric/illinois.ts). */
 export function illinois(f: (x: number) => number, a: number, b: number, tol: number): number {
-  let fa = f(a);
-  let fb = f(b);
-  let side = 0;
-  let m = 0.5 * (a + b);
-  for (let it = 0; it < 80 && b - a > tol; it++) {
-    const t = Number.isFinite(fa) && Number.isFinite(fb) && fa !== fb ? fa / (fa - fb) : 0.5;
-    m = a + (b - a) * (t > 0 && t < 1 ? t : 0.5);
-    const fm = f(m);
-    if (fm >= 0) {
-      if (m - a < 0.5 * tol) return m;
-      a = m;
-      fa = fm;
-      if (side === 1) fb *= 0.5;
-      side = 1;
-    } else {
-      if (b - m < 0.5 * tol) return m;
-      b = m;
-      fb = fm;
-      if (side === -1) fa *= 0.5;
-      side = -1;
-    }
-  }
-  return m;
+  return fallingRoot({ at: f }, a, b, tol);
 }
 
 /**

@@ -1,4 +1,5 @@
 import type { DeviceBias, StackDevice } from './types.js';
+import { fallingRoot, type Falling } from '../numeric/illinois.js';
 import { covers } from './range.js';
 import { vgsWindow } from './invert.js';
 import { emptyBias, evalDevice } from './evaluate-device.js';
@@ -23,15 +24,6 @@ export interface InputGuess {
 
 /** First half-width of the bracket tried around a guess, V; widened ×4 until it holds the root. */
 const GUESS_SPAN = 4e-3;
-
-/**
- * A falling function of one voltage whose root a solve needs. The two kinds
- * are objects reused from call to call rather than closures made per solve:
- * the root searches below then call one kind of `at`, and build nothing.
- */
-interface Falling {
-  at(x: number): number;
-}
 
 /** Current the cascode passes over the current asked for, as its source node x rises (NaN outside the table). */
 class CascodeExcess implements Falling {
@@ -59,50 +51,15 @@ const cascodeExcess = new CascodeExcess();
 const inputShortfall = new InputShortfall();
 
 /**
- * Root of f in [a, b] with f(a) ≥ 0 > f(b) by the Illinois variant of regula
- * falsi: the arithmetic of illinois() (stack/invert.ts) step for step, so the
- * same root, with the values at the ends passed in when already known (NaN:
- * not known) instead of sampled again.
- */
-function illinoisAt(f: Falling, a: number, b: number, tol: number, fa0: number, fb0: number): number {
-  let fa = Number.isNaN(fa0) ? f.at(a) : fa0;
-  let fb = Number.isNaN(fb0) ? f.at(b) : fb0;
-  let side = 0;
-  let m = 0.5 * (a + b);
-  const a0 = a;
-  const b0 = b;
-  for (let it = 0; it < 80 && b - a > tol; it++) {
-    const t = Number.isFinite(fa) && Number.isFinite(fb) && fa !== fb ? fa / (fa - fb) : 0.5;
-    m = a + (b - a) * (t > 0 && t < 1 ? t : 0.5);
-    // A sample at an end of the starting bracket is the value known there.
-    const fm = m === a0 && !Number.isNaN(fa0) ? fa0 : m === b0 && !Number.isNaN(fb0) ? fb0 : f.at(m);
-    if (fm >= 0) {
-      if (m - a < 0.5 * tol) return m;
-      a = m;
-      fa = fm;
-      if (side === 1) fb *= 0.5;
-      side = 1;
-    } else {
-      if (b - m < 0.5 * tol) return m;
-      b = m;
-      fb = fm;
-      if (side === -1) fa *= 0.5;
-      side = -1;
-    }
-  }
-  return m;
-}
-
-/**
  * Root of f in [lo, hi] with f(lo) ≥ 0 > f(hi) (one sign change: f falls
  * monotonically) to `tol`, by Illinois. With a guess (a neighbouring
  * solution), the bracket is first narrowed around it, so a few samples do
  * instead of a search over the whole interval; the root is the same to `tol`.
  */
 function rootNear(f: Falling, lo: number, hi: number, tol: number, guess?: number): number {
-  if (guess === undefined || !(guess > lo && guess < hi)) return illinoisAt(f, lo, hi, tol, NaN, NaN);
+  if (guess === undefined || !(guess > lo && guess < hi)) return fallingRoot(f, lo, hi, tol);
   const fg = f.at(guess);
-  if (!(fg >= 0) && !(fg < 0)) return illinoisAt(f, lo, hi, tol, NaN, NaN);
+  if (!(fg >= 0) && !(fg < 0)) return fallingRoot(f, lo, hi, tol);
   // Grow the bracket away from the guess towards the root, keeping f(a) ≥ 0 > f(b).
   const up = fg >= 0;
   let a = up ? guess : lo;
@@ -112,7 +69,7 @@ function rootNear(f: Falling, lo: number, hi: number, tol: number, guess?: numbe
   for (let d = GUESS_SPAN; up ? guess + d < hi : guess - d > lo; d *= 4) {
     const x = up ? guess + d : guess - d;
     const fx = f.at(x);
-    if (!(fx >= 0) && !(fx < 0)) return illinoisAt(f, lo, hi, tol, NaN, NaN);
+    if (!(fx >= 0) && !(fx < 0)) return fallingRoot(f, lo, hi, tol);
     if (fx >= 0) {
       a = x;
       fa = fx;
@@ -123,7 +80,7 @@ function rootNear(f: Falling, lo: number, hi: number, tol: number, guess?: numbe
     if (up ? fx < 0 : fx >= 0) break;
   }
   // The samples already taken at the bracket ends are not taken again.
-  return illinoisAt(f, a, b, tol, fa, fb);
+  return fallingRoot(f, a, b, tol, fa, fb);
 }
 
 /**
