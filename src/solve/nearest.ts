@@ -63,16 +63,21 @@ const headroomHopeless = (ctx: SolveContext, pool: readonly Evaluated[]): Hopele
   if (l.midMiss) return true;
   if (!routSurelyBelow(l, ctx.spec.rout)) return false;
   if (l.widest > ctx.wmax) return true;
-  const h = best.nominal.headroom;
-  if (!Number.isFinite(h)) return false;
   const [, r2] = bestOf(pool, higherRout, 2);
-  if (!r2 || !usable(r2) || !routSurelyBelow(l, r2.nominal.routAtTarget)) return false;
-  return routSurelyBelowAt(l, scanPointAtOrAbove(ctx.spec.span, h), ctx.spec.rout);
+  return r2 !== undefined && usable(r2) && beyondSeeds(ctx, l, best.nominal.headroom, r2);
 };
 const routBelowFromUsable = (ctx: SolveContext): Hopeless => (l, best) =>
   usable(best) && (l.midMiss || routSurelyBelow(l, Math.min(best.nominal.routAtTarget, ctx.spec.rout)) || (l.widest > ctx.wmax && routSurelyBelow(l, ctx.spec.rout)));
 const widerFromPhysical = (ctx: SolveContext): Hopeless => (l, best) =>
   physical(best) && (l.midMiss || l.widest >= widestOf(best) || routSurelyBelow(l, ctx.spec.rout));
+
+/**
+ * The look surely puts the design behind the seeds of both climbs: its targets fail at a scanned point at or above
+ * headroom `h` (so its headroom is higher) and its Rout at the headroom target is below `r2`'s.
+ */
+function beyondSeeds(ctx: SolveContext, l: Look, h: number, r2: Evaluated): boolean {
+  return Number.isFinite(h) && routSurelyBelow(l, r2.nominal.routAtTarget) && routSurelyBelowAt(l, scanPointAtOrAbove(ctx.spec.span, h), ctx.spec.rout);
+}
 
 /** The best k of the pool by `prefer`, after settling skipped moves when fewer than two designs are of `first`'s kind. */
 function seedsOf(ctx: SolveContext, pool: Evaluated[], seen: Seen, prefer: (a: Evaluated, b: Evaluated) => boolean, first: (e: Evaluated) => boolean): Evaluated[] {
@@ -107,9 +112,7 @@ function outOfReach(ctx: SolveContext, l: Look | null, pool: readonly Evaluated[
   const [, r2] = bestOf(pool, higherRout, 2);
   if (!h2 || !r2 || !usable(h2) || !usable(r2)) return false;
   if (l.midMiss || l.widest > ctx.wmax) return true;
-  const h = h2.nominal.headroom;
-  if (!Number.isFinite(h) || !routSurelyBelow(l, r2.nominal.routAtTarget)) return false;
-  return routSurelyBelowAt(l, scanPointAtOrAbove(ctx.spec.span, h), ctx.spec.rout);
+  return beyondSeeds(ctx, l, h2.nominal.headroom, r2);
 }
 
 /**

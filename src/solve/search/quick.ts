@@ -1,5 +1,5 @@
 import { sampleAt } from '../../stack/index.js';
-import { VOLT_SCALE, marginsFor, type Margins } from '../../policy.js';
+import { VOLT_SCALE, distanceToFeasible, marginsFor, type Margins } from '../../policy.js';
 import { SCAN_INTERVALS } from '../evaluate/stack-eval.js';
 import type { SolveContext } from '../context.js';
 import { saturationMargin } from '../evaluate/checks.js';
@@ -53,18 +53,12 @@ function look(ctx: SolveContext, c: Candidate): Look | null {
   const { iout, mismatch, width } = marginsFor(s, { rout: 0, headroom: Infinity, iout: m.mid.i, sigma, saturation, width: widest });
   const fixed = { iout, mismatch, saturation, width };
   const midMiss = iout < 0 || saturation < 0 || (s.mismatch !== undefined && sigma !== undefined && sigma > s.mismatch);
-  let rout: number | undefined;
-  const routAtTargetHeadroom = (): number => {
-    if (rout === undefined) {
-      const at = rangeSafe(() => sampleAt(devices, sized.gates, s.headroom, m.mid));
-      rout = at && Number.isFinite(at.rout) ? at.rout : NaN;
-    }
-    return rout;
-  };
   const routAt = (v: number): number => {
     const at = rangeSafe(() => sampleAt(devices, sized.gates, v, m.mid));
     return at && Number.isFinite(at.rout) ? at.rout : NaN;
   };
+  let rout: number | undefined;
+  const routAtTargetHeadroom = (): number => (rout ??= routAt(s.headroom));
   return { start, widest, midMiss, fixed, routAtTargetHeadroom, routAt };
 }
 
@@ -77,9 +71,6 @@ export function routSurelyBelow(l: Look, r: number): boolean {
 export function routSurelyBelowAt(l: Look, v: number, r: number): boolean {
   return l.routAt(v) < r * (1 - ROUT_SLACK);
 }
-
-// One target's shortfall as distanceToFeasible counts it.
-const shortOf = (x: number) => Math.min(Math.max(0, -x), 50);
 
 /**
  * The lowest point of the scan's voltage grid (SCAN_INTERVALS steps up to span, as stackCurve places them) at or
@@ -98,13 +89,13 @@ export function scanPointAtOrAbove(span: number, v: number): number {
  * The exact nominal shortfall (distanceToFeasible of the margins; other corners only add to a design's) is surely
  * above `x`: the fixed margins are the evaluation's own; Rout's is at least the miss at the headroom target (the
  * exact figure is the lowest over [target, span]); headroom's at least the distance to a scanned point where Rout
- * surely misses the target. DC solves only while the sum does not yet decide. Summed in distanceToFeasible's order,
+ * surely misses the target. DC solves only while the sum does not yet decide. Summed by distanceToFeasible itself,
  * so no term and no rounding of the sum is larger than the exact one's.
  */
 export function shortfallSurelyAbove(ctx: SolveContext, l: Look, x: number): boolean {
   const f = l.fixed;
   const s = ctx.spec;
-  const sum = (rout: number, headroom: number) => shortOf(rout) + shortOf(headroom) + shortOf(f.iout) + shortOf(f.mismatch) + shortOf(f.saturation) + shortOf(f.width);
+  const sum = (rout: number, headroom: number) => distanceToFeasible({ rout, headroom, ...f });
   const routMargin = (r: number) => (r > 0 ? Math.log((r * (1 + ROUT_SLACK)) / s.rout) : Infinity);
   if (sum(Infinity, Infinity) > x) return true;
   const rt = l.routAtTargetHeadroom();

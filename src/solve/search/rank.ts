@@ -12,6 +12,9 @@ export function compareDesigns(objective: Objective, a: Evaluated, b: Evaluated)
   return objectiveCompare(objective, measuresOf(a), measuresOf(b));
 }
 
+// Shortfalls that round to the same multiple of this tie in `better`.
+const SHORTFALL_STEP = 0.02;
+
 /**
  * a better than b (b usually the incumbent): meeting every target at every
  * corner first, then the objective; otherwise the smaller shortfall summed
@@ -24,9 +27,14 @@ export function better(ctx: SolveContext, a: Evaluated, b: Evaluated): boolean {
   // Neither meets everything: judge both by their shortfall at every corner, not only where it was computed,
   // or a nominal-only shortfall would look smaller than one that includes a corner's miss.
   // Shortfalls within ~2 % of Rout (1 mV of headroom) tie, so the nearest design is not bought with huge area.
-  const va = Math.round(shortfall(ctx, a) / 0.02);
-  const vb = Math.round(shortfall(ctx, b) / 0.02);
+  const va = Math.round(shortfall(ctx, a) / SHORTFALL_STEP);
+  const vb = Math.round(shortfall(ctx, b) / SHORTFALL_STEP);
   return va < vb || (va === vb && compareDesigns(obj, a, b) < 0);
+}
+
+/** The largest shortfall that `better` still rounds to the same step as x (less a hair for rounding). */
+export function stepTop(x: number): number {
+  return (Math.round(x / SHORTFALL_STEP) + 0.5) * SHORTFALL_STEP + 1e-9;
 }
 
 /** Shortfall summed over every corner of the spec (computes the corners if needed). */

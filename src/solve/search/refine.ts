@@ -4,7 +4,7 @@ import { candidateKey } from './candidate.js';
 import type { SolveContext } from '../context.js';
 import { candidateArea, evaluateCandidate, fullyOk, nominalOk, type Evaluated, type Start } from '../evaluate/evaluate.js';
 import { REL_TOL } from '../../policy.js';
-import { better, shortfall } from './rank.js';
+import { better, shortfall, stepTop } from './rank.js';
 import { rejudged, type Reuse, type Seen } from './reuse.js';
 import { lookAt, shortfallSurelyAbove, surelyMisses, type Look } from './quick.js';
 
@@ -102,7 +102,7 @@ export function refine(
   // target cannot win: its area (from the sizing alone) spares the exact evaluation.
   const bound = prefer ? () => Infinity : (b: Evaluated) => (ctx.spec.objective === 'area' && nominalOk(b) && fullyOk(ctx, b) ? b.area : Infinity);
   // By the spec's order nothing short of the nominal targets beats a design meeting every target; short of them,
-  // a move beats one only with a smaller shortfall in rank.better's 0.02 steps.
+  // a move beats one only with a smaller shortfall in rank.better's steps.
   if (!prefer) hopeless = (l, b) => (nominalOk(b) && fullyOk(ctx, b) ? surelyMisses(ctx, l) : shortfallSurelyAbove(ctx, l, stepTop(shortfall(ctx, b))));
   prefer ??= (a, b) => better(ctx, a, b);
   let best: Evaluated | undefined;
@@ -111,11 +111,6 @@ export function refine(
     if (!best || prefer(local, best)) best = local;
   }
   return best;
-}
-
-// The largest shortfall that rank.better still rounds to the same 0.02 step as x (less a hair for rounding).
-function stepTop(x: number): number {
-  return (Math.round(x / 0.02) + 0.5) * 0.02 + 1e-9;
 }
 
 /**
