@@ -7,14 +7,14 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { loadKit, parseSpec, sizeSpec } from '../src/index.js';
+import { parseSpec, sizeSpec } from '../src/index.js';
 import { decidingStages } from '../src/solve/stage-choose.js';
 import type { StageResult } from '../src/solve/stage-types.js';
 import type { SizeResult } from '../src/solve/types.js';
 import type { DesignSpec } from '../src/design/types.js';
 import { htmlReport, renderConfirmText, missWords } from '../src/report/index.js';
 import type { StageConfirmation, StageSimulatedFigures } from '../src/confirm/index.js';
-import { ensureDemoTables, REPO } from './helpers/cli.js';
+import { ensureDemoTables, REPO, demoKit } from './helpers/cli.js';
 
 let result: SizeResult;
 let spec: DesignSpec;
@@ -26,7 +26,7 @@ beforeAll(() => {
   const file = join(REPO, 'demo-tables', 'specs', 'marsh-wren.yaml');
   source = readFileSync(file, 'utf8');
   spec = parseSpec(source, file);
-  result = sizeSpec(spec, loadKit('demo180', { tables: join(REPO, 'tables') })).result;
+  result = sizeSpec(spec, demoKit('demo180')).result;
   stage = decidingStages(result)[0];
 }, 120_000);
 

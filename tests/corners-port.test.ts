@@ -1,14 +1,14 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { join } from 'node:path';
 import { evaluateAtCorner, loadKit, parseSpec, pelgromSigma, portSpec, sizeSpec, type Kit } from '../src/index.js';
-import { ensureDemoTables, REPO } from './helpers/cli.js';
+import { ensureDemoTables, REPO, demoKit } from './helpers/cli.js';
 
 let k180: Kit;
 let k090: Kit;
 beforeAll(() => {
   ensureDemoTables();
-  k180 = loadKit('demo180', { tables: join(REPO, 'tables') });
-  k090 = loadKit('demo090', { tables: join(REPO, 'tables') });
+  k180 = demoKit('demo180');
+  k090 = demoKit('demo090');
 });
 
 const sink = (rout: string, headroom: number, current = '20u', span = 1.6) =>

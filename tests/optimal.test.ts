@@ -1,10 +1,9 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { join } from 'node:path';
-import { loadKit, sizeStack, type Kit } from '../src/index.js';
+import { sizeStack, type Kit } from '../src/index.js';
 import type { StackSpec, Topology } from '../src/design/types.js';
 import type { StackResult } from '../src/solve/types.js';
 import { sampleAt, holds, type StackDevice } from '../src/stack/index.js';
-import { ensureDemoTables, REPO } from './helpers/cli.js';
+import { demoKit, ensureDemoTables } from './helpers/cli.js';
 import { exhaustive, type Grid, type RefAnswer } from './helpers/exhaustive.js';
 
 // The search must find what an exhaustive search over the same tables finds (definition of a constrained optimum:
@@ -16,7 +15,7 @@ let kits: Record<string, Kit>;
 const SUPPLY: Record<string, number> = { demo180: 1.8, demo090: 1.2 };
 beforeAll(() => {
   ensureDemoTables();
-  kits = { demo180: loadKit('demo180', { tables: join(REPO, 'tables') }), demo090: loadKit('demo090', { tables: join(REPO, 'tables') }) };
+  kits = { demo180: demoKit('demo180'), demo090: demoKit('demo090') };
 });
 
 interface Case {

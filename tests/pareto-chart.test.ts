@@ -1,11 +1,10 @@
-import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { loadKit, sizeSpec, type SizeRun } from '../src/api.js';
+import { sizeSpec, type SizeRun } from '../src/api.js';
 import { parseSpec } from '../src/design/index.js';
 import { decidingResults } from '../src/solve/choose.js';
 import { paretoFront, type FrontPoint } from '../src/solve/pareto.js';
 import { stackCharts } from '../src/report/stack-charts.js';
-import { ensureDemoTables, REPO } from './helpers/cli.js';
+import { demoKit, ensureDemoTables } from './helpers/cli.js';
 
 const SPEC = `kit: demo180\nsupply: 1.8\nstacks:\n  - name: load\n    device: p\n    topology: auto\n    current: 10u\n    rout: 100meg\n    headroom: 0.5\n    span: 1.5\n`;
 
@@ -13,7 +12,7 @@ describe('Pareto chart', () => {
   let run: SizeRun;
   beforeAll(() => {
     ensureDemoTables();
-    run = sizeSpec(parseSpec(SPEC, 'p.yaml'), loadKit('demo180', { tables: join(REPO, 'tables') }));
+    run = sizeSpec(parseSpec(SPEC, 'p.yaml'), demoKit('demo180'));
   });
 
   it('the front holds points of every topology that has exactly evaluated designs, the chosen one included', () => {

@@ -1,14 +1,13 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { join } from 'node:path';
-import { loadKit, parseSpec, sizeSpec, type Kit } from '../src/index.js';
+import { parseSpec, sizeSpec, type Kit } from '../src/index.js';
 import { parseSizeResult } from '../src/solve/index.js';
 import { StackwrightError } from '../src/errors.js';
-import { ensureDemoTables, REPO } from './helpers/cli.js';
+import { demoKit, ensureDemoTables } from './helpers/cli.js';
 
 let kit: Kit;
 beforeAll(() => {
   ensureDemoTables();
-  kit = loadKit('demo180', { tables: join(REPO, 'tables') });
+  kit = demoKit('demo180');
 });
 
 // Invented targets on the invented demo kit: a single device cannot give 100 MΩ within 0.5 V, a cascode can

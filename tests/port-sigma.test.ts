@@ -1,15 +1,14 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { join } from 'node:path';
-import { loadKit, parseSpec, pelgromSigma, portSpec, type Kit } from '../src/index.js';
+import { parseSpec, pelgromSigma, portSpec, type Kit } from '../src/index.js';
 import { renderPortText } from '../src/report/index.js';
-import { ensureDemoTables, REPO } from './helpers/cli.js';
+import { demoKit, ensureDemoTables } from './helpers/cli.js';
 
 let k180: Kit;
 let k090: Kit;
 beforeAll(() => {
   ensureDemoTables();
-  k180 = loadKit('demo180', { tables: join(REPO, 'tables') });
-  k090 = loadKit('demo090', { tables: join(REPO, 'tables') });
+  k180 = demoKit('demo180');
+  k090 = demoKit('demo090');
 });
 
 // The adc-reference stack of demo-tables/specs/marsh-wren.yaml: on demo090 (1 V span) it meets Rout and

@@ -1,6 +1,5 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { join } from 'node:path';
-import { loadKit, type Kit } from '../src/index.js';
+import { type Kit } from '../src/index.js';
 import type { StackSpec } from '../src/design/types.js';
 import { makeContext } from '../src/solve/context.js';
 import { screen } from '../src/solve/search/screen.js';
@@ -9,7 +8,7 @@ import { lookAt, routSurelyBelow, routSurelyBelowAt, scanPointAtOrAbove, shortfa
 import { evaluateCandidate } from '../src/solve/evaluate/evaluate.js';
 import { candidateKey, type Candidate } from '../src/solve/search/candidate.js';
 import { distanceToFeasible } from '../src/policy.js';
-import { ensureDemoTables, REPO } from './helpers/cli.js';
+import { demoKit, ensureDemoTables } from './helpers/cli.js';
 
 // The quick look spares exact evaluations only through bounds, so each bound must hold against the exact evaluation
 // of the same candidate (common practice: a pruning bound of branch and bound never exceeds what it bounds, or the
@@ -19,7 +18,7 @@ import { ensureDemoTables, REPO } from './helpers/cli.js';
 let kit: Kit;
 beforeAll(() => {
   ensureDemoTables();
-  kit = loadKit('demo180', { tables: join(REPO, 'tables') });
+  kit = demoKit('demo180');
 });
 
 // The demo's p-type load source as a stacked cascode: infeasible, so the nearest-point climbs use every bound.

@@ -1,9 +1,8 @@
-import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { loadKit, sizeSpec } from '../src/api.js';
+import { sizeSpec } from '../src/api.js';
 import { parseSpec } from '../src/design/index.js';
 import { stageNetlist } from '../src/spice/stage-netlist.js';
-import { ensureDemoTables, REPO } from './helpers/cli.js';
+import { demoKit, ensureDemoTables } from './helpers/cli.js';
 
 beforeAll(() => ensureDemoTables());
 
@@ -18,7 +17,7 @@ describe('stage netlist when the input DC voltage lies outside the rails', () =>
   const text = 'kit: demo180\nsupply: 0.9\nstacks: []\nstages:\n  - name: g0\n    current: 4m\n    gain: 3\n    swing: 0.045\n    input: {device: n, topology: single, l: [1u, 20u], gmid: [3, 3.2]}\n    load: {topology: auto}\n';
   it('sweeps ± 50 mV around the sized input DC voltage, and the .op source sits at it', () => {
     const spec = parseSpec(text, 'g.yaml');
-    const run = sizeSpec(spec, loadKit('demo180', { tables: join(REPO, 'tables') }));
+    const run = sizeSpec(spec, demoKit('demo180'));
     const st = run.result.stages!.find((s) => s.chosen ?? true)!;
     const vin = st.input.devices[0].gate;
     expect(vin).toBeGreaterThan(0.95); // the case this test is about

@@ -2,8 +2,8 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { loadKit, parseSpec, sizeSpec, type Kit } from '../src/index.js';
-import { cli, ensureDemoTables, REPO } from './helpers/cli.js';
+import { parseSpec, sizeSpec, type Kit } from '../src/index.js';
+import { cli, ensureDemoTables, REPO, demoKit } from './helpers/cli.js';
 
 /*
  * How the input is provoked outside the rails: a common-source stage on a 0.6 V supply whose
@@ -20,7 +20,7 @@ const stage = (device: 'n' | 'p', gmid: string) =>
 let kit: Kit;
 beforeAll(() => {
   ensureDemoTables();
-  kit = loadKit('demo180', { tables: join(REPO, 'tables') });
+  kit = demoKit('demo180');
 });
 
 describe('a stage whose input DC voltage would lie outside the rails', () => {

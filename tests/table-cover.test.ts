@@ -7,7 +7,7 @@ import { loadTable, writeTable } from '../src/table/index.js';
 import type { DeviceTable } from '../src/table/types.js';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { cli, ensureDemoTables, REPO } from './helpers/cli.js';
+import { cli, ensureDemoTables, REPO, demoKit } from './helpers/cli.js';
 
 /** The demo table cut to its VSB = 0 points, as a sweep without body bias would give. */
 function vsbZeroOnly(t: DeviceTable): DeviceTable {
@@ -55,7 +55,7 @@ describe('numbers in sizing messages carry units', () => {
   it('gm/ID range beyond the table, and headroom/span given to the library directly', async () => {
     const { loadKit } = await import('../src/api.js');
     const { sizeStack } = await import('../src/solve/size.js');
-    const kit = loadKit('demo180', { tables: join(REPO, 'tables') });
+    const kit = demoKit('demo180');
     const base = parseSpec('kit: demo180\nsupply: 1.8\nstacks:\n  - name: s\n    device: n\n    topology: cascode\n    current: 10u\n    rout: 1meg\n    headroom: 0.3\n    span: 1.6\n    gmid: [35, 50]\n', 'g.yaml');
     let msg = '';
     try {

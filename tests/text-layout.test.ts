@@ -1,11 +1,10 @@
-import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { loadKit, sizeSpec, type SizeRun } from '../src/api.js';
 import { parseSpec } from '../src/design/index.js';
 import { renderSizeBrief, renderSizeText } from '../src/report/size-text.js';
 import { reportHtml } from '../src/report/size-outputs.js';
 import { displayWidth } from '../src/report/text.js';
-import { ensureDemoTables, REPO } from './helpers/cli.js';
+import { demoKit, ensureDemoTables } from './helpers/cli.js';
 
 // A stack the objective sizes with a few alternatives, one of them infeasible with a long explanation.
 const SPEC = `kit: demo180
@@ -34,7 +33,7 @@ describe('text output layout', () => {
   let kit: ReturnType<typeof loadKit>;
   beforeAll(() => {
     ensureDemoTables();
-    kit = loadKit('demo180', { tables: join(REPO, 'tables') });
+    kit = demoKit('demo180');
     run = sizeSpec(parseSpec(SPEC, 's.yaml'), kit);
   });
 

@@ -1,12 +1,18 @@
 import { spawnSync } from 'node:child_process';
 import { join } from 'node:path';
 import { buildDemoTables } from '../../scripts/build-demo-tables.js';
+import { loadKit, type Kit } from '../../src/index.js';
 
 export const REPO = join(import.meta.dirname, '..', '..');
 
 /** Make sure the demo kits' tables exist (skips when up to date). */
 export function ensureDemoTables(): void {
   buildDemoTables(REPO, join(REPO, 'tables'), () => {});
+}
+
+/** A demo kit from the repository's built tables (call ensureDemoTables first, e.g. in beforeAll). */
+export function demoKit(name: string): Kit {
+  return loadKit(name, { tables: join(REPO, 'tables') });
 }
 
 export interface CliRun {
