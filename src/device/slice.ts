@@ -1,4 +1,4 @@
-import { AxisLocator } from '../numeric/axis.js';
+import { AxisLocator, coveredEdges } from '../numeric/axis.js';
 import { rowMajorStrides } from '../numeric/strides.js';
 import { rangeError } from '../numeric/range-error.js';
 import { tableLabel } from '../table/label.js';
@@ -29,6 +29,7 @@ export class TableSlice implements LengthSlice {
   readonly l: number;
   readonly table: DeviceTable;
   readonly range: { vgs: [number, number]; vds: [number, number]; vsb: [number, number] };
+  readonly edges: Float64Array;
   /** Conductances estimated because the table lacks them, with how. */
   readonly estimated: Partial<Record<StoredQuantity, string>>;
   private readonly plane: LengthPlane;
@@ -92,6 +93,7 @@ export class TableSlice implements LengthSlice {
       vds: [this.ld.lo, this.ld.hi],
       vsb: [this.ls.lo, this.ls.hi],
     };
+    this.edges = coveredEdges(this.range.vgs, this.range.vds, this.range.vsb);
   }
 
   /** Whether the table stores (or this slice estimated) a quantity. */

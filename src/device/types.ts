@@ -55,4 +55,9 @@ export interface LengthSlice {
   op(vgs: number, vds: number, vsb: number, w: number): OperatingPoint;
   /** Valid voltage ranges of this slice. */
   readonly range: { vgs: [number, number]; vds: [number, number]; vsb: [number, number] };
+  /**
+   * The ranges widened by the table-edge tolerance, flat: [vgs lo, vgs hi, vds lo, vds hi, vsb lo, vsb hi]
+   * (numeric/axis `coveredEdges`), so the range check of every DC-solve step is six comparisons.
+   */
+  readonly edges: Float64Array;
 }

@@ -71,6 +71,20 @@ export function edgeTolerance(lo: number, hi: number): number {
 }
 
 /**
+ * The axes' ends widened by edgeTolerance, flat [lo0, hi0, lo1, hi1, ...]: x is on axis k when
+ * edges[2k] <= x <= edges[2k + 1], as the locator decides.
+ */
+export function coveredEdges(...axes: ReadonlyArray<readonly [number, number]>): Float64Array {
+  const e = new Float64Array(2 * axes.length);
+  axes.forEach(([lo, hi], k) => {
+    const slack = edgeTolerance(lo, hi);
+    e[2 * k] = lo - slack;
+    e[2 * k + 1] = hi + slack;
+  });
+  return e;
+}
+
+/**
  * Lower node of the cell of strictly increasing `v` that holds x, by bisection:
  * the last i ≤ n − 2 with v[i] ≤ x, 0 below v[1] (numpy.searchsorted(v, x, 'right') − 1,
  * clipped to [0, n − 2]). Needs n ≥ 2.

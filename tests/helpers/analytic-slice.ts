@@ -1,4 +1,5 @@
 import type { LengthSlice, OperatingPoint } from '../../src/device/types.js';
+import { coveredEdges } from '../../src/numeric/axis.js';
 
 /** An analytic device model per metre of width: [jd, gm/W, gds/W, gmb/W]. Invented parameters, not any real process. */
 export type Model = (vgs: number, vds: number, vsb: number) => [number, number, number, number];
@@ -22,6 +23,7 @@ export function sliceOf(l: number, model: Model, vsbMax = 1.2): LengthSlice {
       };
     },
     range: { vgs: [0, 1.8], vds: [0, 1.8], vsb: [0, vsbMax] },
+    edges: coveredEdges([0, 1.8], [0, 1.8], [0, vsbMax]),
   };
 }
 
