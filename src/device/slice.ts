@@ -146,10 +146,11 @@ export class TableSlice implements LengthSlice {
     const cu = cHi - cLo;
     const cv = (1 - u) * (c01 - c00) + u * (c11 - c10);
     const t = this.tg;
-    let f: number;
-    let ft: number;
-    let fu: number;
-    let fv: number;
+    // Linear along VGS first, on every call (as in eval: a branch never run before optimisation costs a recompile).
+    let f = t === 0 ? a : t === 1 ? c : (1 - t) * a + t * c;
+    let ft = c - a;
+    let fu = (1 - t) * au + t * cu;
+    let fv = (1 - t) * av + t * cv;
     if (a > 0 && c > 0) {
       // Geometric along VGS: f = a·(c/a)^t, the same expression as eval().
       const lr = Math.log(c / a);
@@ -157,11 +158,6 @@ export class TableSlice implements LengthSlice {
       ft = f * lr;
       fu = f * ((1 - t) * (au / a) + t * (cu / c));
       fv = f * ((1 - t) * (av / a) + t * (cv / c));
-    } else {
-      f = t === 0 ? a : t === 1 ? c : (1 - t) * a + t * c;
-      ft = c - a;
-      fu = (1 - t) * au + t * cu;
-      fv = (1 - t) * av + t * cv;
     }
     const k = this.perW;
     out[0] = f * k;
@@ -251,9 +247,10 @@ export class TableSlice implements LengthSlice {
     const t = this.tg;
     if (t === 0) return a;
     if (t === 1) return c;
+    // The linear value is worked out on every call: a branch the compiler has never seen run throws its code away.
+    const lin = (1 - t) * a + t * c;
     // a·(c/a)^t is exp((1−t)·ln a + t·ln c) with one log fewer.
-    if (logVgs && a > 0 && c > 0) return a * Math.exp(t * Math.log(c / a));
-    return (1 - t) * a + t * c;
+    return logVgs && a > 0 && c > 0 ? a * Math.exp(t * Math.log(c / a)) : lin;
   }
 
   // eval(p, true) · k written into out[j]: no double is returned, so none is boxed when this is not inlined.
@@ -269,8 +266,11 @@ export class TableSlice implements LengthSlice {
     const t = this.tg;
     if (t === 0) out[j] = a * k;
     else if (t === 1) out[j] = c * k;
-    else if (a > 0 && c > 0) out[j] = a * Math.exp(t * Math.log(c / a)) * k;
-    else out[j] = ((1 - t) * a + t * c) * k;
+    else {
+      // As in eval: the linear value on every call, so its arithmetic has type feedback when a sign change needs it.
+      const lin = (1 - t) * a + t * c;
+      out[j] = (a > 0 && c > 0 ? a * Math.exp(t * Math.log(c / a)) : lin) * k;
+    }
   }
 }
 

@@ -50,7 +50,10 @@ export class AxisLocator {
     if (this.uniform) {
       i = Math.floor((x - this.lo) * this.invStep);
       if (i > last) i = last;
-      // The guess can be off by one through rounding; the node values decide.
+      // The guess can be off by one through rounding; the node values decide. One step each way runs on every
+      // call (an increment the compiler has never seen run would throw its code away); the loops only in theory.
+      i -= i > 0 && x < v[i] ? 1 : 0;
+      i += i < last && x >= v[i + 1] ? 1 : 0;
       while (i > 0 && x < v[i]) i--;
       while (i < last && x >= v[i + 1]) i++;
     } else {

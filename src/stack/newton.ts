@@ -18,7 +18,11 @@ export function newtonSolve(devices: readonly StackDevice[], gates: readonly num
   const { r, dx, x } = w;
   x[0] = 0;
   x[n] = v;
-  for (let k = 1; k < n; k++) x[k] = Math.min(Math.max(k < count ? nodes[k] : (v * k) / n, x[k - 1]), v);
+  for (let k = 1; k < n; k++) {
+    // The even spread is worked out even when a start is given: arithmetic never run before optimisation deopts.
+    const spread = (v * k) / n;
+    x[k] = Math.min(Math.max(k < count ? nodes[k] : spread, x[k - 1]), v);
+  }
   let i = i0;
   if (!(i > 0)) {
     if (!covers(devices[0].slice, gates[0], x[1], 0)) return NaN;
