@@ -38,7 +38,10 @@ export interface SideDesign {
   sized: SizedStack;
   devices: StackDevice[];
   area: number;
-  /** Rout of the side at each grid output (input side: carrying the design current; load: fixed gates); 0 where not coverable. */
+  /**
+   * Rout of the side at each grid output (input side: carrying the design current; load: fixed gates); 0 where not
+   * coverable. Empty for a side sized without its curve (the stage climb, which traces its pairs exactly).
+   */
   rout: Float64Array;
   /** Input side only: gm of the input device at each grid output at the design current, S. */
   gm?: Float64Array;
@@ -111,8 +114,9 @@ export function sideCandidates(stage: StageSpec, side: Side, topology: Topology,
  * narrower than the minimum width, or a device below the top one is not
  * saturated at the design point (as for stacks). `gmMax` (load side) is the
  * highest input gm over the input designs, to know where the load alone caps the gain.
+ * With `curve` false the side is only sized and checked at the design point (rout and gm left empty).
  */
-export function sideDesign(side: Side, cand: Candidate, vs: Float64Array, j0: number, stage: StageSpec, supply: number, gmMax = Infinity): SideDesign | null {
+export function sideDesign(side: Side, cand: Candidate, vs: Float64Array, j0: number, stage: StageSpec, supply: number, gmMax = Infinity, curve = true): SideDesign | null {
   const ctx = side.ctx;
   ctx.count.exact++;
   try {
@@ -123,10 +127,11 @@ export function sideDesign(side: Side, cand: Candidate, vs: Float64Array, j0: nu
     const m = midPoint(devices, sized.gates, side.vd, { i: ctx.spec.current, nodes: sized.nodes }, ctx.ut(ctx.nominal));
     if (!m || saturationMargin(m) < 0) return null;
     const n = vs.length;
-    const rout = new Float64Array(n);
+    const rout = new Float64Array(curve ? n : 0);
     const top = m.mid.devices[devices.length - 1];
     const cdd = devices[devices.length - 1].slice.op(top.vgs, top.vds, top.vsb, devices[devices.length - 1].w).cdd;
     const d: SideDesign = { cand, slices, sized, devices, area: devices.reduce((a, x) => a + x.w * x.slice.l, 0), rout, cdd };
+    if (!curve) return d;
     // Beyond the point where this side alone caps the gain below half the target
     // (A ≤ gm_in·Rout_side), the stage is outside any swing: stop tracing that way.
     const floor = 0.5 * stage.gain;

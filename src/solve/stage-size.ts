@@ -11,6 +11,7 @@ import { chooseStage } from './stage-choose.js';
 import type { StageFrontPoint, StageResult } from './stage-types.js';
 import { paretoStages } from './stage-front.js';
 import { checkStageCover } from './table-cover.js';
+import { refineStage, type SideMemo } from './stage-refine.js';
 
 /** Output grid step of the pair screen, V. */
 const SCREEN_STEP = 0.05;
@@ -86,6 +87,8 @@ export function sizeStage(stage: StageSpec, kit: KitAccess, opts: { supply: numb
   const topologies: readonly Topology[] = stage.load.topology === 'auto' ? topologyNames() : [stage.load.topology];
   const results: StageResult[] = [];
   const explored: StageFrontPoint[] = [];
+  // Side designs the climbs build, by candidate key, shared by the load topologies' climbs.
+  const memos: { input: SideMemo; load: SideMemo } = { input: new Map(), load: new Map() };
   let evaluated = 0;
   for (const t of topologies) {
     const before = input.ctx.count.exact + load.ctx.count.exact + input.ctx.count.screened + load.ctx.count.screened;
@@ -96,14 +99,16 @@ export function sizeStage(stage: StageSpec, kit: KitAccess, opts: { supply: numb
       const d = evaluatePair(sides, p.input, p.load);
       if (d) pool.push(d);
     }
-    const count = input.ctx.count.exact + load.ctx.count.exact + input.ctx.count.screened + load.ctx.count.screened - before + screened + pool.length;
+    const traced = pool.length;
+    const picked = pickStage(sides, pool);
+    const climb = picked ? refineStage(sides, picked, pool, memos) : undefined;
+    const count = input.ctx.count.exact + load.ctx.count.exact + input.ctx.count.screened + load.ctx.count.screened - before + screened + traced + (climb?.evaluated ?? 0);
     evaluated += count;
-    const best = pickStage(sides, pool);
-    if (!best) {
+    if (!climb) {
       results.push(emptyStageResult(sides, t, count));
       continue;
     }
-    results.push(stageResult(sides, best, pool, count));
+    results.push(stageResult(sides, climb.best, pool, count));
     for (const d of pool) explored.push(stageFrontPoint(sides, d));
   }
   if (stage.load.topology === 'auto') {
