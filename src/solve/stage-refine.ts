@@ -1,14 +1,18 @@
 import { topologyOf } from '../topology/index.js';
 import { REL_TOL } from '../policy.js';
-import { outputGrid, designIndex } from '../stack/index.js';
+import { outputGrid, designIndex, stagePoint, type StageCircuit } from '../stack/index.js';
 import { candidateKey, type Candidate } from './search/candidate.js';
 import { neighbours } from './search/refine.js';
 import { sideDesign, type Side, type SideDesign } from './stage-side.js';
 import { TRACE_STEP, cornersOf, evaluateCorner, evaluatePair, stageAt, type StageDesign, type StageSides } from './stage-eval.js';
 import { meets, shortfall, stageCompare, stageMargins } from './stage-rank.js';
+import { rangeSafe } from './evaluate/evaluate.js';
+import { guessOf } from '../stack/index.js';
 
 /** Output grid step of the side traces the refinement builds (as the pair screen's), V. */
 const SIDE_STEP = 0.05;
+/** How far outside a swing edge surelyMisses looks, V (below the traces' 0.5 mV edge resolution). */
+const EDGE_GAP = 1e-4;
 /** Climb rounds at most; each round tries the moves of both sides once. */
 const MAX_ROUNDS = 24;
 
@@ -22,32 +26,34 @@ export function stageTotalShortfall(sides: StageSides, d: StageDesign): number {
   return cornersOf(sides, d).reduce((a, c) => a + shortfall(stageMargins(sides.stage, c)), shortfall(stageMargins(sides.stage, d.nominal)));
 }
 
-/**
- * Meets every target at every corner on the search grid and again on the reported grid (edges bisected on the
- * circuit): the climb walks along the targets' boundary, where the 50 mV estimate of the swing can pass a design
- * the reported trace fails. The reported check runs only for designs passing the first, once per design.
- */
-function okReported(sides: StageSides, d: StageDesign, known: WeakMap<StageDesign, boolean>): boolean {
-  let ok = known.get(d);
-  if (ok === undefined) {
-    ok = stageFullyOk(sides, d);
-    if (ok) {
-      const n = stageAt(sides, d.nominal.corner, d.nominal.circuit, d.nominal.gates, TRACE_STEP);
-      ok = meets(stageMargins(sides.stage, n)) && sides.input.ctx.corners.slice(1).every((c) => meets(stageMargins(sides.stage, evaluateCorner(sides, d, c, TRACE_STEP))));
-    }
-    known.set(d, ok);
-  }
-  return ok;
+/** Meets every target at every corner on the reported grid (as the result will be traced). */
+function okReported(sides: StageSides, d: StageDesign): boolean {
+  const n = stageAt(sides, d.nominal.corner, d.nominal.circuit, d.nominal.gates, TRACE_STEP);
+  return meets(stageMargins(sides.stage, n)) && sides.input.ctx.corners.slice(1).every((c) => meets(stageMargins(sides.stage, evaluateCorner(sides, d, c, TRACE_STEP))));
 }
 
 /**
- * The climb's order: a design meeting every target at every corner (okReported) beats one that does not; two that
- * do are ordered by the objective (stageCompare, area settling ties); two that do not by their summed shortfall,
+ * A memoised stageFullyOk for one stage search (the traces of the search grid): what the climb and its seeds count
+ * as meeting every target. The result is then confirmed on the reported grid (okReported): on the targets'
+ * boundary, where the climb ends, the two traces' swing edges (each bisected to 0.5 mV) can disagree.
+ */
+export function climbOk(sides: StageSides): (d: StageDesign) => boolean {
+  const known = new WeakMap<StageDesign, boolean>();
+  return (d) => {
+    let ok = known.get(d);
+    if (ok === undefined) known.set(d, (ok = stageFullyOk(sides, d)));
+    return ok;
+  };
+}
+
+/**
+ * The climb's order: a design meeting every target at every corner (`ok`) beats one that does not; two that do
+ * are ordered by the objective (stageCompare, area settling ties); two that do not by their summed shortfall,
  * then area.
  */
-export function stageBetter(sides: StageSides, a: StageDesign, b: StageDesign, known = new WeakMap<StageDesign, boolean>()): boolean {
-  const fa = okReported(sides, a, known);
-  const fb = okReported(sides, b, known);
+export function stageBetter(sides: StageSides, a: StageDesign, b: StageDesign, ok: (d: StageDesign) => boolean): boolean {
+  const fa = ok(a);
+  const fb = ok(b);
   if (fa !== fb) return fa;
   if (fa) return stageCompare(sides.stage.objective, a, b) < 0;
   const sa = stageTotalShortfall(sides, a);
@@ -60,17 +66,51 @@ export function stageBetter(sides: StageSides, a: StageDesign, b: StageDesign, k
 export type SideMemo = Map<string, SideDesign | null>;
 
 /**
- * Local refinement of a gain stage: from the pair the pair screen picked, hill-climb over the moves of one side
- * at a time — the stack climb's neighbours (each device's L to the neighbouring grid lengths, each gm/ID and
- * VDS setpoint by ± its step, and pairs of those) — with the other side held, halving the gm/ID and setpoint steps
- * when no move improves. Every move is judged exactly as one circuit (evaluatePair, every corner when it meets the
- * nominal targets) by stageBetter. With objective area a move whose summed area cannot beat a design meeting every
- * target is not traced. The screen ranks pairs on estimated gain curves from a few hundred side candidates, so its
- * pick can be far from the best nearby design (the climb is what makes the stage's result locally optimal).
- * Every design the climb evaluates is added to `pool` (the trade front and the nearest points see them).
+ * True when the pair surely misses the swing target at the nominal corner. The swing is the contiguous interval
+ * around the design point where the gain holds the target, so two outputs below and above the design point where
+ * the gain is below the target (or the circuit cannot hold it), closer together than the swing target, prove a
+ * miss. Tried where a miss shows first on a move from a design `near` meeting the targets: just outside one of its
+ * swing edges and a swing target away from there. A few solves of the circuit the exact trace solves (stagePoint),
+ * instead of a trace; undecided (false) when neither pair of outputs proves it.
+ */
+function surelyMisses(sides: StageSides, input: SideDesign, load: SideDesign, near: StageDesign): boolean {
+  const { stage } = sides;
+  const v0 = stage.output;
+  const c: StageCircuit = {
+    supply: sides.supply, device: sides.input.device,
+    input: { devices: input.devices, cascodeGate: input.sized.gates[1] },
+    load: { devices: load.devices, gates: load.sized.gates },
+  };
+  const p0 = rangeSafe(() => stagePoint(c, v0));
+  if (!p0 || !(p0.gain >= stage.gain)) return true;
+  const below = (v: number): boolean => {
+    if (!(v > 0 && v < sides.supply)) return false;
+    const p = rangeSafe(() => stagePoint(c, v, p0.load, guessOf(p0.input)));
+    // No solution from this start proves nothing (the trace reaches the point by continuation).
+    return p !== null && !(p.gain >= stage.gain);
+  };
+  const { vlow, vhigh } = near.nominal.trace;
+  if (vlow === null || vhigh === null) return false;
+  const miss = (w: number, u: number): boolean => w < v0 && u > v0 && below(w) && below(u);
+  return miss(vlow - EDGE_GAP, vlow + stage.swing - 2 * EDGE_GAP) || miss(vhigh - stage.swing + 2 * EDGE_GAP, vhigh + EDGE_GAP);
+}
+
+/**
+ * Local refinement of a gain stage: from the pair the pair screen picked and a few other designs of its pool,
+ * hill-climb over moves judged exactly as one circuit (evaluatePair, every corner when it meets the nominal targets)
+ * by stageBetter:
+ * - one side moved with the other held: the stack climb's neighbours (each device's L to the neighbouring grid
+ *   lengths, each gm/ID and VDS setpoint by ± its step), then pairs of those;
+ * - then both sides at once, a length of one with a single step of the other: a side giving up area and Rout
+ *   only pays when the other makes up the gain, which no move of one side finds.
+ * Moves go in order of summed area, so with objective area the first one meeting every target wins the round and
+ * the rest, no smaller than it, are not traced; a move surelyMisses rules out is not traced either.
+ * Every seed climbs at the screen's gm/ID step; the best of those climbs on with the steps halved twice. The screen
+ * ranks pairs on estimated gain curves from a few hundred side candidates, so its pick can be far from the best
+ * nearby design. Every design traced is added to `pool` (the trade front and the nearest points see them).
  */
 export function refineStage(
-  sides: StageSides, start: StageDesign, pool: StageDesign[], memos: { input: SideMemo; load: SideMemo },
+  sides: StageSides, seeds: readonly StageDesign[], pool: StageDesign[], memos: { input: SideMemo; load: SideMemo },
 ): { best: StageDesign; evaluated: number } {
   const { stage, supply } = sides;
   const vs = outputGrid(stage.output, supply, SIDE_STEP);
@@ -78,7 +118,9 @@ export function refineStage(
   const pairs = new Map<string, StageDesign | null>();
   let evaluated = 0;
 
-  const sideOf = (side: Side, memo: SideMemo, c: Candidate, key: string): SideDesign | null => {
+  const sideOf = (side: Side, c: Candidate): SideDesign | null => {
+    const memo = memos[side.kind];
+    const key = candidateKey(c);
     let d = memo.get(key);
     if (d === undefined) {
       d = sideDesign(side, c, vs, j0, stage, supply, Infinity, false);
@@ -102,54 +144,84 @@ export function refineStage(
     return d;
   };
 
-  let best = start;
-  const known = new WeakMap<StageDesign, boolean>();
-  const steps = {
-    input: { g: sides.input.ctx.gmidStep, v: topologyOf(start.input.cand.topology).refineVoltageStep },
-    load: { g: sides.load.ctx.gmidStep, v: topologyOf(start.load.cand.topology).refineVoltageStep },
+  const ok = climbOk(sides);
+  // Designs meeting every target that the climbs moved to (or started from): the result is the best of them that
+  // the reported trace confirms.
+  const met: StageDesign[] = [];
+  let best = seeds[0];
+  let steps = { input: { g: 0, v: 0 }, load: { g: 0, v: 0 } };
+  const bound = (): number => (stage.objective === 'area' && ok(best) ? best.area * (1 - REL_TOL) : Infinity);
+  const sideMoves = (kind: 'input' | 'load', pairMoves: boolean, lengthsOnly = false): SideDesign[] => {
+    const out: SideDesign[] = [];
+    const from = best[kind].cand;
+    for (const c of neighbours(sides[kind].ctx, from, steps[kind].g, steps[kind].v, pairMoves)) {
+      if (lengthsOnly && c.l.every((l, k) => l === from.l[k])) continue;
+      const d = sideOf(sides[kind], c);
+      if (d) out.push(d);
+    }
+    return out;
   };
-  const bound = (): number => (stage.objective === 'area' && okReported(sides, best, known) ? best.area * (1 - REL_TOL) : Infinity);
-
-  // The moves of both sides (one side moved, the other held), smallest summed area first: with objective area
-  // the first move meeting every target is the best of the round and tightens the bound for the rest.
-  const movesOf = (pairMoves: boolean): Array<{ input: SideDesign; load: SideDesign; area: number }> => {
-    const out: Array<{ input: SideDesign; load: SideDesign; area: number }> = [];
-    for (const kind of ['input', 'load'] as const) {
-      const side = sides[kind];
-      for (const c of neighbours(side.ctx, best[kind].cand, steps[kind].g, steps[kind].v, pairMoves)) {
-        const d = sideOf(side, memos[kind], c, candidateKey(c));
-        if (!d) continue;
-        const input = kind === 'input' ? d : best.input;
-        const load = kind === 'load' ? d : best.load;
-        out.push({ input, load, area: input.area + load.area });
-      }
+  type Move = { input: SideDesign; load: SideDesign; area: number };
+  const move = (input: SideDesign, load: SideDesign): Move => ({ input, load, area: input.area + load.area });
+  const movesOf = (kind: 'single' | 'pair' | 'cross'): Move[] => {
+    const out: Move[] = [];
+    if (kind === 'cross') {
+      const inAll = sideMoves('input', false);
+      const ldAll = sideMoves('load', false);
+      for (const i of inAll) for (const l of ldAll) out.push(move(i, l));
+    } else {
+      for (const i of sideMoves('input', kind === 'pair')) out.push(move(i, best.load));
+      for (const l of sideMoves('load', kind === 'pair')) out.push(move(best.input, l));
     }
     return out.sort((a, b) => a.area - b.area);
   };
-  const tryMoves = (pairMoves: boolean): boolean => {
+  const tryMoves = (kind: 'single' | 'pair' | 'cross'): boolean => {
     let improved = false;
-    for (const m of movesOf(pairMoves)) {
+    for (const m of movesOf(kind)) {
+      const limit = bound();
       // Sorted by area: once one is not below the bound (finite only with objective area), none after it is.
-      if (!(m.area < bound())) break;
+      if (!(m.area < limit)) break;
+      // While the best meets every target only a move that does can replace it.
+      if (limit < Infinity && surelyMisses(sides, m.input, m.load, best)) continue;
       const p = pairOf(m.input, m.load);
-      if (p && stageBetter(sides, p, best, known)) {
+      if (p && stageBetter(sides, p, best, ok)) {
         best = p;
+        if (ok(p)) met.push(p);
         improved = true;
       }
     }
     return improved;
   };
-
-  for (let round = 0; round < MAX_ROUNDS; round++) {
-    let improved = tryMoves(false);
-    if (!improved) improved = tryMoves(true);
-    if (!improved) {
+  const climb = (start: StageDesign, levels: number, scale: number): StageDesign => {
+    best = start;
+    steps = {
+      input: { g: sides.input.ctx.gmidStep * scale, v: topologyOf(start.input.cand.topology).refineVoltageStep * scale },
+      load: { g: sides.load.ctx.gmidStep * scale, v: topologyOf(start.load.cand.topology).refineVoltageStep * scale },
+    };
+    for (let round = 0, level = 1; round < MAX_ROUNDS; round++) {
+      const improved = tryMoves('single') || tryMoves('pair') || (scale === 1 && tryMoves('cross'));
+      if (improved) continue;
+      if (++level > levels) break;
       for (const s of [steps.input, steps.load]) {
         s.g /= 2;
         s.v /= 2;
       }
-      if (steps.input.g < sides.input.ctx.gmidStep / 4) break;
     }
+    return best;
+  };
+
+  let overall = seeds[0];
+  // Nothing the screen found meets the targets: one climb from the pick, at the screen's step (for the nearest
+  // points, which are over the explored designs); the full refinement is for designs that meet them.
+  for (const seed of seeds) if (ok(seed)) met.push(seed);
+  const feasible = met.length > 0;
+  for (const seed of feasible ? seeds : seeds.slice(0, 1)) {
+    const local = climb(seed, 1, 1);
+    if (local === overall || stageBetter(sides, local, overall, ok)) overall = local;
   }
-  return { best, evaluated };
+  best = feasible ? climb(overall, 2, 0.5) : overall;
+  if (!feasible) return { best, evaluated };
+  // In objective order, the first the reported trace confirms (nearly always the climb's own best).
+  met.sort((a, b) => stageCompare(stage.objective, a, b));
+  return { best: met.find((d) => okReported(sides, d)) ?? best, evaluated };
 }

@@ -1,0 +1,241 @@
+/**
+ * Exhaustive reference for the gain-stage sizing tests (objective area): slow and simple, sharing none of the
+ * tool's stage search (no side screen, pair screen or climb). Every pair of side designs on a grid — each device's
+ * length and gm/ID chosen independently, and every VDS setpoint — is sized with the stack layer (src/stack) and
+ * judged by the README's definitions:
+ * - each side sized at the design point: the input side's stack voltage and the load's at `output`, each device's
+ *   VGS from its gm/ID, W = I/jd, W within [shortest table length, width limit (the spec's, else the kit default
+ *   of 64 fingers of 100 × the shortest table length)];
+ * - every device below a side's top one has VDS ≥ VDSsat (EKV interpolation) at the design point;
+ * - every fixed gate has a realisable bias diode (as `netlist --bias diodes`); the input gate lies within the rails;
+ * - the transfer curve traced on the circuit on the reported 20 mV grid with each swing edge bisected on the circuit
+ *   (traceStage); the design meets the targets when the swing at the gain target reaches the swing target and the
+ *   input DC voltage at the design point lies within the rails.
+ * Pairs are judged in order of area, so the first pair meeting the targets is the smallest on the grid. The only
+ * skip is exact: a pair whose gain at the design point (one solve of the circuit) is below the target has no swing.
+ */
+import type { LengthSlice } from '../../src/device/types.js';
+import type { KitAccess } from '../../src/solve/kit.js';
+import type { StageSpec, Topology } from '../../src/design/types.js';
+import type { Polarity } from '../../src/table/types.js';
+import { topologyOf } from '../../src/topology/index.js';
+import {
+  biasDevices, inputAtCurrent, sampleAt, saturationVoltage, sideVoltage, sizeStackDevices, stagePoint, thermalVoltage, traceStage,
+  type StageCircuit, type StackDevice,
+} from '../../src/stack/index.js';
+
+export interface StageGrid {
+  /** gm/ID points per device over the side's allowed range (ends included). */
+  gmidPoints: number;
+  /** Setpoint step, V (from 50 mV up to the side's stack voltage less 150 mV). */
+  vStep: number;
+}
+
+export interface StageRefDesign {
+  input: { l: number[]; gmid: number[]; setpoints: number[]; w: number[] };
+  load: { l: number[]; gmid: number[]; setpoints: number[]; w: number[] };
+  area: number;
+  swing: number;
+}
+
+export interface StageRefAnswer {
+  best?: StageRefDesign;
+  /** Side designs on the grid passing the per-side rules, input and load. */
+  sides: [number, number];
+  /** Pairs traced in full before the answer. */
+  traced: number;
+}
+
+interface SideOption {
+  l: number[];
+  gmid: number[];
+  setpoints: number[];
+  devices: StackDevice[];
+  gates: number[];
+  area: number;
+  /** At the design point: the side's output resistance, Ω, and (input side) the input device's gm, S. */
+  rout: number;
+  gm: number;
+}
+
+const defaultGmidRange: [number, number] = [3, 30];
+
+function range(lo: number, hi: number, points: number): number[] {
+  return Array.from({ length: points }, (_, j) => lo + ((hi - lo) * j) / (points - 1));
+}
+
+function cartesian<T>(lists: T[][]): T[][] {
+  return lists.reduce<T[][]>((acc, list) => acc.flatMap((a) => list.map((x) => [...a, x])), [[]]);
+}
+
+/** Exhaustive smallest-area design of one stage spec with a fixed load topology, at one corner. */
+export function stageExhaustive(stage: StageSpec, kit: KitAccess, supply: number, corner: string, grid: StageGrid): StageRefAnswer {
+  const inDev = stage.input.device;
+  const ldDev: Polarity = inDev === 'n' ? 'p' : 'n';
+  const loadTopology = stage.load.topology as Topology;
+  if (loadTopology !== 'single' && loadTopology !== 'cascode') throw new Error('the reference takes single or cascode loads');
+
+  const sideOptions = (kind: 'input' | 'load', device: Polarity, topology: Topology): SideOption[] => {
+    const spec = stage[kind];
+    const table = Array.from(kit.lengths(corner, device));
+    const wmin = table[0];
+    const wmax = 64 * 100 * wmin;
+    const lengths = table.filter((l) => l >= (spec.l?.min ?? 0) * (1 - 1e-9) && l <= (spec.l?.max ?? Infinity) * (1 + 1e-9));
+    const [gLo, gHi] = spec.gmid ? [spec.gmid.min, spec.gmid.max] : defaultGmidRange;
+    const gmids = range(gLo, gHi, grid.gmidPoints);
+    const vd = sideVoltage(device, supply, stage.output);
+    const ut = thermalVoltage(kit.temperature?.(corner, device) ?? 27);
+    const slices = new Map<number, LengthSlice>();
+    const slice = (l: number) => {
+      let s = slices.get(l);
+      if (!s) slices.set(l, (s = kit.slice(corner, device, l)));
+      return s;
+    };
+    const shape = topologyOf(topology);
+    const n = shape.roles.length;
+    const setpointLists: number[][] = [];
+    for (let k = 0; k < shape.setpoints; k++) {
+      const list: number[] = [];
+      for (let v = 0.05; v <= vd - 0.15 + 1e-9; v += grid.vStep) list.push(Math.round(v * 1e6) / 1e6);
+      setpointLists.push(list);
+    }
+    const ib = spec.biasCurrent ?? stage.current;
+    const out: SideOption[] = [];
+    for (const l of cartesian(Array.from({ length: n }, () => lengths))) {
+      for (const gmid of cartesian(Array.from({ length: n }, () => gmids))) {
+        for (const setpoints of cartesian(setpointLists)) {
+          const sl = l.map(slice);
+          let sized;
+          try {
+            sized = sizeStackDevices({ shape, slices: sl, gmid, setpoints, current: stage.current, vmid: vd, wmin });
+          } catch {
+            continue;
+          }
+          if (!sized || sized.w.some((w) => !(w <= wmax))) continue;
+          // Saturation of every device below the top one at the design point.
+          let saturated = true;
+          for (let k = 0; k < n - 1; k++) {
+            if (sized.nodes[k + 1] - sized.nodes[k] < saturationVoltage(sl[k], gmid[k], sized.nodes[k], ut)) saturated = false;
+          }
+          if (!saturated) continue;
+          if (kind === 'input' && !(sized.gates[0] <= supply)) continue;
+          // Bias diodes: every fixed gate (the input's cascode gate; every load gate).
+          let biased = true;
+          try {
+            const all = biasDevices(kind === 'input' ? topologyOf('cascode') : shape, sl, sized.gates, ib, { wmin, lengths: table, slice });
+            biased = all !== null;
+          } catch {
+            biased = false;
+          }
+          if (kind === 'input' && n === 1) biased = true;
+          if (!biased) continue;
+          const devices = sl.map((s, k) => ({ slice: s, w: sized.w[k] }));
+          let rout = 0;
+          let gm = 0;
+          try {
+            if (kind === 'input') {
+              const op = inputAtCurrent(devices, n > 1 ? sized.gates[1] : undefined, vd, stage.current);
+              if (op) [rout, gm] = [op.rout, op.devices[0].gm];
+            } else {
+              const s = sampleAt(devices, Array.from(sized.gates), vd);
+              if (s.op) rout = s.rout;
+            }
+          } catch {
+            continue;
+          }
+          if (!(rout > 0)) continue;
+          out.push({ l, gmid, setpoints, devices, gates: Array.from(sized.gates), area: devices.reduce((a, d) => a + d.w * d.slice.l, 0), rout, gm });
+        }
+      }
+    }
+    return out;
+  };
+
+  const inputs = sideOptions('input', inDev, stage.input.topology as Topology).sort((a, b) => a.area - b.area);
+  const loads = sideOptions('load', ldDev, loadTopology).sort((a, b) => a.area - b.area);
+  // Pairs in order of summed area without listing them all: a heap holding, per input, its next load.
+  const heap = new PairHeap(inputs.map((a) => a.area), loads.map((b) => b.area));
+  let traced = 0;
+  for (let next = heap.pop(); next; next = heap.pop()) {
+    const [area, i, j] = next;
+    const a = inputs[i];
+    const b = loads[j];
+    // Gain at the design point from each side's values there (both sides sit at their sizing bias): below the
+    // target (with 1 % for solver tolerance, then checked on the circuit) there is no swing at that gain.
+    if (a.gm * ((a.rout * b.rout) / (a.rout + b.rout)) < 0.99 * stage.gain) continue;
+    const circuit: StageCircuit = {
+      supply, device: inDev,
+      input: { devices: a.devices, cascodeGate: a.devices.length > 1 ? a.gates[1] : undefined },
+      load: { devices: b.devices, gates: b.gates },
+    };
+    let p;
+    try {
+      p = stagePoint(circuit, stage.output);
+    } catch {
+      continue;
+    }
+    if (!p || !(p.gain >= stage.gain)) continue;
+    traced++;
+    let t;
+    try {
+      t = traceStage(circuit, stage.output, stage.gain, { step: 0.02 });
+    } catch {
+      continue;
+    }
+    const vin = t.points[t.j0]?.vin;
+    if (vin === undefined || vin < 0 || vin > supply) continue;
+    if (t.swing >= stage.swing - 1e-9) {
+      const side = (o: SideOption) => ({ l: o.l, gmid: o.gmid, setpoints: o.setpoints, w: o.devices.map((d) => d.w) });
+      return { best: { input: side(a), load: side(b), area, swing: t.swing }, sides: [inputs.length, loads.length], traced };
+    }
+  }
+  return { sides: [inputs.length, loads.length], traced };
+}
+
+/** Min-heap of pairs (i, j) by a[i] + b[j] (both ascending): starts with (i, 0) for every i; popping (i, j) adds (i, j + 1). */
+class PairHeap {
+  private keys: number[] = [];
+  private is: number[] = [];
+  private js: number[] = [];
+  constructor(private readonly a: number[], private readonly b: number[]) {
+    if (b.length > 0) a.forEach((_, i) => this.push(i, 0));
+  }
+  private push(i: number, j: number): void {
+    let k = this.keys.length;
+    this.keys.push(this.a[i] + this.b[j]);
+    this.is.push(i);
+    this.js.push(j);
+    while (k > 0) {
+      const up = (k - 1) >> 1;
+      if (this.keys[up] <= this.keys[k]) break;
+      this.swap(k, up);
+      k = up;
+    }
+  }
+  pop(): [number, number, number] | undefined {
+    if (this.keys.length === 0) return undefined;
+    const out: [number, number, number] = [this.keys[0], this.is[0], this.js[0]];
+    const last = this.keys.length - 1;
+    this.swap(0, last);
+    this.keys.pop();
+    this.is.pop();
+    this.js.pop();
+    for (let k = 0; ; ) {
+      const l = 2 * k + 1;
+      const r = l + 1;
+      let m = k;
+      if (l < this.keys.length && this.keys[l] < this.keys[m]) m = l;
+      if (r < this.keys.length && this.keys[r] < this.keys[m]) m = r;
+      if (m === k) break;
+      this.swap(k, m);
+      k = m;
+    }
+    if (out[2] + 1 < this.b.length) this.push(out[1], out[2] + 1);
+    return out;
+  }
+  private swap(x: number, y: number): void {
+    [this.keys[x], this.keys[y]] = [this.keys[y], this.keys[x]];
+    [this.is[x], this.is[y]] = [this.is[y], this.is[x]];
+    [this.js[x], this.js[y]] = [this.js[y], this.js[x]];
+  }
+}
