@@ -93,6 +93,15 @@ function inputBias(sides: StageSides, d: SideDesign): BiasDevice[] | null {
   return all ? [all[1]] : null;
 }
 
+/** The circuit of a pair at the nominal corner: each side's devices with the gates of its sizing. */
+export function pairCircuit(sides: StageSides, input: SideDesign, load: SideDesign): StageCircuit {
+  return {
+    supply: sides.supply, device: sides.input.device,
+    input: { devices: input.devices, cascodeGate: input.sized.gates[1] },
+    load: { devices: load.devices, gates: load.sized.gates },
+  };
+}
+
 /**
  * Evaluate a pair exactly at the nominal corner: bias diodes for every fixed
  * gate (as stacks have), then the transfer curve traced on the circuit. Null
@@ -104,11 +113,7 @@ export function evaluatePair(sides: StageSides, input: SideDesign, load: SideDes
     const lctx = sides.load.ctx;
     const lb = biasDevices(topologyOf(load.cand.topology), load.slices, load.sized.gates, lctx.ib, { wmin: lctx.wmin, lengths: lctx.lengths, slice: (l) => lctx.slice(lctx.nominal, l) });
     if (!ib || !lb) return null;
-    const circuit: StageCircuit = {
-      supply: sides.supply, device: sides.input.device,
-      input: { devices: input.devices, cascodeGate: input.sized.gates[1] },
-      load: { devices: load.devices, gates: load.sized.gates },
-    };
+    const circuit = pairCircuit(sides, input, load);
     const gates = { input: input.sized.gates.slice(1), load: load.sized.gates };
     const nominal = stageAt(sides, sides.input.ctx.nominal, circuit, gates, SEARCH_STEP);
     return { input, load, inputBias: ib, loadBias: lb, area: input.area + load.area, nominal };

@@ -1,10 +1,10 @@
 import { topologyOf } from '../topology/index.js';
 import { REL_TOL } from '../policy.js';
-import { outputGrid, designIndex, stagePoint, type StageCircuit } from '../stack/index.js';
+import { outputGrid, designIndex, stagePoint } from '../stack/index.js';
 import { candidateKey, type Candidate } from './search/candidate.js';
 import { neighbours } from './search/refine.js';
 import { sideDesign, type Side, type SideDesign } from './stage-side.js';
-import { TRACE_STEP, cornersOf, evaluateCorner, evaluatePair, stageAt, type StageDesign, type StageSides } from './stage-eval.js';
+import { TRACE_STEP, cornersOf, evaluateCorner, evaluatePair, pairCircuit, stageAt, type StageDesign, type StageSides } from './stage-eval.js';
 import { meets, shortfall, stageCompare, stageMargins } from './stage-rank.js';
 import { rangeSafe } from './evaluate/evaluate.js';
 import { guessOf } from '../stack/index.js';
@@ -76,11 +76,7 @@ export type SideMemo = Map<string, SideDesign | null>;
 function surelyMisses(sides: StageSides, input: SideDesign, load: SideDesign, near: StageDesign): boolean {
   const { stage } = sides;
   const v0 = stage.output;
-  const c: StageCircuit = {
-    supply: sides.supply, device: sides.input.device,
-    input: { devices: input.devices, cascodeGate: input.sized.gates[1] },
-    load: { devices: load.devices, gates: load.sized.gates },
-  };
+  const c = pairCircuit(sides, input, load);
   const p0 = rangeSafe(() => stagePoint(c, v0));
   if (!p0 || !(p0.gain >= stage.gain)) return true;
   const below = (v: number): boolean => {
