@@ -11,6 +11,8 @@ import { guessOf } from '../stack/index.js';
 
 /** Output grid step of the side traces the refinement builds (as the pair screen's), V. */
 const SIDE_STEP = 0.05;
+/** Span of surelyMisses' secant at a swing edge, V. */
+const SECANT_STEP = 0.01;
 /** How far outside a swing edge surelyMisses looks, V (below the traces' 0.5 mV edge resolution). */
 const EDGE_GAP = 1e-4;
 /** Climb rounds at most; each round tries the moves of both sides once. */
@@ -79,16 +81,40 @@ function surelyMisses(sides: StageSides, input: SideDesign, load: SideDesign, ne
   const c = pairCircuit(sides, input, load);
   const p0 = rangeSafe(() => stagePoint(c, v0));
   if (!p0 || !(p0.gain >= stage.gain)) return true;
-  const below = (v: number): boolean => {
-    if (!(v > 0 && v < sides.supply)) return false;
+  // Gain at v (null: no solution from the design point's start, which proves nothing: the trace gets there by
+  // continuation).
+  const gainAt = (v: number): number | null => {
+    if (!(v > 0 && v < sides.supply)) return null;
     const p = rangeSafe(() => stagePoint(c, v, p0.load, guessOf(p0.input)));
-    // No solution from this start proves nothing (the trace reaches the point by continuation).
-    return p !== null && !(p.gain >= stage.gain);
+    return p ? p.gain : null;
+  };
+  const below = (v: number): boolean => {
+    const g = gainAt(v);
+    return g !== null && !(g >= stage.gain);
   };
   const { vlow, vhigh } = near.nominal.trace;
   if (vlow === null || vhigh === null) return false;
-  const miss = (w: number, u: number): boolean => w < v0 && u > v0 && below(w) && below(u);
-  return miss(vlow - EDGE_GAP, vlow + stage.swing - 2 * EDGE_GAP) || miss(vhigh - stage.swing + 2 * EDGE_GAP, vhigh + EDGE_GAP);
+  const miss = (w: number, u: number): boolean => w < v0 && u > v0 && u - w < stage.swing && below(w) && below(u);
+  if (miss(vlow - EDGE_GAP, vlow + stage.swing - 2 * EDGE_GAP) || miss(vhigh - stage.swing + 2 * EDGE_GAP, vhigh + EDGE_GAP)) return true;
+  // Both edges moved: estimate each from the gain at the near design's edge and SECANT_STEP inside it (a secant on
+  // the log of gain over target), and when the estimates are closer than the swing target, look just outside them.
+  const edge = (e: number, inward: number): number | null => {
+    const ga = gainAt(e);
+    const gb = gainAt(e + inward * SECANT_STEP);
+    if (ga === null || gb === null || !(ga > 0 && gb > 0)) return null;
+    const la = Math.log(ga / stage.gain);
+    const lb = Math.log(gb / stage.gain);
+    if (!(la !== lb)) return null;
+    const x = e + inward * SECANT_STEP * (la / (la - lb));
+    return Number.isFinite(x) ? x : null;
+  };
+  const lo = edge(vlow, 1);
+  const hi = lo === null ? null : edge(vhigh, -1);
+  if (lo === null || hi === null || !(hi - lo < stage.swing)) return false;
+  // Any pad below half the shortfall keeps the two outputs closer than the swing target; the widest such pad
+  // best absorbs the secant's error.
+  const pad = 0.45 * (stage.swing - (hi - lo));
+  return miss(lo - pad, hi + pad);
 }
 
 /**
