@@ -1,13 +1,12 @@
 import { topologyOf } from '../topology/index.js';
 import { REL_TOL } from '../policy.js';
-import { outputGrid, designIndex, stagePoint } from '../stack/index.js';
+import { designIndex, guessOf, outputGrid, stagePoint } from '../stack/index.js';
 import { candidateKey, type Candidate } from './search/candidate.js';
 import { neighbours } from './search/refine.js';
 import { sideDesign, type Side, type SideDesign } from './stage-side.js';
 import { TRACE_STEP, cornersOf, evaluateCorner, evaluatePair, pairCircuit, stageAt, type StageDesign, type StageSides } from './stage-eval.js';
 import { meets, shortfall, stageCompare, stageMargins } from './stage-rank.js';
 import { rangeSafe } from './evaluate/evaluate.js';
-import { guessOf } from '../stack/index.js';
 
 /** Output grid step of the side traces the refinement builds (as the pair screen's), V. */
 const SIDE_STEP = 0.05;

@@ -4,14 +4,14 @@ import { designIndex, outputGrid } from '../stack/index.js';
 import type { KitAccess } from './kit.js';
 import { makeSide, sideCandidates, sideDesign, type SideDesign } from './stage-side.js';
 import { screenPairs } from './stage-screen.js';
-import { cornersOf, evaluatePair, type StageDesign, type StageSides } from './stage-eval.js';
-import { meets, nominalOk, shortfall, stageCompare, stageMargins } from './stage-rank.js';
+import { evaluatePair, type StageDesign, type StageSides } from './stage-eval.js';
+import { nominalOk, shortfall, stageCompare, stageMargins } from './stage-rank.js';
 import { emptyStageResult, stageFrontPoint, stageResult } from './stage-result.js';
 import { chooseStage } from './stage-choose.js';
 import type { StageFrontPoint, StageResult } from './stage-types.js';
 import { paretoStages } from './stage-front.js';
 import { checkStageCover } from './table-cover.js';
-import { climbOk, refineStage, stageBetter, type SideMemo } from './stage-refine.js';
+import { climbOk, refineStage, stageBetter, stageFullyOk, stageTotalShortfall, type SideMemo } from './stage-refine.js';
 
 /** Output grid step of the pair screen, V. */
 const SCREEN_STEP = 0.05;
@@ -26,13 +26,6 @@ export interface SizeStageResult {
   evaluated: number;
 }
 
-function fullyOk(sides: StageSides, d: StageDesign): boolean {
-  return nominalOk(sides.stage, d) && cornersOf(sides, d).every((c) => meets(stageMargins(sides.stage, c)));
-}
-
-function totalShortfall(sides: StageSides, d: StageDesign): number {
-  return shortfall(stageMargins(sides.stage, d.nominal)) + (d.corners ?? []).reduce((a, c) => a + shortfall(stageMargins(sides.stage, c)), 0);
-}
 
 /** Best of the evaluated designs: meeting the targets at every corner in objective order, else the nearest. */
 export function pickStage(sides: StageSides, explored: readonly StageDesign[]): StageDesign | undefined {
@@ -41,8 +34,8 @@ export function pickStage(sides: StageSides, explored: readonly StageDesign[]): 
   const pool = explored.filter((d) => rails(d) >= 0);
   if (pool.length === 0 && explored.length > 0) return explored.reduce((a, b) => (rails(b) > rails(a) ? b : a));
   const ok = pool.filter((d) => nominalOk(sides.stage, d)).sort((a, b) => stageCompare(sides.stage.objective, a, b));
-  for (const d of ok) if (fullyOk(sides, d)) return d;
-  if (ok.length > 0) return ok.reduce((a, b) => (totalShortfall(sides, b) < totalShortfall(sides, a) ? b : a));
+  for (const d of ok) if (stageFullyOk(sides, d)) return d;
+  if (ok.length > 0) return ok.reduce((a, b) => (stageTotalShortfall(sides, b) < stageTotalShortfall(sides, a) ? b : a));
   let best: StageDesign | undefined;
   for (const d of pool) {
     if (!best) best = d;
