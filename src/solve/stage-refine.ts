@@ -14,6 +14,8 @@ const SIDE_STEP = 0.05;
 const SECANT_STEP = 0.01;
 /** How far outside a swing edge surelyMisses looks, V (below the traces' 0.5 mV edge resolution). */
 const EDGE_GAP = 1e-4;
+/** Designs the climbs start from, per load topology (two pass the exhaustive-reference tests; each more costs a climb). */
+const SEEDS = 2;
 /** Climb rounds at most; each round tries the moves of both sides once. */
 const MAX_ROUNDS = 24;
 
@@ -38,7 +40,7 @@ function okReported(sides: StageSides, d: StageDesign): boolean {
  * as meeting every target. The result is then confirmed on the reported grid (okReported): on the targets'
  * boundary, where the climb ends, the two traces' swing edges (each bisected to 0.5 mV) can disagree.
  */
-export function climbOk(sides: StageSides): (d: StageDesign) => boolean {
+function climbOk(sides: StageSides): (d: StageDesign) => boolean {
   const known = new WeakMap<StageDesign, boolean>();
   return (d) => {
     let ok = known.get(d);
@@ -52,7 +54,7 @@ export function climbOk(sides: StageSides): (d: StageDesign) => boolean {
  * are ordered by the objective (stageCompare, area settling ties); two that do not by their summed shortfall,
  * then area.
  */
-export function stageBetter(sides: StageSides, a: StageDesign, b: StageDesign, ok: (d: StageDesign) => boolean): boolean {
+function stageBetter(sides: StageSides, a: StageDesign, b: StageDesign, ok: (d: StageDesign) => boolean): boolean {
   const fa = ok(a);
   const fb = ok(b);
   if (fa !== fb) return fa;
@@ -61,6 +63,24 @@ export function stageBetter(sides: StageSides, a: StageDesign, b: StageDesign, o
   const sb = stageTotalShortfall(sides, b);
   if (Math.abs(sa - sb) > 1e-9) return sa < sb;
   return a.area < b.area * (1 - REL_TOL);
+}
+
+/**
+ * Climb seeds: the pick, then the best design of each other pair of length choices in the screen's pool (by the
+ * climb's order), SEEDS in all. A climb rarely changes a length by more than a step, so the lengths pick the basin.
+ */
+function seedsOf(sides: StageSides, picked: StageDesign, pool: readonly StageDesign[], ok: (d: StageDesign) => boolean): StageDesign[] {
+  const rest = pool.filter((d) => d !== picked).sort((a, b) => (stageBetter(sides, a, b, ok) ? -1 : stageBetter(sides, b, a, ok) ? 1 : 0));
+  const lengths = (d: StageDesign) => `${d.input.cand.l.join(',')}/${d.load.cand.l.join(',')}`;
+  const seen = new Set([lengths(picked)]);
+  const out = [picked];
+  for (const d of rest) {
+    if (out.length >= SEEDS) break;
+    if (seen.has(lengths(d))) continue;
+    seen.add(lengths(d));
+    out.push(d);
+  }
+  return out;
 }
 
 /** Side designs of one side by candidate key (null: not realisable), shared by every climb of one stage search. */
@@ -117,13 +137,13 @@ function surelyMisses(sides: StageSides, input: SideDesign, load: SideDesign, ne
 }
 
 /**
- * Local refinement of a gain stage: from the pair the pair screen picked and a few other designs of its pool,
+ * Local refinement of a gain stage: from the pair the pair screen picked and the seeds seedsOf adds from its pool,
  * hill-climb over moves judged exactly as one circuit (evaluatePair, every corner when it meets the nominal targets)
  * by stageBetter:
  * - one side moved with the other held: the stack climb's neighbours (each device's L to the neighbouring grid
  *   lengths, each gm/ID and VDS setpoint by ± its step), then pairs of those;
- * - then both sides at once, a length of one with a single step of the other: a side giving up area and Rout
- *   only pays when the other makes up the gain, which no move of one side finds.
+ * - then, at the screen's step, both sides at once, one single-coordinate move of each: a side giving up area and
+ *   Rout only pays when the other makes up the gain, which no move of one side finds.
  * Moves go in order of summed area, so with objective area the first one meeting every target wins the round and
  * the rest, no smaller than it, are not traced; a move surelyMisses rules out is not traced either.
  * Every seed climbs at the screen's gm/ID step; the best of those climbs on with the steps halved twice. The screen
@@ -131,7 +151,7 @@ function surelyMisses(sides: StageSides, input: SideDesign, load: SideDesign, ne
  * nearby design. Every design traced is added to `pool` (the trade front and the nearest points see them).
  */
 export function refineStage(
-  sides: StageSides, seeds: readonly StageDesign[], pool: StageDesign[], memos: { input: SideMemo; load: SideMemo },
+  sides: StageSides, picked: StageDesign, pool: StageDesign[], memos: { input: SideMemo; load: SideMemo },
 ): { best: StageDesign; evaluated: number } {
   const { stage, supply } = sides;
   const vs = outputGrid(stage.output, supply, SIDE_STEP);
@@ -166,17 +186,16 @@ export function refineStage(
   };
 
   const ok = climbOk(sides);
+  const seeds = seedsOf(sides, picked, pool, ok);
   // Designs meeting every target that the climbs moved to (or started from): the result is the best of them that
   // the reported trace confirms.
   const met: StageDesign[] = [];
-  let best = seeds[0];
+  let best = picked;
   let steps = { input: { g: 0, v: 0 }, load: { g: 0, v: 0 } };
   const bound = (): number => (stage.objective === 'area' && ok(best) ? best.area * (1 - REL_TOL) : Infinity);
-  const sideMoves = (kind: 'input' | 'load', pairMoves: boolean, lengthsOnly = false): SideDesign[] => {
+  const sideMoves = (kind: 'input' | 'load', pairMoves: boolean): SideDesign[] => {
     const out: SideDesign[] = [];
-    const from = best[kind].cand;
-    for (const c of neighbours(sides[kind].ctx, from, steps[kind].g, steps[kind].v, pairMoves)) {
-      if (lengthsOnly && c.l.every((l, k) => l === from.l[k])) continue;
+    for (const c of neighbours(sides[kind].ctx, best[kind].cand, steps[kind].g, steps[kind].v, pairMoves)) {
       const d = sideOf(sides[kind], c);
       if (d) out.push(d);
     }
@@ -187,9 +206,8 @@ export function refineStage(
   const movesOf = (kind: 'single' | 'pair' | 'cross'): Move[] => {
     const out: Move[] = [];
     if (kind === 'cross') {
-      const inAll = sideMoves('input', false);
-      const ldAll = sideMoves('load', false);
-      for (const i of inAll) for (const l of ldAll) out.push(move(i, l));
+      const loads = sideMoves('load', false);
+      for (const i of sideMoves('input', false)) for (const l of loads) out.push(move(i, l));
     } else {
       for (const i of sideMoves('input', kind === 'pair')) out.push(move(i, best.load));
       for (const l of sideMoves('load', kind === 'pair')) out.push(move(best.input, l));
@@ -231,7 +249,7 @@ export function refineStage(
     return best;
   };
 
-  let overall = seeds[0];
+  let overall = picked;
   // Nothing the screen found meets the targets: one climb from the pick, at the screen's step (for the nearest
   // points, which are over the explored designs); the full refinement is for designs that meet them.
   for (const seed of seeds) if (ok(seed)) met.push(seed);

@@ -11,12 +11,10 @@ import { chooseStage } from './stage-choose.js';
 import type { StageFrontPoint, StageResult } from './stage-types.js';
 import { paretoStages } from './stage-front.js';
 import { checkStageCover } from './table-cover.js';
-import { climbOk, refineStage, stageBetter, stageFullyOk, stageTotalShortfall, type SideMemo } from './stage-refine.js';
+import { refineStage, stageFullyOk, stageTotalShortfall, type SideMemo } from './stage-refine.js';
 
 /** Output grid step of the pair screen, V. */
 const SCREEN_STEP = 0.05;
-/** Designs the stage climb starts from, per load topology (two pass the exhaustive-reference tests; each more costs a climb). */
-const SEEDS = 2;
 
 export interface SizeStageResult {
   /** One result per load topology tried (`chosen` marks the objective's pick with 'auto'). */
@@ -25,7 +23,6 @@ export interface SizeStageResult {
   front: StageFrontPoint[];
   evaluated: number;
 }
-
 
 /** Best of the evaluated designs: meeting the targets at every corner in objective order, else the nearest. */
 export function pickStage(sides: StageSides, explored: readonly StageDesign[]): StageDesign | undefined {
@@ -46,25 +43,6 @@ export function pickStage(sides: StageSides, explored: readonly StageDesign[]): 
     }
   }
   return best;
-}
-
-/**
- * Climb seeds: the pick, then the best design of each other pair of length choices in the screen's pool (by the
- * climb's order), SEEDS in all. A climb rarely changes a length by more than a step, so the lengths pick the basin.
- */
-function seedsOf(sides: StageSides, picked: StageDesign, pool: readonly StageDesign[]): StageDesign[] {
-  const ok = climbOk(sides);
-  const rest = pool.filter((d) => d !== picked).sort((a, b) => (stageBetter(sides, a, b, ok) ? -1 : stageBetter(sides, b, a, ok) ? 1 : 0));
-  const lengths = (d: StageDesign) => `${d.input.cand.l.join(',')}/${d.load.cand.l.join(',')}`;
-  const seen = new Set([lengths(picked)]);
-  const out = [picked];
-  for (const d of rest) {
-    if (out.length >= SEEDS) break;
-    if (seen.has(lengths(d))) continue;
-    seen.add(lengths(d));
-    out.push(d);
-  }
-  return out;
 }
 
 function designs(sides: StageSides, side: StageSides['input'], topology: Topology, vs: Float64Array, j0: number, gmMax?: number): SideDesign[] {
@@ -115,7 +93,7 @@ export function sizeStage(stage: StageSpec, kit: KitAccess, opts: { supply: numb
     }
     const traced = pool.length;
     const picked = pickStage(sides, pool);
-    const climb = picked ? refineStage(sides, seedsOf(sides, picked, pool), pool, memos) : undefined;
+    const climb = picked ? refineStage(sides, picked, pool, memos) : undefined;
     const count = input.ctx.count.exact + load.ctx.count.exact + input.ctx.count.screened + load.ctx.count.screened - before + screened + traced + (climb?.evaluated ?? 0);
     evaluated += count;
     if (!climb) {

@@ -119,16 +119,16 @@ export function stageExhaustive(stage: StageSpec, kit: KitAccess, supply: number
           }
           if (!saturated) continue;
           if (kind === 'input' && !(sized.gates[0] <= supply)) continue;
-          // Bias diodes: every fixed gate (the input's cascode gate; every load gate).
-          let biased = true;
-          try {
-            const all = biasDevices(kind === 'input' ? topologyOf('cascode') : shape, sl, sized.gates, ib, { wmin, lengths: table, slice });
-            biased = all !== null;
-          } catch {
-            biased = false;
+          // Bias diodes: every fixed gate (the input's cascode gate; every load gate). A common-source input has none.
+          if (kind === 'load' || n > 1) {
+            let biased: boolean;
+            try {
+              biased = biasDevices(kind === 'input' ? topologyOf('cascode') : shape, sl, sized.gates, ib, { wmin, lengths: table, slice }) !== null;
+            } catch {
+              biased = false;
+            }
+            if (!biased) continue;
           }
-          if (kind === 'input' && n === 1) biased = true;
-          if (!biased) continue;
           const devices = sl.map((s, k) => ({ slice: s, w: sized.w[k] }));
           let rout = 0;
           let gm = 0;
