@@ -34,7 +34,7 @@ export function stageVerdictText(v: StageVerdict, showCorner = false): string {
   const ok = v.achieved >= v.required;
   const pct = ((v.achieved / v.required - 1) * 100).toFixed(1);
   const by = v.target === 'swing' ? `${ok ? '+' : '−'}${eng(Math.abs(v.achieved - v.required), 'V')}, ${ok ? '+' : ''}${pct} %` : `${ok ? '+' : ''}${pct} %`;
-  return `${where}${name} ${quantity(v, v.achieved)} ${ok ? '≥' : '<'} ${quantity(v, v.required)} (${by})`;
+  return `${where}${name}${v.best ? ' at best' : ''} ${quantity(v, v.achieved)} ${ok ? '≥' : '<'} ${quantity(v, v.required)} (${by})`;
 }
 
 /** One sentence on a stage: feasible with its tightest target, or which target binds and the nearest points. */

@@ -104,10 +104,10 @@ export function pairCircuit(sides: StageSides, input: SideDesign, load: SideDesi
 
 /**
  * Evaluate a pair exactly at the nominal corner: bias diodes for every fixed
- * gate (as stacks have), then the transfer curve traced on the circuit. Null
- * when a bias diode cannot be realised.
+ * gate (as stacks have), then the transfer curve traced on the circuit (on the
+ * search grid, or another `step`). Null when a bias diode cannot be realised.
  */
-export function evaluatePair(sides: StageSides, input: SideDesign, load: SideDesign): StageDesign | null {
+export function evaluatePair(sides: StageSides, input: SideDesign, load: SideDesign, step = SEARCH_STEP): StageDesign | null {
   return rangeSafe(() => {
     const ib = inputBias(sides, input);
     const lctx = sides.load.ctx;
@@ -115,7 +115,7 @@ export function evaluatePair(sides: StageSides, input: SideDesign, load: SideDes
     if (!ib || !lb) return null;
     const circuit = pairCircuit(sides, input, load);
     const gates = { input: input.sized.gates.slice(1), load: load.sized.gates };
-    const nominal = stageAt(sides, sides.input.ctx.nominal, circuit, gates, SEARCH_STEP);
+    const nominal = stageAt(sides, sides.input.ctx.nominal, circuit, gates, step);
     return { input, load, inputBias: ib, loadBias: lb, area: input.area + load.area, nominal };
   });
 }

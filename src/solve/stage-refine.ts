@@ -4,7 +4,7 @@ import { designIndex, guessOf, outputGrid, stagePoint } from '../stack/index.js'
 import { candidateKey, type Candidate } from './search/candidate.js';
 import { neighbours } from './search/refine.js';
 import { sideDesign, type Side, type SideDesign } from './stage-side.js';
-import { TRACE_STEP, cornersOf, evaluateCorner, evaluatePair, pairCircuit, stageAt, type StageDesign, type StageSides } from './stage-eval.js';
+import { SEARCH_STEP, TRACE_STEP, cornersOf, evaluateCorner, evaluatePair, fineTrace, pairCircuit, stageAt, type StageDesign, type StageSides } from './stage-eval.js';
 import { meets, shortfall, stageCompare, stageMargins } from './stage-rank.js';
 import { rangeSafe } from './evaluate/evaluate.js';
 
@@ -16,6 +16,9 @@ const SECANT_STEP = 0.01;
 const EDGE_GAP = 1e-4;
 /** Designs the climbs start from, per load topology (two pass the exhaustive-reference tests; each more costs a climb). */
 const SEEDS = 2;
+/** The nearest points' climbs start at this multiple of the screen's steps and halve them down to half of it. */
+const NEAREST_SCALE = 4;
+const NEAREST_LEVELS = 4;
 /** Climb rounds at most; each round tries the moves of both sides once. */
 const MAX_ROUNDS = 24;
 
@@ -136,23 +139,27 @@ function surelyMisses(sides: StageSides, input: SideDesign, load: SideDesign, ne
   return miss(lo - pad, hi + pad);
 }
 
+/** An order of stage designs for a climb: true when `a` is better than `b`. */
+export type StageOrder = (a: StageDesign, b: StageDesign) => boolean;
+
+interface ClimbOptions {
+  better: StageOrder;
+  /** Step halvings after the first level (1: the given step only). */
+  levels: number;
+  /** Step scale: 1 is the screen's gm/ID step and the topology's refine voltage step. */
+  scale: number;
+  /** Lowest summed area a move must beat (Infinity: none), and whether surelyMisses may skip moves below it. */
+  bound: (best: StageDesign) => number;
+  /** Called with every design a move reaches that beats the climb's best. */
+  onBetter?: (d: StageDesign) => void;
+}
+
 /**
- * Local refinement of a gain stage: from the pair the pair screen picked and the seeds seedsOf adds from its pool,
- * hill-climb over moves judged exactly as one circuit (evaluatePair, every corner when it meets the nominal targets)
- * by stageBetter:
- * - one side moved with the other held: the stack climb's neighbours (each device's L to the neighbouring grid
- *   lengths, each gm/ID and VDS setpoint by ± its step), then pairs of those;
- * - then, at the screen's step, both sides at once, one single-coordinate move of each: a side giving up area and
- *   Rout only pays when the other makes up the gain, which no move of one side finds.
- * Moves go in order of summed area, so with objective area the first one meeting every target wins the round and
- * the rest, no smaller than it, are not traced; a move surelyMisses rules out is not traced either.
- * Every seed climbs at the screen's gm/ID step; the best of those climbs on with the steps halved twice. The screen
- * ranks pairs on estimated gain curves from a few hundred side candidates, so its pick can be far from the best
- * nearby design. Every design traced is added to `pool` (the trade front and the nearest points see them).
+ * Climbs over stage designs with the side designs and pairs it builds memoised (shared by every climb of one load
+ * topology; side designs also across topologies through `memos`), pairs traced with `step`. Every pair traced is
+ * added to `pool`.
  */
-export function refineStage(
-  sides: StageSides, picked: StageDesign, pool: StageDesign[], memos: { input: SideMemo; load: SideMemo },
-): { best: StageDesign; evaluated: number } {
+function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: SideMemo; load: SideMemo }, step = SEARCH_STEP) {
   const { stage, supply } = sides;
   const vs = outputGrid(stage.output, supply, SIDE_STEP);
   const j0 = designIndex(vs, stage.output);
@@ -177,7 +184,7 @@ export function refineStage(
     const key = `${candidateKey(input.cand)}/${candidateKey(load.cand)}`;
     let d = pairs.get(key);
     if (d === undefined) {
-      d = evaluatePair(sides, input, load);
+      d = evaluatePair(sides, input, load, step);
       evaluated++;
       if (d) pool.push(d);
       pairs.set(key, d);
@@ -185,15 +192,9 @@ export function refineStage(
     return d;
   };
 
-  const ok = climbOk(sides);
-  const seeds = seedsOf(sides, picked, pool, ok);
-  // Designs meeting every target that the climbs moved to (or started from): the result is the best of them that
-  // the reported trace confirms.
-  const met: StageDesign[] = [];
-  let best = picked;
-  let steps = { input: { g: 0, v: 0 }, load: { g: 0, v: 0 } };
-  const bound = (): number => (stage.objective === 'area' && ok(best) ? best.area * (1 - REL_TOL) : Infinity);
-  const sideMoves = (kind: 'input' | 'load', pairMoves: boolean): SideDesign[] => {
+  type Steps = { input: { g: number; v: number }; load: { g: number; v: number } };
+  type Move = { input: SideDesign; load: SideDesign; area: number };
+  const sideMoves = (best: StageDesign, steps: Steps, kind: 'input' | 'load', pairMoves: boolean): SideDesign[] => {
     const out: SideDesign[] = [];
     for (const c of neighbours(sides[kind].ctx, best[kind].cand, steps[kind].g, steps[kind].v, pairMoves)) {
       const d = sideOf(sides[kind], c);
@@ -201,46 +202,46 @@ export function refineStage(
     }
     return out;
   };
-  type Move = { input: SideDesign; load: SideDesign; area: number };
-  const move = (input: SideDesign, load: SideDesign): Move => ({ input, load, area: input.area + load.area });
-  const movesOf = (kind: 'single' | 'pair' | 'cross'): Move[] => {
+  const movesOf = (best: StageDesign, steps: Steps, kind: 'single' | 'pair' | 'cross'): Move[] => {
     const out: Move[] = [];
+    const move = (input: SideDesign, load: SideDesign): Move => ({ input, load, area: input.area + load.area });
     if (kind === 'cross') {
-      const loads = sideMoves('load', false);
-      for (const i of sideMoves('input', false)) for (const l of loads) out.push(move(i, l));
+      const loads = sideMoves(best, steps, 'load', false);
+      for (const i of sideMoves(best, steps, 'input', false)) for (const l of loads) out.push(move(i, l));
     } else {
-      for (const i of sideMoves('input', kind === 'pair')) out.push(move(i, best.load));
-      for (const l of sideMoves('load', kind === 'pair')) out.push(move(best.input, l));
+      for (const i of sideMoves(best, steps, 'input', kind === 'pair')) out.push(move(i, best.load));
+      for (const l of sideMoves(best, steps, 'load', kind === 'pair')) out.push(move(best.input, l));
     }
     return out.sort((a, b) => a.area - b.area);
   };
-  const tryMoves = (kind: 'single' | 'pair' | 'cross'): boolean => {
-    let improved = false;
-    for (const m of movesOf(kind)) {
-      const limit = bound();
-      // Sorted by area: once one is not below the bound (finite only with objective area), none after it is.
-      if (!(m.area < limit)) break;
-      // While the best meets every target only a move that does can replace it.
-      if (limit < Infinity && surelyMisses(sides, m.input, m.load, best)) continue;
-      const p = pairOf(m.input, m.load);
-      if (p && stageBetter(sides, p, best, ok)) {
-        best = p;
-        if (ok(p)) met.push(p);
-        improved = true;
+
+  const climb = (start: StageDesign, o: ClimbOptions): StageDesign => {
+    let best = start;
+    const steps: Steps = {
+      input: { g: sides.input.ctx.gmidStep * o.scale, v: topologyOf(start.input.cand.topology).refineVoltageStep * o.scale },
+      load: { g: sides.load.ctx.gmidStep * o.scale, v: topologyOf(start.load.cand.topology).refineVoltageStep * o.scale },
+    };
+    const tryMoves = (kind: 'single' | 'pair' | 'cross'): boolean => {
+      let improved = false;
+      for (const m of movesOf(best, steps, kind)) {
+        const limit = o.bound(best);
+        // Sorted by area: once one is not below the bound, none after it is.
+        if (!(m.area < limit)) break;
+        // While the bound is finite (the best meets every target) only a move that does can replace it.
+        if (limit < Infinity && surelyMisses(sides, m.input, m.load, best)) continue;
+        const p = pairOf(m.input, m.load);
+        if (p && o.better(p, best)) {
+          best = p;
+          o.onBetter?.(p);
+          improved = true;
+        }
       }
-    }
-    return improved;
-  };
-  const climb = (start: StageDesign, levels: number, scale: number): StageDesign => {
-    best = start;
-    steps = {
-      input: { g: sides.input.ctx.gmidStep * scale, v: topologyOf(start.input.cand.topology).refineVoltageStep * scale },
-      load: { g: sides.load.ctx.gmidStep * scale, v: topologyOf(start.load.cand.topology).refineVoltageStep * scale },
+      return improved;
     };
     for (let round = 0, level = 1; round < MAX_ROUNDS; round++) {
-      const improved = tryMoves('single') || tryMoves('pair') || (scale === 1 && tryMoves('cross'));
+      const improved = tryMoves('single') || tryMoves('pair') || (o.scale === 1 && tryMoves('cross'));
       if (improved) continue;
-      if (++level > levels) break;
+      if (++level > o.levels) break;
       for (const s of [steps.input, steps.load]) {
         s.g /= 2;
         s.v /= 2;
@@ -248,19 +249,115 @@ export function refineStage(
     }
     return best;
   };
+  return { climb, pairOf, evaluated: () => evaluated };
+}
 
+/**
+ * Local refinement of a gain stage: from the pair the pair screen picked and the seeds seedsOf adds from its pool,
+ * hill-climb over moves judged exactly as one circuit (evaluatePair, every corner when it meets the nominal targets)
+ * by stageBetter:
+ * - one side moved with the other held: the stack climb's neighbours (each device's L to the neighbouring grid
+ *   lengths, each gm/ID and VDS setpoint by ± its step), then pairs of those;
+ * - then, at the screen's step, both sides at once, one single-coordinate move of each: a side giving up area and
+ *   Rout only pays when the other makes up the gain, which no move of one side finds.
+ * Moves go in order of summed area, so with objective area the first one meeting every target wins the round and
+ * the rest, no smaller than it, are not traced; a move surelyMisses rules out is not traced either.
+ * Every seed climbs at the screen's gm/ID step; the best of those climbs on with the steps halved twice. The screen
+ * ranks pairs on estimated gain curves from a few hundred side candidates, so its pick can be far from the best
+ * nearby design. Every design traced is added to `pool` (the trade front and the nearest points see them).
+ * When nothing meets the targets, the nearest points are climbed for too (nearestStage).
+ */
+export function refineStage(
+  sides: StageSides, picked: StageDesign, pool: StageDesign[], memos: { input: SideMemo; load: SideMemo },
+): { best: StageDesign; evaluated: number; nearest?: StageNearest } {
+  const { stage } = sides;
+  const climber = stageClimber(sides, pool, memos);
+  const ok = climbOk(sides);
+  const better: StageOrder = (a, b) => stageBetter(sides, a, b, ok);
+  const seeds = seedsOf(sides, picked, pool, ok);
+  // Designs meeting every target that the climbs moved to (or started from): the result is the best of them that
+  // the reported trace confirms.
+  const met: StageDesign[] = [];
+  const bound = (best: StageDesign): number => (stage.objective === 'area' && ok(best) ? best.area * (1 - REL_TOL) : Infinity);
+  const onBetter = (p: StageDesign) => {
+    if (ok(p)) met.push(p);
+  };
   let overall = picked;
-  // Nothing the screen found meets the targets: one climb from the pick, at the screen's step (for the nearest
-  // points, which are over the explored designs); the full refinement is for designs that meet them.
   for (const seed of seeds) if (ok(seed)) met.push(seed);
-  const feasible = met.length > 0;
-  for (const seed of feasible ? seeds : seeds.slice(0, 1)) {
-    const local = climb(seed, 1, 1);
-    if (local === overall || stageBetter(sides, local, overall, ok)) overall = local;
+  // Nothing the screen found meets the targets: one climb from the pick at the screen's step, then the climbs for
+  // the nearest points; the full refinement is for designs that meet them (should one of those climbs reach one).
+  for (const seed of met.length > 0 ? seeds : seeds.slice(0, 1)) {
+    const local = climber.climb(seed, { better, levels: 1, scale: 1, bound, onBetter });
+    if (local === overall || better(local, overall)) overall = local;
   }
-  best = feasible ? climb(overall, 2, 0.5) : overall;
-  if (!feasible) return { best, evaluated };
+  if (met.length === 0) {
+    const { nearest, evaluated } = nearestStage(sides, pool, memos);
+    for (const d of pool) if (ok(d)) met.push(d);
+    if (met.length === 0) return { best: overall, evaluated: climber.evaluated() + evaluated, nearest };
+    for (const d of met) if (better(d, overall)) overall = d;
+  }
+  const best = climber.climb(overall, { better, levels: 2, scale: 0.5, bound, onBetter });
   // In objective order, the first the reported trace confirms (nearly always the climb's own best).
   met.sort((a, b) => stageCompare(stage.objective, a, b));
-  return { best: met.find((d) => okReported(sides, d)) ?? best, evaluated };
+  return { best: met.find((d) => okReported(sides, d)) ?? best, evaluated: climber.evaluated() };
+}
+
+/** The designs reaching a stage's nearest points (nominal corner, input DC voltage within the rails). */
+export interface StageNearest {
+  /** Highest gain at the design point. */
+  peak: StageDesign;
+  /** Highest gain held over the swing target. */
+  held: StageDesign;
+  /** Widest swing at the gain target (undefined when no design reaches the gain target at the design point). */
+  swing?: StageDesign;
+  /** With a gbw target, when some design meets gain and swing: the highest GBW among those. */
+  gbw?: StageDesign;
+}
+
+const withinRails = (sides: StageSides, d: StageDesign) => stageMargins(sides.stage, d.nominal).vin >= 0;
+
+/** An order putting designs with the input DC voltage within the rails first, then by `key` (higher first), then `tie`. */
+function higher(sides: StageSides, key: (d: StageDesign) => number, tie: (d: StageDesign) => number): StageOrder {
+  return (a, b) => {
+    const ra = withinRails(sides, a);
+    if (ra !== withinRails(sides, b)) return ra;
+    const ka = key(a);
+    const kb = key(b);
+    if (ka !== kb) return ka > kb;
+    return tie(a) > tie(b);
+  };
+}
+
+/**
+ * The nearest points of a stage nothing met the targets with, over the whole allowed design space rather than the
+ * designs the search happened to trace: for each question (peak gain at the design point; gain held over the swing
+ * target; swing at the gain target; with a gbw target, the highest GBW meeting gain and swing) a climb by that figure from the two best traced designs, at the screen's step
+ * and then half of it, each with the moves of the refinement (single, pair and both-sides moves).
+ */
+function nearestStage(sides: StageSides, pool: StageDesign[], memos: { input: SideMemo; load: SideMemo }): { nearest?: StageNearest; evaluated: number } {
+  const { stage } = sides;
+  // On the reported grid: the search grid's linear interpolation between samples misjudges the gain held over a
+  // swing whose ends sit where the gain falls steeply (by half on a 1.2 V stage asked for 0.95 V).
+  const fine = stageClimber(sides, pool, memos, TRACE_STEP);
+  const top = (better: StageOrder): StageDesign | undefined => {
+    const sorted = pool.filter((d) => withinRails(sides, d)).sort((a, b) => (better(a, b) ? -1 : better(b, a) ? 1 : 0));
+    let best: StageDesign | undefined;
+    for (const traced of sorted.slice(0, 2)) {
+      const seed = fine.pairOf(traced.input, traced.load);
+      if (!seed) continue;
+      const local = fine.climb(seed, { better, levels: NEAREST_LEVELS, scale: NEAREST_SCALE, bound: () => Infinity });
+      if (!best || better(local, best)) best = local;
+    }
+    return best;
+  };
+  const gain = (d: StageDesign) => d.nominal.gain;
+  const peak = top(higher(sides, gain, (d) => d.nominal.gainAtSwing));
+  if (!peak) return { evaluated: fine.evaluated() };
+  const held = top(higher(sides, (d) => d.nominal.gainAtSwing, gain)) ?? peak;
+  const swing = peak.nominal.gain >= stage.gain ? top(higher(sides, (d) => d.nominal.trace.swing, gain)) : undefined;
+  const swingMet = (d: StageDesign) => (d.nominal.trace.swing >= stage.swing - 1e-9 ? 1 : 0);
+  const gbw = stage.gbw !== undefined && swing && swingMet(swing)
+    ? top((a, b) => swingMet(a) !== swingMet(b) ? swingMet(a) > swingMet(b) : higher(sides, (d) => d.nominal.gbw ?? 0, gain)(a, b))
+    : undefined;
+  return { nearest: { peak, held, swing, gbw }, evaluated: fine.evaluated() };
 }

@@ -10,6 +10,7 @@ import { absolute } from './result.js';
 import { fineTrace, type StageAt, type StageDesign, type StageSides } from './stage-eval.js';
 import { meets, nominalOk, stageMargins, type StageMargins } from './stage-rank.js';
 import { vinRail } from './stage-rails.js';
+import type { StageNearest } from './stage-refine.js';
 import type {
   StageCorner, StageCurvePoint, StageFrontPoint, StagePredicted, StageResult, StageSide, StageSquareLaw, StageTarget, StageVerdict,
 } from './stage-types.js';
@@ -177,8 +178,12 @@ function nearestOf(pool: readonly StageDesign[]): { gainAtSwing: number; swingAt
   return { gainAtSwing, swingAtGain };
 }
 
-/** Why nothing met the targets: the nearest points over the explored designs and which target binds, by how much. */
-function infeasibility(sides: StageSides, best: StageDesign, explored: readonly StageDesign[]): Pick<StageResult, 'binding' | 'nearest'> {
+/**
+ * Why nothing met the targets: the nearest points and which target binds, by how much. The nearest points are the
+ * climbs' (`climbed`, over the whole allowed space; see stage-refine.ts nearestStage) when the search ran them, else
+ * the best over the explored designs.
+ */
+function infeasibility(sides: StageSides, best: StageDesign, explored: readonly StageDesign[], climbed?: StageNearest): Pick<StageResult, 'binding' | 'nearest'> {
   const stage = sides.stage;
   const nominal = sides.input.ctx.nominal;
   // Only designs with the input DC voltage within the rails count; when there are none, that binds
@@ -188,14 +193,23 @@ function infeasibility(sides: StageSides, best: StageDesign, explored: readonly 
   let gainAtSwing = 0;
   let swingAtGain = 0;
   let peak = 0;
-  for (const d of pool) {
-    gainAtSwing = Math.max(gainAtSwing, d.nominal.gainAtSwing);
-    swingAtGain = Math.max(swingAtGain, d.nominal.trace.swing);
-    peak = Math.max(peak, d.nominal.gain);
+  if (climbed) {
+    // The climbs' winners (traced on the reported grid).
+    gainAtSwing = climbed.held.nominal.gainAtSwing;
+    swingAtGain = climbed.swing?.nominal.trace.swing ?? 0;
+    peak = climbed.peak.nominal.gain;
+  } else {
+    for (const d of pool) {
+      gainAtSwing = Math.max(gainAtSwing, d.nominal.gainAtSwing);
+      swingAtGain = Math.max(swingAtGain, d.nominal.trace.swing);
+      peak = Math.max(peak, d.nominal.gain);
+    }
   }
   const nearest = { gainAtSwing, swingAtGain };
+  // Bindings from the nearest points name the best any design reaches (`best`), not the shown design's figure.
+  const reach = climbed ? { best: true } : {};
   if (peak < stage.gain) {
-    return { binding: { target: 'gain', required: stage.gain, achieved: peak, at: stage.output, device: null, corner: nominal }, nearest };
+    return { binding: { target: 'gain', required: stage.gain, achieved: peak, at: stage.output, device: null, corner: nominal, ...reach }, nearest };
   }
   if (nominalOk(stage, best)) {
     const c = (best.corners ?? []).find((x) => !meets(stageMargins(stage, x)));
@@ -205,21 +219,21 @@ function infeasibility(sides: StageSides, best: StageDesign, explored: readonly 
     }
   }
   const swingOk = pool.filter((d) => d.nominal.trace.swing >= stage.swing - 1e-9);
-  if (stage.gbw !== undefined && swingOk.length > 0) {
-    const g = Math.max(...swingOk.map((d) => d.nominal.gbw ?? 0));
-    return { binding: { target: 'gbw', required: stage.gbw, achieved: g, at: stage.output, device: null, corner: nominal }, nearest };
+  if (stage.gbw !== undefined && (climbed ? climbed.gbw !== undefined : swingOk.length > 0)) {
+    const g = climbed?.gbw ? climbed.gbw.nominal.gbw ?? 0 : Math.max(...swingOk.map((d) => d.nominal.gbw ?? 0));
+    return { binding: { target: 'gbw', required: stage.gbw, achieved: g, at: stage.output, device: null, corner: nominal, ...reach }, nearest };
   }
   // Both targets miss together (gain held over the swing target ⇔ swing at the gain target); the one further off, relatively, binds.
   const g = 1 - gainAtSwing / stage.gain;
   const s = 1 - swingAtGain / stage.swing;
   const binding: StageVerdict = g >= s
-    ? { target: 'gain', required: stage.gain, achieved: gainAtSwing, at: null, device: null, corner: nominal }
-    : { target: 'swing', required: stage.swing, achieved: swingAtGain, at: null, device: null, corner: nominal };
+    ? { target: 'gain', required: stage.gain, achieved: gainAtSwing, at: null, device: null, corner: nominal, ...reach }
+    : { target: 'swing', required: stage.swing, achieved: swingAtGain, at: null, device: null, corner: nominal, ...reach };
   return { binding, nearest };
 }
 
 /** The report for one load topology: the chosen design, its corners, and why it fails if it does. */
-export function stageResult(sides: StageSides, best: StageDesign, pool: readonly StageDesign[], evaluated: number): StageResult {
+export function stageResult(sides: StageSides, best: StageDesign, pool: readonly StageDesign[], evaluated: number, nearest?: StageNearest): StageResult {
   const stage = sides.stage;
   fineTrace(sides, best);
   const corners = cornerResults(sides, best);
@@ -234,7 +248,7 @@ export function stageResult(sides: StageSides, best: StageDesign, pool: readonly
   };
   const sq = squareLawOf(sides, best);
   if (sq) r.squareLaw = sq;
-  if (!feasible) Object.assign(r, infeasibility(sides, best, pool));
+  if (!feasible) Object.assign(r, infeasibility(sides, best, pool, nearest));
   else {
     const all: Array<StageAt | { corner: string; error: string }> = [best.nominal, ...(best.corners ?? [])];
     let worst = best.nominal as StageAt;

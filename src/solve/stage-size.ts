@@ -100,7 +100,7 @@ export function sizeStage(stage: StageSpec, kit: KitAccess, opts: { supply: numb
       results.push(emptyStageResult(sides, t, count));
       continue;
     }
-    results.push(stageResult(sides, climb.best, pool, count));
+    results.push(stageResult(sides, climb.best, pool, count, climb.nearest));
     for (const d of pool) explored.push(stageFrontPoint(sides, d));
   }
   if (stage.load.topology === 'auto') {

@@ -18,6 +18,11 @@ export type StageTarget = 'gain' | 'swing' | 'gbw' | 'saturation' | 'table' | 'v
  */
 export interface StageVerdict extends Omit<Verdict, 'target'> {
   target: StageTarget;
+  /**
+   * True on an infeasible stage's binding when `achieved` is the best any allowed design reaches (a nearest point,
+   * climbed for over the whole design space), not the shown design's own figure.
+   */
+  best?: boolean;
 }
 
 /** One side of a sized stage. Devices bottom (rail) first; the input device's `gate` is the input DC voltage. */

@@ -60,12 +60,98 @@ interface SideOption {
 
 const defaultGmidRange: [number, number] = [3, 30];
 
+/** Every side design on the grid passing the per-side rules (see the module comment). */
+function sideOptions(stage: StageSpec, kit: KitAccess, supply: number, corner: string, grid: StageGrid, kind: 'input' | 'load', device: Polarity, topology: Topology): SideOption[] {
+  const spec = stage[kind];
+  const table = Array.from(kit.lengths(corner, device));
+  const wmin = table[0];
+  const wmax = 64 * 100 * wmin;
+  const lengths = table.filter((l) => l >= (spec.l?.min ?? 0) * (1 - 1e-9) && l <= (spec.l?.max ?? Infinity) * (1 + 1e-9));
+  const [gLo, gHi] = spec.gmid ? [spec.gmid.min, spec.gmid.max] : defaultGmidRange;
+  const gmids = range(gLo, gHi, grid.gmidPoints);
+  const vd = sideVoltage(device, supply, stage.output);
+  const ut = thermalVoltage(kit.temperature?.(corner, device) ?? 27);
+  const slices = new Map<number, LengthSlice>();
+  const slice = (l: number) => {
+    let s = slices.get(l);
+    if (!s) slices.set(l, (s = kit.slice(corner, device, l)));
+    return s;
+  };
+  const shape = topologyOf(topology);
+  const n = shape.roles.length;
+  const setpointLists: number[][] = [];
+  for (let k = 0; k < shape.setpoints; k++) {
+    const list: number[] = [];
+    for (let v = 0.05; v <= vd - 0.15 + 1e-9; v += grid.vStep) list.push(Math.round(v * 1e6) / 1e6);
+    setpointLists.push(list);
+  }
+  const ib = spec.biasCurrent ?? stage.current;
+  const out: SideOption[] = [];
+  for (const l of cartesian(Array.from({ length: n }, () => lengths))) {
+    for (const gmid of cartesian(Array.from({ length: n }, () => gmids))) {
+      for (const setpoints of cartesian(setpointLists)) {
+        const sl = l.map(slice);
+        let sized;
+        try {
+          sized = sizeStackDevices({ shape, slices: sl, gmid, setpoints, current: stage.current, vmid: vd, wmin });
+        } catch {
+          continue;
+        }
+        if (!sized || sized.w.some((w) => !(w <= wmax))) continue;
+        // Saturation of every device below the top one at the design point.
+        let saturated = true;
+        for (let k = 0; k < n - 1; k++) {
+          if (sized.nodes[k + 1] - sized.nodes[k] < saturationVoltage(sl[k], gmid[k], sized.nodes[k], ut)) saturated = false;
+        }
+        if (!saturated) continue;
+        if (kind === 'input' && !(sized.gates[0] <= supply)) continue;
+        // Bias diodes: every fixed gate (the input's cascode gate; every load gate). A common-source input has none.
+        if (kind === 'load' || n > 1) {
+          let biased: boolean;
+          try {
+            biased = biasDevices(kind === 'input' ? topologyOf('cascode') : shape, sl, sized.gates, ib, { wmin, lengths: table, slice }) !== null;
+          } catch {
+            biased = false;
+          }
+          if (!biased) continue;
+        }
+        const devices = sl.map((s, k) => ({ slice: s, w: sized.w[k] }));
+        let rout = 0;
+        let gm = 0;
+        try {
+          if (kind === 'input') {
+            const op = inputAtCurrent(devices, n > 1 ? sized.gates[1] : undefined, vd, stage.current);
+            if (op) [rout, gm] = [op.rout, op.devices[0].gm];
+          } else {
+            const s = sampleAt(devices, Array.from(sized.gates), vd);
+            if (s.op) rout = s.rout;
+          }
+        } catch {
+          continue;
+        }
+        if (!(rout > 0)) continue;
+        out.push({ l, gmid, setpoints, devices, gates: Array.from(sized.gates), area: devices.reduce((a, d) => a + d.w * d.slice.l, 0), rout, gm });
+      }
+    }
+  }
+  return out;
+}
+
+
 function range(lo: number, hi: number, points: number): number[] {
   return Array.from({ length: points }, (_, j) => lo + ((hi - lo) * j) / (points - 1));
 }
 
 function cartesian<T>(lists: T[][]): T[][] {
   return lists.reduce<T[][]>((acc, list) => acc.flatMap((a) => list.map((x) => [...a, x])), [[]]);
+}
+
+function circuitOf(supply: number, device: Polarity, a: SideOption, b: SideOption): StageCircuit {
+  return {
+    supply, device,
+    input: { devices: a.devices, cascodeGate: a.devices.length > 1 ? a.gates[1] : undefined },
+    load: { devices: b.devices, gates: b.gates },
+  };
 }
 
 /** Exhaustive smallest-area design of one stage spec with a fixed load topology, at one corner. */
@@ -75,84 +161,8 @@ export function stageExhaustive(stage: StageSpec, kit: KitAccess, supply: number
   const loadTopology = stage.load.topology as Topology;
   if (loadTopology !== 'single' && loadTopology !== 'cascode') throw new Error('the reference takes single or cascode loads');
 
-  const sideOptions = (kind: 'input' | 'load', device: Polarity, topology: Topology): SideOption[] => {
-    const spec = stage[kind];
-    const table = Array.from(kit.lengths(corner, device));
-    const wmin = table[0];
-    const wmax = 64 * 100 * wmin;
-    const lengths = table.filter((l) => l >= (spec.l?.min ?? 0) * (1 - 1e-9) && l <= (spec.l?.max ?? Infinity) * (1 + 1e-9));
-    const [gLo, gHi] = spec.gmid ? [spec.gmid.min, spec.gmid.max] : defaultGmidRange;
-    const gmids = range(gLo, gHi, grid.gmidPoints);
-    const vd = sideVoltage(device, supply, stage.output);
-    const ut = thermalVoltage(kit.temperature?.(corner, device) ?? 27);
-    const slices = new Map<number, LengthSlice>();
-    const slice = (l: number) => {
-      let s = slices.get(l);
-      if (!s) slices.set(l, (s = kit.slice(corner, device, l)));
-      return s;
-    };
-    const shape = topologyOf(topology);
-    const n = shape.roles.length;
-    const setpointLists: number[][] = [];
-    for (let k = 0; k < shape.setpoints; k++) {
-      const list: number[] = [];
-      for (let v = 0.05; v <= vd - 0.15 + 1e-9; v += grid.vStep) list.push(Math.round(v * 1e6) / 1e6);
-      setpointLists.push(list);
-    }
-    const ib = spec.biasCurrent ?? stage.current;
-    const out: SideOption[] = [];
-    for (const l of cartesian(Array.from({ length: n }, () => lengths))) {
-      for (const gmid of cartesian(Array.from({ length: n }, () => gmids))) {
-        for (const setpoints of cartesian(setpointLists)) {
-          const sl = l.map(slice);
-          let sized;
-          try {
-            sized = sizeStackDevices({ shape, slices: sl, gmid, setpoints, current: stage.current, vmid: vd, wmin });
-          } catch {
-            continue;
-          }
-          if (!sized || sized.w.some((w) => !(w <= wmax))) continue;
-          // Saturation of every device below the top one at the design point.
-          let saturated = true;
-          for (let k = 0; k < n - 1; k++) {
-            if (sized.nodes[k + 1] - sized.nodes[k] < saturationVoltage(sl[k], gmid[k], sized.nodes[k], ut)) saturated = false;
-          }
-          if (!saturated) continue;
-          if (kind === 'input' && !(sized.gates[0] <= supply)) continue;
-          // Bias diodes: every fixed gate (the input's cascode gate; every load gate). A common-source input has none.
-          if (kind === 'load' || n > 1) {
-            let biased: boolean;
-            try {
-              biased = biasDevices(kind === 'input' ? topologyOf('cascode') : shape, sl, sized.gates, ib, { wmin, lengths: table, slice }) !== null;
-            } catch {
-              biased = false;
-            }
-            if (!biased) continue;
-          }
-          const devices = sl.map((s, k) => ({ slice: s, w: sized.w[k] }));
-          let rout = 0;
-          let gm = 0;
-          try {
-            if (kind === 'input') {
-              const op = inputAtCurrent(devices, n > 1 ? sized.gates[1] : undefined, vd, stage.current);
-              if (op) [rout, gm] = [op.rout, op.devices[0].gm];
-            } else {
-              const s = sampleAt(devices, Array.from(sized.gates), vd);
-              if (s.op) rout = s.rout;
-            }
-          } catch {
-            continue;
-          }
-          if (!(rout > 0)) continue;
-          out.push({ l, gmid, setpoints, devices, gates: Array.from(sized.gates), area: devices.reduce((a, d) => a + d.w * d.slice.l, 0), rout, gm });
-        }
-      }
-    }
-    return out;
-  };
-
-  const inputs = sideOptions('input', inDev, stage.input.topology as Topology).sort((a, b) => a.area - b.area);
-  const loads = sideOptions('load', ldDev, loadTopology).sort((a, b) => a.area - b.area);
+  const inputs = sideOptions(stage, kit, supply, corner, grid, 'input', inDev, stage.input.topology as Topology).sort((a, b) => a.area - b.area);
+  const loads = sideOptions(stage, kit, supply, corner, grid, 'load', ldDev, loadTopology).sort((a, b) => a.area - b.area);
   // Pairs in order of summed area without listing them all: a heap holding, per input, its next load.
   const heap = new PairHeap(inputs.map((a) => a.area), loads.map((b) => b.area));
   let traced = 0;
@@ -163,11 +173,7 @@ export function stageExhaustive(stage: StageSpec, kit: KitAccess, supply: number
     // Gain at the design point from each side's values there (both sides sit at their sizing bias): below the
     // target (with 1 % for solver tolerance, then checked on the circuit) there is no swing at that gain.
     if (a.gm * ((a.rout * b.rout) / (a.rout + b.rout)) < 0.99 * stage.gain) continue;
-    const circuit: StageCircuit = {
-      supply, device: inDev,
-      input: { devices: a.devices, cascodeGate: a.devices.length > 1 ? a.gates[1] : undefined },
-      load: { devices: b.devices, gates: b.gates },
-    };
+    const circuit = circuitOf(supply, inDev, a, b);
     let p;
     try {
       p = stagePoint(circuit, stage.output);
@@ -190,6 +196,104 @@ export function stageExhaustive(stage: StageSpec, kit: KitAccess, supply: number
     }
   }
   return { sides: [inputs.length, loads.length], traced };
+}
+
+export interface StageNearestAnswer {
+  /** Highest gain at the design point over the grid's pairs (input DC voltage within the rails). */
+  peak: number;
+  /** Highest gain held over the swing target: over output intervals of the target's width containing the design point, the lowest gain (linear between the 20 mV samples). */
+  held: number;
+  /** Widest swing at the gain target (0 when no pair reaches the gain target at the design point). */
+  swing: number;
+  pairs: number;
+  traced: number;
+  /** The pair holding `held`. */
+  heldBy?: { input: Pick<SideOption, 'l' | 'gmid' | 'setpoints'>; load: Pick<SideOption, 'l' | 'gmid' | 'setpoints'> };
+}
+
+/** Gain held over `width` on a sampled curve: max over windows containing the design point of the min gain (linear between samples). */
+function heldOnGrid(vs: ArrayLike<number>, gains: ArrayLike<number>, j0: number, width: number): number {
+  const n = vs.length;
+  const at = (v: number): number => {
+    let k = 0;
+    while (k < n - 2 && vs[k + 1] < v) k++;
+    const t = Math.min(Math.max((v - vs[k]) / (vs[k + 1] - vs[k]), 0), 1);
+    return gains[k] + t * (gains[k + 1] - gains[k]);
+  };
+  let best = 0;
+  // Windows with one end on a sample, and a fine sweep of the window's start in between.
+  const starts: number[] = [];
+  for (let j = 0; j < n; j++) starts.push(vs[j], vs[j] - width);
+  for (let a = vs[j0] - width; a <= vs[j0] + 1e-12; a += 0.001) starts.push(a);
+  for (const a of starts) {
+    const b = a + width;
+    if (a < vs[0] - 1e-12 || b > vs[n - 1] + 1e-12 || a > vs[j0] + 1e-12 || b < vs[j0] - 1e-12) continue;
+    let m = Math.min(at(a), at(b));
+    for (let j = 0; j < n; j++) if (vs[j] > a && vs[j] < b) m = Math.min(m, gains[j]);
+    best = Math.max(best, m);
+  }
+  return best;
+}
+
+/**
+ * Exhaustive nearest points of one stage spec with a fixed load topology, at one corner: over every pair of side
+ * designs on the grid (input DC voltage at the design point within the rails), the highest gain at the design
+ * point, the highest gain held over the swing target and the widest swing at the gain target. Pairs go in order of
+ * their design-point gain from the two sides' values there (within 1 % of the circuit's, which is then solved);
+ * each figure stops once that order cannot beat it (held and swing both need the design-point gain).
+ */
+export function stageNearestExhaustive(stage: StageSpec, kit: KitAccess, supply: number, corner: string, grid: StageGrid): StageNearestAnswer {
+  const inDev = stage.input.device;
+  const ldDev: Polarity = inDev === 'n' ? 'p' : 'n';
+  const loadTopology = stage.load.topology as Topology;
+  if (loadTopology !== 'single' && loadTopology !== 'cascode') throw new Error('the reference takes single or cascode loads');
+  const inputs = sideOptions(stage, kit, supply, corner, grid, 'input', inDev, stage.input.topology as Topology);
+  const loads = sideOptions(stage, kit, supply, corner, grid, 'load', ldDev, loadTopology);
+  const nl = loads.length;
+  const est = new Float64Array(inputs.length * nl);
+  for (let i = 0; i < inputs.length; i++) {
+    const a = inputs[i];
+    for (let j = 0; j < nl; j++) est[i * nl + j] = a.gm * ((a.rout * loads[j].rout) / (a.rout + loads[j].rout));
+  }
+  const order = Array.from(est.keys()).sort((x, y) => est[y] - est[x]);
+  const circuit = (k: number) => circuitOf(supply, inDev, inputs[Math.floor(k / nl)], loads[k % nl]);
+  const withinRails = (vin: number | undefined) => vin !== undefined && vin >= 0 && vin <= supply;
+  let peak = 0;
+  for (const k of order) {
+    if (est[k] < peak / 1.02) break;
+    let p;
+    try {
+      p = stagePoint(circuit(k), stage.output);
+    } catch {
+      continue;
+    }
+    if (p && withinRails(p.vin) && p.gain > peak) peak = p.gain;
+  }
+  let held = 0;
+  let swing = 0;
+  let traced = 0;
+  let heldBy: StageNearestAnswer['heldBy'];
+  for (const k of order) {
+    const needSwing = est[k] >= 0.98 * stage.gain;
+    if (!needSwing && est[k] < held / 1.02) break;
+    const c = circuit(k);
+    let t;
+    try {
+      t = traceStage(c, stage.output, stage.gain, { step: 0.02 });
+    } catch {
+      continue;
+    }
+    traced++;
+    if (!withinRails(t.points[t.j0]?.vin)) continue;
+    const h = heldOnGrid(t.vs, t.gains, t.j0, stage.swing);
+    if (h > held) {
+      held = h;
+      const pick = (o: SideOption) => ({ l: o.l, gmid: o.gmid, setpoints: o.setpoints });
+      heldBy = { input: pick(inputs[Math.floor(k / nl)]), load: pick(loads[k % nl]) };
+    }
+    swing = Math.max(swing, t.swing);
+  }
+  return { peak, held, swing, pairs: est.length, traced, heldBy };
 }
 
 /** Min-heap of pairs (i, j) by a[i] + b[j] (both ascending): starts with (i, 0) for every i; popping (i, j) adds (i, j + 1). */
