@@ -2,7 +2,7 @@ import { StackwrightError } from '../errors.js';
 import { topologyOf } from '../topology/index.js';
 import type { StageSpec } from '../design/types.js';
 import {
-  biasDevices, biasGates, gainOverSwing, heldGain, traceStage,
+  biasDevices, biasGates, gainOverSwing, heldGain, stagePoint, traceStage,
   type BiasDevice, type StackDevice, type StageCircuit, type StagePoint, type StageTrace,
 } from '../stack/index.js';
 import type { Side, SideDesign } from './stage-side.js';
@@ -70,7 +70,7 @@ export function gbwOf(stage: StageSpec, gm: number, cout: number | null): number
 }
 
 /** Trace a circuit and summarise it against the stage targets. */
-export function stageAt(sides: StageSides, corner: string, circuit: StageCircuit, gates: StageAt['gates'], step = TRACE_STEP): StageAt {
+export function stageAt(sides: StageSides, corner: string, circuit: StageCircuit, gates: StageAt['gates'], step = TRACE_STEP, solveHeld = step < SEARCH_STEP): StageAt {
   const { stage } = sides;
   const trace = traceStage(circuit, stage.output, stage.gain, { step });
   const p = trace.points[trace.j0];
@@ -78,8 +78,9 @@ export function stageAt(sides: StageSides, corner: string, circuit: StageCircuit
   return {
     corner, circuit, trace, gates,
     gain: trace.gains[trace.j0],
-    // The search ranks on the grid estimate; reported designs have the interval ends solved on the circuit.
-    gainAtSwing: step < SEARCH_STEP ? heldGain(circuit, trace, stage.swing) : gainOverSwing(trace.vs, trace.gains, trace.j0, stage.swing),
+    // The search ranks on the grid estimate; reported designs (and the nearest points' climb) have the interval
+    // ends solved on the circuit.
+    gainAtSwing: solveHeld ? heldGain(circuit, trace, stage.swing) : gainOverSwing(trace.vs, trace.gains, trace.j0, stage.swing),
     gbw: p ? gbwOf(stage, p.gm, cout) : null,
     cout,
   };
@@ -103,11 +104,25 @@ export function pairCircuit(sides: StageSides, input: SideDesign, load: SideDesi
 }
 
 /**
- * Evaluate a pair exactly at the nominal corner: bias diodes for every fixed
- * gate (as stacks have), then the transfer curve traced on the circuit (on the
- * search grid, or another `step`). Null when a bias diode cannot be realised.
+ * How a pair is judged: traced on the search grid ('search'); the same with the gain held over the swing target
+ * solved on the circuit at the window ends ('held', see heldGain); or solved at the design point only ('point': a
+ * one-sample trace with no swing, for climbs on the design-point gain alone, kept out of every pool of traced designs).
  */
-export function evaluatePair(sides: StageSides, input: SideDesign, load: SideDesign, step = SEARCH_STEP): StageDesign | null {
+export type PairJudge = 'search' | 'held' | 'point';
+
+/** The design point alone, as a one-sample trace (swing 0, nothing held). */
+function pointAt(sides: StageSides, corner: string, circuit: StageCircuit, gates: StageAt['gates']): StageAt {
+  const p = stagePoint(circuit, sides.stage.output);
+  const trace: StageTrace = { vs: Float64Array.of(sides.stage.output), gains: Float64Array.of(p ? p.gain : 0), points: [p], j0: 0, vlow: null, vhigh: null, swing: 0 };
+  return { corner, circuit, trace, gates, gain: trace.gains[0], gainAtSwing: 0, gbw: null, cout: null };
+}
+
+/**
+ * Evaluate a pair exactly at the nominal corner: bias diodes for every fixed
+ * gate (as stacks have), then the circuit judged as `judge` says. Null when a
+ * bias diode cannot be realised.
+ */
+export function evaluatePair(sides: StageSides, input: SideDesign, load: SideDesign, judge: PairJudge = 'search'): StageDesign | null {
   return rangeSafe(() => {
     const ib = inputBias(sides, input);
     const lctx = sides.load.ctx;
@@ -115,7 +130,8 @@ export function evaluatePair(sides: StageSides, input: SideDesign, load: SideDes
     if (!ib || !lb) return null;
     const circuit = pairCircuit(sides, input, load);
     const gates = { input: input.sized.gates.slice(1), load: load.sized.gates };
-    const nominal = stageAt(sides, sides.input.ctx.nominal, circuit, gates, step);
+    const corner = sides.input.ctx.nominal;
+    const nominal = judge === 'point' ? pointAt(sides, corner, circuit, gates) : stageAt(sides, corner, circuit, gates, SEARCH_STEP, judge === 'held');
     return { input, load, inputBias: ib, loadBias: lb, area: input.area + load.area, nominal };
   });
 }

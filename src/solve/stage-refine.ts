@@ -4,7 +4,7 @@ import { designIndex, guessOf, outputGrid, stagePoint } from '../stack/index.js'
 import { candidateKey, type Candidate } from './search/candidate.js';
 import { neighbours } from './search/refine.js';
 import { sideDesign, type Side, type SideDesign } from './stage-side.js';
-import { SEARCH_STEP, TRACE_STEP, cornersOf, evaluateCorner, evaluatePair, fineTrace, pairCircuit, stageAt, type StageDesign, type StageSides } from './stage-eval.js';
+import { TRACE_STEP, cornersOf, evaluateCorner, evaluatePair, pairCircuit, stageAt, type PairJudge, type StageDesign, type StageSides } from './stage-eval.js';
 import { meets, shortfall, stageCompare, stageMargins } from './stage-rank.js';
 import { rangeSafe } from './evaluate/evaluate.js';
 
@@ -156,10 +156,10 @@ interface ClimbOptions {
 
 /**
  * Climbs over stage designs with the side designs and pairs it builds memoised (shared by every climb of one load
- * topology; side designs also across topologies through `memos`), pairs traced with `step`. Every pair traced is
- * added to `pool`.
+ * topology; side designs also across topologies through `memos`), pairs judged as `judge` says (see evaluatePair).
+ * Every pair traced is added to `pool`.
  */
-function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: SideMemo; load: SideMemo }, step = SEARCH_STEP) {
+function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: SideMemo; load: SideMemo }, judge: PairJudge = 'search') {
   const { stage, supply } = sides;
   const vs = outputGrid(stage.output, supply, SIDE_STEP);
   const j0 = designIndex(vs, stage.output);
@@ -184,9 +184,9 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
     const key = `${candidateKey(input.cand)}/${candidateKey(load.cand)}`;
     let d = pairs.get(key);
     if (d === undefined) {
-      d = evaluatePair(sides, input, load, step);
+      d = evaluatePair(sides, input, load, judge);
       evaluated++;
-      if (d) pool.push(d);
+      if (d && judge !== 'point') pool.push(d);
       pairs.set(key, d);
     }
     return d;
@@ -251,6 +251,7 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
   };
   return { climb, pairOf, evaluated: () => evaluated };
 }
+type Climber = ReturnType<typeof stageClimber>;
 
 /**
  * Local refinement of a gain stage: from the pair the pair screen picked and the seeds seedsOf adds from its pool,
@@ -291,7 +292,7 @@ export function refineStage(
     if (local === overall || better(local, overall)) overall = local;
   }
   if (met.length === 0) {
-    const { nearest, evaluated } = nearestStage(sides, pool, memos);
+    const { nearest, evaluated } = nearestStage(sides, pool, memos, climber);
     for (const d of pool) if (ok(d)) met.push(d);
     if (met.length === 0) return { best: overall, evaluated: climber.evaluated() + evaluated, nearest };
     for (const d of met) if (better(d, overall)) overall = d;
@@ -334,30 +335,37 @@ function higher(sides: StageSides, key: (d: StageDesign) => number, tie: (d: Sta
  * target; swing at the gain target; with a gbw target, the highest GBW meeting gain and swing) a climb by that figure from the two best traced designs, at the screen's step
  * and then half of it, each with the moves of the refinement (single, pair and both-sides moves).
  */
-function nearestStage(sides: StageSides, pool: StageDesign[], memos: { input: SideMemo; load: SideMemo }): { nearest?: StageNearest; evaluated: number } {
+function nearestStage(sides: StageSides, pool: StageDesign[], memos: { input: SideMemo; load: SideMemo }, search: Climber): { nearest?: StageNearest; evaluated: number } {
   const { stage } = sides;
-  // On the reported grid: the search grid's linear interpolation between samples misjudges the gain held over a
-  // swing whose ends sit where the gain falls steeply (by half on a 1.2 V stage asked for 0.95 V).
-  const fine = stageClimber(sides, pool, memos, TRACE_STEP);
-  const top = (better: StageOrder): StageDesign | undefined => {
+  // The gain at the design point needs one solve of the circuit; the swing (its edges bisected on the circuit) is
+  // what the search grid's traces give; the gain held over the swing needs its window ends solved on the circuit:
+  // read off the search grid by linear interpolation it can come out at half its value where the gain falls
+  // steeply at the ends.
+  const point = stageClimber(sides, pool, memos, 'point');
+  const held = stageClimber(sides, pool, memos, 'held');
+  const top = (climber: Climber, better: StageOrder): StageDesign | undefined => {
     const sorted = pool.filter((d) => withinRails(sides, d)).sort((a, b) => (better(a, b) ? -1 : better(b, a) ? 1 : 0));
     let best: StageDesign | undefined;
     for (const traced of sorted.slice(0, 2)) {
-      const seed = fine.pairOf(traced.input, traced.load);
+      const seed = climber.pairOf(traced.input, traced.load);
       if (!seed) continue;
-      const local = fine.climb(seed, { better, levels: NEAREST_LEVELS, scale: NEAREST_SCALE, bound: () => Infinity });
+      const local = climber.climb(seed, { better, levels: NEAREST_LEVELS, scale: NEAREST_SCALE, bound: () => Infinity });
       if (!best || better(local, best)) best = local;
     }
     return best;
   };
   const gain = (d: StageDesign) => d.nominal.gain;
-  const peak = top(higher(sides, gain, (d) => d.nominal.gainAtSwing));
-  if (!peak) return { evaluated: fine.evaluated() };
-  const held = top(higher(sides, (d) => d.nominal.gainAtSwing, gain)) ?? peak;
-  const swing = peak.nominal.gain >= stage.gain ? top(higher(sides, (d) => d.nominal.trace.swing, gain)) : undefined;
+  const evaluated = () => point.evaluated() + held.evaluated();
+  const peakAt = top(point, higher(sides, gain, () => 0));
+  const peak = peakAt && search.pairOf(peakAt.input, peakAt.load);
+  if (!peak) return { evaluated: evaluated() };
+  const heldBy = top(held, higher(sides, (d) => d.nominal.gainAtSwing, gain)) ?? peak;
+  const swing = peak.nominal.gain >= stage.gain ? top(search, higher(sides, (d) => d.nominal.trace.swing, gain)) : undefined;
   const swingMet = (d: StageDesign) => (d.nominal.trace.swing >= stage.swing - 1e-9 ? 1 : 0);
   const gbw = stage.gbw !== undefined && swing && swingMet(swing)
-    ? top((a, b) => swingMet(a) !== swingMet(b) ? swingMet(a) > swingMet(b) : higher(sides, (d) => d.nominal.gbw ?? 0, gain)(a, b))
+    ? top(search, (a, b) => swingMet(a) !== swingMet(b) ? swingMet(a) > swingMet(b) : higher(sides, (d) => d.nominal.gbw ?? 0, gain)(a, b))
     : undefined;
-  return { nearest: { peak, held, swing, gbw }, evaluated: fine.evaluated() };
+  // The figures the report shows: on the reported grid.
+  for (const d of new Set([peak, heldBy, swing, gbw])) if (d) d.nominal = stageAt(sides, d.nominal.corner, d.nominal.circuit, d.nominal.gates, TRACE_STEP);
+  return { nearest: { peak, held: heldBy, swing, gbw }, evaluated: evaluated() };
 }
