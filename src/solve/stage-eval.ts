@@ -75,12 +75,16 @@ export function stageAt(sides: StageSides, corner: string, circuit: StageCircuit
   const trace = traceStage(circuit, stage.output, stage.gain, { step });
   const p = trace.points[trace.j0];
   const cout = coutOf(circuit, p);
+  // The search ranks on the grid estimate; reported designs (and the nearest points' climb) have the interval ends
+  // solved on the circuit.
+  const gainAtSwing = solveHeld ? heldGain(circuit, trace, stage.swing) : gainOverSwing(trace.vs, trace.gains, trace.j0, stage.swing);
+  // A search trace is judged by its figures and the design point; its other solved points would only sit in the
+  // pools of traced designs (GC copies them), as the reported curve is traced again (fineTrace).
+  if (step >= SEARCH_STEP) for (let j = 0; j < trace.points.length; j++) if (j !== trace.j0) trace.points[j] = null;
   return {
     corner, circuit, trace, gates,
     gain: trace.gains[trace.j0],
-    // The search ranks on the grid estimate; reported designs (and the nearest points' climb) have the interval
-    // ends solved on the circuit.
-    gainAtSwing: solveHeld ? heldGain(circuit, trace, stage.swing) : gainOverSwing(trace.vs, trace.gains, trace.j0, stage.swing),
+    gainAtSwing,
     gbw: p ? gbwOf(stage, p.gm, cout) : null,
     cout,
   };

@@ -10,7 +10,7 @@ export interface StageTrace {
   vs: Float64Array;
   /** Gain at each grid output (0 where the circuit cannot hold it within the table). */
   gains: Float64Array;
-  /** Solved points (null where not coverable), same indices. */
+  /** Solved points (null where not coverable), same indices; a search-grid trace kept by the stage search holds only the design point's (stage-eval stageAt). */
   points: Array<StagePoint | null>;
   /** Index of the design point. */
   j0: number;
