@@ -9,3 +9,4 @@ export { rangeError } from './range-error.js';
 export { TopK } from './topk.js';
 export { dominates, nonDominated } from './pareto.js';
 export { fallingRoot, type Falling } from './illinois.js';
+export { bisectionAnswer, type Trial } from './bisection-answer.js';
