@@ -5,7 +5,8 @@ import { candidateKey, type Candidate } from './search/candidate.js';
 import { neighbours } from './search/refine.js';
 import { sideDesign, type Side, type SideDesign } from './stage-side.js';
 import { TRACE_STEP, cornersOf, evaluateCorner, evaluatePair, pairCircuit, stageAt, type PairJudge, type StageDesign, type StageSides } from './stage-eval.js';
-import { meets, shortfall, stageCompare, stageMargins } from './stage-rank.js';
+import { meets, stageCompare, stageMargins } from './stage-rank.js';
+import { fullyOkMemo, stageBetter } from './stage-order.js';
 import { rangeSafe } from './evaluate/evaluate.js';
 
 /** Output grid step of the side traces the refinement builds (as the pair screen's), V. */
@@ -22,50 +23,10 @@ const NEAREST_LEVELS = 4;
 /** Climb rounds at most; each round tries the moves of both sides once. */
 const MAX_ROUNDS = 24;
 
-/** Meets the targets at the nominal corner and at every other corner. */
-export function stageFullyOk(sides: StageSides, d: StageDesign): boolean {
-  return meets(stageMargins(sides.stage, d.nominal)) && cornersOf(sides, d).every((c) => meets(stageMargins(sides.stage, c)));
-}
-
-/** Shortfalls summed over the nominal corner and every other corner (corners computed when needed). */
-export function stageTotalShortfall(sides: StageSides, d: StageDesign): number {
-  return cornersOf(sides, d).reduce((a, c) => a + shortfall(stageMargins(sides.stage, c)), shortfall(stageMargins(sides.stage, d.nominal)));
-}
-
 /** Meets every target at every corner on the reported grid (as the result will be traced). */
 function okReported(sides: StageSides, d: StageDesign): boolean {
   const n = stageAt(sides, d.nominal.corner, d.nominal.circuit, d.nominal.gates, TRACE_STEP);
   return meets(stageMargins(sides.stage, n)) && sides.input.ctx.corners.slice(1).every((c) => meets(stageMargins(sides.stage, evaluateCorner(sides, d, c, TRACE_STEP))));
-}
-
-/**
- * A memoised stageFullyOk for one stage search (the traces of the search grid): what the climb and its seeds count
- * as meeting every target. The result is then confirmed on the reported grid (okReported): on the targets'
- * boundary, where the climb ends, the two traces' swing edges (each bisected to 0.5 mV) can disagree.
- */
-function climbOk(sides: StageSides): (d: StageDesign) => boolean {
-  const known = new WeakMap<StageDesign, boolean>();
-  return (d) => {
-    let ok = known.get(d);
-    if (ok === undefined) known.set(d, (ok = stageFullyOk(sides, d)));
-    return ok;
-  };
-}
-
-/**
- * The climb's order: a design meeting every target at every corner (`ok`) beats one that does not; two that do
- * are ordered by the objective (stageCompare, area settling ties); two that do not by their summed shortfall,
- * then area.
- */
-function stageBetter(sides: StageSides, a: StageDesign, b: StageDesign, ok: (d: StageDesign) => boolean): boolean {
-  const fa = ok(a);
-  const fb = ok(b);
-  if (fa !== fb) return fa;
-  if (fa) return stageCompare(sides.stage.objective, a, b) < 0;
-  const sa = stageTotalShortfall(sides, a);
-  const sb = stageTotalShortfall(sides, b);
-  if (Math.abs(sa - sb) > 1e-9) return sa < sb;
-  return a.area < b.area * (1 - REL_TOL);
 }
 
 /**
@@ -270,10 +231,10 @@ type Climber = ReturnType<typeof stageClimber>;
  */
 export function refineStage(
   sides: StageSides, picked: StageDesign, pool: StageDesign[], memos: { input: SideMemo; load: SideMemo },
+  ok: (d: StageDesign) => boolean = fullyOkMemo(sides),
 ): { best: StageDesign; evaluated: number; nearest?: StageNearest } {
   const { stage } = sides;
   const climber = stageClimber(sides, pool, memos);
-  const ok = climbOk(sides);
   const better: StageOrder = (a, b) => stageBetter(sides, a, b, ok);
   const seeds = seedsOf(sides, picked, pool, ok);
   // Designs meeting every target that the climbs moved to (or started from): the result is the best of them that

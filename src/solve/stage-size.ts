@@ -5,13 +5,13 @@ import type { KitAccess } from './kit.js';
 import { makeSide, sideCandidates, sideDesign, type SideDesign } from './stage-side.js';
 import { screenPairs } from './stage-screen.js';
 import { evaluatePair, type StageDesign, type StageSides } from './stage-eval.js';
-import { nominalOk, shortfall, stageCompare, stageMargins } from './stage-rank.js';
 import { emptyStageResult, stageFrontPoint, stageResult } from './stage-result.js';
 import { chooseStage } from './stage-choose.js';
 import type { StageFrontPoint, StageResult } from './stage-types.js';
 import { paretoStages } from './stage-front.js';
 import { checkStageCover } from './table-cover.js';
-import { refineStage, stageFullyOk, stageTotalShortfall, type SideMemo } from './stage-refine.js';
+import { refineStage, type SideMemo } from './stage-refine.js';
+import { fullyOkMemo, pickStage } from './stage-order.js';
 
 /** Output grid step of the pair screen, V. */
 const SCREEN_STEP = 0.05;
@@ -22,27 +22,6 @@ export interface SizeStageResult {
   /** Trade front (gain, swing, area) over the exactly evaluated designs. */
   front: StageFrontPoint[];
   evaluated: number;
-}
-
-/** Best of the evaluated designs: meeting the targets at every corner in objective order, else the nearest. */
-export function pickStage(sides: StageSides, explored: readonly StageDesign[]): StageDesign | undefined {
-  // Designs with the input DC voltage outside the rails only when there is nothing else: the one closest to them.
-  const rails = (d: StageDesign) => stageMargins(sides.stage, d.nominal).vin;
-  const pool = explored.filter((d) => rails(d) >= 0);
-  if (pool.length === 0 && explored.length > 0) return explored.reduce((a, b) => (rails(b) > rails(a) ? b : a));
-  const ok = pool.filter((d) => nominalOk(sides.stage, d)).sort((a, b) => stageCompare(sides.stage.objective, a, b));
-  for (const d of ok) if (stageFullyOk(sides, d)) return d;
-  if (ok.length > 0) return ok.reduce((a, b) => (stageTotalShortfall(sides, b) < stageTotalShortfall(sides, a) ? b : a));
-  let best: StageDesign | undefined;
-  for (const d of pool) {
-    if (!best) best = d;
-    else {
-      const da = shortfall(stageMargins(sides.stage, d.nominal));
-      const db = shortfall(stageMargins(sides.stage, best.nominal));
-      if (da < db - 1e-9 || (Math.abs(da - db) <= 1e-9 && d.area < best.area)) best = d;
-    }
-  }
-  return best;
 }
 
 function designs(sides: StageSides, side: StageSides['input'], topology: Topology, vs: Float64Array, j0: number, gmMax?: number): SideDesign[] {
@@ -92,8 +71,10 @@ export function sizeStage(stage: StageSpec, kit: KitAccess, opts: { supply: numb
       if (d) pool.push(d);
     }
     const traced = pool.length;
-    const picked = pickStage(sides, pool);
-    const climb = picked ? refineStage(sides, picked, pool, memos) : undefined;
+    // One memo of "meets every target at every corner" for the pick and the climbs (corners are traced on demand).
+    const ok = fullyOkMemo(sides);
+    const picked = pickStage(sides, pool, ok);
+    const climb = picked ? refineStage(sides, picked, pool, memos, ok) : undefined;
     const count = input.ctx.count.exact + load.ctx.count.exact + input.ctx.count.screened + load.ctx.count.screened - before + screened + traced + (climb?.evaluated ?? 0);
     evaluated += count;
     if (!climb) {
