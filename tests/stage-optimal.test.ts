@@ -9,7 +9,8 @@ import { stageExhaustive, type StageGrid } from './helpers/stage-exhaustive.js';
 // stage-exhaustive.ts) sizes every combination of each device's length and gm/ID and every VDS setpoint of both
 // sides on a grid with the stack layer only, and traces pairs in order of area on the reported 20 mV grid until
 // one meets the targets. Tolerance: area within 5 % (the search's climb leaves the grid, so it may also come out
-// below the reference). Each case narrows the lengths and gm/ID ranges so that the reference stays affordable.
+// below the reference). Each case narrows the lengths and gm/ID ranges so that the reference stays affordable; the
+// three-device loads (triple, stacked cascode) keep one or two load lengths.
 
 let kits: Record<string, Kit>;
 const SUPPLY: Record<string, number> = { demo180: 1.8, demo090: 1.2 };
@@ -31,7 +32,7 @@ interface Case {
 }
 
 function stageOf(p: {
-  gain: number; swing: number; output: number; input: 'n' | 'p'; inputTopology: 'single' | 'cascode'; load: 'single' | 'cascode';
+  gain: number; swing: number; output: number; input: 'n' | 'p'; inputTopology: 'single' | 'cascode'; load: 'single' | 'cascode' | 'cascode-stacked' | 'triple';
   l: [number, number]; gmid: [number, number]; loadL?: [number, number];
 }): Omit<StageSpec, 'name'> {
   const side = (l: [number, number]) => ({ l: { min: l[0], max: l[1] }, gmid: { min: p.gmid[0], max: p.gmid[1] } });
@@ -82,6 +83,21 @@ const cases: Case[] = [
     id: 'demo090: n cascode input, p cascode load, gain 600', kit: 'demo090', grid: COARSE,
     stage: stageOf({ gain: 600, swing: 0.5, output: 0.6, input: 'n', inputTopology: 'cascode', load: 'cascode', l: [0.22e-6, 0.3e-6], gmid: [8, 22] }),
     why: 'the other kit with cascodes on both sides; the best design has its swing right on the target',
+  },
+  {
+    id: 'n common-source input, p triple-cascode load, gain 250', kit: 'demo180', grid: FINE,
+    stage: stageOf({ gain: 250, swing: 0.8, output: 0.9, input: 'n', inputTopology: 'single', load: 'triple', l: [0.5e-6, 1e-6], gmid: [8, 24], loadL: [0.5e-6, 0.5e-6] }),
+    why: 'a load of three devices, each with its own gm/ID, and two setpoints',
+  },
+  {
+    id: 'demo090: p common-source input, n triple-cascode load, gain 60', kit: 'demo090', grid: FINE,
+    stage: stageOf({ gain: 60, swing: 0.5, output: 0.6, input: 'p', inputTopology: 'single', load: 'triple', l: [0.3e-6, 0.55e-6], gmid: [8, 22], loadL: [0.3e-6, 0.4e-6] }),
+    why: 'the other kit, a p-type input over a three-device load with its own lengths',
+  },
+  {
+    id: 'n common-source input, p stacked-cascode load, gain 150', kit: 'demo180', grid: FINE,
+    stage: stageOf({ gain: 150, swing: 0.8, output: 0.9, input: 'n', inputTopology: 'single', load: 'cascode-stacked', l: [0.5e-6, 1e-6], gmid: [8, 24], loadL: [0.5e-6, 0.5e-6] }),
+    why: 'the stacked-cascode load (self-biased from one gate)',
   },
 ];
 

@@ -7,7 +7,8 @@
  *   VGS from its gm/ID, W = I/jd, W within [shortest table length, width limit (the spec's, else the kit default
  *   of 64 fingers of 100 × the shortest table length)];
  * - every device below a side's top one has VDS ≥ VDSsat (EKV interpolation) at the design point;
- * - every fixed gate has a realisable bias diode (as `netlist --bias diodes`); the input gate lies within the rails;
+ * - every fixed gate has a realisable bias diode (as `netlist --bias diodes`; a diode too narrow takes a longer L from
+ *   the side's allowed lengths, as for stacks); the input gate lies within the rails;
  * - the transfer curve traced on the circuit on the reported 20 mV grid with each swing edge bisected on the circuit
  *   (traceStage); the design meets the targets when the swing at the gain target reaches the swing target and the
  *   input DC voltage at the design point lies within the rails.
@@ -109,7 +110,7 @@ function sideOptions(stage: StageSpec, kit: KitAccess, supply: number, corner: s
         if (kind === 'load' || n > 1) {
           let biased: boolean;
           try {
-            biased = biasDevices(kind === 'input' ? topologyOf('cascode') : shape, sl, sized.gates, ib, { wmin, lengths: table, slice }) !== null;
+            biased = biasDevices(kind === 'input' ? topologyOf('cascode') : shape, sl, sized.gates, ib, { wmin, lengths, slice }) !== null;
           } catch {
             biased = false;
           }
@@ -159,7 +160,7 @@ export function stageExhaustive(stage: StageSpec, kit: KitAccess, supply: number
   const inDev = stage.input.device;
   const ldDev: Polarity = inDev === 'n' ? 'p' : 'n';
   const loadTopology = stage.load.topology as Topology;
-  if (loadTopology !== 'single' && loadTopology !== 'cascode') throw new Error('the reference takes single or cascode loads');
+  if (loadTopology === 'auto') throw new Error('the reference takes one load topology');
 
   const inputs = sideOptions(stage, kit, supply, corner, grid, 'input', inDev, stage.input.topology as Topology).sort((a, b) => a.area - b.area);
   const loads = sideOptions(stage, kit, supply, corner, grid, 'load', ldDev, loadTopology).sort((a, b) => a.area - b.area);
@@ -249,7 +250,7 @@ export function stageNearestExhaustive(stage: StageSpec, kit: KitAccess, supply:
   const inDev = stage.input.device;
   const ldDev: Polarity = inDev === 'n' ? 'p' : 'n';
   const loadTopology = stage.load.topology as Topology;
-  if (loadTopology !== 'single' && loadTopology !== 'cascode') throw new Error('the reference takes single or cascode loads');
+  if (loadTopology === 'auto') throw new Error('the reference takes one load topology');
   const inputs = sideOptions(stage, kit, supply, corner, grid, 'input', inDev, stage.input.topology as Topology);
   const loads = sideOptions(stage, kit, supply, corner, grid, 'load', ldDev, loadTopology);
   const nl = loads.length;
