@@ -1,8 +1,8 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { sizeStage, type Kit } from '../src/index.js';
 import type { StageSpec } from '../src/design/types.js';
-import { demoKit, ensureDemoTables } from './helpers/cli.js';
-import { stageNearestExhaustive, type StageGrid } from './helpers/stage-exhaustive.js';
+import { demoKits } from './helpers/cli.js';
+import { stageNearestExhaustive, stageOf, type StageCase, type StageGrid } from './helpers/stage-exhaustive.js';
 
 // An infeasible stage's explanation is a fact about the whole allowed design space: its nearest points (highest gain
 // at the design point, highest gain held over the swing target, widest swing at the gain target) must be what an
@@ -12,33 +12,12 @@ import { stageNearestExhaustive, type StageGrid } from './helpers/stage-exhausti
 // climbs leave the grid, so they may also come out above the reference.
 
 let kits: Record<string, Kit>;
-const SUPPLY: Record<string, number> = { demo180: 1.8, demo090: 1.2 };
+let SUPPLY: Record<string, number>;
 beforeAll(() => {
-  ensureDemoTables();
-  kits = { demo180: demoKit('demo180'), demo090: demoKit('demo090') };
+  ({ kits, supply: SUPPLY } = demoKits());
 });
 
-interface Case {
-  id: string;
-  kit: 'demo180' | 'demo090';
-  stage: Omit<StageSpec, 'name'>;
-  grid: StageGrid;
-  why: string;
-}
-
-function stageOf(p: {
-  gain: number; swing: number; output: number; input: 'n' | 'p'; inputTopology: 'single' | 'cascode'; load: 'single' | 'cascode';
-  l: [number, number]; gmid: [number, number]; loadL?: [number, number];
-}): Omit<StageSpec, 'name'> {
-  const side = (l: [number, number]) => ({ l: { min: l[0], max: l[1] }, gmid: { min: p.gmid[0], max: p.gmid[1] } });
-  return {
-    current: 10e-6, gain: p.gain, swing: p.swing, output: p.output, objective: 'area',
-    input: { device: p.input, topology: p.inputTopology, ...side(p.l) },
-    load: { topology: p.load, ...side(p.loadL ?? p.l) },
-  } as Omit<StageSpec, 'name'>;
-}
-
-const cases: Case[] = [
+const cases: StageCase[] = [
   {
     id: 'n cascode input, p common-source load, gain 1500', kit: 'demo180', grid: { gmidPoints: 7, vStep: 0.1 },
     stage: stageOf({ gain: 1500, swing: 1.0, output: 0.9, input: 'n', inputTopology: 'cascode', load: 'single', l: [0.18e-6, 2e-6], gmid: [8, 24] }),

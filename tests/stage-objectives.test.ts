@@ -1,7 +1,7 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { sizeStage, type Kit } from '../src/index.js';
 import type { StageSpec } from '../src/design/types.js';
-import { demoKit, ensureDemoTables } from './helpers/cli.js';
+import { demoKits } from './helpers/cli.js';
 import { stageNearestExhaustive, type StageGrid, type StageNearestAnswer } from './helpers/stage-exhaustive.js';
 
 // Objectives swing and gain of a gain stage against an exhaustive search over the same tables
@@ -13,8 +13,7 @@ import { stageNearestExhaustive, type StageGrid, type StageNearestAnswer } from 
 
 let kits: Record<string, Kit>;
 beforeAll(() => {
-  ensureDemoTables();
-  kits = { demo180: demoKit('demo180'), demo090: demoKit('demo090') };
+  ({ kits } = demoKits());
 });
 
 interface Case {

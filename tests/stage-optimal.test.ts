@@ -1,8 +1,8 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { sizeStage, type Kit } from '../src/index.js';
 import type { StageSpec } from '../src/design/types.js';
-import { demoKit, ensureDemoTables } from './helpers/cli.js';
-import { stageExhaustive, type StageGrid } from './helpers/stage-exhaustive.js';
+import { demoKits } from './helpers/cli.js';
+import { stageExhaustive, stageOf, type StageCase, type StageGrid } from './helpers/stage-exhaustive.js';
 
 // The gain-stage search must find what an exhaustive search over the same tables finds (a constrained optimum: no
 // allowed pair of side designs meets gain and swing with a smaller area). The reference (tests/helpers/
@@ -13,37 +13,16 @@ import { stageExhaustive, type StageGrid } from './helpers/stage-exhaustive.js';
 // three-device loads (triple, stacked cascode) keep one or two load lengths.
 
 let kits: Record<string, Kit>;
-const SUPPLY: Record<string, number> = { demo180: 1.8, demo090: 1.2 };
+let SUPPLY: Record<string, number>;
 beforeAll(() => {
-  ensureDemoTables();
-  kits = { demo180: demoKit('demo180'), demo090: demoKit('demo090') };
+  ({ kits, supply: SUPPLY } = demoKits());
 });
 
 /** Grid of the one-length cases; the cascode-on-both-sides cases use a coarser one (8 dimensions). */
 const FINE: StageGrid = { gmidPoints: 9, vStep: 0.05 };
 const COARSE: StageGrid = { gmidPoints: 7, vStep: 0.1 };
 
-interface Case {
-  id: string;
-  kit: 'demo180' | 'demo090';
-  stage: Omit<StageSpec, 'name'>;
-  grid: StageGrid;
-  why: string;
-}
-
-function stageOf(p: {
-  gain: number; swing: number; output: number; input: 'n' | 'p'; inputTopology: 'single' | 'cascode'; load: 'single' | 'cascode' | 'cascode-stacked' | 'triple';
-  l: [number, number]; gmid: [number, number]; loadL?: [number, number];
-}): Omit<StageSpec, 'name'> {
-  const side = (l: [number, number]) => ({ l: { min: l[0], max: l[1] }, gmid: { min: p.gmid[0], max: p.gmid[1] } });
-  return {
-    current: 10e-6, gain: p.gain, swing: p.swing, output: p.output, objective: 'area',
-    input: { device: p.input, topology: p.inputTopology, ...side(p.l) },
-    load: { topology: p.load, ...side(p.loadL ?? p.l) },
-  } as Omit<StageSpec, 'name'>;
-}
-
-const cases: Case[] = [
+const cases: StageCase[] = [
   {
     id: 'n common-source input, p cascode load, gain 200', kit: 'demo180', grid: FINE,
     stage: stageOf({ gain: 200, swing: 1.0, output: 0.9, input: 'n', inputTopology: 'single', load: 'cascode', l: [0.5e-6, 1e-6], gmid: [8, 24] }),

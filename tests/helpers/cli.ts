@@ -15,6 +15,12 @@ export function demoKit(name: string): Kit {
   return loadKit(name, { tables: join(REPO, 'tables') });
 }
 
+/** Both demo kits, tables built first when needed, and their supplies (V). */
+export function demoKits(): { kits: Record<'demo180' | 'demo090', Kit>; supply: Record<'demo180' | 'demo090', number> } {
+  ensureDemoTables();
+  return { kits: { demo180: demoKit('demo180'), demo090: demoKit('demo090') }, supply: { demo180: 1.8, demo090: 1.2 } };
+}
+
 export interface CliRun {
   code: number;
   stdout: string;

@@ -147,6 +147,28 @@ function cartesian<T>(lists: T[][]): T[][] {
   return lists.reduce<T[][]>((acc, list) => acc.flatMap((a) => list.map((x) => [...a, x])), [[]]);
 }
 
+/** One case of the stage reference tests: a stage spec on a demo kit, the reference's grid, and why the case is there. */
+export interface StageCase {
+  id: string;
+  kit: 'demo180' | 'demo090';
+  stage: Omit<StageSpec, 'name'>;
+  grid: StageGrid;
+  why: string;
+}
+
+/** A stage spec for the reference tests: 10 µA, objective area, one length and gm/ID range per side (the load's own lengths when given). */
+export function stageOf(p: {
+  gain: number; swing: number; output: number; input: 'n' | 'p'; inputTopology: 'single' | 'cascode';
+  load: 'single' | 'cascode' | 'cascode-stacked' | 'triple'; l: [number, number]; gmid: [number, number]; loadL?: [number, number];
+}): Omit<StageSpec, 'name'> {
+  const side = (l: [number, number]) => ({ l: { min: l[0], max: l[1] }, gmid: { min: p.gmid[0], max: p.gmid[1] } });
+  return {
+    current: 10e-6, gain: p.gain, swing: p.swing, output: p.output, objective: 'area',
+    input: { device: p.input, topology: p.inputTopology, ...side(p.l) },
+    load: { topology: p.load, ...side(p.loadL ?? p.l) },
+  } as Omit<StageSpec, 'name'>;
+}
+
 function circuitOf(supply: number, device: Polarity, a: SideOption, b: SideOption): StageCircuit {
   return {
     supply, device,
