@@ -19,6 +19,7 @@ export interface StageContext {
  * A sized gain stage as a confirm item: both sides diode-biased, the output
  * held on the shared sweep by a loop driving the input (the input DC source of
  * the transfer curve), gain and swing measured as the README defines them,
+ * with a gbw target also the unity-gain frequency from an AC analysis,
  * corrected with table-sloped steps of the cascode setpoints and devices.
  */
 export function stageItem(result: StageResult, spec: StageSpec, ctx: StageContext): ConfirmItem<StageSimulatedFigures, StageConfirmation> {
@@ -27,12 +28,14 @@ export function stageItem(result: StageResult, spec: StageSpec, ctx: StageContex
   let design = result;
   let variants: StageResult[] = [result];
   let confirmedFigures: StageSimulatedFigures[] | null = null;
+  // A gbw target (it comes with its cap) adds the small-signal response at the design point to the same deck.
+  const ac = spec.gbw !== undefined && spec.cap !== undefined ? { cap: spec.cap, output: spec.output } : undefined;
   return {
     name: result.name,
     // The output is held over the whole supply: the swing ends are wherever the gain falls.
     sweepTop: ctx.supply,
     variants: () => variants.length,
-    circuit: (tag, k) => stageCircuit(variants[k], tag, vin0, ctx.models),
+    circuit: (tag, k) => stageCircuit(variants[k], tag, vin0, ctx.models, ac),
     measure: (data, corner) => stageFigures(data, vin0, spec, corner),
     misses: (f) => stageMisses(spec, f),
     pick: (results) => pickStage(spec, results.map((r, k) => ({ ...r, design: variants[k] }))),
