@@ -16,5 +16,6 @@ export { stageCircuit, type StageAcSetup } from './stage-circuit.js';
 export { stageFigures, unityGainFrequency, STAGE_CURVE_STEP } from './stage-measure.js';
 export { stageMisses } from './stage-check.js';
 export { stageCorrections, pickStage } from './stage-correct.js';
-export { stageKnobs, turnStage, stageArea, type StageKnob } from './stage-knobs.js';
+export { stageKnobs, turnStage, scaleStage, stageArea, type StageKnob } from './stage-knobs.js';
+export { stageShrinkStep } from './stage-tighten.js';
 export type { StageConfirmation, StageSimulated, StageSimulatedFigures, StageSimulatedPoint, CorrectedStage, CorrectedSide } from './stage-types.js';

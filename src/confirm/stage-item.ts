@@ -6,6 +6,7 @@ import { stageMisses } from './stage-check.js';
 import { stageCircuit } from './stage-circuit.js';
 import { pickStage, stageCorrections } from './stage-correct.js';
 import { stageArea } from './stage-knobs.js';
+import { stageShrinkStep } from './stage-tighten.js';
 import { stageFigures } from './stage-measure.js';
 import type { CorrectedSide, StageConfirmation, StageSimulatedFigures } from './stage-types.js';
 
@@ -27,6 +28,7 @@ export function stageItem(result: StageResult, spec: StageSpec, ctx: StageContex
   const vin0 = result.predicted.vin;
   let design = result;
   let variants: StageResult[] = [result];
+  let confirmed: StageResult | null = null;
   let confirmedFigures: StageSimulatedFigures[] | null = null;
   // A gbw target (it comes with its cap) adds the small-signal response at the design point to the same deck.
   const ac = spec.gbw !== undefined && spec.cap !== undefined ? { cap: spec.cap, output: spec.output } : undefined;
@@ -49,18 +51,25 @@ export function stageItem(result: StageResult, spec: StageSpec, ctx: StageContex
       variants = next;
       return true;
     },
-    // Tightening is for stacks; a stage keeps its confirmed design.
-    shrink: () => false,
+    shrink(figures) {
+      const next = stageShrinkStep({ design, spec, kit: ctx.kit, supply: ctx.supply, figures });
+      if (!next) return false;
+      variants = [next];
+      return true;
+    },
     revert() {
+      if (confirmed) design = confirmed;
       variants = [design];
     },
     keep(figures) {
+      confirmed = design;
       confirmedFigures = figures;
     },
-    outcome(last, misses, rounds, ok): StageConfirmation {
+    outcome(last, misses, rounds, ok, tightened): StageConfirmation {
       const figures = ok && confirmedFigures ? confirmedFigures : last;
       const out: StageConfirmation = { name: result.name, simulated: { ...figures[0], corners: figures }, confirmed: ok, rounds, misses };
       if (design !== original) out.corrected = { input: sideOf(design.input), load: sideOf(design.load), area: stageArea(design) };
+      if (tightened) out.tightened = true;
       return out;
     },
   };

@@ -56,7 +56,9 @@ export interface StageConfirmation {
   simulated: StageSimulated;
   confirmed: boolean;
   rounds: number;
-  /** Present when correction changed the design. */
+  /** Present when correction or tightening changed the design. */
   corrected?: CorrectedStage;
   misses: Miss[];
+  /** True when `tighten` shrank a confirmed stage and simulation confirmed the smaller one. */
+  tightened?: boolean;
 }
