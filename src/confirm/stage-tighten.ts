@@ -3,14 +3,12 @@ import type { StageResult } from '../solve/stage-types.js';
 import type { StageStepInput } from './stage-correct.js';
 import { scaleStage } from './stage-knobs.js';
 import type { StageSimulatedFigures } from './stage-types.js';
-import { TIGHTEN_MARGIN } from './tighten.js';
+import { TIGHTEN_MARGIN, deepestShrink } from './tighten.js';
 
 /** Swing left above target after shrinking, V. */
 const SWING_KEEP = 0.008;
 /** Gain (and GBW) kept above target after shrinking (fraction). */
 const RATIO_KEEP = 0.02;
-/** Smallest shrink worth a round (ln of the width factor). */
-const MIN_SHRINK = 0.03;
 
 /** Table figures of a stage at a corner (its bias diodes re-derive the gates, the input DC voltage re-solved); null off the tables. */
 function tableAt(d: StageResult, inp: StageStepInput, corner: string): { gain: number; swing: number; gbw: number | null } | null {
@@ -52,16 +50,6 @@ export function stageShrinkStep(inp: StageStepInput): StageResult | null {
       return swing >= spec.swing + SWING_KEEP && gain >= spec.gain * (1 + RATIO_KEEP) && gbwOk;
     });
   };
-  // Bisect on ln(width factor) between no shrink (ok) and a factor of e^-1.5.
-  let lo = -1.5;
-  let hi = 0;
-  if (ok(lo)) hi = lo;
-  else {
-    for (let k = 0; k < 10; k++) {
-      const mid = 0.5 * (lo + hi);
-      if (ok(mid)) hi = mid;
-      else lo = mid;
-    }
-  }
-  return hi <= -MIN_SHRINK ? scaleStage(inp.design, hi) : null;
+  const x = deepestShrink(ok);
+  return x === null ? null : scaleStage(inp.design, x);
 }
