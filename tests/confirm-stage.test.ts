@@ -20,7 +20,7 @@ import { decidingStages } from '../src/solve/stage-choose.js';
 import { kitAccessFromTables } from '../src/solve/kit-tables.js';
 import { measuredGain, simulateStage, stageNetlist } from '../src/spice/index.js';
 import { designIndex, swingOnGrid } from '../src/stack/index.js';
-import { confirmDesign, withStageCorrection } from '../src/confirm/index.js';
+import { confirmDesign, runBatch, stageCircuit, withStageCorrection } from '../src/confirm/index.js';
 import { TEST_LIB, TEST_MODELS, libLine, ngspiceStatus, testCardTable } from './fixtures/spice/ngspice.js';
 import { cli } from './helpers/cli.js';
 import { stageAcReference } from './helpers/stage-ac.js';
@@ -261,5 +261,28 @@ withNgspice('size --spice for gain stages with the invented BSIM4 test card (ref
     // The held sweep steps 5 mV: the independent swing may read a few mV under the confirm's (which met the target).
     expect(after.swing).toBeGreaterThanOrEqual(loose.swing - 0.005);
     expect(ac.ugf).toBeGreaterThanOrEqual(loose.gbw!);
+  }, 900_000);
+
+  it('the AC parts of a stage circuit (load cap, loop broken by an inductor and capacitor, AC source) leave its held DC sweep as it was', async () => {
+    // At DC an inductor is a short and a capacitor open (common practice): ngspice must give the same operating points.
+    const kit = kitAccessFromTables(tables);
+    const stage = decidingStages(sizeDesign(design([amp]), kit))[0];
+    const deck = (ac: boolean) => ({
+      title: 'AC parts at DC', models: libLine('tt'), supply: SUPPLY, top: SUPPLY, step: 0.005,
+      circuits: [stageCircuit(stage, 's', stage.predicted.vin, TEST_MODELS, ac ? { cap: 1e-12, output: amp.output } : undefined)],
+    });
+    const plain = (await runBatch(deck(false))).get('s')!;
+    const withAc = (await runBatch(deck(true))).get('s')!;
+    expect(withAc.ac?.freq.length).toBeGreaterThan(200);
+    expect(plain.ac).toBeUndefined();
+    let dv = 0;
+    let dx = 0;
+    for (let j = 0; j < plain.sweep.length; j++) {
+      dv = Math.max(dv, Math.abs(plain.columns[0][j] - withAc.columns[0][j]));
+      dx = Math.max(dx, Math.abs(plain.columns[1][j] - withAc.columns[1][j]));
+    }
+    // vout to 1 µV, the input (x = 1000·Δvin) to 1 nV of vin.
+    expect(dv).toBeLessThan(1e-6);
+    expect(dx).toBeLessThan(1e-6);
   }, 900_000);
 });
