@@ -34,7 +34,7 @@ function figures(corner: string, scale: number, swing: boolean): StageSimulatedF
   const p = stage.predicted;
   return {
     corner, gain: p.gain * scale, vin: p.vin + 0.002, vlow: swing ? p.vlow! + 0.01 : null, vhigh: swing ? p.vhigh! - 0.01 : null,
-    swing: swing ? p.swing - 0.02 : 0, curve: stage.curve.map((c) => ({ vout: c.vout, vin: c.vin, gain: c.gain * scale })),
+    swing: swing ? p.swing - 0.02 : 0, gbw: null, curve: stage.curve.map((c) => ({ vout: c.vout, vin: c.vin, gain: c.gain * scale })),
   };
 }
 
@@ -74,5 +74,29 @@ describe('size --spice rendering of gain stages', () => {
     expect(charts).toHaveLength(1);
     expect((charts[0].match(/<path[^>]*class="series/g) ?? []).length).toBeGreaterThanOrEqual(2);
     expect(html).not.toMatch(/NaN|Infinity|undefined/);
+  });
+
+  it('a gbw target: GBW predicted beside simulated at every corner in text and HTML; a missed or unmeasured GBW in words', () => {
+    // A copy of the run with a gbw target on the stage and a table prediction for it (hand-made figures).
+    const withGbw: DesignSpec = { ...spec, stages: spec.stages!.map((s) => (s.name === stage.name ? { ...s, gbw: 20e6, cap: 1e-12 } : s)) };
+    const run = structuredClone(result);
+    const st = decidingStages(run).find((s) => s.name === stage.name)!;
+    st.predicted.gbw = 31.4e6;
+    for (const k of st.corners ?? []) if (k.corner === 'tt') k.predicted.gbw = 31.4e6;
+    const sim = (corner: string, gbw: number | null) => ({ ...figures(corner, 0.9, true), gbw });
+    const miss = { target: 'gbw' as const, required: 20e6, achieved: 12.5e6, at: 0.9, device: null, corner: 'tt' };
+    const c: StageConfirmation = { name: stage.name, simulated: { ...sim('tt', 12.5e6), corners: [sim('tt', 12.5e6), sim('ss', null)] }, confirmed: false, rounds: 1, misses: [miss] };
+    expect(missWords(miss)).toBe('GBW at tt: needs ≥ 20 MHz (unity-gain frequency with the load cap), simulated 12.5 MHz');
+    expect(missWords({ ...miss, achieved: null })).toBe('GBW at tt: needs ≥ 20 MHz (unity-gain frequency with the load cap), simulated no fall to unity gain below 1 THz');
+    const text = renderConfirmText([], run, withGbw, { color: false }, [c]);
+    expect(text).toMatch(/GBW \(unity-gain frequency\) +≥ 20 MHz with 1 pF +31\.4 MHz +12\.5 MHz +— +—/);
+    expect(text).toContain('NOT confirmed in simulation after 1 simulated round: GBW at tt: needs ≥ 20 MHz');
+    expect(text).not.toMatch(/NaN|Infinity|undefined/);
+    const html = htmlReport({ spec: { parsed: withGbw, source }, size: run, generatedBy: 'test', stageConfirmations: [c] });
+    expect(html).toMatch(/GBW \(unity-gain frequency\)<\/t[dh]>/);
+    expect(html).toContain('12.5 MHz');
+    expect(html).not.toMatch(/NaN|Infinity|undefined/);
+    // Without a gbw target there is no GBW row.
+    expect(renderConfirmText([], result, spec, { color: false }, [{ ...c, misses: [] }])).not.toContain('GBW (unity-gain frequency)');
   });
 });

@@ -15,7 +15,20 @@ export interface BatchCircuit {
   tag: string;
   lines: string[];
   vectors: string[];
+  /** Small-signal response wanted after the sweep: sources set before the operating point, complex vectors to save. */
+  ac?: BatchAc;
 }
+
+/** An AC analysis of one circuit: its voltage sources set (`alter`) to these DC values first, then the vectors saved. */
+export interface BatchAc {
+  set: Array<{ source: string; dc: number }>;
+  vectors: string[];
+}
+
+/** AC sweep of a batched deck: log-spaced from AC_FROM to AC_TO, AC_PER_DECADE points a decade, Hz. */
+export const AC_FROM = 1;
+export const AC_TO = 1e12;
+export const AC_PER_DECADE = 20;
 
 export interface BatchDeck {
   title: string;
@@ -32,9 +45,28 @@ export interface BatchDeck {
 export interface BatchColumns {
   sweep: Float64Array;
   columns: Float64Array[];
+  /** With `ac`: frequencies (Hz) and each AC vector's real and imaginary parts. */
+  ac?: { freq: Float64Array; re: Float64Array[]; im: Float64Array[] };
 }
 
 const DATA = 'batch-sweep.dat';
+const AC_DATA = 'batch-ac.dat';
+
+/**
+ * Control lines of the AC analysis after the sweep: the sweep source back at 0 V,
+ * each circuit's sources set for its operating point, `ac` (which solves that
+ * operating point first) and every complex vector written to one file.
+ */
+function acLines(circuits: readonly BatchCircuit[]): string[] {
+  const ac = circuits.flatMap((c) => (c.ac ? [c.ac] : []));
+  if (ac.length === 0) return [];
+  return [
+    `alter ${SWEEP_SOURCE} dc = 0`,
+    ...ac.flatMap((a) => a.set.map((x) => `alter ${x.source} dc = ${formatSpice(x.dc)}`)),
+    `ac dec ${AC_PER_DECADE} ${formatSpice(AC_FROM)} ${formatSpice(AC_TO)}`,
+    `wrdata ${AC_DATA} ${ac.flatMap((a) => a.vectors).join(' ')}`,
+  ];
+}
 
 /** Many independent circuits in one deck, one `.dc` sweep, every vector written to one file. */
 export function batchDeck(d: BatchDeck): string {
@@ -56,6 +88,7 @@ export function batchDeck(d: BatchDeck): string {
     'option numdgt=12',
     'run',
     `wrdata ${DATA} v(${SWEEP_NODE}) ${vectors.join(' ')}`,
+    ...acLines(d.circuits),
     'quit',
     '.endc',
     '.end',
@@ -78,5 +111,27 @@ export async function runBatch(d: BatchDeck, run: RunOptions = {}): Promise<Map<
   for (const c of d.circuits) {
     out.set(c.tag, { sweep, columns: c.vectors.map(() => column(j++)) });
   }
+  if (d.circuits.some((c) => c.ac)) readAc(d, result.files[AC_DATA], out);
   return out;
+}
+
+// The AC file: frequency, then two columns (real, imaginary) per complex vector, circuits in deck order.
+function readAc(d: BatchDeck, text: string | undefined, out: Map<string, BatchColumns>): void {
+  if (text === undefined) throw new StackwrightError('ngspice wrote no AC data', { kind: 'internal', where: 'ngspice' });
+  const table = parseWrdata(text, AC_DATA);
+  const width = 1 + 2 * d.circuits.reduce((a, c) => a + (c.ac?.vectors.length ?? 0), 0);
+  if (table.names.length !== width) throw new StackwrightError(`expected ${width} columns, found ${table.names.length}`, { kind: 'internal', where: AC_DATA });
+  const column = (j: number) => Float64Array.from(table.rows, (r) => r[j]);
+  const freq = column(0);
+  let j = 1;
+  for (const c of d.circuits) {
+    if (!c.ac) continue;
+    const re: Float64Array[] = [];
+    const im: Float64Array[] = [];
+    for (let k = 0; k < c.ac.vectors.length; k++, j += 2) {
+      re.push(column(j));
+      im.push(column(j + 1));
+    }
+    out.get(c.tag)!.ac = { freq, re, im };
+  }
 }

@@ -1,7 +1,7 @@
 export { confirmItems, MAX_ROUNDS, TIGHTEN_ROUNDS, SWEEP_STEP, type ConfirmOptions } from './confirm.js';
 export { confirmStacks, type StackConfirmInput } from './stacks.js';
 export { stackItem, type StackContext } from './stack-item.js';
-export { batchDeck, runBatch, type BatchCircuit, type BatchDeck, type BatchColumns } from './batch.js';
+export { batchDeck, runBatch, AC_FROM, AC_TO, AC_PER_DECADE, type BatchAc, type BatchCircuit, type BatchDeck, type BatchColumns } from './batch.js';
 export { cornerModels, librarySections, type ModelSource } from './sections.js';
 export { stackFigures, CURVE_POINTS } from './measure.js';
 export { stackMisses } from './check.js';
@@ -12,9 +12,10 @@ export type { Confirmation, CorrectedDesign, CorrectedDevice, Miss, MissTarget, 
 export { withCorrection, withStageCorrection } from './apply.js';
 export { confirmDesign, type DesignConfirmInput } from './design.js';
 export { stageItem, type StageContext } from './stage-item.js';
-export { stageCircuit } from './stage-circuit.js';
-export { stageFigures, STAGE_CURVE_STEP } from './stage-measure.js';
+export { stageCircuit, type StageAcSetup } from './stage-circuit.js';
+export { stageFigures, unityGainFrequency, STAGE_CURVE_STEP } from './stage-measure.js';
 export { stageMisses } from './stage-check.js';
 export { stageCorrections, pickStage } from './stage-correct.js';
-export { stageKnobs, turnStage, stageArea, type StageKnob } from './stage-knobs.js';
+export { stageKnobs, turnStage, scaleStage, stageArea, type StageKnob } from './stage-knobs.js';
+export { stageShrinkStep } from './stage-tighten.js';
 export type { StageConfirmation, StageSimulated, StageSimulatedFigures, StageSimulatedPoint, CorrectedStage, CorrectedSide } from './stage-types.js';

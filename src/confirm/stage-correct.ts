@@ -45,7 +45,8 @@ function tableFigure(d: StageResult, inp: StageStepInput, corner: string, target
  * tables see no slope for is probed either way. Simulation picks among them.
  */
 export function stageCorrections(inp: StageStepInput, misses: readonly Miss[]): StageResult[] {
-  const worst = misses.find((m) => m.target === 'gain') ?? misses[0];
+  // A GBW miss alone is reported, not corrected (no step of these knobs is aimed at it).
+  const worst = misses.find((m) => m.target === 'gain') ?? misses.find((m) => m.target === 'swing');
   if (!worst) return [];
   const f = inp.figures.find((x) => x.corner === worst.corner) ?? inp.figures[0];
   const target = worst.target === 'gain' ? 'gain' : 'swing';
@@ -71,8 +72,9 @@ export function stageCorrections(inp: StageStepInput, misses: readonly Miss[]): 
 
 /** Of stage variants simulated side by side: among those meeting every target the smallest, else the nearest. */
 export function pickStage(spec: StageSpec, variants: ReadonlyArray<{ figures: readonly StageSimulatedFigures[]; misses: readonly Miss[]; design: StageResult }>): number {
+  const gbwShort = (f: StageSimulatedFigures) => (spec.gbw === undefined ? 0 : f.gbw !== null && f.gbw > 0 ? Math.max(0, Math.log(spec.gbw / f.gbw)) : 50);
   const short = (v: (typeof variants)[number]) => Math.max(...v.figures.map((f) =>
-    Math.max(0, (spec.swing - f.swing) / spec.swing) + (f.gain > 0 ? Math.max(0, Math.log(spec.gain / f.gain)) : 50)));
+    Math.max(0, (spec.swing - f.swing) / spec.swing) + (f.gain > 0 ? Math.max(0, Math.log(spec.gain / f.gain)) : 50) + gbwShort(f)));
   let best = 0;
   const key = (v: (typeof variants)[number]): [number, number] => (v.misses.length === 0 ? [0, stageArea(v.design)] : [1, short(v)]);
   variants.forEach((v, k) => {

@@ -6,6 +6,7 @@ import { stageMisses } from './stage-check.js';
 import { stageCircuit } from './stage-circuit.js';
 import { pickStage, stageCorrections } from './stage-correct.js';
 import { stageArea } from './stage-knobs.js';
+import { stageShrinkStep } from './stage-tighten.js';
 import { stageFigures } from './stage-measure.js';
 import type { CorrectedSide, StageConfirmation, StageSimulatedFigures } from './stage-types.js';
 
@@ -19,6 +20,7 @@ export interface StageContext {
  * A sized gain stage as a confirm item: both sides diode-biased, the output
  * held on the shared sweep by a loop driving the input (the input DC source of
  * the transfer curve), gain and swing measured as the README defines them,
+ * with a gbw target also the unity-gain frequency from an AC analysis,
  * corrected with table-sloped steps of the cascode setpoints and devices.
  */
 export function stageItem(result: StageResult, spec: StageSpec, ctx: StageContext): ConfirmItem<StageSimulatedFigures, StageConfirmation> {
@@ -26,13 +28,16 @@ export function stageItem(result: StageResult, spec: StageSpec, ctx: StageContex
   const vin0 = result.predicted.vin;
   let design = result;
   let variants: StageResult[] = [result];
+  let confirmed: StageResult | null = null;
   let confirmedFigures: StageSimulatedFigures[] | null = null;
+  // A gbw target (it comes with its cap) adds the small-signal response at the design point to the same deck.
+  const ac = spec.gbw !== undefined && spec.cap !== undefined ? { cap: spec.cap, output: spec.output } : undefined;
   return {
     name: result.name,
     // The output is held over the whole supply: the swing ends are wherever the gain falls.
     sweepTop: ctx.supply,
     variants: () => variants.length,
-    circuit: (tag, k) => stageCircuit(variants[k], tag, vin0, ctx.models),
+    circuit: (tag, k) => stageCircuit(variants[k], tag, vin0, ctx.models, ac),
     measure: (data, corner) => stageFigures(data, vin0, spec, corner),
     misses: (f) => stageMisses(spec, f),
     pick: (results) => pickStage(spec, results.map((r, k) => ({ ...r, design: variants[k] }))),
@@ -46,18 +51,25 @@ export function stageItem(result: StageResult, spec: StageSpec, ctx: StageContex
       variants = next;
       return true;
     },
-    // Tightening is for stacks; a stage keeps its confirmed design.
-    shrink: () => false,
+    shrink(figures) {
+      const next = stageShrinkStep({ design, spec, kit: ctx.kit, supply: ctx.supply, figures });
+      if (!next) return false;
+      variants = [next];
+      return true;
+    },
     revert() {
+      if (confirmed) design = confirmed;
       variants = [design];
     },
     keep(figures) {
+      confirmed = design;
       confirmedFigures = figures;
     },
-    outcome(last, misses, rounds, ok): StageConfirmation {
+    outcome(last, misses, rounds, ok, tightened): StageConfirmation {
       const figures = ok && confirmedFigures ? confirmedFigures : last;
       const out: StageConfirmation = { name: result.name, simulated: { ...figures[0], corners: figures }, confirmed: ok, rounds, misses };
       if (design !== original) out.corrected = { input: sideOf(design.input), load: sideOf(design.load), area: stageArea(design) };
+      if (tightened) out.tightened = true;
       return out;
     },
   };

@@ -62,3 +62,11 @@ export function turnStage(stage: StageResult, knob: StageKnob, x: number): Stage
 export function stageArea(stage: StageResult): number {
   return [...stage.input.devices, ...stage.load.devices].reduce((a, d) => a + d.w * d.l, 0);
 }
+
+/** Every width of the stage, output devices and bias diodes of both sides, times e^x: same currents, less area. */
+export function scaleStage(stage: StageResult, x: number): StageResult {
+  if (x === 0) return stage;
+  const f = Math.exp(x);
+  const side = (s: StageSide): StageSide => ({ ...s, devices: s.devices.map((d) => ({ ...d, w: d.w * f })), bias: s.bias.map((b) => ({ ...b, w: b.w * f })) });
+  return { ...stage, input: side(stage.input), load: side(stage.load) };
+}

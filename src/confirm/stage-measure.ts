@@ -16,11 +16,35 @@ function lerp(xs: ArrayLike<number>, ys: ArrayLike<number>, x: number): number {
 }
 
 /**
+ * Unity-gain frequency of |H| = |v(out)/v(inp)| from an AC analysis: the first
+ * fall through 1, interpolated linearly in log |H| against log f (exact on a
+ * single-pole slope); 0 when |H| < 1 from the first frequency, null when it
+ * never falls to 1 in the band.
+ */
+export function unityGainFrequency(ac: NonNullable<BatchColumns['ac']>): number | null {
+  const mag = (k: number) => Math.hypot(ac.re[0][k], ac.im[0][k]) / Math.hypot(ac.re[1][k], ac.im[1][k]);
+  const n = ac.freq.length;
+  if (n === 0) return null;
+  let prev = mag(0);
+  if (!(prev >= 1)) return 0;
+  for (let k = 1; k < n; k++) {
+    const m = mag(k);
+    if (m < 1) {
+      const t = Math.log(prev) / (Math.log(prev) - Math.log(m));
+      return Math.exp(Math.log(ac.freq[k - 1]) + t * (Math.log(ac.freq[k]) - Math.log(ac.freq[k - 1])));
+    }
+    prev = m;
+  }
+  return null;
+}
+
+/**
  * A stage's simulated figures from its held sweep: the points where the loop
  * holds the output (vout ascending), the gain |dvout/dvin| by central
  * differences, the gain at the design-point output, and the swing by the
  * README's definition (widest interval around the design point with gain ≥
- * target). Null when the stage cannot hold its design point at all.
+ * target). Null when the stage cannot hold its design point at all. With an
+ * AC analysis (gbw target) also the unity-gain frequency at the design point.
  */
 export function stageFigures(data: BatchColumns, vin0: number, t: { gain: number; output: number }, corner: string): StageSimulatedFigures {
   const vout: number[] = [];
@@ -34,8 +58,9 @@ export function stageFigures(data: BatchColumns, vin0: number, t: { gain: number
     }
   }
   const n = vout.length;
+  const gbw = data.ac ? unityGainFrequency(data.ac) : null;
   if (n < 3 || t.output < vout[0] || t.output > vout[n - 1]) {
-    return { corner, gain: 0, vlow: null, vhigh: null, swing: 0, vin: vin0, curve: [] };
+    return { corner, gain: 0, vlow: null, vhigh: null, swing: 0, vin: vin0, gbw, curve: [] };
   }
   const gains = new Float64Array(n);
   for (let j = 1; j < n - 1; j++) {
@@ -57,6 +82,7 @@ export function stageFigures(data: BatchColumns, vin0: number, t: { gain: number
     vhigh: s ? s.vhigh : null,
     swing: s ? s.vhigh - s.vlow : 0,
     vin: lerp(vout, vin, t.output),
+    gbw,
     curve,
   };
 }

@@ -21,6 +21,12 @@ export interface StageSimulatedFigures {
   swing: number;
   /** Input DC voltage at the design point, V. */
   vin: number;
+  /**
+   * Unity-gain frequency of the open-loop gain |vout/vin| at the design point with the load capacitance on the
+   * output (AC analysis), Hz; 0 when the gain is below 1 from the lowest frequency simulated; null when the stage
+   * has no gbw target, or its gain does not fall to 1 within the simulated band (AC_FROM … AC_TO).
+   */
+  gbw: number | null;
   /** The simulated transfer curve, every 20 mV of output over the range the stage can hold. */
   curve: StageSimulatedPoint[];
 }
@@ -50,7 +56,9 @@ export interface StageConfirmation {
   simulated: StageSimulated;
   confirmed: boolean;
   rounds: number;
-  /** Present when correction changed the design. */
+  /** Present when correction or tightening changed the design. */
   corrected?: CorrectedStage;
   misses: Miss[];
+  /** True when `tighten` shrank a confirmed stage and simulation confirmed the smaller one. */
+  tightened?: boolean;
 }

@@ -47,7 +47,15 @@ export function shrinkStep(inp: StepInput): StackResult | null {
       return h <= spec.headroom - KEEP && (!Number.isFinite(r) || r >= spec.rout * (1 + ROUT_KEEP));
     });
   };
-  // Bisect on ln(width factor) between no shrink (ok) and a factor of e^-1.5.
+  const x = deepestShrink(ok);
+  return x === null ? null : shrunk(x);
+}
+
+/**
+ * The deepest shrink `ok` allows, as ln of the width factor: bisected between
+ * no shrink and a factor of e^-1.5; null when it is less than MIN_SHRINK.
+ */
+export function deepestShrink(ok: (x: number) => boolean): number | null {
   let lo = -1.5;
   let hi = 0;
   if (ok(lo)) hi = lo;
@@ -58,5 +66,5 @@ export function shrinkStep(inp: StepInput): StackResult | null {
       else lo = mid;
     }
   }
-  return hi <= -MIN_SHRINK ? shrunk(hi) : null;
+  return hi <= -MIN_SHRINK ? hi : null;
 }

@@ -28,8 +28,8 @@ export interface Simulated extends SimulatedFigures {
   corners: SimulatedFigures[];
 }
 
-/** Stacks miss iout, rout or headroom; gain stages miss gain (at the design point) or swing. */
-export type MissTarget = 'iout' | 'rout' | 'headroom' | 'gain' | 'swing';
+/** Stacks miss iout, rout or headroom; gain stages miss gain (at the design point), swing or gbw. */
+export type MissTarget = 'iout' | 'rout' | 'headroom' | 'gain' | 'swing' | 'gbw';
 
 /**
  * A target simulation does not meet, shaped like the solver's verdict objects:
@@ -40,7 +40,7 @@ export interface Miss {
   target: MissTarget;
   /** The spec's value (SI). */
   required: number;
-  /** What simulation shows (SI); null for a headroom never reached. */
+  /** What simulation shows (SI); null for a headroom never reached, or a GBW whose gain never falls to 1 in the AC band. */
   achieved: number | null;
   /** Stack voltage where it was measured, V: mid-span for the current, the lowest Rout's place for Rout. */
   at: number | null;

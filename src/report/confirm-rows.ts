@@ -7,6 +7,7 @@ import type { Grid } from './rows.js';
 /** One miss in words: "headroom at ss: needs ≤ 450 mV, simulated 470 mV". */
 export function missWords(m: Miss): string {
   if (m.target === 'gain') return `gain at ${m.corner}: needs ≥ ${num(m.required)} at ${eng(m.at ?? NaN, 'V')}, simulated ${m.achieved === null ? 'none' : num(m.achieved)}`;
+  if (m.target === 'gbw') return `GBW at ${m.corner}: needs ≥ ${eng(m.required, 'Hz')} (unity-gain frequency with the load cap), simulated ${m.achieved === null ? 'no fall to unity gain below 1 THz' : eng(m.achieved, 'Hz')}`;
   if (m.target === 'swing') return `swing at ${m.corner}: needs ≥ ${eng(m.required, 'V')} with the gain target held, simulated ${m.achieved === null ? 'none' : eng(m.achieved, 'V')}`;
   const unit = m.target === 'iout' ? 'A' : m.target === 'rout' ? 'Ω' : 'V';
   const need = m.target === 'iout' ? `${eng(m.required, unit)} ± 1 %` : `${m.target === 'rout' ? '≥' : '≤'} ${eng(m.required, unit)}`;

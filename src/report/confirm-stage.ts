@@ -11,7 +11,7 @@ const volts = (x: number | null) => (x === null ? '—' : eng(x, 'V'));
 export function stageConfirmGrid(c: StageConfirmation, stage: StageResult | undefined, spec: StageSpec | undefined): Grid {
   const corners = c.simulated.corners;
   const predictedAt = (corner: string) => stage?.corners?.find((x) => x.corner === corner)?.predicted ?? (corner === corners[0].corner ? stage?.predicted : undefined);
-  type Figures = { gain: number; vlow: number | null; vhigh: number | null; swing: number; vin: number };
+  type Figures = { gain: number; vlow: number | null; vhigh: number | null; swing: number; vin: number; gbw: number | null };
   const row = (label: string, target: string, pick: (x: Figures) => string) => [
     label, target, ...corners.flatMap((f) => {
       const p = predictedAt(f.corner);
@@ -26,6 +26,8 @@ export function stageConfirmGrid(c: StageConfirmation, stage: StageResult | unde
       row('vlow', '', (x) => volts(x.vlow)),
       row('vhigh', '', (x) => volts(x.vhigh)),
       row('input DC voltage', '', (x) => eng(x.vin, 'V')),
+      // Predicted: gm_in / (2π (cap + C_out)) from the tables; simulated: the unity-gain frequency of |vout/vin| (AC).
+      ...(spec?.gbw !== undefined ? [row('GBW (unity-gain frequency)', `≥ ${eng(spec.gbw, 'Hz')} with ${eng(spec.cap ?? 0, 'F')}`, (x) => (x.gbw === null ? '—' : eng(x.gbw, 'Hz')))] : []),
     ],
   };
 }

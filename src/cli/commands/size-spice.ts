@@ -32,7 +32,7 @@ export function spiceOptions(cmd: Command): Command {
     .option('--model-n <name>', 'with --spice: n-type model name', 'nmos_model')
     .option('--model-p <name>', 'with --spice: p-type model name', 'pmos_model')
     .option('--section <corner=section>', 'with --spice: library section of a corner (repeatable; default the corner name)', collectSection)
-    .option('--tighten', 'with --spice: shrink designs that show headroom to spare in simulation, and confirm again');
+    .option('--tighten', 'with --spice: shrink designs that show headroom (stacks) or swing (stages) to spare in simulation, and confirm again');
 }
 
 /** Check the flags before any work; throws for --include etc. without --spice. */
@@ -78,7 +78,7 @@ export async function confirmRun(spec: DesignSpec, result: SizeResult, kit: KitA
   const stages = decidingStages(result);
   for (const c of confirmations.stages) {
     const s = stages.find((r) => r.name === c.name);
-    if (s) Object.assign(s, { simulated: c.simulated, confirmed: c.confirmed, rounds: c.rounds, misses: c.misses }, c.corrected ? { corrected: c.corrected } : {});
+    if (s) Object.assign(s, { simulated: c.simulated, confirmed: c.confirmed, rounds: c.rounds, misses: c.misses }, c.corrected ? { corrected: c.corrected } : {}, c.tightened ? { tightened: true } : {});
   }
   return confirmations;
 }
