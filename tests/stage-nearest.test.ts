@@ -33,6 +33,11 @@ const cases: StageCase[] = [
     stage: stageOf({ gain: 100, swing: 0.95, output: 0.6, input: 'p', inputTopology: 'single', load: 'cascode', l: [0.3e-6, 0.4e-6], gmid: [8, 22] }),
     why: 'the other kit, p-type input, a cascode load',
   },
+  {
+    id: 'n common-source input, p common-source load, GBW 50 MHz into 1 pF', kit: 'demo180', grid: { gmidPoints: 9, vStep: 0.05 },
+    stage: { ...stageOf({ gain: 60, swing: 1.2, output: 0.9, input: 'n', inputTopology: 'single', load: 'single', l: [0.35e-6, 1.4e-6], gmid: [6, 24] }), gbw: 50e6, cap: 1e-12 },
+    why: 'gain and swing are met, the GBW binds: its nearest point is the highest GBW among the designs meeting both',
+  },
 ];
 
 describe('infeasible gain stage: nearest points against an exhaustive reference (tt)', () => {
@@ -52,7 +57,12 @@ describe('infeasible gain stage: nearest points against an exhaustive reference 
         expect(tool.binding!.achieved!).toBeLessThan(stage.gain);
         expect(near.swingAtGain).toBe(0);
       } else {
-        expect(tool.binding!.at).toBeNull();
+        if (ref.gbwMeeting > 0) {
+          // GBW binds when some design meets gain and swing (the reference's highest GBW among them is below target).
+          expect(tool.binding).toMatchObject({ target: 'gbw', best: true });
+          expect(tool.binding!.achieved!).toBeGreaterThanOrEqual(0.95 * ref.gbwMeeting);
+          expect(tool.binding!.achieved!).toBeLessThanOrEqual(1.1 * ref.gbwMeeting);
+        } else expect(tool.binding!.at).toBeNull();
         expect(near.swingAtGain).toBeGreaterThanOrEqual(ref.swing - 0.01);
         // An upper sanity bound: off the grid the climbs may do a little better, not much.
         expect(near.swingAtGain).toBeLessThanOrEqual(ref.swing + 0.03);

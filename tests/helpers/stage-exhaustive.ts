@@ -230,6 +230,11 @@ export interface StageNearestAnswer {
   swing: number;
   /** Highest gain at the design point among the pairs meeting the targets (swing at the gain target ≥ the swing target); 0 when none does. */
   gainMeeting: number;
+  /**
+   * With a gbw target: the highest GBW among the pairs meeting gain and swing, by the README's definition
+   * gm_in / (2π (cap + C_out)), C_out the tables' cdd of the two output devices at the design point; 0 when none.
+   */
+  gbwMeeting: number;
   pairs: number;
   traced: number;
   /** The pair holding `held`. */
@@ -300,6 +305,7 @@ export function stageNearestExhaustive(stage: StageSpec, kit: KitAccess, supply:
   let traced = 0;
   let heldBy: StageNearestAnswer['heldBy'];
   let gainMeeting = 0;
+  let gbwMeeting = 0;
   for (const k of order) {
     const needSwing = est[k] >= 0.98 * stage.gain;
     if (!needSwing && est[k] < held / 1.02) break;
@@ -319,9 +325,17 @@ export function stageNearestExhaustive(stage: StageSpec, kit: KitAccess, supply:
       heldBy = { input: pick(inputs[Math.floor(k / nl)]), load: pick(loads[k % nl]) };
     }
     swing = Math.max(swing, t.swing);
-    if (t.swing >= stage.swing - 1e-9) gainMeeting = Math.max(gainMeeting, t.gains[t.j0]);
+    if (t.swing >= stage.swing - 1e-9) {
+      gainMeeting = Math.max(gainMeeting, t.gains[t.j0]);
+      const p = t.points[t.j0];
+      if (stage.gbw !== undefined && p) {
+        const top = (devices: readonly StackDevice[], b: { vgs: number; vds: number; vsb: number }) => devices[devices.length - 1].slice.op(b.vgs, b.vds, b.vsb, devices[devices.length - 1].w).cdd;
+        const cout = top(c.input.devices, p.input.devices[p.input.devices.length - 1]) + top(c.load.devices, p.load.devices[p.load.devices.length - 1]);
+        gbwMeeting = Math.max(gbwMeeting, p.gm / (2 * Math.PI * ((stage.cap ?? 0) + (cout > 0 ? cout : 0))));
+      }
+    }
   }
-  return { peak, held, swing, gainMeeting, pairs: est.length, traced, heldBy };
+  return { peak, held, swing, gainMeeting, gbwMeeting, pairs: est.length, traced, heldBy };
 }
 
 /** Min-heap of pairs (i, j) by a[i] + b[j] (both ascending): starts with (i, 0) for every i; popping (i, j) adds (i, j + 1). */
