@@ -17,7 +17,7 @@ const SECANT_STEP = 0.01;
 const EDGE_GAP = 1e-4;
 /** Designs the climbs start from, per load topology (two pass the exhaustive-reference tests; each more costs a climb). */
 const SEEDS = 2;
-/** The nearest points' climbs start at this multiple of the screen's steps and halve them down to half of it. */
+/** The nearest points' climbs start at this multiple of the screen's steps and halve them NEAREST_LEVELS − 1 times (4, 2, 1, 0.5). */
 const NEAREST_SCALE = 4;
 const NEAREST_LEVELS = 4;
 /** Climb rounds at most; each round tries the moves of both sides once. */
@@ -293,8 +293,9 @@ function higher(sides: StageSides, key: (d: StageDesign) => number, tie: (d: Sta
 /**
  * The nearest points of a stage nothing met the targets with, over the whole allowed design space rather than the
  * designs the search happened to trace: for each question (peak gain at the design point; gain held over the swing
- * target; swing at the gain target; with a gbw target, the highest GBW meeting gain and swing) a climb by that figure from the two best traced designs, at the screen's step
- * and then half of it, each with the moves of the refinement (single, pair and both-sides moves).
+ * target; swing at the gain target; with a gbw target, the highest GBW meeting gain and swing) a climb by that
+ * figure from the two best traced designs, with one side's single and pair moves (the both-sides moves are for the
+ * refinement's area climb), the steps from NEAREST_SCALE times the screen's halved down to half of the screen's.
  */
 function nearestStage(sides: StageSides, pool: StageDesign[], memos: { input: SideMemo; load: SideMemo }, search: Climber): { nearest?: StageNearest; evaluated: number } {
   const { stage } = sides;
