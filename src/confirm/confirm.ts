@@ -26,7 +26,8 @@ export interface ConfirmOptions extends ModelSource {
   title?: string;
 }
 
-interface State<F extends { corner: string }, C> {
+/** Where one design stands in the confirm loop. */
+export interface State<F extends { corner: string }, C> {
   item: ConfirmItem<F, C>;
   tag: string;
   rounds: number;
@@ -72,7 +73,12 @@ export async function confirmItems<F extends { corner: string }, C = Confirmatio
 
 const variantTag = (tag: string, k: number) => `${tag}v${k}`;
 
-function advance<F extends { corner: string }, C>(s: State<F, C>, figures: F[], misses: Miss[]): void {
+/**
+ * One round's verdict on a design: confirmed (then, with rounds of `tighten` left, a shrink proposed), corrected, or
+ * done; in a tighten round a smaller design that missed is reverted to the last confirmed one and its figures.
+ * Exported for tests of this state machine.
+ */
+export function advance<F extends { corner: string }, C>(s: State<F, C>, figures: F[], misses: Miss[]): void {
   if (s.phase === 'tighten') {
     if (misses.length === 0) {
       s.tightened = true;
