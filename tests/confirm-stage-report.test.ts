@@ -34,7 +34,7 @@ function figures(corner: string, scale: number, swing: boolean): StageSimulatedF
   const p = stage.predicted;
   return {
     corner, gain: p.gain * scale, vin: p.vin + 0.002, vlow: swing ? p.vlow! + 0.01 : null, vhigh: swing ? p.vhigh! - 0.01 : null,
-    swing: swing ? p.swing - 0.02 : 0, gbw: null, curve: stage.curve.map((c) => ({ vout: c.vout, vin: c.vin, gain: c.gain * scale })),
+    swing: swing ? p.swing - 0.02 : 0, gbw: null, response: [], curve: stage.curve.map((c) => ({ vout: c.vout, vin: c.vin, gain: c.gain * scale })),
   };
 }
 
@@ -98,5 +98,30 @@ describe('size --spice rendering of gain stages', () => {
     expect(html).not.toMatch(/NaN|Infinity|undefined/);
     // Without a gbw target there is no GBW row.
     expect(renderConfirmText([], result, spec, { color: false }, [{ ...c, misses: [] }])).not.toContain('GBW (unity-gain frequency)');
+    // No response in the confirmation, no frequency chart.
+    expect(html).not.toContain('Open-loop gain against frequency');
+  });
+
+  it('a gbw target with a simulated response: the HTML draws it over the single-pole response the tables predict', () => {
+    const withGbw: DesignSpec = { ...spec, stages: spec.stages!.map((s) => (s.name === stage.name ? { ...s, gbw: 20e6, cap: 1e-12 } : s)) };
+    const run = structuredClone(result);
+    const st = decidingStages(run).find((s) => s.name === stage.name)!;
+    st.predicted.gbw = 31.4e6;
+    // A hand-made single-pole response: A0 = 2000, unity gain near 12.5 MHz, 20 points a decade from 1 Hz to 1 THz.
+    const response = Array.from({ length: 241 }, (_, k) => {
+      const f = 10 ** (k / 20);
+      return { f, gain: 2000 / Math.sqrt(1 + (f / 6250) ** 2) };
+    });
+    const sim = { ...figures('tt', 0.9, true), gbw: 12.5e6, response };
+    const c: StageConfirmation = { name: stage.name, simulated: { ...sim, corners: [sim] }, confirmed: false, rounds: 1, misses: [] };
+    const html = htmlReport({ spec: { parsed: withGbw, source }, size: run, generatedBy: 'test', stageConfirmations: [c] });
+    const charts = (html.match(/<svg[\s\S]*?<\/svg>/g) ?? []).filter((svg) => svg.includes('Open-loop gain against frequency'));
+    expect(charts).toHaveLength(1);
+    // The predicted single-pole curve and the simulated one, the GBW target and the simulated GBW marked.
+    expect((charts[0].match(/<path[^>]*class="series/g) ?? []).length).toBe(2);
+    expect(charts[0]).toContain('GBW target 20 MHz');
+    expect(charts[0]).toContain('simulated GBW 12.5 MHz');
+    expect(charts[0]).toContain('with 1 pF on the output');
+    expect(html).not.toMatch(/NaN|Infinity|undefined/);
   });
 });

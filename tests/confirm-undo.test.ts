@@ -22,7 +22,7 @@ beforeAll(() => {
 });
 
 const figures = (swing: number, gain: number): StageSimulatedFigures[] => [
-  { corner: 'tt', gain, vlow: 0.9 - swing / 2, vhigh: 0.9 + swing / 2, swing, vin: 0.5, gbw: null, curve: [] },
+  { corner: 'tt', gain, vlow: 0.9 - swing / 2, vhigh: 0.9 + swing / 2, swing, vin: 0.5, gbw: null, curve: [], response: [] },
 ];
 
 describe('confirm loop: a tightened stage that misses is undone', () => {

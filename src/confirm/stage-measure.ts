@@ -1,7 +1,7 @@
 import { designIndex, swingOnGrid } from '../stack/index.js';
 import type { BatchColumns } from './batch.js';
 import { LOOP_RANGE, LOOP_SCALE } from './stage-circuit.js';
-import type { StageSimulatedFigures, StageSimulatedPoint } from './stage-types.js';
+import type { StageResponsePoint, StageSimulatedFigures, StageSimulatedPoint } from './stage-types.js';
 
 /** Output step of the reported simulated curve, V. */
 export const STAGE_CURVE_STEP = 0.02;
@@ -22,7 +22,7 @@ function lerp(xs: ArrayLike<number>, ys: ArrayLike<number>, x: number): number {
  * never falls to 1 in the band.
  */
 export function unityGainFrequency(ac: NonNullable<BatchColumns['ac']>): number | null {
-  const mag = (k: number) => Math.hypot(ac.re[0][k], ac.im[0][k]) / Math.hypot(ac.re[1][k], ac.im[1][k]);
+  const mag = (k: number) => acGain(ac, k);
   const n = ac.freq.length;
   if (n === 0) return null;
   let prev = mag(0);
@@ -36,6 +36,22 @@ export function unityGainFrequency(ac: NonNullable<BatchColumns['ac']>): number 
     prev = m;
   }
   return null;
+}
+
+/** |v(out)/v(inp)| at the AC analysis' k-th frequency (vectors: output, then input). */
+function acGain(ac: NonNullable<BatchColumns['ac']>, k: number): number {
+  return Math.hypot(ac.re[0][k], ac.im[0][k]) / Math.hypot(ac.re[1][k], ac.im[1][k]);
+}
+
+/** The AC analysis as reported points (finite ones only); empty without one. */
+function responseOf(ac: BatchColumns['ac']): StageResponsePoint[] {
+  const out: StageResponsePoint[] = [];
+  if (!ac) return out;
+  for (let k = 0; k < ac.freq.length; k++) {
+    const gain = acGain(ac, k);
+    if (Number.isFinite(gain) && Number.isFinite(ac.freq[k])) out.push({ f: ac.freq[k], gain });
+  }
+  return out;
 }
 
 /**
@@ -59,8 +75,9 @@ export function stageFigures(data: BatchColumns, vin0: number, t: { gain: number
   }
   const n = vout.length;
   const gbw = data.ac ? unityGainFrequency(data.ac) : null;
+  const response = responseOf(data.ac);
   if (n < 3 || t.output < vout[0] || t.output > vout[n - 1]) {
-    return { corner, gain: 0, vlow: null, vhigh: null, swing: 0, vin: vin0, gbw, curve: [] };
+    return { corner, gain: 0, vlow: null, vhigh: null, swing: 0, vin: vin0, gbw, curve: [], response };
   }
   const gains = new Float64Array(n);
   for (let j = 1; j < n - 1; j++) {
@@ -84,5 +101,6 @@ export function stageFigures(data: BatchColumns, vin0: number, t: { gain: number
     vin: lerp(vout, vin, t.output),
     gbw,
     curve,
+    response,
   };
 }

@@ -29,6 +29,19 @@ export interface StageSimulatedFigures {
   gbw: number | null;
   /** The simulated transfer curve, every 20 mV of output over the range the stage can hold. */
   curve: StageSimulatedPoint[];
+  /**
+   * With a gbw target: the open-loop gain |vout/vin| against frequency at the design point with the load capacitance
+   * on the output, as the AC analysis gives it (20 points a decade); empty without one.
+   */
+  response: StageResponsePoint[];
+}
+
+/** One frequency of a stage's simulated small-signal response. */
+export interface StageResponsePoint {
+  /** Frequency, Hz. */
+  f: number;
+  /** |v(out)/v(inp)| there. */
+  gain: number;
 }
 
 /** Nominal corner's figures on top, every corner's below (nominal first). */

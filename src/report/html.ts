@@ -12,7 +12,7 @@ import { stageSection, stageSpecGrid, stageSummaryGrid } from './stage-html.js';
 import { confirmGrid, confirmVerdict, correctedGrid } from './confirm-rows.js';
 import { confirmRoutChart } from './confirm-charts.js';
 import { stageConfirmGrid, stageCorrectedGrid } from './confirm-stage.js';
-import { stageConfirmChart } from './confirm-charts.js';
+import { stageConfirmChart, stageResponseChart } from './confirm-charts.js';
 import type { StageResult } from '../solve/stage-types.js';
 
 export function htmlTable(grid: Grid, caption?: string): string {
@@ -91,7 +91,7 @@ function stagesHtml(input: HtmlReportInput): string {
   return `<section id="stages"><h2>Gain stages</h2>${htmlTable(stageSummaryGrid(stages, specs))}${htmlTable(stageSpecGrid([...specs.values()]), 'stage targets')}</section>\n${sections.join('\n')}`;
 }
 
-/** With `size --spice`, per stage: predicted beside simulated, the corrected widths and the simulated gain curve over the predicted. */
+/** With `size --spice`, per stage: predicted beside simulated, the corrected widths, the simulated gain curve over the predicted and (gbw target) the simulated frequency response. */
 function stageSimulationBlock(s: StageResult, input: HtmlReportInput, spec?: StageSpec): string {
   const c = s.chosen === false ? undefined : input.stageConfirmations?.find((x) => x.name === s.name);
   if (!c) return '';
@@ -99,7 +99,7 @@ function stageSimulationBlock(s: StageResult, input: HtmlReportInput, spec?: Sta
   return [
     `<section class="stage-simulation"><h3>${esc(s.name)}: confirmed in simulation?</h3><p class="verdict${c.confirmed ? '' : ' bad'}">${esc(confirmVerdict(c))}</p>`,
     `<div class="tables">${htmlTable(stageConfirmGrid(c, s, spec), 'predicted (lookup tables) and simulated (ngspice)')}${corrected ? htmlTable(corrected, 'corrected devices') : ''}</div>`,
-    `<div class="charts">${figure(stageConfirmChart(c, s, spec))}</div></section>`,
+    `<div class="charts">${figure(stageConfirmChart(c, s, spec))}${c.simulated.response.length > 0 ? figure(stageResponseChart(c, s, spec)) : ''}</div></section>`,
   ].join('\n');
 }
 

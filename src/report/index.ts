@@ -25,4 +25,4 @@ export { renderConfirmText } from './confirm-text.js';
 export { confirmVerdict, confirmGrid, correctedGrid, missWords } from './confirm-rows.js';
 export type { Confirmation } from '../confirm/types.js';
 export { stageConfirmGrid, stageCorrectedGrid } from './confirm-stage.js';
-export { stageConfirmChart } from './confirm-charts.js';
+export { stageConfirmChart, stageResponseChart } from './confirm-charts.js';
