@@ -28,29 +28,43 @@ const BLIND = [-0.3, -0.15, 0.15, 0.3];
 
 const clamp = (x: number, lo: number, hi: number) => Math.max(lo, Math.min(hi, x));
 
-/** What the tables predict for a stage at a corner (its bias diodes re-derive the gates): the figure a miss is about. */
-function tableFigure(d: StageResult, inp: StageStepInput, corner: string, target: Miss['target']): number | null {
+/** The targets a correction is aimed at, most basic first: a stage must hold its gain before its swing, and both before its GBW. */
+type Aim = 'gain' | 'swing' | 'gbw';
+
+/** What the tables predict for a stage at a corner (its bias diodes re-derive the gates): the figure a miss is about (gain and GBW as logs). */
+function tableFigure(d: StageResult, inp: StageStepInput, corner: string, target: Aim): number | null {
   const at = stageAsIs(d, inp.spec, inp.kit, corner, inp.supply);
   if ('error' in at) return null;
-  const v = target === 'gain' ? Math.log(Math.max(at.predicted.gain, 1e-9)) : at.predicted.swing;
+  const p = at.predicted;
+  const v = target === 'gain' ? Math.log(Math.max(p.gain, 1e-9)) : target === 'gbw' ? (p.gbw !== null && p.gbw > 0 ? Math.log(p.gbw) : NaN) : p.swing;
   return Number.isFinite(v) ? v : null;
 }
 
+/** The residual a correction aims to close at one corner's figures, aimed a little beyond the target (null: not measurable). */
+function residualOf(spec: StageSpec, f: StageSimulatedFigures, target: Aim): number | null {
+  if (target === 'gain') return Math.log((spec.gain * GAIN_AIM) / Math.max(f.gain, 1e-9));
+  if (target === 'swing') return spec.swing + SWING_AIM - f.swing;
+  // A GBW not measured (the gain never falls to 1 in the band) gives no residual to step on.
+  return spec.gbw !== undefined && f.gbw !== null && f.gbw > 0 ? Math.log((spec.gbw * GAIN_AIM) / f.gbw) : null;
+}
+
 /**
- * Corrections of a stage that simulation showed missing its gain or swing:
+ * Corrections of a stage that simulation showed missing its gain, swing or
+ * GBW (aimed at the most basic target missed: gain, then swing, then GBW):
  * for every knob, a Newton step whose residual comes from simulation (the
  * worst corner's shortfall, aimed a little beyond the target) and whose slope
  * comes from the tables (the same design re-evaluated in them with the knob
  * turned), with probes at half and one and a half times the step; a knob the
- * tables see no slope for is probed either way. Simulation picks among them.
+ * tables see no slope for is probed either way. Simulation picks among them
+ * (pickStage: every target met, the smallest; else the nearest).
  */
 export function stageCorrections(inp: StageStepInput, misses: readonly Miss[]): StageResult[] {
-  // A GBW miss alone is reported, not corrected (no step of these knobs is aimed at it).
-  const worst = misses.find((m) => m.target === 'gain') ?? misses.find((m) => m.target === 'swing');
+  const worst = misses.find((m) => m.target === 'gain') ?? misses.find((m) => m.target === 'swing') ?? misses.find((m) => m.target === 'gbw');
   if (!worst) return [];
   const f = inp.figures.find((x) => x.corner === worst.corner) ?? inp.figures[0];
-  const target = worst.target === 'gain' ? 'gain' : 'swing';
-  const residual = target === 'gain' ? Math.log((inp.spec.gain * GAIN_AIM) / Math.max(f.gain, 1e-9)) : inp.spec.swing + SWING_AIM - f.swing;
+  const target: Aim = worst.target === 'gain' ? 'gain' : worst.target === 'swing' ? 'swing' : 'gbw';
+  const residual = residualOf(inp.spec, f, target);
+  if (residual === null) return [];
   const base = tableFigure(inp.design, inp, f.corner, target);
   const out: StageResult[] = [];
   const newton: Array<[StageKnob, number]> = [];
@@ -70,13 +84,17 @@ export function stageCorrections(inp: StageStepInput, misses: readonly Miss[]): 
   return out;
 }
 
-/** Of stage variants simulated side by side: among those meeting every target the smallest, else the nearest. */
+/**
+ * Of stage variants simulated side by side: among those meeting every target the smallest; else among those holding
+ * gain and swing (missing only GBW) the nearest, else the nearest (a GBW correction never trades away gain or swing).
+ */
 export function pickStage(spec: StageSpec, variants: ReadonlyArray<{ figures: readonly StageSimulatedFigures[]; misses: readonly Miss[]; design: StageResult }>): number {
   const gbwShort = (f: StageSimulatedFigures) => (spec.gbw === undefined ? 0 : f.gbw !== null && f.gbw > 0 ? Math.max(0, Math.log(spec.gbw / f.gbw)) : 50);
   const short = (v: (typeof variants)[number]) => Math.max(...v.figures.map((f) =>
     Math.max(0, (spec.swing - f.swing) / spec.swing) + (f.gain > 0 ? Math.max(0, Math.log(spec.gain / f.gain)) : 50) + gbwShort(f)));
   let best = 0;
-  const key = (v: (typeof variants)[number]): [number, number] => (v.misses.length === 0 ? [0, stageArea(v.design)] : [1, short(v)]);
+  const basic = (v: (typeof variants)[number]) => v.misses.some((m) => m.target === 'gain' || m.target === 'swing');
+  const key = (v: (typeof variants)[number]): [number, number] => (v.misses.length === 0 ? [0, stageArea(v.design)] : [basic(v) ? 2 : 1, short(v)]);
   variants.forEach((v, k) => {
     const a = key(v);
     const b = key(variants[best]);
