@@ -1,6 +1,6 @@
 import type { StageSpec } from '../design/types.js';
 import type { KitAccess } from '../solve/kit.js';
-import type { StageResult } from '../solve/stage-types.js';
+import type { StagePredicted, StageResult } from '../solve/stage-types.js';
 import { stageAsIs } from '../solve/stage-port.js';
 import { stageArea, stageKnobs, turnStage, type StageKnob } from './stage-knobs.js';
 import type { StageSimulatedFigures } from './stage-types.js';
@@ -31,11 +31,16 @@ const clamp = (x: number, lo: number, hi: number) => Math.max(lo, Math.min(hi, x
 /** The targets a correction is aimed at, most basic first: a stage must hold its gain before its swing, and both before its GBW. */
 type Aim = 'gain' | 'swing' | 'gbw';
 
-/** What the tables predict for a stage at a corner (its bias diodes re-derive the gates): the figure a miss is about (gain and GBW as logs). */
-function tableFigure(d: StageResult, inp: StageStepInput, corner: string, target: Aim): number | null {
+/** What the tables predict for a stage as sized at a corner (its bias diodes re-derive the gates); null off the tables. */
+export function tablePredicted(d: StageResult, inp: Omit<StageStepInput, 'design' | 'figures'>, corner: string): StagePredicted | null {
   const at = stageAsIs(d, inp.spec, inp.kit, corner, inp.supply);
-  if ('error' in at) return null;
-  const p = at.predicted;
+  return 'error' in at ? null : at.predicted;
+}
+
+/** The tables' figure a miss is about (gain and GBW as logs). */
+function tableFigure(d: StageResult, inp: StageStepInput, corner: string, target: Aim): number | null {
+  const p = tablePredicted(d, inp, corner);
+  if (!p) return null;
   const v = target === 'gain' ? Math.log(Math.max(p.gain, 1e-9)) : target === 'gbw' ? (p.gbw !== null && p.gbw > 0 ? Math.log(p.gbw) : NaN) : p.swing;
   return Number.isFinite(v) ? v : null;
 }

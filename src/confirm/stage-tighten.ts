@@ -1,6 +1,5 @@
-import { stageAsIs } from '../solve/stage-port.js';
 import type { StageResult } from '../solve/stage-types.js';
-import type { StageStepInput } from './stage-correct.js';
+import { tablePredicted, type StageStepInput } from './stage-correct.js';
 import { scaleStage } from './stage-knobs.js';
 import type { StageSimulatedFigures } from './stage-types.js';
 import { TIGHTEN_MARGIN, deepestShrink } from './tighten.js';
@@ -12,9 +11,9 @@ const RATIO_KEEP = 0.02;
 
 /** Table figures of a stage at a corner (its bias diodes re-derive the gates, the input DC voltage re-solved); null off the tables. */
 function tableAt(d: StageResult, inp: StageStepInput, corner: string): { gain: number; swing: number; gbw: number | null } | null {
-  const at = stageAsIs(d, inp.spec, inp.kit, corner, inp.supply);
-  if ('error' in at) return null;
-  const { gain, swing, gbw } = at.predicted;
+  const p = tablePredicted(d, inp, corner);
+  if (!p) return null;
+  const { gain, swing, gbw } = p;
   return Number.isFinite(gain) && Number.isFinite(swing) ? { gain, swing, gbw } : null;
 }
 

@@ -15,7 +15,7 @@ import { meets, nominalOk, shortfall, stageCompare, stageMargins } from './stage
 
 /** Meets the targets at the nominal corner and at every other corner. */
 export function stageFullyOk(sides: StageSides, d: StageDesign): boolean {
-  return meets(stageMargins(sides.stage, d.nominal)) && cornersOf(sides, d).every((c) => meets(stageMargins(sides.stage, c)));
+  return nominalOk(sides.stage, d) && cornersOf(sides, d).every((c) => meets(stageMargins(sides.stage, c)));
 }
 
 /** Shortfalls summed over the nominal corner and every other corner (corners computed when needed). */

@@ -38,6 +38,11 @@ export function nominalOk(stage: StageSpec, d: StageDesign): boolean {
   return meets(stageMargins(stage, d.nominal));
 }
 
+/** The input DC voltage at the design point lies within the rails (see stage-rails.ts). */
+export function withinRails(stage: StageSpec, d: StageDesign): boolean {
+  return stageMargins(stage, d.nominal).vin >= 0;
+}
+
 // Ties: swing within 1 mV, gain within 1 %, are settled by area.
 const mv = (v: number) => Math.round(v * 1000);
 const pct = (g: number) => (g > 0 ? Math.floor(Math.log(g) / Math.log(1.01)) : -Infinity);

@@ -4,8 +4,8 @@ import { designIndex, guessOf, outputGrid, stagePoint } from '../stack/index.js'
 import { candidateKey, type Candidate } from './search/candidate.js';
 import { neighbours } from './search/refine.js';
 import { sideDesign, type Side, type SideDesign } from './stage-side.js';
-import { TRACE_STEP, cornersOf, evaluateCorner, evaluatePair, pairCircuit, stageAt, type PairJudge, type StageDesign, type StageSides } from './stage-eval.js';
-import { meets, stageCompare, stageMargins } from './stage-rank.js';
+import { TRACE_STEP, evaluateCorner, evaluatePair, pairCircuit, stageAt, type PairJudge, type StageDesign, type StageSides } from './stage-eval.js';
+import { meets, stageCompare, stageMargins, withinRails } from './stage-rank.js';
 import { fullyOkMemo, stageBetter } from './stage-order.js';
 import { rangeSafe } from './evaluate/evaluate.js';
 
@@ -276,13 +276,11 @@ export interface StageNearest {
   gbw?: StageDesign;
 }
 
-const withinRails = (sides: StageSides, d: StageDesign) => stageMargins(sides.stage, d.nominal).vin >= 0;
-
 /** An order putting designs with the input DC voltage within the rails first, then by `key` (higher first), then `tie`. */
 function higher(sides: StageSides, key: (d: StageDesign) => number, tie: (d: StageDesign) => number): StageOrder {
   return (a, b) => {
-    const ra = withinRails(sides, a);
-    if (ra !== withinRails(sides, b)) return ra;
+    const ra = withinRails(sides.stage, a);
+    if (ra !== withinRails(sides.stage, b)) return ra;
     const ka = key(a);
     const kb = key(b);
     if (ka !== kb) return ka > kb;
@@ -306,7 +304,7 @@ function nearestStage(sides: StageSides, pool: StageDesign[], memos: { input: Si
   const point = stageClimber(sides, pool, memos, 'point');
   const held = stageClimber(sides, pool, memos, 'held');
   const top = (climber: Climber, better: StageOrder): StageDesign | undefined => {
-    const sorted = pool.filter((d) => withinRails(sides, d)).sort((a, b) => (better(a, b) ? -1 : better(b, a) ? 1 : 0));
+    const sorted = pool.filter((d) => withinRails(sides.stage, d)).sort((a, b) => (better(a, b) ? -1 : better(b, a) ? 1 : 0));
     let best: StageDesign | undefined;
     for (const traced of sorted.slice(0, 2)) {
       const seed = climber.pairOf(traced.input, traced.load);

@@ -8,7 +8,7 @@ import {
 import type { BiasResult, DeviceResult } from './types.js';
 import { absolute } from './result.js';
 import { fineTrace, type StageAt, type StageDesign, type StageSides } from './stage-eval.js';
-import { meets, nominalOk, stageMargins, type StageMargins } from './stage-rank.js';
+import { meets, nominalOk, stageMargins, withinRails, type StageMargins } from './stage-rank.js';
 import { vinRail } from './stage-rails.js';
 import type { StageNearest } from './stage-refine.js';
 import type {
@@ -167,15 +167,17 @@ function squareLawOf(sides: StageSides, d: StageDesign): StageSquareLaw | undefi
   return nums.every(Number.isFinite) ? s : undefined;
 }
 
-/** Best gain held over the swing target and best swing at the gain target over some designs. */
-function nearestOf(pool: readonly StageDesign[]): { gainAtSwing: number; swingAtGain: number } {
+/** Best gain held over the swing target, best swing at the gain target and best gain at the design point over some designs. */
+function nearestOf(pool: readonly StageDesign[]): { gainAtSwing: number; swingAtGain: number; peak: number } {
   let gainAtSwing = 0;
   let swingAtGain = 0;
+  let peak = 0;
   for (const d of pool) {
     gainAtSwing = Math.max(gainAtSwing, d.nominal.gainAtSwing);
     swingAtGain = Math.max(swingAtGain, d.nominal.trace.swing);
+    peak = Math.max(peak, d.nominal.gain);
   }
-  return { gainAtSwing, swingAtGain };
+  return { gainAtSwing, swingAtGain, peak };
 }
 
 /**
@@ -188,23 +190,15 @@ function infeasibility(sides: StageSides, best: StageDesign, explored: readonly 
   const nominal = sides.input.ctx.nominal;
   // Only designs with the input DC voltage within the rails count; when there are none, that binds
   // (the shown design is then the one closest to the rails, see pickStage).
-  const pool = explored.filter((d) => stageMargins(stage, d.nominal).vin >= 0);
-  if (pool.length === 0) return { binding: verdict(stage, 'vin', best.nominal, nominal), nearest: nearestOf(explored) };
-  let gainAtSwing = 0;
-  let swingAtGain = 0;
-  let peak = 0;
-  if (climbed) {
-    // The climbs' winners (traced on the reported grid).
-    gainAtSwing = climbed.held.nominal.gainAtSwing;
-    swingAtGain = climbed.swing?.nominal.trace.swing ?? 0;
-    peak = climbed.peak.nominal.gain;
-  } else {
-    for (const d of pool) {
-      gainAtSwing = Math.max(gainAtSwing, d.nominal.gainAtSwing);
-      swingAtGain = Math.max(swingAtGain, d.nominal.trace.swing);
-      peak = Math.max(peak, d.nominal.gain);
-    }
+  const pool = explored.filter((d) => withinRails(stage, d));
+  if (pool.length === 0) {
+    const { gainAtSwing, swingAtGain } = nearestOf(explored);
+    return { binding: verdict(stage, 'vin', best.nominal, nominal), nearest: { gainAtSwing, swingAtGain } };
   }
+  // The climbs' winners (traced on the reported grid), else the best of the explored designs.
+  const { gainAtSwing, swingAtGain, peak } = climbed
+    ? { gainAtSwing: climbed.held.nominal.gainAtSwing, swingAtGain: climbed.swing?.nominal.trace.swing ?? 0, peak: climbed.peak.nominal.gain }
+    : nearestOf(pool);
   const nearest = { gainAtSwing, swingAtGain };
   // Bindings from the nearest points name the best any design reaches (`best`), not the shown design's figure.
   const reach = climbed ? { best: true } : {};
