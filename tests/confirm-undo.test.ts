@@ -78,3 +78,46 @@ describe('confirm loop: a tightened stage that misses is undone', () => {
     expect(out.corrected!.area).toBeLessThan(design.predicted.area);
   });
 });
+
+// README ("Correction"): when no round meets every target, the design reported is the nearest of all the rounds
+// simulated, not merely the last one. The state machine is driven as above, with figures given by the test.
+describe('confirm loop: when every round misses, the nearest design simulated is reported', () => {
+  const gainMiss = (gain: number): Miss => ({ target: 'gain', required: spec.gain, achieved: gain, at: null, device: null, corner: 'tt' }) as Miss;
+  // Rounds until the loop is done; each round's simulated gain is taken from `gains` (swing always met).
+  const run = (gains: number[]) => {
+    const design = sizeStage(spec, kit, { supply: 1.8, corners: ['tt'] }).results[0];
+    const item = stageItem(design, spec, { kit, supply: 1.8, models: { n: 'nch', p: 'pch' } });
+    const s: State<StageSimulatedFigures, StageConfirmation> = {
+      item, tag: 'c1', rounds: 0, phase: 'correct', confirmed: false, tightened: false, tightenLeft: 0, last: [], misses: [],
+    };
+    const circuits: unknown[] = [];
+    for (const gain of gains) {
+      if (s.phase === 'done') break;
+      item.select(0);
+      circuits.push(item.circuit('c1v0', 0));
+      s.rounds++;
+      advance(s, figures(spec.swing + 0.05, gain), [gainMiss(gain)]);
+    }
+    return { s, design, circuits, out: s.item.outcome(s.last, s.misses, s.rounds, s.confirmed, s.tightened) };
+  };
+
+  it('a table design missing by 3 % stands when every correction misses by more', () => {
+    const { s, out, circuits, design } = run([0.97 * spec.gain, 0.5 * spec.gain, 0.6 * spec.gain, 0.55 * spec.gain]);
+    expect(s.phase).toBe('done');
+    expect(s.rounds).toBe(4);
+    expect(out.confirmed).toBe(false);
+    expect(out.simulated.gain).toBe(0.97 * spec.gain);
+    expect(out.misses).toEqual([gainMiss(0.97 * spec.gain)]);
+    // The table design is reported as it was (no corrected sizes), and it is what a further deck would hold.
+    expect(out.corrected).toBeUndefined();
+    expect(s.item.circuit('c1v0', 0)).toEqual(circuits[0]);
+    expect(s.item.circuit('c1v0', 0)).toEqual(stageItem(design, spec, { kit, supply: 1.8, models: { n: 'nch', p: 'pch' } }).circuit('c1v0', 0));
+  });
+
+  it('a correction that came nearest is reported with its sizes, not the later ones', () => {
+    const { out, circuits } = run([0.8 * spec.gain, 0.99 * spec.gain, 0.7 * spec.gain, 0.9 * spec.gain]);
+    expect(out.simulated.gain).toBe(0.99 * spec.gain);
+    expect(out.corrected).toBeDefined();
+    expect(circuits[1]).not.toEqual(circuits[0]);
+  });
+});

@@ -75,7 +75,7 @@ const variantTag = (tag: string, k: number) => `${tag}v${k}`;
 
 /**
  * One round's verdict on a design: confirmed (then, with rounds of `tighten` left, a shrink proposed), corrected, or
- * done; in a tighten round a smaller design that missed is reverted to the last confirmed one and its figures.
+ * done (when every round missed, with the nearest design simulated, not merely the last); in a tighten round a smaller design that missed is reverted to the last confirmed one and its figures.
  * Exported for tests of this state machine.
  */
 export function advance<F extends { corner: string }, C>(s: State<F, C>, figures: F[], misses: Miss[]): void {
@@ -94,7 +94,16 @@ export function advance<F extends { corner: string }, C>(s: State<F, C>, figures
     s.last = figures;
     s.misses = misses;
     if (misses.length > 0) {
-      s.phase = s.rounds < MAX_ROUNDS && s.item.correct(figures, misses) ? 'correct' : 'done';
+      s.item.hold(figures, misses);
+      if (s.rounds < MAX_ROUNDS && s.item.correct(figures, misses)) {
+        s.phase = 'correct';
+        return;
+      }
+      // No round confirmed a design: report the nearest one simulated, which may be an earlier round's.
+      const near = s.item.nearest();
+      s.last = near.figures;
+      s.misses = near.misses;
+      s.phase = 'done';
       return;
     }
     s.confirmed = true;

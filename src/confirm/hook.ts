@@ -30,8 +30,33 @@ export interface ConfirmItem<F extends { corner: string } = SimulatedFigures, C 
   revert(): void;
   /** Mark the current design as confirmed by `figures`. */
   keep(figures: F[]): void;
+  /** The current design missed with these figures: hold it when it is nearer the targets than every design tried before. */
+  hold(figures: F[], misses: Miss[]): void;
+  /** Go back to the nearest design held (no round confirmed one); its figures and misses. */
+  nearest(): { figures: F[]; misses: Miss[] };
   /** The outcome after the last round. */
   outcome(last: F[], misses: Miss[], rounds: number, confirmed: boolean, tightened: boolean): C;
+}
+
+/** A design simulated, with its figures at every corner and what it missed. */
+export interface Tried<D, F> {
+  design: D;
+  figures: F[];
+  misses: Miss[];
+}
+
+/**
+ * The nearest of the missing designs tried, by an item's own order of variants: `prefer(a, b)` is true when a comes
+ * before b. A later design replaces the one held only when it is strictly nearer, so a tie keeps the less corrected one.
+ */
+export function nearestKeeper<D, F>(prefer: (a: Tried<D, F>, b: Tried<D, F>) => boolean): { hold(t: Tried<D, F>): void; held(): Tried<D, F> | null } {
+  let held: Tried<D, F> | null = null;
+  return {
+    hold(t) {
+      if (held === null || prefer(t, held)) held = t;
+    },
+    held: () => held,
+  };
 }
 
 /** Nominal figures on top, every corner below (nominal first). */

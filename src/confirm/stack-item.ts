@@ -6,7 +6,7 @@ import type { BatchCircuit, BatchColumns } from './batch.js';
 import { stackMisses } from './check.js';
 import { correctionCandidates, pickVariant } from './correct.js';
 import type { ConfirmItem } from './hook.js';
-import { simulatedOf } from './hook.js';
+import { nearestKeeper, simulatedOf } from './hook.js';
 import { stackFigures } from './measure.js';
 import { tableFigures } from './table-model.js';
 import { shrinkStep } from './tighten.js';
@@ -30,6 +30,9 @@ export function stackItem(result: StackResult, spec: StackSpec, ctx: StackContex
   let confirmed: StackResult | null = null;
   let confirmedFigures: Figures[] | null = null;
   const step = (figures: Figures[]) => ({ design, spec, kit: ctx.kit, supply: ctx.supply, figures });
+  // pickVariant keeps index 0 on a tie: the design held is listed first.
+  const tried = nearestKeeper<StackResult, Figures>((a, b) =>
+    pickVariant(spec, [{ ...b, area: areaOf(b.design) }, { ...a, area: areaOf(a.design) }]) === 1);
   return {
     name: result.name,
     sweepTop: spec.span,
@@ -67,6 +70,13 @@ export function stackItem(result: StackResult, spec: StackSpec, ctx: StackContex
     keep(figures) {
       confirmed = design;
       confirmedFigures = figures;
+    },
+    hold: (figures, misses) => tried.hold({ design, figures, misses }),
+    nearest() {
+      const t = tried.held() as NonNullable<ReturnType<typeof tried.held>>;
+      design = t.design;
+      variants = [design];
+      return t;
     },
     outcome(last, misses, rounds, ok, tightened): Confirmation {
       const figures = ok && confirmedFigures ? confirmedFigures : last;

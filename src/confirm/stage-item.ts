@@ -1,7 +1,7 @@
 import type { StageSpec } from '../design/types.js';
 import type { KitAccess } from '../solve/kit.js';
 import type { StageResult, StageSide } from '../solve/stage-types.js';
-import type { ConfirmItem } from './hook.js';
+import { nearestKeeper, type ConfirmItem } from './hook.js';
 import { stageMisses } from './stage-check.js';
 import { stageCircuit } from './stage-circuit.js';
 import { pickStage, stageCorrections } from './stage-correct.js';
@@ -31,6 +31,8 @@ export function stageItem(result: StageResult, spec: StageSpec, ctx: StageContex
   let confirmed: StageResult | null = null;
   let confirmedFigures: StageSimulatedFigures[] | null = null;
   // A gbw target (it comes with its cap) adds the small-signal response at the design point to the same deck.
+  // pickStage keeps index 0 on a tie: the design held is listed first.
+  const tried = nearestKeeper<StageResult, StageSimulatedFigures>((a, b) => pickStage(spec, [b, a]) === 1);
   const ac = spec.gbw !== undefined && spec.cap !== undefined ? { cap: spec.cap, output: spec.output } : undefined;
   return {
     name: result.name,
@@ -64,6 +66,13 @@ export function stageItem(result: StageResult, spec: StageSpec, ctx: StageContex
     keep(figures) {
       confirmed = design;
       confirmedFigures = figures;
+    },
+    hold: (figures, misses) => tried.hold({ design, figures, misses }),
+    nearest() {
+      const t = tried.held() as NonNullable<ReturnType<typeof tried.held>>;
+      design = t.design;
+      variants = [design];
+      return t;
     },
     outcome(last, misses, rounds, ok, tightened): StageConfirmation {
       const figures = ok && confirmedFigures ? confirmedFigures : last;
