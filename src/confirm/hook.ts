@@ -49,13 +49,18 @@ export interface Tried<D, F> {
  * The nearest of the missing designs tried, by an item's own order of variants: `prefer(a, b)` is true when a comes
  * before b. A later design replaces the one held only when it is strictly nearer, so a tie keeps the less corrected one.
  */
-export function nearestKeeper<D, F>(prefer: (a: Tried<D, F>, b: Tried<D, F>) => boolean): { hold(t: Tried<D, F>): void; held(): Tried<D, F> | null } {
+export function nearestKeeper<D, F>(prefer: (a: Tried<D, F>, b: Tried<D, F>) => boolean): { hold(t: Tried<D, F>): void; back(use: (design: D) => void): Tried<D, F> } {
   let held: Tried<D, F> | null = null;
   return {
     hold(t) {
       if (held === null || prefer(t, held)) held = t;
     },
-    held: () => held,
+    /** Hand the design held to `use` (the item continues with it); its figures and misses. Called after a hold. */
+    back(use) {
+      const t = held as Tried<D, F>;
+      use(t.design);
+      return t;
+    },
   };
 }
 

@@ -27,6 +27,11 @@ export function stackItem(result: StackResult, spec: StackSpec, ctx: StackContex
   const original = result;
   let design = result;
   let variants: StackResult[] = [result];
+  // Continue with design d (the only variant until a correction or shrink proposes more).
+  const use = (d: StackResult) => {
+    design = d;
+    variants = [d];
+  };
   let confirmed: StackResult | null = null;
   let confirmedFigures: Figures[] | null = null;
   const step = (figures: Figures[]) => ({ design, spec, kit: ctx.kit, supply: ctx.supply, figures });
@@ -47,10 +52,7 @@ export function stackItem(result: StackResult, spec: StackSpec, ctx: StackContex
     },
     misses: (f) => stackMisses(spec, f),
     pick: (results) => pickVariant(spec, results.map((r, k) => ({ ...r, area: areaOf(variants[k]) }))),
-    select(k) {
-      design = variants[k];
-      variants = [design];
-    },
+    select: (k) => use(variants[k]),
     correct(figures, misses) {
       const next = correctionCandidates(step(figures), misses);
       if (next.length === 0) return false;
@@ -63,21 +65,13 @@ export function stackItem(result: StackResult, spec: StackSpec, ctx: StackContex
       variants = [next];
       return true;
     },
-    revert() {
-      if (confirmed) design = confirmed;
-      variants = [design];
-    },
+    revert: () => use(confirmed ?? design),
     keep(figures) {
       confirmed = design;
       confirmedFigures = figures;
     },
     hold: (figures, misses) => tried.hold({ design, figures, misses }),
-    nearest() {
-      const t = tried.held() as NonNullable<ReturnType<typeof tried.held>>;
-      design = t.design;
-      variants = [design];
-      return t;
-    },
+    nearest: () => tried.back(use),
     outcome(last, misses, rounds, ok, tightened): Confirmation {
       const figures = ok && confirmedFigures ? confirmedFigures : last;
       const out: Confirmation = { name: result.name, simulated: simulatedOf(figures), confirmed: ok, rounds, misses };

@@ -28,6 +28,11 @@ export function stageItem(result: StageResult, spec: StageSpec, ctx: StageContex
   const vin0 = result.predicted.vin;
   let design = result;
   let variants: StageResult[] = [result];
+  // Continue with design d (the only variant until a correction or shrink proposes more).
+  const use = (d: StageResult) => {
+    design = d;
+    variants = [d];
+  };
   let confirmed: StageResult | null = null;
   let confirmedFigures: StageSimulatedFigures[] | null = null;
   // A gbw target (it comes with its cap) adds the small-signal response at the design point to the same deck.
@@ -43,10 +48,7 @@ export function stageItem(result: StageResult, spec: StageSpec, ctx: StageContex
     measure: (data, corner) => stageFigures(data, vin0, spec, corner),
     misses: (f) => stageMisses(spec, f),
     pick: (results) => pickStage(spec, results.map((r, k) => ({ ...r, design: variants[k] }))),
-    select(k) {
-      design = variants[k];
-      variants = [design];
-    },
+    select: (k) => use(variants[k]),
     correct(figures, misses) {
       const next = stageCorrections({ design, spec, kit: ctx.kit, supply: ctx.supply, figures }, misses);
       if (next.length === 0) return false;
@@ -59,21 +61,13 @@ export function stageItem(result: StageResult, spec: StageSpec, ctx: StageContex
       variants = [next];
       return true;
     },
-    revert() {
-      if (confirmed) design = confirmed;
-      variants = [design];
-    },
+    revert: () => use(confirmed ?? design),
     keep(figures) {
       confirmed = design;
       confirmedFigures = figures;
     },
     hold: (figures, misses) => tried.hold({ design, figures, misses }),
-    nearest() {
-      const t = tried.held() as NonNullable<ReturnType<typeof tried.held>>;
-      design = t.design;
-      variants = [design];
-      return t;
-    },
+    nearest: () => tried.back(use),
     outcome(last, misses, rounds, ok, tightened): StageConfirmation {
       const figures = ok && confirmedFigures ? confirmedFigures : last;
       const out: StageConfirmation = { name: result.name, simulated: { ...figures[0], corners: figures }, confirmed: ok, rounds, misses };
