@@ -2,6 +2,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { join } from 'node:path';
 import { evaluateAtCorner, loadKit, parseSpec, pelgromSigma, portSpec, sizeSpec, type Kit } from '../src/index.js';
 import { ensureDemoTables, REPO, demoKit } from './helpers/cli.js';
+import { statusLine } from '../src/report/rows.js';
 
 let k180: Kit;
 let k090: Kit;
@@ -49,6 +50,25 @@ describe('corners on the demo kit', () => {
     // The report names each corner with its own gates: the bias devices re-derive them.
     expect(s.corners?.map((c) => c.corner)).toEqual(['tt', 'ss']);
     expect(s.corners?.[1].gates[1]).toBeGreaterThan(s.corners?.[0].gates[1] ?? Infinity);
+  });
+});
+
+describe('nearest points of a spec with several corners', () => {
+  it('name the nominal corner they hold at, so a miss at another corner does not read as contradicted', () => {
+    // Infeasible only at ss: at tt some design meets 50 MΩ at 0.36 V (the nearest Rout at the headroom target is
+    // above the target), so an unlabelled "Rout reaches 118 MΩ at the headroom target" beside "ss: Rout 13 MΩ <
+    // 50 MΩ" would contradict the verdict.
+    const spec = { ...sink('50meg', 0.36, '40u'), corners: ['tt', 'ff', 'ss'] };
+    const s = sizeSpec(spec, k180).result.stacks[0];
+    expect(s.feasible).toBe(false);
+    expect(s.binding?.corner).not.toBe('tt');
+    expect(s.nearest?.corner).toBe('tt');
+    expect(s.nearest?.routAtHeadroom).toBeGreaterThanOrEqual(50e6);
+    const text = statusLine(s);
+    expect(text).toMatch(/at the headroom target Rout reaches [\d.]+ MΩ at corner tt/);
+    // The shown design really misses at the binding corner when re-evaluated there.
+    const re = evaluateAtCorner(s, spec.stacks[0], k180, s.binding!.corner, spec.supply);
+    expect(re.feasible).toBe(false);
   });
 });
 

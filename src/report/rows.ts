@@ -106,11 +106,14 @@ export function statusLine(stack: StackResult): string {
   if (stack.feasible) return `meets all targets${tag}`;
   const parts = [`does not meet the targets${stack.binding ? `: ${bindingText(stack)}` : ''}`];
   const n = stack.nearest;
+  // With several corners the nearest points are the nominal corner's: say so, or they read as contradicting a miss
+  // at another corner.
+  const at = n?.corner !== undefined && (stack.corners?.length ?? 0) > 1 ? ` at corner ${n.corner}` : '';
   if (n?.headroomAtRout !== undefined && Number.isFinite(n.headroomAtRout)) {
-    parts.push(`the Rout target needs ${volts(n.headroomAtRout)} of headroom at best`);
+    parts.push(`the Rout target needs ${volts(n.headroomAtRout)} of headroom at best${at}`);
   } else if (n !== undefined && stack.binding?.target === 'rout') {
-    parts.push('no allowed design reaches the Rout target at any headroom up to the span');
+    parts.push(`no allowed design reaches the Rout target at any headroom up to the span${at}`);
   }
-  if (n?.routAtHeadroom !== undefined && n.routAtHeadroom > 0) parts.push(`at the headroom target Rout reaches ${eng(n.routAtHeadroom, 'Ω')}`);
+  if (n?.routAtHeadroom !== undefined && n.routAtHeadroom > 0) parts.push(`at the headroom target Rout reaches ${eng(n.routAtHeadroom, 'Ω')}${at}`);
   return parts.join('; ') + tag;
 }

@@ -44,7 +44,9 @@ export function stageVerdict(s: StageResult): string {
   if (s.feasible) return `meets all targets; tightest: ${s.tightest ? stageVerdictText(s.tightest, many) : '—'}${tag}`;
   const parts = [`does not meet the targets: binding ${s.binding ? stageVerdictText(s.binding, many) : '—'}`];
   if (s.nearest) {
-    parts.push(`nearest points: best gain held over the swing target ${gainText(s.nearest.gainAtSwing)}, best swing at the gain target ${eng(s.nearest.swingAtGain, 'V')}`);
+    // With several corners the nearest points are the nominal corner's: say so.
+    const at = many ? ` at corner ${s.nearest.corner}` : '';
+    parts.push(`nearest points${at}: best gain held over the swing target ${gainText(s.nearest.gainAtSwing)}, best swing at the gain target ${eng(s.nearest.swingAtGain, 'V')}`);
   }
   return parts.join('; ') + tag;
 }

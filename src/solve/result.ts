@@ -98,7 +98,7 @@ function smallest(m: Margins): number {
 function infeasibility(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[], near: Nearest): Pick<StackResult, 'binding' | 'nearest'> {
   const s = ctx.spec;
   const on = (target: Verdict['target'] & keyof Margins, e: { ev: Evaluated['nominal'] | null; sigma?: number }, corner: string) => verdictOf(target, s, e.ev, e.sigma, ctx.vmid, corner);
-  const nearest = { headroomAtRout: reportedHeadroom(near.headroomAtRout), routAtHeadroom: near.routAtHeadroom };
+  const nearest = { headroomAtRout: reportedHeadroom(near.headroomAtRout), routAtHeadroom: near.routAtHeadroom, corner: ctx.nominal };
   const nominal = { ev: best.nominal, sigma: best.sigma };
   if (!pool.some((e) => e.margins.saturation >= 0)) return { binding: on('saturation', nominal, ctx.nominal), nearest };
   if (nominalOk(best)) {
@@ -218,7 +218,7 @@ function withLimits(ctx: SolveContext, r: StackResult): StackResult {
 export function emptyResult(ctx: SolveContext, topology: StackResult['topology'], evaluated: number, why: Verdict): StackResult {
   return withLimits(ctx, {
     name: ctx.spec.name, device: ctx.spec.device, topology, feasible: false,
-    binding: why, nearest: { headroomAtRout: Infinity, routAtHeadroom: 0 },
+    binding: why, nearest: { headroomAtRout: Infinity, routAtHeadroom: 0, corner: ctx.nominal },
     devices: [], bias: [], predicted: predictedOf(null, NaN, NaN, undefined), curve: [], evaluated,
   });
 }

@@ -193,13 +193,13 @@ function infeasibility(sides: StageSides, best: StageDesign, explored: readonly 
   const pool = explored.filter((d) => withinRails(stage, d));
   if (pool.length === 0) {
     const { gainAtSwing, swingAtGain } = nearestOf(explored);
-    return { binding: verdict(stage, 'vin', best.nominal, nominal), nearest: { gainAtSwing, swingAtGain } };
+    return { binding: verdict(stage, 'vin', best.nominal, nominal), nearest: { gainAtSwing, swingAtGain, corner: nominal } };
   }
   // The climbs' winners (traced on the reported grid), else the best of the explored designs.
   const { gainAtSwing, swingAtGain, peak } = climbed
     ? { gainAtSwing: climbed.held.nominal.gainAtSwing, swingAtGain: climbed.swing?.nominal.trace.swing ?? 0, peak: climbed.peak.nominal.gain }
     : nearestOf(pool);
-  const nearest = { gainAtSwing, swingAtGain };
+  const nearest = { gainAtSwing, swingAtGain, corner: nominal };
   // Bindings from the nearest points name the best any design reaches (`best`), not the shown design's figure.
   const reach = climbed ? { best: true } : {};
   if (peak < stage.gain) {
@@ -262,7 +262,7 @@ export function emptyStageResult(sides: StageSides, topology: Topology, evaluate
     predicted: emptyPredicted(stage, 0),
     curve: [],
     binding: { target: 'table', required: null, achieved: null, at: null, device: null, corner: sides.input.ctx.nominal },
-    nearest: { gainAtSwing: 0, swingAtGain: 0 },
+    nearest: { gainAtSwing: 0, swingAtGain: 0, corner: sides.input.ctx.nominal },
     evaluated,
   };
 }

@@ -96,7 +96,7 @@ export interface StageResult {
   binding?: StageVerdict;
   tightest?: StageVerdict;
   /** Infeasible: best gain held over the swing target, best swing at the gain target, over the explored designs. */
-  nearest?: { gainAtSwing: number; swingAtGain: number };
+  nearest?: { gainAtSwing: number; swingAtGain: number; corner: string };
   squareLaw?: StageSquareLaw;
   corners?: StageCorner[];
   /** Combinations screened plus designs evaluated exactly. */

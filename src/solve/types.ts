@@ -77,8 +77,8 @@ export interface StackResult {
   binding?: Verdict;
   /** When feasible: the constraint with the least margin over all corners. */
   tightest?: Verdict;
-  /** Nearest feasible points when infeasible. */
-  nearest?: { headroomAtRout?: number; routAtHeadroom?: number };
+  /** Nearest feasible points when infeasible, at the nominal corner (`corner`). */
+  nearest?: { headroomAtRout?: number; routAtHeadroom?: number; corner?: string };
   devices: DeviceResult[];
   bias: BiasResult[];
   predicted: Predicted;
