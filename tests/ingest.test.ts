@@ -763,3 +763,25 @@ describe('ingest: the byte reader for files', () => {
     for (const t of ['1e400', '1e-330', '0.18u', '1,5', '12345678901234567', 'abc', '', '1e', 'Infinity', '0x10', '--1']) expect(read(t, ';'), t).toBeNaN();
   });
 });
+
+describe('ingest: mistakes a designer bringing their own sweeps makes', () => {
+  const header = 'l,w,vgs,vds,vsb,id';
+
+  it('a p-type sweep in simulator signs given as --device n is refused at its first negative VGS cell', () => {
+    // An n-type MOSFET conducts with VGS > 0 and VDS > 0 and a p-type one, in simulator signs, with VGS < 0 and
+    // VDS < 0 (common practice; Sedra & Smith, MOSFET chapter). A sweep whose VGS is mostly negative is a p-type
+    // sweep: read as n-type it made a table with a -1.8..0 V gate axis that nothing could size on.
+    const p = BASE_ROWS.map(([l, w, g, d, s, id]) => [l, w, -g, -d, s, -id]);
+    const err = errorOf(() => ingestTexts([{ file: 'p.csv', text: csv(header, p) }], N));
+    const col = p[0].slice(0, 2).join(',').length + 2;
+    expect(err.message).toMatch(new RegExp(`^p\\.csv:2:${col}: column "vgs": .*negative.*--device p`));
+    // Only the drain voltage negative (a VSD-style export of an n-type sweep is not a thing): also refused, at vds.
+    const d = BASE_ROWS.map(([l, w, g, dd, s, id]) => [l, w, g, -dd, s, id]);
+    expect(errorOf(() => ingestTexts([{ file: 'd.csv', text: csv(header, d) }], N)).message).toMatch(/^d\.csv:2:\d+: column "vds": .*negative/);
+    // The same file as --device p is the ordinary PMOS case; an n-type sweep starting a little below VGS = 0 (to see
+    // the off state, common practice) is still an n-type sweep.
+    expect(() => ingestTexts([{ file: 'p.csv', text: csv(header, p) }], P)).not.toThrow();
+    const below = sweep([0.18e-6, 0.5e-6], range(-0.2, 1.2, 0.1), range(0.6, 1.2, 0.2), [0], (_l, g, dd) => (g > VT ? squareLaw(g, dd) : 1e-12 * Math.exp((g - VT) / 0.04)));
+    expect(Array.from(ingestTexts([{ file: 'b.csv', text: csv(header, below) }], N).axes.vgs)[0]).toBe(-0.2);
+  });
+});

@@ -8,7 +8,7 @@ import { allZero, checkPlausible, magnitudeRange, oppositeSignRow } from './plau
 import type { CellPlaces } from './quoted.js';
 import { forEachRow } from './rows.js';
 import { showList } from './show.js';
-import { normaliseSigns } from './signs.js';
+import { mostlyNegativeAt, normaliseSigns } from './signs.js';
 import { countLines, decodeInput, findHeader, isCommentOrBlank, lineAt } from './text.js';
 import { countLinesBytes, readRowsFromBytes } from './parse-bytes.js';
 import type { Quantity, Samples, SweepOptions } from './types.js';
@@ -205,6 +205,7 @@ function finish(p: Parsed): Samples {
   }
   if (!columns.vsb) columns.vsb = new Float64Array(rows);
   const cols = columns as Samples['columns'];
+  if (opts.device === 'n') refuseNegativeSweep(cols, specs, lines, whereCell);
   normaliseSigns(cols, opts.device);
   const flipped = oppositeSignRow(cols.id);
   if (flipped >= 0) {
@@ -225,6 +226,19 @@ function finish(p: Parsed): Samples {
     source,
     mapped: specs.filter((s) => s.mapKey !== undefined).map((s) => s.mapKey!),
   };
+}
+
+/** Mostly negative VGS or VDS is a p-type sweep in simulator signs: read as n-type it made negative axes. */
+function refuseNegativeSweep(cols: Samples['columns'], specs: ColumnSpec[], lines: Int32Array, whereCell: (line: number, index: number) => string): void {
+  for (const q of ['vgs', 'vds'] as const) {
+    const i = mostlyNegativeAt(cols[q]);
+    if (i < 0) continue;
+    const spec = specs.find((s) => s.quantity === q)!;
+    throw new StackwrightError(
+      `column ${showText(spec.header)}: most ${q} values are negative, as a p-type sweep in simulator signs has them; an n-type sweep has ${q} >= 0: pass --device p, or fix the sign`,
+      { where: whereCell(lines[i], spec.index) },
+    );
+  }
 }
 
 function hasDigit(cell: string): boolean {
