@@ -784,4 +784,13 @@ describe('ingest: mistakes a designer bringing their own sweeps makes', () => {
     const below = sweep([0.18e-6, 0.5e-6], range(-0.2, 1.2, 0.1), range(0.6, 1.2, 0.2), [0], (_l, g, dd) => (g > VT ? squareLaw(g, dd) : 1e-12 * Math.exp((g - VT) / 0.04)));
     expect(Array.from(ingestTexts([{ file: 'b.csv', text: csv(header, below) }], N).axes.vgs)[0]).toBe(-0.2);
   });
+
+  it('a kit or corner name that cannot be a folder or file name is refused naming the flag, before any file is read', () => {
+    // Kit and corner become tables/<kit>/<device>-<corner>.swtab (README, "Tables and interpolation").
+    // The path does not exist: a name error rather than "cannot read the file" shows the name was checked first.
+    const kitErr = errorOf(() => ingestFiles(['/nonexistent/never-read.csv'], { ...N, kit: '../elsewhere' }));
+    expect(kitErr.message).toMatch(/^--kit: kit name "\.\.\/elsewhere" is not a plain name/);
+    const cornerErr = errorOf(() => ingestFiles(['/nonexistent/never-read.csv'], { ...N, corner: 'slow slow' }));
+    expect(cornerErr.message).toMatch(/^--corner: corner name "slow slow" is not a plain name/);
+  });
 });
