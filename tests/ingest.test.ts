@@ -793,4 +793,20 @@ describe('ingest: mistakes a designer bringing their own sweeps makes', () => {
     const cornerErr = errorOf(() => ingestFiles(['/nonexistent/never-read.csv'], { ...N, corner: 'slow slow' }));
     expect(cornerErr.message).toMatch(/^--corner: corner name "slow slow" is not a plain name/);
   });
+
+  it('JavaScript-only number forms (0x10, 0b1, 0o7) are not numbers in a sweep cell', () => {
+    // A CSV number is decimal (RFC 4180 leaves cells as text; simulators print decimal); SPICE reads "0x10" as 0
+    // followed by ignored letters (SPICE3 number syntax, from memory). Read as 16 it was a silent misread.
+    for (const bad of ['0x10', '0b1', '0o7', '-0x1']) {
+      const rows = BASE_ROWS.map((r) => r.map(String));
+      rows[2][3] = bad;
+      const text = csv(header, rows);
+      const col = rows[2].slice(0, 3).join(',').length + 2;
+      for (const input of [text, Buffer.from(text, 'utf8'), text.replace(/,/g, ' ')]) {
+        const err = errorOf(() => ingestTexts([{ file: 'x.csv', text: input }], N));
+        if (typeof input === 'string' && input.includes(' ')) expect(err.message, bad).toMatch(/^x\.csv:4:\d+: column "vds": .*not a finite number/);
+        else expect(err.message, bad).toMatch(new RegExp(`^x\\.csv:4:${col}: column "vds": .*not a finite number`));
+      }
+    }
+  });
 });

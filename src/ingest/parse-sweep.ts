@@ -1,6 +1,6 @@
 import { StackwrightError, at } from '../errors.js';
 import { formatEng, showText } from '../units/index.js';
-import { badCell, readCell } from './cell.js';
+import { badCell, radixLiteral, readCell } from './cell.js';
 import { cellColumn, detectDelimiter, type Delimiter } from './delimiter.js';
 import { checkMap, matchHeaders, type ColumnSpec } from './headers.js';
 import { limitOf, outOfRange } from './limits.js';
@@ -145,7 +145,7 @@ function parseText(text: string, sha256: string, file: string, opts: SweepOption
     for (let j = 0; j < idx.length; j++) {
       const cell = fields[idx[j]];
       let v = +cell;
-      if (v - v !== 0 || (v === 0 && !hasDigit(cell))) {
+      if (v - v !== 0 || (v === 0 && !hasDigit(cell)) || radixLiteral(v, cell)) {
         v = readCell(cell, decimalComma);
         if (v !== v) throw badCell(cell, specs[j].header, whereCell(line, idx[j], places));
       }
