@@ -524,7 +524,7 @@ describe('ingest: hostile text', () => {
     const cases: Array<[number, string, RegExp]> = [
       [2, '1e308', /column "vgs": "1e308" \(1e\+308 V\) is outside the accepted range for vgs: at most 1000 V in magnitude$/],
       [3, '-2e3', /for vds: at most 1000 V in magnitude$/],
-      [0, '2', /for l: above 0 and at most 1 m$/],
+      [0, '2', /for l: above 0 and at most 1 m; check the unit in the header or name one with --map$/],
       [5, '1.7976931348623157e308', /for id: at most 1000 A in magnitude$/],
     ];
     for (const [cell, text, want] of cases) {
@@ -821,5 +821,13 @@ describe('ingest: mistakes a designer bringing their own sweeps makes', () => {
         else expect(err.message, bad).toMatch(new RegExp(`^x\\.csv:4:${col}: column "vds": .*not a finite number`));
       }
     }
+  });
+
+  it('a length column in micrometres without a unit is refused with the unit hint, whatever its largest value', () => {
+    // 1 m is no channel length (common practice: nm to mm). Lengths 0.18..0.5 read as metres already got the hint
+    // (the plausibility check); 0.18..2 stopped earlier, at the cell limit, with no word about the unit.
+    const um = BASE_ROWS.map(([l, ...rest]) => [Math.round((l as number) * 4e6 * 100) / 100, ...rest]);
+    const err = errorOf(() => ingestTexts([{ file: 'u.csv', text: csv(header, um) }], N));
+    expect(err.message).toMatch(/^u\.csv:\d+:1: column "l": .*check the unit in the header or name one with --map$/);
   });
 });
