@@ -830,4 +830,17 @@ describe('ingest: mistakes a designer bringing their own sweeps makes', () => {
     const err = errorOf(() => ingestTexts([{ file: 'u.csv', text: csv(header, um) }], N));
     expect(err.message).toMatch(/^u\.csv:\d+:1: column "l": .*check the unit in the header or name one with --map$/);
   });
+
+  it('an extra column named like a quantity but in other units (ID/W as "Id [A/um]") can be skipped with --map HEADER=skip', () => {
+    // ID/W in A/um beside ID in A is a common extra column of a gm/ID export (common practice); it is no drain current,
+    // and before there was no way to leave it out but editing the file.
+    const text = csv(`${header},Id [A/um]`, BASE_ROWS.map((r) => [...r, (r[5] as number) / 1]));
+    const err = errorOf(() => ingestTexts([{ file: 'x.csv', text }], N));
+    expect(err.message).toBe('x.csv:1:20: column "Id [A/um]": unit "A/um" does not fit id (use A, mA, uA, nA), or leave the column out with --map "Id [A/um]=skip"');
+    expectSameTable(ingestTexts([{ file: 'x.csv', text }], { ...N, map: { 'Id [A/um]': 'skip' } }), BASE);
+    // A skip naming no header is refused like any unused map.
+    expect(errorOf(() => ingestTexts([{ file: 'x.csv', text }], { ...N, map: { 'Id [A/um]': 'skip', nothere: 'skip' } })).message).toMatch(/^--map: header "nothere" is in no input file/);
+    // Skipping a required column leaves it missing.
+    expect(errorOf(() => ingestTexts([{ file: 'x.csv', text }], { ...N, map: { 'Id [A/um]': 'skip', id: 'skip' } })).message).toMatch(/^x\.csv:1: missing column id/);
+  });
 });

@@ -57,7 +57,8 @@ function parseBytes(bytes: Buffer, start: number, sha256: string, file: string, 
   const lineText = (line: number) => (line === head.line ? head.text : lineAt((body ??= bytes.toString('utf8', start)), line));
   const whereCell = (line: number, index: number) => at(file, line, cellColumn(lineText(line), delimiter, index));
   const headers = splitHeaderLine(head.text, delimiter);
-  const specs = matchHeaders(headers, map, (i) => whereCell(head.line, i));
+  const skipped: string[] = [];
+  const specs = matchHeaders(headers, map, (i) => whereCell(head.line, i), skipped);
   const headerWhere = specs.map((c) => whereCell(head.line, c.index));
   checkRequired(specs, headers, opts.width, at(file, head.line));
   const cols = columnsFor(specs, capacity);
@@ -71,7 +72,7 @@ function parseBytes(bytes: Buffer, start: number, sha256: string, file: string, 
     },
     { cells: headers.length, column, specs, store: cols.store, scale: cols.scale, positive: cols.positive, limit: cols.limit },
   );
-  return finish({ file, sha256, headers, specs, headerWhere, store: cols.store, rows, lines, headLine: head.line, whereCell, totalLines, opts });
+  return finish({ file, sha256, headers, specs, skipped, headerWhere, store: cols.store, rows, lines, headLine: head.line, whereCell, totalLines, opts });
 }
 
 /** Header cells split like data cells (papaparse for text without quotes does the same). */
@@ -108,6 +109,7 @@ function parseText(text: string, sha256: string, file: string, opts: SweepOption
   let headers: string[] = [];
   let specs: ColumnSpec[] = [];
   let headerWhere: string[] = [];
+  const skipped: string[] = [];
   let store: Float64Array[] = [];
   let rows = 0;
   const whereCell = (line: number, index: number, places?: CellPlaces): string =>
@@ -125,7 +127,7 @@ function parseText(text: string, sha256: string, file: string, opts: SweepOption
     if (line <= head.line) {
       if (line === head.line) {
         headers = fields.map((h) => h.trim());
-        specs = matchHeaders(headers, map, (i) => whereCell(line, i, places));
+        specs = matchHeaders(headers, map, (i) => whereCell(line, i, places), skipped);
         headerWhere = specs.map((c) => whereCell(line, c.index, places));
         checkRequired(specs, headers, opts.width, at(file, line));
         ({ store, idx, scale, positive, limit } = columnsFor(specs, capacity));
@@ -161,7 +163,7 @@ function parseText(text: string, sha256: string, file: string, opts: SweepOption
     lines[rows++] = line;
     if (opts.onProgress && rows % PROGRESS_EVERY === 0) opts.onProgress(line, totalLines);
   });
-  return finish({ file, sha256, headers, specs, headerWhere, store, rows, lines, headLine: head.line, whereCell, totalLines, opts });
+  return finish({ file, sha256, headers, specs, skipped, headerWhere, store, rows, lines, headLine: head.line, whereCell, totalLines, opts });
 }
 
 interface Parsed {
@@ -169,6 +171,8 @@ interface Parsed {
   sha256: string;
   headers: string[];
   specs: ColumnSpec[];
+  /** Map keys that left a column out (`--map HEADER=skip`). */
+  skipped: string[];
   headerWhere: string[];
   store: Float64Array[];
   rows: number;
@@ -224,7 +228,7 @@ function finish(p: Parsed): Samples {
     lines: lines.subarray(0, rows),
     headers: p.headers,
     source,
-    mapped: specs.filter((s) => s.mapKey !== undefined).map((s) => s.mapKey!),
+    mapped: [...specs.filter((s) => s.mapKey !== undefined).map((s) => s.mapKey!), ...p.skipped],
   };
 }
 

@@ -31,7 +31,7 @@ export function registerIngest(program: Command): void {
     .requiredOption('--device <n|p>', 'device polarity', polarityFlag)
     .option('--corner <name>', 'corner name', 'tt')
     .option('--width <W>', 'device width when the CSV has no w column, or the width to keep when it has several', engFlag('--width'))
-    .option('--map <HEADER=QUANTITY>', `name a column: quantity one of ${QUANTITIES.join(', ')} (repeatable)`, collectMap)
+    .option('--map <HEADER=QUANTITY>', `name a column: quantity one of ${QUANTITIES.join(', ')}, or skip to leave it out (repeatable)`, collectMap)
     .option('--tables <dir>', 'tables folder to write into', 'tables')
     .option('--temperature <°C>', 'temperature of this corner', engFlag('--temperature'))
     .option('--avt <mV·µm>', 'Pelgrom threshold mismatch coefficient A_VT, in mV·µm', engFlag('--avt'))
