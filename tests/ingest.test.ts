@@ -843,4 +843,17 @@ describe('ingest: mistakes a designer bringing their own sweeps makes', () => {
     // Skipping a required column leaves it missing.
     expect(errorOf(() => ingestTexts([{ file: 'x.csv', text }], { ...N, map: { 'Id [A/um]': 'skip', id: 'skip' } })).message).toMatch(/^x\.csv:1: missing column id/);
   });
+
+  it('a file in Latin-1 / Windows-1252 (µ as the single byte 0xB5) is refused by name at the byte, not read as garbled text', () => {
+    // 0xB5 is µ in ISO 8859-1 and Windows-1252; in UTF-8 a lone byte 0x80..0xFF outside a multi-byte sequence is
+    // invalid (Unicode Standard, section 3.9, table 3-7). Before, the header read as "Id [\ufffdA]" and the message
+    // blamed the unit.
+    const text = csv('l,w,vgs,vds,vsb,Id [\u00b5A]', BASE_ROWS.map((r) => [...r.slice(0, 5), (r[5] as number) * 1e6]));
+    const latin1 = Buffer.from(text, 'latin1');
+    const want = 'l1.csv:1:21: the file is not UTF-8 text (byte 0xB5 here; Latin-1 or Windows-1252?); save it as UTF-8 (or UTF-16 with a byte-order mark)';
+    expect(errorOf(() => ingestTexts([{ file: 'l1.csv', text: latin1 }], N)).message).toBe(want);
+    expect(errorOf(() => ingestTexts([{ file: 'l1.csv', text: gzipSync(latin1) }], N)).message).toBe(want);
+    // The same header in UTF-8 is read, µA scaling the column.
+    expectSameTable(ingestTexts([{ file: 'u8.csv', text: Buffer.from(text, 'utf8') }], N), BASE);
+  });
 });
