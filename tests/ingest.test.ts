@@ -856,4 +856,14 @@ describe('ingest: mistakes a designer bringing their own sweeps makes', () => {
     // The same header in UTF-8 is read, µA scaling the column.
     expectSameTable(ingestTexts([{ file: 'u8.csv', text: Buffer.from(text, 'utf8') }], N), BASE);
   });
+
+  it('a file whose lines end in CR alone (a spreadsheet\'s "Macintosh" CSV) is refused by name, not read as one long header', () => {
+    // Line ends: LF (Unix), CR LF (Windows, RFC 4180), CR alone (classic Mac OS; common practice, from memory:
+    // still offered by spreadsheet programs as a Macintosh CSV format).
+    const text = csv('l,w,vgs,vds,vsb,id', BASE_ROWS, ',', '\r');
+    const want = 'cr.csv: lines end in CR alone (classic Mac OS line ends); save the file with LF or CR LF line ends';
+    expect(errorOf(() => ingestTexts([{ file: 'cr.csv', text }], N)).message).toBe(want);
+    expect(errorOf(() => ingestTexts([{ file: 'cr.csv', text: Buffer.from(text) }], N)).message).toBe(want);
+    expect(errorOf(() => ingestTexts([{ file: 'cr.csv', text: gzipSync(text) }], N)).message).toBe(want);
+  });
 });

@@ -9,7 +9,7 @@ import type { CellPlaces } from './quoted.js';
 import { forEachRow } from './rows.js';
 import { showList } from './show.js';
 import { mostlyNegativeAt, normaliseSigns } from './signs.js';
-import { countLines, decodeInput, findHeader, isCommentOrBlank, lineAt } from './text.js';
+import { checkLineEnds, countLines, decodeInput, findHeader, isCommentOrBlank, lineAt } from './text.js';
 import { countLinesBytes, readRowsFromBytes } from './parse-bytes.js';
 import type { Quantity, Samples, SweepOptions } from './types.js';
 
@@ -20,6 +20,8 @@ const PROGRESS_EVERY = 65536;
 export function parseSweep(input: string | Buffer, file: string, opts: SweepOptions): Samples {
   const raw = decodeInput(input, file);
   input = ''; // let a large raw buffer go while the text is parsed
+  if (raw.bytes) checkLineEnds(raw.bytes, 10, 13, raw.start, file);
+  else checkLineEnds(raw.text, '\n', '\r', 0, file);
   if (raw.bytes) {
     const fast = parseBytes(raw.bytes, raw.start, raw.sha256, file, opts);
     if (fast) return fast;

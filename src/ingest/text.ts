@@ -152,3 +152,15 @@ export function countLines(text: string): number {
   for (let i = text.indexOf('\n'); i >= 0; i = text.indexOf('\n', i + 1)) n++;
   return text.length > 0 && text[text.length - 1] !== '\n' ? n + 1 : n;
 }
+
+/**
+ * Lines that end in CR alone (classic Mac OS; a spreadsheet's "Macintosh" CSV) would read as one long header line:
+ * refused by name when the text has no LF but a CR with more text after it.
+ */
+export function checkLineEnds(t: { indexOf(v: number | string, from?: number): number; length: number }, lf: number | string, cr: number | string, start: number, file: string): void {
+  if (t.indexOf(lf, start) >= 0) return;
+  const at = t.indexOf(cr, start);
+  if (at >= 0 && at < t.length - 1) {
+    throw new StackwrightError('lines end in CR alone (classic Mac OS line ends); save the file with LF or CR LF line ends', { where: file });
+  }
+}
