@@ -41,3 +41,32 @@ describe('characterise (command line)', () => {
     expect(p.gmid).toBeGreaterThan(15);
   });
 });
+
+describe('characterise --out with a model file named relative to the current folder', () => {
+  // The README's one-step flow: `characterise ... --include ".lib models.lib tt" --out nfet_tt.csv` run where the
+  // models are. ngspice runs the deck in a folder of its own, so the path has to be taken from the user's folder.
+  const run = NGSPICE_PRESENT ? it : it.skip;
+  const models = join(TEST_LIB, '..');
+  const small = ['characterise', '--model', 'nch_test', '--device', 'n', '--l', '0.18u', '--vgs', '0:1.8:0.3', '--vds', '0:1.8:0.6', '--vsb', '0'];
+  run('a relative .lib line, quoted or not, runs and gives the same sweep as the absolute path', () => {
+    const abs = join(dir, 'abs.csv');
+    expect(cli([...small, '--include', `.lib '${TEST_LIB}' tt`, '--out', abs]).code).toBe(0);
+    const rel = join(dir, 'rel.csv');
+    const r = cli([...small, '--include', '.lib test-bsim4.lib tt', '--out', rel], { cwd: models });
+    expect(r.code, r.stderr).toBe(0);
+    expect(readFileSync(rel, 'utf8')).toBe(readFileSync(abs, 'utf8'));
+    const quoted = join(dir, 'quoted.csv');
+    expect(cli([...small, '--include', `.lib "./test-bsim4.lib" tt`, '--out', quoted], { cwd: models }).code).toBe(0);
+    expect(readFileSync(quoted, 'utf8')).toBe(readFileSync(abs, 'utf8'));
+  });
+
+  it('a model file that does not exist is bad input (exit 2) naming --include, and nothing is written', () => {
+    const out = join(dir, 'never.csv');
+    for (const include of ['no-such-models.lib', '.lib no-such-models.lib tt']) {
+      const r = cli([...small, '--include', include, '--out', out], { cwd: dir });
+      expect(r.code, r.stderr).toBe(2);
+      expect(r.stderr.trim()).toMatch(/^stackwright: --include .*no-such-models\.lib.*: model file not found$/);
+    }
+    expect(existsSync(out)).toBe(false);
+  });
+});

@@ -195,3 +195,44 @@ describe('size from the command line', () => {
     expectOneLineError(cli(['netlist', join(dir, 'junk.json')]), 2, /junk\.json: expected the JSON printed by/);
   });
 });
+
+describe('ingest tells what it did not keep', () => {
+  // Invented square-law sweep (Shichman–Hodges level 1, textbook form) split by length over two files, one of them
+  // with a cgg column: a quantity not in every file is dropped; the user hears it when ingesting, not only in `kits`.
+  const rows = (l: number, withCgg: boolean) =>
+    [0.4, 0.6, 0.8].flatMap((vgs) => [0, 0.5, 1].map((vds) => {
+      const id = (1e-4 * (vgs - 0.3) ** 2 * Math.tanh(vds / 0.1) * 1e-6 / l).toExponential(6);
+      return `${l},1e-6,${vgs},${vds},${id}${withCgg ? ',2e-15' : ''}`;
+    }));
+  const parts = (): [string, string] => {
+    const a = join(dir, 'part-a.csv');
+    const b = join(dir, 'part-b.csv');
+    writeFileSync(a, ['l,w,vgs,vds,id,cgg', ...rows(1e-6, true)].join('\n') + '\n');
+    writeFileSync(b, ['l,w,vgs,vds,id', ...rows(2e-6, false)].join('\n') + '\n');
+    return [a, b];
+  };
+  it('a quantity present in only some files is named on stderr and in the JSON summary', () => {
+    const [a, b] = parts();
+    const out = join(dir, 'parts');
+    const r = cli(['ingest', a, b, '--kit', 'parts', '--device', 'n', '--tables', out, '--note', 'mine']);
+    expect(r.code, r.stderr).toBe(0);
+    expect(r.stderr).toMatch(/^note: cgg ignored: not in every file$/m);
+    const j = cli(['ingest', a, b, '--kit', 'parts', '--device', 'n', '--tables', out, '--force', '--json']);
+    expect(JSON.parse(j.stdout).importNote).toBe('cgg ignored: not in every file');
+    // One complete file: nothing to say.
+    const one = cli(['ingest', a, '--kit', 'one', '--device', 'n', '--tables', out, '--json']);
+    expect(JSON.parse(one.stdout).importNote).toBeNull();
+  });
+
+  it('kits shows each table\'s note beside that table, not the first table\'s as the kit\'s', () => {
+    const [a, b] = parts();
+    const out = join(dir, 'noted');
+    expect(cli(['ingest', a, '--kit', 'noted', '--device', 'n', '--tables', out, '--note', 'my n sweep']).code).toBe(0);
+    expect(cli(['ingest', a, b, '--kit', 'noted', '--device', 'p', '--tables', out]).code).toBe(0);
+    const r = cli(['kits', '--tables', out]);
+    expect(r.code, r.stderr).toBe(0);
+    expect(r.stdout).toMatch(/^kit noted$/m);
+    expect(r.stdout).toMatch(/^note n-tt: my n sweep$/m);
+    expect(r.stdout).toMatch(/^note p-tt: cgg ignored: not in every file$/m);
+  });
+});

@@ -7,7 +7,7 @@
  */
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { dirname, join } from 'node:path';
+import { dirname, join, relative } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import type { DeviceTable } from '../src/table/types.js';
 import type { DesignSpec, StackSpec } from '../src/design/types.js';
@@ -74,6 +74,13 @@ describe('corner → library section mapping (model lines of each corner deck)',
     expect(() => cornerModels({ include: libLine('tt') }, 'tt', ['tt', 'ss'])).toThrow(/--include: a literal line serves one corner/);
     const cards = join(dirname(TEST_LIB), 'test-bsim4-cards.inc');
     expect(() => cornerModels({ include: cards, sections: { tt: 'tt' } }, 'tt', ['tt'])).toThrow(/has no \.lib sections/);
+  });
+  it('takes the file of a literal line from the current folder, as a plain path is (ngspice runs the deck elsewhere)', () => {
+    // SPICE3 `.lib FILE SECTION`: FILE relative to where the user typed it; ngspice would look in its own run folder.
+    const rel = relative(process.cwd(), TEST_LIB);
+    expect(cornerModels({ include: `.lib ${rel} tt` }, 'tt', ['tt'])).toBe(`.lib '${TEST_LIB}' tt`);
+    expect(cornerModels({ include: `.lib '${TEST_LIB}' tt` }, 'tt', ['tt'])).toBe(`.lib '${TEST_LIB}' tt`);
+    expect(() => cornerModels({ include: '.lib no-such-models.lib tt' }, 'tt', ['tt'])).toThrow(/^--include \.lib no-such-models\.lib tt: model file not found$/);
   });
 });
 

@@ -108,3 +108,16 @@ describe('netlist from size --json', () => {
     expect(net.stdout).toMatch(/^vstack vstack 0 dc 800m$/m);
   });
 });
+
+describe('probe flags that must be positive', () => {
+  // gm/ID, ID/W and W of a conducting transistor are positive (common practice); a zero or negative value is a
+  // typing mistake to be named by its flag, with the value as typed rather than a raw float such as -0.000001.
+  it('--gmid, --jd and --w at zero or below are one exit-2 line naming the flag', () => {
+    const base = ['probe', '--kit', 'demo180', '--device', 'n', '--l', '0.5u', '--tables', tables()];
+    expectOneLineError(cli([...base, '--gmid', '0']), 2, /^stackwright: --gmid: expected a positive value, got "0"$/);
+    expectOneLineError(cli([...base, '--jd', '-1']), 2, /^stackwright: --jd: expected a positive value, got "-1"$/);
+    expectOneLineError(cli([...base, '--vgs', '0.7', '--w', '-1u']), 2, /^stackwright: --w: expected a positive value, got "-1u"$/);
+    // A positive value still probes.
+    expect(cli([...base, '--gmid', '12', '--w', '2u', '--json']).code).toBe(0);
+  });
+});

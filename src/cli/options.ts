@@ -7,6 +7,15 @@ export function engFlag(flag: string) {
   return (value: string): number => parseEng(value, flag);
 }
 
+/** A value that must be above zero (gm/ID, ID/W, a width): refused at the flag, as typed. */
+export function positiveFlag(flag: string) {
+  return (value: string): number => {
+    const v = parseEng(value, flag);
+    if (!(v > 0)) throw new StackwrightError(`expected a positive value, got "${value}"`, { where: flag });
+    return v;
+  };
+}
+
 export function polarityFlag(value: string): Polarity {
   if (value !== 'n' && value !== 'p') throw new StackwrightError(`expected n or p, got "${value}"`, { where: '--device' });
   return value;

@@ -1,6 +1,7 @@
 import { existsSync, readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { StackwrightError } from '../errors.js';
+import { anchoredInclude } from '../spice/include.js';
 
 /** Where the simulation models come from: `--include` and the corner → library-section mapping. */
 export interface ModelSource {
@@ -32,7 +33,10 @@ export function cornerModels(src: ModelSource, corner: string, corners: readonly
     if (corners.length > 1) {
       throw new StackwrightError(`a literal line serves one corner, the spec has ${corners.length} (${corners.join(', ')}); give the model file and map corners with --section CORNER=SECTION`, { where: '--include' });
     }
-    return text;
+    // ngspice runs the deck in a folder of its own: the line's file is taken from ours, as a plain path is.
+    const anchored = anchoredInclude(text, process.cwd());
+    if (anchored.path !== undefined && !existsSync(anchored.path)) throw new StackwrightError('model file not found', { where: `--include ${text}` });
+    return anchored.include;
   }
   const path = resolve(text);
   if (!existsSync(path)) throw new StackwrightError('model file not found', { where: `--include ${text}` });

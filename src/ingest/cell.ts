@@ -8,8 +8,16 @@ import { parseEng, showText } from '../units/index.js';
  */
 export function readCell(cell: string, decimalComma: boolean): number {
   const v = +cell;
-  if (v - v === 0 && (v !== 0 || /\d/.test(cell))) return v;
+  if (v - v === 0 && (v !== 0 || /\d/.test(cell)) && !radixLiteral(v, cell)) return v;
   return slowCell(cell, decimalComma);
+}
+
+/**
+ * `+cell` also reads JavaScript's 0x10, 0o7 and 0b1 (integers, so only those are looked at): not decimal
+ * numbers, and not what SPICE reads either, so they go to the reader that refuses them.
+ */
+export function radixLiteral(v: number, cell: string): boolean {
+  return Number.isInteger(v) && /[xob]/i.test(cell);
 }
 
 function slowCell(cell: string, decimalComma: boolean): number {

@@ -37,14 +37,17 @@ function squash(name: string): string {
   return name.toLowerCase().replace(/[\s_.-]+/g, '');
 }
 
-export function checkMap(map: Record<string, string> | undefined): Map<string, Quantity> {
-  const out = new Map<string, Quantity>();
+/** `--map HEADER=skip`: leave a column out (an extra column named like a quantity, e.g. ID/W as "Id [A/um]"). */
+export const SKIP = 'skip';
+
+export function checkMap(map: Record<string, string> | undefined): Map<string, Quantity | typeof SKIP> {
+  const out = new Map<string, Quantity | typeof SKIP>();
   for (const [header, value] of Object.entries(map ?? {})) {
     const q = value.trim().toLowerCase();
-    if (!(QUANTITIES as readonly string[]).includes(q)) {
-      throw new StackwrightError(`unknown quantity ${showText(value)} for header ${showText(header)}; valid quantities: ${QUANTITIES.join(', ')}`, { where: '--map' });
+    if (q !== SKIP && !(QUANTITIES as readonly string[]).includes(q)) {
+      throw new StackwrightError(`unknown quantity ${showText(value)} for header ${showText(header)}; valid quantities: ${QUANTITIES.join(', ')} (or ${SKIP} to leave the column out)`, { where: '--map' });
     }
-    out.set(header.trim().toLowerCase(), q as Quantity);
+    out.set(header.trim().toLowerCase(), q as Quantity | typeof SKIP);
   }
   return out;
 }
@@ -55,7 +58,7 @@ export function checkMap(map: Record<string, string> | undefined): Map<string, Q
  * each was named.
  * `where(i)` gives the location of header cell i for messages.
  */
-export function matchHeaders(headers: string[], map: Map<string, Quantity>, where: (i: number) => string): ColumnSpec[] {
+export function matchHeaders(headers: string[], map: Map<string, Quantity | typeof SKIP>, where: (i: number) => string, skipped: string[] = []): ColumnSpec[] {
   const chosen = new Map<Quantity, ColumnSpec>();
   headers.forEach((header, index) => {
     const { name, unit } = splitHeader(header);
@@ -64,13 +67,18 @@ export function matchHeaders(headers: string[], map: Map<string, Quantity>, wher
     let quantity: Quantity | undefined;
     let scale = 1;
     if (mapKey !== undefined) {
-      quantity = map.get(mapKey)!;
+      const mapped = map.get(mapKey)!;
+      if (mapped === SKIP) {
+        skipped.push(mapKey);
+        return;
+      }
+      quantity = mapped;
       // Mapped by full text, brackets may be part of a simulator name (i(vd)): scale only when they read as a unit.
       if (unit !== undefined) scale = mapKey === key ? unitScale(unit, quantity) ?? 1 : requireUnit(unit, quantity, header, where(index));
     } else {
       quantity = ALIASES[squash(name)];
       if (quantity === undefined) return;
-      if (unit !== undefined) scale = requireUnit(unit, quantity, header, where(index));
+      if (unit !== undefined) scale = requireUnit(unit, quantity, header, where(index), true);
     }
     const prev = chosen.get(quantity);
     if (prev) {
@@ -88,10 +96,12 @@ export function matchHeaders(headers: string[], map: Map<string, Quantity>, wher
   return [...chosen.values()].sort((a, b) => a.index - b.index);
 }
 
-function requireUnit(unit: string, q: Quantity, header: string, where: string): number {
+function requireUnit(unit: string, q: Quantity, header: string, where: string, named = false): number {
   const s = unitScale(unit, q);
   if (s === undefined) {
-    throw new StackwrightError(`column ${showText(header)}: unit ${showText(unit)} does not fit ${q} (use ${unitExamples(q)})`, { where });
+    // A column named like a quantity by itself may be something else (ID/W beside ID): say how to leave it out.
+    const out = named ? `, or leave the column out with --map ${showText(`${header.trim()}=${SKIP}`)}` : '';
+    throw new StackwrightError(`column ${showText(header)}: unit ${showText(unit)} does not fit ${q} (use ${unitExamples(q)})${out}`, { where });
   }
   return s;
 }

@@ -1,6 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { StackwrightError } from '../errors.js';
 import { AXES, UNITS, type DeviceTable, type StoredQuantity, type TableMeta } from '../table/types.js';
+import { checkPlainName } from '../table/validate.js';
 import { showText } from '../units/index.js';
 import { deriveAlong, describeDerivative } from './derive.js';
 import { checkConditions } from './conditions.js';
@@ -48,6 +49,9 @@ export function ingestTexts(inputs: SweepInput[], opts: IngestOptions): DeviceTa
 
 function ingestLazy(inputs: Array<{ file: string; load: () => string | Buffer }>, opts: IngestOptions): DeviceTable {
   if (inputs.length === 0) throw new StackwrightError('no input files given');
+  // The names become the table's path: refuse a bad one before a long file is read.
+  checkPlainName('kit', opts.kit, '--kit');
+  checkPlainName('corner', opts.corner ?? 'tt', '--corner');
   checkMap(opts.map);
   checkConditions(opts);
   let doneBefore = 0;

@@ -25,7 +25,9 @@ export function limitOf(q: Quantity): number {
 export function outOfRange(cell: string, header: string, q: Quantity, value: number, where: string): StackwrightError {
   const lim = LIMIT[dimensionOf(q)];
   return new StackwrightError(
-    `column ${showText(header)}: ${showText(cell.trim())} (${showValue(value, UNIT[dimensionOf(q)])}) is outside the accepted range for ${q}: ${lim.text}`,
+    `column ${showText(header)}: ${showText(cell.trim())} (${showValue(value, UNIT[dimensionOf(q)])}) is outside the accepted range for ${q}: ${lim.text}` +
+      // A size above 1 m is a column in um or nm, as the plausibility check says of smaller ones.
+      (dimensionOf(q) === 'length' && value > 0 ? '; check the unit in the header or name one with --map' : ''),
     { where },
   );
 }

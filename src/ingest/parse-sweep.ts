@@ -1,6 +1,6 @@
 import { StackwrightError, at } from '../errors.js';
 import { formatEng, showText } from '../units/index.js';
-import { badCell, readCell } from './cell.js';
+import { badCell, radixLiteral, readCell } from './cell.js';
 import { cellColumn, detectDelimiter, type Delimiter } from './delimiter.js';
 import { checkMap, matchHeaders, type ColumnSpec } from './headers.js';
 import { limitOf, outOfRange } from './limits.js';
@@ -8,8 +8,8 @@ import { allZero, checkPlausible, magnitudeRange, oppositeSignRow } from './plau
 import type { CellPlaces } from './quoted.js';
 import { forEachRow } from './rows.js';
 import { showList } from './show.js';
-import { normaliseSigns } from './signs.js';
-import { countLines, decodeInput, findHeader, isCommentOrBlank, lineAt } from './text.js';
+import { mostlyNegativeAt, normaliseSigns } from './signs.js';
+import { checkLineEnds, countLines, decodeInput, findHeader, isCommentOrBlank, lineAt } from './text.js';
 import { countLinesBytes, readRowsFromBytes } from './parse-bytes.js';
 import type { Quantity, Samples, SweepOptions } from './types.js';
 
@@ -20,6 +20,8 @@ const PROGRESS_EVERY = 65536;
 export function parseSweep(input: string | Buffer, file: string, opts: SweepOptions): Samples {
   const raw = decodeInput(input, file);
   input = ''; // let a large raw buffer go while the text is parsed
+  if (raw.bytes) checkLineEnds(raw.bytes, 10, 13, raw.start, file);
+  else checkLineEnds(raw.text, '\n', '\r', 0, file);
   if (raw.bytes) {
     const fast = parseBytes(raw.bytes, raw.start, raw.sha256, file, opts);
     if (fast) return fast;
@@ -57,7 +59,8 @@ function parseBytes(bytes: Buffer, start: number, sha256: string, file: string, 
   const lineText = (line: number) => (line === head.line ? head.text : lineAt((body ??= bytes.toString('utf8', start)), line));
   const whereCell = (line: number, index: number) => at(file, line, cellColumn(lineText(line), delimiter, index));
   const headers = splitHeaderLine(head.text, delimiter);
-  const specs = matchHeaders(headers, map, (i) => whereCell(head.line, i));
+  const skipped: string[] = [];
+  const specs = matchHeaders(headers, map, (i) => whereCell(head.line, i), skipped);
   const headerWhere = specs.map((c) => whereCell(head.line, c.index));
   checkRequired(specs, headers, opts.width, at(file, head.line));
   const cols = columnsFor(specs, capacity);
@@ -71,7 +74,7 @@ function parseBytes(bytes: Buffer, start: number, sha256: string, file: string, 
     },
     { cells: headers.length, column, specs, store: cols.store, scale: cols.scale, positive: cols.positive, limit: cols.limit },
   );
-  return finish({ file, sha256, headers, specs, headerWhere, store: cols.store, rows, lines, headLine: head.line, whereCell, totalLines, opts });
+  return finish({ file, sha256, headers, specs, skipped, headerWhere, store: cols.store, rows, lines, headLine: head.line, whereCell, totalLines, opts });
 }
 
 /** Header cells split like data cells (papaparse for text without quotes does the same). */
@@ -108,6 +111,7 @@ function parseText(text: string, sha256: string, file: string, opts: SweepOption
   let headers: string[] = [];
   let specs: ColumnSpec[] = [];
   let headerWhere: string[] = [];
+  const skipped: string[] = [];
   let store: Float64Array[] = [];
   let rows = 0;
   const whereCell = (line: number, index: number, places?: CellPlaces): string =>
@@ -125,7 +129,7 @@ function parseText(text: string, sha256: string, file: string, opts: SweepOption
     if (line <= head.line) {
       if (line === head.line) {
         headers = fields.map((h) => h.trim());
-        specs = matchHeaders(headers, map, (i) => whereCell(line, i, places));
+        specs = matchHeaders(headers, map, (i) => whereCell(line, i, places), skipped);
         headerWhere = specs.map((c) => whereCell(line, c.index, places));
         checkRequired(specs, headers, opts.width, at(file, line));
         ({ store, idx, scale, positive, limit } = columnsFor(specs, capacity));
@@ -145,7 +149,7 @@ function parseText(text: string, sha256: string, file: string, opts: SweepOption
     for (let j = 0; j < idx.length; j++) {
       const cell = fields[idx[j]];
       let v = +cell;
-      if (v - v !== 0 || (v === 0 && !hasDigit(cell))) {
+      if (v - v !== 0 || (v === 0 && !hasDigit(cell)) || radixLiteral(v, cell)) {
         v = readCell(cell, decimalComma);
         if (v !== v) throw badCell(cell, specs[j].header, whereCell(line, idx[j], places));
       }
@@ -161,7 +165,7 @@ function parseText(text: string, sha256: string, file: string, opts: SweepOption
     lines[rows++] = line;
     if (opts.onProgress && rows % PROGRESS_EVERY === 0) opts.onProgress(line, totalLines);
   });
-  return finish({ file, sha256, headers, specs, headerWhere, store, rows, lines, headLine: head.line, whereCell, totalLines, opts });
+  return finish({ file, sha256, headers, specs, skipped, headerWhere, store, rows, lines, headLine: head.line, whereCell, totalLines, opts });
 }
 
 interface Parsed {
@@ -169,6 +173,8 @@ interface Parsed {
   sha256: string;
   headers: string[];
   specs: ColumnSpec[];
+  /** Map keys that left a column out (`--map HEADER=skip`). */
+  skipped: string[];
   headerWhere: string[];
   store: Float64Array[];
   rows: number;
@@ -205,6 +211,7 @@ function finish(p: Parsed): Samples {
   }
   if (!columns.vsb) columns.vsb = new Float64Array(rows);
   const cols = columns as Samples['columns'];
+  if (opts.device === 'n') refuseNegativeSweep(cols, specs, lines, whereCell);
   normaliseSigns(cols, opts.device);
   const flipped = oppositeSignRow(cols.id);
   if (flipped >= 0) {
@@ -223,8 +230,21 @@ function finish(p: Parsed): Samples {
     lines: lines.subarray(0, rows),
     headers: p.headers,
     source,
-    mapped: specs.filter((s) => s.mapKey !== undefined).map((s) => s.mapKey!),
+    mapped: [...specs.filter((s) => s.mapKey !== undefined).map((s) => s.mapKey!), ...p.skipped],
   };
+}
+
+/** Mostly negative VGS or VDS is a p-type sweep in simulator signs: read as n-type it made negative axes. */
+function refuseNegativeSweep(cols: Samples['columns'], specs: ColumnSpec[], lines: Int32Array, whereCell: (line: number, index: number) => string): void {
+  for (const q of ['vgs', 'vds'] as const) {
+    const i = mostlyNegativeAt(cols[q]);
+    if (i < 0) continue;
+    const spec = specs.find((s) => s.quantity === q)!;
+    throw new StackwrightError(
+      `column ${showText(spec.header)}: most ${q} values are negative, as a p-type sweep in simulator signs has them; an n-type sweep has ${q} >= 0: pass --device p, or fix the sign`,
+      { where: whereCell(lines[i], spec.index) },
+    );
+  }
 }
 
 function hasDigit(cell: string): boolean {

@@ -6,6 +6,13 @@ import { hermiteAt, pchipSlopes } from '../numeric/pchip.js';
 
 const NAMES = ['vgs', 'vds', 'vsb'] as const;
 
+/**
+ * Missing points in a row of a length's own sweep that are still filled; a longer run is refused: the curve
+ * through its ends says little about what lies between (two missing 50 mV points near threshold were already
+ * filled 5 % off, tests/ingest.test.ts), and a lost run of a sweep is to be simulated, not guessed.
+ */
+export const MAX_HOLE = 1;
+
 function median(a: number[]): number {
   const s = [...a].sort((x, y) => x - y);
   return s[s.length >> 1];
@@ -82,9 +89,18 @@ function resampleAxis(src: Float64Array, axes: Float64Array[], k: number, target
       xs.length = 0;
       ys.length = 0;
       let positive = true;
+      let last = -1;
       for (let i = 0; i < n; i++) {
         const y = src[(o * n + i) * stride + inner];
         if (y === y) {
+          if (last >= 0 && i - last - 1 > MAX_HOLE) {
+            const line = lineLabel(axes, k, o, inner, dims);
+            throw new StackwrightError(
+              `L=${formatEng(l, 'm', 4)}${line}: no ${NAMES[k]} samples between ${showValue(axes[k][last], 'V')} and ${showValue(axes[k][i], 'V')} (${i - last - 1} points in a row missing); only a single missing point is filled: simulate those bias points`,
+              { where: file },
+            );
+          }
+          last = i;
           xs.push(axes[k][i]);
           ys.push(y);
           if (!(y > 0)) positive = false;

@@ -36,3 +36,16 @@ export function normaliseSigns(columns: Samples['columns'], device: Polarity): v
     if (a) absInPlace(a);
   }
 }
+
+/** First negative value when most non-zero values are negative, else -1 (an n-type sweep has VGS, VDS >= 0). */
+export function mostlyNegativeAt(a: Float64Array): number {
+  let neg = 0;
+  let pos = 0;
+  let first = -1;
+  for (let i = 0; i < a.length; i++) {
+    if (a[i] < 0) {
+      if (neg++ === 0) first = i;
+    } else if (a[i] > 0) pos++;
+  }
+  return neg > pos ? first : -1;
+}

@@ -1,3 +1,4 @@
+import { isUtf8 } from 'node:buffer';
 import { createHash } from 'node:crypto';
 import { gunzipSync } from 'node:zlib';
 import { StackwrightError } from '../errors.js';
@@ -25,6 +26,7 @@ export function decodeInput(input: string | Buffer, file: string): { sha256: str
   const utf16or32 = bytes.length >= 2 && ((bytes[0] === 0xff && bytes[1] === 0xfe) || (bytes[0] === 0xfe && bytes[1] === 0xff) || (bytes[0] === 0 && bytes[1] === 0));
   const nul = bytes.subarray(0, 64).indexOf(0) >= 0;
   if (utf16or32 || nul) return { text: stripBom(bytesToText(bytes, file)), sha256 };
+  checkUtf8(bytes, file);
   const bom = bytes.length >= 3 && bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf;
   return { bytes, start: bom ? 3 : 0, sha256 };
 }
@@ -71,7 +73,37 @@ export function bytesToText(b: Buffer, file: string): string {
     if (evenNul || oddNul) throw encodingError(`UTF-16 without a byte-order mark (${evenNul ? 'little' : 'big'}-endian by its NUL bytes)`, file);
     throw new StackwrightError('binary data (NUL bytes) in the first line: not a text sweep file', { where: file });
   }
+  checkUtf8(b, file);
   return b.toString('utf8');
+}
+
+/**
+ * Bytes that are not UTF-8 (a Windows tool's Latin-1 / Windows-1252 "µA" header) are refused at the first bad
+ * byte: decoded anyway they turn into U+FFFD and the message blames the wrong thing.
+ */
+function checkUtf8(b: Buffer, file: string): void {
+  if (isUtf8(b)) return;
+  const off = firstBadUtf8(b);
+  const lineStart = b.lastIndexOf(10, off - 1) + 1;
+  let line = 1;
+  for (let i = b.indexOf(10); i >= 0 && i < off; i = b.indexOf(10, i + 1)) line++;
+  const column = b.toString('utf8', lineStart, off).length + 1;
+  const byte = b[off].toString(16).toUpperCase().padStart(2, '0');
+  throw new StackwrightError(`the file is not UTF-8 text (byte 0x${byte} here; Latin-1 or Windows-1252?); save it as UTF-8 (or UTF-16 with a byte-order mark)`, {
+    where: `${file}:${line}:${column}`,
+  });
+}
+
+/** Offset of the first byte that breaks UTF-8's lead/continuation structure (Unicode Standard, table 3-7). */
+function firstBadUtf8(b: Buffer): number {
+  for (let i = 0; i < b.length; ) {
+    const c = b[i];
+    const n = c < 0x80 ? 0 : c >= 0xc2 && c <= 0xdf ? 1 : c >= 0xe0 && c <= 0xef ? 2 : c >= 0xf0 && c <= 0xf4 ? 3 : -1;
+    if (n < 0) return i;
+    for (let k = 1; k <= n; k++) if (i + k >= b.length || (b[i + k] & 0xc0) !== 0x80) return i;
+    i += n + 1;
+  }
+  return 0; // valid structure but refused (an overlong or surrogate form): point at the start
 }
 
 function utf16(body: Buffer, file: string, name: string): string {
@@ -119,4 +151,16 @@ export function countLines(text: string): number {
   let n = 0;
   for (let i = text.indexOf('\n'); i >= 0; i = text.indexOf('\n', i + 1)) n++;
   return text.length > 0 && text[text.length - 1] !== '\n' ? n + 1 : n;
+}
+
+/**
+ * Lines that end in CR alone (classic Mac OS; a spreadsheet's "Macintosh" CSV) would read as one long header line:
+ * refused by name when the text has no LF but a CR with more text after it.
+ */
+export function checkLineEnds(t: { indexOf(v: number | string, from?: number): number; length: number }, lf: number | string, cr: number | string, start: number, file: string): void {
+  if (t.indexOf(lf, start) >= 0) return;
+  const at = t.indexOf(cr, start);
+  if (at >= 0 && at < t.length - 1) {
+    throw new StackwrightError('lines end in CR alone (classic Mac OS line ends); save the file with LF or CR LF line ends', { where: file });
+  }
 }

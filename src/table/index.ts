@@ -4,7 +4,7 @@ export { RegularGridInterpolator } from '../numeric/grid-interpolator.js';
 export type { GridOptions, OutOfBounds } from '../numeric/grid-interpolator.js';
 export { rangeError } from '../numeric/range-error.js';
 export { tableLabel } from './label.js';
-export { validateTable, checkAxes, checkMeta, pointName } from './validate.js';
+export { validateTable, checkAxes, checkMeta, checkPlainName, pointName } from './validate.js';
 export { MAGIC, encodeTable, decodeTable, decodeHeader } from './codec.js';
 export type { TableHeader, BlockLayout } from './codec.js';
 export {

@@ -7,6 +7,13 @@ import type { DeviceTable, TableMeta } from './types.js';
 /** Kit and corner names become folder and file names, so keep them plain. */
 const NAME = /^[A-Za-z0-9_+][A-Za-z0-9._+-]*$/;
 
+/** A kit or corner name given by the user (`--kit`, `--corner`), checked before any work is done with it. */
+export function checkPlainName(kind: 'kit' | 'corner', name: string, where: string): void {
+  if (!NAME.test(name)) {
+    throw new StackwrightError(`${kind} name ${JSON.stringify(name)} is not a plain name (letters, digits, . _ + -, not starting with . or -): it becomes a folder or file name`, { where });
+  }
+}
+
 /** Checks meta fields a stored table relies on; `where` names the file or table. */
 export function checkMeta(meta: TableMeta, where: string): void {
   const fail = (msg: string): never => {

@@ -31,7 +31,7 @@ export function registerIngest(program: Command): void {
     .requiredOption('--device <n|p>', 'device polarity', polarityFlag)
     .option('--corner <name>', 'corner name', 'tt')
     .option('--width <W>', 'device width when the CSV has no w column, or the width to keep when it has several', engFlag('--width'))
-    .option('--map <HEADER=QUANTITY>', `name a column: quantity one of ${QUANTITIES.join(', ')} (repeatable)`, collectMap)
+    .option('--map <HEADER=QUANTITY>', `name a column: quantity one of ${QUANTITIES.join(', ')}, or skip to leave it out (repeatable)`, collectMap)
     .option('--tables <dir>', 'tables folder to write into', 'tables')
     .option('--temperature <°C>', 'temperature of this corner', engFlag('--temperature'))
     .option('--avt <mV·µm>', 'Pelgrom threshold mismatch coefficient A_VT, in mV·µm', engFlag('--avt'))
@@ -71,6 +71,8 @@ export function registerIngest(program: Command): void {
         vds: [axes.vds[0], axes.vds[axes.vds.length - 1], axes.vds.length],
         vsb: [axes.vsb[0], axes.vsb[axes.vsb.length - 1], axes.vsb.length],
         derived: meta.derived,
+        // What the import did beyond reading (columns dropped, points resampled), after the user's own --note.
+        importNote: importNote(meta.note, f.note),
       };
       if (f.json) {
         out(toJson(summary));
@@ -82,5 +84,13 @@ export function registerIngest(program: Command): void {
           `${axes.vgs.length} vgs x ${axes.vds.length} vds x ${axes.vsb.length} vsb` +
           (Object.keys(meta.derived).length ? `; derived: ${Object.keys(meta.derived).join(', ')}` : ''),
       );
+      if (summary.importNote !== null) note(`note: ${summary.importNote}`);
     });
+}
+
+/** The table's note without the user's --note in front (ingest joins them with '; '). */
+function importNote(stored: string | undefined, user: string | undefined): string | null {
+  if (stored === undefined) return null;
+  const rest = user === undefined ? stored : stored.slice(user.length).replace(/^; /, '');
+  return rest === '' ? null : rest;
 }

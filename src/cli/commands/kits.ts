@@ -26,8 +26,10 @@ export function registerKits(program: Command): void {
       out(`tables: ${dir}`);
       for (const k of kits) {
         out('');
-        const first = k.tables[0];
-        out(`kit ${k.kit}${first?.note ? ` — ${first.note}` : ''}`);
+        // A note every table carries (a demo kit's label) describes the kit; other notes belong to their table.
+        const first = k.tables[0]?.note;
+        const shared = first !== undefined && k.tables.every((t) => t.note === first) ? first : undefined;
+        out(`kit ${k.kit}${shared ? ` — ${shared}` : ''}`);
         const range = ([a, b]: [number, number]): string => `${formatEng(a, 'V')}..${formatEng(b, 'V')}`;
         out(
           renderTable(
@@ -47,6 +49,7 @@ export function registerKits(program: Command): void {
             { align: ['left', 'right', 'left', 'right', 'left', 'left', 'left', 'left', 'left', 'left'] },
           ),
         );
+        if (shared === undefined) for (const t of k.tables) if (t.note) out(`note ${t.device}-${t.corner}: ${t.note}`);
         for (const b of k.broken) out(`broken table ${b.name}: ${b.error}`);
       }
       const broken = kits.reduce((n, k) => n + k.broken.length, 0);

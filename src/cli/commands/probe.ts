@@ -7,7 +7,7 @@ import { readTableAround } from '../../table/partial.js';
 import { tablePath } from '../../table/store.js';
 import { renderTable } from '../../report/text.js';
 import { formatEng } from '../../units/index.js';
-import { engFlag, polarityFlag } from '../options.js';
+import { engFlag, polarityFlag, positiveFlag } from '../options.js';
 import { out, tablesDirFor, toJson } from '../io.js';
 
 interface ProbeFlags {
@@ -33,12 +33,12 @@ export function registerProbe(program: Command): void {
     .requiredOption('--device <n|p>', 'device polarity', polarityFlag)
     .option('--corner <name>', 'corner', 'tt')
     .requiredOption('--l <length>', 'channel length (may lie between table lengths), e.g. 0.5u', engFlag('--l'))
-    .option('--gmid <1/V>', 'bias by gm/ID', engFlag('--gmid'))
+    .option('--gmid <1/V>', 'bias by gm/ID', positiveFlag('--gmid'))
     .option('--vgs <V>', 'bias by gate-source voltage (magnitude)', engFlag('--vgs'))
-    .option('--jd <A/m>', 'bias by current density ID/W, e.g. 10 (A/m = µA/µm)', engFlag('--jd'))
+    .option('--jd <A/m>', 'bias by current density ID/W, e.g. 10 (A/m = µA/µm)', positiveFlag('--jd'))
     .option('--vds <V>', 'drain-source voltage magnitude (default: middle of the table vds axis)', engFlag('--vds'))
     .option('--vsb <V>', 'source-bulk voltage magnitude', engFlag('--vsb'), 0)
-    .option('--w <width>', 'width for absolute currents (default: the table reference width)', engFlag('--w'))
+    .option('--w <width>', 'width for absolute currents (default: the table reference width)', positiveFlag('--w'))
     .option('--tables <dir>', 'tables folder')
     .option('--json', 'print JSON')
     .addHelpText('after', '\nExample:\n  stackwright probe --kit demo180 --device n --l 0.5u --gmid 12 --vds 0.6\n')
