@@ -61,13 +61,14 @@ describe('nearest points of a spec with several corners', () => {
     const spec = { ...sink('50meg', 0.36, '40u'), corners: ['tt', 'ff', 'ss'] };
     const s = sizeSpec(spec, k180).result.stacks[0];
     expect(s.feasible).toBe(false);
-    expect(s.binding?.corner).not.toBe('tt');
+    const corner = s.binding?.corner ?? '';
+    expect(corner).toMatch(/^(ff|ss)$/);
     expect(s.nearest?.corner).toBe('tt');
     expect(s.nearest?.routAtHeadroom).toBeGreaterThanOrEqual(50e6);
     const text = statusLine(s);
     expect(text).toMatch(/at the headroom target Rout reaches [\d.]+ MΩ at corner tt/);
     // The shown design really misses at the binding corner when re-evaluated there.
-    const re = evaluateAtCorner(s, spec.stacks[0], k180, s.binding!.corner, spec.supply);
+    const re = evaluateAtCorner(s, spec.stacks[0], k180, corner, spec.supply);
     expect(re.feasible).toBe(false);
   });
 });
