@@ -1,5 +1,6 @@
 import { StackwrightError } from '../errors.js';
-import type { SizeResult } from './types.js';
+import type { SizeResult, StackResult } from './types.js';
+import { NAME, NAME_RULE } from '../design/parse.js';
 
 /**
  * A saved `size --json` result read back as a SizeResult, checked far enough for
@@ -38,7 +39,42 @@ export function parseSizeResult(text: string, where: string): SizeResult {
         if (typeof d?.[key] !== 'number') throw new StackwrightError(`expected a number`, { where: `${where}: stacks[${i}].devices[${k}].${key}` });
       }
     });
+    checkStackForDeck(s, `${where}: stacks[${i}]`);
   });
   for (const s of r.stacks) if (s.predicted && s.predicted.headroom === null) s.predicted.headroom = Infinity;
   return r as SizeResult;
+}
+
+const ROLES = ['bottom', 'middle', 'top'];
+
+/** A positive number (SPICE3: a MOSFET's W and L, a bias current), else a one-line error at `where`. */
+function positive(x: unknown, where: string): void {
+  if (typeof x !== 'number' || !(x > 0)) throw new StackwrightError(`expected a positive number, got ${JSON.stringify(x) ?? 'nothing'}`, { where });
+}
+
+/**
+ * What a netlist writes from a stack, checked so a hand-edited result fails here with the
+ * field named rather than as `W=NaN`, a negative width, a line break inside a comment or a crash:
+ * name, type, roles, positive widths and lengths, the bias devices and the predicted figures.
+ */
+function checkStackForDeck(s: StackResult, at: string): void {
+  if (typeof s.name !== 'string' || !NAME.test(s.name)) throw new StackwrightError(`stack names use ${NAME_RULE}; got ${JSON.stringify(s.name) ?? 'nothing'}`, { where: `${at}.name` });
+  if (s.device !== 'n' && s.device !== 'p') throw new StackwrightError(`expected "n" or "p", got ${JSON.stringify(s.device) ?? 'nothing'}`, { where: `${at}.device` });
+  s.devices.forEach((d, k) => {
+    if (!ROLES.includes(d.role)) throw new StackwrightError(`expected one of ${ROLES.join(', ')}, got ${JSON.stringify(d.role) ?? 'nothing'}`, { where: `${at}.devices[${k}].role` });
+    positive(d.w, `${at}.devices[${k}].w`);
+    positive(d.l, `${at}.devices[${k}].l`);
+  });
+  if (!Array.isArray(s.bias)) throw new StackwrightError('expected a list of bias devices', { where: `${at}.bias` });
+  s.bias.forEach((b, j) => {
+    const bw = `${at}.bias[${j}]`;
+    if (!b || typeof b !== 'object') throw new StackwrightError('expected a bias device', { where: bw });
+    if (!ROLES.includes(b.drives)) throw new StackwrightError(`expected one of ${ROLES.join(', ')}, got ${JSON.stringify(b.drives) ?? 'nothing'}`, { where: `${bw}.drives` });
+    for (const key of ['w', 'l', 'current'] as const) positive(b[key], `${bw}.${key}`);
+    if (typeof b.voltage !== 'number') throw new StackwrightError('expected a number', { where: `${bw}.voltage` });
+  });
+  const p = s.predicted;
+  if (!p || typeof p !== 'object' || typeof p.iout !== 'number' || typeof p.rout !== 'number' || !(typeof p.headroom === 'number' || p.headroom === null)) {
+    throw new StackwrightError('expected the predicted iout, rout and headroom (numbers; headroom may be null)', { where: `${at}.predicted` });
+  }
 }
