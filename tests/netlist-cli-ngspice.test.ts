@@ -88,3 +88,55 @@ withNgspice('netlist of a size result, run as written by ngspice (reference simu
     expect(existsSync(out)).toBe(false);
   });
 });
+
+withNgspice('netlists of the sizes size --spice confirmed (reference simulator: ngspice)', () => {
+  // One stack on the invented reed180 kit that simulation corrects (its ss current is 1 % off in the tables' design).
+  const ONE = `kit: reed180
+corner: [tt, ss]
+supply: 1.8
+stacks:
+  - {name: ota-tail, device: n, topology: cascode, current: 40u, rout: 20meg, headroom: 0.5, span: 1.6}
+`;
+  type Sized = { stacks: Array<{ devices: Array<{ w: number; l: number }>; corrected?: { devices: Array<{ w: number }> } }> };
+  let sized: Sized;
+  let d: string;
+  beforeAll(() => {
+    d = mkdtempSync(join(tmpdir(), 'sw-netlist-spice-'));
+    writeFileSync(join(d, 'one.yaml'), ONE);
+    const r = cli(['size', join(d, 'one.yaml'), '--spice', '--include', 'demo-tables/reed180/reed180.lib', '--model-n', 'nfet_reed', '--model-p', 'pfet_reed',
+      '--json', '--netlist', join(d, 'size.cir')]);
+    expect(r.code, r.stderr).toBe(0);
+    writeFileSync(join(d, 'one.json'), r.stdout);
+    sized = JSON.parse(r.stdout);
+    expect(sized.stacks[0].corrected, 'the case needs a corrected design').toBeDefined();
+  }, 120_000);
+
+  const mCards = (deck: string) => deck.split('\n').filter((l) => /^m_/.test(l));
+  const spiceW = (card: string) => {
+    // SPICE3 number suffixes (read independently of src/units); total width = W x m
+    const m = / W=([\d.e+-]+)(meg|[munpk])? L=\S+(?: m=(\d+))?/.exec(card)!;
+    const scale: Record<string, number> = { meg: 1e6, k: 1e3, m: 1e-3, u: 1e-6, n: 1e-9, p: 1e-12 };
+    return Number(m[1]) * (m[2] ? scale[m[2]] : 1) * (m[3] ? Number(m[3]) : 1);
+  };
+
+  it('size --spice --netlist names the models and the nominal corner\'s library section it simulated with, and runs as written', () => {
+    const deck = readFileSync(join(d, 'size.cir'), 'utf8');
+    expect(deck).toMatch(/^\.lib '\/.*\/demo-tables\/reed180\/reed180\.lib' tt$/m);
+    expect(deck).not.toMatch(/nmos_model|pmos_model/);
+    const run = ngspice(join(d, 'size.cir'), mkdtempSync(join(tmpdir(), 'sw-netlist-run-')));
+    expect(run.status, run.stdout + run.stderr).toBe(0);
+    expect(run.stdout + run.stderr).not.toMatch(/error|warning/i);
+  });
+
+  it('netlist of a size --spice --json result writes the corrected sizes, as size --netlist does', () => {
+    const out = join(d, 'netlist.cir');
+    const r = cli(['netlist', join(d, 'one.json'), '--include', 'demo-tables/reed180/reed180.lib', '--model-n', 'nfet_reed', '--model-p', 'pfet_reed', '--out', out]);
+    expect(r.code, r.stderr).toBe(0);
+    const cards = mCards(readFileSync(out, 'utf8'));
+    expect(cards).toEqual(mCards(readFileSync(join(d, 'size.cir'), 'utf8')));
+    const want = sized.stacks[0].corrected!.devices.map((x) => x.w);
+    cards.forEach((c, k) => expect(spiceW(c) / want[k] - 1).toBeLessThan(1e-5));
+    // and they differ from the tables' widths, so the check can fail
+    expect(Math.abs(spiceW(cards[0]) / sized.stacks[0].devices[0].w - 1)).toBeGreaterThan(1e-4);
+  });
+});

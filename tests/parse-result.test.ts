@@ -90,6 +90,13 @@ describe('parseSizeResult: a hand-edited or damaged result is refused before a n
     expect(bad((r) => (r.stacks[0].bias[1].current = 0)).where).toBe('r.json: stacks[0].bias[1].current');
     expect(bad((r) => ((r.stacks[0].bias[1] as { voltage: unknown }).voltage = null)).where).toBe('r.json: stacks[0].bias[1].voltage');
     expect(bad((r) => ((r.stacks[0] as { bias: unknown }).bias = undefined)).where).toBe('r.json: stacks[0].bias');
+    // the sizes size --spice confirmed, which a netlist writes instead of the tables' design
+    const corrected = (w: number) => (r: Good) => Object.assign(r.stacks[0], { corrected: { devices: [{ role: 'bottom', w, l: 1e-6, gate: 0.6 }, { role: 'top', w: 3e-5, l: 5e-7, gate: 0.9 }], bias: r.stacks[0].bias } });
+    const fine = good();
+    corrected(2e-5)(fine);
+    expect(parseSizeResult(JSON.stringify(fine), 'r.json').stacks[0].devices[0].w).toBe(20e-6);
+    expect(bad(corrected(0)).where).toBe('r.json: stacks[0].corrected.devices[0].w');
+    expect(bad((r) => Object.assign(r.stacks[0], { corrected: { devices: [], bias: [] } })).where).toBe('r.json: stacks[0].corrected.devices');
   });
 
   it('names a device type, role or name a deck cannot carry', () => {

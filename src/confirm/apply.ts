@@ -4,7 +4,7 @@ import type { CorrectedSide, StageConfirmation } from './stage-types.js';
 import type { Confirmation } from './types.js';
 
 /** The stack result with the sizes simulation confirmed (for netlists): corrected widths, gates and bias devices. */
-export function withCorrection(stack: StackResult, c: Confirmation | undefined): StackResult {
+export function withCorrection(stack: StackResult, c: Pick<Confirmation, 'corrected'> | undefined): StackResult {
   const k = c?.corrected;
   if (!k) return stack;
   return {
@@ -15,7 +15,7 @@ export function withCorrection(stack: StackResult, c: Confirmation | undefined):
 }
 
 /** The stage result with the widths simulation confirmed (for netlists): corrected output devices and bias diodes of both sides. */
-export function withStageCorrection(stage: StageResult, c: StageConfirmation | undefined): StageResult {
+export function withStageCorrection(stage: StageResult, c: Pick<StageConfirmation, 'corrected'> | undefined): StageResult {
   const k = c?.corrected;
   if (!k) return stage;
   const side = (s: StageSide, ks: CorrectedSide): StageSide => ({ ...s, devices: s.devices.map((d, i) => ({ ...d, w: ks.devices[i]?.w ?? d.w })), bias: ks.bias });

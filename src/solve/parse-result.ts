@@ -65,16 +65,31 @@ function checkStackForDeck(s: StackResult, at: string): void {
     positive(d.w, `${at}.devices[${k}].w`);
     positive(d.l, `${at}.devices[${k}].l`);
   });
-  if (!Array.isArray(s.bias)) throw new StackwrightError('expected a list of bias devices', { where: `${at}.bias` });
-  s.bias.forEach((b, j) => {
-    const bw = `${at}.bias[${j}]`;
+  checkBias(s.bias, `${at}.bias`);
+  const p = s.predicted;
+  if (!p || typeof p !== 'object' || typeof p.iout !== 'number' || typeof p.rout !== 'number' || !(typeof p.headroom === 'number' || p.headroom === null)) {
+    throw new StackwrightError('expected the predicted iout, rout and headroom (numbers; headroom may be null)', { where: `${at}.predicted` });
+  }
+  // `size --spice` adds the sizes simulation confirmed; a netlist writes those.
+  const k = (s as { corrected?: { devices?: unknown; bias?: unknown } }).corrected;
+  if (k === undefined) return;
+  const kd = k?.devices as Array<{ w: unknown; gate: unknown }> | undefined;
+  if (!Array.isArray(kd) || kd.length !== s.devices.length) throw new StackwrightError(`expected ${s.devices.length} corrected devices`, { where: `${at}.corrected.devices` });
+  kd.forEach((d, i) => {
+    positive(d?.w, `${at}.corrected.devices[${i}].w`);
+    if (typeof d?.gate !== 'number') throw new StackwrightError('expected a number', { where: `${at}.corrected.devices[${i}].gate` });
+  });
+  checkBias(k.bias, `${at}.corrected.bias`);
+}
+
+/** A stack's bias devices (or the corrected ones) as a netlist writes them. */
+function checkBias(bias: unknown, at: string): void {
+  if (!Array.isArray(bias)) throw new StackwrightError('expected a list of bias devices', { where: at });
+  (bias as StackResult['bias']).forEach((b, j) => {
+    const bw = `${at}[${j}]`;
     if (!b || typeof b !== 'object') throw new StackwrightError('expected a bias device', { where: bw });
     if (!ROLES.includes(b.drives)) throw new StackwrightError(`expected one of ${ROLES.join(', ')}, got ${JSON.stringify(b.drives) ?? 'nothing'}`, { where: `${bw}.drives` });
     for (const key of ['w', 'l', 'current'] as const) positive(b[key], `${bw}.${key}`);
     if (typeof b.voltage !== 'number') throw new StackwrightError('expected a number', { where: `${bw}.voltage` });
   });
-  const p = s.predicted;
-  if (!p || typeof p !== 'object' || typeof p.iout !== 'number' || typeof p.rout !== 'number' || !(typeof p.headroom === 'number' || p.headroom === null)) {
-    throw new StackwrightError('expected the predicted iout, rout and headroom (numbers; headroom may be null)', { where: `${at}.predicted` });
-  }
 }

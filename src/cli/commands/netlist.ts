@@ -3,6 +3,8 @@ import { StackwrightError } from '../../errors.js';
 import { designNetlist } from '../../spice/netlist.js';
 import { stageNetlist } from '../../spice/stage-netlist.js';
 import { modelLine } from '../../spice/include.js';
+import { withCorrection, withStageCorrection } from '../../confirm/apply.js';
+import type { Confirmation, StageConfirmation } from '../../confirm/index.js';
 import { decidingResults } from '../../solve/choose.js';
 import type { SizeResult } from '../../solve/types.js';
 import type { StackSpec } from '../../design/types.js';
@@ -45,8 +47,9 @@ export function registerNetlist(program: Command): void {
     .action((path: string, f: NetlistFlags) => {
       if (f.bias !== 'ideal' && f.bias !== 'diodes') throw new StackwrightError(`expected ideal or diodes, got "${f.bias}"`, { where: '--bias' });
       const result = parseSizeResult(readText(path, 'result file'), path);
-      // With topology 'auto' only the chosen design of each stack goes in.
-      const chosen = { ...result, stacks: decidingResults(result) };
+      // With topology 'auto' only the chosen design of each stack goes in; a result of `size --spice`
+      // gives the sizes simulation confirmed (`corrected`), as `size --spice --netlist` writes them.
+      const chosen = { ...result, stacks: decidingResults(result).map((s) => withCorrection(s, s as Pick<Confirmation, 'corrected'>)) };
       const models = { n: f.modelN, p: f.modelP };
       // The deck carries the nominal corner's gates, so a sectioned model file serves that corner.
       const include = f.include === undefined ? undefined : modelLine(f.include, result.corners?.[0], '--include');
@@ -55,7 +58,7 @@ export function registerNetlist(program: Command): void {
         const all = result.stages ?? [];
         const stage = all.find((s) => s.name === f.stage && s.chosen !== false);
         if (!stage) throw new StackwrightError(`no stage "${f.stage}" in ${path}` + (all.length ? ` (has ${[...new Set(all.map((s) => s.name))].join(', ')})` : ' (it has no stages)'), { where: '--stage' });
-        text = stageNetlist(stage, { supply: result.supply, models, include, bias: f.bias });
+        text = stageNetlist(withStageCorrection(stage, stage as Pick<StageConfirmation, 'corrected'>), { supply: result.supply, models, include, bias: f.bias });
       } else text = designNetlist(chosen, { supply: result.supply, models, include, bias: f.bias, specs: targetsOf(result) });
       if (f.out) {
         writeFilesAtomic([[f.out, text]], { force: f.force });
