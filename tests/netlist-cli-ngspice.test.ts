@@ -128,6 +128,13 @@ stacks:
     expect(run.stdout + run.stderr).not.toMatch(/error|warning/i);
   });
 
+  it('size --spice --json reports simulated headrooms rounded up to the whole mV, as every reported headroom (README)', () => {
+    const sim = (sized.stacks[0] as unknown as { simulated: { headroom: number; corners: Array<{ headroom: number }> } }).simulated;
+    for (const h of [sim.headroom, ...sim.corners.map((c) => c.headroom)]) {
+      expect(Math.abs(h * 1000 - Math.round(h * 1000))).toBeLessThan(1e-6);
+    }
+  });
+
   it('netlist of a size --spice --json result writes the corrected sizes, as size --netlist does', () => {
     const out = join(d, 'netlist.cir');
     const r = cli(['netlist', join(d, 'one.json'), '--include', 'demo-tables/reed180/reed180.lib', '--model-n', 'nfet_reed', '--model-p', 'pfet_reed', '--out', out]);
