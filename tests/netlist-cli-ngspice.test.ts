@@ -147,3 +147,27 @@ stacks:
     expect(Math.abs(spiceW(cards[0]) / sized.stacks[0].devices[0].w - 1)).toBeGreaterThan(1e-4);
   });
 });
+
+withNgspice('netlist --stage, run as written by ngspice (reference simulator)', () => {
+  it('the stage deck runs by itself in batch mode, its .op at the input DC voltage (not at the sweep\'s start)', () => {
+    // The gain stage of demo-tables/specs/marsh-wren-spice.yaml (invented targets, invented kit reed180), alone.
+    const d = mkdtempSync(join(tmpdir(), 'sw-netlist-stage-'));
+    writeFileSync(join(d, 'stage.yaml'), `kit: reed180
+supply: 1.8
+stages:
+  - {name: amp, current: 10u, gain: 1000, swing: 0.9, output: 0.9, input: {device: n, topology: cascode}, load: {topology: cascode}}
+`);
+    const r = cli(['size', join(d, 'stage.yaml'), '--json']);
+    expect(r.code, r.stderr).toBe(0);
+    writeFileSync(join(d, 'r.json'), r.stdout);
+    const vin = (JSON.parse(r.stdout) as { stages: Array<{ predicted: { vin: number } }> }).stages[0].predicted.vin;
+    const n = cli(['netlist', join(d, 'r.json'), '--stage', 'amp', '--include', 'demo-tables/reed180/reed180.lib', '--model-n', 'nfet_reed', '--model-p', 'pfet_reed', '--out', join(d, 'amp.cir')]);
+    expect(n.code, n.stderr).toBe(0);
+    const run = ngspice(join(d, 'amp.cir'), mkdtempSync(join(tmpdir(), 'sw-netlist-run-')));
+    expect(run.status, run.stdout + run.stderr).toBe(0);
+    expect(run.stdout + run.stderr).not.toMatch(/error|warning|no data saved/i);
+    const inp = /^\s*inp\s+(\S+)/m.exec(run.stdout);
+    expect(inp).not.toBeNull();
+    expect(Math.abs(Number(inp![1]) - vin)).toBeLessThan(1e-6); // before: the sweep's start, vin - 50 mV
+  });
+});
