@@ -114,3 +114,30 @@ describe('parseSizeResult: a hand-edited or damaged result is refused before a n
     expect(e.message.split('\n')).toHaveLength(1);
   });
 });
+
+describe('parseSizeResult: a damaged gain stage is refused before its deck is written', () => {
+  // SPICE3: a MOSFET's W and L are positive; a stage deck quotes the predicted gain and input voltage in its header.
+  const stage = () => ({
+    supply: 1.8, corners: ['tt'], stacks: [],
+    stages: [{
+      name: 'amp', feasible: true,
+      input: { device: 'n', topology: 'single', devices: [{ role: 'bottom', w: 3e-6, l: 3e-7, gate: 0.6 }], bias: [] },
+      load: { device: 'p', topology: 'single', devices: [{ role: 'bottom', w: 4e-6, l: 3e-7, gate: 1.0 }], bias: [{ drives: 'bottom', w: 4e-6, l: 3e-7, current: 1e-5, voltage: 1.0 }] },
+      predicted: { gain: 100, swing: 0.8, vlow: 0.5, vhigh: 1.3, output: 0.9, vin: 0.6, gbw: null, cout: null, area: 2e-12, current: 1e-5 },
+    }],
+  });
+  type Stage = ReturnType<typeof stage>;
+  const bad = (edit: (r: Stage) => void) => {
+    const r = stage();
+    edit(r);
+    return errorOf(JSON.stringify(r));
+  };
+  it('reads the untouched stage, and names a zero width, a bad type, a bad name or missing predicted figures', () => {
+    expect(parseSizeResult(JSON.stringify(stage()), 'r.json').stages).toHaveLength(1);
+    expect(bad((r) => (r.stages[0].input.devices[0].w = 0)).where).toBe('r.json: stages[0].input.devices[0].w');
+    expect(bad((r) => (r.stages[0].load.device = 'x')).where).toBe('r.json: stages[0].load.device');
+    expect(bad((r) => (r.stages[0].load.bias[0].l = -1)).where).toBe('r.json: stages[0].load.bias[0].l');
+    expect(bad((r) => (r.stages[0].name = 'a\nb')).where).toBe('r.json: stages[0].name');
+    expect(bad((r) => ((r.stages[0] as { predicted: unknown }).predicted = { gain: 1 })).where).toBe('r.json: stages[0].predicted');
+  });
+});

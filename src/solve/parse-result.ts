@@ -1,5 +1,6 @@
 import { StackwrightError } from '../errors.js';
 import type { SizeResult, StackResult } from './types.js';
+import type { StageResult } from './stage-types.js';
 import { NAME, NAME_RULE } from '../design/parse.js';
 
 /**
@@ -31,6 +32,7 @@ export function parseSizeResult(text: string, where: string): SizeResult {
         }
       });
     }
+    checkStageForDeck(s, `${where}: stages[${i}]`);
   });
   r.stacks.forEach((s, i) => {
     if (!s || !Array.isArray(s.devices) || s.devices.length === 0) throw new StackwrightError('stack has no devices', { where: `${where}: stacks[${i}].devices` });
@@ -80,6 +82,25 @@ function checkStackForDeck(s: StackResult, at: string): void {
     if (typeof d?.gate !== 'number') throw new StackwrightError('expected a number', { where: `${at}.corrected.devices[${i}].gate` });
   });
   checkBias(k.bias, `${at}.corrected.bias`);
+}
+
+/** What a stage deck writes from a stage: name, each side's type, roles, positive sizes and bias diodes, the predicted figures it quotes. */
+function checkStageForDeck(s: StageResult, at: string): void {
+  if (typeof s.name !== 'string' || !NAME.test(s.name)) throw new StackwrightError(`stage names use ${NAME_RULE}; got ${JSON.stringify(s.name) ?? 'nothing'}`, { where: `${at}.name` });
+  for (const side of ['input', 'load'] as const) {
+    const sd = s[side];
+    if (sd.device !== 'n' && sd.device !== 'p') throw new StackwrightError(`expected "n" or "p", got ${JSON.stringify(sd.device) ?? 'nothing'}`, { where: `${at}.${side}.device` });
+    sd.devices.forEach((d, k) => {
+      if (!ROLES.includes(d.role)) throw new StackwrightError(`expected one of ${ROLES.join(', ')}, got ${JSON.stringify(d.role) ?? 'nothing'}`, { where: `${at}.${side}.devices[${k}].role` });
+      positive(d.w, `${at}.${side}.devices[${k}].w`);
+      positive(d.l, `${at}.${side}.devices[${k}].l`);
+    });
+    checkBias(sd.bias, `${at}.${side}.bias`);
+  }
+  const p = s.predicted;
+  if (!p || typeof p !== 'object' || !(['gain', 'swing', 'output', 'vin'] as const).every((k) => typeof p[k] === 'number')) {
+    throw new StackwrightError('expected the predicted gain, swing, output and vin (numbers)', { where: `${at}.predicted` });
+  }
 }
 
 /** A stack's bias devices (or the corrected ones) as a netlist writes them. */
