@@ -143,6 +143,9 @@ stacks:
     expect(cards).toEqual(mCards(readFileSync(join(d, 'size.cir'), 'utf8')));
     const want = sized.stacks[0].corrected!.devices.map((x) => x.w);
     cards.forEach((c, k) => expect(spiceW(c) / want[k] - 1).toBeLessThan(1e-5));
+    // the header quotes what the tables predict for those sizes (the corrected design's), not the table design's
+    const pred = (sized.stacks[0].corrected as unknown as { predicted: { headroom: number } }).predicted;
+    expect(readFileSync(out, 'utf8')).toMatch(new RegExp(`^\\* predicted: .*headroom ${Math.round(pred.headroom * 1000)} mV$`, 'm'));
     // and they differ from the tables' widths, so the check can fail
     expect(Math.abs(spiceW(cards[0]) / sized.stacks[0].devices[0].w - 1)).toBeGreaterThan(1e-4);
   });

@@ -3,7 +3,7 @@ import type { StageResult, StageSide } from '../solve/stage-types.js';
 import type { CorrectedSide, StageConfirmation } from './stage-types.js';
 import type { Confirmation } from './types.js';
 
-/** The stack result with the sizes simulation confirmed (for netlists): corrected widths, gates and bias devices. */
+/** The stack result with the sizes simulation confirmed (for netlists): corrected widths, gates and bias devices, and the tables' prediction for them. */
 export function withCorrection(stack: StackResult, c: Pick<Confirmation, 'corrected'> | undefined): StackResult {
   const k = c?.corrected;
   if (!k) return stack;
@@ -11,6 +11,7 @@ export function withCorrection(stack: StackResult, c: Pick<Confirmation, 'correc
     ...stack,
     devices: stack.devices.map((d, i) => ({ ...d, w: k.devices[i]?.w ?? d.w, gate: k.devices[i]?.gate ?? d.gate })),
     bias: k.bias,
+    predicted: { ...stack.predicted, ...k.predicted, area: k.area },
   };
 }
 
