@@ -55,6 +55,16 @@ describe('size --spice rendering', () => {
     expect(missWords(missed.misses[0])).toBe('iout at tt: needs 10 µA ± 1 %, simulated 9.7 µA');
   });
 
+  it('a simulated headroom is shown rounded up to the whole mV, as every reported headroom is (README), so a miss never reads as met', () => {
+    // 500.3 mV misses a 500 mV target; to three digits it read "needs ≤ 500 mV, simulated 500 mV".
+    expect(missWords({ target: 'headroom', required: 0.5, achieved: 0.5003, at: null, device: null, corner: 'tt' })).toBe('headroom at tt: needs ≤ 500 mV, simulated 501 mV');
+    const raw = { ...confirmed, simulated: { ...confirmed.simulated, corners: confirmed.simulated.corners.map((c) => ({ ...c, headroom: 0.43941 })) } };
+    const text = renderConfirmText([raw], input.size, input.spec.parsed, { color: false });
+    const row = text.split('\n').find((l) => /^\s*headroom\s/.test(l))!;
+    expect(row).toContain('440 mV');
+    expect(row).not.toContain('439 mV');
+  });
+
   it('HTML: a simulation block per confirmed stack with the simulated Rout(v) drawn over the predicted one', () => {
     const html = htmlReport({ ...input, confirmations: [confirmed, missed] });
     const charts = (html.match(/<svg[\s\S]*?<\/svg>/g) ?? []).filter((svg) => svg.includes('simulated over predicted'));

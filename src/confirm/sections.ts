@@ -1,7 +1,9 @@
 import { existsSync, readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { StackwrightError } from '../errors.js';
-import { anchoredInclude } from '../spice/include.js';
+import { anchoredInclude, librarySections } from '../spice/include.js';
+
+export { librarySections };
 
 /** Where the simulation models come from: `--include` and the corner → library-section mapping. */
 export interface ModelSource {
@@ -9,13 +11,6 @@ export interface ModelSource {
   include: string;
   /** Library section per corner; default the corner's own name. */
   sections?: Record<string, string>;
-}
-
-/** Names of the library sections a model file defines (`.lib NAME` lines with one word). */
-export function librarySections(text: string): string[] {
-  const out: string[] = [];
-  for (const m of text.matchAll(/^[ \t]*\.lib[ \t]+([^\s'"]+)[ \t]*$/gim)) out.push(m[1]);
-  return out;
 }
 
 /**

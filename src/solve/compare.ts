@@ -78,7 +78,8 @@ export function harderTargets(spec: StackSpec, from: StackResult, to: StackResul
   const q = to.predicted;
   if (!to.feasible) out.push('infeasible on the new kit'); // the report adds the binding verdict
   const routMargin = (x: number): number => x / spec.rout;
-  if (routMargin(q.rout) < routMargin(p.rout) * 0.999) {
+  // The search finds Rout within 5 % of the optimum (README, tests/optimal.test.ts): a smaller drop says nothing about the kit.
+  if (routMargin(q.rout) < routMargin(p.rout) * 0.95) {
     out.push(`rout: margin ${routMargin(p.rout).toFixed(2)}x -> ${routMargin(q.rout).toFixed(2)}x of the target`);
   }
   const headMargin = (x: number): number => spec.headroom - x;

@@ -1,5 +1,7 @@
 import { StackwrightError } from '../errors.js';
-import type { SizeResult } from './types.js';
+import type { SizeResult, StackResult } from './types.js';
+import type { StageResult } from './stage-types.js';
+import { NAME, NAME_RULE } from '../design/parse.js';
 
 /**
  * A saved `size --json` result read back as a SizeResult, checked far enough for
@@ -30,6 +32,7 @@ export function parseSizeResult(text: string, where: string): SizeResult {
         }
       });
     }
+    checkStageForDeck(s, `${where}: stages[${i}]`);
   });
   r.stacks.forEach((s, i) => {
     if (!s || !Array.isArray(s.devices) || s.devices.length === 0) throw new StackwrightError('stack has no devices', { where: `${where}: stacks[${i}].devices` });
@@ -38,7 +41,76 @@ export function parseSizeResult(text: string, where: string): SizeResult {
         if (typeof d?.[key] !== 'number') throw new StackwrightError(`expected a number`, { where: `${where}: stacks[${i}].devices[${k}].${key}` });
       }
     });
+    checkStackForDeck(s, `${where}: stacks[${i}]`);
   });
   for (const s of r.stacks) if (s.predicted && s.predicted.headroom === null) s.predicted.headroom = Infinity;
   return r as SizeResult;
+}
+
+const ROLES = ['bottom', 'middle', 'top'];
+
+/** A positive number (SPICE3: a MOSFET's W and L, a bias current), else a one-line error at `where`. */
+function positive(x: unknown, where: string): void {
+  if (typeof x !== 'number' || !(x > 0)) throw new StackwrightError(`expected a positive number, got ${JSON.stringify(x) ?? 'nothing'}`, { where });
+}
+
+/**
+ * What a netlist writes from a stack, checked so a hand-edited result fails here with the
+ * field named rather than as `W=NaN`, a negative width, a line break inside a comment or a crash:
+ * name, type, roles, positive widths and lengths, the bias devices and the predicted figures.
+ */
+function checkStackForDeck(s: StackResult, at: string): void {
+  if (typeof s.name !== 'string' || !NAME.test(s.name)) throw new StackwrightError(`stack names use ${NAME_RULE}; got ${JSON.stringify(s.name) ?? 'nothing'}`, { where: `${at}.name` });
+  if (s.device !== 'n' && s.device !== 'p') throw new StackwrightError(`expected "n" or "p", got ${JSON.stringify(s.device) ?? 'nothing'}`, { where: `${at}.device` });
+  s.devices.forEach((d, k) => {
+    if (!ROLES.includes(d.role)) throw new StackwrightError(`expected one of ${ROLES.join(', ')}, got ${JSON.stringify(d.role) ?? 'nothing'}`, { where: `${at}.devices[${k}].role` });
+    positive(d.w, `${at}.devices[${k}].w`);
+    positive(d.l, `${at}.devices[${k}].l`);
+  });
+  checkBias(s.bias, `${at}.bias`);
+  const p = s.predicted;
+  if (!p || typeof p !== 'object' || typeof p.iout !== 'number' || typeof p.rout !== 'number' || !(typeof p.headroom === 'number' || p.headroom === null)) {
+    throw new StackwrightError('expected the predicted iout, rout and headroom (numbers; headroom may be null)', { where: `${at}.predicted` });
+  }
+  // `size --spice` adds the sizes simulation confirmed; a netlist writes those.
+  const k = (s as { corrected?: { devices?: unknown; bias?: unknown } }).corrected;
+  if (k === undefined) return;
+  const kd = k?.devices as Array<{ w: unknown; gate: unknown }> | undefined;
+  if (!Array.isArray(kd) || kd.length !== s.devices.length) throw new StackwrightError(`expected ${s.devices.length} corrected devices`, { where: `${at}.corrected.devices` });
+  kd.forEach((d, i) => {
+    positive(d?.w, `${at}.corrected.devices[${i}].w`);
+    if (typeof d?.gate !== 'number') throw new StackwrightError('expected a number', { where: `${at}.corrected.devices[${i}].gate` });
+  });
+  checkBias(k.bias, `${at}.corrected.bias`);
+}
+
+/** What a stage deck writes from a stage: name, each side's type, roles, positive sizes and bias diodes, the predicted figures it quotes. */
+function checkStageForDeck(s: StageResult, at: string): void {
+  if (typeof s.name !== 'string' || !NAME.test(s.name)) throw new StackwrightError(`stage names use ${NAME_RULE}; got ${JSON.stringify(s.name) ?? 'nothing'}`, { where: `${at}.name` });
+  for (const side of ['input', 'load'] as const) {
+    const sd = s[side];
+    if (sd.device !== 'n' && sd.device !== 'p') throw new StackwrightError(`expected "n" or "p", got ${JSON.stringify(sd.device) ?? 'nothing'}`, { where: `${at}.${side}.device` });
+    sd.devices.forEach((d, k) => {
+      if (!ROLES.includes(d.role)) throw new StackwrightError(`expected one of ${ROLES.join(', ')}, got ${JSON.stringify(d.role) ?? 'nothing'}`, { where: `${at}.${side}.devices[${k}].role` });
+      positive(d.w, `${at}.${side}.devices[${k}].w`);
+      positive(d.l, `${at}.${side}.devices[${k}].l`);
+    });
+    checkBias(sd.bias, `${at}.${side}.bias`);
+  }
+  const p = s.predicted;
+  if (!p || typeof p !== 'object' || !(['gain', 'swing', 'output', 'vin'] as const).every((k) => typeof p[k] === 'number')) {
+    throw new StackwrightError('expected the predicted gain, swing, output and vin (numbers)', { where: `${at}.predicted` });
+  }
+}
+
+/** A stack's bias devices (or the corrected ones) as a netlist writes them. */
+function checkBias(bias: unknown, at: string): void {
+  if (!Array.isArray(bias)) throw new StackwrightError('expected a list of bias devices', { where: at });
+  (bias as StackResult['bias']).forEach((b, j) => {
+    const bw = `${at}[${j}]`;
+    if (!b || typeof b !== 'object') throw new StackwrightError('expected a bias device', { where: bw });
+    if (!ROLES.includes(b.drives)) throw new StackwrightError(`expected one of ${ROLES.join(', ')}, got ${JSON.stringify(b.drives) ?? 'nothing'}`, { where: `${bw}.drives` });
+    for (const key of ['w', 'l', 'current'] as const) positive(b[key], `${bw}.${key}`);
+    if (typeof b.voltage !== 'number') throw new StackwrightError('expected a number', { where: `${bw}.voltage` });
+  });
 }

@@ -1,4 +1,6 @@
+import { existsSync, readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
+import { StackwrightError } from '../errors.js';
 
 /**
  * Model include line for a deck: text starting with "." is used verbatim
@@ -26,4 +28,32 @@ export function anchoredInclude(include: string, cwd: string): { include: string
   if (!m) return { include: text };
   const path = resolve(cwd, m[2] ?? m[3] ?? m[4]);
   return { include: `${m[1]} '${path}'${m[5]}`, path };
+}
+
+/** Names of the library sections a model file defines (`.lib NAME` lines with one word). */
+export function librarySections(text: string): string[] {
+  const out: string[] = [];
+  for (const m of text.matchAll(/^[ \t]*\.lib[ \t]+([^\s'"]+)[ \t]*$/gim)) out.push(m[1]);
+  return out;
+}
+
+/**
+ * The model line of a deck written for one corner from `--include` (`where`): a literal
+ * `.lib`/`.include` line as written, its file made absolute (anchoredInclude); a model file by its absolute path, so the deck runs
+ * from any folder, as `.lib 'FILE' CORNER` when the file has library sections (ngspice
+ * reads such a file only through `.lib`; an `.include` of it fails on its `.lib` lines),
+ * else as `.include 'FILE'`. Throws for a missing file or a corner without a section.
+ */
+export function modelLine(include: string, corner: string | undefined, where: string): string {
+  const text = include.trim();
+  if (text.startsWith('.')) return anchoredInclude(text, process.cwd()).include;
+  const path = resolve(text);
+  if (!existsSync(path)) throw new StackwrightError('model file not found', { where: `${where} ${text}` });
+  const have = librarySections(readFileSync(path, 'utf8'));
+  if (have.length === 0) return `.include '${path}'`;
+  if (corner === undefined || !have.includes(corner)) {
+    const which = corner === undefined ? 'the result names no corner to pick a library section by' : `no library section "${corner}" (the result's nominal corner)`;
+    throw new StackwrightError(`${which} (has ${have.join(', ')}); give the line itself, e.g. ${where} ".lib '${path}' ${have[0]}"`, { where: `${where} ${text}` });
+  }
+  return `.lib '${path}' ${corner}`;
 }

@@ -4,7 +4,7 @@ export { characterisationCsv } from './characterise-csv.js';
 export { characterise } from './characterise-run.js';
 export { runNgspice, firstError, type NgspiceRun, type RunOptions } from './run.js';
 export { parseWrdata, type WrdataTable } from './wrdata.js';
-export { includeLines } from './include.js';
+export { includeLines, librarySections, modelLine } from './include.js';
 export {
   simulateStacks,
   simulateSweep,

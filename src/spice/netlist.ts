@@ -102,10 +102,14 @@ function deck(stacks: readonly StackResult[], opts: NetlistOptions, specs: (Netl
       `wide devices are written as parallel fingers (m=) of at most ${formatEng(opts.maxFingerWidth ?? MAX_FINGER_WIDTH, 'm')}`,
   );
   lines.push(`vdd vdd 0 dc ${formatSpice(opts.supply)}`, `${SWEEP_SOURCE} ${SWEEP_NODE} 0 dc ${formatSpice(at)}`);
+  const ammeters: string[] = [];
   stacks.forEach((s, k) => {
     // A design may hold stacks the search could not size: note them, keep the deck simulatable.
     if (skipEmpty && s.devices.length === 0) lines.push('', `* ---- stack "${s.name}": not sized (${bindingText(s) || 'infeasible'}), nothing to simulate`);
-    else lines.push('', ...stackLines(s, `s${k + 1}`, opts, models, specs[k]));
+    else {
+      lines.push('', ...stackLines(s, `s${k + 1}`, opts, models, specs[k]));
+      ammeters.push(`i(vm_s${k + 1})`);
+    }
   });
   lines.push(
     '',
@@ -113,6 +117,8 @@ function deck(stacks: readonly StackResult[], opts: NetlistOptions, specs: (Netl
     '.options reltol=1e-6 abstol=1e-15 vntol=1e-9',
     '.op',
     `.dc ${SWEEP_SOURCE} ${formatSpice(sweep.from)} ${formatSpice(sweep.to)} ${formatSpice(sweep.step)}`,
+    // Batch mode runs no .dc without an output line (and its .op then lands at the sweep's start); a .control block replaces it.
+    `.print dc v(${SWEEP_NODE}) ${ammeters.join(' ')}`,
     '.end',
     '',
   );

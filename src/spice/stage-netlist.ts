@@ -89,6 +89,8 @@ export function stageNetlist(stage: StageResult, opts: StageNetlistOptions): str
     '.options reltol=1e-7 abstol=1e-15 vntol=1e-10',
     '.op',
     `.dc ${STAGE_INPUT_SOURCE} ${formatSpice(sweep.from)} ${formatSpice(sweep.to)} ${formatSpice(sweep.step)}`,
+    // Batch mode runs no .dc without an output line (and its .op then lands at the sweep's start); a .control block replaces it.
+    `.print dc v(${STAGE_INPUT_NODE}) v(${STAGE_OUTPUT_NODE})`,
     '.end',
     '',
   );

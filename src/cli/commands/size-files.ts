@@ -12,11 +12,24 @@ import { decidingStages } from '../../solve/stage-choose.js';
 import { packageVersion } from '../io.js';
 import { withCorrection, withStageCorrection } from '../../confirm/apply.js';
 import type { Confirmation, StageConfirmation } from '../../confirm/index.js';
+import { cornerModels } from '../../confirm/sections.js';
 
 export interface SizeFileFlags {
   front?: string;
   netlist?: string;
   report?: string;
+  /** With --spice, the decks name the models and the nominal corner's model line that simulation used. */
+  spice?: boolean;
+  include?: string;
+  section?: Record<string, string>;
+  modelN?: string;
+  modelP?: string;
+}
+
+/** Models and include line of the written decks: what --spice simulated the nominal corner with, else placeholders. */
+function deckModels(f: SizeFileFlags, corners: readonly string[]): { models?: { n: string; p: string }; include?: string } {
+  if (!f.spice || !f.include) return {};
+  return { models: { n: f.modelN ?? 'nmos_model', p: f.modelP ?? 'pmos_model' }, include: cornerModels({ include: f.include, sections: f.section }, corners[0], corners) };
 }
 
 export function sizeFiles(f: SizeFileFlags, spec: DesignSpec, specPath: string, source: string, kit: Kit, run: SizeRun, notes: readonly string[] = [], confirmations?: Confirmation[], stageConfirmations?: StageConfirmation[]): Array<[string, string]> {
@@ -29,11 +42,12 @@ export function sizeFiles(f: SizeFileFlags, spec: DesignSpec, specPath: string, 
   if (f.netlist) {
     // With --spice the netlist carries the sizes simulation confirmed.
     const chosen = { ...run.result, stacks: decidingResults(run.result).map((r) => withCorrection(r, confirmations?.find((c) => c.name === r.name))) };
-    if (chosen.stacks.length > 0) files.push([f.netlist, designNetlist(chosen, { supply: spec.supply, specs: spec.stacks, title: `stackwright ${basename(specPath)}` })]);
+    const models = deckModels(f, run.result.corners);
+    if (chosen.stacks.length > 0) files.push([f.netlist, designNetlist(chosen, { supply: spec.supply, specs: spec.stacks, title: `stackwright ${basename(specPath)}`, ...models })]);
     // Each stage gets its own deck beside it (its own .dc sweep of the input).
     const stem = f.netlist.slice(0, f.netlist.length - extname(f.netlist).length);
     for (const st of decidingStages(run.result)) {
-      if (st.input.devices.length > 0) files.push([`${stem}.${st.name}.cir`, stageNetlist(withStageCorrection(st, stageConfirmations?.find((c) => c.name === st.name)), { supply: spec.supply })]);
+      if (st.input.devices.length > 0) files.push([`${stem}.${st.name}.cir`, stageNetlist(withStageCorrection(st, stageConfirmations?.find((c) => c.name === st.name)), { supply: spec.supply, ...models })]);
     }
   }
   if (f.report) files.push([f.report, reportHtml(spec, source, kit, run, `stackwright ${packageVersion()}`, notes, confirmations, stageConfirmations)]);
