@@ -102,6 +102,13 @@ export function sideCandidates(stage: StageSpec, side: Side, topology: Topology,
       ctx.spec = { ...base, rout, headroom: h, span: 2 * side.vd - h };
       for (const c of screen(ctx, topology)) seen.set(candidateKey(c), c);
     }
+    // A wide swing target can leave a share too small for any design of the topology (a triple's lower devices
+    // need their VDSsat each) although the stage still holds its gain past the load's saturation edge: then the
+    // side is screened with all the headroom it may have, and the traced pairs say what the stage reaches.
+    if (seen.size === 0) {
+      ctx.spec = { ...base, rout, headroom: hi, span: 2 * side.vd - hi };
+      for (const c of screen(ctx, topology)) seen.set(candidateKey(c), c);
+    }
   } finally {
     ctx.spec = base;
   }
