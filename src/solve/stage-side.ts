@@ -75,7 +75,8 @@ export function makeSide(stage: StageSpec, kind: SideKind, kit: KitAccess, suppl
   if (!(hi > lo)) {
     throw new StackwrightError(`output ${stage.output} V leaves the ${kind} side (${device}-type) no room to operate within the ${supply} V supply`, { where: `stage "${stage.name}".output` });
   }
-  const ctx = makeContext(sideSpec(stage, kind, device, vd, 0.5 * (lo + hi), 1e6), kit, supply, corners);
+  // Errors name the stage side's own keys (e.g. stage "amp".input.l), not the stack spec derived from it.
+  const ctx = makeContext(sideSpec(stage, kind, device, vd, 0.5 * (lo + hi), 1e6), kit, supply, corners, `stage "${stage.name}".${kind}`);
   return { kind, device, vd, ctx };
 }
 
