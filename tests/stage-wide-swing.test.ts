@@ -35,3 +35,25 @@ describe('gain stage with a triple-cascode load and a wide swing target', () => 
     }, 60_000);
   }
 });
+
+// A design point close to a rail leaves the side towards that rail little room: on demo090 (1.2 V) an output of
+// 0.967 V leaves a p-type cascode load 233 mV. Its bottom device needs VDS ≥ VDSsat ≥ 4·UT ≈ 103 mV at any inversion
+// level (EKV interpolation, Enz & Vittoz 2006) and its top device its own room above that, so no load of the search's
+// design space fits. The explanation must say so, not that the tables cannot hold the bias: the tables' VDS and
+// VSB axes (0..1.2 V, 0..0.6 V) cover every bias such a load could have.
+describe('gain stage whose design point leaves a side no room', () => {
+  it('demo090, output 0.967 V, p-type cascode load: binding is saturation at the design point, not the tables', () => {
+    const stage = {
+      name: 'near-supply', current: 10e-6, gain: 800, swing: 0.4, output: 0.966666666667, objective: 'swing',
+      input: { device: 'n', topology: 'cascode' }, load: { topology: 'cascode' },
+    } as StageSpec;
+    const kit = kits.demo090;
+    const range = kit.slice('tt', 'p', kit.lengths('tt', 'p')[0]).range;
+    expect(range.vds[1]).toBeGreaterThanOrEqual(SUPPLY.demo090 - 1e-9);
+    expect(range.vsb[1]).toBeGreaterThan(SUPPLY.demo090 - stage.output);
+    const r = sizeStage(stage, kit, { supply: SUPPLY.demo090, corners: ['tt'] }).results[0];
+    expect(r.feasible).toBe(false);
+    expect(r.binding?.target).toBe('saturation');
+    expect(r.binding?.at).toBeCloseTo(stage.output, 9);
+  });
+});

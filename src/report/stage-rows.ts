@@ -22,7 +22,10 @@ function quantity(v: StageVerdict, x: number | null): string {
 export function stageVerdictText(v: StageVerdict, showCorner = false): string {
   const where = showCorner && v.corner ? `corner ${v.corner}: ` : '';
   if (v.target === 'table') return `${where}the tables cannot hold the stage's bias (a bias diode or the design point lies outside them)`;
-  if (v.target === 'saturation') return `${where}a lower device would leave saturation at the design point`;
+  if (v.target === 'saturation') {
+    const at = v.at === null ? 'the design point' : `the ${eng(v.at, 'V')} design point`;
+    return `${where}no design of a side keeps its lower devices saturated at ${at} (too little room between the output and that side's rail)`;
+  }
   if (v.target === 'vin') {
     // Short: it also stands in the brief table's binding column.
     if (v.achieved === null || v.required === null) return `${where}input DC voltage: not reached`;

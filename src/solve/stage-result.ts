@@ -252,8 +252,11 @@ export function stageResult(sides: StageSides, best: StageDesign, pool: readonly
   return r;
 }
 
-/** A placeholder result when no pair could be realised from the tables. */
-export function emptyStageResult(sides: StageSides, topology: Topology, evaluated: number): StageResult {
+/**
+ * A placeholder result when no pair could be realised: `why` 'table' when the tables could not hold a pair's bias,
+ * 'saturation' when a side has no design whose lower devices are saturated at the design point (`at`).
+ */
+export function emptyStageResult(sides: StageSides, topology: Topology, evaluated: number, why: 'table' | 'saturation' = 'table'): StageResult {
   const stage = sides.stage;
   return {
     name: stage.name, feasible: false,
@@ -261,7 +264,7 @@ export function emptyStageResult(sides: StageSides, topology: Topology, evaluate
     load: { device: sides.load.device, topology, devices: [], bias: [] },
     predicted: emptyPredicted(stage, 0),
     curve: [],
-    binding: { target: 'table', required: null, achieved: null, at: null, device: null, corner: sides.input.ctx.nominal },
+    binding: { target: why, required: null, achieved: null, at: why === 'saturation' ? stage.output : null, device: null, corner: sides.input.ctx.nominal },
     nearest: { gainAtSwing: 0, swingAtGain: 0 },
     evaluated,
   };

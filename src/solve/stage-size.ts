@@ -24,12 +24,15 @@ export interface SizeStageResult {
   evaluated: number;
 }
 
-function designs(sides: StageSides, side: StageSides['input'], topology: Topology, vs: Float64Array, j0: number, gmMax?: number): SideDesign[] {
-  const out: SideDesign[] = [];
-  for (const c of sideCandidates(sides.stage, side, topology, sides.supply)) {
+/** Side designs of one topology; `screened` false when the stack screen found no candidate at all (no room at the design point). */
+function designs(sides: StageSides, side: StageSides['input'], topology: Topology, vs: Float64Array, j0: number, gmMax?: number): SideDesign[] & { screened?: boolean } {
+  const out: SideDesign[] & { screened?: boolean } = [];
+  const cands = sideCandidates(sides.stage, side, topology, sides.supply);
+  for (const c of cands) {
     const d = sideDesign(side, c, vs, j0, sides.stage, sides.supply, gmMax);
     if (d) out.push(d);
   }
+  out.screened = cands.length > 0;
   return out;
 }
 
@@ -78,7 +81,10 @@ export function sizeStage(stage: StageSpec, kit: KitAccess, opts: { supply: numb
     const count = input.ctx.count.exact + load.ctx.count.exact + input.ctx.count.screened + load.ctx.count.screened - before + screened + traced + (climb?.evaluated ?? 0);
     evaluated += count;
     if (!climb) {
-      results.push(emptyStageResult(sides, t, count));
+      // No candidate of a side at all: its lower devices cannot be saturated in the room the design point leaves
+      // (the tables were never the obstacle); else no pair could be realised from the tables.
+      const why = sized.screened === false || loads.screened === false ? 'saturation' : 'table';
+      results.push(emptyStageResult(sides, t, count, why));
       continue;
     }
     results.push(stageResult(sides, climb.best, pool, count, climb.nearest));
