@@ -111,6 +111,19 @@ function smallestTarget(m: StageMargins): StageTarget {
   return order.reduce((a, b) => (m[b] < m[a] ? b : a));
 }
 
+/**
+ * Why a design misses at one corner, as the summary words it: the input outside the rails; else, when the gain at
+ * the design point is below the target (no swing at all), that gain there; else, when no interval of the swing
+ * target's width fits the traced output range (the gain held over it reads 0 whatever the gain target), the swing;
+ * else the target with the least margin.
+ */
+function missTarget(stage: StageSpec, m: StageMargins, at: StageAt, corner: string): StageVerdict {
+  if (m.vin < 0) return verdict(stage, 'vin', at, corner);
+  if (!(at.gain >= stage.gain)) return { target: 'gain', required: stage.gain, achieved: at.gain, at: stage.output, device: null, corner };
+  if (!(at.gainAtSwing > 0) && m.swing < 0) return verdict(stage, 'swing', at, corner);
+  return verdict(stage, smallestTarget(m), at, corner);
+}
+
 function smallest(m: StageMargins): number {
   return Math.min(m.gain, m.swing, m.gbw);
 }
@@ -130,9 +143,8 @@ function cornerResults(sides: StageSides, d: StageDesign): StageCorner[] {
       corner: at.corner, feasible: ok, predicted: predictedOf(sides, d, at),
       gates: { input: at.gates.input.map((g) => absolute(sides.input.device, sides.supply, g)), load: at.gates.load.map((g) => absolute(sides.load.device, sides.supply, g)) },
     };
-    const v = verdict(stage, smallestTarget(m), at, corner);
-    if (ok) r.tightest = v;
-    else r.binding = v;
+    if (ok) r.tightest = verdict(stage, smallestTarget(m), at, corner);
+    else r.binding = missTarget(stage, m, at, corner);
     return r;
   });
 }
@@ -208,8 +220,7 @@ function infeasibility(sides: StageSides, best: StageDesign, explored: readonly 
   if (nominalOk(stage, best)) {
     const c = (best.corners ?? []).find((x) => !meets(stageMargins(stage, x)));
     if (c) {
-      const target = 'error' in c ? 'table' : smallestTarget(stageMargins(stage, c));
-      return { binding: verdict(stage, target, 'error' in c ? null : c, c.corner), nearest };
+      return { binding: 'error' in c ? verdict(stage, 'table', null, c.corner) : missTarget(stage, stageMargins(stage, c), c, c.corner), nearest };
     }
   }
   const swingOk = pool.filter((d) => d.nominal.trace.swing >= stage.swing - 1e-9);
@@ -220,7 +231,9 @@ function infeasibility(sides: StageSides, best: StageDesign, explored: readonly 
   // Both targets miss together (gain held over the swing target ⇔ swing at the gain target); the one further off, relatively, binds.
   const g = 1 - gainAtSwing / stage.gain;
   const s = 1 - swingAtGain / stage.swing;
-  const binding: StageVerdict = g >= s
+  // No interval of the swing target's width fits the traced output range: the held gain reads 0 for any gain
+  // target, so only the swing can bind.
+  const binding: StageVerdict = g >= s && (gainAtSwing > 0 || !(swingAtGain > 0))
     ? { target: 'gain', required: stage.gain, achieved: gainAtSwing, at: null, device: null, corner: nominal, ...reach }
     : { target: 'swing', required: stage.swing, achieved: swingAtGain, at: null, device: null, corner: nominal, ...reach };
   return { binding, nearest };
