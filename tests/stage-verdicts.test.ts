@@ -3,6 +3,7 @@ import { sizeStage, type Kit } from '../src/index.js';
 import type { StageSpec } from '../src/design/types.js';
 import { thermalVoltage } from '../src/stack/index.js';
 import { demoKits } from './helpers/cli.js';
+import { stageExhaustive } from './helpers/stage-exhaustive.js';
 
 // The verdicts of infeasible gain stages (demo180, invented demo kit): the per-corner rows and the summary must name
 // the same target, and the target named must be the one a designer can act on.
@@ -66,5 +67,32 @@ describe('trade front of a gain stage', () => {
     const { front } = sizeStage(stage, kits.demo180, { supply: 1.8, corners: ['tt'] });
     expect(front.length).toBeGreaterThan(10);
     for (const p of front) expect(p.gainAtSwing >= stage.gain, `swing ${p.swing} V, held gain ${p.gainAtSwing}`).toBe(p.swing >= stage.swing - 1e-9);
+  });
+});
+
+describe('width limit of a gain stage', () => {
+  // The kit's default width limit (README, Width limit; common practice: a device is split into a few tens of
+  // fingers of some ten µm): 64 fingers of 100 × the shortest table length, 1.152 mm on demo180.
+  const WMAX = 64 * 100 * 0.18e-6;
+  const stage = (current: number, gain: number) => ({
+    name: 'big', current, gain, swing: 0.8, output: 0.9, objective: 'area', input: { device: 'n', topology: 'single' }, load: { topology: 'single' },
+  }) as StageSpec;
+
+  it('20 mA, gain 40: no reported device wider than the limit; infeasible as the exhaustive reference within the limit finds', () => {
+    // The stage used to be reported feasible with a 3.84 mm input device.
+    const s = stage(20e-3, 40);
+    const ref = stageExhaustive(s, kits.demo180, 1.8, 'tt', { gmidPoints: 12, vStep: 0.05 });
+    expect(ref.best, 'no design within the width limit meets the targets').toBeUndefined();
+    const r = sizeStage(s, kits.demo180, { supply: 1.8, corners: ['tt'] }).results[0];
+    for (const d of [...r.input.devices, ...r.load.devices]) expect(d.w).toBeLessThanOrEqual(WMAX * (1 + 1e-9));
+    expect(r.feasible).toBe(false);
+  });
+
+  it('1 A: every design is wider than the limit, and the binding says so with the limit and the narrowest width', () => {
+    const r = sizeStage(stage(1, 40), kits.demo180, { supply: 1.8, corners: ['tt'] }).results[0];
+    expect(r.feasible).toBe(false);
+    expect(r.binding?.target).toBe('width');
+    expect(r.binding?.required).toBeCloseTo(WMAX, 12);
+    expect(r.binding?.achieved).toBeGreaterThan(WMAX);
   });
 });

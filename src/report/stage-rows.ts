@@ -22,6 +22,10 @@ function quantity(v: StageVerdict, x: number | null): string {
 export function stageVerdictText(v: StageVerdict, showCorner = false): string {
   const where = showCorner && v.corner ? `corner ${v.corner}: ` : '';
   if (v.target === 'table') return `${where}the tables cannot hold the stage's bias (a bias diode or the design point lies outside them)`;
+  if (v.target === 'width') {
+    const by = v.achieved === null || v.required === null ? '' : ` (the narrowest needs ${formatMicrons(v.achieved)} > ${formatMicrons(v.required)})`;
+    return `${where}every design of a side the search found has a device wider than the width limit${by}`;
+  }
   if (v.target === 'saturation') {
     const at = v.at === null ? 'the design point' : `the ${eng(v.at, 'V')} design point`;
     return `${where}no design of a side keeps its lower devices saturated at ${at} (too little room between the output and that side's rail)`;

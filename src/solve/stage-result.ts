@@ -267,9 +267,12 @@ export function stageResult(sides: StageSides, best: StageDesign, pool: readonly
 
 /**
  * A placeholder result when no pair could be realised: `why` 'table' when the tables could not hold a pair's bias,
- * 'saturation' when a side has no design whose lower devices are saturated at the design point (`at`).
+ * 'saturation' when a side has no design whose lower devices are saturated at the design point (`at`), 'width' when
+ * every design of a side has a device wider than the width limit (`width`: the limit and the narrowest widest device).
  */
-export function emptyStageResult(sides: StageSides, topology: Topology, evaluated: number, why: 'table' | 'saturation' = 'table'): StageResult {
+export function emptyStageResult(
+  sides: StageSides, topology: Topology, evaluated: number, why: 'table' | 'saturation' | 'width' = 'table', width?: { wmax: number; narrowest: number },
+): StageResult {
   const stage = sides.stage;
   return {
     name: stage.name, feasible: false,
@@ -277,7 +280,10 @@ export function emptyStageResult(sides: StageSides, topology: Topology, evaluate
     load: { device: sides.load.device, topology, devices: [], bias: [] },
     predicted: emptyPredicted(stage, 0),
     curve: [],
-    binding: { target: why, required: null, achieved: null, at: why === 'saturation' ? stage.output : null, device: null, corner: sides.input.ctx.nominal },
+    binding: {
+      target: why, required: width?.wmax ?? null, achieved: width?.narrowest ?? null,
+      at: why === 'saturation' ? stage.output : null, device: null, corner: sides.input.ctx.nominal,
+    },
     nearest: { gainAtSwing: 0, swingAtGain: 0 },
     evaluated,
   };

@@ -27,10 +27,19 @@ export interface SizeStageResult {
 /** Side designs of one topology; `screened` false when the stack screen found no candidate at all (no room at the design point). */
 function designs(sides: StageSides, side: StageSides['input'], topology: Topology, vs: Float64Array, j0: number, gmMax?: number): SideDesign[] & { screened?: boolean } {
   const out: SideDesign[] & { screened?: boolean } = [];
+  side.narrowestTooWide = undefined; // this topology's own
   const cands = sideCandidates(sides.stage, side, topology, sides.supply);
   for (const c of cands) {
     const d = sideDesign(side, c, vs, j0, sides.stage, sides.supply, gmMax);
     if (d) out.push(d);
+  }
+  // The shares' candidates were all refused (a too-small headroom share buys Rout with width beyond the width
+  // limit): screen again with all the headroom the side may have.
+  if (out.length === 0 && cands.length > 0 && side.narrowestTooWide !== undefined) {
+    for (const c of sideCandidates(sides.stage, side, topology, sides.supply, true)) {
+      const d = sideDesign(side, c, vs, j0, sides.stage, sides.supply, gmMax);
+      if (d) out.push(d);
+    }
   }
   out.screened = cands.length > 0;
   return out;
@@ -84,7 +93,10 @@ export function sizeStage(stage: StageSpec, kit: KitAccess, opts: { supply: numb
       // No candidate of a side at all: its lower devices cannot be saturated in the room the design point leaves
       // (the tables were never the obstacle); else no pair could be realised from the tables.
       const why = sized.screened === false || loads.screened === false ? 'saturation' : 'table';
-      results.push(emptyStageResult(sides, t, count, why));
+      // Every design of a side refused by the width limit: that binds (required the limit, achieved the narrowest).
+      const wide = sized.length === 0 ? input : loads.length === 0 ? load : undefined;
+      const width = wide?.narrowestTooWide !== undefined ? { wmax: wide.ctx.wmax, narrowest: wide.narrowestTooWide } : undefined;
+      results.push(emptyStageResult(sides, t, count, width ? 'width' : why, width));
       continue;
     }
     results.push(stageResult(sides, climb.best, pool, count, climb.nearest));
