@@ -18,7 +18,7 @@ describe('gain stages through the CLI (demo180, invented demo kit)', () => {
 
   it('size --json carries stages with the documented fields, SI units, one entry per load topology and one chosen', () => {
     const spec = join(dir, 'amp.yaml');
-    writeFileSync(spec, stageSpec('    gain: 800\n    swing: 0.9\n    input: {device: p, topology: single}\n    load: {topology: auto}\n    gbw: 2meg\n    cap: 2p\n'));
+    writeFileSync(spec, stageSpec('    gain: 700\n    swing: 0.9\n    input: {device: p, topology: single}\n    load: {topology: auto}\n    gbw: 2meg\n    cap: 2p\n'));
     const r = cli(['size', spec, '--json', '--tables', tables()]);
     expect(r.code, r.stderr).toBe(0);
     expect(r.stdout).not.toMatch(/NaN|Infinity|undefined/);
