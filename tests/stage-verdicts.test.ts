@@ -4,6 +4,7 @@ import type { StageSpec } from '../src/design/types.js';
 import { thermalVoltage } from '../src/stack/index.js';
 import { demoKits } from './helpers/cli.js';
 import { stageExhaustive } from './helpers/stage-exhaustive.js';
+import { stagePredictedGrid } from '../src/report/index.js';
 
 // The verdicts of infeasible gain stages (demo180, invented demo kit): the per-corner rows and the summary must name
 // the same target, and the target named must be the one a designer can act on.
@@ -94,5 +95,13 @@ describe('width limit of a gain stage', () => {
     expect(r.binding?.target).toBe('width');
     expect(r.binding?.required).toBeCloseTo(WMAX, 12);
     expect(r.binding?.achieved).toBeGreaterThan(WMAX);
+    // The JSON entry keeps the documented shape (README: "corners":[] on a stage entry); it used to lack the key.
+    expect(JSON.parse(JSON.stringify(r)).corners).toEqual([]);
+    // The text showed the empty placeholder's figures as the design's ("current 0 A") and said the tables lack
+    // capacitances, which demo180's do not (their drain capacitance cdd is positive).
+    expect(kits.demo180.slice('tt', 'n', 0.18e-6).op(0.6, 0.9, 0, 1e-6).cdd).toBeGreaterThan(0);
+    const text = stagePredictedGrid(r).rows.map((row) => row.join(' ')).join('\n');
+    expect(text).not.toMatch(/lack capacitances/);
+    expect(text).not.toMatch(/0 A\b/);
   });
 });

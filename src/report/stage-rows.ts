@@ -58,6 +58,10 @@ export function stageVerdict(s: StageResult): string {
 
 export function stagePredictedGrid(s: StageResult): Grid {
   const p = s.predicted;
+  // No design could be realised (the binding says why): no figure of one to show, and no claim about the tables.
+  if (s.input.devices.length === 0 && s.load.devices.length === 0) {
+    return { headers: ['quantity', 'value'], rows: [['design point (vout)', eng(p.output, 'V')], ['design', '— (none realised)'], ['candidates evaluated', String(s.evaluated)]] };
+  }
   const rows = [
     ['gain at the design point', gainText(p.gain)],
     ['design point (vout, vin)', `${eng(p.output, 'V')}, ${eng(p.vin, 'V')}`],

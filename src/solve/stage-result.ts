@@ -280,6 +280,8 @@ export function emptyStageResult(
     load: { device: sides.load.device, topology, devices: [], bias: [] },
     predicted: emptyPredicted(stage, 0),
     curve: [],
+    // No design to check at any corner; the key is there as on every stage entry (README, JSON output).
+    corners: [],
     binding: {
       target: why, required: width?.wmax ?? null, achieved: width?.narrowest ?? null,
       at: why === 'saturation' ? stage.output : null, device: null, corner: sides.input.ctx.nominal,
