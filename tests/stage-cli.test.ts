@@ -18,7 +18,7 @@ describe('gain stages through the CLI (demo180, invented demo kit)', () => {
 
   it('size --json carries stages with the documented fields, SI units, one entry per load topology and one chosen', () => {
     const spec = join(dir, 'amp.yaml');
-    writeFileSync(spec, stageSpec('    gain: 800\n    swing: 0.9\n    input: {device: p, topology: single}\n    load: {topology: auto}\n    gbw: 2meg\n    cap: 2p\n'));
+    writeFileSync(spec, stageSpec('    gain: 700\n    swing: 0.9\n    input: {device: p, topology: single}\n    load: {topology: auto}\n    gbw: 2meg\n    cap: 2p\n'));
     const r = cli(['size', spec, '--json', '--tables', tables()]);
     expect(r.code, r.stderr).toBe(0);
     expect(r.stdout).not.toMatch(/NaN|Infinity|undefined/);
@@ -70,6 +70,24 @@ describe('gain stages through the CLI (demo180, invented demo kit)', () => {
     expect(['gain', 'swing']).toContain(b.target);
     expect(b.achieved).toBeLessThan(b.required);
     expect(j.stages[0].nearest.swingAtGain).toBeLessThan(1.5);
+  });
+
+  it('a side range the tables cannot serve is one line naming the stage side\'s key, exit 2, nothing printed', () => {
+    const cases: Array<[string, RegExp]> = [
+      ['    gain: 100\n    swing: 0.8\n    input: {device: n, l: [5u, 9u]}\n', /^stackwright: stage "amp"\.input\.l: L range 5 µm\.\.9 µm is outside the table/],
+      ['    gain: 100\n    swing: 0.8\n    input: {device: n}\n    load: {topology: cascode, gmid: [40, 50]}\n', /^stackwright: stage "amp"\.load\.gmid: gm\/ID range 40 \/V\.\.50 \/V is beyond/],
+    ];
+    for (const [body, message] of cases) {
+      const spec = join(dir, 'range.yaml');
+      writeFileSync(spec, stageSpec(body));
+      const r = cli(['size', spec, '--tables', tables()]);
+      expect(r.code).toBe(2);
+      expect(r.stdout).toBe('');
+      expect(r.stderr.trim().split('\n')).toHaveLength(1);
+      // The spec has no stack: the message must not name one (it used to say stack "amp.input").
+      expect(r.stderr).not.toMatch(/stack "/);
+      expect(r.stderr).toMatch(message);
+    }
   });
 
   it('netlist --stage writes the stage with the input as a DC source to sweep', () => {

@@ -22,7 +22,14 @@ function quantity(v: StageVerdict, x: number | null): string {
 export function stageVerdictText(v: StageVerdict, showCorner = false): string {
   const where = showCorner && v.corner ? `corner ${v.corner}: ` : '';
   if (v.target === 'table') return `${where}the tables cannot hold the stage's bias (a bias diode or the design point lies outside them)`;
-  if (v.target === 'saturation') return `${where}a lower device would leave saturation at the design point`;
+  if (v.target === 'width') {
+    const by = v.achieved === null || v.required === null ? '' : ` (the narrowest needs ${formatMicrons(v.achieved)} > ${formatMicrons(v.required)})`;
+    return `${where}every design of a side the search found has a device wider than the width limit${by}`;
+  }
+  if (v.target === 'saturation') {
+    const at = v.at === null ? 'the design point' : `the ${eng(v.at, 'V')} design point`;
+    return `${where}no design of a side keeps its lower devices saturated at ${at} (too little room between the output and that side's rail)`;
+  }
   if (v.target === 'vin') {
     // Short: it also stands in the brief table's binding column.
     if (v.achieved === null || v.required === null) return `${where}input DC voltage: not reached`;
@@ -53,6 +60,10 @@ export function stageVerdict(s: StageResult): string {
 
 export function stagePredictedGrid(s: StageResult): Grid {
   const p = s.predicted;
+  // No design could be realised (the binding says why): no figure of one to show, and no claim about the tables.
+  if (s.input.devices.length === 0 && s.load.devices.length === 0) {
+    return { headers: ['quantity', 'value'], rows: [['design point (vout)', eng(p.output, 'V')], ['design', '— (none realised)'], ['candidates evaluated', String(s.evaluated)]] };
+  }
   const rows = [
     ['gain at the design point', gainText(p.gain)],
     ['design point (vout, vin)', `${eng(p.output, 'V')}, ${eng(p.vin, 'V')}`],

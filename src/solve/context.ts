@@ -65,9 +65,8 @@ export interface Counts {
 }
 
 
-/** Build the context; throws input errors for a spec the kit cannot serve. */
-export function makeContext(spec: StackSpec, kit: KitAccess, supply: number, corners: string[]): SolveContext {
-  const where = `stack "${spec.name}"`;
+/** Build the context; throws input errors for a spec the kit cannot serve, located at `where` (a stage side passes its own). */
+export function makeContext(spec: StackSpec, kit: KitAccess, supply: number, corners: string[], where = `stack "${spec.name}"`): SolveContext {
   if (corners.length === 0) throw new StackwrightError('no corner to size on', { where });
   for (const c of corners) {
     if (!kit.corners.includes(c)) throw new StackwrightError(`corner "${c}" is not in kit ${kit.kit} (has ${kit.corners.join(', ')})`, { where });

@@ -2,7 +2,7 @@ import type { Polarity } from '../table/types.js';
 import { topologyOf } from '../topology/index.js';
 import type { StageSpec, Topology } from '../design/types.js';
 import {
-  handSideRout, handStageGain, handSwing, saturationVoltage, squareLawCheck,
+  gainOverSwingWithEdges, handSideRout, handStageGain, handSwing, saturationVoltage, squareLawCheck,
   type BiasDevice, type DeviceBias, type StackDevice,
 } from '../stack/index.js';
 import type { BiasResult, DeviceResult } from './types.js';
@@ -111,6 +111,19 @@ function smallestTarget(m: StageMargins): StageTarget {
   return order.reduce((a, b) => (m[b] < m[a] ? b : a));
 }
 
+/**
+ * Why a design misses at one corner, as the summary words it: the input outside the rails; else, when the gain at
+ * the design point is below the target (no swing at all), that gain there; else, when no interval of the swing
+ * target's width fits the traced output range (the gain held over it reads 0 whatever the gain target), the swing;
+ * else the target with the least margin.
+ */
+function missTarget(stage: StageSpec, m: StageMargins, at: StageAt, corner: string): StageVerdict {
+  if (m.vin < 0) return verdict(stage, 'vin', at, corner);
+  if (!(at.gain >= stage.gain)) return { target: 'gain', required: stage.gain, achieved: at.gain, at: stage.output, device: null, corner };
+  if (!(at.gainAtSwing > 0) && m.swing < 0) return verdict(stage, 'swing', at, corner);
+  return verdict(stage, smallestTarget(m), at, corner);
+}
+
 function smallest(m: StageMargins): number {
   return Math.min(m.gain, m.swing, m.gbw);
 }
@@ -130,9 +143,8 @@ function cornerResults(sides: StageSides, d: StageDesign): StageCorner[] {
       corner: at.corner, feasible: ok, predicted: predictedOf(sides, d, at),
       gates: { input: at.gates.input.map((g) => absolute(sides.input.device, sides.supply, g)), load: at.gates.load.map((g) => absolute(sides.load.device, sides.supply, g)) },
     };
-    const v = verdict(stage, smallestTarget(m), at, corner);
-    if (ok) r.tightest = v;
-    else r.binding = v;
+    if (ok) r.tightest = verdict(stage, smallestTarget(m), at, corner);
+    else r.binding = missTarget(stage, m, at, corner);
     return r;
   });
 }
@@ -208,8 +220,7 @@ function infeasibility(sides: StageSides, best: StageDesign, explored: readonly 
   if (nominalOk(stage, best)) {
     const c = (best.corners ?? []).find((x) => !meets(stageMargins(stage, x)));
     if (c) {
-      const target = 'error' in c ? 'table' : smallestTarget(stageMargins(stage, c));
-      return { binding: verdict(stage, target, 'error' in c ? null : c, c.corner), nearest };
+      return { binding: 'error' in c ? verdict(stage, 'table', null, c.corner) : missTarget(stage, stageMargins(stage, c), c, c.corner), nearest };
     }
   }
   const swingOk = pool.filter((d) => d.nominal.trace.swing >= stage.swing - 1e-9);
@@ -220,7 +231,9 @@ function infeasibility(sides: StageSides, best: StageDesign, explored: readonly 
   // Both targets miss together (gain held over the swing target ⇔ swing at the gain target); the one further off, relatively, binds.
   const g = 1 - gainAtSwing / stage.gain;
   const s = 1 - swingAtGain / stage.swing;
-  const binding: StageVerdict = g >= s
+  // No interval of the swing target's width fits the traced output range: the held gain reads 0 for any gain
+  // target, so only the swing can bind.
+  const binding: StageVerdict = g >= s && (gainAtSwing > 0 || !(swingAtGain > 0))
     ? { target: 'gain', required: stage.gain, achieved: gainAtSwing, at: null, device: null, corner: nominal, ...reach }
     : { target: 'swing', required: stage.swing, achieved: swingAtGain, at: null, device: null, corner: nominal, ...reach };
   return { binding, nearest };
@@ -252,8 +265,14 @@ export function stageResult(sides: StageSides, best: StageDesign, pool: readonly
   return r;
 }
 
-/** A placeholder result when no pair could be realised from the tables. */
-export function emptyStageResult(sides: StageSides, topology: Topology, evaluated: number): StageResult {
+/**
+ * A placeholder result when no pair could be realised: `why` 'table' when the tables could not hold a pair's bias,
+ * 'saturation' when a side has no design whose lower devices are saturated at the design point (`at`), 'width' when
+ * every design of a side has a device wider than the width limit (`width`: the limit and the narrowest widest device).
+ */
+export function emptyStageResult(
+  sides: StageSides, topology: Topology, evaluated: number, why: 'table' | 'saturation' | 'width' = 'table', width?: { wmax: number; narrowest: number },
+): StageResult {
   const stage = sides.stage;
   return {
     name: stage.name, feasible: false,
@@ -261,7 +280,12 @@ export function emptyStageResult(sides: StageSides, topology: Topology, evaluate
     load: { device: sides.load.device, topology, devices: [], bias: [] },
     predicted: emptyPredicted(stage, 0),
     curve: [],
-    binding: { target: 'table', required: null, achieved: null, at: null, device: null, corner: sides.input.ctx.nominal },
+    // No design to check at any corner; the key is there as on every stage entry (README, JSON output).
+    corners: [],
+    binding: {
+      target: why, required: width?.wmax ?? null, achieved: width?.narrowest ?? null,
+      at: why === 'saturation' ? stage.output : null, device: null, corner: sides.input.ctx.nominal,
+    },
     nearest: { gainAtSwing: 0, swingAtGain: 0, corner: sides.input.ctx.nominal },
     evaluated,
   };
@@ -270,11 +294,14 @@ export function emptyStageResult(sides: StageSides, topology: Topology, evaluate
 /** One explored design as a point of the trade front. */
 export function stageFrontPoint(sides: StageSides, d: StageDesign): StageFrontPoint {
   const side = (s: StageDesign['input']) => s.cand.l.map((l, k) => ({ l, gmid: s.cand.gmid[k], w: s.sized.w[k] }));
+  const t = d.nominal.trace;
   return {
     load: d.load.cand.topology,
     gain: d.nominal.gain,
     swing: d.nominal.trace.swing,
-    gainAtSwing: d.nominal.gainAtSwing,
+    // A search-grid trace's held gain is read off its 50 mV samples, up to half its value low at steep swing edges;
+    // with the solved edges as samples a point reaching the swing target shows at least the gain target over it.
+    gainAtSwing: Math.max(d.nominal.gainAtSwing, gainOverSwingWithEdges(t.vs, t.gains, t.j0, sides.stage.swing, t, sides.stage.gain)),
     area: d.area,
     feasible: nominalOk(sides.stage, d) && (d.corners === undefined ? sides.input.ctx.corners.length === 1 : d.corners.every((c) => meets(stageMargins(sides.stage, c)))),
     devices: { input: side(d.input), load: side(d.load) },

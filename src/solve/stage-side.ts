@@ -1,4 +1,5 @@
 import { StackwrightError } from '../errors.js';
+import { REL_TOL } from '../policy.js';
 import { topologyOf } from '../topology/index.js';
 import type { LengthSlice } from '../device/types.js';
 import type { Polarity } from '../table/types.js';
@@ -29,6 +30,8 @@ export interface Side {
   /** Stack voltage of this side at the design point, V. */
   vd: number;
   ctx: SolveContext;
+  /** Over the side designs refused for a device wider than the width limit: the narrowest of their widest devices, m. */
+  narrowestTooWide?: number;
 }
 
 /** A side sized at the design point, with its small-signal curve on the stage's output grid. */
@@ -75,7 +78,8 @@ export function makeSide(stage: StageSpec, kind: SideKind, kit: KitAccess, suppl
   if (!(hi > lo)) {
     throw new StackwrightError(`output ${stage.output} V leaves the ${kind} side (${device}-type) no room to operate within the ${supply} V supply`, { where: `stage "${stage.name}".output` });
   }
-  const ctx = makeContext(sideSpec(stage, kind, device, vd, 0.5 * (lo + hi), 1e6), kit, supply, corners);
+  // Errors name the stage side's own keys (e.g. stage "amp".input.l), not the stack spec derived from it.
+  const ctx = makeContext(sideSpec(stage, kind, device, vd, 0.5 * (lo + hi), 1e6), kit, supply, corners, `stage "${stage.name}".${kind}`);
   return { kind, device, vd, ctx };
 }
 
@@ -84,9 +88,10 @@ export function makeSide(stage: StageSpec, kind: SideKind, kit: KitAccess, suppl
  * side's share of the voltage the swing target leaves (supply − swing), and
  * the Rout each side needs for the gain target when the two are equal
  * (2·gain/gm_in at a middling gm/ID) — so its pools hold designs across the
- * headroom/Rout/area trade. A common-source input side is enumerated whole.
+ * headroom/Rout/area trade. A common-source input side is enumerated whole. `roomy`: screened with all the
+ * headroom the side may have at once.
  */
-export function sideCandidates(stage: StageSpec, side: Side, topology: Topology, supply: number): Candidate[] {
+export function sideCandidates(stage: StageSpec, side: Side, topology: Topology, supply: number, roomy = false): Candidate[] {
   const ctx = side.ctx;
   if (side.kind === 'input' && topology === 'single') {
     return ctx.lengths.flatMap((l) => ctx.gmids.map((g) => ({ topology, l: [l], gmid: [g], setpoints: [] })));
@@ -97,9 +102,16 @@ export function sideCandidates(stage: StageSpec, side: Side, topology: Topology,
   const base = ctx.spec;
   const seen = new Map<string, Candidate>();
   try {
-    for (const share of SHARES[side.kind]) {
+    for (const share of roomy ? [] : SHARES[side.kind]) {
       const h = Math.min(Math.max(share * free, lo), hi);
       ctx.spec = { ...base, rout, headroom: h, span: 2 * side.vd - h };
+      for (const c of screen(ctx, topology)) seen.set(candidateKey(c), c);
+    }
+    // A wide swing target can leave a share too small for any design of the topology (a triple's lower devices
+    // need their VDSsat each) although the stage still holds its gain past the load's saturation edge: then the
+    // side is screened with all the headroom it may have, and the traced pairs say what the stage reaches.
+    if (seen.size === 0) {
+      ctx.spec = { ...base, rout, headroom: hi, span: 2 * side.vd - hi };
       for (const c of screen(ctx, topology)) seen.set(candidateKey(c), c);
     }
   } finally {
@@ -123,6 +135,12 @@ export function sideDesign(side: Side, cand: Candidate, vs: Float64Array, j0: nu
     const slices = cand.l.map((l) => ctx.slice(ctx.nominal, l));
     const sized = sizeStackDevices({ shape: topologyOf(cand.topology), slices, gmid: cand.gmid, setpoints: cand.setpoints, current: ctx.spec.current, vmid: side.vd, wmin: ctx.wmin });
     if (!sized) return null;
+    // No output device wider than the width limit, as for stacks (the screen proposes wider ones when none fits).
+    const widest = Math.max(...sized.w);
+    if (!(widest <= ctx.wmax * (1 + REL_TOL))) {
+      side.narrowestTooWide = Math.min(side.narrowestTooWide ?? Infinity, widest);
+      return null;
+    }
     const devices: StackDevice[] = slices.map((slice, k) => ({ slice, w: sized.w[k] }));
     const m = midPoint(devices, sized.gates, side.vd, { i: ctx.spec.current, nodes: sized.nodes }, ctx.ut(ctx.nominal));
     if (!m || saturationMargin(m) < 0) return null;

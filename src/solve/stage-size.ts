@@ -24,12 +24,24 @@ export interface SizeStageResult {
   evaluated: number;
 }
 
-function designs(sides: StageSides, side: StageSides['input'], topology: Topology, vs: Float64Array, j0: number, gmMax?: number): SideDesign[] {
-  const out: SideDesign[] = [];
-  for (const c of sideCandidates(sides.stage, side, topology, sides.supply)) {
+/** Side designs of one topology; `screened` false when the stack screen found no candidate at all (no room at the design point). */
+function designs(sides: StageSides, side: StageSides['input'], topology: Topology, vs: Float64Array, j0: number, gmMax?: number): SideDesign[] & { screened?: boolean } {
+  const out: SideDesign[] & { screened?: boolean } = [];
+  side.narrowestTooWide = undefined; // this topology's own
+  const cands = sideCandidates(sides.stage, side, topology, sides.supply);
+  for (const c of cands) {
     const d = sideDesign(side, c, vs, j0, sides.stage, sides.supply, gmMax);
     if (d) out.push(d);
   }
+  // The shares' candidates were all refused (a too-small headroom share buys Rout with width beyond the width
+  // limit): screen again with all the headroom the side may have.
+  if (out.length === 0 && cands.length > 0 && side.narrowestTooWide !== undefined) {
+    for (const c of sideCandidates(sides.stage, side, topology, sides.supply, true)) {
+      const d = sideDesign(side, c, vs, j0, sides.stage, sides.supply, gmMax);
+      if (d) out.push(d);
+    }
+  }
+  out.screened = cands.length > 0;
   return out;
 }
 
@@ -78,7 +90,13 @@ export function sizeStage(stage: StageSpec, kit: KitAccess, opts: { supply: numb
     const count = input.ctx.count.exact + load.ctx.count.exact + input.ctx.count.screened + load.ctx.count.screened - before + screened + traced + (climb?.evaluated ?? 0);
     evaluated += count;
     if (!climb) {
-      results.push(emptyStageResult(sides, t, count));
+      // No candidate of a side at all: its lower devices cannot be saturated in the room the design point leaves
+      // (the tables were never the obstacle); else no pair could be realised from the tables.
+      const why = sized.screened === false || loads.screened === false ? 'saturation' : 'table';
+      // Every design of a side refused by the width limit: that binds (required the limit, achieved the narrowest).
+      const wide = sized.length === 0 ? input : loads.length === 0 ? load : undefined;
+      const width = wide?.narrowestTooWide !== undefined ? { wmax: wide.ctx.wmax, narrowest: wide.narrowestTooWide } : undefined;
+      results.push(emptyStageResult(sides, t, count, width ? 'width' : why, width));
       continue;
     }
     results.push(stageResult(sides, climb.best, pool, count, climb.nearest));

@@ -4,14 +4,14 @@ import type { BiasResult, DeviceResult } from './types.js';
 import type { Verdict } from './evaluate/verdict.js';
 
 /** Targets a stage verdict can name. */
-export type StageTarget = 'gain' | 'swing' | 'gbw' | 'saturation' | 'table' | 'vin';
+export type StageTarget = 'gain' | 'swing' | 'gbw' | 'saturation' | 'table' | 'vin' | 'width';
 
 /**
  * Why a stage fails (`binding`) or what it meets with the least margin
  * (`tightest`), as data in SI units, shaped like a stack's verdict; sentences
  * are made in src/report. `required`: gain (V/V), swing (V), gbw (Hz), for `vin`
  * (input DC voltage outside the rails) the rail it crosses (0 V or the supply), null when
- * not applicable; `achieved`: what the nearest (or chosen) design reaches, null
+ * not applicable, for `width` the width limit (m); `achieved`: what the nearest (or chosen) design reaches, null
  * when nothing was reachable; `at`: the output voltage it refers to (the design
  * point for gain and gbw) or null; `device`: always null (a stage target is not
  * one device's); `corner`: the corner where it was found.

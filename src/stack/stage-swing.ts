@@ -68,6 +68,35 @@ export function gainOverSwing(vs: ArrayLike<number>, gains: ArrayLike<number>, j
   return best;
 }
 
+/**
+ * gainOverSwing of a traced curve with its swing edges as two more samples: there the gain equals `target` (the
+ * edges are solved on the circuit), which the grid's samples either side of an edge, linear between them, read
+ * far lower where the gain falls steeply. So a design whose swing reaches `width` holds at least `target` over it,
+ * as the definitions say it must.
+ */
+export function gainOverSwingWithEdges(
+  vs: ArrayLike<number>, gains: ArrayLike<number>, j0: number, width: number, edges: { vlow: number | null; vhigh: number | null }, target: number,
+): number {
+  const xs: number[] = [];
+  const gs: number[] = [];
+  let k0 = 0;
+  const push = (v: number, g: number): void => {
+    if (xs.length > 0 && !(v > xs[xs.length - 1])) return;
+    xs.push(v);
+    gs.push(g);
+  };
+  const isEdge = (v: number): boolean => v === edges.vlow || v === edges.vhigh;
+  for (let j = 0; j < vs.length; j++) {
+    if (edges.vlow !== null && edges.vlow > (j > 0 ? vs[j - 1] : -Infinity) && edges.vlow < vs[j]) push(edges.vlow, target);
+    if (edges.vhigh !== null && edges.vhigh > (j > 0 ? vs[j - 1] : -Infinity) && edges.vhigh < vs[j]) push(edges.vhigh, target);
+    if (j === j0) k0 = xs.length;
+    // An edge bisected onto a sample (within its resolution) holds the target there, not the sample's higher gain,
+    // or the segment beyond it would read a window poking past the edge as holding the target.
+    push(vs[j], isEdge(vs[j]) ? Math.min(gains[j], target) : gains[j]);
+  }
+  return gainOverSwing(xs, gs, k0, width);
+}
+
 /** Widest swing with gain ≥ target around the design point, V (0 when the design point misses the target). */
 export function swingAtGain(vs: ArrayLike<number>, gains: ArrayLike<number>, j0: number, target: number): number {
   // swingOnGrid's arithmetic without its object: this runs for every pair a stage screen rates.
