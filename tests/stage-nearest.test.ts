@@ -38,6 +38,11 @@ const cases: StageCase[] = [
     stage: { ...stageOf({ gain: 60, swing: 1.2, output: 0.9, input: 'n', inputTopology: 'single', load: 'single', l: [0.35e-6, 1.4e-6], gmid: [6, 24] }), gbw: 50e6, cap: 1e-12 },
     why: 'gain and swing are met, the GBW binds: its nearest point is the highest GBW among the designs meeting both',
   },
+  {
+    id: 'n common-source input, p stacked-cascode load, gain 30 over 1.6 V', kit: 'demo180', grid: { gmidPoints: 5, vStep: 0.1 },
+    stage: stageOf({ gain: 30, swing: 1.6, output: 0.9, input: 'n', inputTopology: 'single', load: 'cascode-stacked', l: [0.35e-6, 2e-6], gmid: [18, 30] }),
+    why: 'the traced designs the area search leaves all sit on short lengths: climbs from them alone stopped at a held gain of 24 where the reference reaches 27.8',
+  },
 ];
 
 describe('infeasible gain stage: nearest points against an exhaustive reference (tt)', () => {

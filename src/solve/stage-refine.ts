@@ -303,10 +303,23 @@ function nearestStage(sides: StageSides, pool: StageDesign[], memos: { input: Si
   // steeply at the ends.
   const point = stageClimber(sides, pool, memos, 'point');
   const held = stageClimber(sides, pool, memos, 'held');
-  const top = (climber: Climber, better: StageOrder): StageDesign | undefined => {
-    const sorted = pool.filter((d) => withinRails(sides.stage, d)).sort((a, b) => (better(a, b) ? -1 : better(b, a) ? 1 : 0));
+  // The two best traced designs by an order.
+  const leaders = (better: StageOrder): StageDesign[] =>
+    pool.filter((d) => withinRails(sides.stage, d)).sort((a, b) => (better(a, b) ? -1 : better(b, a) ? 1 : 0)).slice(0, 2);
+  // The best of the climbs from these seeds, skipping a seed on the same lengths as an earlier one: a climb settles
+  // gm/ID and setpoints near its seed, so what another seed adds is mostly other lengths.
+  const lengthsOf = (d: StageDesign) => `${d.input.cand.l.join(',')}/${d.load.cand.l.join(',')}`;
+  const top = (climber: Climber, better: StageOrder, extra: readonly (StageDesign | undefined)[] = []): StageDesign | undefined => {
+    const first = leaders(better);
+    const taken = new Set(first.map(lengthsOf));
+    const seeds = [...first];
+    for (const d of extra) {
+      if (!d || taken.has(lengthsOf(d))) continue;
+      taken.add(lengthsOf(d));
+      seeds.push(d);
+    }
     let best: StageDesign | undefined;
-    for (const traced of sorted.slice(0, 2)) {
+    for (const traced of seeds) {
       const seed = climber.pairOf(traced.input, traced.load);
       if (!seed) continue;
       const local = climber.climb(seed, { better, levels: NEAREST_LEVELS, scale: NEAREST_SCALE, bound: () => Infinity });
@@ -316,14 +329,27 @@ function nearestStage(sides: StageSides, pool: StageDesign[], memos: { input: Si
   };
   const gain = (d: StageDesign) => d.nominal.gain;
   const evaluated = () => point.evaluated() + held.evaluated();
-  const peakAt = top(point, higher(sides, gain, () => 0));
+  const peakOrder = higher(sides, gain, () => 0);
+  const peakAt = top(point, peakOrder);
   const peak = peakAt && search.pairOf(peakAt.input, peakAt.load);
   if (!peak) return { evaluated: evaluated() };
-  const heldBy = top(held, higher(sides, (d) => d.nominal.gainAtSwing, gain)) ?? peak;
-  const swing = peak.nominal.gain >= stage.gain ? top(search, higher(sides, (d) => d.nominal.trace.swing, gain)) : undefined;
+  // The held gain and the swing at the gain target are two views of one trade: each climb also starts from the
+  // other's winner (and the held gain from the peak), since the traced designs the other seeds come from depend on
+  // the targets the area search aimed at, and a climb from them can stop on a local best.
+  const heldOrder = higher(sides, (d) => d.nominal.gainAtSwing, gain);
+  const swingOrder = higher(sides, (d) => d.nominal.trace.swing, gain);
+  let heldBy = top(held, heldOrder, [peak]) ?? peak;
+  const swing = peak.nominal.gain >= stage.gain ? top(search, swingOrder, [heldBy]) : undefined;
+  // The swing climb's winner on lengths of its own: the held gain climbs from it too.
+  if (swing && !leaders(heldOrder).concat(heldBy).some((d) => lengthsOf(d) === lengthsOf(swing))) {
+    const again = held.pairOf(swing.input, swing.load);
+    const local = again && held.climb(again, { better: heldOrder, levels: NEAREST_LEVELS, scale: NEAREST_SCALE, bound: () => Infinity });
+    if (local && heldOrder(local, heldBy)) heldBy = local;
+  }
   const swingMet = (d: StageDesign) => (d.nominal.trace.swing >= stage.swing - 1e-9 ? 1 : 0);
+  const gbwOrder: StageOrder = (a, b) => swingMet(a) !== swingMet(b) ? swingMet(a) > swingMet(b) : higher(sides, (d) => d.nominal.gbw ?? 0, gain)(a, b);
   const gbw = stage.gbw !== undefined && swing && swingMet(swing)
-    ? top(search, (a, b) => swingMet(a) !== swingMet(b) ? swingMet(a) > swingMet(b) : higher(sides, (d) => d.nominal.gbw ?? 0, gain)(a, b))
+    ? top(search, gbwOrder)
     : undefined;
   // The figures the report shows: on the reported grid.
   for (const d of new Set([peak, heldBy, swing, gbw])) if (d) d.nominal = stageAt(sides, d.nominal.corner, d.nominal.circuit, d.nominal.gates, TRACE_STEP);
