@@ -70,9 +70,31 @@ describe('formatEng / formatSpice', () => {
     expect(formatEng(0.45, 'V')).toBe('450 mV');
     expect(formatEng(1.8, 'V')).toBe('1.8 V');
     expect(formatEng(0, 'V')).toBe('0 V');
-    // Outside the SI prefixes atto..tera (BIPM SI Brochure, table 7) the plain exponent form is clearer than "2e-12 aF".
+    // Outside the SI prefixes atto..exa (BIPM SI Brochure, table 7) the plain exponent form is clearer than "2e-12 aF".
     expect(formatEng(2e-30, 'F')).toBe('2e-30 F');
-    expect(formatEng(-3.2e17, 'A')).toBe('-3.2e+17 A');
+    expect(formatEng(-3.2e21, 'A')).toBe('-3.2e+21 A');
+  });
+  it('prints every SI prefix from exa down to atto (BIPM SI Brochure, 9th ed., table 7)', () => {
+    // Table 7 of the SI Brochure: exa E 1e18, peta P 1e15, tera T 1e12, giga G 1e9, mega M 1e6, kilo k 1e3,
+    // milli m 1e-3, micro µ 1e-6, nano n 1e-9, pico p 1e-12, femto f 1e-15, atto a 1e-18.
+    const table: Array<[number, string]> = [
+      [1e18, 'E'], [1e15, 'P'], [1e12, 'T'], [1e9, 'G'], [1e6, 'M'], [1e3, 'k'],
+      [1e-3, 'm'], [1e-6, 'µ'], [1e-9, 'n'], [1e-12, 'p'], [1e-15, 'f'], [1e-18, 'a'],
+    ];
+    for (const [scale, prefix] of table) {
+      expect(formatEng(scale, 'Ω')).toBe(`1 ${prefix}Ω`);
+      expect(formatEng(2.5 * scale, 'Ω')).toBe(`2.5 ${prefix}Ω`);
+      expect(formatEng(-470 * scale, 'A')).toBe(`-470 ${prefix}A`);
+    }
+    // A Rout target of 1e15 Ω was printed "1e+15 Ω" before peta was known.
+    expect(formatEng(1e15, 'Ω')).toBe('1 PΩ');
+    expect(formatEng(-3.2e17, 'A')).toBe('-320 PA');
+    expect(formatEng(999e18, 'Ω')).toBe('999 EΩ');
+  });
+  it('the spec parser keeps SPICE3 suffixes: "P" is pico there, not peta, and "meg" is mega (SPICE3 user manual)', () => {
+    expect(parseEng('1P')).toBe(1e-12);
+    expect(parseEng('1p')).toBe(1e-12);
+    expect(parseEng('1meg')).toBe(1e6);
   });
   it('prints SPICE3 suffixes that parse back to the same value (round trip through parseEng)', () => {
     for (const x of [5e7, 1.8e-7, 4e-5, 0.45, 1.8, 3.3e-15, 2e9, 12345]) {

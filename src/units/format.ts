@@ -1,5 +1,10 @@
-/** SI prefixes used for printing (not SPICE's: "M" here is mega, as people read it). */
+/**
+ * SI prefixes used for printing (not SPICE's: "M" here is mega and "P" peta, as people read it;
+ * the spec parser keeps SPICE's suffixes). Exa down to atto: a Rout target of 1e15 Ω is "1 PΩ".
+ */
 const PREFIXES: ReadonlyArray<readonly [number, string]> = [
+  [1e18, 'E'],
+  [1e15, 'P'],
   [1e12, 'T'],
   [1e9, 'G'],
   [1e6, 'M'],
@@ -21,7 +26,7 @@ export function formatEng(x: number, unit = '', digits = 3): string {
   if (x === 0) return `0${unit ? ' ' + unit : ''}`;
   const ax = Math.abs(x);
   // Beyond the prefixes (a units mistake, mostly): plain exponent form, not "2e-12 aF".
-  if (ax < 1e-18 * 0.9995 || ax >= 1e15 * 0.9995) return `${Number(x.toPrecision(digits)).toExponential()}${unit ? ' ' + unit : ''}`;
+  if (ax < 1e-18 * 0.9995 || ax >= 1e21 * 0.9995) return `${Number(x.toPrecision(digits)).toExponential()}${unit ? ' ' + unit : ''}`;
   let chosen = PREFIXES[PREFIXES.length - 1];
   for (const p of PREFIXES) {
     if (ax >= p[0] * 0.9995) {
