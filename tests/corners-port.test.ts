@@ -4,6 +4,9 @@ import { evaluateAtCorner, loadKit, parseSpec, pelgromSigma, portSpec, sizeSpec,
 import { ensureDemoTables, REPO, demoKit } from './helpers/cli.js';
 import { statusLine } from '../src/report/rows.js';
 import { harderTargets } from '../src/solve/compare.js';
+import { harderText } from '../src/report/port-harder.js';
+import { renderPortText } from '../src/report/port-text.js';
+import { toJson } from '../src/cli/io.js';
 
 let k180: Kit;
 let k090: Kit;
@@ -101,7 +104,10 @@ describe('port demo180 -> demo090', () => {
     expect(s.from.feasible).toBe(true);
     expect(s.to.feasible).toBe(false);
     expect(s.to.binding?.target).toBe('rout');
-    expect(s.harder.join(' ')).toMatch(/infeasible on the new kit/);
+    // Data, not a sentence (project rule): the feasibility item carries the binding verdict in SI units.
+    const f = s.harder.find((h) => h.quantity === 'feasible');
+    expect(f).toEqual({ quantity: 'feasible', from: true, to: false, binding: s.to.binding });
+    expect(renderPortText(run, { color: false })).toMatch(/harder on demo090: infeasible on the new kit: /);
   });
 });
 
@@ -170,7 +176,7 @@ describe('port: what got harder', () => {
     const s = portSpec(spec, k180, k090).stacks[0];
     const margin = (r: number) => r / 100e6;
     expect(margin(s.to.predicted.rout)).toBeGreaterThan(margin(s.from.predicted.rout) * 0.95);
-    expect(s.harder.filter((h) => h.startsWith('rout'))).toEqual([]);
+    expect(s.harder.filter((h) => h.quantity === 'rout')).toEqual([]);
   });
 
   it('a Rout margin that fell by more than that is harder, and the line shows two different margins', () => {
@@ -178,9 +184,45 @@ describe('port: what got harder', () => {
     const s = portSpec(spec, k180, k090).stacks[0];
     const from = { ...s.from, predicted: { ...s.from.predicted, rout: 150e6 } };
     const to = { ...s.to, predicted: { ...s.to.predicted, rout: 120e6 } };
-    const line = harderTargets(spec.stacks[0], from, to).find((h) => h.startsWith('rout'));
-    expect(line).toBe('rout: margin 1.50x -> 1.20x of the target');
+    const item = harderTargets(spec.stacks[0], from, to).find((h) => h.quantity === 'rout');
+    // Margin = predicted Rout / required Rout (common practice): 150/100 and 120/100.
+    expect(item).toEqual({ quantity: 'rout', required: 100e6, from: 150e6, to: 120e6, fromMargin: 1.5, toMargin: 1.2 });
+    expect(harderText(item!, false)).toBe('rout: margin 1.50x -> 1.20x of the target');
     const to2 = { ...s.to, predicted: { ...s.to.predicted, rout: 146e6 } }; // 2.7 % lower: within the search's 5 %
-    expect(harderTargets(spec.stacks[0], from, to2).find((h) => h.startsWith('rout'))).toBeUndefined();
+    expect(harderTargets(spec.stacks[0], from, to2).find((h) => h.quantity === 'rout')).toBeUndefined();
+  });
+
+  it('a headroom never reached is null in the data and JSON and "none" in text, never Infinity', () => {
+    const spec = parseSpec('kit: demo180\nsupply: 1.8\nstacks:\n  - {name: ota-load, device: p, topology: auto, current: 10u, rout: 100meg, headroom: 0.5, span: 1.5, objective: area}\n', 'load.yaml');
+    const s = portSpec(spec, k180, k090).stacks[0];
+    const from = { ...s.from, predicted: { ...s.from.predicted, headroom: 0.3 } };
+    const to = { ...s.to, feasible: false, predicted: { ...s.to.predicted, headroom: Infinity } };
+    const list = harderTargets(spec.stacks[0], from, to);
+    const head = list.find((h) => h.quantity === 'headroom');
+    // Slack = headroom target − headroom provided (common practice): 0.5 − 0.3 = 0.2 V; none when never reached.
+    expect(head).toMatchObject({ quantity: 'headroom', required: 0.5, from: 0.3, to: null, toSlack: null });
+    expect(head && head.quantity === 'headroom' ? head.fromSlack : NaN).toBeCloseTo(0.2, 12);
+    expect(harderText(head!, false)).toBe('headroom: slack 200 mV -> none');
+    const json = toJson(list);
+    expect(json).not.toMatch(/Infinity|NaN|undefined/);
+    for (const h of JSON.parse(json) as Array<Record<string, unknown>>) {
+      expect(typeof h.quantity).toBe('string');
+      for (const v of Object.values(h)) if (typeof v === 'string') expect(v).not.toMatch(/ /); // names, not sentences
+    }
+    const text = list.map((h) => harderText(h, false)).join('; ');
+    expect(text).not.toMatch(/Infinity|NaN|undefined/);
+  });
+
+  it('port JSON carries what got harder as objects, and the text still reads as sentences', () => {
+    const spec = sink('200meg', 0.35, '10u', 1.0);
+    const run = portSpec(spec, k180, k090);
+    const json = JSON.parse(toJson(run.stacks)) as Array<{ harder: unknown[] }>;
+    expect(json[0].harder.length).toBeGreaterThan(0);
+    for (const h of json[0].harder) expect(typeof h).toBe('object');
+    const text = renderPortText(run, { color: false });
+    expect(text).not.toMatch(/Infinity|NaN|undefined/);
+    const line = text.split('\n').find((l) => l.trim().startsWith('harder on demo090:'));
+    expect(line).toBeDefined();
+    expect(line).toContain('infeasible on the new kit');
   });
 });

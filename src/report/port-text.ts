@@ -2,7 +2,8 @@ import type { PortRun } from '../solve/port.js';
 import { formatEng } from '../units/index.js';
 import { renderTable } from './text.js';
 import { formatArea, formatPercent } from './format.js';
-import { bindingText, verdictText } from './verdict.js';
+import { verdictText } from './verdict.js';
+import { harderLine } from './port-harder.js';
 import { stageVerdictText } from './stage-rows.js';
 
 function value(x: number, unit: string): string {
@@ -27,8 +28,7 @@ export function renderPortText(run: PortRun, opts: { color: boolean }): string {
       c.what, value(c.from, c.unit), value(c.to, c.unit), Number.isFinite(c.percent) ? `${c.percent >= 0 ? '+' : ''}${c.percent.toFixed(1)} %` : '—',
     ]);
     lines.push(renderTable(['quantity', from, to, 'change'], rows, { indent: 2 }));
-    const harder = s.harder.map((h) => (h === 'infeasible on the new kit' && !s.to.feasible ? `${h}${s.to.binding ? `: ${bindingText(s.to)}` : ''}` : h));
-    lines.push(`  harder on ${to}: ${harder.length ? harder.join('; ') : 'nothing'}`);
+    lines.push(`  harder on ${to}: ${harderLine(s.harder, (s.to.corners?.length ?? 0) > 1)}`);
     if ('error' in s.asIs) lines.push(`  old sizes as they are on ${to}: cannot be evaluated (${s.asIs.error})`);
     else {
       const p = s.asIs.predicted;

@@ -1,5 +1,6 @@
 import type { StackSpec } from '../design/types.js';
 import type { DeviceResult, StackResult } from './types.js';
+import type { Verdict } from './evaluate/verdict.js';
 import type { Role } from '../stack/types.js';
 
 /** One compared number: old, new and the change in percent (NaN when undefined). */
@@ -69,28 +70,46 @@ export function compareResults(from: StackResult, to: StackResult): Change[] {
 }
 
 /**
- * Targets whose margin shrank on the new kit: Rout (predicted/target), headroom
- * (target − provided), mismatch (target/σ), and area growth as a cost.
+ * One target that got harder on the new kit, as data in SI units (sentences are made in src/report).
+ * `rout`: Rout in Ω with its margin predicted/required (×); `headroom`: headroom in V with its slack
+ * required − headroom in V (null when the headroom is never reached); `mismatch`: σ(Iout)/Iout as a fraction;
+ * `area`: m² with the ratio new/old; `feasible`: the new design is infeasible, `binding` says why.
  */
-export function harderTargets(spec: StackSpec, from: StackResult, to: StackResult): string[] {
-  const out: string[] = [];
+export type Harder =
+  | { quantity: 'feasible'; from: boolean; to: boolean; binding: Verdict | null }
+  | { quantity: 'rout'; required: number; from: number; to: number; fromMargin: number; toMargin: number }
+  | { quantity: 'headroom'; required: number; from: number | null; to: number | null; fromSlack: number | null; toSlack: number | null }
+  | { quantity: 'mismatch'; required: number; from: number; to: number }
+  | { quantity: 'area'; from: number; to: number; ratio: number }
+  | { quantity: 'topology'; from: string; to: string };
+
+const finiteOrNull = (x: number): number | null => (Number.isFinite(x) ? x : null);
+
+/**
+ * Targets whose margin shrank on the new kit: Rout (predicted/target), headroom
+ * (target − provided), mismatch (σ above the old), and area growth as a cost.
+ */
+export function harderTargets(spec: StackSpec, from: StackResult, to: StackResult): Harder[] {
+  const out: Harder[] = [];
   const p = from.predicted;
   const q = to.predicted;
-  if (!to.feasible) out.push('infeasible on the new kit'); // the report adds the binding verdict
+  if (!to.feasible) out.push({ quantity: 'feasible', from: from.feasible, to: false, binding: to.binding ?? null });
   const routMargin = (x: number): number => x / spec.rout;
   // The search finds Rout within 5 % of the optimum (README, tests/optimal.test.ts): a smaller drop says nothing about the kit.
   if (routMargin(q.rout) < routMargin(p.rout) * 0.95) {
-    out.push(`rout: margin ${routMargin(p.rout).toFixed(2)}x -> ${routMargin(q.rout).toFixed(2)}x of the target`);
+    out.push({ quantity: 'rout', required: spec.rout, from: p.rout, to: q.rout, fromMargin: routMargin(p.rout), toMargin: routMargin(q.rout) });
   }
-  const headMargin = (x: number): number => spec.headroom - x;
-  if (headMargin(q.headroom) < headMargin(p.headroom) - 1e-3) {
-    const fmt = (x: number): string => (Number.isFinite(x) ? `${(x * 1e3).toFixed(0)} mV` : 'none');
-    out.push(`headroom: slack ${fmt(headMargin(p.headroom))} -> ${fmt(headMargin(q.headroom))}`);
+  const headSlack = (x: number): number => spec.headroom - x;
+  if (headSlack(q.headroom) < headSlack(p.headroom) - 1e-3) {
+    out.push({
+      quantity: 'headroom', required: spec.headroom, from: finiteOrNull(p.headroom), to: finiteOrNull(q.headroom),
+      fromSlack: finiteOrNull(headSlack(p.headroom)), toSlack: finiteOrNull(headSlack(q.headroom)),
+    });
   }
   if (spec.mismatch !== undefined && p.sigma !== undefined && q.sigma !== undefined && q.sigma > p.sigma * 1.001) {
-    out.push(`mismatch: σ ${(p.sigma * 100).toFixed(3)} % -> ${(q.sigma * 100).toFixed(3)} % (target ${(spec.mismatch * 100).toFixed(3)} %)`);
+    out.push({ quantity: 'mismatch', required: spec.mismatch, from: p.sigma, to: q.sigma });
   }
-  if (q.area > p.area * 1.2) out.push(`area: ${(q.area / p.area).toFixed(2)}x larger to meet the same targets`);
-  if (from.topology !== to.topology) out.push(`topology: ${from.topology} -> ${to.topology}`);
+  if (q.area > p.area * 1.2) out.push({ quantity: 'area', from: p.area, to: q.area, ratio: q.area / p.area });
+  if (from.topology !== to.topology) out.push({ quantity: 'topology', from: from.topology, to: to.topology });
   return out;
 }

@@ -5,7 +5,7 @@ import type { Kit } from './load-kit.js';
 import { sizeSpec, type SizeRun } from './size.js';
 import { specDecimal } from '../units/index.js';
 import { decidingResults } from './choose.js';
-import { compareResults, harderTargets, type Change } from './compare.js';
+import { compareResults, harderTargets, type Change, type Harder } from './compare.js';
 import { evaluateAtCorner } from './evaluate/corners.js';
 import type { StageCorner, StageResult } from './stage-types.js';
 import { compareStages, retargetStage, stageAsIs } from './stage-port.js';
@@ -16,7 +16,8 @@ export interface PortStack {
   from: StackResult;
   to: StackResult;
   changes: Change[];
-  harder: string[];
+  /** Targets that got harder on the new kit, as data (src/report makes the sentences). */
+  harder: Harder[];
   /** The old sizes as they are, re-evaluated on the new kit's tables (gates from the old bias devices). */
   asIs: CornerResult | { error: string };
 }
