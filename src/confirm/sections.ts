@@ -1,7 +1,5 @@
-import { existsSync, readFileSync } from 'node:fs';
-import { resolve } from 'node:path';
 import { StackwrightError } from '../errors.js';
-import { anchoredInclude, librarySections } from '../spice/include.js';
+import { existingInclude, librarySections, modelFile } from '../spice/include.js';
 
 export { librarySections };
 
@@ -29,13 +27,9 @@ export function cornerModels(src: ModelSource, corner: string, corners: readonly
       throw new StackwrightError(`a literal line serves one corner, the spec has ${corners.length} (${corners.join(', ')}); give the model file and map corners with --section CORNER=SECTION`, { where: '--include' });
     }
     // ngspice runs the deck in a folder of its own: the line's file is taken from ours, as a plain path is.
-    const anchored = anchoredInclude(text, process.cwd());
-    if (anchored.path !== undefined && !existsSync(anchored.path)) throw new StackwrightError('model file not found', { where: `--include ${text}` });
-    return anchored.include;
+    return existingInclude(text, '--include');
   }
-  const path = resolve(text);
-  if (!existsSync(path)) throw new StackwrightError('model file not found', { where: `--include ${text}` });
-  const have = librarySections(readFileSync(path, 'utf8'));
+  const { path, sections: have } = modelFile(text, '--include');
   const section = src.sections?.[corner] ?? corner;
   if (have.length === 0) {
     if (corners.length > 1 || src.sections?.[corner] !== undefined) {

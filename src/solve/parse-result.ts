@@ -54,20 +54,33 @@ function positive(x: unknown, where: string): void {
   if (typeof x !== 'number' || !(x > 0)) throw new StackwrightError(`expected a positive number, got ${JSON.stringify(x) ?? 'nothing'}`, { where });
 }
 
+function checkName(kind: 'stack' | 'stage', name: unknown, at: string): void {
+  if (typeof name !== 'string' || !NAME.test(name)) throw new StackwrightError(`${kind} names use ${NAME_RULE}; got ${JSON.stringify(name) ?? 'nothing'}`, { where: `${at}.name` });
+}
+
+function checkRole(role: unknown, where: string): void {
+  if (!ROLES.includes(role as string)) throw new StackwrightError(`expected one of ${ROLES.join(', ')}, got ${JSON.stringify(role) ?? 'nothing'}`, { where });
+}
+
+/** A series of devices as a deck writes it (a stack, or one side of a stage): type, roles, positive sizes, bias devices. */
+function checkSeries(x: Pick<StackResult, 'device' | 'devices' | 'bias'>, at: string): void {
+  if (x.device !== 'n' && x.device !== 'p') throw new StackwrightError(`expected "n" or "p", got ${JSON.stringify(x.device) ?? 'nothing'}`, { where: `${at}.device` });
+  x.devices.forEach((d, k) => {
+    checkRole(d.role, `${at}.devices[${k}].role`);
+    positive(d.w, `${at}.devices[${k}].w`);
+    positive(d.l, `${at}.devices[${k}].l`);
+  });
+  checkBias(x.bias, `${at}.bias`);
+}
+
 /**
  * What a netlist writes from a stack, checked so a hand-edited result fails here with the
  * field named rather than as `W=NaN`, a negative width, a line break inside a comment or a crash:
  * name, type, roles, positive widths and lengths, the bias devices and the predicted figures.
  */
 function checkStackForDeck(s: StackResult, at: string): void {
-  if (typeof s.name !== 'string' || !NAME.test(s.name)) throw new StackwrightError(`stack names use ${NAME_RULE}; got ${JSON.stringify(s.name) ?? 'nothing'}`, { where: `${at}.name` });
-  if (s.device !== 'n' && s.device !== 'p') throw new StackwrightError(`expected "n" or "p", got ${JSON.stringify(s.device) ?? 'nothing'}`, { where: `${at}.device` });
-  s.devices.forEach((d, k) => {
-    if (!ROLES.includes(d.role)) throw new StackwrightError(`expected one of ${ROLES.join(', ')}, got ${JSON.stringify(d.role) ?? 'nothing'}`, { where: `${at}.devices[${k}].role` });
-    positive(d.w, `${at}.devices[${k}].w`);
-    positive(d.l, `${at}.devices[${k}].l`);
-  });
-  checkBias(s.bias, `${at}.bias`);
+  checkName('stack', s.name, at);
+  checkSeries(s, at);
   const p = s.predicted;
   if (!p || typeof p !== 'object' || typeof p.iout !== 'number' || typeof p.rout !== 'number' || !(typeof p.headroom === 'number' || p.headroom === null)) {
     throw new StackwrightError('expected the predicted iout, rout and headroom (numbers; headroom may be null)', { where: `${at}.predicted` });
@@ -86,17 +99,8 @@ function checkStackForDeck(s: StackResult, at: string): void {
 
 /** What a stage deck writes from a stage: name, each side's type, roles, positive sizes and bias diodes, the predicted figures it quotes. */
 function checkStageForDeck(s: StageResult, at: string): void {
-  if (typeof s.name !== 'string' || !NAME.test(s.name)) throw new StackwrightError(`stage names use ${NAME_RULE}; got ${JSON.stringify(s.name) ?? 'nothing'}`, { where: `${at}.name` });
-  for (const side of ['input', 'load'] as const) {
-    const sd = s[side];
-    if (sd.device !== 'n' && sd.device !== 'p') throw new StackwrightError(`expected "n" or "p", got ${JSON.stringify(sd.device) ?? 'nothing'}`, { where: `${at}.${side}.device` });
-    sd.devices.forEach((d, k) => {
-      if (!ROLES.includes(d.role)) throw new StackwrightError(`expected one of ${ROLES.join(', ')}, got ${JSON.stringify(d.role) ?? 'nothing'}`, { where: `${at}.${side}.devices[${k}].role` });
-      positive(d.w, `${at}.${side}.devices[${k}].w`);
-      positive(d.l, `${at}.${side}.devices[${k}].l`);
-    });
-    checkBias(sd.bias, `${at}.${side}.bias`);
-  }
+  checkName('stage', s.name, at);
+  for (const side of ['input', 'load'] as const) checkSeries(s[side], `${at}.${side}`);
   const p = s.predicted;
   if (!p || typeof p !== 'object' || !(['gain', 'swing', 'output', 'vin'] as const).every((k) => typeof p[k] === 'number')) {
     throw new StackwrightError('expected the predicted gain, swing, output and vin (numbers)', { where: `${at}.predicted` });
@@ -109,7 +113,7 @@ function checkBias(bias: unknown, at: string): void {
   (bias as StackResult['bias']).forEach((b, j) => {
     const bw = `${at}[${j}]`;
     if (!b || typeof b !== 'object') throw new StackwrightError('expected a bias device', { where: bw });
-    if (!ROLES.includes(b.drives)) throw new StackwrightError(`expected one of ${ROLES.join(', ')}, got ${JSON.stringify(b.drives) ?? 'nothing'}`, { where: `${bw}.drives` });
+    checkRole(b.drives, `${bw}.drives`);
     for (const key of ['w', 'l', 'current'] as const) positive(b[key], `${bw}.${key}`);
     if (typeof b.voltage !== 'number') throw new StackwrightError('expected a number', { where: `${bw}.voltage` });
   });

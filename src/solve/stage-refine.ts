@@ -132,11 +132,10 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
     const key = candidateKey(c);
     let d = memo.get(key);
     if (d === undefined) {
+      // sideDesign refuses a device wider than the width limit; the input gate must also sit within the rails
+      // (as the search's input designs).
       d = sideDesign(side, c, vs, j0, stage, supply, Infinity, false);
-      // The input gate sits within the rails (as the search's input designs), and no output device is wider than
-      // the width limit (as every design the stack screen proposes).
       if (d && side.kind === 'input' && !(d.sized.gates[0] <= supply)) d = null;
-      if (d && d.devices.some((x) => !(x.w <= side.ctx.wmax * (1 + REL_TOL)))) d = null;
       memo.set(key, d);
     }
     return d;
@@ -306,8 +305,19 @@ function nearestStage(sides: StageSides, pool: StageDesign[], memos: { input: Si
   // The two best traced designs by an order.
   const leaders = (better: StageOrder): StageDesign[] =>
     pool.filter((d) => withinRails(sides.stage, d)).sort((a, b) => (better(a, b) ? -1 : better(b, a) ? 1 : 0)).slice(0, 2);
-  // The best of the climbs from these seeds, skipping a seed on the same lengths as an earlier one: a climb settles
-  // gm/ID and setpoints near its seed, so what another seed adds is mostly other lengths.
+  // The best of the climbs from these seeds.
+  const climbFrom = (climber: Climber, better: StageOrder, seeds: readonly StageDesign[]): StageDesign | undefined => {
+    let best: StageDesign | undefined;
+    for (const traced of seeds) {
+      const seed = climber.pairOf(traced.input, traced.load);
+      if (!seed) continue;
+      const local = climber.climb(seed, { better, levels: NEAREST_LEVELS, scale: NEAREST_SCALE, bound: () => Infinity });
+      if (!best || better(local, best)) best = local;
+    }
+    return best;
+  };
+  // The leaders' climbs and those from extra seeds, skipping a seed on the same lengths as an earlier one: a climb
+  // settles gm/ID and setpoints near its seed, so what another seed adds is mostly other lengths.
   const lengthsOf = (d: StageDesign) => `${d.input.cand.l.join(',')}/${d.load.cand.l.join(',')}`;
   const top = (climber: Climber, better: StageOrder, extra: readonly (StageDesign | undefined)[] = []): StageDesign | undefined => {
     const first = leaders(better);
@@ -318,14 +328,7 @@ function nearestStage(sides: StageSides, pool: StageDesign[], memos: { input: Si
       taken.add(lengthsOf(d));
       seeds.push(d);
     }
-    let best: StageDesign | undefined;
-    for (const traced of seeds) {
-      const seed = climber.pairOf(traced.input, traced.load);
-      if (!seed) continue;
-      const local = climber.climb(seed, { better, levels: NEAREST_LEVELS, scale: NEAREST_SCALE, bound: () => Infinity });
-      if (!best || better(local, best)) best = local;
-    }
-    return best;
+    return climbFrom(climber, better, seeds);
   };
   const gain = (d: StageDesign) => d.nominal.gain;
   const evaluated = () => point.evaluated() + held.evaluated();
@@ -342,8 +345,7 @@ function nearestStage(sides: StageSides, pool: StageDesign[], memos: { input: Si
   const swing = peak.nominal.gain >= stage.gain ? top(search, swingOrder, [heldBy]) : undefined;
   // The swing climb's winner on lengths of its own: the held gain climbs from it too.
   if (swing && !leaders(heldOrder).concat(heldBy).some((d) => lengthsOf(d) === lengthsOf(swing))) {
-    const again = held.pairOf(swing.input, swing.load);
-    const local = again && held.climb(again, { better: heldOrder, levels: NEAREST_LEVELS, scale: NEAREST_SCALE, bound: () => Infinity });
+    const local = climbFrom(held, heldOrder, [swing]);
     if (local && heldOrder(local, heldBy)) heldBy = local;
   }
   const swingMet = (d: StageDesign) => (d.nominal.trace.swing >= stage.swing - 1e-9 ? 1 : 0);

@@ -30,6 +30,20 @@ export function anchoredInclude(include: string, cwd: string): { include: string
   return { include: `${m[1]} '${path}'${m[5]}`, path };
 }
 
+/** The include with its model file taken from the current folder (anchoredInclude), refusing a named file that does not exist. */
+export function existingInclude(include: string, where: string): string {
+  const anchored = anchoredInclude(include, process.cwd());
+  if (anchored.path !== undefined && !existsSync(anchored.path)) throw new StackwrightError('model file not found', { where: `${where} ${include.trim()}` });
+  return anchored.include;
+}
+
+/** A model file given by path (`where` names the flag): its absolute path and library sections; throws when it does not exist. */
+export function modelFile(text: string, where: string): { path: string; sections: string[] } {
+  const path = resolve(text);
+  if (!existsSync(path)) throw new StackwrightError('model file not found', { where: `${where} ${text}` });
+  return { path, sections: librarySections(readFileSync(path, 'utf8')) };
+}
+
 /** Names of the library sections a model file defines (`.lib NAME` lines with one word). */
 export function librarySections(text: string): string[] {
   const out: string[] = [];
@@ -47,9 +61,7 @@ export function librarySections(text: string): string[] {
 export function modelLine(include: string, corner: string | undefined, where: string): string {
   const text = include.trim();
   if (text.startsWith('.')) return anchoredInclude(text, process.cwd()).include;
-  const path = resolve(text);
-  if (!existsSync(path)) throw new StackwrightError('model file not found', { where: `${where} ${text}` });
-  const have = librarySections(readFileSync(path, 'utf8'));
+  const { path, sections: have } = modelFile(text, where);
   if (have.length === 0) return `.include '${path}'`;
   if (corner === undefined || !have.includes(corner)) {
     const which = corner === undefined ? 'the result names no corner to pick a library section by' : `no library section "${corner}" (the result's nominal corner)`;
