@@ -6,6 +6,7 @@
 export { loadKit, sizeStack, sizeStage, sizeSpec, sizeSpecParallel, portSpec, decidingResults } from './api.js';
 export type { Kit, SizeRun, ParallelOptions, PortRun, PortStack, PortStage } from './api.js';
 export type { StageResult, StageSide, StagePredicted, StageCurvePoint, StageCorner, StageVerdict, StageTarget, StageSquareLaw, StageFrontPoint } from './solve/stage-types.js';
+export type { Harder, StageHarder } from './solve/index.js';
 export { stageNetlist } from './spice/index.js';
 export { probe, sliceAt, vgsFor, designCurves } from './device/index.js';
 export type { OperatingPoint, LengthSlice, ProbeQuery, ProbeResult } from './device/index.js';

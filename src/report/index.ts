@@ -18,7 +18,7 @@ export type { DesignCurves, StackFront, HtmlReportInput } from './types.js';
 export { frontCsv, frontCharts, curvesFor, reportHtml, type TableSource } from './size-outputs.js';
 export type { Grid } from './rows.js';
 export { renderPortText } from './port-text.js';
-export { harderText, harderLine } from './port-harder.js';
+export { harderText, harderLine, stageHarderText, stageHarderLine } from './port-harder.js';
 export { lengthClampNotes } from './notes.js';
 export { verdictText, verdictLine, bindingText } from './verdict.js';
 export { stageVerdictText, stageVerdict, stagePredictedGrid, stageSquareLawGrid, stageCornerGrid, stageTopologiesGrid } from './stage-rows.js';

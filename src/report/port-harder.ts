@@ -1,5 +1,8 @@
 import type { Harder } from '../solve/compare.js';
+import type { StageHarder } from '../solve/stage-port.js';
+import { formatEng } from '../units/index.js';
 import { verdictLine } from './verdict.js';
+import { stageVerdictText } from './stage-rows.js';
 
 const percent3 = (x: number): string => `${(x * 100).toFixed(3)} %`;
 const millivolts = (x: number | null): string => (x === null ? 'none' : `${(x * 1e3).toFixed(0)} mV`);
@@ -25,7 +28,31 @@ export function harderText(h: Harder, manyCorners: boolean): string {
   }
 }
 
-/** The whole "harder on KIT" list: phrases joined by "; ", or "nothing". */
+const signedMillivolts = (x: number): string => `${x < 0 ? '−' : ''}${(Math.abs(x) * 1e3).toFixed(0)} mV`;
+
+/** One harder target of a gain stage as a phrase of `port`'s "harder on KIT" line. */
+export function stageHarderText(h: StageHarder, manyCorners: boolean): string {
+  switch (h.quantity) {
+    case 'feasible':
+      return `infeasible on the new kit${h.binding ? `: ${stageVerdictText(h.binding, manyCorners)}` : ''}`;
+    case 'gain':
+      return `gain: margin ${h.fromMargin.toFixed(2)}x -> ${h.toMargin.toFixed(2)}x of the target`;
+    case 'swing':
+      return `swing: slack ${signedMillivolts(h.fromSlack)} -> ${signedMillivolts(h.toSlack)}`;
+    case 'gbw':
+      return `GBW: margin ${h.fromMargin.toFixed(2)}x -> ${h.toMargin.toFixed(2)}x of the target (${formatEng(h.from, 'Hz')} -> ${formatEng(h.to, 'Hz')})`;
+    case 'area':
+      return `area: ${h.ratio.toFixed(2)}x larger to meet the same targets`;
+    case 'topology':
+      return `load topology: ${h.from} -> ${h.to}`;
+  }
+}
+
+/** The whole "harder on KIT" list of a stack or a stage: phrases joined by "; ", or "nothing". */
 export function harderLine(list: readonly Harder[], manyCorners: boolean): string {
   return list.length ? list.map((h) => harderText(h, manyCorners)).join('; ') : 'nothing';
+}
+
+export function stageHarderLine(list: readonly StageHarder[], manyCorners: boolean): string {
+  return list.length ? list.map((h) => stageHarderText(h, manyCorners)).join('; ') : 'nothing';
 }

@@ -3,7 +3,7 @@ import { formatEng } from '../units/index.js';
 import { renderTable } from './text.js';
 import { formatArea, formatPercent } from './format.js';
 import { verdictText } from './verdict.js';
-import { harderLine } from './port-harder.js';
+import { harderLine, stageHarderLine } from './port-harder.js';
 import { stageVerdictText } from './stage-rows.js';
 
 function value(x: number, unit: string): string {
@@ -43,7 +43,7 @@ export function renderPortText(run: PortRun, opts: { color: boolean }): string {
       Number.isFinite(c.percent) ? `${c.percent >= 0 ? '+' : ''}${c.percent.toFixed(1)} %` : '—',
     ]);
     lines.push(renderTable(['quantity', from, to, 'change'], rows, { indent: 2 }));
-    if (!s.to.feasible && s.to.binding) lines.push(`  on ${to}: binding ${stageVerdictText(s.to.binding, true)}`);
+    lines.push(`  harder on ${to}: ${stageHarderLine(s.harder, (s.to.corners?.length ?? 0) > 1)}`);
     if ('error' in s.asIs) lines.push(`  old sizes as they are on ${to}: cannot be evaluated (${s.asIs.error})`);
     else {
       const p = s.asIs.predicted;

@@ -4,6 +4,7 @@ export { loadKit, type Kit } from './load-kit.js';
 export { parseSizeResult } from './parse-result.js';
 export { portSpec, type PortRun, type PortStack } from './port.js';
 export type { Harder } from './compare.js';
+export type { StageHarder } from './stage-port.js';
 export { evaluateAtCorner } from './evaluate/corners.js';
 export { paretoFront, frontDominates, type FrontPoint } from './pareto.js';
 export { pelgromSigma } from './evaluate/mismatch.js';

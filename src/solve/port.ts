@@ -8,7 +8,7 @@ import { decidingResults } from './choose.js';
 import { compareResults, harderTargets, type Change, type Harder } from './compare.js';
 import { evaluateAtCorner } from './evaluate/corners.js';
 import type { StageCorner, StageResult } from './stage-types.js';
-import { compareStages, retargetStage, stageAsIs } from './stage-port.js';
+import { compareStages, harderStage, retargetStage, stageAsIs, type StageHarder } from './stage-port.js';
 import { decidingStages } from './stage-choose.js';
 
 export interface PortStack {
@@ -27,6 +27,8 @@ export interface PortStage {
   from: StageResult;
   to: StageResult;
   changes: Change[];
+  /** Targets that got harder on the new kit, as data (src/report makes the sentences). */
+  harder: StageHarder[];
   /** The old sizes as they are on the new kit (gates from the old bias devices, input re-solved). */
   asIs: StageCorner | { error: string };
 }
@@ -89,10 +91,11 @@ export function portSpec(spec: DesignSpec, from: Kit, to: Kit, opts: { supply?: 
     return { name: s.name, from: a, to: b, changes: compareResults(a, b), harder: harderTargets(spec.stacks[i], a, b), asIs };
   });
   const chosenStage = (run: SizeRun, name: string): StageResult => decidingStages(run.result).find((r) => r.name === name) as StageResult;
-  const portedStages = (toSpec.stages ?? []).map((s): PortStage => {
+  const portedStages = (toSpec.stages ?? []).map((s, i): PortStage => {
     const a = chosenStage(runFrom, s.name);
     const b = chosenStage(runTo, s.name);
-    return { name: s.name, from: a, to: b, changes: compareStages(a, b), asIs: stageAsIs(a, s, to, runTo.result.corners[0], supply) };
+    const harder = harderStage((spec.stages ?? [])[i], s, a, b);
+    return { name: s.name, from: a, to: b, changes: compareStages(a, b), harder, asIs: stageAsIs(a, s, to, runTo.result.corners[0], supply) };
   });
   return { from: runFrom, to: runTo, toSpec, notes, stacks: compared, stages: portedStages };
 }

@@ -3,10 +3,10 @@ import { specDecimal } from '../units/index.js';
 import type { StageSpec } from '../design/types.js';
 import { biasGates, traceStage, type StackDevice, type StageCircuit } from '../stack/index.js';
 import type { KitAccess } from './kit.js';
-import { change, deviceChanges, type Change } from './compare.js';
+import { change, deviceChanges, type Change, type Harder } from './compare.js';
 import { absolute } from './result.js';
 import { TRACE_STEP, gbwOf } from './stage-eval.js';
-import type { StageCorner, StageResult, StageSide } from './stage-types.js';
+import type { StageCorner, StageResult, StageSide, StageVerdict } from './stage-types.js';
 import { vinMargin, vinRail } from './stage-rails.js';
 
 /**
@@ -36,6 +36,46 @@ export function compareStages(from: StageResult, to: StageResult): Change[] {
   rows.push(change('input DC voltage', 'V', p.vin, q.vin));
   rows.push(change('area', 'm²', p.area, q.area));
   return rows;
+}
+
+/**
+ * One target of a gain stage that got harder on the new kit, as data in SI units (sentences are made in src/report).
+ * `gain` and `gbw`: margins predicted/required (×); `swing`: slack swing − required in V, each kit against its own
+ * target (port rescales the swing target with the supply); `topology` is the load's.
+ */
+export type StageHarder =
+  | { quantity: 'feasible'; from: boolean; to: boolean; binding: StageVerdict | null }
+  | { quantity: 'gain'; required: number; from: number; to: number; fromMargin: number; toMargin: number }
+  | { quantity: 'swing'; fromRequired: number; toRequired: number; from: number; to: number; fromSlack: number; toSlack: number }
+  | { quantity: 'gbw'; required: number; from: number; to: number; fromMargin: number; toMargin: number }
+  | Extract<Harder, { quantity: 'area' | 'topology' }>;
+
+/**
+ * Targets of a stage whose margin shrank on the new kit by more than the stage search's own tolerance (README,
+ * tests/stage-optimal and stage-objectives: 5 % in gain and GBW, 10 mV in swing), and area growth above 1.2× as
+ * a cost. `fromSpec` and `toSpec` are the stage as sized on each kit (port may have rescaled output and swing).
+ */
+export function harderStage(fromSpec: StageSpec, toSpec: StageSpec, from: StageResult, to: StageResult): StageHarder[] {
+  const out: StageHarder[] = [];
+  const p = from.predicted;
+  const q = to.predicted;
+  if (!to.feasible) out.push({ quantity: 'feasible', from: from.feasible, to: false, binding: to.binding ?? null });
+  const fin = Number.isFinite;
+  if (fin(p.gain) && fin(q.gain) && q.gain / toSpec.gain < (p.gain / fromSpec.gain) * 0.95) {
+    out.push({ quantity: 'gain', required: toSpec.gain, from: p.gain, to: q.gain, fromMargin: p.gain / fromSpec.gain, toMargin: q.gain / toSpec.gain });
+  }
+  const fromSlack = p.swing - fromSpec.swing;
+  const toSlack = q.swing - toSpec.swing;
+  if (fin(fromSlack) && fin(toSlack) && toSlack < fromSlack - 0.01) {
+    out.push({ quantity: 'swing', fromRequired: fromSpec.swing, toRequired: toSpec.swing, from: p.swing, to: q.swing, fromSlack, toSlack });
+  }
+  const g = toSpec.gbw;
+  if (g !== undefined && fromSpec.gbw !== undefined && p.gbw !== null && q.gbw !== null && q.gbw / g < (p.gbw / fromSpec.gbw) * 0.95) {
+    out.push({ quantity: 'gbw', required: g, from: p.gbw, to: q.gbw, fromMargin: p.gbw / fromSpec.gbw, toMargin: q.gbw / g });
+  }
+  if (p.area > 0 && q.area > p.area * 1.2) out.push({ quantity: 'area', from: p.area, to: q.area, ratio: q.area / p.area });
+  if (from.load.topology !== to.load.topology) out.push({ quantity: 'topology', from: from.load.topology, to: to.load.topology });
+  return out;
 }
 
 function devicesOn(kit: KitAccess, corner: string, side: StageSide): StackDevice[] {
