@@ -48,7 +48,7 @@ export function renderPortText(run: PortRun, opts: { color: boolean }): string {
     else {
       const p = s.asIs.predicted;
       const v = s.asIs.binding ?? s.asIs.tightest;
-      lines.push(`  old sizes as they are on ${to}: gain ${Number(p.gain.toPrecision(4))}, swing ${value(p.swing, 'V')} — ${s.asIs.feasible ? 'still meets the targets' : `fails (${v ? stageVerdictText(v, true) : 'targets'})`}`);
+      lines.push(`  old sizes as they are on ${to}: gain ${Number(p.gain.toPrecision(4))}, swing ${value(p.swing, 'V')} — ${s.asIs.feasible ? 'still meets the targets' : `fails (${v ? stageVerdictText(v, run.to.result.corners.length > 1) : 'targets'})`}`);
     }
   }
   return lines.join('\n');
