@@ -6,6 +6,8 @@
 import { describe, expect, it } from 'vitest';
 import { htmlReport, renderConfirmText, confirmVerdict, missWords, type Confirmation } from '../src/report/index.js';
 import { loadReportInput } from './fixtures/report/load.js';
+import { stackItem } from '../src/confirm/stack-item.js';
+import { demoKit, ensureDemoTables } from './helpers/cli.js';
 
 const input = loadReportInput();
 const [sink, source] = input.size.stacks;
@@ -55,11 +57,19 @@ describe('size --spice rendering', () => {
     expect(missWords(missed.misses[0])).toBe('iout at tt: needs 10 µA ± 1 %, simulated 9.7 µA');
   });
 
-  it('a simulated headroom is shown rounded up to the whole mV, as every reported headroom is (README), so a miss never reads as met', () => {
-    // 500.3 mV misses a 500 mV target; to three digits it read "needs ≤ 500 mV, simulated 500 mV".
-    expect(missWords({ target: 'headroom', required: 0.5, achieved: 0.5003, at: null, device: null, corner: 'tt' })).toBe('headroom at tt: needs ≤ 500 mV, simulated 501 mV');
-    const raw = { ...confirmed, simulated: { ...confirmed.simulated, corners: confirmed.simulated.corners.map((c) => ({ ...c, headroom: 0.43941 })) } };
-    const text = renderConfirmText([raw], input.size, input.spec.parsed, { color: false });
+  it('a simulated headroom comes rounded up to the whole mV from the confirmation, as every reported headroom is (README), so a miss never reads as met', () => {
+    // The rounding is the confirmation's (one place for text, JSON and report): a stack item's outcome, built from
+    // raw simulated figures, carries 0.43941 V as 0.440 V and a 500.3 mV miss of a 500 mV target as 501 mV; to three
+    // digits that miss read "needs ≤ 500 mV, simulated 500 mV".
+    ensureDemoTables();
+    const item = stackItem(sink, input.spec.parsed.stacks[0], { kit: demoKit('demo180'), supply: input.size.supply, models: { n: 'nch', p: 'pch' }, nominal: input.size.corners[0] });
+    const raw = input.size.corners.map((c) => ({ ...figures(c, 0.43941, 1), routAt: 0.5 }));
+    const miss = { target: 'headroom' as const, required: 0.5, achieved: 0.5003, at: null, device: null, corner: 'tt' };
+    const out = item.outcome(raw, [miss], 1, false, false);
+    for (const h of [out.simulated.headroom, ...out.simulated.corners.map((c) => c.headroom)]) expect(h).toBe(0.44);
+    expect(out.misses[0].achieved).toBe(0.501);
+    expect(missWords(out.misses[0])).toBe('headroom at tt: needs ≤ 500 mV, simulated 501 mV');
+    const text = renderConfirmText([out], input.size, input.spec.parsed, { color: false });
     const row = text.split('\n').find((l) => /^\s*headroom\s/.test(l))!;
     expect(row).toContain('440 mV');
     expect(row).not.toContain('439 mV');

@@ -10,6 +10,8 @@ import { nearestKeeper, simulatedOf } from './hook.js';
 import { stackFigures } from './measure.js';
 import { tableFigures } from './table-model.js';
 import { shrinkStep } from './tighten.js';
+import { reportedMiss, reportedSimulated } from './reported.js';
+import { reportedHeadroom } from '../policy.js';
 import type { Confirmation, CorrectedDesign, SimulatedFigures } from './types.js';
 
 type Figures = SimulatedFigures & { routAt: number };
@@ -74,7 +76,7 @@ export function stackItem(result: StackResult, spec: StackSpec, ctx: StackContex
     nearest: () => tried.back(use),
     outcome(last, misses, rounds, ok, tightened): Confirmation {
       const figures = ok && confirmedFigures ? confirmedFigures : last;
-      const out: Confirmation = { name: result.name, simulated: simulatedOf(figures), confirmed: ok, rounds, misses };
+      const out: Confirmation = { name: result.name, simulated: reportedSimulated(simulatedOf(figures)), confirmed: ok, rounds, misses: misses.map(reportedMiss) };
       if (design !== original) out.corrected = correctedOf(design, spec, ctx);
       if (tightened) out.tightened = true;
       return out;
@@ -97,7 +99,7 @@ function correctedOf(design: StackResult, spec: StackSpec, ctx: StackContext): C
     devices: design.devices.map((d) => ({ role: d.role, w: d.w, l: d.l, gate: gateOf(d.role, d.gate) })),
     bias: design.bias.map((b, k) => ({ ...b, voltage: t ? t.gates[k] : b.voltage })),
     area: areaOf(design),
-    predicted: t ? { iout: t.iout, rout: t.rout, headroom: t.headroom } : { iout: NaN, rout: NaN, headroom: Infinity },
+    predicted: t ? { iout: t.iout, rout: t.rout, headroom: reportedHeadroom(t.headroom) } : { iout: NaN, rout: NaN, headroom: Infinity },
   };
 }
 

@@ -8,7 +8,6 @@ import { lineChart, targetLabel } from './chart.js';
 import { polarityName } from './format.js';
 import { slug } from './svg.js';
 import { formatEng } from '../units/index.js';
-import { reportedHeadroom } from '../policy.js';
 
 /**
  * The simulated Rout(v) of the confirmed design drawn over the predicted one
@@ -31,7 +30,7 @@ export function confirmRoutChart(c: Confirmation, stack: StackResult, spec?: Sta
     targets: [
       ...(spec ? [{ axis: 'y' as const, value: spec.rout, label: targetLabel('Rout target', spec.rout, 'Ω') }] : []),
       ...(spec ? [{ axis: 'x' as const, value: spec.headroom, label: targetLabel('headroom target', spec.headroom, 'V') }] : []),
-      ...(Number.isFinite(c.simulated.headroom) ? [{ axis: 'x' as const, value: c.simulated.headroom, label: targetLabel('simulated headroom', reportedHeadroom(c.simulated.headroom), 'V'), kind: 'mark' as const }] : []),
+      ...(Number.isFinite(c.simulated.headroom) ? [{ axis: 'x' as const, value: c.simulated.headroom, label: targetLabel('simulated headroom', c.simulated.headroom, 'V'), kind: 'mark' as const }] : []),
     ],
     regions: spec ? [{ x: [spec.headroom, spec.span], label: 'targets must hold here' }] : [],
   });

@@ -2,7 +2,6 @@ import type { DesignSpec, StackSpec } from '../design/types.js';
 import type { StackResult } from '../solve/types.js';
 import type { Confirmation, Miss } from '../confirm/types.js';
 import { eng, formatArea } from './format.js';
-import { reportedHeadroom } from '../policy.js';
 import type { Grid } from './rows.js';
 
 /** One miss in words: "headroom at ss: needs ≤ 450 mV, simulated 470 mV". */
@@ -11,8 +10,8 @@ export function missWords(m: Miss): string {
   if (m.target === 'gbw') return `GBW at ${m.corner}: needs ≥ ${eng(m.required, 'Hz')} (unity-gain frequency with the load cap), simulated ${m.achieved === null ? 'no fall to unity gain below 1 THz' : eng(m.achieved, 'Hz')}`;
   if (m.target === 'swing') return `swing at ${m.corner}: needs ≥ ${eng(m.required, 'V')} with the gain target held, simulated ${m.achieved === null ? 'none' : eng(m.achieved, 'V')}`;
   const unit = m.target === 'iout' ? 'A' : m.target === 'rout' ? 'Ω' : 'V';
-  // A headroom reads rounded up to the whole mV, as everywhere (a 500.3 mV miss must not read "500 mV").
-  const got = m.target === 'headroom' && m.achieved !== null ? reportedHeadroom(m.achieved) : m.achieved;
+  // A headroom miss comes rounded up to the whole mV from the confirmation (a 500.3 mV miss must not read "500 mV").
+  const got = m.achieved;
   const need = m.target === 'iout' ? `${eng(m.required, unit)} ± 1 %` : `${m.target === 'rout' ? '≥' : '≤'} ${eng(m.required, unit)}`;
   const where = m.target === 'rout' && m.at !== null ? ` (lowest at ${eng(m.at, 'V')})` : '';
   return `${m.target} at ${m.corner}: needs ${need}, simulated ${got === null ? 'never' : eng(got, unit)}${where}`;
@@ -50,7 +49,7 @@ export function confirmGrid(c: Confirmation, stack: StackResult | undefined, spe
     rows: [
       row('Iout at mid-span', spec ? eng(spec.current, 'A') : '—', (x) => eng(x.iout, 'A')),
       row('lowest Rout over span', spec ? `≥ ${eng(spec.rout, 'Ω')}` : '—', (x) => eng(x.rout, 'Ω')),
-      row('headroom', spec ? `≤ ${eng(spec.headroom, 'V')}` : '—', (x) => eng(reportedHeadroom(x.headroom), 'V')),
+      row('headroom', spec ? `≤ ${eng(spec.headroom, 'V')}` : '—', (x) => eng(x.headroom, 'V')),
     ],
   };
 }

@@ -7,18 +7,6 @@ import type { KitAccess } from '../../solve/kit.js';
 import { decidingResults } from '../../solve/choose.js';
 import { decidingStages } from '../../solve/stage-choose.js';
 import { progressBar } from '../progress.js';
-import { reportedHeadroom } from '../../policy.js';
-import type { Miss, Simulated } from '../../confirm/types.js';
-
-/** A stack's simulated figures as the JSON reports them: headrooms rounded up to the whole mV, as every reported headroom. */
-function reportedSimulated(sim: Simulated): Simulated {
-  return { ...sim, headroom: reportedHeadroom(sim.headroom), corners: sim.corners.map((c) => ({ ...c, headroom: reportedHeadroom(c.headroom) })) };
-}
-
-function reportedMiss(m: Miss): Miss {
-  return m.target === 'headroom' && m.achieved !== null ? { ...m, achieved: reportedHeadroom(m.achieved) } : m;
-}
-
 export interface SpiceFlags {
   spice?: boolean;
   include?: string;
@@ -84,7 +72,7 @@ export async function confirmRun(spec: DesignSpec, result: SizeResult, kit: KitA
   const chosen = decidingResults(result);
   for (const c of confirmations.stacks) {
     const s = chosen.find((r) => r.name === c.name);
-    if (s) Object.assign(s, { simulated: reportedSimulated(c.simulated), confirmed: c.confirmed, rounds: c.rounds, misses: c.misses.map(reportedMiss) }, c.corrected ? { corrected: c.corrected } : {}, c.tightened ? { tightened: true } : {});
+    if (s) Object.assign(s, { simulated: c.simulated, confirmed: c.confirmed, rounds: c.rounds, misses: c.misses }, c.corrected ? { corrected: c.corrected } : {}, c.tightened ? { tightened: true } : {});
   }
   const stages = decidingStages(result);
   for (const c of confirmations.stages) {
