@@ -219,6 +219,9 @@ describe('ingest tells what it did not keep', () => {
     expect(r.stderr).toMatch(/^note: cgg ignored: not in every file$/m);
     const j = cli(['ingest', a, b, '--kit', 'parts', '--device', 'n', '--tables', out, '--force', '--json']);
     expect(JSON.parse(j.stdout).importNote).toBe('cgg ignored: not in every file');
+    // The user's own note (even one with the '; ' the stored note joins with) stays out of importNote.
+    const noted = cli(['ingest', a, b, '--kit', 'parts2', '--device', 'n', '--tables', out, '--note', 'bench 3; run 7', '--json']);
+    expect(JSON.parse(noted.stdout).importNote).toBe('cgg ignored: not in every file');
     // One complete file: nothing to say.
     const one = cli(['ingest', a, '--kit', 'one', '--device', 'n', '--tables', out, '--json']);
     expect(JSON.parse(one.stdout).importNote).toBeNull();

@@ -19,13 +19,19 @@ export interface SweepInput {
 }
 
 /**
+ * A table as the import made it, with what the import did besides reading (a quantity not in every file dropped,
+ * points resampled) apart from the user's own note: meta.note holds both, joined, for the table file.
+ */
+export type IngestedTable = DeviceTable & { importNotes: string[] };
+
+/**
  * Sweep files (.csv or gzip-compressed .csv.gz) to one DeviceTable.
  *
  * Width: with one width in the files it is the reference width. With several,
  * `width` picks the rows at that width (others are dropped, not scaled);
  * without `width` that is an error.
  */
-export function ingestFiles(paths: string[], opts: IngestOptions): DeviceTable {
+export function ingestFiles(paths: string[], opts: IngestOptions): IngestedTable {
   return ingestLazy(
     paths.map((file) => ({
       file,
@@ -43,11 +49,11 @@ export function ingestFiles(paths: string[], opts: IngestOptions): DeviceTable {
 }
 
 /** Same as ingestFiles for texts already in memory (tests, library use). */
-export function ingestTexts(inputs: SweepInput[], opts: IngestOptions): DeviceTable {
+export function ingestTexts(inputs: SweepInput[], opts: IngestOptions): IngestedTable {
   return ingestLazy(inputs.map((i) => ({ file: i.file, load: () => i.text })), opts);
 }
 
-function ingestLazy(inputs: Array<{ file: string; load: () => string | Buffer }>, opts: IngestOptions): DeviceTable {
+function ingestLazy(inputs: Array<{ file: string; load: () => string | Buffer }>, opts: IngestOptions): IngestedTable {
   if (inputs.length === 0) throw new StackwrightError('no input files given');
   // The names become the table's path: refuse a bad one before a long file is read.
   checkPlainName('kit', opts.kit, '--kit');
@@ -90,10 +96,11 @@ function ingestLazy(inputs: Array<{ file: string; load: () => string | Buffer }>
   meta.derived = derived;
   checkFinite(grid.axes, data, new Set(Object.keys(derived)), files.length === 1 ? files[0] : `${files[0]} (+${files.length - 1} more)`);
   meta.units = Object.fromEntries([...AXES, ...(Object.keys(data) as StoredQuantity[])].map((k) => [k, UNITS[k]]));
-  const notes = [opts.note, ...pool.notes, ...grid.notes].filter((s): s is string => !!s);
+  const importNotes = [...pool.notes, ...grid.notes].filter((s): s is string => !!s);
+  const notes = [opts.note, ...importNotes].filter((s): s is string => !!s);
   if (notes.length) meta.note = notes.join('; ');
   else delete meta.note;
-  return { meta, axes: grid.axes, data };
+  return { meta, axes: grid.axes, data, importNotes };
 }
 
 function checkMapUsed(map: Record<string, string> | undefined, samples: Samples[]): void {

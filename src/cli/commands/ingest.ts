@@ -71,8 +71,8 @@ export function registerIngest(program: Command): void {
         vds: [axes.vds[0], axes.vds[axes.vds.length - 1], axes.vds.length],
         vsb: [axes.vsb[0], axes.vsb[axes.vsb.length - 1], axes.vsb.length],
         derived: meta.derived,
-        // What the import did beyond reading (columns dropped, points resampled), after the user's own --note.
-        importNote: importNote(meta.note, f.note),
+        // What the import did beyond reading (columns dropped, points resampled), apart from the user's own --note.
+        importNote: table.importNotes.length ? table.importNotes.join('; ') : null,
       };
       if (f.json) {
         out(toJson(summary));
@@ -88,9 +88,3 @@ export function registerIngest(program: Command): void {
     });
 }
 
-/** The table's note without the user's --note in front (ingest joins them with '; '). */
-function importNote(stored: string | undefined, user: string | undefined): string | null {
-  if (stored === undefined) return null;
-  const rest = user === undefined ? stored : stored.slice(user.length).replace(/^; /, '');
-  return rest === '' ? null : rest;
-}
