@@ -5,7 +5,7 @@ import { stageHarderText } from '../src/report/port-harder.js';
 import { renderPortText } from '../src/report/port-text.js';
 import type { StageResult } from '../src/solve/stage-types.js';
 import { toJson } from '../src/cli/io.js';
-import { demoKit, ensureDemoTables } from './helpers/cli.js';
+import { demoKits } from './helpers/cli.js';
 
 // The demo spec's gain stage (demo-tables/specs/marsh-wren.yaml), alone.
 const spec = parseSpec(
@@ -61,16 +61,13 @@ describe('port: what got harder for a gain stage (data, then words)', () => {
   });
 
   describe('end to end: the demo stage ported from demo180 to demo090', () => {
-    let k180: Kit;
-    let k090: Kit;
+    let kits: Record<'demo180' | 'demo090', Kit>;
     beforeAll(() => {
-      ensureDemoTables();
-      k180 = demoKit('demo180');
-      k090 = demoKit('demo090');
+      ({ kits } = demoKits());
     });
 
     it('lists the area growth the side-by-side table shows, in JSON and in the text', () => {
-      const run = portSpec(spec, k180, k090);
+      const run = portSpec(spec, kits.demo180, kits.demo090);
       const s = run.stages[0];
       const ratio = s.to.predicted.area / s.from.predicted.area;
       const area = s.harder.find((h) => h.quantity === 'area');
