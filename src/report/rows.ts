@@ -115,5 +115,11 @@ export function statusLine(stack: StackResult): string {
     parts.push(`no allowed design reaches the Rout target at any headroom up to the span${at}`);
   }
   if (n?.routAtHeadroom !== undefined && n.routAtHeadroom > 0) parts.push(`at the headroom target Rout reaches ${eng(n.routAtHeadroom, 'Ω')}${at}`);
+  const all = n?.overCorners;
+  if (all) {
+    // The figures that answer "what would meet the targets at every corner": each design at its worst corner.
+    const h = Number.isFinite(all.headroomAtRout) ? `needs ${volts(all.headroomAtRout)} of headroom at best` : 'is reached by no allowed design up to the span';
+    parts.push(`at every corner at once, the Rout target ${h}${all.routAtHeadroom > 0 ? ` and Rout at the headroom target reaches ${eng(all.routAtHeadroom, 'Ω')}` : ''}`);
+  }
   return parts.join('; ') + tag;
 }

@@ -1,6 +1,6 @@
 import type { Topology } from '../design/types.js';
 import type { SolveContext } from './context.js';
-import { finalize, type Evaluated, type Start } from './evaluate/evaluate.js';
+import { ensureCorners, finalize, type Evaluated, type Start } from './evaluate/evaluate.js';
 import { defer, evaluateOnce, lookOnce, refine, settle, type Hopeless, type Seen } from './search/refine.js';
 import { routSurelyBelow, routSurelyBelowAt, scanPointAtOrAbove, type Look } from './search/quick.js';
 import { screen } from './search/screen.js';
@@ -17,6 +17,16 @@ export interface Nearest {
   atHeadroom?: Evaluated;
   /** When every design meeting Rout and headroom breaks the width limit: the narrowest widest device among them, m. */
   narrowest?: number;
+  /** With several corners: the same two questions with each design judged at its worst corner (see overCorners). */
+  overCorners?: OverCorners;
+}
+
+/** Nearest points over every corner of the run: each design (sized at the nominal corner) at its worst corner. */
+export interface OverCorners {
+  /** Lowest headroom at which the Rout target and current window hold up to span at every corner, V; Infinity when never. */
+  headroomAtRout: number;
+  /** Highest lowest-Rout over [target headroom, span] that every corner keeps, Ω (0 when none). */
+  routAtHeadroom: number;
 }
 
 // Meets everything but the width limit.
@@ -172,9 +182,62 @@ export function nearestPoints(
   }
   const atRout = hr && usable(hr) && Number.isFinite(hr.nominal.headroom) ? hr : undefined;
   const atHeadroom = ro && usable(ro) ? ro : undefined;
-  return {
+  const out: Nearest = {
     headroomAtRout: atRout ? atRout.nominal.headroom : Infinity,
     routAtHeadroom: atHeadroom ? atHeadroom.nominal.routAtTarget : 0,
     atRout, atHeadroom, narrowest,
+  };
+  if (ctx.corners.length > 1) out.overCorners = nearestOverCorners(ctx, pool, seen, [hr, ro]);
+  return out;
+}
+
+/** A design at its worst corner: usable at every corner, and the highest headroom and lowest Rout of all corners. */
+function worstCorner(ctx: SolveContext, e: Evaluated): { usable: boolean; headroom: number; rout: number } {
+  const corners = ensureCorners(ctx, e, true);
+  let ok = usable(e);
+  let headroom = e.nominal.headroom;
+  let rout = e.nominal.routAtTarget;
+  for (const c of corners) {
+    if (!c.ev || c.margins.iout < 0 || c.margins.saturation < 0) ok = false;
+    headroom = Math.max(headroom, c.ev ? c.ev.headroom : Infinity);
+    rout = Math.min(rout, c.ev ? c.ev.routAtTarget : 0);
+  }
+  return { usable: ok, headroom, rout };
+}
+
+/**
+ * The nearest points over every corner: climbs by the worst corner's figures, from the best designs by the nominal
+ * ones (and the nominal nearest designs). A design's worst headroom is at least its nominal one and its worst Rout at
+ * most its nominal one, so a move already behind the climb's best at the nominal corner is passed over without
+ * evaluating its other corners.
+ */
+function nearestOverCorners(ctx: SolveContext, pool: Evaluated[], seen: Seen, nominal: ReadonlyArray<Evaluated | undefined>): OverCorners {
+  const worst = (e: Evaluated) => worstCorner(ctx, e);
+  const lower = (a: Evaluated, b: Evaluated): boolean => {
+    const wb = worst(b);
+    if (wb.usable && !(a.nominal.headroom <= wb.headroom)) return false;
+    const wa = worst(a);
+    if (wa.usable !== wb.usable) return wa.usable;
+    if (wa.headroom !== wb.headroom) return wa.headroom < wb.headroom;
+    return Number.isFinite(wa.headroom) ? a.area < b.area : wa.rout > wb.rout;
+  };
+  const higher = (a: Evaluated, b: Evaluated): boolean => {
+    const wb = worst(b);
+    if (wb.usable && !(a.nominal.routAtTarget >= wb.rout)) return false;
+    const wa = worst(a);
+    if (wa.usable !== wb.usable) return wa.usable;
+    return wa.rout > wb.rout;
+  };
+  const starts = [...new Set([...nominal, ...bestOf(pool, lowerHeadroom, 4), ...bestOf(pool, higherRout, 4)])].filter((e): e is Evaluated => e !== undefined);
+  const hr = refine(ctx, bestOf(starts, lower, 2), seen, pool, lower);
+  const ro = refine(ctx, bestOf(starts, higher, 2), seen, pool, higher);
+  // Reported figures come from the full curve at every corner, as the designs' own do.
+  if (hr) finalize(ctx, hr);
+  if (ro) finalize(ctx, ro);
+  const h = hr ? worst(hr) : undefined;
+  const r = ro ? worst(ro) : undefined;
+  return {
+    headroomAtRout: h && h.usable && Number.isFinite(h.headroom) ? h.headroom : Infinity,
+    routAtHeadroom: r && r.usable ? r.rout : 0,
   };
 }

@@ -98,7 +98,9 @@ function smallest(m: Margins): number {
 function infeasibility(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[], near: Nearest): Pick<StackResult, 'binding' | 'nearest'> {
   const s = ctx.spec;
   const on = (target: Verdict['target'] & keyof Margins, e: { ev: Evaluated['nominal'] | null; sigma?: number }, corner: string) => verdictOf(target, s, e.ev, e.sigma, ctx.vmid, corner);
-  const nearest = { headroomAtRout: reportedHeadroom(near.headroomAtRout), routAtHeadroom: near.routAtHeadroom, corner: ctx.nominal };
+  const nearest: { headroomAtRout: number; routAtHeadroom: number; corner: string; overCorners?: { headroomAtRout: number; routAtHeadroom: number } } = { headroomAtRout: reportedHeadroom(near.headroomAtRout), routAtHeadroom: near.routAtHeadroom, corner: ctx.nominal };
+  const oc = near.overCorners;
+  if (oc) nearest.overCorners = { headroomAtRout: reportedHeadroom(oc.headroomAtRout), routAtHeadroom: oc.routAtHeadroom };
   const nominal = { ev: best.nominal, sigma: best.sigma };
   if (!pool.some((e) => e.margins.saturation >= 0)) return { binding: on('saturation', nominal, ctx.nominal), nearest };
   if (nominalOk(best)) {

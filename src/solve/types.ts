@@ -77,8 +77,11 @@ export interface StackResult {
   binding?: Verdict;
   /** When feasible: the constraint with the least margin over all corners. */
   tightest?: Verdict;
-  /** Nearest feasible points when infeasible, at the nominal corner (`corner`). */
-  nearest?: { headroomAtRout?: number; routAtHeadroom?: number; corner?: string };
+  /**
+   * Nearest feasible points when infeasible, at the nominal corner (`corner`); with several corners also
+   * `overCorners`, the same two figures with each design judged at its worst corner.
+   */
+  nearest?: { headroomAtRout?: number; routAtHeadroom?: number; corner?: string; overCorners?: { headroomAtRout: number; routAtHeadroom: number } };
   devices: DeviceResult[];
   bias: BiasResult[];
   predicted: Predicted;
