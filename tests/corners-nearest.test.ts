@@ -1,10 +1,12 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { parseSpec, sizeStack, type Kit } from '../src/index.js';
+import { join } from 'node:path';
+import { loadKit, parseSpec, sizeStack, type Kit } from '../src/index.js';
 import type { StackSpec } from '../src/design/types.js';
+import type { StackResult } from '../src/solve/types.js';
 import { makeContext, type SolveContext } from '../src/solve/context.js';
 import { ensureCorners, evaluateCandidate, type Evaluated } from '../src/solve/evaluate/evaluate.js';
 import { statusLine } from '../src/report/rows.js';
-import { demoKits } from './helpers/cli.js';
+import { REPO, demoKits } from './helpers/cli.js';
 
 /*
  * Nearest points over every corner (README, "JSON output of size --json": nearest.overCorners): the lowest headroom at
@@ -62,7 +64,8 @@ function gridSearch(ctx: SolveContext, ls: number[][], gs: number[][], ss: numbe
 /** Grid reference for a cascode over `corners` (nominal first): a coarse grid, then a 4× finer one around each winner. */
 function reference(spec: StackSpec, kit: Kit, supply: number, corners: string[]): Reference {
   const ctx = makeContext(spec, kit, supply, corners);
-  const [g0, g1] = [spec.gmid!.min, spec.gmid!.max];
+  // The allowed gm/ID range: the spec's, else what the tables reach (the README's definition, as the tool reads it).
+  const [g0, g1] = [ctx.gmids[0], ctx.gmids[ctx.gmids.length - 1]];
   const gs = (g1 - g0) / 8;
   const ref: Reference = { headroomAtRout: Infinity, routAtHeadroom: 0, winners: [] };
   gridSearch(ctx, [ctx.lengths, ctx.lengths], [range(g0, g1, gs), range(g0, g1, gs)], range(0.05, 0.6, 0.05), ref);
@@ -77,30 +80,40 @@ function reference(spec: StackSpec, kit: Kit, supply: number, corners: string[])
   return ref;
 }
 
-const cases = [
+const cases: Array<{ what: string; kit: 'demo180' | 'demo090' | 'reed180'; supply: number; corners: string[]; stack: string; oneSided?: boolean }> = [
   {
     what: 'n cascode on demo180 (tt, ff, ss): about its headroom target at tt alone, much more at ss',
-    kit: 'demo180' as const, supply: 1.8,
+    kit: 'demo180', supply: 1.8, corners: ['tt', 'ff', 'ss'],
     stack: '{name: tail, device: n, topology: cascode, current: 20u, rout: 200meg, headroom: 0.35, span: 1.6, l: [0.5u, 2u], gmid: {min: 5, max: 25}}',
   },
   {
     what: 'p cascode on demo090 (tt, ff, ss)',
-    kit: 'demo090' as const, supply: 1.2,
+    kit: 'demo090', supply: 1.2, corners: ['tt', 'ff', 'ss'],
     stack: '{name: src, device: p, topology: cascode, current: 10u, rout: 100meg, headroom: 0.3, span: 1.0, l: [0.3u, 1.2u], gmid: {min: 6, max: 24}}',
+  },
+  {
+    // At ss the bias diodes track the output devices only to within 1–2 % (tests/corners-port.test.ts), so the
+    // designs best at tt all lose the 1 % current window there: the answer lies elsewhere in the space (first found
+    // by this reference when the climbs started only from the nominal leaders and said no design was usable). The
+    // tool climbs on a continuum and can beat this grid, so only "no worse than the grid" is asked here.
+    what: 'p cascode on reed180 (tt, ss): the nominal corner\'s best designs miss the current window at ss',
+    kit: 'reed180', supply: 1.8, corners: ['tt', 'ss'], oneSided: true,
+    stack: '{name: excitation, device: p, topology: cascode, current: 200u, rout: 1meg, headroom: 0.3, span: 1.5}',
   },
 ];
 
 describe('nearest points over every corner, against a grid search over the allowed space', () => {
-  let kits: Record<'demo180' | 'demo090', Kit>;
+  let kits: Record<'demo180' | 'demo090' | 'reed180', Kit>;
   beforeAll(() => {
-    ({ kits } = demoKits());
+    const demo = demoKits().kits;
+    kits = { ...demo, reed180: loadKit('reed180', { tables: join(REPO, 'tables') }) };
   });
 
   for (const c of cases) {
     it(c.what, () => {
       const kit = kits[c.kit];
       const spec = parseSpec(`kit: ${c.kit}\nsupply: ${c.supply}\nstacks:\n  - ${c.stack}\n`, 'corners.yaml').stacks[0];
-      const corners = ['tt', 'ff', 'ss'];
+      const corners = c.corners;
       const r = sizeStack(spec, kit, { supply: c.supply, corners }).results[0];
       expect(r.feasible).toBe(false);
       const all = r.nearest?.overCorners;
@@ -108,8 +121,12 @@ describe('nearest points over every corner, against a grid search over the allow
       const ref = reference(spec, kit, c.supply, corners);
       expect(Number.isFinite(ref.headroomAtRout) && ref.routAtHeadroom > 0).toBe(true);
       // The issue's tolerances for nearest points: 10 mV and 5 %.
-      expect(Math.abs(all!.headroomAtRout - ref.headroomAtRout)).toBeLessThanOrEqual(0.010);
-      expect(Math.abs(all!.routAtHeadroom / ref.routAtHeadroom - 1)).toBeLessThanOrEqual(0.05);
+      expect(all!.headroomAtRout - ref.headroomAtRout).toBeLessThanOrEqual(0.010);
+      expect(all!.routAtHeadroom / ref.routAtHeadroom).toBeGreaterThanOrEqual(0.95);
+      if (!c.oneSided) {
+        expect(ref.headroomAtRout - all!.headroomAtRout).toBeLessThanOrEqual(0.010);
+        expect(all!.routAtHeadroom / ref.routAtHeadroom).toBeLessThanOrEqual(1.05);
+      }
       // Every corner at once is never easier than the nominal corner alone.
       expect(all!.headroomAtRout).toBeGreaterThanOrEqual(r.nearest!.headroomAtRout!);
       expect(all!.routAtHeadroom).toBeLessThanOrEqual(r.nearest!.routAtHeadroom!);
@@ -117,6 +134,16 @@ describe('nearest points over every corner, against a grid search over the allow
       expect(statusLine(r)).toContain(`at every corner at once, the Rout target needs ${all!.headroomAtRout.toFixed(3)} V of headroom at best`);
     }, 120_000);
   }
+
+  it('the text says when no allowed design keeps its current window at every corner, rather than blaming Rout', () => {
+    const stack = {
+      name: 's', feasible: false, corners: [{ corner: 'tt' }, { corner: 'ss' }],
+      nearest: { headroomAtRout: 0.4, routAtHeadroom: 2e8, corner: 'tt', overCorners: { headroomAtRout: Infinity, routAtHeadroom: 0 } },
+    } as unknown as StackResult;
+    expect(statusLine(stack)).toContain('at every corner at once, no allowed design keeps its current within the window with its devices saturated');
+    const reached = { ...stack, nearest: { ...stack.nearest, overCorners: { headroomAtRout: Infinity, routAtHeadroom: 5e7 } } } as StackResult;
+    expect(statusLine(reached)).toContain('at every corner at once, the Rout target is reached by no allowed design up to the span and Rout at the headroom target reaches 50 MΩ');
+  });
 
   it('a run on one corner has no over-corners figures', () => {
     const spec = parseSpec(`kit: demo180\nsupply: 1.8\nstacks:\n  - ${cases[0].stack}\n`, 'one.yaml').stacks[0];

@@ -118,8 +118,12 @@ export function statusLine(stack: StackResult): string {
   const all = n?.overCorners;
   if (all) {
     // The figures that answer "what would meet the targets at every corner": each design at its worst corner.
-    const h = Number.isFinite(all.headroomAtRout) ? `needs ${volts(all.headroomAtRout)} of headroom at best` : 'is reached by no allowed design up to the span';
-    parts.push(`at every corner at once, the Rout target ${h}${all.routAtHeadroom > 0 ? ` and Rout at the headroom target reaches ${eng(all.routAtHeadroom, 'Ω')}` : ''}`);
+    // Rout 0: no allowed design keeps its current window and saturation at every corner at all.
+    if (!(all.routAtHeadroom > 0)) parts.push('at every corner at once, no allowed design keeps its current within the window with its devices saturated');
+    else {
+      const h = Number.isFinite(all.headroomAtRout) ? `needs ${volts(all.headroomAtRout)} of headroom at best` : 'is reached by no allowed design up to the span';
+      parts.push(`at every corner at once, the Rout target ${h} and Rout at the headroom target reaches ${eng(all.routAtHeadroom, 'Ω')}`);
+    }
   }
   return parts.join('; ') + tag;
 }

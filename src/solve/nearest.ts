@@ -191,18 +191,25 @@ export function nearestPoints(
   return out;
 }
 
-/** A design at its worst corner: usable at every corner, and the highest headroom and lowest Rout of all corners. */
-function worstCorner(ctx: SolveContext, e: Evaluated): { usable: boolean; headroom: number; rout: number } {
+/**
+ * A design at its worst corner: usable at every corner, the highest headroom and lowest Rout of all corners, and
+ * (for designs not usable everywhere) how far from usable: the shortfalls of the nominal corner's mismatch, current,
+ * saturation and width margins and of the other corners' current and saturation margins, summed.
+ */
+function worstCorner(ctx: SolveContext, e: Evaluated): { usable: boolean; headroom: number; rout: number; off: number } {
   const corners = ensureCorners(ctx, e, true);
   let ok = usable(e);
   let headroom = e.nominal.headroom;
   let rout = e.nominal.routAtTarget;
+  const m = e.margins;
+  let off = Math.max(0, -m.mismatch) + Math.max(0, -m.iout) + Math.max(0, -m.saturation) + Math.max(0, -m.width);
   for (const c of corners) {
     if (!c.ev || c.margins.iout < 0 || c.margins.saturation < 0) ok = false;
+    off += c.ev ? Math.max(0, -c.margins.iout) + Math.max(0, -c.margins.saturation) : Infinity;
     headroom = Math.max(headroom, c.ev ? c.ev.headroom : Infinity);
     rout = Math.min(rout, c.ev ? c.ev.routAtTarget : 0);
   }
-  return { usable: ok, headroom, rout };
+  return { usable: ok, headroom, rout, off };
 }
 
 /**
@@ -213,11 +220,13 @@ function worstCorner(ctx: SolveContext, e: Evaluated): { usable: boolean; headro
  */
 function nearestOverCorners(ctx: SolveContext, pool: Evaluated[], seen: Seen, nominal: ReadonlyArray<Evaluated | undefined>): OverCorners {
   const worst = (e: Evaluated) => worstCorner(ctx, e);
+  // Designs usable at the nominal corner but not at every corner climb towards the other corners' current window.
   const lower = (a: Evaluated, b: Evaluated): boolean => {
     const wb = worst(b);
     if (wb.usable && !(a.nominal.headroom <= wb.headroom)) return false;
     const wa = worst(a);
     if (wa.usable !== wb.usable) return wa.usable;
+    if (!wa.usable && wa.off !== wb.off) return wa.off < wb.off;
     if (wa.headroom !== wb.headroom) return wa.headroom < wb.headroom;
     return Number.isFinite(wa.headroom) ? a.area < b.area : wa.rout > wb.rout;
   };
@@ -226,9 +235,22 @@ function nearestOverCorners(ctx: SolveContext, pool: Evaluated[], seen: Seen, no
     if (wb.usable && !(a.nominal.routAtTarget >= wb.rout)) return false;
     const wa = worst(a);
     if (wa.usable !== wb.usable) return wa.usable;
+    if (!wa.usable && wa.off !== wb.off) return wa.off < wb.off;
     return wa.rout > wb.rout;
   };
-  const starts = [...new Set([...nominal, ...bestOf(pool, lowerHeadroom, 4), ...bestOf(pool, higherRout, 4)])].filter((e): e is Evaluated => e !== undefined);
+  // Seeds: the nominal winners and leaders, and the first designs usable at every corner by each nominal order
+  // (the nominal leaders may all lose the current window at another corner while other designs keep it).
+  const everywhere = (order: (a: Evaluated, b: Evaluated) => boolean): Evaluated[] => {
+    const out: Evaluated[] = [];
+    for (const e of pool.filter(usable).sort((a, b) => (order(a, b) ? -1 : order(b, a) ? 1 : 0))) {
+      if (worst(e).usable) out.push(e);
+      if (out.length >= 2) break;
+    }
+    return out;
+  };
+  const starts = [...new Set([
+    ...nominal, ...bestOf(pool, lowerHeadroom, 4), ...bestOf(pool, higherRout, 4), ...everywhere(lowerHeadroom), ...everywhere(higherRout),
+  ])].filter((e): e is Evaluated => e !== undefined);
   const hr = refine(ctx, bestOf(starts, lower, 2), seen, pool, lower);
   const ro = refine(ctx, bestOf(starts, higher, 2), seen, pool, higher);
   // Reported figures come from the full curve at every corner, as the designs' own do.
