@@ -44,8 +44,9 @@ function worst(ctx: SolveContext, e: Evaluated): { usable: boolean; headroom: nu
 }
 
 function gridSearch(ctx: SolveContext, ls: number[][], gs: number[][], ss: number[], into: Reference): void {
+  const topology = ctx.spec.topology as 'cascode' | 'cascode-stacked';
   for (const l1 of ls[0]) for (const l2 of ls[1]) for (const g1 of gs[0]) for (const g2 of gs[1]) for (const s1 of ss) {
-    const e = evaluateCandidate(ctx, { topology: 'cascode', l: [l1, l2], gmid: [g1, g2], setpoints: [s1] });
+    const e = evaluateCandidate(ctx, { topology, l: [l1, l2], gmid: [g1, g2], setpoints: topology === 'cascode' ? [s1] : [] });
     if (!e || !(e.margins.mismatch >= 0 && e.margins.iout >= 0 && e.margins.saturation >= 0 && e.margins.width >= 0)) continue;
     if (e.nominal.headroom >= into.headroomAtRout && e.nominal.routAtTarget <= into.routAtHeadroom) continue;
     const w = worst(ctx, e);
@@ -61,20 +62,24 @@ function gridSearch(ctx: SolveContext, ls: number[][], gs: number[][], ss: numbe
   }
 }
 
-/** Grid reference for a cascode over `corners` (nominal first): a coarse grid, then a 4× finer one around each winner. */
+/**
+ * Grid reference for a cascode or stacked cascode (no setpoint: its bottom diode sets the node) over `corners`
+ * (nominal first): a coarse grid, then a 4× finer one around each winner.
+ */
 function reference(spec: StackSpec, kit: Kit, supply: number, corners: string[]): Reference {
   const ctx = makeContext(spec, kit, supply, corners);
   // The allowed gm/ID range: the spec's, else what the tables reach (the README's definition, as the tool reads it).
   const [g0, g1] = [ctx.gmids[0], ctx.gmids[ctx.gmids.length - 1]];
   const gs = (g1 - g0) / 8;
   const ref: Reference = { headroomAtRout: Infinity, routAtHeadroom: 0, winners: [] };
-  gridSearch(ctx, [ctx.lengths, ctx.lengths], [range(g0, g1, gs), range(g0, g1, gs)], range(0.05, 0.6, 0.05), ref);
+  const setpoints = spec.topology === 'cascode' ? range(0.05, 0.6, 0.05) : [0];
+  gridSearch(ctx, [ctx.lengths, ctx.lengths], [range(g0, g1, gs), range(g0, g1, gs)], setpoints, ref);
   for (const c of [...ref.winners]) {
     const near = (x: number, step: number, lo: number, hi: number) => range(Math.max(lo, x - 4 * step), Math.min(hi, x + 4 * step), step);
     const lengthsNear = (l: number) => ctx.lengths.filter((x) => Math.abs(Math.log(x / l)) < 0.45);
     gridSearch(
       ctx, [lengthsNear(c.l[0]), lengthsNear(c.l[1])], [near(c.gmid[0], gs / 4, g0, g1), near(c.gmid[1], gs / 4, g0, g1)],
-      near(c.setpoints[0], 0.0125, 0.02, 0.8), ref,
+      spec.topology === 'cascode' ? near(c.setpoints[0], 0.0125, 0.02, 0.8) : [0], ref,
     );
   }
   return ref;
@@ -90,6 +95,12 @@ const cases: Array<{ what: string; kit: 'demo180' | 'demo090' | 'reed180'; suppl
     what: 'p cascode on demo090 (tt, ff, ss)',
     kit: 'demo090', supply: 1.2, corners: ['tt', 'ff', 'ss'],
     stack: '{name: src, device: p, topology: cascode, current: 10u, rout: 100meg, headroom: 0.3, span: 1.0, l: [0.3u, 1.2u], gmid: {min: 6, max: 24}}',
+  },
+  {
+    // The demo ota-load as a stacked cascode: its best Rout at the headroom target lies on the width limit's edge.
+    what: 'p stacked cascode on demo180 (tt, ff, ss): nearest Rout on the edge of the width limit',
+    kit: 'demo180', supply: 1.8, corners: ['tt', 'ff', 'ss'],
+    stack: '{name: ld, device: p, topology: cascode-stacked, current: 10u, rout: 300meg, headroom: 0.5, span: 1.5}',
   },
   {
     // At ss the bias diodes track the output devices only to within 1–2 % (tests/corners-port.test.ts), so the

@@ -190,6 +190,25 @@ describe('explanations of infeasible specs are true (exhaustive reference search
   }
 });
 
+describe('nearest points on the edge of the width limit (exhaustive reference search)', () => {
+  it('the demo ota-load as a stacked cascode: the highest Rout at the headroom target is the one on the edge', () => {
+    // Every design meeting Rout and headroom is wider than the limit, so width binds; the nearest points lie on the
+    // limit's edge in gm/ID, which the climbs' old last step (1/8 of the screen's gm/ID step) left 9 % short in Rout
+    // (32.1 against 35.2 MΩ). The reference adds each device's width edge to its gm/ID grid.
+    const c: Case = {
+      id: 'p180-stacked-width-edge', kit: 'demo180', why: 'nearest Rout on the edge of the width limit',
+      spec: { device: 'p', topology: 'cascode-stacked', current: 10e-6, rout: 100e6, headroom: 0.5, span: 1.5, objective: 'area' },
+    };
+    const { tool, ref } = run({ ...c, grid: { nearest: true } as Grid });
+    expect(tool.feasible).toBe(false);
+    expect(bindingTarget(tool)).toBe('width');
+    expect(Number.isFinite(ref.headroomAtRout)).toBe(true);
+    expect(Math.abs(tool.nearest!.headroomAtRout! - ref.headroomAtRout)).toBeLessThanOrEqual(0.01);
+    expect(tool.nearest!.routAtHeadroom!).toBeGreaterThanOrEqual(0.95 * ref.routAtHeadroom);
+    expect(tool.nearest!.routAtHeadroom!).toBeLessThanOrEqual(1.05 * ref.routAtHeadroom);
+  });
+});
+
 describe('width limit (spec key wmax)', () => {
   const tail = { device: 'n', topology: 'cascode', current: 40e-6, rout: 50e6, headroom: 0.45, span: 1.6, objective: 'area' } as const;
 
