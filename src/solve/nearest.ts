@@ -191,6 +191,9 @@ export function nearestPoints(
   return out;
 }
 
+/** Designs looked at per order for seeds usable at every corner (each look evaluates every corner in full). */
+const EVERYWHERE_LOOKS = 100;
+
 /**
  * A design at its worst corner: usable at every corner, the highest headroom and lowest Rout of all corners, and
  * (for designs not usable everywhere) how far from usable: the shortfalls of the nominal corner's mismatch, current,
@@ -240,9 +243,11 @@ function nearestOverCorners(ctx: SolveContext, pool: Evaluated[], seen: Seen, no
   };
   // Seeds: the nominal winners and leaders, and the first designs usable at every corner by each nominal order
   // (the nominal leaders may all lose the current window at another corner while other designs keep it).
+  // Each look costs every corner's full evaluation: at most EVERYWHERE_LOOKS per order (the climbs do the rest).
   const everywhere = (order: (a: Evaluated, b: Evaluated) => boolean): Evaluated[] => {
     const out: Evaluated[] = [];
-    for (const e of pool.filter(usable).sort((a, b) => (order(a, b) ? -1 : order(b, a) ? 1 : 0))) {
+    const ranked = pool.filter(usable).sort((a, b) => (order(a, b) ? -1 : order(b, a) ? 1 : 0)).slice(0, EVERYWHERE_LOOKS);
+    for (const e of ranked) {
       if (worst(e).usable) out.push(e);
       if (out.length >= 2) break;
     }
