@@ -54,6 +54,8 @@ export function stageVerdict(s: StageResult): string {
     // With several corners the nearest points are the nominal corner's: say so.
     const at = many ? ` at corner ${s.nearest.corner}` : '';
     parts.push(`nearest points${at}: best gain held over the swing target ${gainText(s.nearest.gainAtSwing)}, best swing at the gain target ${eng(s.nearest.swingAtGain, 'V')}`);
+    const all = s.nearest.overCorners;
+    if (all) parts.push(`at every corner at once: best gain held over the swing target ${gainText(all.gainAtSwing)}, best swing at the gain target ${eng(all.swingAtGain, 'V')}`);
   }
   return parts.join('; ') + tag;
 }

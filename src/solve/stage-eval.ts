@@ -145,7 +145,7 @@ export function evaluatePair(sides: StageSides, input: SideDesign, load: SideDes
  * diode there; the input DC voltage is re-solved (feedback holds the output at
  * the design point). An error entry when a bias diode cannot carry its current.
  */
-export function evaluateCorner(sides: StageSides, d: StageDesign, corner: string, step = SEARCH_STEP): StageAt | { corner: string; error: string } {
+export function evaluateCorner(sides: StageSides, d: StageDesign, corner: string, step = SEARCH_STEP, solveHeld = step < SEARCH_STEP): StageAt | { corner: string; error: string } {
   try {
     const ic = sides.input.ctx;
     const lc = sides.load.ctx;
@@ -158,7 +158,7 @@ export function evaluateCorner(sides: StageSides, d: StageDesign, corner: string
       input: { devices: inDevices, cascodeGate: ig[0] },
       load: { devices: ldDevices, gates: lg },
     };
-    return stageAt(sides, corner, circuit, { input: ig, load: lg }, step);
+    return stageAt(sides, corner, circuit, { input: ig, load: lg }, step, solveHeld);
   } catch (e) {
     if (e instanceof StackwrightError && e.kind === 'range') return { corner, error: e.message };
     throw e;

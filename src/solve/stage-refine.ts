@@ -4,7 +4,7 @@ import { designIndex, guessOf, outputGrid, stagePoint } from '../stack/index.js'
 import { candidateKey, type Candidate } from './search/candidate.js';
 import { neighbours } from './search/refine.js';
 import { sideDesign, type Side, type SideDesign } from './stage-side.js';
-import { TRACE_STEP, evaluateCorner, evaluatePair, pairCircuit, stageAt, type PairJudge, type StageDesign, type StageSides } from './stage-eval.js';
+import { SEARCH_STEP, TRACE_STEP, evaluateCorner, evaluatePair, pairCircuit, stageAt, type PairJudge, type StageDesign, type StageSides } from './stage-eval.js';
 import { meets, stageCompare, stageMargins, withinRails } from './stage-rank.js';
 import { fullyOkMemo, stageBetter } from './stage-order.js';
 import { rangeSafe } from './evaluate/evaluate.js';
@@ -273,6 +273,8 @@ export interface StageNearest {
   swing?: StageDesign;
   /** With a gbw target, when some design meets gain and swing: the highest GBW among those. */
   gbw?: StageDesign;
+  /** With several corners: gain held and swing at the gain target with each design judged at its worst corner. */
+  overCorners?: { gainAtSwing: number; swingAtGain: number };
 }
 
 /** An order putting designs with the input DC voltage within the rails first, then by `key` (higher first), then `tie`. */
@@ -353,7 +355,82 @@ function nearestStage(sides: StageSides, pool: StageDesign[], memos: { input: Si
   const gbw = stage.gbw !== undefined && swing && swingMet(swing)
     ? top(search, gbwOrder)
     : undefined;
+  // Over every corner (before the nominal winners are re-traced below: the climbs compare on the search grid).
+  const overCorners = sides.input.ctx.corners.length > 1 ? stageOverCorners(sides, pool, { held, search }, [peak, heldBy, swing], leaders, heldOrder, swingOrder) : undefined;
   // The figures the report shows: on the reported grid.
   for (const d of new Set([peak, heldBy, swing, gbw])) if (d) d.nominal = stageAt(sides, d.nominal.corner, d.nominal.circuit, d.nominal.gates, TRACE_STEP);
-  return { nearest: { peak, held: heldBy, swing, gbw }, evaluated: evaluated() };
+  return { nearest: { peak, held: heldBy, swing, gbw, overCorners }, evaluated: evaluated() };
+}
+
+/** A stage design at its worst corner: input DC voltage within the rails at every corner, lowest held gain and swing. */
+interface WorstStage {
+  rails: boolean;
+  held: number;
+  swing: number;
+}
+
+function worstStage(sides: StageSides, d: StageDesign, step: number): WorstStage {
+  let rails = withinRails(sides.stage, d);
+  let held = d.nominal.gainAtSwing;
+  let swing = d.nominal.trace.swing;
+  for (const c of sides.input.ctx.corners.slice(1)) {
+    // The held gain's window ends solved on the circuit, as the nominal climb's ('held' judge).
+    const at = evaluateCorner(sides, d, c, step, true);
+    if ('error' in at) return { rails: false, held: 0, swing: 0 };
+    rails &&= stageMargins(sides.stage, at).vin >= 0;
+    held = Math.min(held, at.gainAtSwing);
+    swing = Math.min(swing, at.trace.swing);
+  }
+  return { rails, held, swing };
+}
+
+/**
+ * The nearest points over every corner: each design (sized at the nominal corner, gates from its bias diodes at each
+ * corner) judged at its worst corner, climbed for from the nominal winners and leaders. A design's worst figure is at
+ * most its nominal one, so a move already behind the climb's best at the nominal corner is passed over without
+ * tracing its other corners. The winners' figures are traced on the reported grid.
+ */
+function stageOverCorners(
+  sides: StageSides, pool: StageDesign[], climbers: { held: Climber; search: Climber },
+  nominal: ReadonlyArray<StageDesign | undefined>, leaders: (o: StageOrder) => StageDesign[], heldOrder: StageOrder, swingOrder: StageOrder,
+): { gainAtSwing: number; swingAtGain: number } {
+  const memo = new WeakMap<StageDesign, WorstStage>();
+  const worst = (d: StageDesign): WorstStage => {
+    let w = memo.get(d);
+    if (!w) memo.set(d, (w = worstStage(sides, d, SEARCH_STEP)));
+    return w;
+  };
+  const by = (key: (d: StageDesign) => number, nominalKey: (d: StageDesign) => number): StageOrder => (a, b) => {
+    const wb = worst(b);
+    if (wb.rails && !(nominalKey(a) >= key(b))) return false;
+    const wa = worst(a);
+    if (wa.rails !== wb.rails) return wa.rails;
+    if (key(a) !== key(b)) return key(a) > key(b);
+    return a.area < b.area;
+  };
+  const heldAll = by((d) => worst(d).held, (d) => d.nominal.gainAtSwing);
+  const swingAll = by((d) => worst(d).swing, (d) => d.nominal.trace.swing);
+  const climb = (climber: Climber, better: StageOrder, seeds: StageDesign[]): StageDesign | undefined => {
+    let best: StageDesign | undefined;
+    for (const traced of seeds) {
+      const seed = climber.pairOf(traced.input, traced.load);
+      if (!seed) continue;
+      const local = climber.climb(seed, { better, levels: NEAREST_LEVELS, scale: NEAREST_SCALE, bound: () => Infinity });
+      if (!best || better(local, best)) best = local;
+    }
+    return best;
+  };
+  const starts = [...new Set([...nominal, ...leaders(heldOrder), ...leaders(swingOrder)])].filter((d): d is StageDesign => d !== undefined);
+  const top2 = (o: StageOrder) => [...starts].sort((a, b) => (o(a, b) ? -1 : o(b, a) ? 1 : 0)).slice(0, 2);
+  const held = climb(climbers.held, heldAll, top2(heldAll));
+  const swing = climb(climbers.search, swingAll, top2(swingAll));
+  // Reported figures: every corner re-traced on the reported grid.
+  const fine = (d: StageDesign | undefined): WorstStage | undefined => {
+    if (!d) return undefined;
+    const n = stageAt(sides, d.nominal.corner, d.nominal.circuit, d.nominal.gates, TRACE_STEP);
+    return worstStage(sides, { ...d, nominal: n }, TRACE_STEP);
+  };
+  const h = fine(held);
+  const s = fine(swing);
+  return { gainAtSwing: h?.rails ? h.held : 0, swingAtGain: s?.rails ? s.swing : 0 };
 }

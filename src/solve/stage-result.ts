@@ -211,7 +211,8 @@ function infeasibility(sides: StageSides, best: StageDesign, explored: readonly 
   const { gainAtSwing, swingAtGain, peak } = climbed
     ? { gainAtSwing: climbed.held.nominal.gainAtSwing, swingAtGain: climbed.swing?.nominal.trace.swing ?? 0, peak: climbed.peak.nominal.gain }
     : nearestOf(pool);
-  const nearest = { gainAtSwing, swingAtGain, corner: nominal };
+  const nearest: NonNullable<StageResult['nearest']> = { gainAtSwing, swingAtGain, corner: nominal };
+  if (climbed?.overCorners) nearest.overCorners = climbed.overCorners;
   // Bindings from the nearest points name the best any design reaches (`best`), not the shown design's figure.
   const reach = climbed ? { best: true } : {};
   if (peak < stage.gain) {

@@ -96,7 +96,11 @@ export interface StageResult {
   binding?: StageVerdict;
   tightest?: StageVerdict;
   /** Infeasible: best gain held over the swing target, best swing at the gain target, over the explored designs. */
-  nearest?: { gainAtSwing: number; swingAtGain: number; corner: string };
+  /**
+   * Nearest points at the nominal corner (`corner`); with several corners also `overCorners`, the same two figures
+   * with each design judged at its worst corner.
+   */
+  nearest?: { gainAtSwing: number; swingAtGain: number; corner: string; overCorners?: { gainAtSwing: number; swingAtGain: number } };
   squareLaw?: StageSquareLaw;
   corners?: StageCorner[];
   /** Combinations screened plus designs evaluated exactly. */
