@@ -307,17 +307,6 @@ function nearestStage(sides: StageSides, pool: StageDesign[], memos: { input: Si
   // The two best traced designs by an order.
   const leaders = (better: StageOrder): StageDesign[] =>
     pool.filter((d) => withinRails(sides.stage, d)).sort((a, b) => (better(a, b) ? -1 : better(b, a) ? 1 : 0)).slice(0, 2);
-  // The best of the climbs from these seeds.
-  const climbFrom = (climber: Climber, better: StageOrder, seeds: readonly StageDesign[]): StageDesign | undefined => {
-    let best: StageDesign | undefined;
-    for (const traced of seeds) {
-      const seed = climber.pairOf(traced.input, traced.load);
-      if (!seed) continue;
-      const local = climber.climb(seed, { better, levels: NEAREST_LEVELS, scale: NEAREST_SCALE, bound: () => Infinity });
-      if (!best || better(local, best)) best = local;
-    }
-    return best;
-  };
   // The leaders' climbs and those from extra seeds, skipping a seed on the same lengths as an earlier one: a climb
   // settles gm/ID and setpoints near its seed, so what another seed adds is mostly other lengths.
   const lengthsOf = (d: StageDesign) => `${d.input.cand.l.join(',')}/${d.load.cand.l.join(',')}`;
@@ -360,6 +349,18 @@ function nearestStage(sides: StageSides, pool: StageDesign[], memos: { input: Si
   // The figures the report shows: on the reported grid.
   for (const d of new Set([peak, heldBy, swing, gbw])) if (d) d.nominal = stageAt(sides, d.nominal.corner, d.nominal.circuit, d.nominal.gates, TRACE_STEP);
   return { nearest: { peak, held: heldBy, swing, gbw, overCorners }, evaluated: evaluated() };
+}
+
+/** The best of the nearest points' climbs (by `better`) from these traced designs. */
+function climbFrom(climber: Climber, better: StageOrder, seeds: readonly StageDesign[]): StageDesign | undefined {
+  let best: StageDesign | undefined;
+  for (const traced of seeds) {
+    const seed = climber.pairOf(traced.input, traced.load);
+    if (!seed) continue;
+    const local = climber.climb(seed, { better, levels: NEAREST_LEVELS, scale: NEAREST_SCALE, bound: () => Infinity });
+    if (!best || better(local, best)) best = local;
+  }
+  return best;
 }
 
 /** A stage design at its worst corner: input DC voltage within the rails at every corner, lowest held gain and swing. */
@@ -410,20 +411,10 @@ function stageOverCorners(
   };
   const heldAll = by((d) => worst(d).held, (d) => d.nominal.gainAtSwing);
   const swingAll = by((d) => worst(d).swing, (d) => d.nominal.trace.swing);
-  const climb = (climber: Climber, better: StageOrder, seeds: StageDesign[]): StageDesign | undefined => {
-    let best: StageDesign | undefined;
-    for (const traced of seeds) {
-      const seed = climber.pairOf(traced.input, traced.load);
-      if (!seed) continue;
-      const local = climber.climb(seed, { better, levels: NEAREST_LEVELS, scale: NEAREST_SCALE, bound: () => Infinity });
-      if (!best || better(local, best)) best = local;
-    }
-    return best;
-  };
   const starts = [...new Set([...nominal, ...leaders(heldOrder), ...leaders(swingOrder)])].filter((d): d is StageDesign => d !== undefined);
   const top2 = (o: StageOrder) => [...starts].sort((a, b) => (o(a, b) ? -1 : o(b, a) ? 1 : 0)).slice(0, 2);
-  const held = climb(climbers.held, heldAll, top2(heldAll));
-  const swing = climb(climbers.search, swingAll, top2(swingAll));
+  const held = climbFrom(climbers.held, heldAll, top2(heldAll));
+  const swing = climbFrom(climbers.search, swingAll, top2(swingAll));
   // Reported figures: every corner re-traced on the reported grid.
   const fine = (d: StageDesign | undefined): WorstStage | undefined => {
     if (!d) return undefined;
