@@ -12,15 +12,15 @@ import { exhaustive, type Grid, type RefAnswer } from './helpers/exhaustive.js';
 // stack layer only; tolerances: area and Rout within 5 %, headroom within 5 mV, nearest points within 10 mV / 5 %.
 
 let kits: Record<string, Kit>;
-const SUPPLY: Record<string, number> = { demo180: 1.8, demo090: 1.2 };
+const SUPPLY: Record<string, number> = { demo180: 1.8, demo090: 1.2, reed180: 1.8 };
 beforeAll(() => {
   ensureDemoTables();
-  kits = { demo180: demoKit('demo180'), demo090: demoKit('demo090') };
+  kits = { demo180: demoKit('demo180'), demo090: demoKit('demo090'), reed180: demoKit('reed180') };
 });
 
 interface Case {
   id: string;
-  kit: 'demo180' | 'demo090';
+  kit: 'demo180' | 'demo090' | 'reed180';
   spec: Omit<StackSpec, 'name'> & { topology: Topology };
   grid?: Partial<Grid>;
   /** What the case is there to show. */
@@ -158,6 +158,14 @@ const INFEASIBLE: Case[] = [
   {
     id: 'p180-single-window', kit: 'demo180', why: 'Rout is met at the target but the current leaves its 1 % window',
     spec: { device: 'p', topology: 'single', current: 2e-6, rout: 3e6, headroom: 0.3, span: 1.6, objective: 'area' },
+  },
+  {
+    // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): every screened candidate
+    // had a cascode gate voltage whose bias diode is narrower than the minimum width at 0.54 µA on every allowed
+    // length, and the tool reported no design at all ("width", Rout at the headroom target 0 Ω) where the reference
+    // reaches about 1.05 GΩ with a lower setpoint.
+    id: 'p-reed-cascode-bias-narrow', kit: 'reed180', why: 'no screened candidate has a realisable bias diode',
+    spec: { device: 'p', topology: 'cascode', current: 0.543e-6, rout: 3.06e9, headroom: 0.471, span: 1.046, objective: 'headroom', l: { min: 0.3e-6, max: 0.5e-6 }, gmid: { min: 6, max: 22 } },
   },
 ];
 
