@@ -169,6 +169,15 @@ const INFEASIBLE: Case[] = [
     spec: { device: 'p', topology: 'single', current: 2e-6, rout: 3e6, headroom: 0.3, span: 1.6, objective: 'area' },
   },
   {
+    // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): under a 12 µm width limit at
+    // 173 µA the screen's designs are all too wide, and the climbs towards the nearest points kept to them (no
+    // preference among designs that are not usable), reporting Rout 0 Ω at the headroom target where the reference
+    // reaches 75 kΩ with narrower devices.
+    id: 'p090-triple-nearest-narrow', kit: 'demo090', why: 'nearest points when every screened design is too wide',
+    spec: { device: 'p', topology: 'triple', current: 173e-6, rout: 2.48e6, headroom: 0.565, span: 1.034, objective: 'area', wmax: 12e-6, l: { min: 0.09e-6, max: 0.12e-6 }, gmid: { min: 6, max: 22 } },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
     // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): the highest Rout at the
     // headroom target has both devices on the 40 µm width limit; the tool reported 9.7 % less. Wider devices would
     // meet every target, so the width limit binds.
