@@ -12,19 +12,21 @@ import { exhaustive, type Grid, type RefAnswer } from './helpers/exhaustive.js';
 // stack layer only; tolerances: area and Rout within 5 %, headroom within 5 mV, nearest points within 10 mV / 5 %.
 
 let kits: Record<string, Kit>;
-const SUPPLY: Record<string, number> = { demo180: 1.8, demo090: 1.2 };
+const SUPPLY: Record<string, number> = { demo180: 1.8, demo090: 1.2, reed180: 1.8 };
 beforeAll(() => {
   ensureDemoTables();
-  kits = { demo180: demoKit('demo180'), demo090: demoKit('demo090') };
+  kits = { demo180: demoKit('demo180'), demo090: demoKit('demo090'), reed180: demoKit('reed180') };
 });
 
 interface Case {
   id: string;
-  kit: 'demo180' | 'demo090';
+  kit: 'demo180' | 'demo090' | 'reed180';
   spec: Omit<StackSpec, 'name'> & { topology: Topology };
   grid?: Partial<Grid>;
   /** What the case is there to show. */
   why: string;
+  /** Infeasible cases only: the width limit binds (designs meeting every other target are wider). */
+  widthBinds?: boolean;
 }
 
 const GRID: Grid = { gmidStep: 3, vStep: 0.05, nearest: false };
@@ -125,6 +127,13 @@ const FEASIBLE: Case[] = [
     spec: { device: 'p', topology: 'triple', current: 10e-6, rout: 50e6, headroom: 0.5, span: 1.1, objective: 'area', l: { min: 0.16e-6, max: 0.22e-6 }, gmid: { min: 8, max: 24 } },
     grid: { gmidStep: 4 },
   },
+  {
+    // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts), which tries each device's
+    // width edge: the lowest headroom has the bottom device on the default width limit (1152 µm) at L = 2 µm, between
+    // the gm/ID steps of the climb; the tool stopped 9 mV higher at L = 1.4 µm.
+    id: 'n180-stacked-headroom-width-edge', kit: 'demo180', why: 'optimum on the width limit, between gm/ID steps',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 4.41e-6, rout: 626e6, headroom: 0.657, span: 1.583, objective: 'headroom', mismatch: 0.01 },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {
@@ -159,6 +168,30 @@ const INFEASIBLE: Case[] = [
     id: 'p180-single-window', kit: 'demo180', why: 'Rout is met at the target but the current leaves its 1 % window',
     spec: { device: 'p', topology: 'single', current: 2e-6, rout: 3e6, headroom: 0.3, span: 1.6, objective: 'area' },
   },
+  {
+    // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): under a 12 µm width limit at
+    // 173 µA the screen's designs are all too wide, and the climbs towards the nearest points kept to them (no
+    // preference among designs that are not usable), reporting Rout 0 Ω at the headroom target where the reference
+    // reaches 75 kΩ with narrower devices.
+    id: 'p090-triple-nearest-narrow', kit: 'demo090', why: 'nearest points when every screened design is too wide',
+    spec: { device: 'p', topology: 'triple', current: 173e-6, rout: 2.48e6, headroom: 0.565, span: 1.034, objective: 'area', wmax: 12e-6, l: { min: 0.09e-6, max: 0.12e-6 }, gmid: { min: 6, max: 22 } },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
+    // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): the highest Rout at the
+    // headroom target has both devices on the 40 µm width limit; the tool reported 9.7 % less. Wider devices would
+    // meet every target, so the width limit binds.
+    id: 'p-reed-cascode-nearest-width-edge', kit: 'reed180', why: 'nearest points on the width limit', widthBinds: true,
+    spec: { device: 'p', topology: 'cascode', current: 44e-6, rout: 18.7e6, headroom: 0.575, span: 1.611, objective: 'headroom', wmax: 40e-6 },
+  },
+  {
+    // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): every screened candidate
+    // had a cascode gate voltage whose bias diode is narrower than the minimum width at 0.54 µA on every allowed
+    // length, and the tool reported no design at all ("width", Rout at the headroom target 0 Ω) where the reference
+    // reaches about 1.05 GΩ with a lower setpoint.
+    id: 'p-reed-cascode-bias-narrow', kit: 'reed180', why: 'no screened candidate has a realisable bias diode',
+    spec: { device: 'p', topology: 'cascode', current: 0.543e-6, rout: 3.06e9, headroom: 0.471, span: 1.046, objective: 'headroom', l: { min: 0.3e-6, max: 0.5e-6 }, gmid: { min: 6, max: 22 } },
+  },
 ];
 
 describe('explanations of infeasible specs are true (exhaustive reference search)', () => {
@@ -176,8 +209,13 @@ describe('explanations of infeasible specs are true (exhaustive reference search
       }
       const r = tool.nearest?.routAtHeadroom ?? 0;
       // What binds: Rout when the best Rout at the target headroom is short of the target, else the current window.
-      const binds = ref.routAtHeadroom < c.spec.rout ? 'rout' : 'iout';
+      const binds = c.widthBinds ? 'width' : ref.routAtHeadroom < c.spec.rout ? 'rout' : 'iout';
       expect(bindingTarget(tool)).toBe(binds);
+      if (binds === 'width') {
+        // The reference agrees: without the spec's limit (the kit's default then) a design meets every target.
+        const { wmax: _, ...wide } = c.spec;
+        expect(exhaustive({ name: c.id, ...wide }, kits[c.kit], c.spec.topology, 'tt', { ...GRID, ...c.grid }).best).toBeDefined();
+      }
       expect(r).toBeGreaterThanOrEqual(0.95 * ref.routAtHeadroom);
       if (binds === 'rout') {
         // The design shown is the one reaching that Rout: re-judged from its sizes, it has it (and the table shows it).

@@ -43,9 +43,26 @@ function narrower(a: Evaluated, b: Evaluated): boolean {
 // lower devices saturated.
 const usable = (e: Evaluated) => e.margins.mismatch >= 0 && e.margins.iout >= 0 && e.margins.saturation >= 0 && e.margins.width >= 0;
 
+// How far a design is from usable: the shortfalls of the margins `usable` reads, each capped as in the ranking's
+// distance to feasibility (policy.distanceToFeasible). Between two unusable designs the nearer one leads, so a
+// climb from unusable seeds heads for usable designs (e.g. narrower, with a higher setpoint, under a tight width limit).
+const shortOf = (x: number) => Math.min(Math.max(0, -x), 50);
+const unusability = (e: Evaluated) => shortOf(e.margins.mismatch) + shortOf(e.margins.iout) + shortOf(e.margins.saturation) + shortOf(e.margins.width);
+
+/** Whether usability alone orders a before b (undefined: it does not decide). */
+function byUsability(a: Evaluated, b: Evaluated): boolean | undefined {
+  const ua = usable(a);
+  if (ua !== usable(b)) return ua;
+  if (ua) return undefined;
+  const da = unusability(a);
+  const db = unusability(b);
+  return da === db ? undefined : da < db;
+}
+
 /** Lower headroom first; among designs that never reach the target, the higher Rout at span-side first. */
 function lowerHeadroom(a: Evaluated, b: Evaluated): boolean {
-  if (usable(a) !== usable(b)) return usable(a);
+  const u = byUsability(a, b);
+  if (u !== undefined) return u;
   const ha = a.nominal.headroom;
   const hb = b.nominal.headroom;
   if (ha !== hb) return ha < hb;
@@ -53,7 +70,8 @@ function lowerHeadroom(a: Evaluated, b: Evaluated): boolean {
 }
 
 function higherRout(a: Evaluated, b: Evaluated): boolean {
-  if (usable(a) !== usable(b)) return usable(a);
+  const u = byUsability(a, b);
+  if (u !== undefined) return u;
   return a.nominal.routAtTarget > b.nominal.routAtTarget;
 }
 

@@ -9,6 +9,7 @@ import { makeContext, type SolveContext } from './context.js';
 import { screen } from './search/screen.js';
 import { evaluateOnce, refine, settle, type Seen } from './search/refine.js';
 import { reuseOf, type Reuse } from './search/reuse.js';
+import type { Candidate } from './search/candidate.js';
 import { finalize, fullyOk, nominalOk, type Evaluated } from './evaluate/evaluate.js';
 import { compareDesigns, pickBest, shortfall } from './search/rank.js';
 import { emptyResult, stackResult } from './result.js';
@@ -73,14 +74,40 @@ function seedsOf(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[])
   return seeds;
 }
 
+// Setpoint steps of the fallback below, V, and the lowest setpoint it tries (the setpoint grid's start).
+const LOWER_STEP = 0.025;
+const LOWEST_SETPOINT = 0.05;
+
+/**
+ * When no screened candidate can be realised, the same candidates with their VDS setpoints lowered step by step:
+ * the screen does not size the bias diodes, and a cascode gate voltage too high for the bias current leaves every
+ * length of its diode narrower than the minimum width (a lower setpoint lowers the gate voltage, so the diode
+ * widens). Only runs when the pool is otherwise empty, so it adds no work where the screen's candidates are realised.
+ */
+function lowered(ctx: SolveContext, cands: readonly Candidate[], seen: Seen, pool: Evaluated[]): void {
+  for (const c of cands) {
+    for (let d = LOWER_STEP; ; d += LOWER_STEP) {
+      const setpoints = c.setpoints.map((s) => Math.round((s - d) * 1e6) / 1e6);
+      if (setpoints.length === 0 || setpoints.some((s) => s < LOWEST_SETPOINT - 1e-9)) break;
+      const e = evaluateOnce(ctx, { ...c, setpoints }, seen);
+      if (e) {
+        pool.push(e);
+        break;
+      }
+    }
+  }
+}
+
 /** Screen, evaluate, refine: the best design and everything evaluated, or null when nothing could be realised. */
 function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool: Evaluated[]; seen: Seen } | null {
   const seen: Seen = new Map();
   const pool: Evaluated[] = [];
-  for (const c of screen(ctx, topology)) {
+  const screened = screen(ctx, topology);
+  for (const c of screened) {
     const e = evaluateOnce(ctx, c, seen);
     if (e) pool.push(e);
   }
+  if (pool.length === 0) lowered(ctx, screened, seen, pool);
   const first = pickBest(ctx, pool);
   if (!first) return null;
   let best = refine(ctx, seedsOf(ctx, first, pool), seen, pool) ?? first;

@@ -127,6 +127,11 @@ export function candidateArea(ctx: SolveContext, cand: Candidate): number {
   return a;
 }
 
+/** Widths of a candidate's output devices from its sizing alone (no DC solves); null when the table cannot realise it. */
+export function candidateWidths(ctx: SolveContext, cand: Candidate): ArrayLike<number> | null {
+  return rangeSafe(() => sizeOf(ctx, cand).sized)?.w ?? null;
+}
+
 function reject(ctx: SolveContext, why: 'narrow' | 'triode'): null {
   ctx.count[why]++;
   return null;

@@ -7,6 +7,7 @@ import { REL_TOL } from '../../policy.js';
 import { better, shortfall, stepTop } from './rank.js';
 import { rejudged, type Reuse, type Seen } from './reuse.js';
 import { lookAt, shortfallSurelyAbove, surelyMisses, type Look } from './quick.js';
+import { withWidthEdges } from './width-edge.js';
 
 export type { Seen };
 
@@ -211,7 +212,7 @@ function climb(
 
   function step(moves: Candidate[]): boolean {
     let improved = false;
-    for (const n of moves) {
+    for (const n of withWidthEdges(ctx, moves)) {
       const key = candidateKey(n);
       const limit = bound(best);
       if (limit < Infinity && !(areaOf(key, n) < limit * (1 - REL_TOL))) continue;
