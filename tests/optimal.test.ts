@@ -231,7 +231,7 @@ describe('explanations of infeasible specs are true (exhaustive reference search
 describe('nearest points on the edge of the width limit (exhaustive reference search)', () => {
   it('the demo ota-load as a stacked cascode: the highest Rout at the headroom target is the one on the edge', () => {
     // Every design meeting Rout and headroom is wider than the limit, so width binds; the nearest points lie on the
-    // limit's edge in gm/ID, which the climbs' old last step (1/8 of the screen's gm/ID step) left 9 % short in Rout
+    // limit's edge in gm/ID, which climbs without the width-edge moves (search/width-edge.ts) left 9 % short in Rout
     // (32.1 against 35.2 MΩ). The reference adds each device's width edge to its gm/ID grid.
     const c: Case = {
       id: 'p180-stacked-width-edge', kit: 'demo180', why: 'nearest Rout on the edge of the width limit',

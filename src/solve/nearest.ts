@@ -1,7 +1,7 @@
 import type { Topology } from '../design/types.js';
 import type { SolveContext } from './context.js';
 import { ensureCorners, finalize, type Evaluated, type Start } from './evaluate/evaluate.js';
-import { FINEST_END, defer, evaluateOnce, lookOnce, refine, settle, type Hopeless, type Seen } from './search/refine.js';
+import { defer, evaluateOnce, lookOnce, refine, settle, type Hopeless, type Seen } from './search/refine.js';
 import { routSurelyBelow, routSurelyBelowAt, scanPointAtOrAbove, type Look } from './search/quick.js';
 import { screen } from './search/screen.js';
 import { candidateKey } from './search/candidate.js';
@@ -180,8 +180,8 @@ export function nearestPoints(
   // What the sizing search left unevaluated, then the lifted screen: only what the nearest points may read.
   settle(ctx, seen, pool, (l) => outOfReach(ctx, l, pool));
   liftedScreen(ctx, topology, pool, seen);
-  const hr = refine(ctx, bestOf(pool, lowerHeadroom, 2), seen, pool, lowerHeadroom, headroomHopeless(ctx, pool), FINEST_END);
-  const ro = refine(ctx, seedsOf(ctx, pool, seen, higherRout, usable), seen, pool, higherRout, routBelowFromUsable(ctx), FINEST_END);
+  const hr = refine(ctx, bestOf(pool, lowerHeadroom, 2), seen, pool, lowerHeadroom, headroomHopeless(ctx, pool));
+  const ro = refine(ctx, seedsOf(ctx, pool, seen, higherRout, usable), seen, pool, higherRout, routBelowFromUsable(ctx));
   // The figures come from the full curve, as every reported design's do, so they match wherever shown.
   if (hr) finalize(ctx, hr);
   if (ro) finalize(ctx, ro);
@@ -222,11 +222,10 @@ function worstCorner(ctx: SolveContext, e: Evaluated): { usable: boolean; headro
   let ok = usable(e);
   let headroom = e.nominal.headroom;
   let rout = e.nominal.routAtTarget;
-  const m = e.margins;
-  let off = Math.max(0, -m.mismatch) + Math.max(0, -m.iout) + Math.max(0, -m.saturation) + Math.max(0, -m.width);
+  let off = unusability(e);
   for (const c of corners) {
     if (!c.ev || c.margins.iout < 0 || c.margins.saturation < 0) ok = false;
-    off += c.ev ? Math.max(0, -c.margins.iout) + Math.max(0, -c.margins.saturation) : Infinity;
+    off += c.ev ? shortOf(c.margins.iout) + shortOf(c.margins.saturation) : Infinity;
     headroom = Math.max(headroom, c.ev ? c.ev.headroom : Infinity);
     rout = Math.min(rout, c.ev ? c.ev.routAtTarget : 0);
   }
@@ -274,8 +273,8 @@ function nearestOverCorners(ctx: SolveContext, pool: Evaluated[], seen: Seen, no
   const starts = [...new Set([
     ...nominal, ...bestOf(pool, lowerHeadroom, 4), ...bestOf(pool, higherRout, 4), ...everywhere(lowerHeadroom), ...everywhere(higherRout),
   ])].filter((e): e is Evaluated => e !== undefined);
-  const hr = refine(ctx, bestOf(starts, lower, 2), seen, pool, lower, undefined, FINEST_END);
-  const ro = refine(ctx, bestOf(starts, higher, 2), seen, pool, higher, undefined, FINEST_END);
+  const hr = refine(ctx, bestOf(starts, lower, 2), seen, pool, lower);
+  const ro = refine(ctx, bestOf(starts, higher, 2), seen, pool, higher);
   // Reported figures come from the full curve at every corner, as the designs' own do.
   if (hr) finalize(ctx, hr);
   if (ro) finalize(ctx, ro);

@@ -97,7 +97,7 @@ export function neighbours(ctx: SolveContext, c: Candidate, gstep: number, vstep
  */
 export function refine(
   ctx: SolveContext, seeds: readonly Evaluated[], seen: Seen, pool: Evaluated[],
-  prefer?: (a: Evaluated, b: Evaluated) => boolean, hopeless?: Hopeless, finest = COARSEST_END,
+  prefer?: (a: Evaluated, b: Evaluated) => boolean, hopeless?: Hopeless,
 ): Evaluated | undefined {
   // With the spec's own order and objective area, a move whose area is no smaller than a design meeting every
   // target cannot win: its area (from the sizing alone) spares the exact evaluation.
@@ -108,7 +108,7 @@ export function refine(
   prefer ??= (a, b) => better(ctx, a, b);
   let best: Evaluated | undefined;
   for (const seed of seeds) {
-    const local = climb(ctx, seed, seen, pool, prefer, bound, hopeless, finest);
+    const local = climb(ctx, seed, seen, pool, prefer, bound, hopeless);
     if (!best || prefer(local, best)) best = local;
   }
   return best;
@@ -168,17 +168,9 @@ export function settle(ctx: SolveContext, seen: Seen, pool: Evaluated[], stays?:
   }
 }
 
-/**
- * A climb ends when the gm/ID step falls below the screen's step over this (and the setpoint step below 3 mV). The
- * sizing search's climbs end at 1/8; the nearest points' go on to 1/64, since their answers often lie on the edge
- * of the width limit, which a coarser step leaves up to a tenth of the screen's step away (about 10 % of Rout).
- */
-export const COARSEST_END = 8;
-export const FINEST_END = 64;
-
 function climb(
   ctx: SolveContext, seed: Evaluated, seen: Seen, pool: Evaluated[],
-  better: (a: Evaluated, b: Evaluated) => boolean, bound: (best: Evaluated) => number, hopeless: Hopeless | undefined, finest: number,
+  better: (a: Evaluated, b: Evaluated) => boolean, bound: (best: Evaluated) => number, hopeless: Hopeless | undefined,
 ): Evaluated {
   const memo = memoOf(seen);
   const areaOf = (key: string, c: Candidate): number => {
@@ -205,7 +197,7 @@ function climb(
     if (!improved) {
       gstep /= 2;
       vstep /= 2;
-      if (gstep < ctx.gmidStep / finest && vstep < 0.003) break;
+      if (gstep < ctx.gmidStep / 8 && vstep < 0.003) break;
     }
   }
   return best;
