@@ -78,6 +78,12 @@ const cases: StageCase[] = [
     stage: stageOf({ gain: 150, swing: 0.8, output: 0.9, input: 'n', inputTopology: 'single', load: 'cascode-stacked', l: [0.5e-6, 1e-6], gmid: [8, 24], loadL: [0.5e-6, 0.5e-6] }),
     why: 'the stacked-cascode load (self-biased from one gate)',
   },
+  {
+    // Found by an adversarial audit of the stage search (case C6): 1.9x the reference's area before the fix.
+    id: 'n cascode input at 1.1 V, p common-source load, 30 uA, gain 300 over 1.3 V', kit: 'demo180', grid: COARSE,
+    stage: { ...stageOf({ gain: 300, swing: 1.3, output: 1.1, input: 'n', inputTopology: 'cascode', load: 'single', l: [0.35e-6, 1e-6], gmid: [8, 24] }), current: 30e-6 },
+    why: 'design point off mid-supply: the screen keeps only 1 um inputs, and a shorter input device holds the swing only with a lower cascode setpoint (one coupled move)',
+  },
 ];
 
 describe('gain-stage search against an exhaustive reference (objective area, tt)', () => {

@@ -20,6 +20,8 @@ const SEEDS = 2;
 /** The nearest points' climbs start at this multiple of the screen's steps and halve them NEAREST_LEVELS − 1 times (4, 2, 1, 0.5). */
 const NEAREST_SCALE = 4;
 const NEAREST_LEVELS = 4;
+/** Setpoint moves, in steps, tried together with a length move once the other moves are exhausted. */
+const SETPOINT_JUMPS = [-4, -2];
 /** Climb rounds at most; each round tries the moves of both sides once. */
 const MAX_ROUNDS = 24;
 
@@ -43,6 +45,21 @@ function seedsOf(sides: StageSides, picked: StageDesign, pool: readonly StageDes
     if (seen.has(lengths(d))) continue;
     seen.add(lengths(d));
     out.push(d);
+  }
+  return out;
+}
+
+/** The candidates one device length away from `from` (to the neighbouring table length), nothing else moved. */
+function lengthMoves(ctx: { lengths: readonly number[] }, from: Candidate): Candidate[] {
+  const out: Candidate[] = [];
+  for (let k = 0; k < from.l.length; k++) {
+    let j = 0;
+    for (let i = 1; i < ctx.lengths.length; i++) if (Math.abs(ctx.lengths[i] - from.l[k]) < Math.abs(ctx.lengths[j] - from.l[k])) j = i;
+    for (const dj of [-1, 1]) {
+      const l = ctx.lengths[j + dj];
+      if (l === undefined) continue;
+      out.push({ ...from, l: from.l.map((x, i) => (i === k ? l : x)), gmid: [...from.gmid], setpoints: [...from.setpoints] });
+    }
   }
   return out;
 }
@@ -162,10 +179,32 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
     }
     return out;
   };
-  const movesOf = (best: StageDesign, steps: Steps, kind: 'single' | 'pair' | 'cross'): Move[] => {
+  // A length move with one setpoint moved by several steps at once (SETPOINT_JUMPS): a shorter device loses Rout
+  // near the swing edges, which a lower setpoint (more room for the device above) makes up, a coupled move that
+  // no single step of either finds.
+  const jumpMoves = (best: StageDesign, steps: Steps, kind: 'input' | 'load'): SideDesign[] => {
+    const out: SideDesign[] = [];
+    const from = best[kind].cand;
+    if (from.setpoints.length === 0) return out;
+    for (const c of lengthMoves(sides[kind].ctx, from)) {
+      for (let k = 0; k < c.setpoints.length; k++) {
+        for (const n of SETPOINT_JUMPS) {
+          const v = c.setpoints[k] + n * steps[kind].v;
+          if (!(v >= 0.02)) continue;
+          const d = sideOf(sides[kind], { ...c, setpoints: c.setpoints.map((x, i) => (i === k ? v : x)) });
+          if (d) out.push(d);
+        }
+      }
+    }
+    return out;
+  };
+  const movesOf = (best: StageDesign, steps: Steps, kind: 'single' | 'pair' | 'cross' | 'jump'): Move[] => {
     const out: Move[] = [];
     const move = (input: SideDesign, load: SideDesign): Move => ({ input, load, area: input.area + load.area });
-    if (kind === 'cross') {
+    if (kind === 'jump') {
+      for (const i of jumpMoves(best, steps, 'input')) out.push(move(i, best.load));
+      for (const l of jumpMoves(best, steps, 'load')) out.push(move(best.input, l));
+    } else if (kind === 'cross') {
       const loads = sideMoves(best, steps, 'load', false);
       for (const i of sideMoves(best, steps, 'input', false)) for (const l of loads) out.push(move(i, l));
     } else {
@@ -181,7 +220,7 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
       input: { g: sides.input.ctx.gmidStep * o.scale, v: topologyOf(start.input.cand.topology).refineVoltageStep * o.scale },
       load: { g: sides.load.ctx.gmidStep * o.scale, v: topologyOf(start.load.cand.topology).refineVoltageStep * o.scale },
     };
-    const tryMoves = (kind: 'single' | 'pair' | 'cross'): boolean => {
+    const tryMoves = (kind: 'single' | 'pair' | 'cross' | 'jump'): boolean => {
       let improved = false;
       for (const m of movesOf(best, steps, kind)) {
         const limit = o.bound(best);
@@ -199,7 +238,8 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
       return improved;
     };
     for (let round = 0, level = 1; round < MAX_ROUNDS; round++) {
-      const improved = tryMoves('single') || tryMoves('pair') || (o.scale === 1 && tryMoves('cross'));
+      // The jumps only once the other moves are exhausted at the last step size: they extend a climb, not steer it.
+      const improved = tryMoves('single') || tryMoves('pair') || (o.scale === 1 && tryMoves('cross')) || (level === o.levels && tryMoves('jump'));
       if (improved) continue;
       if (++level > o.levels) break;
       for (const s of [steps.input, steps.load]) {
