@@ -84,6 +84,12 @@ const cases: StageCase[] = [
     stage: { ...stageOf({ gain: 300, swing: 1.3, output: 1.1, input: 'n', inputTopology: 'cascode', load: 'single', l: [0.35e-6, 1e-6], gmid: [8, 24] }), current: 30e-6 },
     why: 'design point off mid-supply: the screen keeps only 1 um inputs, and a shorter input device holds the swing only with a lower cascode setpoint (one coupled move)',
   },
+  {
+    // Found by an adversarial audit of the stage search (case C5): 1.08x the reference's area before the fix.
+    id: 'p cascode input, n cascode load, gain 3000 over 0.8 V', kit: 'demo180', grid: { gmidPoints: 5, vStep: 0.1 },
+    stage: stageOf({ gain: 3000, swing: 0.8, output: 0.9, input: 'p', inputTopology: 'cascode', load: 'cascode', l: [0.35e-6, 0.7e-6], gmid: [8, 24] }),
+    why: 'a shorter input device keeps the swing only with its gm/ID a step up and its setpoint two steps down at once',
+  },
 ];
 
 describe('gain-stage search against an exhaustive reference (objective area, tt)', () => {

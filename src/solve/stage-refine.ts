@@ -20,7 +20,7 @@ const SEEDS = 2;
 /** The nearest points' climbs start at this multiple of the screen's steps and halve them NEAREST_LEVELS − 1 times (4, 2, 1, 0.5). */
 const NEAREST_SCALE = 4;
 const NEAREST_LEVELS = 4;
-/** Setpoint moves, in steps, tried together with a length move once the other moves are exhausted. */
+/** Setpoint moves, in steps, tried together with a length move (and a gm/ID step) once the other moves are exhausted. */
 const SETPOINT_JUMPS = [-4, -2];
 /** Climb rounds at most; each round tries the moves of both sides once. */
 const MAX_ROUNDS = 24;
@@ -49,16 +49,16 @@ function seedsOf(sides: StageSides, picked: StageDesign, pool: readonly StageDes
   return out;
 }
 
-/** The candidates one device length away from `from` (to the neighbouring table length), nothing else moved. */
-function lengthMoves(ctx: { lengths: readonly number[] }, from: Candidate): Candidate[] {
-  const out: Candidate[] = [];
+/** The candidates one device length away from `from` (device k to the neighbouring table length), nothing else moved. */
+function lengthMoves(ctx: { lengths: readonly number[] }, from: Candidate): Array<{ cand: Candidate; k: number }> {
+  const out: Array<{ cand: Candidate; k: number }> = [];
   for (let k = 0; k < from.l.length; k++) {
     let j = 0;
     for (let i = 1; i < ctx.lengths.length; i++) if (Math.abs(ctx.lengths[i] - from.l[k]) < Math.abs(ctx.lengths[j] - from.l[k])) j = i;
     for (const dj of [-1, 1]) {
       const l = ctx.lengths[j + dj];
       if (l === undefined) continue;
-      out.push({ ...from, l: from.l.map((x, i) => (i === k ? l : x)), gmid: [...from.gmid], setpoints: [...from.setpoints] });
+      out.push({ cand: { ...from, l: from.l.map((x, i) => (i === k ? l : x)), gmid: [...from.gmid], setpoints: [...from.setpoints] }, k });
     }
   }
   return out;
@@ -179,20 +179,32 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
     }
     return out;
   };
-  // A length move with one setpoint moved by several steps at once (SETPOINT_JUMPS): a shorter device loses Rout
-  // near the swing edges, which a lower setpoint (more room for the device above) makes up, a coupled move that
-  // no single step of either finds.
+  // Coupled length moves: a device's L to the neighbouring table length together with its gm/ID by a step, with one
+  // setpoint several steps lower (SETPOINT_JUMPS), or both. A shorter device loses Rout near the swing edges, which
+  // a higher gm/ID (more gain) or a lower setpoint (more room for the device above) makes up; no single or pair
+  // move of the climb finds such a move, and on a thin feasible region the climb stopped short of it.
   const jumpMoves = (best: StageDesign, steps: Steps, kind: 'input' | 'load'): SideDesign[] => {
     const out: SideDesign[] = [];
-    const from = best[kind].cand;
-    if (from.setpoints.length === 0) return out;
-    for (const c of lengthMoves(sides[kind].ctx, from)) {
-      for (let k = 0; k < c.setpoints.length; k++) {
-        for (const n of SETPOINT_JUMPS) {
-          const v = c.setpoints[k] + n * steps[kind].v;
-          if (!(v >= 0.02)) continue;
-          const d = sideOf(sides[kind], { ...c, setpoints: c.setpoints.map((x, i) => (i === k ? v : x)) });
+    const ctx = sides[kind].ctx;
+    const [gLo, gHi] = [ctx.gmids[0], ctx.gmids[ctx.gmids.length - 1]];
+    for (const { cand: c, k } of lengthMoves(ctx, best[kind].cand)) {
+      for (const gs of [0, -1, 1]) {
+        const g = c.gmid[k] + gs * steps[kind].g;
+        if (!(g >= gLo - 1e-9 && g <= gHi + 1e-9)) continue;
+        const gmid = c.gmid.map((x, i) => (i === k ? g : x));
+        // The moved device's gm/ID by a step (the plain length move is the single moves' own), then with one
+        // setpoint jump each.
+        if (gs !== 0) {
+          const d = sideOf(sides[kind], { ...c, gmid });
           if (d) out.push(d);
+        }
+        for (let j = 0; j < c.setpoints.length; j++) {
+          for (const n of SETPOINT_JUMPS) {
+            const v = c.setpoints[j] + n * steps[kind].v;
+            if (!(v >= 0.02)) continue;
+            const d = sideOf(sides[kind], { ...c, gmid, setpoints: c.setpoints.map((x, i) => (i === j ? v : x)) });
+            if (d) out.push(d);
+          }
         }
       }
     }
