@@ -90,6 +90,12 @@ const cases: StageCase[] = [
     stage: stageOf({ gain: 3000, swing: 0.8, output: 0.9, input: 'p', inputTopology: 'cascode', load: 'cascode', l: [0.35e-6, 0.7e-6], gmid: [8, 24] }),
     why: 'a shorter input device keeps the swing only with its gm/ID a step up and its setpoint two steps down at once',
   },
+  {
+    // Found by an adversarial audit of the stage search (case E4): 1.050x the reference's area before the fix.
+    id: 'n common-source input, p common-source load, GBW 30 MHz into 1 pF', kit: 'demo180', grid: FINE,
+    stage: { ...stageOf({ gain: 60, swing: 1.0, output: 0.9, input: 'n', inputTopology: 'single', load: 'single', l: [0.35e-6, 1.4e-6], gmid: [6, 24] }), gbw: 30e6, cap: 1e-12 },
+    why: 'the GBW holds the input gm/ID up: a longer load pays only with the input gm/ID half a step down at once (both sides moved at the halved step)',
+  },
 ];
 
 describe('gain-stage search against an exhaustive reference (objective area, tt)', () => {

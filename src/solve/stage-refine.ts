@@ -251,7 +251,7 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
     };
     for (let round = 0, level = 1; round < MAX_ROUNDS; round++) {
       // The jumps only once the other moves are exhausted at the last step size: they extend a climb, not steer it.
-      const improved = tryMoves('single') || tryMoves('pair') || (o.scale === 1 && tryMoves('cross')) || (level === o.levels && tryMoves('jump'));
+      const improved = tryMoves('single') || tryMoves('pair') || (o.scale <= 1 && tryMoves('cross')) || (level === o.levels && tryMoves('jump'));
       if (improved) continue;
       if (++level > o.levels) break;
       for (const s of [steps.input, steps.load]) {
@@ -271,8 +271,10 @@ type Climber = ReturnType<typeof stageClimber>;
  * by stageBetter:
  * - one side moved with the other held: the stack climb's neighbours (each device's L to the neighbouring grid
  *   lengths, each gm/ID and VDS setpoint by ± its step), then pairs of those;
- * - then, at the screen's step, both sides at once, one single-coordinate move of each: a side giving up area and
- *   Rout only pays when the other makes up the gain, which no move of one side finds.
+ * - then, at the screen's step and the halved ones (not in the nearest points' coarser climbs), both sides at once,
+ *   one single-coordinate move of each: a side giving up area and Rout only pays when the other makes up the gain,
+ *   which no move of one side finds;
+ * - then, at a climb's finest step only, coupled length moves of one side (jumpMoves).
  * Moves go in order of summed area, so with objective area the first one meeting every target wins the round and
  * the rest, no smaller than it, are not traced; a move surelyMisses rules out is not traced either.
  * Every seed climbs at the screen's gm/ID step; the best of those climbs on with the steps halved twice. The screen
