@@ -78,6 +78,24 @@ const cases: StageCase[] = [
     stage: stageOf({ gain: 150, swing: 0.8, output: 0.9, input: 'n', inputTopology: 'single', load: 'cascode-stacked', l: [0.5e-6, 1e-6], gmid: [8, 24], loadL: [0.5e-6, 0.5e-6] }),
     why: 'the stacked-cascode load (self-biased from one gate)',
   },
+  {
+    // Found by an adversarial audit of the stage search (case C6): 1.9x the reference's area before the fix.
+    id: 'n cascode input at 1.1 V, p common-source load, 30 uA, gain 300 over 1.3 V', kit: 'demo180', grid: COARSE,
+    stage: { ...stageOf({ gain: 300, swing: 1.3, output: 1.1, input: 'n', inputTopology: 'cascode', load: 'single', l: [0.35e-6, 1e-6], gmid: [8, 24] }), current: 30e-6 },
+    why: 'design point off mid-supply: the screen keeps only 1 um inputs, and a shorter input device holds the swing only with a lower cascode setpoint (one coupled move)',
+  },
+  {
+    // Found by an adversarial audit of the stage search (case C5): 1.08x the reference's area before the fix.
+    id: 'p cascode input, n cascode load, gain 3000 over 0.8 V', kit: 'demo180', grid: { gmidPoints: 5, vStep: 0.1 },
+    stage: stageOf({ gain: 3000, swing: 0.8, output: 0.9, input: 'p', inputTopology: 'cascode', load: 'cascode', l: [0.35e-6, 0.7e-6], gmid: [8, 24] }),
+    why: 'a shorter input device keeps the swing only with its gm/ID a step up and its setpoint two steps down at once',
+  },
+  {
+    // Found by an adversarial audit of the stage search (case E4): 1.050x the reference's area before the fix.
+    id: 'n common-source input, p common-source load, GBW 30 MHz into 1 pF', kit: 'demo180', grid: FINE,
+    stage: { ...stageOf({ gain: 60, swing: 1.0, output: 0.9, input: 'n', inputTopology: 'single', load: 'single', l: [0.35e-6, 1.4e-6], gmid: [6, 24] }), gbw: 30e6, cap: 1e-12 },
+    why: 'the GBW holds the input gm/ID up: a longer load pays only with the input gm/ID half a step down at once (both sides moved at the halved step)',
+  },
 ];
 
 describe('gain-stage search against an exhaustive reference (objective area, tt)', () => {

@@ -20,6 +20,8 @@ const SEEDS = 2;
 /** The nearest points' climbs start at this multiple of the screen's steps and halve them NEAREST_LEVELS − 1 times (4, 2, 1, 0.5). */
 const NEAREST_SCALE = 4;
 const NEAREST_LEVELS = 4;
+/** Setpoint moves, in steps, tried together with a length move (and a gm/ID step) once the other moves are exhausted. */
+const SETPOINT_JUMPS = [-4, -2];
 /** Climb rounds at most; each round tries the moves of both sides once. */
 const MAX_ROUNDS = 24;
 
@@ -43,6 +45,21 @@ function seedsOf(sides: StageSides, picked: StageDesign, pool: readonly StageDes
     if (seen.has(lengths(d))) continue;
     seen.add(lengths(d));
     out.push(d);
+  }
+  return out;
+}
+
+/** The candidates one device length away from `from` (device k to the neighbouring table length), nothing else moved. */
+function lengthMoves(ctx: { lengths: readonly number[] }, from: Candidate): Array<{ cand: Candidate; k: number }> {
+  const out: Array<{ cand: Candidate; k: number }> = [];
+  for (let k = 0; k < from.l.length; k++) {
+    let j = 0;
+    for (let i = 1; i < ctx.lengths.length; i++) if (Math.abs(ctx.lengths[i] - from.l[k]) < Math.abs(ctx.lengths[j] - from.l[k])) j = i;
+    for (const dj of [-1, 1]) {
+      const l = ctx.lengths[j + dj];
+      if (l === undefined) continue;
+      out.push({ cand: { ...from, l: from.l.map((x, i) => (i === k ? l : x)), gmid: [...from.gmid], setpoints: [...from.setpoints] }, k });
+    }
   }
   return out;
 }
@@ -162,10 +179,44 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
     }
     return out;
   };
-  const movesOf = (best: StageDesign, steps: Steps, kind: 'single' | 'pair' | 'cross'): Move[] => {
+  // Coupled length moves: a device's L to the neighbouring table length together with its gm/ID by a step, with one
+  // setpoint several steps lower (SETPOINT_JUMPS), or both. A shorter device loses Rout near the swing edges, which
+  // a higher gm/ID (more gain) or a lower setpoint (more room for the device above) makes up; no single or pair
+  // move of the climb finds such a move, and on a thin feasible region the climb stopped short of it.
+  const jumpMoves = (best: StageDesign, steps: Steps, kind: 'input' | 'load'): SideDesign[] => {
+    const out: SideDesign[] = [];
+    const ctx = sides[kind].ctx;
+    const [gLo, gHi] = [ctx.gmids[0], ctx.gmids[ctx.gmids.length - 1]];
+    for (const { cand: c, k } of lengthMoves(ctx, best[kind].cand)) {
+      for (const gs of [0, -1, 1]) {
+        const g = c.gmid[k] + gs * steps[kind].g;
+        if (!(g >= gLo - 1e-9 && g <= gHi + 1e-9)) continue;
+        const gmid = c.gmid.map((x, i) => (i === k ? g : x));
+        // The moved device's gm/ID by a step (the plain length move is the single moves' own), then with one
+        // setpoint jump each.
+        if (gs !== 0) {
+          const d = sideOf(sides[kind], { ...c, gmid });
+          if (d) out.push(d);
+        }
+        for (let j = 0; j < c.setpoints.length; j++) {
+          for (const n of SETPOINT_JUMPS) {
+            const v = c.setpoints[j] + n * steps[kind].v;
+            if (!(v >= 0.02)) continue;
+            const d = sideOf(sides[kind], { ...c, gmid, setpoints: c.setpoints.map((x, i) => (i === j ? v : x)) });
+            if (d) out.push(d);
+          }
+        }
+      }
+    }
+    return out;
+  };
+  const movesOf = (best: StageDesign, steps: Steps, kind: 'single' | 'pair' | 'cross' | 'jump'): Move[] => {
     const out: Move[] = [];
     const move = (input: SideDesign, load: SideDesign): Move => ({ input, load, area: input.area + load.area });
-    if (kind === 'cross') {
+    if (kind === 'jump') {
+      for (const i of jumpMoves(best, steps, 'input')) out.push(move(i, best.load));
+      for (const l of jumpMoves(best, steps, 'load')) out.push(move(best.input, l));
+    } else if (kind === 'cross') {
       const loads = sideMoves(best, steps, 'load', false);
       for (const i of sideMoves(best, steps, 'input', false)) for (const l of loads) out.push(move(i, l));
     } else {
@@ -181,7 +232,7 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
       input: { g: sides.input.ctx.gmidStep * o.scale, v: topologyOf(start.input.cand.topology).refineVoltageStep * o.scale },
       load: { g: sides.load.ctx.gmidStep * o.scale, v: topologyOf(start.load.cand.topology).refineVoltageStep * o.scale },
     };
-    const tryMoves = (kind: 'single' | 'pair' | 'cross'): boolean => {
+    const tryMoves = (kind: 'single' | 'pair' | 'cross' | 'jump'): boolean => {
       let improved = false;
       for (const m of movesOf(best, steps, kind)) {
         const limit = o.bound(best);
@@ -199,7 +250,8 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
       return improved;
     };
     for (let round = 0, level = 1; round < MAX_ROUNDS; round++) {
-      const improved = tryMoves('single') || tryMoves('pair') || (o.scale === 1 && tryMoves('cross'));
+      // The jumps only once the other moves are exhausted at the last step size: they extend a climb, not steer it.
+      const improved = tryMoves('single') || tryMoves('pair') || (o.scale <= 1 && tryMoves('cross')) || (level === o.levels && tryMoves('jump'));
       if (improved) continue;
       if (++level > o.levels) break;
       for (const s of [steps.input, steps.load]) {
@@ -219,8 +271,10 @@ type Climber = ReturnType<typeof stageClimber>;
  * by stageBetter:
  * - one side moved with the other held: the stack climb's neighbours (each device's L to the neighbouring grid
  *   lengths, each gm/ID and VDS setpoint by ± its step), then pairs of those;
- * - then, at the screen's step, both sides at once, one single-coordinate move of each: a side giving up area and
- *   Rout only pays when the other makes up the gain, which no move of one side finds.
+ * - then, at the screen's step and the halved ones (not in the nearest points' coarser climbs), both sides at once,
+ *   one single-coordinate move of each: a side giving up area and Rout only pays when the other makes up the gain,
+ *   which no move of one side finds;
+ * - then, at a climb's finest step only, coupled length moves of one side (jumpMoves).
  * Moves go in order of summed area, so with objective area the first one meeting every target wins the round and
  * the rest, no smaller than it, are not traced; a move surelyMisses rules out is not traced either.
  * Every seed climbs at the screen's gm/ID step; the best of those climbs on with the steps halved twice. The screen

@@ -10,8 +10,9 @@
  * - every fixed gate has a realisable bias diode (as `netlist --bias diodes`; a diode too narrow takes a longer L from
  *   the side's allowed lengths, as for stacks); the input gate lies within the rails;
  * - the transfer curve traced on the circuit on the reported 20 mV grid with each swing edge bisected on the circuit
- *   (traceStage); the design meets the targets when the swing at the gain target reaches the swing target and the
- *   input DC voltage at the design point lies within the rails.
+ *   (traceStage); the design meets the targets when the swing at the gain target reaches the swing target, the
+ *   input DC voltage at the design point lies within the rails, and with a gbw target the GBW at the design point
+ *   (gm_in / (2π (cap + C_out)), C_out the tables' cdd of the two output devices) reaches it.
  * Pairs are judged in order of area, so the first pair meeting the targets is the smallest on the grid. The only
  * skip is exact: a pair whose gain at the design point (one solve of the circuit) is below the target has no swing.
  */
@@ -213,6 +214,7 @@ export function stageExhaustive(stage: StageSpec, kit: KitAccess, supply: number
     }
     const vin = t.points[t.j0]?.vin;
     if (vin === undefined || vin < 0 || vin > supply) continue;
+    if (t.swing >= stage.swing - 1e-9 && stage.gbw !== undefined && !(gbwAt(stage, circuit, t.points[t.j0]) >= stage.gbw)) continue;
     if (t.swing >= stage.swing - 1e-9) {
       const side = (o: SideOption) => ({ l: o.l, gmid: o.gmid, setpoints: o.setpoints, w: o.devices.map((d) => d.w) });
       return { best: { input: side(a), load: side(b), area, swing: t.swing }, sides: [inputs.length, loads.length], traced };
@@ -327,15 +329,21 @@ export function stageNearestExhaustive(stage: StageSpec, kit: KitAccess, supply:
     swing = Math.max(swing, t.swing);
     if (t.swing >= stage.swing - 1e-9) {
       gainMeeting = Math.max(gainMeeting, t.gains[t.j0]);
-      const p = t.points[t.j0];
-      if (stage.gbw !== undefined && p) {
-        const top = (devices: readonly StackDevice[], b: { vgs: number; vds: number; vsb: number }) => devices[devices.length - 1].slice.op(b.vgs, b.vds, b.vsb, devices[devices.length - 1].w).cdd;
-        const cout = top(c.input.devices, p.input.devices[p.input.devices.length - 1]) + top(c.load.devices, p.load.devices[p.load.devices.length - 1]);
-        gbwMeeting = Math.max(gbwMeeting, p.gm / (2 * Math.PI * ((stage.cap ?? 0) + (cout > 0 ? cout : 0))));
-      }
+      if (stage.gbw !== undefined) gbwMeeting = Math.max(gbwMeeting, gbwAt(stage, c, t.points[t.j0]));
     }
   }
   return { peak, held, swing, gainMeeting, gbwMeeting, pairs: est.length, traced, heldBy };
+}
+
+/**
+ * GBW at the design point by the README's definition gm_in / (2π (cap + C_out)), C_out the tables' cdd of the two
+ * output devices there; 0 without a design point.
+ */
+function gbwAt(stage: StageSpec, c: StageCircuit, p: ReturnType<typeof traceStage>['points'][number] | undefined): number {
+  if (!p) return 0;
+  const top = (devices: readonly StackDevice[], b: { vgs: number; vds: number; vsb: number }) => devices[devices.length - 1].slice.op(b.vgs, b.vds, b.vsb, devices[devices.length - 1].w).cdd;
+  const cout = top(c.input.devices, p.input.devices[p.input.devices.length - 1]) + top(c.load.devices, p.load.devices[p.load.devices.length - 1]);
+  return p.gm / (2 * Math.PI * ((stage.cap ?? 0) + (cout > 0 ? cout : 0)));
 }
 
 /** Min-heap of pairs (i, j) by a[i] + b[j] (both ascending): starts with (i, 0) for every i; popping (i, j) adds (i, j + 1). */
