@@ -143,16 +143,19 @@ function nearestMiss(ctx: SolveContext, best: Evaluated, nearest: { headroomAtRo
 export function stackResult(ctx: SolveContext, best: Evaluated, pool: Evaluated[], evaluated: () => number, nearest: () => Nearest): StackResult {
   const { spec, supply } = ctx;
   let corners = cornerResults(ctx, best);
-  const feasible = corners.every((c) => c.feasible);
   let near: Nearest | undefined;
-  if (!feasible) {
+  if (!corners.every((c) => c.feasible)) {
     near = nearest();
     const shown = shownWhenInfeasible(ctx, best, pool, near);
     if (shown !== best) {
       best = shown;
       corners = cornerResults(ctx, best);
+      // The nearest scan can reach a design meeting every target at every corner that the search missed: then
+      // the stack is feasible, and its verdict, corner rows and figures all say so (one verdict, not two).
+      if (corners.every((c) => c.feasible)) near = undefined;
     }
   }
+  const feasible = near === undefined;
   const r: StackResult = {
     name: spec.name, device: spec.device, topology: best.cand.topology, feasible,
     devices: devicesOf(best, spec.device, supply),
