@@ -1,7 +1,7 @@
 import type { SizeResult } from '../solve/types.js';
 import type { StageFrontPoint } from '../solve/stage-types.js';
 import { decidingResults } from '../solve/choose.js';
-import { eng, formatArea, formatPercent, polarityName } from './format.js';
+import { eng, formatArea, formatHeadroom, formatPercent, polarityName } from './format.js';
 import { formatEng } from '../units/index.js';
 import { biasGrid, columnAlign, cornerGrid, currentWarning, deviceGrid, predictedGrid, squareLawGrid, statusLine, type Grid } from './rows.js';
 import { ansi, renderTable, wrapText, TEXT_WIDTH } from './text.js';
@@ -62,7 +62,7 @@ export function renderSizeText(result: SizeResult, opts: SizeTextOptions): strin
       const rows = all.map((x) => {
         const far = farAreaRatio(x, result.stacks);
         const why = [x.feasible ? '' : bindingText(x), far === undefined ? '' : farAreaNote(far)].filter(Boolean).join('; ');
-        return [x.topology, x === s ? 'chosen' : x.feasible ? 'feasible' : 'INFEASIBLE', eng(x.predicted.rout, 'Ω'), eng(x.predicted.headroom, 'V'), formatArea(x.predicted.area), why];
+        return [x.topology, x === s ? 'chosen' : x.feasible ? 'feasible' : 'INFEASIBLE', eng(x.predicted.rout, 'Ω'), formatHeadroom(x.predicted.headroom), formatArea(x.predicted.area), why];
       });
       out.push(...block('topologies tried (auto)', { headers: ['topology', 'status', 'Rout', 'headroom', 'area', 'why'], rows }, c, {
         noteColumn: 5, highlight: all.map((x) => x === s),
@@ -107,7 +107,7 @@ export function renderSizeBrief(result: SizeResult, opts: SizeTextOptions): stri
   const rows = stacks.map((s) => [
     s.name, `${s.device}-type ${s.topology}`, s.feasible ? 'feasible' : 'INFEASIBLE',
     s.devices.map((d) => `${microns(d.w)}/${microns(d.l)}`).join(' + ') || '—',
-    eng(s.predicted.iout, 'A'), eng(s.predicted.rout, 'Ω'), eng(s.predicted.headroom, 'V'),
+    eng(s.predicted.iout, 'A'), eng(s.predicted.rout, 'Ω'), formatHeadroom(s.predicted.headroom),
     formatArea(s.predicted.area), s.predicted.sigma === undefined ? '—' : formatPercent(s.predicted.sigma),
   ]);
   const stages = (result.stages ?? []).filter((s) => s.chosen !== false).map((s) => [

@@ -1,18 +1,11 @@
 import type { StageFrontPoint, StageResult, StageVerdict } from '../solve/stage-types.js';
-import { eng, formatArea, formatMicrons } from './format.js';
+import { apart, eng, formatArea, formatMicrons } from './format.js';
+import { formatEng } from '../units/index.js';
 import type { Grid } from './rows.js';
 import { routOf } from '../stack/index.js';
 
 function gainText(x: number | null): string {
   return x === null || !Number.isFinite(x) ? '—' : Number(x.toPrecision(4)).toString();
-}
-
-function quantity(v: StageVerdict, x: number | null): string {
-  if (v.target === 'gain') return gainText(x);
-  if (v.target === 'swing') return x === null ? '—' : eng(x, 'V');
-  if (v.target === 'gbw') return x === null ? '—' : eng(x, 'Hz');
-  if (v.target === 'vin') return x === null ? '—' : eng(x, 'V');
-  return '—';
 }
 
 /**
@@ -41,7 +34,12 @@ export function stageVerdictText(v: StageVerdict, showCorner = false): string {
   const ok = v.achieved >= v.required;
   const pct = ((v.achieved / v.required - 1) * 100).toFixed(1);
   const by = v.target === 'swing' ? `${ok ? '+' : '−'}${eng(Math.abs(v.achieved - v.required), 'V')}, ${ok ? '+' : ''}${pct} %` : `${ok ? '+' : ''}${pct} %`;
-  return `${where}${name}${v.best ? ' at best' : ''} ${quantity(v, v.achieved)} ${ok ? '≥' : '<'} ${quantity(v, v.required)} (${by})`;
+  // Apart when they differ: a miss never reads "1500 < 1500".
+  const unit = v.target === 'gbw' ? 'Hz' : 'V';
+  const [a, b] = v.target === 'gain'
+    ? apart(v.achieved, v.required, (x, d) => String(Number(x.toPrecision(d))), 4)
+    : apart(v.achieved, v.required, (x, d) => formatEng(x, unit, d));
+  return `${where}${name}${v.best ? ' at best' : ''} ${a} ${ok ? '≥' : '<'} ${b} (${by})`;
 }
 
 /** One sentence on a stage: feasible with its tightest target, or which target binds and the nearest points. */

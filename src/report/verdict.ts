@@ -1,10 +1,12 @@
 import type { Verdict } from '../solve/evaluate/verdict.js';
 import { formatEng } from '../units/index.js';
-import { formatPercent } from './format.js';
+import { apart, formatPercent } from './format.js';
 
 /** A voltage as every sentence shows it: three decimals of a volt (headroom is reported to the mV). */
 export const volts = (x: number) => `${x.toFixed(3)} V`;
 const pct = formatPercent;
+/** Both figures in SI units, apart when they differ (see apart). */
+const pair = (got: number, need: number, unit: string): [string, string] => apart(got, need, (x, d) => formatEng(x, unit, d));
 
 /** Words for one verdict: "rout 12.3 MΩ < 20 MΩ at 0.500 V", "headroom 0.520 V ≤ 0.550 V". */
 export function verdictText(v: Verdict): string {
@@ -13,9 +15,11 @@ export function verdictText(v: Verdict): string {
   switch (v.target) {
     case 'table':
       return `table: the table does not cover the bias${where}`;
-    case 'rout':
+    case 'rout': {
       if (got === null || got <= 0) return `rout: no usable Rout${where} (outside the table); needs ${formatEng(need ?? 0, 'Ω')}`;
-      return `rout ${formatEng(got, 'Ω')} ${need !== null && got >= need ? '≥' : '<'} ${formatEng(need ?? 0, 'Ω')}${where}`;
+      const [a, b] = pair(got, need ?? 0, 'Ω');
+      return `rout ${a} ${need !== null && got >= need ? '≥' : '<'} ${b}${where}`;
+    }
     case 'headroom':
       return `headroom ${got === null ? 'never met' : volts(got)} ${got !== null && need !== null && got <= need ? '≤' : '>'} ${volts(need ?? 0)}`;
     case 'iout': {
@@ -24,15 +28,19 @@ export function verdictText(v: Verdict): string {
     }
     case 'mismatch':
       return `mismatch σ ${got === null ? 'unknown' : pct(got)} vs ${need === null ? 'no target' : pct(need)}`;
-    case 'saturation':
+    case 'saturation': {
       if (v.device === null || got === null) {
         return `saturation: no lower device stays saturated${need === null ? '' : ` (VDSsat ≥ ${formatEng(need, 'V')} each)`}${at === null ? '' : ` below the ${volts(at)} headroom target`}`;
       }
-      return `saturation: ${v.device} VDS ${formatEng(got, 'V')} ${need !== null && got >= need ? '≥' : '<'} VDSsat ${formatEng(need ?? 0, 'V')} at mid-span`;
-    case 'width':
+      const [a, b] = pair(got, need ?? 0, 'V');
+      return `saturation: ${v.device} VDS ${a} ${need !== null && got >= need ? '≥' : '<'} VDSsat ${b} at mid-span`;
+    }
+    case 'width': {
       if (got === null) return `width: every candidate needed a device narrower than the minimum width ${formatEng(need ?? 0, 'm')}`;
-      if (need !== null && got > need) return `width: every design meeting Rout and headroom has a device at least ${formatEng(got, 'm')} wide, above the ${formatEng(need, 'm')} width limit`;
-      return `width: ${v.device ?? 'widest'} W ${formatEng(got, 'm')} ≤ the ${formatEng(need ?? 0, 'm')} width limit`;
+      const [a, b] = pair(got, need ?? 0, 'm');
+      if (need !== null && got > need) return `width: every design meeting Rout and headroom has a device at least ${a} wide, above the ${b} width limit`;
+      return `width: ${v.device ?? 'widest'} W ${a} ≤ the ${b} width limit`;
+    }
   }
 }
 
