@@ -81,6 +81,52 @@ stacks:
   });
 });
 
+describe('a stack summary and its corner row name one target', () => {
+  it('the corner row of an infeasible stack names the summary\'s binding target, with the same figures (demo180 n single, 500 MΩ)', () => {
+    // One device cannot reach 500 MΩ (ro = 1/gds of a 2 µm device is about 1 MΩ at 40 µA here; common practice: a single
+    // device's Rout is its ro). The summary said "rout 996 kΩ < 500 MΩ at 0.300 V" while its tt row said "headroom never
+    // met > 0.300 V": two targets named for one miss.
+    const { result, text } = size(`kit: demo180
+corner: tt
+supply: 1.8
+stacks:
+  - {name: rout-huge, device: n, topology: single, current: 40u, rout: 500meg, headroom: 0.3, span: 1.6}
+`);
+    const s = result.stacks[0];
+    expect(s.feasible).toBe(false);
+    const b = s.binding!;
+    expect(b.target).toBe('rout');
+    const row = s.corners!.find((c) => c.corner === b.corner)!;
+    expect(row.feasible).toBe(false);
+    expect(row.binding?.target).toBe(b.target);
+    expect(verdictText(row.binding!)).toBe(verdictText(b));
+    expect(text).toContain(`binding / tightest: ${verdictText(b)}`);
+    // The figure is the shown design's own Rout at the headroom target: the lowest of its curve over [headroom, span].
+    const over = s.curve.filter((p) => p.v >= 0.3 - 1e-9 && p.v <= 1.6 + 1e-9).map((p) => p.rout);
+    expect(Math.abs(Math.min(...over) / b.achieved! - 1)).toBeLessThan(0.02);
+  });
+
+  it('an Iout miss says where it is measured, so it does not read as the mid-span Iout beside it (demo180 p single, all corners)', () => {
+    // Rout 3 MΩ is within one device's reach, but its current leaves the 1 % window (common practice for a source's
+    // compliance) before the span end: the summary quoted 10.2 µA beside a predicted mid-span Iout of 10 µA.
+    const { result } = size(`kit: demo180
+corner: all
+supply: 1.8
+stacks:
+  - {name: ff-iout, device: p, topology: single, current: 10u, rout: 3meg, headroom: 0.3, span: 1.5}
+`);
+    const s = result.stacks[0];
+    expect(s.feasible).toBe(false);
+    const b = s.binding!;
+    expect(b.target).toBe('iout');
+    expect(b.at).not.toBeNull();
+    expect(verdictText(b)).toContain(`at ${b.at!.toFixed(3)} V`);
+    // The current it quotes is the curve's at that stack voltage.
+    const p = s.curve.reduce((a, c) => (Math.abs(c.v - b.at!) < Math.abs(a.v - b.at!) ? c : a));
+    expect(Math.abs(p.iout / b.achieved! - 1)).toBeLessThan(1e-3);
+  });
+});
+
 describe('a comparison in a verdict reads as what it says', () => {
   it('a Rout just under its target is not printed as the target (demo090 p-type cascode, 100 MΩ at 0.3 V)', () => {
     // The binding Rout here came out 99.997 MΩ against 100 MΩ and read "rout 100 MΩ < 100 MΩ". The sentence must

@@ -24,7 +24,8 @@ export function verdictText(v: Verdict): string {
       return `headroom ${got === null ? 'never met' : volts(got)} ${got !== null && need !== null && got <= need ? '≤' : '>'} ${volts(need ?? 0)}`;
     case 'iout': {
       if (got === null || need === null) return `iout: no current${where}`;
-      return `iout ${formatEng(got, 'A')} is ${((100 * (got - need)) / need).toFixed(2)} % off ${formatEng(need, 'A')}`;
+      // Where it is measured: a miss at the span end must not read as the mid-span Iout of the tables beside it.
+      return `iout ${formatEng(got, 'A')}${where} is ${((100 * (got - need)) / need).toFixed(2)} % off ${formatEng(need, 'A')}`;
     }
     case 'mismatch':
       return `mismatch σ ${got === null ? 'unknown' : pct(got)} vs ${need === null ? 'no target' : pct(need)}`;
