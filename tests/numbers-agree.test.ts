@@ -127,6 +127,35 @@ stacks:
   });
 });
 
+describe('a width limit that binds', () => {
+  it('shows the narrowest design meeting Rout and headroom, whose widest device is the figure the verdict and the corner row quote (demo180 p cascode, 1 mA, wmax 100 µm)', () => {
+    // 1 mA through one device at most 100 µm wide needs a current density no table point reaches at that bias, so
+    // every design meeting 5 MΩ and 0.5 V is wider. The summary said "at least 3.43 mm" while the design shown had an
+    // 8.83 mm device and its corner row said "every design ... at least 8.83 mm": three widths for one limit.
+    const { result, text } = size(`kit: demo180
+corner: tt
+supply: 1.8
+stacks:
+  - {name: wide-p, device: p, topology: cascode, current: 1m, rout: 5meg, headroom: 0.5, span: 1.5, wmax: 100u}
+`);
+    const s = result.stacks[0];
+    expect(s.feasible).toBe(false);
+    const b = s.binding!;
+    expect(b.target).toBe('width');
+    const widest = Math.max(...s.devices.map((d) => d.w));
+    expect(Math.abs(widest / b.achieved! - 1)).toBeLessThan(1e-9);
+    // It is a design meeting Rout and headroom (README definitions), only too wide.
+    expect(s.predicted.rout).toBeGreaterThanOrEqual(5e6);
+    expect(s.predicted.headroom).toBeLessThanOrEqual(0.5);
+    const row = s.corners![0];
+    expect(row.binding?.target).toBe('width');
+    expect(row.binding?.achieved).toBeCloseTo(b.achieved!, 12);
+    // The row speaks of its one design, not of every design.
+    expect(verdictText(row.binding!)).not.toContain('every design');
+    expect(text).toContain(verdictText(row.binding!));
+  });
+});
+
 describe('a comparison in a verdict reads as what it says', () => {
   it('a Rout just under its target is not printed as the target (demo090 p-type cascode, 100 MΩ at 0.3 V)', () => {
     // The binding Rout here came out 99.997 MΩ against 100 MΩ and read "rout 100 MΩ < 100 MΩ". The sentence must

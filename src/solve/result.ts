@@ -208,7 +208,9 @@ function shownWhenInfeasible(ctx: SolveContext, best: Evaluated, pool: readonly 
   }
   if (near.atHeadroom && near.routAtHeadroom < ctx.spec.rout) return near.atHeadroom;
   if (near.atRout) return near.atRout;
-  return near.atHeadroom ?? best;
+  // Width binds and no design within the limit is usable: the narrowest design meeting the rest, whose widest device
+  // is the figure the verdict quotes.
+  return near.atHeadroom ?? near.atWidth ?? best;
 }
 
 /**
