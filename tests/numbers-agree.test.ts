@@ -156,6 +156,30 @@ stacks:
   });
 });
 
+describe('a gain stage with no design', () => {
+  it('shows no figures of a design in the brief table, the HTML summary or the text, where the text says none was realised (demo090, output 0.22 V)', () => {
+    // A cascoded n-input side needs two VDSsat (each at least about 4·UT, EKV interpolation, Enz & Vittoz 2006) plus
+    // room for its input; with a cascoded p load on a 1.2 V supply and the output at 0.22 V no side design stays
+    // saturated. The text said "design — (none realised)" while the brief table showed gain 0, swing 0 V, area 0 µm².
+    const { result, text, brief, html } = size(`kit: demo090
+corner: tt
+supply: 1.2
+stages:
+  - {name: amp-sat, current: 10u, gain: 200, swing: 0.3, output: 0.22, input: {device: n, topology: cascode}, load: {topology: cascode}}
+`);
+    const s = result.stages![0];
+    expect(s.feasible).toBe(false);
+    expect(s.input.devices.length + s.load.devices.length).toBe(0);
+    expect(text).toContain('— (none realised)');
+    const row = brief.split('\n').find((l) => l.startsWith('amp-sat '))!;
+    expect(row.split(/\s{2,}/).slice(3, 6)).toEqual(['—', '—', '—']);
+    expect(brief).not.toMatch(/^stack\s+topology/m); // no empty stack table in a spec of stages only
+    const summary = /<section id="stages">.*?<tbody>(.*?)<\/tbody>/s.exec(html)![1];
+    expect(summary).not.toContain('0 µm²');
+    expect(summary.match(/<td[^>]*>—( \(≥ [^<]*\))?<\/td>/g)?.length).toBe(3); // gain (target), swing (target), area
+  });
+});
+
 describe('a comparison in a verdict reads as what it says', () => {
   it('a Rout just under its target is not printed as the target (demo090 p-type cascode, 100 MΩ at 0.3 V)', () => {
     // The binding Rout here came out 99.997 MΩ against 100 MΩ and read "rout 100 MΩ < 100 MΩ". The sentence must

@@ -6,7 +6,7 @@ import { formatEng } from '../units/index.js';
 import { biasGrid, columnAlign, cornerGrid, currentWarning, deviceGrid, predictedGrid, squareLawGrid, statusLine, type Grid } from './rows.js';
 import { ansi, renderTable, wrapText, TEXT_WIDTH } from './text.js';
 import { bindingText } from './verdict.js';
-import { stageCornerGrid, stageCurveGrid, stageFrontGrid, stagePredictedGrid, stageSquareLawGrid, stageTopologiesGrid, stageVerdict, stageVerdictText } from './stage-rows.js';
+import { stageCornerGrid, stageCurveGrid, stageFigures, stageFrontGrid, stagePredictedGrid, stageSquareLawGrid, stageTopologiesGrid, stageVerdict, stageVerdictText } from './stage-rows.js';
 import { farAreaNote, farAreaRatio } from './order.js';
 
 export interface SizeTextOptions {
@@ -110,20 +110,24 @@ export function renderSizeBrief(result: SizeResult, opts: SizeTextOptions): stri
     eng(s.predicted.iout, 'A'), eng(s.predicted.rout, 'Ω'), formatHeadroom(s.predicted.headroom),
     formatArea(s.predicted.area), s.predicted.sigma === undefined ? '—' : formatPercent(s.predicted.sigma),
   ]);
-  const stages = (result.stages ?? []).filter((s) => s.chosen !== false).map((s) => [
-    s.name, `${s.input.device}-input ${s.input.topology} / ${s.load.device}-type ${s.load.topology}`, s.feasible ? 'feasible' : 'INFEASIBLE',
-    Number(s.predicted.gain.toPrecision(4)).toString(), formatEng(s.predicted.swing, 'V'), formatArea(s.predicted.area),
-    s.feasible || !s.binding ? '' : stageVerdictText(s.binding, result.corners.length > 1),
-  ]);
+  const stages = (result.stages ?? []).filter((s) => s.chosen !== false).map((s) => {
+    const f = stageFigures(s);
+    return [
+      s.name, `${s.input.device}-input ${s.input.topology} / ${s.load.device}-type ${s.load.topology}`, s.feasible ? 'feasible' : 'INFEASIBLE',
+      f.gain, f.swing, f.area, s.feasible || !s.binding ? '' : stageVerdictText(s.binding, result.corners.length > 1),
+    ];
+  });
   const stageLines = stages.length === 0 ? [] : [renderTable(['stage', 'topology', 'status', 'gain', 'swing', 'area', 'binding'], stages, {
     color: opts.color, align: ['left', 'left', 'left', 'right', 'right', 'right', 'left'],
   })];
+  // A spec of stages only has no stack table (an empty one would read as stacks that produced nothing).
+  const stackLines = rows.length === 0 && stageLines.length > 0 ? [] : [renderTable(['stack', 'topology', 'status', 'W/L in µm, bottom first', 'Iout', 'Rout', 'headroom', 'area', 'σ(I)/I'], rows, {
+    color: opts.color, align: ['left', 'left', 'left', 'left', 'right', 'right', 'right', 'right', 'right'],
+    notes: stacks.map((s) => (s.feasible ? undefined : `binding: ${bindingText(s) || 'targets not met'}`)),
+  })];
   return [
     ...heading(result, opts.color),
-    renderTable(['stack', 'topology', 'status', 'W/L in µm, bottom first', 'Iout', 'Rout', 'headroom', 'area', 'σ(I)/I'], rows, {
-      color: opts.color, align: ['left', 'left', 'left', 'left', 'right', 'right', 'right', 'right', 'right'],
-      notes: stacks.map((s) => (s.feasible ? undefined : `binding: ${bindingText(s) || 'targets not met'}`)),
-    }),
+    ...stackLines,
     ...stageLines,
   ].join('\n') + '\n';
 }

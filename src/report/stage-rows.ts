@@ -42,6 +42,15 @@ export function stageVerdictText(v: StageVerdict, showCorner = false): string {
   return `${where}${name}${v.best ? ' at best' : ''} ${a} ${ok ? '≥' : '<'} ${b} (${by})`;
 }
 
+/**
+ * The stage's gain, swing and area as the summary tables show them; '—' for each when no design was realised (the
+ * library's placeholders are 0, which would read as a design of no area and no gain beside "none realised").
+ */
+export function stageFigures(s: StageResult): { gain: string; swing: string; area: string } {
+  if (s.input.devices.length === 0 && s.load.devices.length === 0) return { gain: '—', swing: '—', area: '—' };
+  return { gain: gainText(s.predicted.gain), swing: eng(s.predicted.swing, 'V'), area: formatArea(s.predicted.area) };
+}
+
 /** One sentence on a stage: feasible with its tightest target, or which target binds and the nearest points. */
 export function stageVerdict(s: StageResult): string {
   const many = (s.corners?.length ?? 0) > 1;
@@ -114,10 +123,13 @@ export function stageCornerGrid(s: StageResult): Grid | undefined {
 export function stageTopologiesGrid(all: readonly StageResult[]): Grid {
   return {
     headers: ['load topology', 'status', 'gain', 'swing', 'area', 'binding'],
-    rows: all.map((x) => [
-      x.load.topology, x.chosen ? 'chosen' : x.feasible ? 'feasible' : 'INFEASIBLE', gainText(x.predicted.gain), eng(x.predicted.swing, 'V'),
-      formatArea(x.predicted.area), x.feasible || !x.binding ? '' : stageVerdictText(x.binding, (x.corners?.length ?? 0) > 1),
-    ]),
+    rows: all.map((x) => {
+      const f = stageFigures(x);
+      return [
+        x.load.topology, x.chosen ? 'chosen' : x.feasible ? 'feasible' : 'INFEASIBLE', f.gain, f.swing,
+        f.area, x.feasible || !x.binding ? '' : stageVerdictText(x.binding, (x.corners?.length ?? 0) > 1),
+      ];
+    }),
   };
 }
 
