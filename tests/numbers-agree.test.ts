@@ -180,6 +180,34 @@ stages:
   });
 });
 
+describe('a stage swing that meets its target', () => {
+  it('reads as met in the verdict of a feasible stage and of each corner row (demo180 n-cascode into p-cascode, [tt, ss, ff])', () => {
+    // The ss swing came out vhigh − vlow = 1.5075 − 0.2875 = 1.2199999999999998 V in binary floating point: the stage
+    // was feasible (its corner row "yes") while its tightest target read "swing at the gain target 1.22 V < 1.22 V
+    // (−222 aV)". The swing is the width of an interval whose ends lie on a sub-mV grid (README, output swing).
+    const { result, text } = size(`kit: demo180
+corner: [tt, ss, ff]
+supply: 1.8
+stages:
+  - {name: amp-ss, current: 10u, gain: 1500, swing: 1.22, output: 0.9, input: {device: n, topology: cascode}, load: {topology: cascode}}
+`);
+    const s = result.stages![0];
+    expect(s.feasible).toBe(true);
+    for (const c of s.corners ?? []) {
+      expect(c.feasible).toBe(true);
+      const t = c.tightest!;
+      const words = stageVerdictText(t);
+      expect(words, words).not.toMatch(/ < /);
+      if (t.target === 'swing') {
+        expect(t.achieved!).toBeGreaterThanOrEqual(t.required!);
+        // The swing is its interval's width (the ends as reported).
+        expect(Math.abs(c.predicted.swing - (c.predicted.vhigh! - c.predicted.vlow!))).toBeLessThan(1e-12);
+      }
+    }
+    expect(text).not.toMatch(/swing at the gain target [\d.]+ m?V < /);
+  });
+});
+
 describe('a comparison in a verdict reads as what it says', () => {
   it('a Rout just under its target is not printed as the target (demo090 p-type cascode, 100 MΩ at 0.3 V)', () => {
     // The binding Rout here came out 99.997 MΩ against 100 MΩ and read "rout 100 MΩ < 100 MΩ". The sentence must
