@@ -241,6 +241,10 @@ stacks:
       expect(Math.sign(got - need), verdictText(verdict)).toBe(Math.sign(verdict.achieved! - verdict.required!));
     }
     expect(verdictText(v('rout', 50e6, 50e6))).toContain('50 MΩ ≥ 50 MΩ');
+    // The current window is 1 % (README; common practice for a source's compliance): a miss just outside must not
+    // read as exactly on it, a point inside keeps its two decimals.
+    expect(verdictText(v('iout', 10e-6, 10.1004e-6))).toContain('is 1.004 % off');
+    expect(verdictText(v('iout', 10e-6, 9.98e-6))).toContain('is -0.20 % off');
     const sv = (target: StageVerdict['target'], required: number, achieved: number): StageVerdict => ({ target, required, achieved, at: target === 'gain' ? 0.9 : null, device: null, corner: 'tt' });
     for (const [verdict, unit] of [[sv('gain', 1500, 1499.8), ''], [sv('swing', 0.9, 0.89996), 'V'], [sv('gbw', 10e6, 9.9996e6), 'Hz']] as const) {
       const [got, need] = compared(stageVerdictText(verdict), unit);

@@ -1,6 +1,7 @@
 import type { Verdict } from '../solve/evaluate/verdict.js';
 import { formatEng } from '../units/index.js';
 import { apart, formatPercent } from './format.js';
+import { CURRENT_WINDOW } from '../policy.js';
 
 /** A voltage as every sentence shows it: three decimals of a volt (headroom is reported to the mV). */
 export const volts = (x: number) => `${x.toFixed(3)} V`;
@@ -25,7 +26,10 @@ export function verdictText(v: Verdict): string {
     case 'iout': {
       if (got === null || need === null) return `iout: no current${where}`;
       // Where it is measured: a miss at the span end must not read as the mid-span Iout of the tables beside it.
-      return `iout ${formatEng(got, 'A')}${where} is ${((100 * (got - need)) / need).toFixed(2)} % off ${formatEng(need, 'A')}`;
+      // Against the 1 % window: a miss of 1.004 % must not read "1.00 % off".
+      const off = (100 * (got - need)) / need;
+      const [mag] = apart(Math.abs(off), 100 * CURRENT_WINDOW, (x, d) => x.toFixed(d - 1));
+      return `iout ${formatEng(got, 'A')}${where} is ${off < 0 ? '-' : ''}${mag} % off ${formatEng(need, 'A')}`;
     }
     case 'mismatch':
       return `mismatch σ ${got === null ? 'unknown' : pct(got)} vs ${need === null ? 'no target' : pct(need)}`;
