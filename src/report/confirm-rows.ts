@@ -1,7 +1,7 @@
 import type { DesignSpec, StackSpec } from '../design/types.js';
 import type { StackResult } from '../solve/types.js';
 import type { Confirmation, Miss } from '../confirm/types.js';
-import { eng, formatArea } from './format.js';
+import { eng, formatArea, formatHeadroom } from './format.js';
 import type { Grid } from './rows.js';
 
 /** One miss in words: "headroom at ss: needs ≤ 450 mV, simulated 470 mV". */
@@ -14,7 +14,7 @@ export function missWords(m: Miss): string {
   const got = m.achieved;
   const need = m.target === 'iout' ? `${eng(m.required, unit)} ± 1 %` : `${m.target === 'rout' ? '≥' : '≤'} ${eng(m.required, unit)}`;
   const where = m.target === 'rout' && m.at !== null ? ` (lowest at ${eng(m.at, 'V')})` : '';
-  return `${m.target} at ${m.corner}: needs ${need}, simulated ${got === null ? 'never' : eng(got, unit)}${where}`;
+  return `${m.target} at ${m.corner}: needs ${need}, simulated ${got === null ? 'never' : m.target === 'headroom' ? formatHeadroom(got) : eng(got, unit)}${where}`;
 }
 
 /** A gain (V/V) with four significant digits. */
@@ -49,7 +49,7 @@ export function confirmGrid(c: Confirmation, stack: StackResult | undefined, spe
     rows: [
       row('Iout at mid-span', spec ? eng(spec.current, 'A') : '—', (x) => eng(x.iout, 'A')),
       row('lowest Rout over span', spec ? `≥ ${eng(spec.rout, 'Ω')}` : '—', (x) => eng(x.rout, 'Ω')),
-      row('headroom', spec ? `≤ ${eng(spec.headroom, 'V')}` : '—', (x) => eng(x.headroom, 'V')),
+      row('headroom', spec ? `≤ ${eng(spec.headroom, 'V')}` : '—', (x) => formatHeadroom(x.headroom)),
     ],
   };
 }

@@ -26,6 +26,27 @@ export function eng(x: number, unit: string, digits = 3): string {
   return formatEng(x, unit, digits);
 }
 
+/**
+ * A provided headroom as every table and line shows it: the library rounds it up to the whole mV, and the text shows
+ * that mV, above 1 V too ("1.437 V", not "1.44 V", which would read as another number and could read below a target
+ * the design misses). "never" when it is never reached.
+ */
+export function formatHeadroom(h: number): string {
+  return Number.isFinite(h) && Math.abs(h) >= 1 ? formatEng(h, 'V', 4) : eng(h, 'V');
+}
+
+/**
+ * Two figures compared in one sentence ("rout 99.997 MΩ < 100 MΩ"): with `digits` significant digits, more (up to 6)
+ * only when they differ but would print alike, so a miss never reads "100 MΩ < 100 MΩ".
+ */
+export function apart(a: number, b: number, show: (x: number, digits: number) => string, digits = 3): [string, string] {
+  for (let d = digits; d < 6 && a !== b; d++) {
+    const pair: [string, string] = [show(a, d), show(b, d)];
+    if (pair[0] !== pair[1]) return pair;
+  }
+  return [show(a, a === b ? digits : 6), show(b, a === b ? digits : 6)];
+}
+
 /** "n-type" / "p-type". */
 export function polarityName(p: 'n' | 'p'): string {
   return `${p}-type`;

@@ -1,7 +1,7 @@
 import type { StackSpec, StageSpec } from '../design/types.js';
 import type { StackResult } from '../solve/types.js';
 import { designCharts } from './design-charts.js';
-import { eng, formatArea, formatMicrons, formatPercent, polarityName } from './format.js';
+import { eng, formatArea, formatHeadroom, formatMicrons, formatPercent, polarityName } from './format.js';
 import { REPORT_CSS } from './html-style.js';
 import { biasGrid, columnAlign, cornerGrid, deviceGrid, predictedGrid, squareLawGrid, statusLine, type Grid } from './rows.js';
 import { stackCharts } from './stack-charts.js';
@@ -53,7 +53,7 @@ function summaryGrid(stacks: StackResult[], specs: Map<string, StackSpec>): Grid
       return [
         s.name, s.topology + tag, s.feasible ? 'meets targets' : 'INFEASIBLE', eng(s.predicted.iout, 'A'),
         `${eng(s.predicted.rout, 'Ω')}${t ? ` (≥ ${eng(t.rout, 'Ω')})` : ''}`,
-        `${eng(s.predicted.headroom, 'V')}${t ? ` (≤ ${eng(t.headroom, 'V')})` : ''}`,
+        `${formatHeadroom(s.predicted.headroom)}${t ? ` (≤ ${eng(t.headroom, 'V')})` : ''}`,
         formatArea(s.predicted.area), far === undefined ? '' : farAreaNote(far),
       ];
     }),

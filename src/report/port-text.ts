@@ -1,7 +1,7 @@
 import type { PortRun } from '../solve/port.js';
 import { formatEng } from '../units/index.js';
 import { renderTable } from './text.js';
-import { formatArea, formatPercent } from './format.js';
+import { formatArea, formatHeadroom, formatPercent } from './format.js';
 import { verdictText } from './verdict.js';
 import { harderLine, stageHarderLine } from './port-harder.js';
 import { stageVerdictText } from './stage-rows.js';
@@ -25,14 +25,14 @@ export function renderPortText(run: PortRun, opts: { color: boolean }): string {
   for (const s of run.stacks) {
     lines.push('', bold(`stack ${s.name}: ${s.from.topology} on ${from} -> ${s.to.topology} on ${to} — ${s.to.feasible ? 'FEASIBLE' : 'INFEASIBLE'}`));
     const rows = s.changes.map((c) => [
-      c.what, value(c.from, c.unit), value(c.to, c.unit), Number.isFinite(c.percent) ? `${c.percent >= 0 ? '+' : ''}${c.percent.toFixed(1)} %` : '—',
+      c.what, c.what === 'headroom' ? formatHeadroom(c.from) : value(c.from, c.unit), c.what === 'headroom' ? formatHeadroom(c.to) : value(c.to, c.unit), Number.isFinite(c.percent) ? `${c.percent >= 0 ? '+' : ''}${c.percent.toFixed(1)} %` : '—',
     ]);
     lines.push(renderTable(['quantity', from, to, 'change'], rows, { indent: 2 }));
     lines.push(`  harder on ${to}: ${harderLine(s.harder, (s.to.corners?.length ?? 0) > 1)}`);
     if ('error' in s.asIs) lines.push(`  old sizes as they are on ${to}: cannot be evaluated (${s.asIs.error})`);
     else {
       const p = s.asIs.predicted;
-      lines.push(`  old sizes as they are on ${to}: Iout ${value(p.iout, 'A')}, Rout ${value(p.rout, 'Ω')}, headroom ${value(p.headroom, 'V')} — ${s.asIs.feasible ? 'still meets the targets' : `fails (${s.asIs.binding ? verdictText(s.asIs.binding) : 'targets'})`}`);
+      lines.push(`  old sizes as they are on ${to}: Iout ${value(p.iout, 'A')}, Rout ${value(p.rout, 'Ω')}, headroom ${formatHeadroom(p.headroom)} — ${s.asIs.feasible ? 'still meets the targets' : `fails (${s.asIs.binding ? verdictText(s.asIs.binding) : 'targets'})`}`);
     }
   }
   for (const s of run.stages) {

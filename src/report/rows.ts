@@ -1,6 +1,6 @@
 import type { StackResult } from '../solve/types.js';
 import { verdictText, bindingText, volts } from './verdict.js';
-import { eng, formatArea, formatPercent, perVolt } from './format.js';
+import { eng, formatArea, formatHeadroom, formatPercent, perVolt } from './format.js';
 
 /** Cells that start with a digit or sign are numbers (aligned right). */
 export function isNumericCell(cell: string): boolean {
@@ -55,7 +55,7 @@ export function predictedGrid(stack: StackResult): Grid {
   const rows = [
     ['Iout at mid-span', eng(p.iout, 'A')],
     ['lowest Rout over span', eng(p.rout, 'Ω')],
-    ['headroom', eng(p.headroom, 'V')],
+    ['headroom', formatHeadroom(p.headroom)],
     ['output-stack area', formatArea(p.area)],
     ['bias area', formatArea(p.biasArea)],
   ];
@@ -78,7 +78,7 @@ export function squareLawGrid(stack: StackResult): Grid | undefined {
     rows.push([`Vov ${d.role} (table: 2/(gm/ID))`, eng(2 / d.gmid, 'V'), eng(s.vov[i] ?? NaN, 'V')]);
     rows.push([`λ ${d.role} (gds/ID)`, perVolt(d.gds / d.id), perVolt(s.lambda[i] ?? NaN)]);
   });
-  rows.push(['headroom', eng(stack.predicted.headroom, 'V'), eng(s.headroom, 'V')]);
+  rows.push(['headroom', formatHeadroom(stack.predicted.headroom), eng(s.headroom, 'V')]);
   rows.push(['Rout', eng(stack.predicted.rout, 'Ω'), eng(s.rout, 'Ω')]);
   return { headers: ['quantity', 'lookup table', 'square law'], rows };
 }
@@ -88,7 +88,7 @@ export function cornerGrid(stack: StackResult): Grid | undefined {
   return {
     headers: ['corner', 'meets targets', 'Iout', 'Rout', 'headroom', 'bias gates', 'binding / tightest'],
     rows: stack.corners.map((c) => [
-      c.corner, c.feasible ? 'yes' : 'NO', eng(c.predicted.iout, 'A'), eng(c.predicted.rout, 'Ω'), eng(c.predicted.headroom, 'V'),
+      c.corner, c.feasible ? 'yes' : 'NO', eng(c.predicted.iout, 'A'), eng(c.predicted.rout, 'Ω'), formatHeadroom(c.predicted.headroom),
       c.gates.map((g) => eng(g, 'V')).join(', ') || '—', c.binding ? verdictText(c.binding) : c.tightest ? verdictText(c.tightest) : '—',
     ]),
   };

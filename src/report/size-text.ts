@@ -1,12 +1,12 @@
 import type { SizeResult } from '../solve/types.js';
 import type { StageFrontPoint } from '../solve/stage-types.js';
 import { decidingResults } from '../solve/choose.js';
-import { eng, formatArea, formatPercent, polarityName } from './format.js';
+import { eng, formatArea, formatHeadroom, formatPercent, polarityName } from './format.js';
 import { formatEng } from '../units/index.js';
 import { biasGrid, columnAlign, cornerGrid, currentWarning, deviceGrid, predictedGrid, squareLawGrid, statusLine, type Grid } from './rows.js';
 import { ansi, renderTable, wrapText, TEXT_WIDTH } from './text.js';
 import { bindingText } from './verdict.js';
-import { stageCornerGrid, stageCurveGrid, stageFrontGrid, stagePredictedGrid, stageSquareLawGrid, stageTopologiesGrid, stageVerdict, stageVerdictText } from './stage-rows.js';
+import { stageCornerGrid, stageCurveGrid, stageFigures, stageFrontGrid, stagePredictedGrid, stageSquareLawGrid, stageTopologiesGrid, stageVerdict, stageVerdictText } from './stage-rows.js';
 import { farAreaNote, farAreaRatio } from './order.js';
 
 export interface SizeTextOptions {
@@ -62,7 +62,7 @@ export function renderSizeText(result: SizeResult, opts: SizeTextOptions): strin
       const rows = all.map((x) => {
         const far = farAreaRatio(x, result.stacks);
         const why = [x.feasible ? '' : bindingText(x), far === undefined ? '' : farAreaNote(far)].filter(Boolean).join('; ');
-        return [x.topology, x === s ? 'chosen' : x.feasible ? 'feasible' : 'INFEASIBLE', eng(x.predicted.rout, 'Ω'), eng(x.predicted.headroom, 'V'), formatArea(x.predicted.area), why];
+        return [x.topology, x === s ? 'chosen' : x.feasible ? 'feasible' : 'INFEASIBLE', eng(x.predicted.rout, 'Ω'), formatHeadroom(x.predicted.headroom), formatArea(x.predicted.area), why];
       });
       out.push(...block('topologies tried (auto)', { headers: ['topology', 'status', 'Rout', 'headroom', 'area', 'why'], rows }, c, {
         noteColumn: 5, highlight: all.map((x) => x === s),
@@ -107,23 +107,27 @@ export function renderSizeBrief(result: SizeResult, opts: SizeTextOptions): stri
   const rows = stacks.map((s) => [
     s.name, `${s.device}-type ${s.topology}`, s.feasible ? 'feasible' : 'INFEASIBLE',
     s.devices.map((d) => `${microns(d.w)}/${microns(d.l)}`).join(' + ') || '—',
-    eng(s.predicted.iout, 'A'), eng(s.predicted.rout, 'Ω'), eng(s.predicted.headroom, 'V'),
+    eng(s.predicted.iout, 'A'), eng(s.predicted.rout, 'Ω'), formatHeadroom(s.predicted.headroom),
     formatArea(s.predicted.area), s.predicted.sigma === undefined ? '—' : formatPercent(s.predicted.sigma),
   ]);
-  const stages = (result.stages ?? []).filter((s) => s.chosen !== false).map((s) => [
-    s.name, `${s.input.device}-input ${s.input.topology} / ${s.load.device}-type ${s.load.topology}`, s.feasible ? 'feasible' : 'INFEASIBLE',
-    Number(s.predicted.gain.toPrecision(4)).toString(), formatEng(s.predicted.swing, 'V'), formatArea(s.predicted.area),
-    s.feasible || !s.binding ? '' : stageVerdictText(s.binding, result.corners.length > 1),
-  ]);
+  const stages = (result.stages ?? []).filter((s) => s.chosen !== false).map((s) => {
+    const f = stageFigures(s);
+    return [
+      s.name, `${s.input.device}-input ${s.input.topology} / ${s.load.device}-type ${s.load.topology}`, s.feasible ? 'feasible' : 'INFEASIBLE',
+      f.gain, f.swing, f.area, s.feasible || !s.binding ? '' : stageVerdictText(s.binding, result.corners.length > 1),
+    ];
+  });
   const stageLines = stages.length === 0 ? [] : [renderTable(['stage', 'topology', 'status', 'gain', 'swing', 'area', 'binding'], stages, {
     color: opts.color, align: ['left', 'left', 'left', 'right', 'right', 'right', 'left'],
   })];
+  // A spec of stages only has no stack table (an empty one would read as stacks that produced nothing).
+  const stackLines = rows.length === 0 && stageLines.length > 0 ? [] : [renderTable(['stack', 'topology', 'status', 'W/L in µm, bottom first', 'Iout', 'Rout', 'headroom', 'area', 'σ(I)/I'], rows, {
+    color: opts.color, align: ['left', 'left', 'left', 'left', 'right', 'right', 'right', 'right', 'right'],
+    notes: stacks.map((s) => (s.feasible ? undefined : `binding: ${bindingText(s) || 'targets not met'}`)),
+  })];
   return [
     ...heading(result, opts.color),
-    renderTable(['stack', 'topology', 'status', 'W/L in µm, bottom first', 'Iout', 'Rout', 'headroom', 'area', 'σ(I)/I'], rows, {
-      color: opts.color, align: ['left', 'left', 'left', 'left', 'right', 'right', 'right', 'right', 'right'],
-      notes: stacks.map((s) => (s.feasible ? undefined : `binding: ${bindingText(s) || 'targets not met'}`)),
-    }),
+    ...stackLines,
     ...stageLines,
   ].join('\n') + '\n';
 }

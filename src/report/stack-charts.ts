@@ -1,7 +1,7 @@
 import type { StackSpec } from '../design/types.js';
 import type { StackResult } from '../solve/types.js';
 import { lineChart, targetLabel, type ScatterSeries, type TargetLine } from './chart.js';
-import { formatArea, polarityName } from './format.js';
+import { formatArea, formatHeadroom, polarityName } from './format.js';
 import { colorAt } from './palette.js';
 import { slug } from './svg.js';
 import type { FrontPoint } from '../solve/pareto.js';
@@ -24,7 +24,7 @@ function headroomGuides(stack: StackResult, spec?: StackSpec): TargetLine[] {
   const out: TargetLine[] = [];
   if (spec) out.push({ axis: 'x', value: spec.headroom, label: targetLabel('headroom target', spec.headroom, 'V') });
   if (Number.isFinite(stack.predicted.headroom)) {
-    out.push({ axis: 'x', value: stack.predicted.headroom, label: targetLabel('this design', stack.predicted.headroom, 'V'), kind: 'mark' });
+    out.push({ axis: 'x', value: stack.predicted.headroom, label: `this design ${formatHeadroom(stack.predicted.headroom)}`, kind: 'mark' });
   }
   return out;
 }

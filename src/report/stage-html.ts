@@ -1,9 +1,9 @@
 import type { StageSpec } from '../design/types.js';
 import type { StageFrontPoint, StageResult } from '../solve/stage-types.js';
-import { eng, formatArea, formatMicrons } from './format.js';
+import { eng, formatMicrons } from './format.js';
 import { biasGrid, deviceGrid, type Grid } from './rows.js';
 import { stageCharts } from './stage-charts.js';
-import { stageCornerGrid, stagePredictedGrid, stageSquareLawGrid, stageVerdict } from './stage-rows.js';
+import { stageCornerGrid, stageFigures, stagePredictedGrid, stageSquareLawGrid, stageVerdict } from './stage-rows.js';
 import { escapeXml as esc } from './svg.js';
 
 type Table = (grid: Grid, caption?: string) => string;
@@ -50,10 +50,10 @@ export function stageSummaryGrid(stages: readonly StageResult[], specs: Map<stri
     rows: stages.map((s) => {
       const t = specs.get(s.name);
       const tag = s.chosen === true ? ' (chosen)' : s.chosen === false ? ' (alternative)' : '';
+      const f = stageFigures(s);
       return [
         s.name, s.load.topology + tag, s.feasible ? 'meets targets' : 'INFEASIBLE',
-        `${Number(s.predicted.gain.toPrecision(4))}${t ? ` (≥ ${t.gain})` : ''}`,
-        `${eng(s.predicted.swing, 'V')}${t ? ` (≥ ${eng(t.swing, 'V')})` : ''}`, formatArea(s.predicted.area),
+        `${f.gain}${t ? ` (≥ ${t.gain})` : ''}`, `${f.swing}${t ? ` (≥ ${eng(t.swing, 'V')})` : ''}`, f.area,
       ];
     }),
   };

@@ -1,18 +1,11 @@
 import type { StageFrontPoint, StageResult, StageVerdict } from '../solve/stage-types.js';
-import { eng, formatArea, formatMicrons } from './format.js';
+import { apart, eng, formatArea, formatMicrons } from './format.js';
+import { formatEng } from '../units/index.js';
 import type { Grid } from './rows.js';
 import { routOf } from '../stack/index.js';
 
 function gainText(x: number | null): string {
   return x === null || !Number.isFinite(x) ? '—' : Number(x.toPrecision(4)).toString();
-}
-
-function quantity(v: StageVerdict, x: number | null): string {
-  if (v.target === 'gain') return gainText(x);
-  if (v.target === 'swing') return x === null ? '—' : eng(x, 'V');
-  if (v.target === 'gbw') return x === null ? '—' : eng(x, 'Hz');
-  if (v.target === 'vin') return x === null ? '—' : eng(x, 'V');
-  return '—';
 }
 
 /**
@@ -41,7 +34,21 @@ export function stageVerdictText(v: StageVerdict, showCorner = false): string {
   const ok = v.achieved >= v.required;
   const pct = ((v.achieved / v.required - 1) * 100).toFixed(1);
   const by = v.target === 'swing' ? `${ok ? '+' : '−'}${eng(Math.abs(v.achieved - v.required), 'V')}, ${ok ? '+' : ''}${pct} %` : `${ok ? '+' : ''}${pct} %`;
-  return `${where}${name}${v.best ? ' at best' : ''} ${quantity(v, v.achieved)} ${ok ? '≥' : '<'} ${quantity(v, v.required)} (${by})`;
+  // Apart when they differ: a miss never reads "1500 < 1500".
+  const unit = v.target === 'gbw' ? 'Hz' : 'V';
+  const [a, b] = v.target === 'gain'
+    ? apart(v.achieved, v.required, (x, d) => String(Number(x.toPrecision(d))), 4)
+    : apart(v.achieved, v.required, (x, d) => formatEng(x, unit, d));
+  return `${where}${name}${v.best ? ' at best' : ''} ${a} ${ok ? '≥' : '<'} ${b} (${by})`;
+}
+
+/**
+ * The stage's gain, swing and area as the summary tables show them; '—' for each when no design was realised (the
+ * library's placeholders are 0, which would read as a design of no area and no gain beside "none realised").
+ */
+export function stageFigures(s: StageResult): { gain: string; swing: string; area: string } {
+  if (s.input.devices.length === 0 && s.load.devices.length === 0) return { gain: '—', swing: '—', area: '—' };
+  return { gain: gainText(s.predicted.gain), swing: eng(s.predicted.swing, 'V'), area: formatArea(s.predicted.area) };
 }
 
 /** One sentence on a stage: feasible with its tightest target, or which target binds and the nearest points. */
@@ -118,10 +125,13 @@ export function stageCornerGrid(s: StageResult): Grid | undefined {
 export function stageTopologiesGrid(all: readonly StageResult[]): Grid {
   return {
     headers: ['load topology', 'status', 'gain', 'swing', 'area', 'binding'],
-    rows: all.map((x) => [
-      x.load.topology, x.chosen ? 'chosen' : x.feasible ? 'feasible' : 'INFEASIBLE', gainText(x.predicted.gain), eng(x.predicted.swing, 'V'),
-      formatArea(x.predicted.area), x.feasible || !x.binding ? '' : stageVerdictText(x.binding, (x.corners?.length ?? 0) > 1),
-    ]),
+    rows: all.map((x) => {
+      const f = stageFigures(x);
+      return [
+        x.load.topology, x.chosen ? 'chosen' : x.feasible ? 'feasible' : 'INFEASIBLE', f.gain, f.swing,
+        f.area, x.feasible || !x.binding ? '' : stageVerdictText(x.binding, (x.corners?.length ?? 0) > 1),
+      ];
+    }),
   };
 }
 

@@ -17,6 +17,8 @@ export interface Nearest {
   atHeadroom?: Evaluated;
   /** When every design meeting Rout and headroom breaks the width limit: the narrowest widest device among them, m. */
   narrowest?: number;
+  /** The design with that widest device (every target met but the width limit). */
+  atWidth?: Evaluated;
   /** With several corners: the same two questions with each design judged at its worst corner (see overCorners). */
   overCorners?: OverCorners;
 }
@@ -175,7 +177,7 @@ function liftedScreen(ctx: SolveContext, topology: Topology, pool: Evaluated[], 
  */
 export function nearestPoints(
   ctx: SolveContext, topology: Topology, pool: Evaluated[], seen: Seen,
-  fitsWithin?: (wmax: number) => number | null,
+  fitsWithin?: (wmax: number) => Evaluated | null,
 ): Nearest {
   // What the sizing search left unevaluated, then the lifted screen: only what the nearest points may read.
   settle(ctx, seen, pool, (l) => outOfReach(ctx, l, pool));
@@ -186,16 +188,23 @@ export function nearestPoints(
   if (hr) finalize(ctx, hr);
   if (ro) finalize(ctx, ro);
   let narrowest: number | undefined;
+  let atWidth: Evaluated | undefined;
   if (pool.some(physical) && !pool.some((e) => physical(e) && e.margins.width >= 0)) {
     const w = refine(ctx, seedsOf(ctx, pool, seen, narrower, physical), seen, pool, narrower, widerFromPhysical(ctx));
-    if (w && physical(w)) narrowest = widestOf(w);
+    if (w && physical(w)) {
+      narrowest = widestOf(w);
+      atWidth = w;
+    }
     // The climb follows one design; bisect on the limit with the whole search for the edge itself.
     let lo = ctx.wmax;
     for (let it = 0; it < 4 && fitsWithin && narrowest !== undefined && narrowest > lo * 1.01; it++) {
       const mid = Math.sqrt(lo * narrowest);
       const fit = fitsWithin(mid);
       if (fit === null) lo = mid;
-      else narrowest = Math.min(narrowest, fit);
+      else if (widestOf(fit) < narrowest) {
+        narrowest = widestOf(fit);
+        atWidth = physical(fit) ? fit : undefined;
+      }
     }
   }
   const atRout = hr && usable(hr) && Number.isFinite(hr.nominal.headroom) ? hr : undefined;
@@ -203,7 +212,7 @@ export function nearestPoints(
   const out: Nearest = {
     headroomAtRout: atRout ? atRout.nominal.headroom : Infinity,
     routAtHeadroom: atHeadroom ? atHeadroom.nominal.routAtTarget : 0,
-    atRout, atHeadroom, narrowest,
+    atRout, atHeadroom, narrowest, atWidth,
   };
   if (ctx.corners.length > 1) out.overCorners = nearestOverCorners(ctx, pool, seen, [hr, ro]);
   return out;

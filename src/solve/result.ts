@@ -4,7 +4,7 @@ import { topologyOf } from '../topology/index.js';
 import type { BiasResult, CornerResult, CurvePoint, DeviceResult, Predicted, SquareLawCheck, StackResult } from './types.js';
 import type { SolveContext } from './context.js';
 import type { StackSpec } from '../design/types.js';
-import { tightest, type Margins } from './evaluate/checks.js';
+import { tightest, type Margins, type Target } from './evaluate/checks.js';
 import { meetsAll, reportedHeadroom } from '../policy.js';
 import type { Nearest } from './nearest.js';
 import { verdict, verdictOf, type Verdict } from './evaluate/verdict.js';
@@ -69,9 +69,12 @@ function squareLawOf(ctx: SolveContext, e: Evaluated): SquareLawCheck | undefine
 export function cornerResult(
   spec: StackSpec, corner: string, m: Margins, ev: StackEval | null, sigma: number | undefined,
   at: { area: number; biasArea: number; gates: readonly number[]; supply: number; vmid: number },
+  prefer?: Target,
 ): CornerResult {
   const feasible = meetsAll(m);
-  const words = verdictOf(tightest(m), spec, ev, sigma, at.vmid, corner);
+  // A failing corner names the stack's binding target when this design misses it too, so the corner row and the
+  // summary do not name two targets for one miss ("rout 996 kΩ < 500 MΩ" over "headroom never met").
+  const words = verdictOf(prefer !== undefined && m[prefer] < 0 ? prefer : tightest(m), spec, ev, sigma, at.vmid, corner);
   const r: CornerResult = {
     corner, feasible,
     predicted: predictedOf(ev, at.area, at.biasArea, sigma, feasible),
@@ -82,12 +85,21 @@ export function cornerResult(
   return r;
 }
 
-/** Per-corner report, the nominal corner first. */
-function cornerResults(ctx: SolveContext, e: Evaluated): CornerResult[] {
+/** Per-corner report, the nominal corner first; at the corner of `binding`, its target named where this design misses it. */
+function cornerResults(ctx: SolveContext, e: Evaluated, binding?: Verdict): CornerResult[] {
   const at = (gates: readonly number[]) => ({ area: e.area, biasArea: e.biasArea, gates, supply: ctx.supply, vmid: ctx.vmid });
-  const nominal = cornerResult(ctx.spec, ctx.nominal, e.margins, e.nominal, e.sigma, at(e.nominal.gates));
-  const others = ensureCorners(ctx, e, true).map((c) => cornerResult(ctx.spec, c.corner, c.margins, c.ev, c.sigma, at(c.gates)));
+  const prefer = (corner: string) => (binding?.corner === corner ? sameMeaning(binding.target) : undefined);
+  const nominal = cornerResult(ctx.spec, ctx.nominal, e.margins, e.nominal, e.sigma, at(e.nominal.gates), prefer(ctx.nominal));
+  const others = ensureCorners(ctx, e, true).map((c) => cornerResult(ctx.spec, c.corner, c.margins, c.ev, c.sigma, at(c.gates), prefer(c.corner)));
   return [nominal, ...others];
+}
+
+/**
+ * A binding target whose verdict on one design means what the stack's verdict means (width and iout do not: the
+ * stack's width is the narrowest any design needs, its iout miss is at the span end).
+ */
+function sameMeaning(target: Verdict['target']): Target | undefined {
+  return target === 'rout' || target === 'headroom' || target === 'mismatch' || target === 'saturation' ? target : undefined;
 }
 
 function smallest(m: Margins): number {
@@ -145,16 +157,19 @@ function nearestMiss(ctx: SolveContext, best: Evaluated, nearest: { headroomAtRo
 export function stackResult(ctx: SolveContext, best: Evaluated, pool: Evaluated[], evaluated: () => number, nearest: () => Nearest): StackResult {
   const { spec, supply } = ctx;
   let corners = cornerResults(ctx, best);
-  const feasible = corners.every((c) => c.feasible);
   let near: Nearest | undefined;
-  if (!feasible) {
+  if (!corners.every((c) => c.feasible)) {
     near = nearest();
     const shown = shownWhenInfeasible(ctx, best, pool, near);
     if (shown !== best) {
       best = shown;
       corners = cornerResults(ctx, best);
+      // The nearest scan can reach a design meeting every target at every corner that the search missed: then
+      // the stack is feasible, and its verdict, corner rows and figures all say so (one verdict, not two).
+      if (corners.every((c) => c.feasible)) near = undefined;
     }
   }
+  const feasible = near === undefined;
   const r: StackResult = {
     name: spec.name, device: spec.device, topology: best.cand.topology, feasible,
     devices: devicesOf(best, spec.device, supply),
@@ -166,8 +181,10 @@ export function stackResult(ctx: SolveContext, best: Evaluated, pool: Evaluated[
   };
   const sq = squareLawOf(ctx, best);
   if (sq) r.squareLaw = sq;
-  if (near) Object.assign(r, infeasibility(ctx, best, pool, near));
-  else {
+  if (near) {
+    Object.assign(r, infeasibility(ctx, best, pool, near));
+    r.corners = cornerResults(ctx, best, r.binding);
+  } else {
     const all = [{ corner: ctx.nominal, m: best.margins }, ...(best.corners ?? []).map((c) => ({ corner: c.corner, m: c.margins }))];
     const worst = all.reduce((a, b) => (smallest(b.m) < smallest(a.m) ? b : a));
     const t = corners.find((c) => c.corner === worst.corner)?.tightest;
@@ -193,7 +210,9 @@ function shownWhenInfeasible(ctx: SolveContext, best: Evaluated, pool: readonly 
   }
   if (near.atHeadroom && near.routAtHeadroom < ctx.spec.rout) return near.atHeadroom;
   if (near.atRout) return near.atRout;
-  return near.atHeadroom ?? best;
+  // Width binds and no design within the limit is usable: the narrowest design meeting the rest, whose widest device
+  // is the figure the verdict quotes.
+  return near.atHeadroom ?? near.atWidth ?? best;
 }
 
 /**

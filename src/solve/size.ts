@@ -10,7 +10,7 @@ import { screen } from './search/screen.js';
 import { evaluateOnce, refine, settle, type Seen } from './search/refine.js';
 import { reuseOf, type Reuse } from './search/reuse.js';
 import type { Candidate } from './search/candidate.js';
-import { finalize, fullyOk, nominalOk, type Evaluated } from './evaluate/evaluate.js';
+import { evaluateCandidate, finalize, fullyOk, nominalOk, type Evaluated } from './evaluate/evaluate.js';
 import { compareDesigns, pickBest, shortfall } from './search/rank.js';
 import { emptyResult, stackResult } from './result.js';
 import { nearestPoints } from './nearest.js';
@@ -140,11 +140,17 @@ function sizeTopology(ctx: SolveContext, topology: Topology): { result: StackRes
   return { result: emptyResult(ctx, topology, counted(), noCandidate(ctx, rejected)), pool: [] };
 }
 
-/** The widest device of a design meeting every nominal target within a width limit of `w`, or null when the search finds none. */
-function fitsWithin(ctx: SolveContext, topology: Topology, w: number, reuse?: Reuse): number | null {
+/**
+ * A design meeting every nominal target within a width limit of `w`, judged again under the spec's own limit (so its
+ * margins and corners are the ones reported), or null when the search finds none.
+ */
+function fitsWithin(ctx: SolveContext, topology: Topology, w: number, reuse?: Reuse): Evaluated | null {
   const limited: SolveContext = { ...ctx, wmax: w, spec: { ...ctx.spec, wmax: w }, reuse };
   const run = search(limited, topology);
-  return run && nominalOk(run.best) ? Math.max(...run.best.sized.w) : null;
+  if (!run || !nominalOk(run.best)) return null;
+  const e = evaluateCandidate(ctx, run.best.cand);
+  if (e) finalize(ctx, e);
+  return e;
 }
 
 /** Why a topology got no design at all, from the rejections counted since `from`. */
