@@ -2,12 +2,12 @@ import { topologyOf } from '../../topology/index.js';
 import type { Candidate } from './candidate.js';
 import { candidateKey } from './candidate.js';
 import type { SolveContext } from '../context.js';
-import { candidateArea, evaluateCandidate, fullyOk, nominalOk, type Evaluated, type Start } from '../evaluate/evaluate.js';
+import { candidateArea, candidateWidths, evaluateCandidate, fullyOk, nominalOk, type Evaluated, type Start } from '../evaluate/evaluate.js';
 import { REL_TOL } from '../../policy.js';
 import { better, shortfall, stepTop } from './rank.js';
 import { rejudged, type Reuse, type Seen } from './reuse.js';
 import { lookAt, shortfallSurelyAbove, surelyMisses, type Look } from './quick.js';
-import { withWidthEdges } from './width-edge.js';
+import { atWidthEdge } from './width-edge.js';
 
 export type { Seen };
 
@@ -124,6 +124,10 @@ export type Hopeless = (look: Look, best: Evaluated) => boolean;
 // key (the same moves recur from round to round), and the moves a look ruled out without an exact evaluation.
 interface Memo {
   areas: Map<string, number>;
+  /** Width-edge version of a move by its key (null: the move fits, or has none). */
+  edges: Map<string, Candidate | null>;
+  /** Whether a move's sizing is wider than the limit (or fails), by its key. */
+  wide: Map<string, boolean>;
   looks: Map<string, Look | null>;
   deferred: Map<string, Candidate>;
 }
@@ -131,7 +135,7 @@ const memos = new WeakMap<Seen, Memo>();
 
 function memoOf(seen: Seen): Memo {
   let m = memos.get(seen);
-  if (!m) memos.set(seen, (m = { areas: new Map(), looks: new Map(), deferred: new Map() }));
+  if (!m) memos.set(seen, (m = { areas: new Map(), edges: new Map(), wide: new Map(), looks: new Map(), deferred: new Map() }));
   return m;
 }
 
@@ -204,20 +208,43 @@ function climb(
 
   function step(moves: Candidate[]): boolean {
     let improved = false;
-    for (const n of withWidthEdges(ctx, moves)) {
+    const queue = [...moves];
+    // A move found wider than the width limit (or not realisable: a gm/ID beyond its length's reach) is followed by
+    // its width-edge version (search/width-edge.ts); moves that fit need no extra sizing. An edge version is not
+    // followed again (it fits, or has no edge within a grid step).
+    const edged = new Set<Candidate>();
+    const follow = (n: Candidate, tooWide: boolean) => {
+      if (!tooWide || edged.has(n)) return;
+      const e = edgeOf(n);
+      if (e) {
+        edged.add(e);
+        queue.push(e);
+      }
+    };
+    for (let q = 0; q < queue.length; q++) {
+      const n = queue[q];
       const key = candidateKey(n);
       const limit = bound(best);
-      if (limit < Infinity && !(areaOf(key, n) < limit * (1 - REL_TOL))) continue;
+      if (limit < Infinity && !(areaOf(key, n) < limit * (1 - REL_TOL))) {
+        // Narrower at the edge is also smaller: a move too large for the bound may have an edge version within it.
+        follow(n, tooWideSized(key, n));
+        continue;
+      }
       if (seen.has(key)) {
         const e = seen.get(key);
+        follow(n, !e || e.margins.width < 0);
         if (e && better(e, best)) {
           best = e;
           improved = true;
         }
         continue;
       }
-      if (hopeless && ruledOut(key, n)) continue;
+      if (hopeless && ruledOut(key, n)) {
+        follow(n, tooWideLook(key));
+        continue;
+      }
       const e = evaluateOnce(ctx, n, seen, memo.looks.get(key)?.start);
+      follow(n, !e || e.margins.width < 0);
       if (!e) continue;
       pool.push(e);
       if (better(e, best)) {
@@ -226,5 +253,32 @@ function climb(
       }
     }
     return improved;
+  }
+
+  /** The width-edge version of a move, once per search (null: it fits, or has none). */
+  function edgeOf(n: Candidate): Candidate | null {
+    const key = candidateKey(n);
+    let e = memo.edges.get(key);
+    if (e === undefined) {
+      const at = atWidthEdge(ctx, n);
+      memo.edges.set(key, (e = at === n ? null : at));
+    }
+    return e;
+  }
+
+  /** Whether a move ruled out by its quick look is too wide (or not realisable), from that look. */
+  function tooWideLook(key: string): boolean {
+    const l = memo.looks.get(key);
+    return !l || l.widest > ctx.wmax;
+  }
+
+  /** Whether a move is too wide (or not realisable), from its sizing alone (once per search). */
+  function tooWideSized(key: string, n: Candidate): boolean {
+    let wide = memo.wide.get(key);
+    if (wide === undefined) {
+      const w = candidateWidths(ctx, n);
+      memo.wide.set(key, (wide = w === null || Math.max(...Array.from(w)) > ctx.wmax));
+    }
+    return wide;
   }
 }

@@ -45,17 +45,3 @@ function anyWider(w: ArrayLike<number>, wmax: number): boolean {
   for (let k = 0; k < w.length; k++) if (w[k] > wmax) return true;
   return false;
 }
-
-/**
- * The moves, each followed by its width-edge version when that differs (atWidthEdge). The move past the limit stays:
- * the nearest-point questions (how narrow a design meeting the other targets can be) read such designs.
- */
-export function withWidthEdges(ctx: SolveContext, moves: readonly Candidate[]): Candidate[] {
-  const out: Candidate[] = [];
-  for (const m of moves) {
-    out.push(m);
-    const e = atWidthEdge(ctx, m);
-    if (e !== m) out.push(e);
-  }
-  return out;
-}
