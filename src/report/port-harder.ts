@@ -5,6 +5,7 @@ import { verdictLine } from './verdict.js';
 import { stageVerdictText } from './stage-rows.js';
 
 const percent3 = (x: number): string => `${(x * 100).toFixed(3)} %`;
+const marginText = (what: string, h: { fromMargin: number; toMargin: number }): string => `${what}: margin ${h.fromMargin.toFixed(2)}x -> ${h.toMargin.toFixed(2)}x of the target`;
 const millivolts = (x: number | null): string => (x === null ? 'none' : `${(x * 1e3).toFixed(0)} mV`);
 
 /**
@@ -16,7 +17,7 @@ export function harderText(h: Harder, manyCorners: boolean): string {
     case 'feasible':
       return `infeasible on the new kit${h.binding ? `: ${verdictLine(h.binding, manyCorners)}` : ''}`;
     case 'rout':
-      return `rout: margin ${h.fromMargin.toFixed(2)}x -> ${h.toMargin.toFixed(2)}x of the target`;
+      return marginText('rout', h);
     case 'headroom':
       return `headroom: slack ${millivolts(h.fromSlack)} -> ${millivolts(h.toSlack)}`;
     case 'mismatch':
@@ -36,23 +37,27 @@ export function stageHarderText(h: StageHarder, manyCorners: boolean): string {
     case 'feasible':
       return `infeasible on the new kit${h.binding ? `: ${stageVerdictText(h.binding, manyCorners)}` : ''}`;
     case 'gain':
-      return `gain: margin ${h.fromMargin.toFixed(2)}x -> ${h.toMargin.toFixed(2)}x of the target`;
+      return marginText('gain', h);
     case 'swing':
       return `swing: slack ${signedMillivolts(h.fromSlack)} -> ${signedMillivolts(h.toSlack)}`;
     case 'gbw':
-      return `GBW: margin ${h.fromMargin.toFixed(2)}x -> ${h.toMargin.toFixed(2)}x of the target (${formatEng(h.from, 'Hz')} -> ${formatEng(h.to, 'Hz')})`;
+      return `${marginText('GBW', h)} (${formatEng(h.from, 'Hz')} -> ${formatEng(h.to, 'Hz')})`;
     case 'area':
-      return `area: ${h.ratio.toFixed(2)}x larger to meet the same targets`;
+      return harderText(h, manyCorners);
     case 'topology':
       return `load topology: ${h.from} -> ${h.to}`;
   }
 }
 
 /** The whole "harder on KIT" list of a stack or a stage: phrases joined by "; ", or "nothing". */
+function joined<T>(list: readonly T[], text: (h: T) => string): string {
+  return list.length ? list.map(text).join('; ') : 'nothing';
+}
+
 export function harderLine(list: readonly Harder[], manyCorners: boolean): string {
-  return list.length ? list.map((h) => harderText(h, manyCorners)).join('; ') : 'nothing';
+  return joined(list, (h) => harderText(h, manyCorners));
 }
 
 export function stageHarderLine(list: readonly StageHarder[], manyCorners: boolean): string {
-  return list.length ? list.map((h) => stageHarderText(h, manyCorners)).join('; ') : 'nothing';
+  return joined(list, (h) => stageHarderText(h, manyCorners));
 }

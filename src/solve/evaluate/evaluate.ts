@@ -118,15 +118,6 @@ export function evaluateCandidate(ctx: SolveContext, cand: Candidate, start?: St
   });
 }
 
-/** ΣW·L of a candidate from its sizing alone (no DC solves); NaN when the table cannot realise it. */
-export function candidateArea(ctx: SolveContext, cand: Candidate): number {
-  const sized = rangeSafe(() => sizeOf(ctx, cand).sized);
-  if (!sized) return NaN;
-  let a = 0;
-  for (let k = 0; k < sized.w.length; k++) a += sized.w[k] * cand.l[k];
-  return a;
-}
-
 /** Widths of a candidate's output devices from its sizing alone (no DC solves); null when the table cannot realise it. */
 export function candidateWidths(ctx: SolveContext, cand: Candidate): ArrayLike<number> | null {
   return rangeSafe(() => sizeOf(ctx, cand).sized)?.w ?? null;

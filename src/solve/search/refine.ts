@@ -2,12 +2,12 @@ import { topologyOf } from '../../topology/index.js';
 import type { Candidate } from './candidate.js';
 import { candidateKey } from './candidate.js';
 import type { SolveContext } from '../context.js';
-import { candidateArea, candidateWidths, evaluateCandidate, fullyOk, nominalOk, type Evaluated, type Start } from '../evaluate/evaluate.js';
+import { candidateWidths, evaluateCandidate, fullyOk, nominalOk, type Evaluated, type Start } from '../evaluate/evaluate.js';
 import { REL_TOL } from '../../policy.js';
 import { better, shortfall, stepTop } from './rank.js';
 import { rejudged, type Reuse, type Seen } from './reuse.js';
 import { lookAt, shortfallSurelyAbove, surelyMisses, type Look } from './quick.js';
-import { atWidthEdge } from './width-edge.js';
+import { anyWider, atWidthEdge } from './width-edge.js';
 
 export type { Seen };
 
@@ -123,11 +123,10 @@ export type Hopeless = (look: Look, best: Evaluated) => boolean;
 // Per search (one `seen` map, one sizing context): areas from the sizing alone and the quick looks, by candidate
 // key (the same moves recur from round to round), and the moves a look ruled out without an exact evaluation.
 interface Memo {
-  areas: Map<string, number>;
+  /** A move's sizing alone: ΣW·L (NaN when the table cannot realise it) and whether it is wider than the limit (or fails). */
+  sizes: Map<string, { area: number; wide: boolean }>;
   /** Width-edge version of a move by its key (null: the move fits, or has none). */
   edges: Map<string, Candidate | null>;
-  /** Whether a move's sizing is wider than the limit (or fails), by its key. */
-  wide: Map<string, boolean>;
   looks: Map<string, Look | null>;
   deferred: Map<string, Candidate>;
 }
@@ -135,7 +134,7 @@ const memos = new WeakMap<Seen, Memo>();
 
 function memoOf(seen: Seen): Memo {
   let m = memos.get(seen);
-  if (!m) memos.set(seen, (m = { areas: new Map(), edges: new Map(), wide: new Map(), looks: new Map(), deferred: new Map() }));
+  if (!m) memos.set(seen, (m = { sizes: new Map(), edges: new Map(), looks: new Map(), deferred: new Map() }));
   return m;
 }
 
@@ -177,10 +176,16 @@ function climb(
   better: (a: Evaluated, b: Evaluated) => boolean, bound: (best: Evaluated) => number, hopeless: Hopeless | undefined,
 ): Evaluated {
   const memo = memoOf(seen);
-  const areaOf = (key: string, c: Candidate): number => {
-    let a = memo.areas.get(key);
-    if (a === undefined) memo.areas.set(key, (a = candidateArea(ctx, c)));
-    return a;
+  // One sizing per move and search serves the area bound and the width check.
+  const sizeOf = (key: string, c: Candidate): { area: number; wide: boolean } => {
+    let z = memo.sizes.get(key);
+    if (z === undefined) {
+      const w = candidateWidths(ctx, c);
+      let area = 0;
+      if (w) for (let k = 0; k < w.length; k++) area += w[k] * c.l[k];
+      memo.sizes.set(key, (z = w ? { area, wide: anyWider(w, ctx.wmax) } : { area: NaN, wide: true }));
+    }
+    return z;
   };
   // A move the look rules out; recorded for settle.
   const ruledOut = (key: string, c: Candidate): boolean => {
@@ -225,9 +230,9 @@ function climb(
       const n = queue[q];
       const key = candidateKey(n);
       const limit = bound(best);
-      if (limit < Infinity && !(areaOf(key, n) < limit * (1 - REL_TOL))) {
+      if (limit < Infinity && !(sizeOf(key, n).area < limit * (1 - REL_TOL))) {
         // Narrower at the edge is also smaller: a move too large for the bound may have an edge version within it.
-        follow(n, tooWideSized(key, n));
+        follow(n, sizeOf(key, n).wide);
         continue;
       }
       if (seen.has(key)) {
@@ -270,15 +275,5 @@ function climb(
   function tooWideLook(key: string): boolean {
     const l = memo.looks.get(key);
     return !l || l.widest > ctx.wmax;
-  }
-
-  /** Whether a move is too wide (or not realisable), from its sizing alone (once per search). */
-  function tooWideSized(key: string, n: Candidate): boolean {
-    let wide = memo.wide.get(key);
-    if (wide === undefined) {
-      const w = candidateWidths(ctx, n);
-      memo.wide.set(key, (wide = w === null || Math.max(...Array.from(w)) > ctx.wmax));
-    }
-    return wide;
   }
 }

@@ -41,7 +41,8 @@ export function atWidthEdge(ctx: SolveContext, c: Candidate): Candidate {
   return d;
 }
 
-function anyWider(w: ArrayLike<number>, wmax: number): boolean {
+/** Some device of `w` is wider than `wmax`. */
+export function anyWider(w: ArrayLike<number>, wmax: number): boolean {
   for (let k = 0; k < w.length; k++) if (w[k] > wmax) return true;
   return false;
 }
