@@ -283,3 +283,26 @@ stacks:
     expect(htmlCell).toEqual([expect.closeTo(s.predicted.headroom, 9)]);
   });
 });
+
+describe('a report page names each result once', () => {
+  it('every id on the HTML page is unique, with alternatives of a stack and loads of a stage each a section of their own (demo180, topology and load auto)', () => {
+    // HTML Living Standard, "The id attribute": the value must be unique amongst the IDs in the element's tree.
+    // Before, every alternative of a stack repeated the chosen design's section and chart ids.
+    const { result, html } = size(`kit: demo180
+corner: tt
+supply: 1.8
+stacks:
+  - {name: tail, device: n, topology: auto, current: 20u, rout: 20meg, headroom: 0.4, span: 1.6}
+stages:
+  - {name: amp, current: 10u, gain: 300, swing: 0.8, output: 0.9, input: {device: n, topology: single}, load: {topology: auto}}
+`);
+    expect(result.stacks.filter((s) => s.chosen === false).length).toBeGreaterThan(0);
+    expect((result.stages ?? []).filter((s) => s.chosen === false).length).toBeGreaterThan(0);
+    const ids = [...html.matchAll(/\sid="([^"]*)"/g)].map((m) => m[1]);
+    const repeated = ids.filter((id, k) => ids.indexOf(id) !== k);
+    expect(repeated).toEqual([]);
+    // One section per result: the chosen stack under its name, each alternative under its name and topology.
+    const sections = [...html.matchAll(/<section class="stack" id="([^"]*)"/g)].map((m) => m[1]);
+    expect(sections.length).toBe(result.stacks.length + (result.stages ?? []).length);
+  });
+});

@@ -6,7 +6,7 @@ import { REPORT_CSS } from './html-style.js';
 import { biasGrid, columnAlign, cornerGrid, deviceGrid, predictedGrid, squareLawGrid, statusLine, type Grid } from './rows.js';
 import { stackCharts } from './stack-charts.js';
 import { chosenFirst, farAreaNote, farAreaRatio } from './order.js';
-import { escapeXml as esc } from './svg.js';
+import { escapeXml as esc, resultSlug } from './svg.js';
 import type { HtmlReportInput } from './types.js';
 import { stageSection, stageSpecGrid, stageSummaryGrid } from './stage-html.js';
 import { confirmGrid, confirmVerdict, correctedGrid } from './confirm-rows.js';
@@ -68,7 +68,7 @@ function stackSection(s: StackResult, input: HtmlReportInput, spec?: StackSpec):
   const sq = squareLawGrid(s);
   const corners = cornerGrid(s);
   return [
-    `<section class="stack" id="stack-${esc(s.name)}">`,
+    `<section class="stack" id="${resultSlug('stack', s.name, s.topology, s.chosen)}">`,
     `<h2>${esc(s.name)} — ${esc(polarityName(s.device))} ${esc(s.topology)}${badge}</h2>`,
     `<p class="verdict${s.feasible ? '' : ' bad'}">${esc(statusLine(s))}</p>`,
     `<div class="tables">${htmlTable(deviceGrid(s), 'output stack (bottom first)')}${s.bias.length ? htmlTable(biasGrid(s), 'bias devices') : ''}</div>`,

@@ -3,7 +3,7 @@ import type { StackResult } from '../solve/types.js';
 import { lineChart, targetLabel, type ScatterSeries, type TargetLine } from './chart.js';
 import { formatArea, formatHeadroom, polarityName } from './format.js';
 import { colorAt } from './palette.js';
-import { slug } from './svg.js';
+import { resultSlug } from './svg.js';
 import type { FrontPoint } from '../solve/pareto.js';
 
 export interface StackChartSet {
@@ -31,7 +31,7 @@ function headroomGuides(stack: StackResult, spec?: StackSpec): TargetLine[] {
 
 /** Rout and Iout against stack voltage, with the targets, and the Pareto front when given. */
 export function stackCharts(stack: StackResult, spec?: StackSpec, front?: FrontPoint[], idPrefix = ''): StackChartSet {
-  const base = slug(`${idPrefix}stack-${stack.name}`);
+  const base = idPrefix + resultSlug('stack', stack.name, stack.topology, stack.chosen);
   const sub = subtitleOf(stack);
   const vAxis = { label: 'stack voltage', unit: 'V' };
   const region = spec ? [{ x: [spec.headroom, spec.span] as [number, number], label: 'targets must hold here' }] : [];

@@ -2,7 +2,7 @@ import type { StageSpec } from '../design/types.js';
 import type { StageFrontPoint, StageResult } from '../solve/stage-types.js';
 import { lineChart, targetLabel, type ScatterSeries, type TargetLine } from './chart.js';
 import { formatArea } from './format.js';
-import { slug } from './svg.js';
+import { resultSlug } from './svg.js';
 
 export interface StageChartSet {
   /** Gain against output voltage with the gain target and the swing interval. */
@@ -15,7 +15,7 @@ export interface StageChartSet {
 
 /** Charts of one stage: its gain curve, and the trade front over the explored designs when given. */
 export function stageCharts(s: StageResult, spec?: StageSpec, front?: StageFrontPoint[], idPrefix = ''): StageChartSet {
-  const base = slug(`${idPrefix}stage-${s.name}`);
+  const base = idPrefix + resultSlug('stage', s.name, s.load.topology, s.chosen);
   const out: StageChartSet = {};
   const points = s.curve.filter((c) => c.gain > 0).map((c) => ({ x: c.vout, y: c.gain }));
   const p = s.predicted;

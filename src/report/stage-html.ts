@@ -4,7 +4,7 @@ import { eng, formatMicrons } from './format.js';
 import { biasGrid, deviceGrid, type Grid } from './rows.js';
 import { stageCharts } from './stage-charts.js';
 import { stageCornerGrid, stageFigures, stagePredictedGrid, stageSquareLawGrid, stageVerdict } from './stage-rows.js';
-import { escapeXml as esc } from './svg.js';
+import { escapeXml as esc, resultSlug } from './svg.js';
 
 type Table = (grid: Grid, caption?: string) => string;
 
@@ -32,7 +32,7 @@ export function stageSection(s: StageResult, table: Table, spec?: StageSpec, fro
   const sq = stageSquareLawGrid(s);
   const corners = stageCornerGrid(s);
   return [
-    `<section class="stack" id="stage-${esc(s.name)}">`,
+    `<section class="stack" id="${resultSlug('stage', s.name, s.load.topology, s.chosen)}">`,
     `<h2>${esc(s.name)} — gain stage: ${esc(`${s.input.device}-input ${s.input.topology}, ${s.load.device}-type ${s.load.topology} load`)}${badge}</h2>`,
     `<p class="verdict${s.feasible ? '' : ' bad'}">${esc(stageVerdict(s))}</p>`,
     `<div class="tables">${table(deviceGrid(s.input), 'input side (bottom first; gate of the input device = input DC voltage)')}${s.input.bias.length ? table(biasGrid(s.input), 'input-side bias devices') : ''}</div>`,

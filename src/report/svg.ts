@@ -35,6 +35,14 @@ export function text(content: string, a: Attrs = {}): string {
   return `<text${attrs(a)}>${escapeXml(content)}</text>`;
 }
 
+/**
+ * Id base of one result in a report: the stack or stage name, and for an alternative also its topology, since
+ * every topology tried for one stack (or load tried for one stage) gets its own section and charts.
+ */
+export function resultSlug(kind: 'stack' | 'stage', name: string, topology: string, chosen?: boolean): string {
+  return slug(`${kind}-${name}${chosen === false ? `-${topology}` : ''}`);
+}
+
 /** Ids usable in XML and CSS, derived from free text. */
 export function slug(textIn: string): string {
   const s = textIn.toLowerCase().normalize('NFKD').replace(/[^a-z0-9]+/g, '-').replace(/^-+|-+$/g, '');
