@@ -253,6 +253,9 @@ stacks:
       const [got, need] = compared(stageVerdictText(verdict), unit);
       expect(got < need, stageVerdictText(verdict)).toBe(true);
     }
+    // One minus sign throughout: a swing miss gives its shortfall in V and in %, both with the ASCII sign the
+    // figures themselves use (before, U+2212 beside '-').
+    expect(stageVerdictText(sv('swing', 1.0, 0.95))).toContain('(-50 mV, -5.0 %)');
   });
 });
 

@@ -29,7 +29,7 @@ export function harderText(h: Harder, manyCorners: boolean): string {
   }
 }
 
-const signedMillivolts = (x: number): string => `${x < 0 ? '−' : ''}${(Math.abs(x) * 1e3).toFixed(0)} mV`;
+const signedMillivolts = (x: number): string => `${x < 0 ? '-' : ''}${(Math.abs(x) * 1e3).toFixed(0)} mV`;
 
 /** One harder target of a gain stage as a phrase of `port`'s "harder on KIT" line. */
 export function stageHarderText(h: StageHarder, manyCorners: boolean): string {

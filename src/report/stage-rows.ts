@@ -33,7 +33,7 @@ export function stageVerdictText(v: StageVerdict, showCorner = false): string {
   if (v.achieved === null || v.required === null) return `${where}${name}: not reached`;
   const ok = v.achieved >= v.required;
   const pct = ((v.achieved / v.required - 1) * 100).toFixed(1);
-  const by = v.target === 'swing' ? `${ok ? '+' : '−'}${eng(Math.abs(v.achieved - v.required), 'V')}, ${ok ? '+' : ''}${pct} %` : `${ok ? '+' : ''}${pct} %`;
+  const by = v.target === 'swing' ? `${ok ? '+' : '-'}${eng(Math.abs(v.achieved - v.required), 'V')}, ${ok ? '+' : ''}${pct} %` : `${ok ? '+' : ''}${pct} %`;
   // Apart when they differ: a miss never reads "1500 < 1500".
   const unit = v.target === 'gbw' ? 'Hz' : 'V';
   const [a, b] = v.target === 'gain'
