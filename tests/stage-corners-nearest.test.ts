@@ -12,9 +12,9 @@ import { demoKits } from './helpers/cli.js';
  * A gain stage's nearest points over every corner (README, "JSON output": nearest.overCorners): the best gain held over
  * the swing target and the best swing at the gain target that hold at every corner at once, each design sized at the
  * nominal corner and judged at its worst corner (fixed gates from its bias diodes there, the input DC voltage
- * re-solved). Checked against a plain grid search over the whole allowed space of a common-source input into a
- * single-device load (every allowed length and gm/ID of each device on a grid, every pair), refined on a finer grid
- * around its winners, each figure traced on the reported 20 mV grid with the held gain's window ends solved on the
+ * re-solved). Checked against a plain grid search over the whole allowed space of a common-source or cascode input into
+ * a single-device load (every allowed length and gm/ID of each device on a grid, the cascode's setpoint too, every
+ * pair), refined on a finer grid around its winners, each figure traced on the reported 20 mV grid with the held gain's window ends solved on the
  * circuit. The reference shares the tool's evaluation of one pair (src/solve/stage-eval.ts), none of its search.
  */
 
@@ -48,21 +48,38 @@ function reference(stage: StageSpec, kit: Kit): { held: Worst & { d: StageDesign
   const sides: StageSides = { stage, supply: SUPPLY, input, load };
   const vs = outputGrid(stage.output, SUPPLY, 0.05);
   const j0 = designIndex(vs, stage.output);
-  const side = (s: Side, l: number, g: number): SideDesign | null => {
-    const d = sideDesign(s, { topology: 'single', l: [l], gmid: [g], setpoints: [] }, vs, j0, stage, SUPPLY, Infinity, false);
+  // A cascode input (input device, then its cascode, with the VDS setpoint of the input device) or a single device.
+  const side = (s: Side, l: number[], g: number[], setpoint?: number): SideDesign | null => {
+    const cand = setpoint === undefined ? { topology: 'single' as const, l, gmid: g, setpoints: [] } : { topology: 'cascode' as const, l, gmid: g, setpoints: [setpoint] };
+    const d = sideDesign(s, cand, vs, j0, stage, SUPPLY, Infinity, false);
     return d && (s.kind !== 'input' || d.sized.gates[0] <= SUPPLY) ? d : null;
   };
+  const cascoded = (s: Side) => s.kind === 'input' && stage.input.topology === 'cascode';
   const gmids = (s: Side) => [s.ctx.gmids[0], s.ctx.gmids[s.ctx.gmids.length - 1]];
-  const grid = (s: Side, ls: readonly number[], gs: number[]) => ls.flatMap((l) => gs.map((g) => side(s, l, g))).filter((d): d is SideDesign => d !== null);
+  const levels = (s: Side) => (cascoded(s) ? 5 : 10);
+  const grid = (s: Side, ls: readonly number[], gs: number[], setpoints: number[]) => (cascoded(s)
+    ? ls.flatMap((l1) => ls.flatMap((l2) => gs.flatMap((g1) => gs.flatMap((g2) => setpoints.map((x) => side(s, [l1, l2], [g1, g2], x))))))
+    : ls.flatMap((l) => gs.map((g) => side(s, [l], [g])))).filter((d): d is SideDesign => d !== null);
   const coarse = (s: Side) => {
     const [lo, hi] = gmids(s);
-    return grid(s, s.ctx.lengths, Array.from({ length: 10 }, (_, k) => lo + ((hi - lo) * k) / 9));
+    const n = levels(s);
+    return grid(s, s.ctx.lengths, Array.from({ length: n }, (_, k) => lo + ((hi - lo) * k) / (n - 1)), [0.1, 0.15, 0.2, 0.3]);
   };
+  // Around a winner: gm/ID by a quarter step (within ±2 or ±4 of them), a cascode's setpoint by 12.5 mV (±2), its
+  // lengths kept; a single device also at its neighbouring lengths.
   const around = (s: Side, d: SideDesign) => {
     const [lo, hi] = gmids(s);
-    const step = (hi - lo) / 36;
-    const gs = Array.from({ length: 9 }, (_, k) => d.cand.gmid[0] + (k - 4) * step).filter((g) => g >= lo && g <= hi);
-    return grid(s, s.ctx.lengths.filter((l) => Math.abs(Math.log(l / d.cand.l[0])) < 0.45), gs);
+    const step = (hi - lo) / (4 * (levels(s) - 1));
+    const reach = cascoded(s) ? 2 : 4;
+    const gsAt = (g0: number) => Array.from({ length: 2 * reach + 1 }, (_, k) => g0 + (k - reach) * step).filter((g) => g >= lo && g <= hi);
+    if (!cascoded(s)) return grid(s, s.ctx.lengths.filter((l) => Math.abs(Math.log(l / d.cand.l[0])) < 0.45), gsAt(d.cand.gmid[0]), []);
+    const setpoints = Array.from({ length: 5 }, (_, k) => d.cand.setpoints[0] + (k - 2) * 0.0125).filter((x) => x >= 0.02);
+    const out: SideDesign[] = [];
+    for (const g1 of gsAt(d.cand.gmid[0])) for (const g2 of gsAt(d.cand.gmid[1])) for (const x of setpoints) {
+      const e = side(s, d.cand.l, [g1, g2], x);
+      if (e) out.push(e);
+    }
+    return out;
   };
   // Every pair on the search grid, then the best few of each figure on the reported grid.
   const search = (ins: SideDesign[], lds: SideDesign[], key: 'held' | 'swing') => {
@@ -96,6 +113,11 @@ const cases = [
   {
     what: 'p common-source into an n single load, gain target above what ss allows',
     stage: '{name: amp, current: 20u, gain: 160, swing: 1.4, output: 0.9, input: {device: p, topology: single}, load: {topology: single}, objective: area}',
+  },
+  {
+    // Input lengths held to two, so that the reference's cascode grid (5 gm/ID levels per device, 4 setpoints) stays affordable.
+    what: 'n cascode input into a p single load',
+    stage: '{name: amp, current: 10u, gain: 400, swing: 1.3, output: 0.9, input: {device: n, topology: cascode, l: [0.5u, 0.7u], gmid: [6, 22]}, load: {topology: single, l: [0.5u, 2u]}, objective: area}',
   },
 ];
 
