@@ -14,8 +14,8 @@ import { demoKits } from './helpers/cli.js';
  * nominal corner and judged at its worst corner (fixed gates from its bias diodes there, the input DC voltage
  * re-solved). Checked against a plain grid search over the whole allowed space of a common-source or cascode input into
  * a single-device load (every allowed length and gm/ID of each device on a grid, the cascode's setpoint too, every
- * pair), refined on a finer grid around its winners, each figure traced on the reported 20 mV grid with the held gain's window ends solved on the
- * circuit. The reference shares the tool's evaluation of one pair (src/solve/stage-eval.ts), none of its search.
+ * pair), refined on a finer grid around its winners, each figure traced on the reported 20 mV grid with the held
+ * gain's window ends solved on the circuit. The reference shares the tool's evaluation of one pair (src/solve/stage-eval.ts), none of its search.
  */
 
 const SUPPLY = 1.8;
