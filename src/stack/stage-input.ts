@@ -1,5 +1,6 @@
 import type { DeviceBias, StackDevice } from './types.js';
-import { fallingRoot, type Falling } from '../numeric/illinois.js';
+import { fallingRoot } from '../numeric/illinois.js';
+import { fallingNewton, type FallingSloped } from '../numeric/safe-newton.js';
 import { covers } from './range.js';
 import { vgsWindow } from './invert.js';
 import { emptyBias, evalDevice } from './evaluate-device.js';
@@ -25,26 +26,51 @@ export interface InputGuess {
 /** First half-width of the bracket tried around a guess, V; widened ×4 until it holds the root. */
 const GUESS_SPAN = 4e-3;
 
-/** Current the cascode passes over the current asked for, as its source node x rises (NaN outside the table). */
-class CascodeExcess implements Falling {
+/** jd and its slopes from one lookup (slices with exact slopes), shared by the two functions below. */
+const slopes = new Float64Array(4);
+
+/*
+ * Both functions are logs of a current ratio: the tables' jd is interpolated geometrically along VGS, so its log is
+ * linear in VGS within a table cell and Newton lands on the root in a step or two, where on the current itself a
+ * step from below in weak inversion overshoots. The sign is the current's: f ≥ 0 exactly when the current one is.
+ */
+
+/** log of the current the cascode passes over the current asked for, as its source node x rises (NaN outside the table). */
+class CascodeExcess implements FallingSloped {
   d: StackDevice = null as unknown as StackDevice;
   gate = 0;
   v = 0;
   i = 0;
+  slope = 0;
   at(x: number): number {
     const d = this.d;
-    return (covers(d.slice, this.gate - x, this.v - x, x) ? d.w * d.slice.jd(this.gate - x, this.v - x, x) : NaN) - this.i;
+    if (!covers(d.slice, this.gate - x, this.v - x, x)) return NaN;
+    if (!d.slice.jdSlopes) return logRatio(d.w * d.slice.jd(this.gate - x, this.v - x, x), this.i);
+    // x moves the source: VGS and VDS fall by dx, VSB rises by dx.
+    d.slice.jdSlopes(this.gate - x, this.v - x, x, slopes);
+    this.slope = (slopes[3] - slopes[1] - slopes[2]) / slopes[0];
+    return logRatio(d.w * slopes[0], this.i);
   }
 }
 
-/** Current asked for over what the input device carries, as its VGS rises (VSB = 0). */
-class InputShortfall implements Falling {
+/** log of the current asked for over what the input device carries, as its VGS rises (VSB = 0). */
+class InputShortfall implements FallingSloped {
   d: StackDevice = null as unknown as StackDevice;
   vds = 0;
   i = 0;
+  slope = 0;
   at(vgs: number): number {
-    return this.i - this.d.w * this.d.slice.jd(vgs, this.vds, 0);
+    const d = this.d;
+    if (!d.slice.jdSlopes) return -logRatio(d.w * d.slice.jd(vgs, this.vds, 0), this.i);
+    d.slice.jdSlopes(vgs, this.vds, 0, slopes);
+    this.slope = -slopes[1] / slopes[0];
+    return -logRatio(d.w * slopes[0], this.i);
   }
+}
+
+/** log(a / b) for b > 0, with a current a ≤ 0 (none) as −Infinity: below any positive current. */
+function logRatio(a: number, b: number): number {
+  return a > 0 ? Math.log(a / b) : -Infinity;
 }
 
 const cascodeExcess = new CascodeExcess();
@@ -56,7 +82,12 @@ const inputShortfall = new InputShortfall();
  * solution), the bracket is first narrowed around it, so a few samples do
  * instead of a search over the whole interval; the root is the same to `tol`.
  */
-function rootNear(f: Falling, lo: number, hi: number, tol: number, guess?: number): number {
+function rootNear(f: FallingSloped, sloped: boolean, lo: number, hi: number, tol: number, guess?: number): number {
+  // With exact slopes, Newton from the guess: a handful of lookups where the bracketing below takes about ten.
+  if (sloped) {
+    const x = fallingNewton(f, lo, hi, tol, guess ?? NaN);
+    if (!Number.isNaN(x)) return x;
+  }
   if (guess === undefined || !(guess > lo && guess < hi)) return fallingRoot(f, lo, hi, tol);
   const fg = f.at(guess);
   if (!(fg >= 0) && !(fg < 0)) return fallingRoot(f, lo, hi, tol);
@@ -84,6 +115,15 @@ function rootNear(f: Falling, lo: number, hi: number, tol: number, guess?: numbe
 }
 
 /**
+ * The root from a neighbouring solution by Newton steps alone (slices with exact slopes), before the ends of the
+ * bracket are checked: reaching a root proves one exists in [lo, hi] (f falls), so the two end samples are needed
+ * only when this fails (NaN), as they are near a rail or a table edge. To 1e-10 V, as rootNear.
+ */
+function quickRoot(f: FallingSloped, sloped: boolean, lo: number, hi: number, guess: number | undefined): number {
+  return sloped && guess !== undefined ? fallingNewton(f, lo, hi, 1e-10, guess, true) : NaN;
+}
+
+/**
  * Solve the input side (one device, or input device plus a cascode with a
  * fixed gate `cascodeGate`) at stack voltage `v` carrying current `i`.
  * Cascode: the cascode's current falls monotonically as its source node x1
@@ -108,10 +148,14 @@ export function inputAtCurrent(devices: readonly StackDevice[], cascodeGate: num
     top.gate = g;
     top.v = v;
     top.i = i;
-    // The cascode must be able to pass i at the lowest x1 the table allows; at the highest it passes less.
-    if (!(top.at(lo) >= 0)) return null;
-    if (top.at(hi) >= 0) return null;
-    x1 = rootNear(top, lo, hi, 1e-10, guess?.x1);
+    const sloped = d1.slice.jdSlopes !== undefined;
+    x1 = quickRoot(top, sloped, lo, hi, guess?.x1);
+    if (Number.isNaN(x1)) {
+      // The cascode must be able to pass i at the lowest x1 the table allows; at the highest it passes less.
+      if (!(top.at(lo) >= 0)) return null;
+      if (top.at(hi) >= 0) return null;
+      x1 = rootNear(top, sloped, lo, hi, 1e-10, guess?.x1);
+    }
   }
   const g0 = gateForCurrent(d0, i, x1, guess?.gate);
   if (g0 === null) return null;
@@ -141,6 +185,9 @@ function gateForCurrent(d: StackDevice, i: number, vds: number, guess?: number):
   f.d = d;
   f.vds = vds;
   f.i = i;
+  const sloped = d.slice.jdSlopes !== undefined;
+  const quick = quickRoot(f, sloped, win[0], win[1], guess);
+  if (!Number.isNaN(quick)) return quick;
   if (f.at(win[0]) < 0 || f.at(win[1]) >= 0) return null;
-  return rootNear(f, win[0], win[1], 1e-10, guess);
+  return rootNear(f, sloped, win[0], win[1], 1e-10, guess);
 }
