@@ -192,6 +192,30 @@ const INFEASIBLE: Case[] = [
     id: 'p-reed-cascode-bias-narrow', kit: 'reed180', why: 'no screened candidate has a realisable bias diode',
     spec: { device: 'p', topology: 'cascode', current: 0.543e-6, rout: 3.06e9, headroom: 0.471, span: 1.046, objective: 'headroom', l: { min: 0.3e-6, max: 0.5e-6 }, gmid: { min: 6, max: 22 } },
   },
+  // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): with the headroom target so low
+  // that no device is saturated there, Rout at the target has maxima far apart along one coordinate, and the climb
+  // towards the highest Rout stopped on the first one it reached (search/line-probes.ts now looks along each one).
+  {
+    // gm/ID: 56.1 kΩ with both devices near 22 /V where the reference reaches 72.3 kΩ with both near 6 /V.
+    id: 'n180-stacked-nearest-far-gmid', kit: 'demo180', why: 'highest Rout at the headroom target at the other end of the gm/ID range',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 86.6e-6, rout: 21.2e6, headroom: 0.416, span: 0.999, objective: 'rout', l: { min: 0.25e-6, max: 0.35e-6 }, gmid: { min: 6, max: 22 } },
+  },
+  {
+    // Setpoint: 156 kΩ at the bottom device's saturation edge (0.12 V) where the reference reaches 178 kΩ at 0.19 V.
+    id: 'n-reed-cascode-nearest-far-setpoint', kit: 'reed180', why: 'highest Rout at the headroom target past a dip in the setpoint',
+    spec: { device: 'n', topology: 'cascode', current: 24.2e-6, rout: 3.52e6, headroom: 0.181, span: 1.31, objective: 'headroom', l: { min: 0.8e-6, max: 1.3e-6 }, gmid: { min: 6, max: 22 } },
+  },
+  {
+    // Setpoint: 114 kΩ at 0.12 V where the reference reaches 121 kΩ at 0.65 V, just below mid-span.
+    id: 'p-reed-cascode-nearest-high-setpoint', kit: 'reed180', why: 'highest Rout at the headroom target with the setpoint near mid-span',
+    spec: { device: 'p', topology: 'cascode', current: 22.7e-6, rout: 211e6, headroom: 0.167, span: 1.18, objective: 'headroom', l: { min: 0.18e-6, max: 0.3e-6 }, gmid: { min: 6, max: 22 } },
+  },
+  {
+    // Under a 6.8 µm width limit: 13.4 kΩ at 0.19 V where the reference reaches 19.1 kΩ at 0.43 V, with the top
+    // device's gm/ID lowered to fit the limit.
+    id: 'p090-cascode-nearest-narrow-setpoint', kit: 'demo090', why: 'highest Rout at the headroom target on the width limit, far in setpoint',
+    spec: { device: 'p', topology: 'cascode', current: 42.6e-6, rout: 9.15e6, headroom: 0.161, span: 0.773, objective: 'area', wmax: 6.8e-6 },
+  },
 ];
 
 describe('explanations of infeasible specs are true (exhaustive reference search)', () => {
