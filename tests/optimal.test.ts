@@ -216,6 +216,15 @@ const INFEASIBLE: Case[] = [
     id: 'p090-cascode-nearest-narrow-setpoint', kit: 'demo090', why: 'highest Rout at the headroom target on the width limit, far in setpoint',
     spec: { device: 'p', topology: 'cascode', current: 42.6e-6, rout: 9.15e6, headroom: 0.161, span: 0.773, objective: 'area', wmax: 6.8e-6 },
   },
+  {
+    // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): the Rout target is met only
+    // above mid-span (0.952 V, long devices on the 39 µm width limit). No design the search met reaches it anywhere,
+    // and the climb towards the lowest headroom ranked those by Rout at the headroom target, so it followed the
+    // highest-Rout design and reported no headroom at all; it now ranks them by Rout at span, where the target is
+    // first reached.
+    id: 'p090-stacked-nearest-headroom-above-mid', kit: 'demo090', why: 'Rout target reached only above mid-span',
+    spec: { device: 'p', topology: 'cascode-stacked', current: 128e-6, rout: 5.41e6, headroom: 0.59, span: 1.085, objective: 'rout', wmax: 39e-6 },
+  },
 ];
 
 describe('explanations of infeasible specs are true (exhaustive reference search)', () => {

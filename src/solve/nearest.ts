@@ -62,14 +62,24 @@ function byUsability(a: Evaluated, b: Evaluated): boolean | undefined {
   return da === db ? undefined : da < db;
 }
 
-/** Lower headroom first; among designs that never reach the target, the higher Rout at span-side first. */
+/**
+ * Rout at span, Ω (0 where the table cannot cover it): the closest a design that never meets the Rout target gets to
+ * it (its headroom would be the lowest v with Rout ≥ target over all of [v, span], span included).
+ */
+function routAtSpan(e: Evaluated): number {
+  const c = e.nominal.curve;
+  const r = c[c.length - 1];
+  return Number.isFinite(r) ? r : 0;
+}
+
+/** Lower headroom first; among designs that never reach the target, the higher Rout at span first. */
 function lowerHeadroom(a: Evaluated, b: Evaluated): boolean {
   const u = byUsability(a, b);
   if (u !== undefined) return u;
   const ha = a.nominal.headroom;
   const hb = b.nominal.headroom;
   if (ha !== hb) return ha < hb;
-  return Number.isFinite(ha) ? a.area < b.area : a.nominal.routAtTarget > b.nominal.routAtTarget;
+  return Number.isFinite(ha) ? a.area < b.area : routAtSpan(a) > routAtSpan(b);
 }
 
 function higherRout(a: Evaluated, b: Evaluated): boolean {
