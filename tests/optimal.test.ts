@@ -217,6 +217,26 @@ const INFEASIBLE: Case[] = [
     spec: { device: 'p', topology: 'cascode', current: 42.6e-6, rout: 9.15e6, headroom: 0.161, span: 0.773, objective: 'area', wmax: 6.8e-6 },
   },
   {
+    // Lengths, both devices on the default width limit (1152 µm): 1.04 MΩ at 1.3/0.5 µm where the reference reaches
+    // 1.19 MΩ at 0.8/0.8 µm, each device's gm/ID brought back to the limit at its new length.
+    id: 'n-reed-stacked-nearest-lengths-on-width-limit', kit: 'reed180', why: 'highest Rout at the headroom target at other lengths, on the width limit',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 319e-6, rout: 48e6, headroom: 0.637, span: 1.597, objective: 'area' },
+  },
+  {
+    // Under a 13 µm width limit at 365 µA every design the search met was too wide, and the climb from them (one step
+    // at a time) never reached one that fits: Rout at the headroom target 0 Ω where the reference reaches 11.3 kΩ
+    // with short devices at low gm/ID.
+    id: 'n-reed-stacked-nearest-narrow', kit: 'reed180', why: 'nearest points when every design met is far too wide',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 365e-6, rout: 4e6, headroom: 0.445, span: 1.417, objective: 'area', wmax: 13e-6 },
+  },
+  {
+    // Setpoints traded between the two lower devices: 10.3 kΩ with 0.14 / 0.41 V where the reference reaches
+    // 15.7 kΩ with 0.40 / 0.15 V (and longer lower devices, all three on the width limit).
+    id: 'p180-triple-nearest-setpoints-traded', kit: 'demo180', why: 'highest Rout at the headroom target with the setpoint room given to the other device',
+    spec: { device: 'p', topology: 'triple', current: 211e-6, rout: 81.5e6, headroom: 0.164, span: 1.005, objective: 'area', gmid: { min: 10, max: 25 }, l: { min: 0.5e-6, max: 0.7e-6 } },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
     // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): the Rout target is met only
     // above mid-span (0.952 V, long devices on the 39 µm width limit). No design the search met reaches it anywhere,
     // and the climb towards the lowest headroom ranked those by Rout at the headroom target, so it followed the

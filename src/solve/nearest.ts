@@ -187,13 +187,15 @@ const PROBE_ROUNDS = 2;
 /**
  * The climb's answer, or a better one found by line probes from it (search/line-probes.ts) and a climb from the best
  * probe. A probe is evaluated exactly only when its quick look leaves it a chance (`hopeless` says no otherwise), so
- * where the climb already sits on the best ridge this costs the looks alone. Only from a usable answer.
+ * where the climb already sits on the best ridge this costs the looks alone. From an answer that is not usable (every
+ * design met is too wide, say) every probe is evaluated: the width-limited probes can reach usable designs the climb,
+ * a step at a time, does not.
  */
 function probeFurther(
   ctx: SolveContext, from: Evaluated, seen: Seen, pool: Evaluated[], prefer: (a: Evaluated, b: Evaluated) => boolean, hopeless: Hopeless,
 ): Evaluated {
   let best = from;
-  for (let round = 0; round < PROBE_ROUNDS && usable(best); round++) {
+  for (let round = 0; round < PROBE_ROUNDS; round++) {
     let lead: Evaluated | undefined;
     for (const c of lineProbes(ctx, best.cand)) {
       const k = candidateKey(c);

@@ -13,8 +13,8 @@ const TOP_ROOM = 0.02;
 const EDGE_STEPS = 16;
 
 /**
- * Long moves from a design: each continuous coordinate alone over its whole allowed range (each gm/ID on the search's
- * grid, each setpoint every PROBE_VSTEP up to mid-span), the rest kept. A climb only ever steps to neighbours, so a
+ * Long moves from a design: each coordinate alone over its whole allowed range (each length over the allowed lengths,
+ * each gm/ID on the search's grid, each setpoint every PROBE_VSTEP up to mid-span), the rest kept. A climb only ever steps to neighbours, so a
  * figure with several far-apart maxima over one coordinate (Rout at a headroom target where nothing is saturated has
  * them: at a lower device's saturation edge and again well above it) keeps it on the first one it reaches. Probes
  * wider than the width limit are pulled back to it (see toWidthLimit).
@@ -22,6 +22,24 @@ const EDGE_STEPS = 16;
 export function lineProbes(ctx: SolveContext, c: Candidate): Candidate[] {
   const out: Candidate[] = [];
   const copy = (): Candidate => ({ topology: c.topology, l: c.l, gmid: [...c.gmid], setpoints: [...c.setpoints] });
+  for (let k = 0; k < c.l.length; k++) {
+    for (const l of ctx.lengths) {
+      if (Math.abs(l - c.l[k]) < 1e-15) continue;
+      const d = copy();
+      d.l = [...c.l];
+      d.l[k] = l;
+      out.push(d);
+      // And the device at its widest: where the width limit binds, the best designs keep each device on it, so a
+      // new length is worth most with the gm/ID that brings the device back to the limit (toWidthLimit pulls it there).
+      const gHi = ctx.gmids[ctx.gmids.length - 1];
+      if (c.gmid[k] < gHi - 1e-9) {
+        const e = copy();
+        e.l = d.l;
+        e.gmid[k] = gHi;
+        out.push(e);
+      }
+    }
+  }
   for (let k = 0; k < c.gmid.length; k++) {
     for (const g of ctx.gmids) {
       if (Math.abs(g - c.gmid[k]) < 1e-9) continue;
@@ -38,6 +56,18 @@ export function lineProbes(ctx: SolveContext, c: Candidate): Candidate[] {
       if (Math.abs(v - c.setpoints[k]) < 1e-9) continue;
       const d = copy();
       d.setpoints[k] = v;
+      out.push(d);
+    }
+  }
+  // Setpoint traded between two adjacent devices, their sum kept: the top device's room at mid-span unchanged.
+  for (let k = 0; k + 1 < c.setpoints.length; k++) {
+    const pair = c.setpoints[k] + c.setpoints[k + 1];
+    for (let j = 0; SETPOINT_MIN + j * PROBE_VSTEP <= pair - SETPOINT_MIN + 1e-9; j++) {
+      const v = Math.round((SETPOINT_MIN + j * PROBE_VSTEP) * 1e4) / 1e4;
+      if (Math.abs(v - c.setpoints[k]) < 1e-9) continue;
+      const d = copy();
+      d.setpoints[k] = v;
+      d.setpoints[k + 1] = pair - v;
       out.push(d);
     }
   }
@@ -63,13 +93,22 @@ export function toWidthLimit(ctx: SolveContext, c: Candidate): Candidate | null 
     const w = candidateWidths(ctx, d);
     return w !== null && w[k] <= ctx.wmax;
   };
-  const gLo = ctx.gmids[0];
   for (let k = 0; k < c.gmid.length; k++) {
     const g = c.gmid[k];
     if (fits(k, g)) continue;
-    let lo = gLo;
-    if (!fits(k, lo)) return null;
+    // The highest grid gm/ID below that fits (scanned down: the lowest ones may not be realisable at all, e.g. a
+    // bottom diode's VGS leaving the device above no room), then the edge between it and the next one up.
     let hi = g;
+    let lo = NaN;
+    for (let j = ctx.gmids.length - 1; j >= 0; j--) {
+      if (!(ctx.gmids[j] < hi)) continue;
+      if (fits(k, ctx.gmids[j])) {
+        lo = ctx.gmids[j];
+        break;
+      }
+      hi = ctx.gmids[j];
+    }
+    if (Number.isNaN(lo)) return null;
     for (let it = 0; it < EDGE_STEPS; it++) {
       const m = 0.5 * (lo + hi);
       if (fits(k, m)) lo = m;
