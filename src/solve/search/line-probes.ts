@@ -14,13 +14,20 @@ const EDGE_STEPS = 16;
 
 /**
  * Long moves from a design: each coordinate alone over its whole allowed range (each length over the allowed lengths,
- * each gm/ID on the search's grid, each setpoint every PROBE_VSTEP up to mid-span), the rest kept. A climb only ever steps to neighbours, so a
- * figure with several far-apart maxima over one coordinate (Rout at a headroom target where nothing is saturated has
- * them: at a lower device's saturation edge and again well above it) keeps it on the first one it reaches. Probes
- * wider than the width limit are pulled back to it (see toWidthLimit).
+ * each gm/ID on the search's grid, each setpoint every PROBE_VSTEP up to mid-span, and the setpoint traded between
+ * adjacent devices), the rest kept. A climb only ever steps to neighbours, so a figure with several far-apart maxima
+ * over one coordinate (Rout at a headroom target where nothing is saturated has them: at a lower device's saturation
+ * edge and again well above it) keeps it on the first one it reaches. Probes wider than the width limit are pulled
+ * back to it (see toWidthLimit).
  */
 export function lineProbes(ctx: SolveContext, c: Candidate): Candidate[] {
   const out: Candidate[] = [];
+  // The probe, pulled to the width limit when too wide; 'pulled' when it was (null: it fits nowhere).
+  const add = (d: Candidate): 'fits' | 'pulled' | null => {
+    const f = toWidthLimit(ctx, d);
+    if (f) out.push(f);
+    return f === null ? null : f === d ? 'fits' : 'pulled';
+  };
   const copy = (): Candidate => ({ topology: c.topology, l: c.l, gmid: [...c.gmid], setpoints: [...c.setpoints] });
   for (let k = 0; k < c.l.length; k++) {
     for (const l of ctx.lengths) {
@@ -28,7 +35,7 @@ export function lineProbes(ctx: SolveContext, c: Candidate): Candidate[] {
       const d = copy();
       d.l = [...c.l];
       d.l[k] = l;
-      out.push(d);
+      add(d);
       // And the device at its widest: where the width limit binds, the best designs keep each device on it, so a
       // new length is worth most with the gm/ID that brings the device back to the limit (toWidthLimit pulls it there).
       const gHi = ctx.gmids[ctx.gmids.length - 1];
@@ -36,7 +43,7 @@ export function lineProbes(ctx: SolveContext, c: Candidate): Candidate[] {
         const e = copy();
         e.l = d.l;
         e.gmid[k] = gHi;
-        out.push(e);
+        add(e);
       }
     }
   }
@@ -45,7 +52,8 @@ export function lineProbes(ctx: SolveContext, c: Candidate): Candidate[] {
       if (Math.abs(g - c.gmid[k]) < 1e-9) continue;
       const d = copy();
       d.gmid[k] = g;
-      out.push(d);
+      // Up the grid the device only gets wider: every probe past the first one pulled back lands on the same edge.
+      if (add(d) === 'pulled') break;
     }
   }
   const sum = c.setpoints.reduce((a, b) => a + b, 0);
@@ -56,7 +64,7 @@ export function lineProbes(ctx: SolveContext, c: Candidate): Candidate[] {
       if (Math.abs(v - c.setpoints[k]) < 1e-9) continue;
       const d = copy();
       d.setpoints[k] = v;
-      out.push(d);
+      add(d);
     }
   }
   // Setpoint traded between two adjacent devices, their sum kept: the top device's room at mid-span unchanged.
@@ -68,15 +76,10 @@ export function lineProbes(ctx: SolveContext, c: Candidate): Candidate[] {
       const d = copy();
       d.setpoints[k] = v;
       d.setpoints[k + 1] = pair - v;
-      out.push(d);
+      add(d);
     }
   }
-  const fitted: Candidate[] = [];
-  for (const d of out) {
-    const f = toWidthLimit(ctx, d);
-    if (f) fitted.push(f);
-  }
-  return fitted;
+  return out;
 }
 
 /**
