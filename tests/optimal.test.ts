@@ -192,6 +192,59 @@ const INFEASIBLE: Case[] = [
     id: 'p-reed-cascode-bias-narrow', kit: 'reed180', why: 'no screened candidate has a realisable bias diode',
     spec: { device: 'p', topology: 'cascode', current: 0.543e-6, rout: 3.06e9, headroom: 0.471, span: 1.046, objective: 'headroom', l: { min: 0.3e-6, max: 0.5e-6 }, gmid: { min: 6, max: 22 } },
   },
+  // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): with the headroom target so low
+  // that no device is saturated there, Rout at the target has maxima far apart along one coordinate, and the climb
+  // towards the highest Rout stopped on the first one it reached (search/line-probes.ts now looks along each one).
+  {
+    // gm/ID: 56.1 kΩ with both devices near 22 /V where the reference reaches 72.3 kΩ with both near 6 /V.
+    id: 'n180-stacked-nearest-far-gmid', kit: 'demo180', why: 'highest Rout at the headroom target at the other end of the gm/ID range',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 86.6e-6, rout: 21.2e6, headroom: 0.416, span: 0.999, objective: 'rout', l: { min: 0.25e-6, max: 0.35e-6 }, gmid: { min: 6, max: 22 } },
+  },
+  {
+    // Setpoint: 156 kΩ at the bottom device's saturation edge (0.12 V) where the reference reaches 178 kΩ at 0.19 V.
+    id: 'n-reed-cascode-nearest-far-setpoint', kit: 'reed180', why: 'highest Rout at the headroom target past a dip in the setpoint',
+    spec: { device: 'n', topology: 'cascode', current: 24.2e-6, rout: 3.52e6, headroom: 0.181, span: 1.31, objective: 'headroom', l: { min: 0.8e-6, max: 1.3e-6 }, gmid: { min: 6, max: 22 } },
+  },
+  {
+    // Setpoint: 114 kΩ at 0.12 V where the reference reaches 121 kΩ at 0.65 V, just below mid-span.
+    id: 'p-reed-cascode-nearest-high-setpoint', kit: 'reed180', why: 'highest Rout at the headroom target with the setpoint near mid-span',
+    spec: { device: 'p', topology: 'cascode', current: 22.7e-6, rout: 211e6, headroom: 0.167, span: 1.18, objective: 'headroom', l: { min: 0.18e-6, max: 0.3e-6 }, gmid: { min: 6, max: 22 } },
+  },
+  {
+    // Under a 6.8 µm width limit: 13.4 kΩ at 0.19 V where the reference reaches 19.1 kΩ at 0.43 V, with the top
+    // device's gm/ID lowered to fit the limit.
+    id: 'p090-cascode-nearest-narrow-setpoint', kit: 'demo090', why: 'highest Rout at the headroom target on the width limit, far in setpoint',
+    spec: { device: 'p', topology: 'cascode', current: 42.6e-6, rout: 9.15e6, headroom: 0.161, span: 0.773, objective: 'area', wmax: 6.8e-6 },
+  },
+  {
+    // Lengths, both devices on the default width limit (1152 µm): 1.04 MΩ at 1.3/0.5 µm where the reference reaches
+    // 1.19 MΩ at 0.8/0.8 µm, each device's gm/ID brought back to the limit at its new length.
+    id: 'n-reed-stacked-nearest-lengths-on-width-limit', kit: 'reed180', why: 'highest Rout at the headroom target at other lengths, on the width limit',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 319e-6, rout: 48e6, headroom: 0.637, span: 1.597, objective: 'area' },
+  },
+  {
+    // Under a 13 µm width limit at 365 µA every design the search met was too wide, and the climb from them (one step
+    // at a time) never reached one that fits: Rout at the headroom target 0 Ω where the reference reaches 11.3 kΩ
+    // with short devices at low gm/ID.
+    id: 'n-reed-stacked-nearest-narrow', kit: 'reed180', why: 'nearest points when every design met is far too wide',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 365e-6, rout: 4e6, headroom: 0.445, span: 1.417, objective: 'area', wmax: 13e-6 },
+  },
+  {
+    // Setpoints traded between the two lower devices: 10.3 kΩ with 0.14 / 0.41 V where the reference reaches
+    // 15.7 kΩ with 0.40 / 0.15 V (and longer lower devices, all three on the width limit).
+    id: 'p180-triple-nearest-setpoints-traded', kit: 'demo180', why: 'highest Rout at the headroom target with the setpoint room given to the other device',
+    spec: { device: 'p', topology: 'triple', current: 211e-6, rout: 81.5e6, headroom: 0.164, span: 1.005, objective: 'area', gmid: { min: 10, max: 25 }, l: { min: 0.5e-6, max: 0.7e-6 } },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
+    // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): the Rout target is met only
+    // above mid-span (0.952 V, long devices on the 39 µm width limit). No design the search met reaches it anywhere,
+    // and the climb towards the lowest headroom ranked those by Rout at the headroom target, so it followed the
+    // highest-Rout design and reported no headroom at all; it now ranks them by Rout at span, where the target is
+    // first reached.
+    id: 'p090-stacked-nearest-headroom-above-mid', kit: 'demo090', why: 'Rout target reached only above mid-span',
+    spec: { device: 'p', topology: 'cascode-stacked', current: 128e-6, rout: 5.41e6, headroom: 0.59, span: 1.085, objective: 'rout', wmax: 39e-6 },
+  },
 ];
 
 describe('explanations of infeasible specs are true (exhaustive reference search)', () => {

@@ -5,6 +5,7 @@ import { defer, evaluateOnce, lookOnce, refine, settle, type Hopeless, type Seen
 import { routSurelyBelow, routSurelyBelowAt, scanPointAtOrAbove, type Look } from './search/quick.js';
 import { screen } from './search/screen.js';
 import { candidateKey } from './search/candidate.js';
+import { lineProbes } from './search/line-probes.js';
 
 /** The nearest reachable points of an infeasible stack, over the whole allowed design space. */
 export interface Nearest {
@@ -61,14 +62,24 @@ function byUsability(a: Evaluated, b: Evaluated): boolean | undefined {
   return da === db ? undefined : da < db;
 }
 
-/** Lower headroom first; among designs that never reach the target, the higher Rout at span-side first. */
+/**
+ * Rout at span, Ω (0 where the table cannot cover it): the closest a design that never meets the Rout target gets to
+ * it (its headroom would be the lowest v with Rout ≥ target over all of [v, span], span included).
+ */
+function routAtSpan(e: Evaluated): number {
+  const c = e.nominal.curve;
+  const r = c[c.length - 1];
+  return Number.isFinite(r) ? r : 0;
+}
+
+/** Lower headroom first; among designs that never reach the target, the higher Rout at span first. */
 function lowerHeadroom(a: Evaluated, b: Evaluated): boolean {
   const u = byUsability(a, b);
   if (u !== undefined) return u;
   const ha = a.nominal.headroom;
   const hb = b.nominal.headroom;
   if (ha !== hb) return ha < hb;
-  return Number.isFinite(ha) ? a.area < b.area : a.nominal.routAtTarget > b.nominal.routAtTarget;
+  return Number.isFinite(ha) ? a.area < b.area : routAtSpan(a) > routAtSpan(b);
 }
 
 function higherRout(a: Evaluated, b: Evaluated): boolean {
@@ -170,6 +181,40 @@ function liftedScreen(ctx: SolveContext, topology: Topology, pool: Evaluated[], 
   }
 }
 
+// Rounds of line probes and the climb from the best probe (each round starts from the last round's answer).
+const PROBE_ROUNDS = 2;
+
+/**
+ * The climb's answer, or a better one found by line probes from it (search/line-probes.ts) and a climb from the best
+ * probe. A probe is evaluated exactly only when its quick look leaves it a chance (`hopeless` says no otherwise), so
+ * where the climb already sits on the best ridge this costs the looks alone. From an answer that is not usable (every
+ * design met is too wide, say) every probe is evaluated: the width-limited probes can reach usable designs the climb,
+ * a step at a time, does not.
+ */
+function probeFurther(
+  ctx: SolveContext, from: Evaluated, seen: Seen, pool: Evaluated[], prefer: (a: Evaluated, b: Evaluated) => boolean, hopeless: Hopeless,
+): Evaluated {
+  let best = from;
+  for (let round = 0; round < PROBE_ROUNDS; round++) {
+    let lead: Evaluated | undefined;
+    for (const c of lineProbes(ctx, best.cand)) {
+      const k = candidateKey(c);
+      let e = seen.get(k);
+      if (e === undefined) {
+        const l = lookOnce(ctx, seen, k, c);
+        if (!l || hopeless(l, best)) continue;
+        e = evaluateOnce(ctx, c, seen, l.start);
+        if (e) pool.push(e);
+      }
+      if (e && prefer(e, best) && (!lead || prefer(e, lead))) lead = e;
+    }
+    if (!lead) break;
+    const climbed = refine(ctx, [lead], seen, pool, prefer, hopeless);
+    best = climbed && prefer(climbed, lead) ? climbed : lead;
+  }
+  return best;
+}
+
 /**
  * A dedicated scan for the nearest points, independent of where the sizing
  * search happened to look: the lifted screen (above), then a climb towards
@@ -183,7 +228,8 @@ export function nearestPoints(
   settle(ctx, seen, pool, (l) => outOfReach(ctx, l, pool));
   liftedScreen(ctx, topology, pool, seen);
   const hr = refine(ctx, bestOf(pool, lowerHeadroom, 2), seen, pool, lowerHeadroom, headroomHopeless(ctx, pool));
-  const ro = refine(ctx, seedsOf(ctx, pool, seen, higherRout, usable), seen, pool, higherRout, routBelowFromUsable(ctx));
+  let ro = refine(ctx, seedsOf(ctx, pool, seen, higherRout, usable), seen, pool, higherRout, routBelowFromUsable(ctx));
+  if (ro) ro = probeFurther(ctx, ro, seen, pool, higherRout, routBelowFromUsable(ctx));
   // The figures come from the full curve, as every reported design's do, so they match wherever shown.
   if (hr) finalize(ctx, hr);
   if (ro) finalize(ctx, ro);
