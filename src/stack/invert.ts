@@ -1,5 +1,5 @@
 import type { LengthSlice } from '../device/types.js';
-import { fallingRoot } from '../numeric/illinois.js';
+import { fallingRoot, type Falling } from '../numeric/illinois.js';
 import { fallingNewton, type FallingSloped } from '../numeric/safe-newton.js';
 import { covers, within } from './range.js';
 
@@ -38,53 +38,93 @@ const SCAN = 16;
 /**
  * VGS at which gm/ID equals `target` at the given VDS (or diode) and VSB.
  * gm/ID falls with VGS above weak inversion, so scan down from the top of the
- * table for the first sample at or above the target, then bisect. Null when
- * the table does not reach the target.
+ * table for the first sample at or above the target, then solve in between
+ * (Illinois on log gm/ID: gm and jd are both interpolated geometrically along
+ * VGS, so log gm/ID is linear within a table cell and the secant steps land on
+ * the root in a few samples). Null when the table does not reach the target.
  */
 export function vgsForGmid(slice: LengthSlice, target: number, mode: VdsMode, vsb: number): number | null {
   // Memoised: candidates share most device biases (same L, gm/ID, setpoint), and the search is pure.
+  const at = biasMemo(slice, mode, vsb);
+  let g = at.vgs.get(target);
+  if (g === undefined) {
+    if (at.vgs.size >= MEMO_LIMIT) at.vgs.clear();
+    at.vgs.set(target, (g = searchVgsForGmid(slice, target, mode, vsb, at)));
+  }
+  return g;
+}
+
+/** What one (slice, VDS, VSB) has solved: VGS per target gm/ID, and the scan's gm/ID samples (any target's). */
+interface BiasMemo {
+  vgs: Map<number, number | null>;
+  /** gm/ID at lo + (hi − lo)·j/SCAN, j = 0..SCAN, over the VGS window; null when there is no window. */
+  scan: Float64Array | null | undefined;
+  lo: number;
+  hi: number;
+}
+
+// Per slice, per VDS (−1 for a diode), per VSB: numeric keys, no strings built per call.
+const solved = new WeakMap<LengthSlice, Map<number, Map<number, BiasMemo>>>();
+// Bounds the memory one (slice, VDS, VSB) can hold when targets never repeat.
+const MEMO_LIMIT = 4096;
+
+function biasMemo(slice: LengthSlice, mode: VdsMode, vsb: number): BiasMemo {
   let bySlice = solved.get(slice);
   if (!bySlice) solved.set(slice, (bySlice = new Map()));
   const m = mode === 'diode' ? -1 : mode;
   let byMode = bySlice.get(m);
   if (!byMode) bySlice.set(m, (byMode = new Map()));
-  let byVsb = byMode.get(vsb);
-  if (!byVsb) byMode.set(vsb, (byVsb = new Map()));
-  let g = byVsb.get(target);
-  if (g === undefined) {
-    if (byVsb.size >= MEMO_LIMIT) byVsb.clear();
-    byVsb.set(target, (g = searchVgsForGmid(slice, target, mode, vsb)));
-  }
-  return g;
+  let memo = byMode.get(vsb);
+  if (!memo) byMode.set(vsb, (memo = { vgs: new Map(), scan: undefined, lo: 0, hi: 0 }));
+  return memo;
 }
 
-// Per slice, per VDS (−1 for a diode), per VSB, per target gm/ID: numeric keys, no strings built per call.
-const solved = new WeakMap<LengthSlice, Map<number, Map<number, Map<number, number | null>>>>();
-// Bounds the memory one (slice, VDS, VSB) can hold when targets never repeat.
-const MEMO_LIMIT = 4096;
-
-function searchVgsForGmid(slice: LengthSlice, target: number, mode: VdsMode, vsb: number): number | null {
+/** gm/ID at the scan's samples, taken once per (slice, VDS, VSB): the targets asked there share them. */
+function scanOf(slice: LengthSlice, mode: VdsMode, vsb: number, memo: BiasMemo): Float64Array | null {
+  if (memo.scan !== undefined) return memo.scan;
   const win = vgsWindow(slice, mode, vsb);
-  if (!win) return null;
+  if (!win) return (memo.scan = null);
   // Indexed, not destructured: destructuring runs the iterator protocol (an allocation) in unoptimised code.
   const lo = win[0];
   const hi = win[1];
-  const f = (vgs: number) => gmidAt(slice, vgs, vdsOf(mode, vgs), vsb) - target;
-  let b = hi;
-  if (f(b) >= 0) return null;
-  let a = b;
-  for (let j = SCAN - 1; j >= 0; j--) {
-    a = lo + ((hi - lo) * j) / SCAN;
-    if (f(a) >= 0) break;
-    b = a;
-    if (j === 0) return null;
+  const scan = new Float64Array(SCAN + 1);
+  for (let j = 0; j <= SCAN; j++) {
+    const vgs = j === SCAN ? hi : lo + ((hi - lo) * j) / SCAN;
+    scan[j] = gmidAt(slice, vgs, vdsOf(mode, vgs), vsb);
   }
-  return illinois(f, a, b, 1e-9);
+  memo.lo = lo;
+  memo.hi = hi;
+  return (memo.scan = scan);
 }
 
-/** Root of the falling f in [a, b] to `tol` (Illinois regula falsi: src/numeric/illinois.ts). */
-export function illinois(f: (x: number) => number, a: number, b: number, tol: number): number {
-  return fallingRoot({ at: f }, a, b, tol);
+/** log(gm/ID / target) along VGS: falling where gm/ID does, +Infinity without current (as gmidAt). */
+class GmidExcess implements Falling {
+  slice: LengthSlice = null as unknown as LengthSlice;
+  mode: VdsMode = 0;
+  vsb = 0;
+  target = 0;
+  at(vgs: number): number {
+    return Math.log(gmidAt(this.slice, vgs, vdsOf(this.mode, vgs), this.vsb) / this.target);
+  }
+}
+const gmidExcess = new GmidExcess();
+
+function searchVgsForGmid(slice: LengthSlice, target: number, mode: VdsMode, vsb: number, memo: BiasMemo): number | null {
+  const scan = scanOf(slice, mode, vsb, memo);
+  if (!scan) return null;
+  const { lo, hi } = memo;
+  if (scan[SCAN] >= target) return null;
+  let j = SCAN - 1;
+  while (j >= 0 && !(scan[j] >= target)) j--;
+  if (j < 0) return null;
+  const a = lo + ((hi - lo) * j) / SCAN;
+  const b = j + 1 === SCAN ? hi : lo + ((hi - lo) * (j + 1)) / SCAN;
+  const f = gmidExcess;
+  f.slice = slice;
+  f.mode = mode;
+  f.vsb = vsb;
+  f.target = target;
+  return fallingRoot(f, a, b, 1e-9, Math.log(scan[j] / target), Math.log(scan[j + 1] / target));
 }
 
 /** log(i / (w·jd)) along VGS (VDS fixed or = VGS for a diode), with its slope from one lookup: falling as VGS rises. */
