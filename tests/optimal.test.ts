@@ -134,6 +134,15 @@ const FEASIBLE: Case[] = [
     id: 'n180-stacked-headroom-width-edge', kit: 'demo180', why: 'optimum on the width limit, between gm/ID steps',
     spec: { device: 'n', topology: 'cascode-stacked', current: 4.41e-6, rout: 626e6, headroom: 0.657, span: 1.583, objective: 'headroom', mismatch: 0.01 },
   },
+  {
+    // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): the lowest headroom (0.299 V,
+    // all three devices on the 1152 µm width limit) has the middle at 0.65 V of a 1.0 V mid-span, so the top leaves
+    // saturation first as the output falls and the middle gives up its spare VDS; its setpoints sum far above the
+    // headroom target, where the screen's estimate (Σ setpoints + the top's VDSsat) never goes. The tool stopped 15 mV higher.
+    id: 'p-reed-triple-headroom-squeezed-top', kit: 'reed180', why: 'lowest headroom with the top squeezed out of saturation',
+    spec: { device: 'p', topology: 'triple', current: 484e-6, rout: 41.5e3, headroom: 0.4, span: 1.594, objective: 'headroom', l: { min: 0.8e-6, max: 1.3e-6 }, gmid: { min: 6, max: 22 } },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {

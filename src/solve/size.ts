@@ -1,7 +1,7 @@
 import { StackwrightError } from '../errors.js';
 import { resolveCorners } from '../design/index.js';
 import type { DesignSpec, StackSpec, Topology } from '../design/types.js';
-import { topologyNames } from '../topology/index.js';
+import { topologyNames, topologyOf } from '../topology/index.js';
 import { CAUTION, type SizeResult, type StackResult } from './types.js';
 import type { KitAccess } from './kit.js';
 import { checkStageCover, checkTableCover } from './table-cover.js';
@@ -110,7 +110,15 @@ function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool:
   if (pool.length === 0) lowered(ctx, screened, seen, pool);
   const first = pickBest(ctx, pool);
   if (!first) return null;
-  let best = refine(ctx, seedsOf(ctx, first, pool), seen, pool) ?? first;
+  const seeds = seedsOf(ctx, first, pool);
+  // One more climb from the best design biased the way the screen cannot rate (the topology's otherBias), if any.
+  const other = topologyOf(topology).otherBias?.(first.cand, ctx.vmid);
+  const biased = other ? evaluateOnce(ctx, other, seen) : null;
+  if (biased) {
+    pool.push(biased);
+    seeds.push(biased);
+  }
+  let best = refine(ctx, seeds, seen, pool) ?? first;
   // The report uses the full curve; if that loses a target the scan met, take the next best.
   for (let tries = 0; tries < 5 && !finalize(ctx, best); tries++) {
     settle(ctx, seen, pool);

@@ -100,4 +100,9 @@ export interface TopologyDescriptor extends StackShape {
   refineVoltageStep: number;
   /** Enumerate the screen's combinations. */
   screen(t: ScreenTools): void;
+  /**
+   * The same devices biased another way that the screen's estimates cannot rate (a second start for the climb),
+   * or null when there is none. `vmid`: mid-span stack voltage, V.
+   */
+  otherBias?(c: Candidate, vmid: number): Candidate | null;
 }
