@@ -135,6 +135,22 @@ const FEASIBLE: Case[] = [
     spec: { device: 'n', topology: 'cascode-stacked', current: 4.41e-6, rout: 626e6, headroom: 0.657, span: 1.583, objective: 'headroom', mismatch: 0.01 },
   },
   {
+    // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): headroom and Rout both bind,
+    // with the bottom device near the weak-inversion end of gm/ID, where a small gm/ID change moves VGS (and so the
+    // headroom) much more than the same change in the top's VDSsat; the least area needs the top's gm/ID raised about
+    // three times as far as the bottom's is lowered, which no move of the climb's equal steps follows. The tool stopped
+    // at 5.62e-11 m² against the reference's 4.09e-11 m² (+37 %).
+    id: 'n-reed-stacked-area-ridge', kit: 'reed180', why: 'two targets bind: the least area lies along their ridge',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 1.08e-6, rout: 116e6, headroom: 0.504, span: 1.662, objective: 'area' },
+  },
+  {
+    // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): Rout, headroom and the bottom
+    // device's saturation all bind; the smaller design needs the bottom's gm/ID up, its setpoint down and the top's
+    // gm/ID down together (three coordinates in set proportions). The tool stopped at +6.1 % area.
+    id: 'p090-cascode-area-three-bind', kit: 'demo090', why: 'three targets bind at once',
+    spec: { device: 'p', topology: 'cascode', current: 85.9e-6, rout: 289e3, headroom: 0.538, span: 0.891, objective: 'area', l: { min: 0.12e-6, max: 0.3e-6 } },
+  },
+  {
     // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): the lowest headroom (0.299 V,
     // all three devices on the 1152 µm width limit) has the middle at 0.65 V of a 1.0 V mid-span, so the top leaves
     // saturation first as the output falls and the middle gives up its spare VDS; its setpoints sum far above the

@@ -10,3 +10,4 @@ export { TopK } from './topk.js';
 export { dominates, nonDominated } from './pareto.js';
 export { fallingRoot, type Falling } from './illinois.js';
 export { bisectionAnswer, type Trial } from './bisection-answer.js';
+export { vertexLp, type LpRow } from './vertex-lp.js';
