@@ -151,6 +151,15 @@ const FEASIBLE: Case[] = [
     spec: { device: 'p', topology: 'cascode', current: 85.9e-6, rout: 289e3, headroom: 0.538, span: 0.891, objective: 'area', l: { min: 0.12e-6, max: 0.3e-6 } },
   },
   {
+    // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): the least area (1.62e-11 m²) has
+    // the middle at 0.44 V of a 0.82 V mid-span and a strongly inverted top (gm/ID 7.5 /V) that leaves saturation as
+    // the output falls to the headroom target; the setpoints sum above the target, where the screen never goes. The
+    // tool stopped at 1.81e-11 m² (+11.5 %) with every device in saturation at the target.
+    id: 'n180-triple-area-squeezed-top', kit: 'demo180', why: 'least area with the top squeezed out of saturation',
+    spec: { device: 'n', topology: 'triple', current: 27.8e-6, rout: 47.8e6, headroom: 0.537, span: 1.104, objective: 'area', l: { min: 0.7e-6, max: 1e-6 }, gmid: { min: 6, max: 22 } },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
     // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): the lowest headroom (0.299 V,
     // all three devices on the 1152 µm width limit) has the middle at 0.65 V of a 1.0 V mid-span, so the top leaves
     // saturation first as the output falls and the middle gives up its spare VDS; its setpoints sum far above the

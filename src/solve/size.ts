@@ -111,10 +111,10 @@ function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool:
   const first = pickBest(ctx, pool);
   if (!first) return null;
   const seeds = seedsOf(ctx, first, pool);
-  // One more climb from the best design biased the way the screen cannot rate (the topology's otherBias), if any.
-  const other = topologyOf(topology).otherBias?.(first.cand, ctx.vmid);
-  const biased = other ? evaluateOnce(ctx, other, seen) : null;
-  if (biased) {
+  // More climbs from the best design biased the ways the screen cannot rate (the topology's otherBias), if any.
+  for (const other of topologyOf(topology).otherBias?.(first.cand, ctx.vmid, ctx.gmids[0]) ?? []) {
+    const biased = evaluateOnce(ctx, other, seen);
+    if (!biased) continue;
     pool.push(biased);
     seeds.push(biased);
   }

@@ -101,8 +101,8 @@ export interface TopologyDescriptor extends StackShape {
   /** Enumerate the screen's combinations. */
   screen(t: ScreenTools): void;
   /**
-   * The same devices biased another way that the screen's estimates cannot rate (a second start for the climb),
-   * or null when there is none. `vmid`: mid-span stack voltage, V.
+   * The same devices biased another way that the screen's estimates cannot rate (more starts for the climb), or none.
+   * `vmid`: mid-span stack voltage, V; `gmidLow`: the lowest gm/ID allowed, 1/V.
    */
-  otherBias?(c: Candidate, vmid: number): Candidate | null;
+  otherBias?(c: Candidate, vmid: number, gmidLow: number): Candidate[];
 }

@@ -226,7 +226,14 @@ function climb(
   let vstep = topologyOf(best.cand.topology).refineVoltageStep;
   for (let round = 0; round < 16; round++) {
     // One-coordinate moves first; the pair moves (many more) only when none of those improves.
-    let improved = step(neighbours(ctx, best.cand, gstep, vstep, false));
+    // Short of the targets, the gm/ID and setpoint moves before the length moves: a climb from such a design would
+    // otherwise take a longer device for its Rout and stay on it, where a smaller design of the same lengths meets them.
+    const singles = neighbours(ctx, best.cand, gstep, vstep, false);
+    const lengths = best.cand.l;
+    const moved = (m: Candidate) => m.l.some((l, k) => l !== lengths[k]);
+    const short = !(nominalOk(best) && fullyOk(ctx, best));
+    let improved = step(short ? singles.filter((m) => !moved(m)) : singles);
+    if (!improved && short) improved = step(singles.filter(moved));
     if (!improved) improved = step(neighbours(ctx, best.cand, gstep, vstep, true));
     if (!improved) {
       gstep /= 2;
