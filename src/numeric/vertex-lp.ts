@@ -12,26 +12,27 @@ export interface LpRow {
 export function vertexLp(c: ArrayLike<number>, rows: readonly LpRow[], d: number): { x: Float64Array; value: number } | null {
   let best: Float64Array | null = null;
   let bestValue = Infinity;
-  const pick: number[] = [];
-  const visit = (from: number): void => {
-    if (pick.length === d) {
-      const v = solveRows(rows, pick, d);
-      if (!v) return;
-      for (const r of rows) if (dot(r.a, v) > r.b + 1e-9 * (1 + Math.abs(r.b))) return;
+  const pick = new Int32Array(d);
+  // One matrix and one answer for every trial (thousands of them per call).
+  const m = Array.from({ length: d }, () => new Float64Array(d + 1));
+  const v = new Float64Array(d);
+  const visit = (depth: number, from: number): void => {
+    if (depth === d) {
+      if (!solveRows(rows, pick, d, m, v)) return;
+      for (let i = 0; i < rows.length; i++) if (dot(rows[i].a, v) > rows[i].b + 1e-9 * (1 + Math.abs(rows[i].b))) return;
       const value = dot(c, v);
       if (value < bestValue) {
         bestValue = value;
-        best = v;
+        best = Float64Array.from(v);
       }
       return;
     }
-    for (let i = from; i <= rows.length - (d - pick.length); i++) {
-      pick.push(i);
-      visit(i + 1);
-      pick.pop();
+    for (let i = from; i <= rows.length - (d - depth); i++) {
+      pick[depth] = i;
+      visit(depth + 1, i + 1);
     }
   };
-  visit(0);
+  visit(0, 0);
   return best ? { x: best, value: bestValue } : null;
 }
 
@@ -41,13 +42,17 @@ function dot(a: ArrayLike<number>, b: ArrayLike<number>): number {
   return s;
 }
 
-/** The chosen rows as equalities, by Gaussian elimination with partial pivoting; null when singular. */
-function solveRows(rows: readonly LpRow[], pick: readonly number[], d: number): Float64Array | null {
-  const m = pick.map((i) => [...rows[i].a, rows[i].b]);
+/** The picked rows as equalities into `v`, by Gaussian elimination with partial pivoting in `m`; false when singular. */
+function solveRows(rows: readonly LpRow[], pick: Int32Array, d: number, m: Float64Array[], v: Float64Array): boolean {
+  for (let r = 0; r < d; r++) {
+    const row = rows[pick[r]];
+    for (let k = 0; k < d; k++) m[r][k] = row.a[k];
+    m[r][d] = row.b;
+  }
   for (let col = 0; col < d; col++) {
     let p = col;
     for (let r = col + 1; r < d; r++) if (Math.abs(m[r][col]) > Math.abs(m[p][col])) p = r;
-    if (Math.abs(m[p][col]) < 1e-12) return null;
+    if (Math.abs(m[p][col]) < 1e-12) return false;
     const t = m[col];
     m[col] = m[p];
     m[p] = t;
@@ -57,7 +62,6 @@ function solveRows(rows: readonly LpRow[], pick: readonly number[], d: number): 
       if (f !== 0) for (let k = col; k <= d; k++) m[r][k] -= f * m[col][k];
     }
   }
-  const v = new Float64Array(d);
   for (let k = 0; k < d; k++) v[k] = m[k][d] / m[k][k];
-  return v;
+  return true;
 }

@@ -106,7 +106,7 @@ export function refine(
   // By the spec's order nothing short of the nominal targets beats a design meeting every target; short of them,
   // a move beats one only with a smaller shortfall in rank.better's steps.
   if (!prefer) hopeless = (l, b) => (nominalOk(b) && fullyOk(ctx, b) ? surelyMisses(ctx, l) : shortfallSurelyAbove(ctx, l, stepTop(shortfall(ctx, b))));
-  const ridge = !prefer;
+  const ridge = !prefer && !ctx.meetOnly;
   prefer ??= (a, b) => better(ctx, a, b);
   let best: Evaluated | undefined;
   for (const seed of seeds) {

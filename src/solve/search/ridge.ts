@@ -65,15 +65,26 @@ function withBox(
   box: number, lo: readonly number[], hi: readonly number[],
 ): LpRow[] {
   const d = x.length;
-  const out = [...rows];
+  const ups: number[] = [];
+  const downs: number[] = [];
   for (let k = 0; k < d; k++) {
     const r = free[k] ? box * h[k] : 0;
+    ups.push(Math.max(Math.min(r, hi[k] - x[k]), 0));
+    downs.push(Math.max(Math.min(r, x[k] - lo[k]), 0));
+  }
+  // A row that holds everywhere in the box cannot bind (the vertex search grows with the rows): only the others.
+  const out = rows.filter((r) => {
+    let most = 0;
+    for (let k = 0; k < d; k++) most += Math.max(r.a[k] * ups[k], -r.a[k] * downs[k]);
+    return most > r.b;
+  });
+  for (let k = 0; k < d; k++) {
     const up = new Float64Array(d);
     up[k] = 1;
-    out.push({ a: up, b: Math.max(Math.min(r, hi[k] - x[k]), 0) });
+    out.push({ a: up, b: ups[k] });
     const down = new Float64Array(d);
     down[k] = -1;
-    out.push({ a: down, b: Math.max(Math.min(r, x[k] - lo[k]), 0) });
+    out.push({ a: down, b: downs[k] });
   }
   return out;
 }
