@@ -134,6 +134,40 @@ const FEASIBLE: Case[] = [
     id: 'n180-stacked-headroom-width-edge', kit: 'demo180', why: 'optimum on the width limit, between gm/ID steps',
     spec: { device: 'n', topology: 'cascode-stacked', current: 4.41e-6, rout: 626e6, headroom: 0.657, span: 1.583, objective: 'headroom', mismatch: 0.01 },
   },
+  {
+    // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): headroom and Rout both bind,
+    // with the bottom device near the weak-inversion end of gm/ID, where a small gm/ID change moves VGS (and so the
+    // headroom) much more than the same change in the top's VDSsat; the least area needs the top's gm/ID raised about
+    // three times as far as the bottom's is lowered, which no move of the climb's equal steps follows. The tool stopped
+    // at 5.62e-11 m² against the reference's 4.09e-11 m² (+37 %).
+    id: 'n-reed-stacked-area-ridge', kit: 'reed180', why: 'two targets bind: the least area lies along their ridge',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 1.08e-6, rout: 116e6, headroom: 0.504, span: 1.662, objective: 'area' },
+  },
+  {
+    // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): Rout, headroom and the bottom
+    // device's saturation all bind; the smaller design needs the bottom's gm/ID up, its setpoint down and the top's
+    // gm/ID down together (three coordinates in set proportions). The tool stopped at +6.1 % area.
+    id: 'p090-cascode-area-three-bind', kit: 'demo090', why: 'three targets bind at once',
+    spec: { device: 'p', topology: 'cascode', current: 85.9e-6, rout: 289e3, headroom: 0.538, span: 0.891, objective: 'area', l: { min: 0.12e-6, max: 0.3e-6 } },
+  },
+  {
+    // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): the least area (1.62e-11 m²) has
+    // the middle at 0.44 V of a 0.82 V mid-span and a strongly inverted top (gm/ID 7.5 /V) that leaves saturation as
+    // the output falls to the headroom target; the setpoints sum above the target, where the screen never goes. The
+    // tool stopped at 1.81e-11 m² (+11.5 %) with every device in saturation at the target.
+    id: 'n180-triple-area-squeezed-top', kit: 'demo180', why: 'least area with the top squeezed out of saturation',
+    spec: { device: 'n', topology: 'triple', current: 27.8e-6, rout: 47.8e6, headroom: 0.537, span: 1.104, objective: 'area', l: { min: 0.7e-6, max: 1e-6 }, gmid: { min: 6, max: 22 } },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
+    // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): the lowest headroom (0.299 V,
+    // all three devices on the 1152 µm width limit) has the middle at 0.65 V of a 1.0 V mid-span, so the top leaves
+    // saturation first as the output falls and the middle gives up its spare VDS; its setpoints sum far above the
+    // headroom target, where the screen's estimate (Σ setpoints + the top's VDSsat) never goes. The tool stopped 15 mV higher.
+    id: 'p-reed-triple-headroom-squeezed-top', kit: 'reed180', why: 'lowest headroom with the top squeezed out of saturation',
+    spec: { device: 'p', topology: 'triple', current: 484e-6, rout: 41.5e3, headroom: 0.4, span: 1.594, objective: 'headroom', l: { min: 0.8e-6, max: 1.3e-6 }, gmid: { min: 6, max: 22 } },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {

@@ -11,3 +11,4 @@ export { dominates, nonDominated } from './pareto.js';
 export { fallingRoot, type Falling } from './illinois.js';
 export { bisectionAnswer, type Trial } from './bisection-answer.js';
 export { fallingNewton, type FallingSloped } from './safe-newton.js';
+export { vertexLp, type LpRow } from './vertex-lp.js';

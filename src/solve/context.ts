@@ -49,6 +49,8 @@ export interface SolveContext {
   count: Counts;
   /** Evaluations of the same candidates under another width limit, re-judged rather than repeated (fitsWithin). */
   reuse?: Reuse;
+  /** The search only asks whether some design meets every target (fitsWithin): no ridge steps for the objective. */
+  meetOnly?: boolean;
 }
 
 /** Work done and candidates turned away, for the report. */

@@ -100,4 +100,9 @@ export interface TopologyDescriptor extends StackShape {
   refineVoltageStep: number;
   /** Enumerate the screen's combinations. */
   screen(t: ScreenTools): void;
+  /**
+   * The same devices biased another way that the screen's estimates cannot rate (more starts for the climb), or none.
+   * `vmid`: mid-span stack voltage, V; `gmidLow`: the lowest gm/ID allowed, 1/V.
+   */
+  otherBias?(c: Candidate, vmid: number, gmidLow: number): Candidate[];
 }

@@ -8,6 +8,7 @@ import { better, shortfall, stepTop } from './rank.js';
 import { rejudged, type Reuse, type Seen } from './reuse.js';
 import { lookAt, shortfallSurelyAbove, surelyMisses, type Look } from './quick.js';
 import { anyWider, atWidthEdge } from './width-edge.js';
+import { ridgeStep } from './ridge.js';
 
 export type { Seen };
 
@@ -105,10 +106,11 @@ export function refine(
   // By the spec's order nothing short of the nominal targets beats a design meeting every target; short of them,
   // a move beats one only with a smaller shortfall in rank.better's steps.
   if (!prefer) hopeless = (l, b) => (nominalOk(b) && fullyOk(ctx, b) ? surelyMisses(ctx, l) : shortfallSurelyAbove(ctx, l, stepTop(shortfall(ctx, b))));
+  const ridge = !prefer && !ctx.meetOnly;
   prefer ??= (a, b) => better(ctx, a, b);
   let best: Evaluated | undefined;
   for (const seed of seeds) {
-    const local = climb(ctx, seed, seen, pool, prefer, bound, hopeless);
+    const local = climb(ctx, seed, seen, pool, prefer, bound, hopeless, ridge);
     if (!best || prefer(local, best)) best = local;
   }
   return best;
@@ -171,9 +173,24 @@ export function settle(ctx: SolveContext, seen: Seen, pool: Evaluated[], stays?:
   }
 }
 
+// Ridge steps per climb at most; their difference steps (gm/ID: a grid step / 8; setpoints, V) and box (in steps).
+const RIDGE_STEPS = 8;
+const RIDGE_VSTEP = 0.00625;
+const RIDGE_BOX = 2;
+
+function ridgeSteps(ctx: SolveContext, c: Candidate, vstep: number): number[] {
+  return [...c.gmid.map(() => ctx.gmidStep / 8), ...c.setpoints.map(() => vstep)];
+}
+function lowest(ctx: SolveContext, c: Candidate): number[] {
+  return [...c.gmid.map(() => ctx.gmids[0]), ...c.setpoints.map(() => 0.02)];
+}
+function highest(ctx: SolveContext, c: Candidate): number[] {
+  return [...c.gmid.map(() => ctx.gmids[ctx.gmids.length - 1]), ...c.setpoints.map(() => Infinity)];
+}
+
 function climb(
   ctx: SolveContext, seed: Evaluated, seen: Seen, pool: Evaluated[],
-  better: (a: Evaluated, b: Evaluated) => boolean, bound: (best: Evaluated) => number, hopeless: Hopeless | undefined,
+  better: (a: Evaluated, b: Evaluated) => boolean, bound: (best: Evaluated) => number, hopeless: Hopeless | undefined, ridge: boolean,
 ): Evaluated {
   const memo = memoOf(seen);
   // One sizing per move and search serves the area bound and the width check.
@@ -196,18 +213,39 @@ function climb(
     return true;
   };
 
+  // An exact evaluation for the ridge steps, added to the pool when new.
+  const evaluate = (c: Candidate): Evaluated | null => {
+    const known = seen.has(candidateKey(c));
+    const e = evaluateOnce(ctx, c, seen);
+    if (e && !known) pool.push(e);
+    return e;
+  };
+
   let best = seed;
   let gstep = ctx.gmidStep / 2;
   let vstep = topologyOf(best.cand.topology).refineVoltageStep;
   for (let round = 0; round < 16; round++) {
     // One-coordinate moves first; the pair moves (many more) only when none of those improves.
-    let improved = step(neighbours(ctx, best.cand, gstep, vstep, false));
+    // Short of the targets, the gm/ID and setpoint moves before the length moves: a climb from such a design would
+    // otherwise take a longer device for its Rout and stay on it, where a smaller design of the same lengths meets them.
+    const singles = neighbours(ctx, best.cand, gstep, vstep, false);
+    const lengths = best.cand.l;
+    const moved = (m: Candidate) => m.l.some((l, k) => l !== lengths[k]);
+    const short = !(nominalOk(best) && fullyOk(ctx, best));
+    let improved = step(short ? singles.filter((m) => !moved(m)) : singles);
+    if (!improved && short) improved = step(singles.filter(moved));
     if (!improved) improved = step(neighbours(ctx, best.cand, gstep, vstep, true));
     if (!improved) {
       gstep /= 2;
       vstep /= 2;
       if (gstep < ctx.gmidStep / 8 && vstep < 0.003) break;
     }
+  }
+  // Stuck where several targets bind at once: steps along the ridge (search/ridge.ts), for a design meeting them.
+  for (let it = 0; ridge && it < RIDGE_STEPS && nominalOk(best) && fullyOk(ctx, best); it++) {
+    const r = ridgeStep(best, ridgeSteps(ctx, best.cand, RIDGE_VSTEP), RIDGE_BOX, lowest(ctx, best.cand), highest(ctx, best.cand), evaluate, better, ctx.spec.objective);
+    if (!r) break;
+    best = r;
   }
   return best;
 

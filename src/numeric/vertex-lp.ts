@@ -1,0 +1,67 @@
+/** One inequality a·x ≤ b of a linear programme. */
+export interface LpRow {
+  a: Float64Array;
+  b: number;
+}
+
+/**
+ * min c·x subject to a_i·x ≤ b_i (like scipy.optimize.linprog with only A_ub, b_ub and free bounds), by trying every
+ * vertex (d of the rows held as equalities) and keeping the best feasible one. For the small problems of a ridge step
+ * (up to five unknowns, about sixteen rows); the rows must bound the feasible set. null when no vertex is feasible.
+ */
+export function vertexLp(c: ArrayLike<number>, rows: readonly LpRow[], d: number): { x: Float64Array; value: number } | null {
+  let best: Float64Array | null = null;
+  let bestValue = Infinity;
+  const pick = new Int32Array(d);
+  // One matrix and one answer for every trial (thousands of them per call).
+  const m = Array.from({ length: d }, () => new Float64Array(d + 1));
+  const v = new Float64Array(d);
+  const visit = (depth: number, from: number): void => {
+    if (depth === d) {
+      if (!solveRows(rows, pick, d, m, v)) return;
+      for (let i = 0; i < rows.length; i++) if (dot(rows[i].a, v) > rows[i].b + 1e-9 * (1 + Math.abs(rows[i].b))) return;
+      const value = dot(c, v);
+      if (value < bestValue) {
+        bestValue = value;
+        best = Float64Array.from(v);
+      }
+      return;
+    }
+    for (let i = from; i <= rows.length - (d - depth); i++) {
+      pick[depth] = i;
+      visit(depth + 1, i + 1);
+    }
+  };
+  visit(0, 0);
+  return best ? { x: best, value: bestValue } : null;
+}
+
+function dot(a: ArrayLike<number>, b: ArrayLike<number>): number {
+  let s = 0;
+  for (let k = 0; k < a.length; k++) s += a[k] * b[k];
+  return s;
+}
+
+/** The picked rows as equalities into `v`, by Gaussian elimination with partial pivoting in `m`; false when singular. */
+function solveRows(rows: readonly LpRow[], pick: Int32Array, d: number, m: Float64Array[], v: Float64Array): boolean {
+  for (let r = 0; r < d; r++) {
+    const row = rows[pick[r]];
+    for (let k = 0; k < d; k++) m[r][k] = row.a[k];
+    m[r][d] = row.b;
+  }
+  for (let col = 0; col < d; col++) {
+    let p = col;
+    for (let r = col + 1; r < d; r++) if (Math.abs(m[r][col]) > Math.abs(m[p][col])) p = r;
+    if (Math.abs(m[p][col]) < 1e-12) return false;
+    const t = m[col];
+    m[col] = m[p];
+    m[p] = t;
+    for (let r = 0; r < d; r++) {
+      if (r === col) continue;
+      const f = m[r][col] / m[col][col];
+      if (f !== 0) for (let k = col; k <= d; k++) m[r][k] -= f * m[col][k];
+    }
+  }
+  for (let k = 0; k < d; k++) v[k] = m[k][d] / m[k][k];
+  return true;
+}

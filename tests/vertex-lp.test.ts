@@ -1,0 +1,33 @@
+import { describe, expect, it } from 'vitest';
+import { vertexLp } from '../src/numeric/index.js';
+import ref from './fixtures/scipy/vertex-lp.json' with { type: 'json' };
+
+// The ridge step's linear programme (src/numeric/vertex-lp.ts) against scipy.optimize.linprog (HiGHS):
+// random programmes min c·x subject to A x ≤ b with a box, written by scripts/lp-reference.py.
+describe('vertexLp agrees with scipy.optimize.linprog', () => {
+  it('the same optimum value (and point), or no answer where linprog finds the programme infeasible', () => {
+    let solved = 0;
+    for (const c of ref.cases) {
+      const d = c.c.length;
+      const rows = c.A.map((a, i) => ({ a: Float64Array.from(a), b: c.b[i] }));
+      const got = vertexLp(c.c, rows, d);
+      if (c.status !== 0) {
+        // linprog status 2: infeasible.
+        expect(got).toBeNull();
+        continue;
+      }
+      solved++;
+      expect(got).not.toBeNull();
+      expect(got!.value).toBeCloseTo(c.value!, 7);
+      // Every row holds at the answer.
+      for (const r of rows) expect(r.a.reduce((s, v, k) => s + v * got!.x[k], 0)).toBeLessThanOrEqual(r.b + 1e-7);
+    }
+    expect(solved).toBeGreaterThan(40);
+  });
+
+  it('a worked example: min −x − y with x + y ≤ 1, 0 ≤ x, y ≤ 0.8 has value −1 (textbook LP, common practice)', () => {
+    const row = (a: number[], b: number) => ({ a: Float64Array.from(a), b });
+    const got = vertexLp([-1, -1], [row([1, 1], 1), row([1, 0], 0.8), row([0, 1], 0.8), row([-1, 0], 0), row([0, -1], 0)], 2);
+    expect(got!.value).toBeCloseTo(-1, 12);
+  });
+});
