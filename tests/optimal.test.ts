@@ -279,6 +279,23 @@ const INFEASIBLE: Case[] = [
     id: 'p090-stacked-nearest-headroom-above-mid', kit: 'demo090', why: 'Rout target reached only above mid-span',
     spec: { device: 'p', topology: 'cascode-stacked', current: 128e-6, rout: 5.41e6, headroom: 0.59, span: 1.085, objective: 'rout', wmax: 39e-6 },
   },
+  // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): the stacked cascode's screen
+  // leaves the top device at least 50 mV at mid-span and looks at grid gm/ID values only, so where every bottom diode
+  // of the grid within the width limit has VGS within 50 mV of mid-span (or above it) the screen proposed nothing and
+  // the tool reported no design at all (binding "table", Rout at the headroom target 0 Ω), although the allowed space
+  // holds designs.
+  {
+    // 370 µA p-type at mid-span 0.603 V: only a diode on the default width limit (1152 µm), between grid points,
+    // leaves the top device room; the reference reaches 7.7 kΩ at the headroom target there.
+    id: 'p-reed-stacked-nearest-diode-on-width-limit', kit: 'reed180', why: 'nearest points when only a diode on the width limit leaves room',
+    spec: { device: 'p', topology: 'cascode-stacked', current: 370e-6, rout: 5.51e6, headroom: 0.17, span: 1.036, objective: 'area' },
+  },
+  {
+    // gm/ID up to 20 /V at mid-span 0.562 V: every diode leaves the top device less than 50 mV; the reference meets
+    // the Rout target from 0.711 V and reaches 333 kΩ at the headroom target.
+    id: 'p-reed-stacked-nearest-little-room', kit: 'reed180', why: 'nearest points when every diode leaves the top device under 50 mV',
+    spec: { device: 'p', topology: 'cascode-stacked', current: 12.6e-6, rout: 88.1e6, headroom: 0.17, span: 0.954, objective: 'headroom', gmid: { min: 8, max: 20 } },
+  },
 ];
 
 describe('explanations of infeasible specs are true (exhaustive reference search)', () => {

@@ -19,6 +19,7 @@ import { chooseResult } from './choose.js';
 import { paretoFront, type FrontPoint } from './pareto.js';
 import { verdict, type Verdict } from './evaluate/verdict.js';
 import { sizeStages } from './stage-size.js';
+import { diodeRoomCandidates } from './search/diode-room.js';
 import type { StageFrontPoint } from './stage-types.js';
 
 export interface SizeStackResult {
@@ -113,6 +114,14 @@ function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool:
     if (e) pool.push(e);
   }
   if (pool.length === 0) lowered(ctx, screened, seen, pool);
+  // An empty screen says nothing about the allowed space: a stacked bias's diodes with less room than the screen
+  // leaves, or between its grid points at the width limit, may still make designs (only runs when it is empty).
+  if (screened.length === 0) {
+    for (const c of diodeRoomCandidates(ctx, topology)) {
+      const e = evaluateOnce(ctx, c, seen);
+      if (e) pool.push(e);
+    }
+  }
   const first = pickBest(ctx, pool);
   if (!first) return null;
   const seeds = seedsOf(ctx, first, pool);

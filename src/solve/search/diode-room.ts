@@ -1,0 +1,85 @@
+import { topologyOf } from '../../topology/index.js';
+import { vgsForGmid } from '../../stack/index.js';
+import type { LengthSlice } from '../../device/types.js';
+import type { SolveContext } from '../context.js';
+import { candidateWidths } from '../evaluate/evaluate.js';
+import { candidateKey, type Candidate } from './candidate.js';
+import { toWidthLimit } from './line-probes.js';
+
+// Bisection steps of the bottom diode's width edge over one gm/ID grid step (far below the candidate key's 1e-4 /V).
+const EDGE_STEPS = 16;
+
+/** The diode's VGS and width at gm/ID `g` (VDS = VGS, VSB = 0), or null where the table does not reach it. */
+function diodeAt(slice: LengthSlice, g: number, current: number): { vgs: number; w: number } | null {
+  const vgs = vgsForGmid(slice, g, 'diode', 0);
+  if (vgs === null) return null;
+  const jd = slice.jd(vgs, vgs, 0);
+  return jd > 0 ? { vgs, w: current / jd } : null;
+}
+
+/**
+ * The gm/ID values of one length of a bottom diode that leave the device above it room at mid-span (VGS below v_mid)
+ * within the width limit: those of the search's grid, and the width edge between two grid points (at a fixed bias W =
+ * I/jd rises and VGS falls with gm/ID, so the edge is the diode with the most room left within the limit).
+ */
+function roomyBottoms(ctx: SolveContext, slice: LengthSlice): number[] {
+  const fits = (d: { vgs: number; w: number } | null) => d !== null && d.w <= ctx.wmax && d.w >= ctx.wmin * (1 - 1e-9);
+  const out: number[] = [];
+  let lastFit = NaN;
+  let firstWide = NaN;
+  for (const g of ctx.gmids) {
+    const d = diodeAt(slice, g, ctx.spec.current);
+    if (fits(d)) {
+      lastFit = g;
+      if (d!.vgs < ctx.vmid) out.push(g);
+    } else if (!Number.isNaN(lastFit) && d !== null && d.w > ctx.wmax) {
+      firstWide = g;
+      break;
+    }
+  }
+  if (Number.isNaN(lastFit) || Number.isNaN(firstWide)) return out;
+  let lo = lastFit;
+  let hi = firstWide;
+  for (let it = 0; it < EDGE_STEPS; it++) {
+    const m = 0.5 * (lo + hi);
+    if (fits(diodeAt(slice, m, ctx.spec.current))) lo = m;
+    else hi = m;
+  }
+  const edge = diodeAt(slice, lo, ctx.spec.current);
+  if (lo > lastFit && edge !== null && edge.vgs < ctx.vmid) out.push(lo);
+  return out;
+}
+
+/**
+ * Candidates of a stacked-bias topology (bottom diode, no setpoints) over the whole allowed space, for when its
+ * screen came back empty: the screen leaves the device above the diode at least 50 mV at mid-span and looks only at
+ * grid gm/ID values, so a high-VT device at a high current (or a low mid-span voltage, or a tight width limit) can
+ * have every grid diode within the width limit too high for it, while diodes between grid points (at the width limit)
+ * or with less room still make usable designs. Each bottom diode with room (roomyBottoms) under every top device of
+ * the grid, a top wider than the limit pulled back to it. Empty for other topologies (their screens' setpoints leave
+ * room by construction; search's `lowered` and the saturation retry cover them).
+ */
+export function diodeRoomCandidates(ctx: SolveContext, topology: string): Candidate[] {
+  const shape = topologyOf(topology);
+  if (!shape.bottomDiode || shape.setpoints !== 0 || shape.roles.length !== 2) return [];
+  const out: Candidate[] = [];
+  const seen = new Set<string>();
+  for (const l1 of ctx.lengths) {
+    for (const g1 of roomyBottoms(ctx, ctx.slice(ctx.nominal, l1))) {
+      for (const l2 of ctx.lengths) {
+        for (const g2 of ctx.gmids) {
+          const c: Candidate = { topology, l: [l1, l2], gmid: [g1, g2], setpoints: [] };
+          // A top the table cannot realise at this bias is left out (pulling it would move the bottom).
+          if (candidateWidths(ctx, c) === null) continue;
+          const d = toWidthLimit(ctx, c);
+          if (!d) continue;
+          const k = candidateKey(d);
+          if (seen.has(k)) continue;
+          seen.add(k);
+          out.push(d);
+        }
+      }
+    }
+  }
+  return out;
+}
