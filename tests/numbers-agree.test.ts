@@ -128,16 +128,17 @@ stacks:
 });
 
 describe('a width limit that binds', () => {
-  it('shows the narrowest design meeting Rout and headroom, whose widest device is the figure the verdict and the corner row quote (demo180 p cascode, 1 mA, wmax 30 µm)', () => {
-    // 1 mA through one device at most 30 µm wide needs a current density no table point reaches at that bias, so
-    // every design meeting 5 MΩ and 0.5 V is wider, and no design within the limit is usable at all (with 100 µm one
-    // is, at 17.7 kΩ, and that one is shown, as the README says). The summary said "at least 3.43 mm" while the design
+  it('shows the narrowest design meeting Rout and headroom, whose widest device is the figure the verdict and the corner row quote (demo180 p cascode, 1 mA, wmax 10 µm)', () => {
+    // 1 mA through one device at most 10 µm wide needs a current density no table point reaches at that bias, so
+    // every design meeting 5 MΩ and 0.5 V is wider, and no design within the limit is usable at all (the exhaustive
+    // reference of tests/helpers/exhaustive.ts finds none; with 30 µm it finds one at 3.3 kΩ, and then that one is
+    // shown, as the README says). The summary said "at least 3.43 mm" while the design
     // shown had an 8.83 mm device and its corner row said "every design ... at least 8.83 mm": three widths for one limit.
     const { result, text } = size(`kit: demo180
 corner: tt
 supply: 1.8
 stacks:
-  - {name: wide-p, device: p, topology: cascode, current: 1m, rout: 5meg, headroom: 0.5, span: 1.5, wmax: 30u}
+  - {name: wide-p, device: p, topology: cascode, current: 1m, rout: 5meg, headroom: 0.5, span: 1.5, wmax: 10u}
 `);
     const s = result.stacks[0];
     expect(s.feasible).toBe(false);
