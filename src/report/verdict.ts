@@ -34,6 +34,10 @@ export function verdictText(v: Verdict): string {
     case 'mismatch':
       return `mismatch σ ${got === null ? 'unknown' : pct(got)} vs ${need === null ? 'no target' : pct(need)}`;
     case 'saturation': {
+      // The top device's verdict is the stacked bias's: no allowed bottom diode leaves it room (got: the most VDS any does).
+      if (v.device === 'top' && got !== null && at !== null) {
+        return `saturation: no room for the top device at mid-span: every bottom diode within the width limits and the gm/ID range has VGS ≥ ${volts(at - got)}, leaving the top VDS ≤ ${formatEng(got, 'V')}${where}`;
+      }
       if (v.device === null || got === null) {
         return `saturation: no lower device stays saturated${need === null ? '' : ` (VDSsat ≥ ${formatEng(need, 'V')} each)`}${at === null ? '' : ` below the ${volts(at)} headroom target`}`;
       }

@@ -19,7 +19,7 @@ import { chooseResult } from './choose.js';
 import { paretoFront, type FrontPoint } from './pareto.js';
 import { verdict, type Verdict } from './evaluate/verdict.js';
 import { sizeStages } from './stage-size.js';
-import { diodeRoomCandidates } from './search/diode-room.js';
+import { bottomRoom, diodeRoomCandidates } from './search/diode-room.js';
 import type { StageFrontPoint } from './stage-types.js';
 
 export interface SizeStackResult {
@@ -160,7 +160,7 @@ function sizeTopology(ctx: SolveContext, topology: Topology): { result: StackRes
   // The relaxed context shares the counters, slices and sweeps; only the saturation rule differs.
   const near = search({ ...ctx, saturation: 'report' }, topology);
   if (near) return { result: stackResult(ctx, near.best, near.pool, counted, nearOf(near)), pool: near.pool.filter((e) => e.margins.saturation >= 0) };
-  return { result: emptyResult(ctx, topology, counted(), noCandidate(ctx, rejected)), pool: [] };
+  return { result: emptyResult(ctx, topology, counted(), noCandidate(ctx, topology, rejected)), pool: [] };
 }
 
 /**
@@ -177,7 +177,11 @@ function fitsWithin(ctx: SolveContext, topology: Topology, w: number, reuse?: Re
 }
 
 /** Why a topology got no design at all, from the rejections counted since `from`. */
-function noCandidate(ctx: SolveContext, from: { triode: number; narrow: number }): Verdict {
+function noCandidate(ctx: SolveContext, topology: Topology, from: { triode: number; narrow: number }): Verdict {
+  // A stacked bias whose every allowed bottom diode has VGS at or above mid-span leaves its top device no room: the
+  // allowed space holds no design of the topology at all (achieved: the most VDS any of them leaves the top).
+  const room = bottomRoom(ctx, topology);
+  if (room !== null && room <= 0) return verdict('saturation', undefined, room, ctx.vmid, ctx.nominal, 'top');
   const triode = ctx.count.triode - from.triode;
   const narrow = ctx.count.narrow - from.narrow;
   // No lower device saturated (VDSsat ≥ 4·UT at any inversion level) below the headroom target.

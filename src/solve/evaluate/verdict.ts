@@ -20,7 +20,10 @@ export interface Verdict {
   achieved: number | null;
   /** Stack voltage where it was measured, V (rout: the headroom target; iout, mismatch, saturation: mid-span). */
   at: number | null;
-  /** The device it concerns (saturation), else null. */
+  /**
+   * The device it concerns (saturation), else null. `top` only for a stacked bias whose every allowed bottom diode
+   * leaves the top device no room at mid-span (achieved: the most VDS any leaves it, ≤ 0; required null).
+   */
   device: Role | null;
   /** Corner it was found at. */
   corner: string | null;

@@ -18,20 +18,20 @@ function diodeAt(slice: LengthSlice, g: number, current: number): { vgs: number;
 }
 
 /**
- * The gm/ID values of one length of a bottom diode that leave the device above it room at mid-span (VGS below v_mid)
- * within the width limit: those of the search's grid, and the width edge between two grid points (at a fixed bias W =
- * I/jd rises and VGS falls with gm/ID, so the edge is the diode with the most room left within the limit).
+ * The bottom diodes of one length within the width limits and the gm/ID range (gm/ID and VGS): those of the search's
+ * grid, and the width edge between two grid points (at a fixed bias W = I/jd rises and VGS falls with gm/ID, so the
+ * edge is the diode with the most room left within the limit, and the lowest VGS of the list is the length's lowest).
  */
-function roomyBottoms(ctx: SolveContext, slice: LengthSlice): number[] {
+function allowedBottoms(ctx: SolveContext, slice: LengthSlice): { g: number; vgs: number }[] {
   const fits = (d: { vgs: number; w: number } | null) => d !== null && d.w <= ctx.wmax && d.w >= ctx.wmin * (1 - 1e-9);
-  const out: number[] = [];
+  const out: { g: number; vgs: number }[] = [];
   let lastFit = NaN;
   let firstWide = NaN;
   for (const g of ctx.gmids) {
     const d = diodeAt(slice, g, ctx.spec.current);
     if (fits(d)) {
       lastFit = g;
-      if (d!.vgs < ctx.vmid) out.push(g);
+      out.push({ g, vgs: d!.vgs });
     } else if (!Number.isNaN(lastFit) && d !== null && d.w > ctx.wmax) {
       firstWide = g;
       break;
@@ -46,8 +46,27 @@ function roomyBottoms(ctx: SolveContext, slice: LengthSlice): number[] {
     else hi = m;
   }
   const edge = diodeAt(slice, lo, ctx.spec.current);
-  if (lo > lastFit && edge !== null && edge.vgs < ctx.vmid) out.push(lo);
+  if (lo > lastFit && edge !== null) out.push({ g: lo, vgs: edge.vgs });
   return out;
+}
+
+/** The gm/ID values of one length of a bottom diode that leave the device above it room at mid-span (VGS below v_mid). */
+function roomyBottoms(ctx: SolveContext, slice: LengthSlice): number[] {
+  return allowedBottoms(ctx, slice).filter((d) => d.vgs < ctx.vmid).map((d) => d.g);
+}
+
+/**
+ * The most VDS any allowed bottom diode of a stacked-bias topology leaves the device above it at mid-span, V: v_mid
+ * minus the lowest VGS of a bottom diode within the width limits and the gm/ID range over every allowed length (zero
+ * or below: no design of the topology exists in the allowed space). Null for other topologies, or when no bottom
+ * diode fits the limits at all.
+ */
+export function bottomRoom(ctx: SolveContext, topology: string): number | null {
+  const shape = topologyOf(topology);
+  if (!shape.bottomDiode || shape.setpoints !== 0 || shape.roles.length !== 2) return null;
+  let lowest = Infinity;
+  for (const l of ctx.lengths) for (const d of allowedBottoms(ctx, ctx.slice(ctx.nominal, l))) lowest = Math.min(lowest, d.vgs);
+  return Number.isFinite(lowest) ? ctx.vmid - lowest : null;
 }
 
 /**
