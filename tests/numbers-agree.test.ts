@@ -6,6 +6,7 @@ import type { SizeResult, StackResult } from '../src/solve/types.js';
 import type { Verdict } from '../src/solve/evaluate/verdict.js';
 import type { StageVerdict } from '../src/solve/stage-types.js';
 import { demoKits } from './helpers/cli.js';
+import { exhaustive } from './helpers/exhaustive.js';
 
 // One figure, one number: a designer reads a stack's verdict, its per-corner rows, the brief table and the HTML
 // report side by side, and a figure or a verdict that differs between them is a contradiction whatever the cause.
@@ -308,5 +309,95 @@ stages:
     // One section per result: the chosen stack under its name, each alternative under its name and topology.
     const sections = [...html.matchAll(/<section class="stack" id="([^"]*)"/g)].map((m) => m[1]);
     expect(sections.length).toBe(result.stacks.length + (result.stages ?? []).length);
+  });
+});
+
+describe('a stacked cascode with no room for its top device', () => {
+  // Stacked diode bias (common practice): the bottom output device's VDS is its diode's VGS1, so at mid-span the top
+  // device has v_mid − VGS1 of VDS and needs it positive to conduct in saturation at all. 217 µA through an n device
+  // at most 2.7 µm wide needs a current density reached only at a high VGS.
+  const yaml = `kit: demo180
+corner: tt
+supply: 1.8
+stacks:
+  - {name: tight, device: n, topology: cascode-stacked, current: 217u, rout: 13.1meg, headroom: 0.261, span: 1.213, objective: area, wmax: 2.7u}
+`;
+  it('binds on the top device\'s saturation with the same figures in JSON, text, brief and HTML, true against the tables by hand and the exhaustive reference (demo180 n, 217 µA, wmax 2.7 µm)', () => {
+    const { result, text, brief, html } = size(yaml);
+    const s = result.stacks[0];
+    expect(s.feasible).toBe(false);
+    const b = s.binding!;
+    expect(b.target).toBe('saturation');
+    expect(b.device).toBe('top');
+    const vmid = (0.261 + 1.213) / 2;
+    expect(b.at).toBeCloseTo(vmid, 12);
+    expect(b.achieved!).toBeLessThanOrEqual(0);
+    const line = verdictText(b);
+    expect(line).toContain('no room for the top device');
+    expect(line).not.toContain('table');
+    // The text wraps long explanations at 120 columns.
+    const flat = (x: string) => x.replace(/\s+/g, ' ');
+    expect(flat(text)).toContain(line);
+    // The figures of the sentence are the JSON's: VGS = at − achieved, VDS = achieved, at mid-span.
+    const vgs = `${(b.at! - b.achieved!).toFixed(3)} V`;
+    expect(line).toContain(`VGS ≥ ${vgs}`);
+    expect(line).toContain(`at mid-span ${b.at!.toFixed(3)} V`);
+    for (const place of [html, brief]) {
+      expect(flat(place)).toContain('no room for the top device');
+      expect(place).toContain(vgs);
+    }
+    expect(JSON.stringify(result)).not.toMatch(/NaN|Infinity/);
+
+    // Hand check on the table: every diode (VDS = VGS, VSB = 0) of every table length whose width I/jd lies within
+    // [shortest length, 2.7 µm] and whose gm/ID lies within 3..30 /V (the README's allowed space) has VGS ≥ v_mid.
+    const kit = kits.demo180;
+    const lengths = Array.from(kit.lengths('tt', 'n'));
+    let lowest = Infinity;
+    for (const l of lengths) {
+      const slice = kit.slice('tt', 'n', l);
+      for (let vgs = 0.2; vgs <= 1.8; vgs += 0.0005) {
+        const [jd, gm] = slice.small(vgs, vgs, 0);
+        if (!(jd > 0)) continue;
+        const w = 217e-6 / jd;
+        const gmid = gm / jd;
+        if (w >= lengths[0] && w <= 2.7e-6 && gmid >= 3 && gmid <= 30) lowest = Math.min(lowest, vgs);
+      }
+    }
+    expect(Number.isFinite(lowest)).toBe(true);
+    expect(lowest).toBeGreaterThanOrEqual(vmid);
+    // The lowest VGS the verdict quotes is the table's, within the 0.5 mV scan step.
+    expect(Math.abs(b.at! - b.achieved! - lowest)).toBeLessThan(1e-3);
+    // The exhaustive reference (tests/helpers/exhaustive.ts) finds no design in the allowed space at all.
+    const spec = parseSpec(yaml, 'spec.yaml').stacks[0];
+    const ref = exhaustive(spec, kit, 'cascode-stacked', 'tt', { gmidStep: 3, vStep: 0.05 });
+    expect(ref.designs).toBe(0);
+    expect(ref.best).toBeUndefined();
+  });
+
+  it('keeps binding on the table where the top device\'s source lies beyond the tables\' VSB axis (demo090 n, gm/ID 3..4)', () => {
+    // Every allowed bottom diode leaves the top device room (VGS1 below v_mid = 0.96 V), but VGS1 is the top device's
+    // VSB and lies above the 0.6 V end of the demo090 VSB axis: the tables, not the room, are what is missing.
+    const { result, text } = size(`kit: demo090
+corner: tt
+supply: 1.2
+stacks:
+  - {name: deep, device: n, topology: cascode-stacked, current: 100u, rout: 100k, headroom: 0.72, span: 1.2, objective: area, gmid: {min: 3, max: 4}}
+`);
+    const s = result.stacks[0];
+    expect(s.feasible).toBe(false);
+    expect(s.binding?.target).toBe('table');
+    expect(text).toContain(verdictText(s.binding!));
+    // Hand check on the table: the lowest diode VGS at gm/ID ≤ 4 /V is above the VSB axis's end but below v_mid.
+    const kit = kits.demo090;
+    let lowest = Infinity;
+    for (const l of Array.from(kit.lengths('tt', 'n'))) {
+      const slice = kit.slice('tt', 'n', l);
+      for (let vgs = 0.2; vgs <= 1.2; vgs += 0.0005) {
+        const [jd, gm] = slice.small(vgs, vgs, 0);
+        if (jd > 0 && gm / jd >= 3 && gm / jd <= 4) lowest = Math.min(lowest, vgs);
+      }
+    }
+    expect(lowest).toBeGreaterThan(kit.slice('tt', 'n', kit.lengths('tt', 'n')[0]).range.vsb[1]);
+    expect(lowest).toBeLessThan(0.96);
   });
 });

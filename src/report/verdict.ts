@@ -36,7 +36,7 @@ export function verdictText(v: Verdict): string {
     case 'saturation': {
       // The top device's verdict is the stacked bias's: no allowed bottom diode leaves it room (got: the most VDS any does).
       if (v.device === 'top' && got !== null && at !== null) {
-        return `saturation: no room for the top device at mid-span: every bottom diode within the width limits and the gm/ID range has VGS ≥ ${volts(at - got)}, leaving the top VDS ≤ ${formatEng(got, 'V')}${where}`;
+        return `saturation: no room for the top device: every bottom diode within the width limits and gm/ID range has VGS ≥ ${volts(at - got)}, leaving it VDS ≤ ${formatEng(got, 'V')} at mid-span ${volts(at)}`;
       }
       if (v.device === null || got === null) {
         return `saturation: no lower device stays saturated${need === null ? '' : ` (VDSsat ≥ ${formatEng(need, 'V')} each)`}${at === null ? '' : ` below the ${volts(at)} headroom target`}`;
