@@ -314,22 +314,26 @@ stages:
 
 describe('a stacked cascode with no room for its top device', () => {
   // Stacked diode bias (common practice): the bottom output device's VDS is its diode's VGS1, so at mid-span the top
-  // device has v_mid − VGS1 of VDS and needs it positive to conduct in saturation at all. 217 µA through an n device
-  // at most 2.7 µm wide needs a current density reached only at a high VGS.
-  const yaml = `kit: demo180
+  // device has v_mid − VGS1 of VDS and needs it positive to conduct in saturation at all. Both specs come from a
+  // random-spec scan (seed 4242): a current too high for the width limit except at a high VGS.
+  const cases = [
+    { kit: 'demo180' as const, supply: 1.8, device: 'n' as const, current: 217e-6, headroom: 0.261, span: 1.213, wmax: 2.7e-6, line: 'current: 217u, rout: 13.1meg, headroom: 0.261, span: 1.213, objective: area, wmax: 2.7u' },
+    { kit: 'demo090' as const, supply: 1.2, device: 'p' as const, current: 577e-6, headroom: 0.153, span: 0.649, wmax: 7.5e-6, line: 'current: 577u, rout: 735k, headroom: 0.153, span: 0.649, objective: rout, wmax: 7.5u' },
+  ];
+  it.each(cases)('binds on the top device\'s saturation with the same figures in JSON, text, brief and HTML, true against the tables by hand and the exhaustive reference ($kit $device, $current A, wmax $wmax m)', (c) => {
+    const yaml = `kit: ${c.kit}
 corner: tt
-supply: 1.8
+supply: ${c.supply}
 stacks:
-  - {name: tight, device: n, topology: cascode-stacked, current: 217u, rout: 13.1meg, headroom: 0.261, span: 1.213, objective: area, wmax: 2.7u}
+  - {name: tight, device: ${c.device}, topology: cascode-stacked, ${c.line}}
 `;
-  it('binds on the top device\'s saturation with the same figures in JSON, text, brief and HTML, true against the tables by hand and the exhaustive reference (demo180 n, 217 µA, wmax 2.7 µm)', () => {
     const { result, text, brief, html } = size(yaml);
     const s = result.stacks[0];
     expect(s.feasible).toBe(false);
     const b = s.binding!;
     expect(b.target).toBe('saturation');
     expect(b.device).toBe('top');
-    const vmid = (0.261 + 1.213) / 2;
+    const vmid = (c.headroom + c.span) / 2;
     expect(b.at).toBeCloseTo(vmid, 12);
     expect(b.achieved!).toBeLessThanOrEqual(0);
     const line = verdictText(b);
@@ -348,19 +352,20 @@ stacks:
     }
     expect(JSON.stringify(result)).not.toMatch(/NaN|Infinity/);
 
-    // Hand check on the table: every diode (VDS = VGS, VSB = 0) of every table length whose width I/jd lies within
-    // [shortest length, 2.7 µm] and whose gm/ID lies within 3..30 /V (the README's allowed space) has VGS ≥ v_mid.
-    const kit = kits.demo180;
-    const lengths = Array.from(kit.lengths('tt', 'n'));
+    // Hand check on the table: every diode (VDS = VGS, VSB = 0, magnitudes) of every table length whose width I/jd
+    // lies within [shortest length, wmax] and whose gm/ID lies within 3..30 /V (the README's allowed space) has
+    // VGS ≥ v_mid.
+    const kit = kits[c.kit];
+    const lengths = Array.from(kit.lengths('tt', c.device));
     let lowest = Infinity;
     for (const l of lengths) {
-      const slice = kit.slice('tt', 'n', l);
-      for (let vgs = 0.2; vgs <= 1.8; vgs += 0.0005) {
-        const [jd, gm] = slice.small(vgs, vgs, 0);
+      const slice = kit.slice('tt', c.device, l);
+      for (let v = 0.2; v <= c.supply; v += 0.0005) {
+        const [jd, gm] = slice.small(v, v, 0);
         if (!(jd > 0)) continue;
-        const w = 217e-6 / jd;
+        const w = c.current / jd;
         const gmid = gm / jd;
-        if (w >= lengths[0] && w <= 2.7e-6 && gmid >= 3 && gmid <= 30) lowest = Math.min(lowest, vgs);
+        if (w >= lengths[0] && w <= c.wmax && gmid >= 3 && gmid <= 30) lowest = Math.min(lowest, v);
       }
     }
     expect(Number.isFinite(lowest)).toBe(true);
