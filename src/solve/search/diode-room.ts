@@ -4,7 +4,7 @@ import type { LengthSlice } from '../../device/types.js';
 import type { SolveContext } from '../context.js';
 import { candidateWidths } from '../evaluate/evaluate.js';
 import { candidateKey, type Candidate } from './candidate.js';
-import { toWidthLimit } from './line-probes.js';
+import { toWidthLimit } from './width-edge.js';
 
 // Bisection steps of the bottom diode's width edge over one gm/ID grid step (far below the candidate key's 1e-4 /V).
 const EDGE_STEPS = 16;

@@ -1,7 +1,6 @@
 import type { SolveContext } from '../context.js';
-import { candidateWidths } from '../evaluate/evaluate.js';
 import type { Candidate } from './candidate.js';
-import { anyWider } from './width-edge.js';
+import { toWidthLimit } from './width-edge.js';
 
 // Setpoint spacing of the probes, V: finer than the ridges seen in Rout at a headroom target where no device is
 // saturated (a few tens of mV wide), coarse enough to stay a few dozen probes per setpoint.
@@ -9,8 +8,6 @@ const PROBE_VSTEP = 0.05;
 // Lowest setpoint (as the climb's moves) and the room the top device keeps at mid-span, V.
 const SETPOINT_MIN = 0.02;
 const TOP_ROOM = 0.02;
-// Bisection steps of a probe's width edge over the whole gm/ID range (a few 1e-4 /V on the default range).
-const EDGE_STEPS = 16;
 
 /**
  * Long moves from a design: each coordinate alone over its whole allowed range (each length over the allowed lengths,
@@ -82,42 +79,3 @@ export function lineProbes(ctx: SolveContext, c: Candidate): Candidate[] {
   return out;
 }
 
-/**
- * A probe with every output device wider than the limit (or not realisable) pulled back, device by device from the
- * bottom, to the highest gm/ID at which it fits (W = I/jd rises with gm/ID at a fixed bias), searched over the whole
- * range below its own; null when a device fits at no allowed gm/ID.
- */
-export function toWidthLimit(ctx: SolveContext, c: Candidate): Candidate | null {
-  const w0 = candidateWidths(ctx, c);
-  if (w0 && !anyWider(w0, ctx.wmax)) return c;
-  const d: Candidate = { topology: c.topology, l: c.l, gmid: [...c.gmid], setpoints: c.setpoints };
-  const fits = (k: number, g: number): boolean => {
-    d.gmid[k] = g;
-    const w = candidateWidths(ctx, d);
-    return w !== null && w[k] <= ctx.wmax;
-  };
-  for (let k = 0; k < c.gmid.length; k++) {
-    const g = c.gmid[k];
-    if (fits(k, g)) continue;
-    // The highest grid gm/ID below that fits (scanned down: the lowest ones may not be realisable at all, e.g. a
-    // bottom diode's VGS leaving the device above no room), then the edge between it and the next one up.
-    let hi = g;
-    let lo = NaN;
-    for (let j = ctx.gmids.length - 1; j >= 0; j--) {
-      if (!(ctx.gmids[j] < hi)) continue;
-      if (fits(k, ctx.gmids[j])) {
-        lo = ctx.gmids[j];
-        break;
-      }
-      hi = ctx.gmids[j];
-    }
-    if (Number.isNaN(lo)) return null;
-    for (let it = 0; it < EDGE_STEPS; it++) {
-      const m = 0.5 * (lo + hi);
-      if (fits(k, m)) lo = m;
-      else hi = m;
-    }
-    d.gmid[k] = lo;
-  }
-  return d;
-}

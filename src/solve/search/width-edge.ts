@@ -14,6 +14,20 @@ const EDGE_STEPS = 16;
  * itself when it fits, or when it does not fit one gm/ID grid step lower either.
  */
 export function atWidthEdge(ctx: SolveContext, c: Candidate): Candidate {
+  return pullToWidth(ctx, c, false) ?? c;
+}
+
+/**
+ * A probe with every output device wider than the limit (or not realisable) pulled back, device by device from the
+ * bottom, to the highest gm/ID at which it fits, searched over the whole range below its own; null when a device
+ * fits at no allowed gm/ID.
+ */
+export function toWidthLimit(ctx: SolveContext, c: Candidate): Candidate | null {
+  return pullToWidth(ctx, c, true);
+}
+
+/** The two above: the fitting gm/ID looked for one grid step below (`whole` false) or over the whole range below. */
+function pullToWidth(ctx: SolveContext, c: Candidate, whole: boolean): Candidate | null {
   const w0 = candidateWidths(ctx, c);
   if (w0 && !anyWider(w0, ctx.wmax)) return c;
   const d: Candidate = { topology: c.topology, l: c.l, gmid: [...c.gmid], setpoints: c.setpoints };
@@ -27,10 +41,25 @@ export function atWidthEdge(ctx: SolveContext, c: Candidate): Candidate {
   for (let k = 0; k < c.gmid.length; k++) {
     const g = c.gmid[k];
     if (fits(k, g)) continue;
-    // The edge is looked for within one grid step below (where the climb's moves land).
-    let lo = Math.max(ctx.gmids[0], g - ctx.gmidStep);
-    if (!fits(k, lo)) return c;
     let hi = g;
+    let lo = NaN;
+    if (!whole) {
+      // Within one grid step below (where the climb's moves land).
+      const below = Math.max(ctx.gmids[0], g - ctx.gmidStep);
+      if (fits(k, below)) lo = below;
+    } else {
+      // The highest grid gm/ID below that fits (scanned down: the lowest ones may not be realisable at all, e.g. a
+      // bottom diode's VGS leaving the device above no room), then the edge between it and the next one up.
+      for (let j = ctx.gmids.length - 1; j >= 0; j--) {
+        if (!(ctx.gmids[j] < hi)) continue;
+        if (fits(k, ctx.gmids[j])) {
+          lo = ctx.gmids[j];
+          break;
+        }
+        hi = ctx.gmids[j];
+      }
+    }
+    if (Number.isNaN(lo)) return null;
     for (let it = 0; it < EDGE_STEPS; it++) {
       const m = 0.5 * (lo + hi);
       if (fits(k, m)) lo = m;
