@@ -3,8 +3,10 @@ import type { SolveContext } from '../context.js';
 import { candidateKey, type Candidate } from './candidate.js';
 import { toWidthLimit } from './line-probes.js';
 
-// Setpoint spacing of the fallback's grid, V, its lowest setpoint, and the room the top device keeps at mid-span.
+// Setpoint spacing of the fallback's grid, V (widened in 25 mV steps to keep at most LEVELS setpoints per device, so
+// a high mid-span stays a few thousand candidates), its lowest setpoint, and the room the top device keeps at mid-span.
 const STEP = 0.05;
+const LEVELS = 12;
 const LOWEST = 0.05;
 const TOP_ROOM = 0.05;
 
@@ -19,7 +21,7 @@ function someLengths(lengths: readonly number[]): number[] {
  * empty: the screen keeps the setpoints' sum 50 mV under a cap of mid-span − 0.15 V and looks at every other grid
  * gm/ID, so at a high current (or a tight width limit) every grid device can be too wide or out of saturation while
  * devices between grid points at the width limit, with setpoints up to mid-span, still make usable designs. Every
- * pair of setpoints on a STEP grid leaving the top TOP_ROOM at mid-span, a few lengths per device, and each device at
+ * pair of setpoints on a coarse grid leaving the top TOP_ROOM at mid-span, a few lengths per device, and each device at
  * every grid gm/ID pulled back to the width limit (toWidthLimit); the climbs start from these. Empty for other
  * topologies (the stacked cascode has diodeRoomCandidates).
  */
@@ -31,8 +33,9 @@ export function setpointRoomCandidates(ctx: SolveContext, topology: string): Can
   const out: Candidate[] = [];
   const seen = new Set<string>();
   const room = ctx.vmid - TOP_ROOM;
-  for (let s1 = LOWEST; s1 + LOWEST <= room + 1e-9; s1 += STEP) {
-    for (let s2 = LOWEST; s1 + s2 <= room + 1e-9; s2 += STEP) {
+  const step = Math.max(STEP, Math.ceil((room - 2 * LOWEST) / (LEVELS - 1) / 0.025 - 1e-9) * 0.025);
+  for (let s1 = LOWEST; s1 + LOWEST <= room + 1e-9; s1 += step) {
+    for (let s2 = LOWEST; s1 + s2 <= room + 1e-9; s2 += step) {
       const setpoints = [Math.round(s1 * 1e6) / 1e6, Math.round(s2 * 1e6) / 1e6];
       for (const l1 of ls) for (const l2 of ls) for (const l3 of ls) {
         for (const g of gs) {
