@@ -4,9 +4,10 @@ import { candidateKey, type Candidate } from './candidate.js';
 import { toWidthLimit } from './line-probes.js';
 
 // Setpoint spacing of the fallback's grid, V (widened in 25 mV steps to keep at most LEVELS setpoints per device, so
-// a high mid-span stays a few thousand candidates), its lowest setpoint, and the room the top device keeps at mid-span.
-const STEP = 0.05;
-const LEVELS = 12;
+// a high mid-span stays a few thousand candidates; at 50 mV the climbs from it missed a Rout ridge the reference finds
+// 17 % higher), its lowest setpoint, and the room the top device keeps at mid-span.
+const STEP = 0.025;
+const LEVELS = 16;
 const LOWEST = 0.05;
 const TOP_ROOM = 0.05;
 
