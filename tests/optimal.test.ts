@@ -296,6 +296,51 @@ const INFEASIBLE: Case[] = [
     id: 'p-reed-stacked-nearest-little-room', kit: 'reed180', why: 'nearest points when every diode leaves the top device under 50 mV',
     spec: { device: 'p', topology: 'cascode-stacked', current: 12.6e-6, rout: 88.1e6, headroom: 0.17, span: 0.954, objective: 'headroom', gmid: { min: 8, max: 20 } },
   },
+  // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): the triple's screen keeps the
+  // setpoints' sum 50 mV under mid-span − 0.15 V and looks at every other grid gm/ID, so at a high current or a tight
+  // width limit every device it looks at is too wide or out of saturation and it proposed nothing; the tool then
+  // reported no headroom at the Rout target, or 0 Ω at the headroom target, although the allowed space holds designs
+  // (setpoints up to mid-span, devices on the width limit between grid points).
+  {
+    // 1.36 mA p-type at mid-span 0.495 V: the reference reaches 890 Ω at the headroom target with setpoints
+    // 0.15 / 0.25 V and all three devices on the default width limit (576 µm).
+    id: 'p090-triple-nearest-empty-screen-high-current', kit: 'demo090', why: 'nearest points when the screen proposes nothing at a high current',
+    spec: { device: 'p', topology: 'triple', current: 1.36e-3, rout: 19.2e6, headroom: 0.181, span: 0.808, objective: 'rout', l: { min: 0.09e-6, max: 0.12e-6 }, gmid: { min: 6, max: 22 } },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
+    // 70.9 µA p-type with a 43 mV headroom target: the reference reaches 1.91 kΩ there.
+    id: 'p090-triple-nearest-empty-screen-low-headroom', kit: 'demo090', why: 'nearest points when the screen proposes nothing at a 43 mV headroom target',
+    spec: { device: 'p', topology: 'triple', current: 70.9e-6, rout: 862e6, headroom: 0.043, span: 0.78, objective: 'rout', l: { min: 0.16e-6, max: 0.22e-6 }, gmid: { min: 6, max: 22 } },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
+    // 47.4 µA n-type under an 11 µm width limit: the reference meets the Rout target from 0.625 V (0.652 V on the
+    // coarser 0.1 V setpoint grid, which the tool beats).
+    id: 'n180-triple-nearest-empty-screen-narrow', kit: 'demo180', why: 'nearest points when the screen proposes nothing under an 11 µm width limit',
+    spec: { device: 'n', topology: 'triple', current: 47.4e-6, rout: 196e6, headroom: 0.268, span: 0.967, objective: 'area', wmax: 11e-6, l: { min: 0.5e-6, max: 0.7e-6 }, gmid: { min: 6, max: 22 } },
+    grid: { gmidStep: 3, vStep: 0.05 },
+  },
+  {
+    // 67.3 µA p-type under a 16 µm width limit: the reference meets the Rout target from 0.623 V (0.629 V on the
+    // coarser 0.1 V setpoint grid, which the tool beats).
+    id: 'p-reed-triple-nearest-empty-screen-narrow', kit: 'reed180', why: 'nearest points when the screen proposes nothing under a 16 µm width limit',
+    spec: { device: 'p', topology: 'triple', current: 67.3e-6, rout: 4.56e6, headroom: 0.103, span: 1.094, objective: 'headroom', wmax: 16e-6, l: { min: 0.18e-6, max: 0.3e-6 }, gmid: { min: 6, max: 22 } },
+    grid: { gmidStep: 3, vStep: 0.05 },
+  },
+  {
+    // 157 µA n-type under a 6.7 µm width limit: the reference meets the Rout target from 0.943 V.
+    id: 'n-reed-triple-nearest-empty-screen-narrow', kit: 'reed180', why: 'nearest points when the screen proposes nothing under a 6.7 µm width limit',
+    spec: { device: 'n', topology: 'triple', current: 157e-6, rout: 3.17e6, headroom: 0.21, span: 1.007, objective: 'headroom', wmax: 6.7e-6, l: { min: 0.18e-6, max: 0.3e-6 }, gmid: { min: 6, max: 22 } },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
+    // 87.4 µA p-type with gm/ID 8..20 /V: the tool reached 1.87 kΩ at the headroom target where the reference
+    // reaches 2.38 kΩ.
+    id: 'p-reed-triple-nearest-empty-screen-gmid-range', kit: 'reed180', why: 'highest Rout at the headroom target when the screen proposes nothing',
+    spec: { device: 'p', topology: 'triple', current: 87.4e-6, rout: 143e6, headroom: 0.061, span: 1.068, objective: 'headroom', gmid: { min: 8, max: 20 }, l: { min: 0.18e-6, max: 0.3e-6 } },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
 ];
 
 describe('explanations of infeasible specs are true (exhaustive reference search)', () => {

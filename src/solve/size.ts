@@ -20,6 +20,7 @@ import { paretoFront, type FrontPoint } from './pareto.js';
 import { verdict, type Verdict } from './evaluate/verdict.js';
 import { sizeStages } from './stage-size.js';
 import { bottomRoom, diodeRoomCandidates } from './search/diode-room.js';
+import { setpointRoomCandidates } from './search/setpoint-room.js';
 import type { StageFrontPoint } from './stage-types.js';
 
 export interface SizeStackResult {
@@ -117,7 +118,7 @@ function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool:
   // An empty screen says nothing about the allowed space: a stacked bias's diodes with less room than the screen
   // leaves, or between its grid points at the width limit, may still make designs (only runs when it is empty).
   if (screened.length === 0) {
-    for (const c of diodeRoomCandidates(ctx, topology)) {
+    for (const c of [...diodeRoomCandidates(ctx, topology), ...setpointRoomCandidates(ctx, topology)]) {
       const e = evaluateOnce(ctx, c, seen);
       if (e) pool.push(e);
     }
