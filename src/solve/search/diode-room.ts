@@ -3,8 +3,8 @@ import { vgsForGmid } from '../../stack/index.js';
 import type { LengthSlice } from '../../device/types.js';
 import type { SolveContext } from '../context.js';
 import { candidateWidths } from '../evaluate/evaluate.js';
-import { candidateKey, type Candidate } from './candidate.js';
-import { toWidthLimit } from './width-edge.js';
+import type { Candidate } from './candidate.js';
+import { pulledToLimit } from './width-edge.js';
 
 // Bisection steps of the bottom diode's width edge over one gm/ID grid step (far below the candidate key's 1e-4 /V).
 const EDGE_STEPS = 16;
@@ -81,24 +81,19 @@ export function bottomRoom(ctx: SolveContext, topology: string): number | null {
 export function diodeRoomCandidates(ctx: SolveContext, topology: string): Candidate[] {
   const shape = topologyOf(topology);
   if (!shape.bottomDiode || shape.setpoints !== 0 || shape.roles.length !== 2) return [];
-  const out: Candidate[] = [];
-  const seen = new Set<string>();
+  return pulledToLimit(ctx, diodeRoomRaw(ctx, topology));
+}
+
+function* diodeRoomRaw(ctx: SolveContext, topology: string): Generator<Candidate> {
   for (const l1 of ctx.lengths) {
     for (const g1 of roomyBottoms(ctx, ctx.slice(ctx.nominal, l1))) {
       for (const l2 of ctx.lengths) {
         for (const g2 of ctx.gmids) {
           const c: Candidate = { topology, l: [l1, l2], gmid: [g1, g2], setpoints: [] };
           // A top the table cannot realise at this bias is left out (pulling it would move the bottom).
-          if (candidateWidths(ctx, c) === null) continue;
-          const d = toWidthLimit(ctx, c);
-          if (!d) continue;
-          const k = candidateKey(d);
-          if (seen.has(k)) continue;
-          seen.add(k);
-          out.push(d);
+          if (candidateWidths(ctx, c) !== null) yield c;
         }
       }
     }
   }
-  return out;
 }

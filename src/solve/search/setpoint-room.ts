@@ -1,7 +1,7 @@
 import { topologyOf } from '../../topology/index.js';
 import type { SolveContext } from '../context.js';
-import { candidateKey, type Candidate } from './candidate.js';
-import { toWidthLimit } from './width-edge.js';
+import type { Candidate } from './candidate.js';
+import { pulledToLimit } from './width-edge.js';
 
 // Setpoint spacing of the fallback's grid, V (widened in 25 mV steps to keep at most LEVELS setpoints per device, so
 // a high mid-span stays a few thousand candidates; at 50 mV the climbs from it missed a Rout ridge the reference finds
@@ -29,26 +29,20 @@ function someLengths(lengths: readonly number[]): number[] {
 export function setpointRoomCandidates(ctx: SolveContext, topology: string): Candidate[] {
   const shape = topologyOf(topology);
   if (shape.bottomDiode || shape.setpoints !== 2 || shape.roles.length !== 3) return [];
+  return pulledToLimit(ctx, setpointRoomRaw(ctx, topology));
+}
+
+function* setpointRoomRaw(ctx: SolveContext, topology: string): Generator<Candidate> {
   const ls = someLengths(ctx.lengths);
   const gs = ctx.gmids.filter((_, j) => j % 2 === 1 || j === ctx.gmids.length - 1);
-  const out: Candidate[] = [];
-  const seen = new Set<string>();
   const room = ctx.vmid - TOP_ROOM;
   const step = Math.max(STEP, Math.ceil((room - 2 * LOWEST) / (LEVELS - 1) / 0.025 - 1e-9) * 0.025);
   for (let s1 = LOWEST; s1 + LOWEST <= room + 1e-9; s1 += step) {
     for (let s2 = LOWEST; s1 + s2 <= room + 1e-9; s2 += step) {
       const setpoints = [Math.round(s1 * 1e6) / 1e6, Math.round(s2 * 1e6) / 1e6];
       for (const l1 of ls) for (const l2 of ls) for (const l3 of ls) {
-        for (const g of gs) {
-          const d = toWidthLimit(ctx, { topology, l: [l1, l2, l3], gmid: [g, g, g], setpoints });
-          if (!d) continue;
-          const k = candidateKey(d);
-          if (seen.has(k)) continue;
-          seen.add(k);
-          out.push(d);
-        }
+        for (const g of gs) yield { topology, l: [l1, l2, l3], gmid: [g, g, g], setpoints };
       }
     }
   }
-  return out;
 }

@@ -1,6 +1,6 @@
 import type { SolveContext } from '../context.js';
 import { candidateWidths } from '../evaluate/evaluate.js';
-import type { Candidate } from './candidate.js';
+import { candidateKey, type Candidate } from './candidate.js';
 
 // Bisection steps per device: the gm/ID range over 2^16 is below the candidate key's 1e-4 /V resolution on any
 // range up to 6 /V, and within a few 1e-4 /V on the default range.
@@ -74,4 +74,19 @@ function pullToWidth(ctx: SolveContext, c: Candidate, whole: boolean): Candidate
 export function anyWider(w: ArrayLike<number>, wmax: number): boolean {
   for (let k = 0; k < w.length; k++) if (w[k] > wmax) return true;
   return false;
+}
+
+/** Each candidate pulled back to the width limit (toWidthLimit), once per distinct result; one that fits nowhere is dropped. */
+export function pulledToLimit(ctx: SolveContext, cands: Iterable<Candidate>): Candidate[] {
+  const out: Candidate[] = [];
+  const seen = new Set<string>();
+  for (const c of cands) {
+    const d = toWidthLimit(ctx, c);
+    if (!d) continue;
+    const k = candidateKey(d);
+    if (seen.has(k)) continue;
+    seen.add(k);
+    out.push(d);
+  }
+  return out;
 }
