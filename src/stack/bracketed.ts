@@ -2,6 +2,7 @@ import type { DeviceBias, StackDevice, StackOp } from './types.js';
 import { emptyBias, evalDevice } from './evaluate-device.js';
 import { covers, outsideSlice } from './range.js';
 import { StackwrightError } from '../errors.js';
+import { fallingNewton, type FallingSloped } from '../numeric/safe-newton.js';
 
 /** Outcome of stacking devices for a trial current: the voltage needed, or which way the current is off. */
 type Trial = { kind: 'ok'; total: number } | { kind: 'high' | 'low'; at: number };
@@ -14,6 +15,23 @@ const b = emptyBias();
  * cannot flow within `budget`; 'low': the gate drive is above the table, so the
  * trial current is below the solution.
  */
+/** The current asked for over what a device carries at a fixed gate and source, as its VDS rises (falls). */
+class VdsShortfall implements FallingSloped {
+  d: StackDevice = null as unknown as StackDevice;
+  vgs = 0;
+  vsb = 0;
+  i = 0;
+  slope = 0;
+  at(vds: number): number {
+    const d = this.d;
+    (d.slice.jdSlopes as NonNullable<StackDevice['slice']['jdSlopes']>)(this.vgs, vds, this.vsb, s4);
+    this.slope = -d.w * s4[2];
+    return this.i - d.w * s4[0];
+  }
+}
+const shortfall = new VdsShortfall();
+const s4 = new Float64Array(4);
+
 function vdsFor(d: StackDevice, vgs: number, vsb: number, i: number, budget: number): number | 'high' | 'low' {
   const r = d.slice.range;
   if (vsb > r.vsb[1] || vgs < r.vgs[0]) return 'high';
@@ -22,8 +40,22 @@ function vdsFor(d: StackDevice, vgs: number, vsb: number, i: number, budget: num
   let hi = Math.min(r.vds[1], budget);
   if (hi < lo) return 'high';
   const f = (vds: number) => d.w * d.slice.jd(vgs, vds, vsb);
-  if (!covers(d.slice, vgs, hi, vsb) || f(hi) < i) return 'high';
-  if (f(lo) > i) return 'low';
+  if (!covers(d.slice, vgs, hi, vsb)) return 'high';
+  const fHi = f(hi);
+  if (fHi < i) return 'high';
+  const fLo = f(lo);
+  if (fLo > i) return 'low';
+  if (d.slice.jdSlopes) {
+    // At a fixed gate and source jd is linear in VDS within a table cell (bilinear interpolation there), so Newton
+    // from the secant between the ends takes a few lookups where bisection to 1e-13 V takes about forty.
+    const g = shortfall;
+    g.d = d;
+    g.vgs = vgs;
+    g.vsb = vsb;
+    g.i = i;
+    const x = fHi > fLo ? fallingNewton(g, lo, hi, 1e-13, lo + ((hi - lo) * (i - fLo)) / (fHi - fLo)) : NaN;
+    if (!Number.isNaN(x)) return x;
+  }
   for (let it = 0; it < 60 && hi - lo > 1e-13; it++) {
     const mid = 0.5 * (lo + hi);
     if (f(mid) < i) lo = mid;
