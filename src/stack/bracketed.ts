@@ -2,35 +2,24 @@ import type { DeviceBias, StackDevice, StackOp } from './types.js';
 import { emptyBias, evalDevice } from './evaluate-device.js';
 import { covers, outsideSlice } from './range.js';
 import { StackwrightError } from '../errors.js';
-import { fallingNewton, type FallingSloped } from '../numeric/safe-newton.js';
+import { fallingNewton } from '../numeric/safe-newton.js';
+import { CurrentLine } from './current-line.js';
 
 /** Outcome of stacking devices for a trial current: the voltage needed, or which way the current is off. */
 type Trial = { kind: 'ok'; total: number } | { kind: 'high' | 'low'; at: number };
 
 const b = emptyBias();
 
+// The current asked for over the device's, as its VDS rises at a fixed gate and source, as a difference.
+const shortfall = new CurrentLine();
+
 /**
- * Drain voltage that lets device `d` carry `i` at the given gate and source,
- * found by bisection (jd rises monotonically with VDS). 'high': the current
+ * Drain voltage that lets device `d` carry `i` at the given gate and source
+ * (jd rises monotonically with VDS): Newton from the secant between the ends
+ * where the slice has exact slopes, else (or should Newton fail) bisection. 'high': the current
  * cannot flow within `budget`; 'low': the gate drive is above the table, so the
  * trial current is below the solution.
  */
-/** The current asked for over what a device carries at a fixed gate and source, as its VDS rises (falls). */
-class VdsShortfall implements FallingSloped {
-  d: StackDevice = null as unknown as StackDevice;
-  vgs = 0;
-  vsb = 0;
-  i = 0;
-  slope = 0;
-  at(vds: number): number {
-    const d = this.d;
-    (d.slice.jdSlopes as NonNullable<StackDevice['slice']['jdSlopes']>)(this.vgs, vds, this.vsb, s4);
-    this.slope = -d.w * s4[2];
-    return this.i - d.w * s4[0];
-  }
-}
-const shortfall = new VdsShortfall();
-const s4 = new Float64Array(4);
 
 function vdsFor(d: StackDevice, vgs: number, vsb: number, i: number, budget: number): number | 'high' | 'low' {
   const r = d.slice.range;
@@ -48,11 +37,7 @@ function vdsFor(d: StackDevice, vgs: number, vsb: number, i: number, budget: num
   if (d.slice.jdSlopes) {
     // At a fixed gate and source jd is linear in VDS within a table cell (bilinear interpolation there), so Newton
     // from the secant between the ends takes a few lookups where bisection to 1e-13 V takes about forty.
-    const g = shortfall;
-    g.d = d;
-    g.vgs = vgs;
-    g.vsb = vsb;
-    g.i = i;
+    const g = shortfall.of(d.slice, d.w, i, false, false).along(vgs, 0, vsb, 0, 1, 0);
     const x = fHi > fLo ? fallingNewton(g, lo, hi, 1e-13, lo + ((hi - lo) * (i - fLo)) / (fHi - fLo)) : NaN;
     if (!Number.isNaN(x)) return x;
   }

@@ -1,6 +1,7 @@
 import type { LengthSlice } from '../device/types.js';
 import { fallingRoot, type Falling } from '../numeric/illinois.js';
-import { fallingNewton, type FallingSloped } from '../numeric/safe-newton.js';
+import { fallingNewton } from '../numeric/safe-newton.js';
+import { CurrentLine } from './current-line.js';
 import { covers, within } from './range.js';
 
 const s4 = new Float64Array(4);
@@ -127,31 +128,8 @@ function searchVgsForGmid(slice: LengthSlice, target: number, mode: VdsMode, vsb
   return fallingRoot(f, a, b, 1e-9, Math.log(scan[j] / target), Math.log(scan[j + 1] / target));
 }
 
-/** log(i / (w·jd)) along VGS (VDS fixed or = VGS for a diode), with its slope from one lookup: falling as VGS rises. */
-class CurrentShortfall implements FallingSloped {
-  slice: LengthSlice = null as unknown as LengthSlice;
-  w = 0;
-  i = 0;
-  mode: VdsMode = 0;
-  vsb = 0;
-  slope = 0;
-  at(vgs: number): number {
-    const s = this.slice;
-    const vds = vdsOf(this.mode, vgs);
-    let j: number;
-    if (s.jdSlopes) {
-      s.jdSlopes(vgs, vds, this.vsb, s4);
-      j = s4[0];
-      // A diode's VDS moves with its VGS.
-      this.slope = -(s4[1] + (this.mode === 'diode' ? s4[2] : 0)) / j;
-    } else {
-      j = s.jd(vgs, vds, this.vsb);
-      this.slope = NaN;
-    }
-    return this.w * j > 0 ? Math.log(this.i / (this.w * j)) : Infinity;
-  }
-}
-const shortfall = new CurrentShortfall();
+// The current asked for over the device's, as its VGS rises (VDS fixed, or rising with it for a diode), as a log.
+const shortfall = new CurrentLine();
 
 /**
  * VGS at which w·jd(vgs, vds, vsb) = i, jd rising with VGS (also for a diode,
@@ -163,12 +141,7 @@ const shortfall = new CurrentShortfall();
 export function vgsForCurrent(slice: LengthSlice, w: number, i: number, mode: VdsMode, vsb: number): number | null {
   const win = vgsWindow(slice, mode, vsb);
   if (!win) return null;
-  const f = shortfall;
-  f.slice = slice;
-  f.w = w;
-  f.i = i;
-  f.mode = mode;
-  f.vsb = vsb;
+  const f = shortfall.of(slice, w, i, false, true).along(0, mode === 'diode' ? 0 : mode, vsb, 1, mode === 'diode' ? 1 : 0, 0);
   const fa = f.at(win[0]);
   const fb = f.at(win[1]);
   // The window's ends bracket the current (or it is out of reach); an end that carries exactly i is the answer.

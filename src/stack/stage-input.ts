@@ -1,6 +1,7 @@
 import type { DeviceBias, StackDevice } from './types.js';
 import { fallingRoot } from '../numeric/illinois.js';
 import { fallingNewton, type FallingSloped } from '../numeric/safe-newton.js';
+import { CurrentLine } from './current-line.js';
 import { covers } from './range.js';
 import { vgsWindow } from './invert.js';
 import { emptyBias, evalDevice } from './evaluate-device.js';
@@ -26,55 +27,10 @@ export interface InputGuess {
 /** First half-width of the bracket tried around a guess, V; widened ×4 until it holds the root. */
 const GUESS_SPAN = 4e-3;
 
-/** jd and its slopes from one lookup (slices with exact slopes), shared by the two functions below. */
-const slopes = new Float64Array(4);
-
-/*
- * Both functions are logs of a current ratio: the tables' jd is interpolated geometrically along VGS, so its log is
- * linear in VGS within a table cell and Newton lands on the root in a step or two, where on the current itself a
- * step from below in weak inversion overshoots. The sign is the current's: f ≥ 0 exactly when the current one is.
- */
-
-/** log of the current the cascode passes over the current asked for, as its source node x rises (NaN outside the table). */
-class CascodeExcess implements FallingSloped {
-  d: StackDevice = null as unknown as StackDevice;
-  gate = 0;
-  v = 0;
-  i = 0;
-  slope = 0;
-  at(x: number): number {
-    const d = this.d;
-    if (!covers(d.slice, this.gate - x, this.v - x, x)) return NaN;
-    if (!d.slice.jdSlopes) return logRatio(d.w * d.slice.jd(this.gate - x, this.v - x, x), this.i);
-    // x moves the source: VGS and VDS fall by dx, VSB rises by dx.
-    d.slice.jdSlopes(this.gate - x, this.v - x, x, slopes);
-    this.slope = (slopes[3] - slopes[1] - slopes[2]) / slopes[0];
-    return logRatio(d.w * slopes[0], this.i);
-  }
-}
-
-/** log of the current asked for over what the input device carries, as its VGS rises (VSB = 0). */
-class InputShortfall implements FallingSloped {
-  d: StackDevice = null as unknown as StackDevice;
-  vds = 0;
-  i = 0;
-  slope = 0;
-  at(vgs: number): number {
-    const d = this.d;
-    if (!d.slice.jdSlopes) return -logRatio(d.w * d.slice.jd(vgs, this.vds, 0), this.i);
-    d.slice.jdSlopes(vgs, this.vds, 0, slopes);
-    this.slope = -slopes[1] / slopes[0];
-    return -logRatio(d.w * slopes[0], this.i);
-  }
-}
-
-/** log(a / b) for b > 0, with a current a ≤ 0 (none) as −Infinity: below any positive current. */
-function logRatio(a: number, b: number): number {
-  return a > 0 ? Math.log(a / b) : -Infinity;
-}
-
-const cascodeExcess = new CascodeExcess();
-const inputShortfall = new InputShortfall();
+// The cascode's current over the current asked for, as its source node x rises (VGS and VDS fall by x, VSB rises by
+// x), and the current asked for over the input device's, as its VGS rises (VSB = 0); both as logs (see CurrentLine).
+const cascodeExcess = new CurrentLine();
+const inputShortfall = new CurrentLine();
 
 /**
  * Root of f in [lo, hi] with f(lo) ≥ 0 > f(hi) (one sign change: f falls
@@ -143,11 +99,7 @@ export function inputAtCurrent(devices: readonly StackDevice[], cascodeGate: num
     const lo = Math.max(0, r.vsb[0], g - r.vgs[1], v - r.vds[1]);
     const hi = Math.min(v - r.vds[0], r.vsb[1], g - r.vgs[0]);
     if (!(hi > lo)) return null;
-    const top = cascodeExcess;
-    top.d = d1;
-    top.gate = g;
-    top.v = v;
-    top.i = i;
+    const top = cascodeExcess.of(d1.slice, d1.w, i, true, true).along(g, v, 0, -1, -1, 1);
     const sloped = d1.slice.jdSlopes !== undefined;
     x1 = quickRoot(top, sloped, lo, hi, guess?.x1);
     if (Number.isNaN(x1)) {
@@ -181,10 +133,7 @@ export function guessOf(op: { nodes: readonly number[]; devices: readonly Device
 function gateForCurrent(d: StackDevice, i: number, vds: number, guess?: number): number | null {
   const win = vgsWindow(d.slice, vds, 0);
   if (!win) return null;
-  const f = inputShortfall;
-  f.d = d;
-  f.vds = vds;
-  f.i = i;
+  const f = inputShortfall.of(d.slice, d.w, i, false, true).along(0, vds, 0, 1, 0, 0);
   const sloped = d.slice.jdSlopes !== undefined;
   const quick = quickRoot(f, sloped, win[0], win[1], guess);
   if (!Number.isNaN(quick)) return quick;
