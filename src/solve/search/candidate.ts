@@ -19,3 +19,13 @@ export function candidateKey(c: Candidate): string {
   for (let k = 0; k < v.length; k++) s += (k > 0 ? ',' : '') + Math.round(v[k] * 1e4);
   return s;
 }
+
+/** Continuous coordinates of a candidate: gm/ID per device, then the setpoints (the order the climb's moves use). */
+export function coordinates(c: Candidate): number[] {
+  return [...c.gmid, ...c.setpoints];
+}
+
+/** One value per continuous coordinate of `c` (see coordinates): `gmid` for each device's gm/ID, `setpoint` for each setpoint. */
+export function perCoordinate(c: Candidate, gmid: number, setpoint: number): number[] {
+  return [...c.gmid.map(() => gmid), ...c.setpoints.map(() => setpoint)];
+}

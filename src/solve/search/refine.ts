@@ -1,6 +1,6 @@
 import { topologyOf } from '../../topology/index.js';
 import type { Candidate } from './candidate.js';
-import { candidateKey } from './candidate.js';
+import { candidateKey, perCoordinate } from './candidate.js';
 import type { SolveContext } from '../context.js';
 import { candidateWidths, evaluateCandidate, fullyOk, nominalOk, type Evaluated, type Start } from '../evaluate/evaluate.js';
 import { REL_TOL } from '../../policy.js';
@@ -178,16 +178,6 @@ const RIDGE_STEPS = 8;
 const RIDGE_VSTEP = 0.00625;
 const RIDGE_BOX = 2;
 
-function ridgeSteps(ctx: SolveContext, c: Candidate, vstep: number): number[] {
-  return [...c.gmid.map(() => ctx.gmidStep / 8), ...c.setpoints.map(() => vstep)];
-}
-function lowest(ctx: SolveContext, c: Candidate): number[] {
-  return [...c.gmid.map(() => ctx.gmids[0]), ...c.setpoints.map(() => 0.02)];
-}
-function highest(ctx: SolveContext, c: Candidate): number[] {
-  return [...c.gmid.map(() => ctx.gmids[ctx.gmids.length - 1]), ...c.setpoints.map(() => Infinity)];
-}
-
 function climb(
   ctx: SolveContext, seed: Evaluated, seen: Seen, pool: Evaluated[],
   better: (a: Evaluated, b: Evaluated) => boolean, bound: (best: Evaluated) => number, hopeless: Hopeless | undefined, ridge: boolean,
@@ -243,7 +233,11 @@ function climb(
   }
   // Stuck where several targets bind at once: steps along the ridge (search/ridge.ts), for a design meeting them.
   for (let it = 0; ridge && it < RIDGE_STEPS && nominalOk(best) && fullyOk(ctx, best); it++) {
-    const r = ridgeStep(best, ridgeSteps(ctx, best.cand, RIDGE_VSTEP), RIDGE_BOX, lowest(ctx, best.cand), highest(ctx, best.cand), evaluate, better, ctx.spec.objective);
+    const c = best.cand;
+    const h = perCoordinate(c, ctx.gmidStep / 8, RIDGE_VSTEP);
+    const lo = perCoordinate(c, ctx.gmids[0], 0.02);
+    const hi = perCoordinate(c, ctx.gmids[ctx.gmids.length - 1], Infinity);
+    const r = ridgeStep(best, h, RIDGE_BOX, lo, hi, evaluate, better, ctx.spec.objective);
     if (!r) break;
     best = r;
   }

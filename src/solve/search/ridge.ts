@@ -1,4 +1,4 @@
-import type { Candidate } from './candidate.js';
+import { coordinates, type Candidate } from './candidate.js';
 import type { SolveContext } from '../context.js';
 import { VOLT_SCALE, type Margins } from '../../policy.js';
 import type { Evaluated } from '../evaluate/evaluate.js';
@@ -87,11 +87,6 @@ function withBox(
     out.push({ a: down, b: downs[k] });
   }
   return out;
-}
-
-/** Continuous coordinates of a candidate: gm/ID per device, then the setpoints. */
-export function coordinates(c: Candidate): number[] {
-  return [...c.gmid, ...c.setpoints];
 }
 
 function withCoordinate(c: Candidate, k: number, v: number): Candidate {
