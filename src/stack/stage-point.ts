@@ -17,6 +17,12 @@ export interface StageCircuit {
   device: Polarity;
   input: { devices: StackDevice[]; cascodeGate?: number };
   load: { devices: StackDevice[]; gates: number[] };
+  /**
+   * The load's operating points by output voltage (null: not coverable), shared by every circuit with this very
+   * load: the load's stack fixes the current whatever the input side, so a climb moving the input side alone solves
+   * the load once per output voltage.
+   */
+  loadOps?: Map<number, StackOp | null>;
 }
 
 /** One point of the transfer curve. */
@@ -53,13 +59,12 @@ export function stagePoint(c: StageCircuit, vout: number, loadGuess?: StackOp, i
   const vl = sideVoltage(load, c.supply, vout);
   const vi = sideVoltage(c.device, c.supply, vout);
   if (!(vl > 0) || !(vi > 0)) return null;
-  let op: StackOp;
-  try {
-    op = solveOperatingPoint(c.load.devices, c.load.gates, vl, loadGuess ? continued(loadGuess, vl) : undefined);
-  } catch (e) {
-    if (e instanceof StackwrightError && e.kind === 'range') return null;
-    throw e;
+  let op = c.loadOps?.get(vout);
+  if (op === undefined) {
+    op = loadAt(c, vl, loadGuess);
+    c.loadOps?.set(vout, op);
   }
+  if (op === null) return null;
   const inp = inputAtCurrent(c.input.devices, c.input.cascodeGate, vi, op.i, inputGuess);
   if (!inp) return null;
   const rload = routAt(op);
@@ -76,6 +81,16 @@ export function stagePoint(c: StageCircuit, vout: number, loadGuess?: StackOp, i
     input: { nodes: inp.nodes, devices: inp.devices },
     load: op,
   };
+}
+
+/** The load's operating point at stack voltage vl; null where the table cannot cover it. */
+function loadAt(c: StageCircuit, vl: number, guess?: StackOp): StackOp | null {
+  try {
+    return solveOperatingPoint(c.load.devices, c.load.gates, vl, guess ? continued(guess, vl) : undefined);
+  } catch (e) {
+    if (e instanceof StackwrightError && e.kind === 'range') return null;
+    throw e;
+  }
 }
 
 /** r1 ∥ r2, with an infinite resistance leaving the other. */
