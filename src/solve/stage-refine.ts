@@ -1,6 +1,6 @@
 import { topologyOf } from '../topology/index.js';
 import { REL_TOL } from '../policy.js';
-import { designIndex, guessOf, outputGrid, stagePoint } from '../stack/index.js';
+import { designIndex, guessOf, outputGrid, stagePoint, type StagePoint } from '../stack/index.js';
 import { candidateKey, type Candidate } from './search/candidate.js';
 import { neighbours } from './search/refine.js';
 import { sideDesign, type Side, type SideDesign } from './stage-side.js';
@@ -79,23 +79,32 @@ function surelyMisses(sides: StageSides, input: SideDesign, load: SideDesign, ne
   const { stage } = sides;
   const v0 = stage.output;
   const c = pairCircuit(sides, input, load);
-  const p0 = rangeSafe(() => stagePoint(c, v0));
-  if (!p0 || !(p0.gain >= stage.gain)) return true;
+  // The pair's design point, solved only when a check needs it: most moves are proven by the pair of outputs at
+  // the near design's swing edge alone.
+  let p0: StagePoint | null | undefined;
+  const design = (): StagePoint | null => (p0 === undefined ? (p0 = rangeSafe(() => stagePoint(c, v0))) : p0);
+  const short = (): boolean => {
+    const p = design();
+    return !p || !(p.gain >= stage.gain);
+  };
+  const { vlow, vhigh, points, j0 } = near.nominal.trace;
+  // Newton starts away from the design point: the near design's solution there (a move changes one side by a step).
+  const start = points[j0] ?? design();
+  if (!start || vlow === null || vhigh === null) return short();
   // Gain at v (null: no solution from the design point's start, which proves nothing: the trace gets there by
   // continuation).
   const gainAt = (v: number): number | null => {
     if (!(v > 0 && v < sides.supply)) return null;
-    const p = rangeSafe(() => stagePoint(c, v, p0.load, guessOf(p0.input)));
+    const p = rangeSafe(() => stagePoint(c, v, start.load, guessOf(start.input)));
     return p ? p.gain : null;
   };
   const below = (v: number): boolean => {
     const g = gainAt(v);
     return g !== null && !(g >= stage.gain);
   };
-  const { vlow, vhigh } = near.nominal.trace;
-  if (vlow === null || vhigh === null) return false;
   const miss = (w: number, u: number): boolean => w < v0 && u > v0 && u - w < stage.swing && below(w) && below(u);
   if (miss(vlow - EDGE_GAP, vlow + stage.swing - 2 * EDGE_GAP) || miss(vhigh - stage.swing + 2 * EDGE_GAP, vhigh + EDGE_GAP)) return true;
+  if (short()) return true;
   // Both edges moved: estimate each from the gain at the near design's edge and SECANT_STEP inside it (a secant on
   // the log of gain over target), and when the estimates are closer than the swing target, look just outside them.
   const edge = (e: number, inward: number): number | null => {
