@@ -9,7 +9,7 @@ import { cpus } from 'node:os';
 import { join } from 'node:path';
 import { packageRoot } from '../src/table/locate.js';
 import { buildDemoTables } from './build-demo-tables.js';
-import { benchIngest, benchSliceLookups, benchKitLoad, benchProbe, benchSize, benchSpice, renderRows, type BenchRow } from './bench/index.js';
+import { benchIngest, benchInstructions, benchSliceLookups, benchKitLoad, benchProbe, benchSize, benchSpice, renderRows, type BenchRow } from './bench/index.js';
 import { msSince } from './bench/stats.js';
 
 const log = (s: string) => process.stderr.write(s + '\n');
@@ -41,6 +41,7 @@ function main(): void {
     ...section('d size', () => benchSize({ root, log })),
     ...section('e kit load', () => benchKitLoad({ root, log })),
     ...section('f spice', () => benchSpice({ root, log })),
+    ...section('g instructions', () => benchInstructions({ root, log })),
   ];
   const totalS = msSince(t0) / 1000;
   const machine = `node ${process.version}, ${cpus().length} × ${cpus()[0]?.model ?? 'cpu'}`;

@@ -17,3 +17,4 @@ export { benchProbe, PROBE_ARGS } from './probe.js';
 export { benchSize, DEMO_SPEC } from './size.js';
 export { benchKitLoad } from './kitload.js';
 export { benchSpice, SPICE_SPEC } from './spice.js';
+export { benchInstructions, countInstructions } from './instructions.js';
