@@ -15,13 +15,12 @@ const shortfall = new CurrentLine();
 
 /**
  * Drain voltage that lets device `d` carry `i` at the given gate and source
- * (jd rises monotonically with VDS): Newton from the secant between the ends
- * where the slice has exact slopes, else (or should Newton fail) bisection. 'high': the current
- * cannot flow within `budget`; 'low': the gate drive is above the table, so the
+ * (jd rises monotonically with VDS): where the slice has exact slopes, Newton from `guess` (the device's VDS at the
+ * previous trial current) and, failing that, from the secant between the ends; else (or should Newton fail)
+ * bisection. 'high': the current cannot flow within `budget`; 'low': the gate drive is above the table, so the
  * trial current is below the solution.
  */
-
-function vdsFor(d: StackDevice, vgs: number, vsb: number, i: number, budget: number): number | 'high' | 'low' {
+function vdsFor(d: StackDevice, vgs: number, vsb: number, i: number, budget: number, guess: number): number | 'high' | 'low' {
   const r = d.slice.range;
   if (vsb > r.vsb[1] || vgs < r.vgs[0]) return 'high';
   if (vgs > r.vgs[1]) return 'low';
@@ -30,6 +29,12 @@ function vdsFor(d: StackDevice, vgs: number, vsb: number, i: number, budget: num
   if (hi < lo) return 'high';
   const f = (vds: number) => d.w * d.slice.jd(vgs, vds, vsb);
   if (!covers(d.slice, vgs, hi, vsb)) return 'high';
+  if (d.slice.jdSlopes && guess > lo && guess < hi) {
+    // Late in the outer bisection the trial currents differ little, so Newton from the last VDS lands in a lookup or
+    // two; a root it reaches is the only one in [lo, hi] (jd rises with VDS), so the ends need no samples.
+    const x = fallingNewton(shortfall.of(d.slice, d.w, i, false, false).along(vgs, 0, vsb, 0, 1, 0), lo, hi, 1e-13, guess, true);
+    if (!Number.isNaN(x)) return x;
+  }
   const fHi = f(hi);
   if (fHi < i) return 'high';
   const fLo = f(lo);
@@ -49,12 +54,14 @@ function vdsFor(d: StackDevice, vgs: number, vsb: number, i: number, budget: num
   return 0.5 * (lo + hi);
 }
 
-function trial(devices: readonly StackDevice[], gates: readonly number[], v: number, i: number, nodes: number[]): Trial {
+/** The stack's nodes for a trial current; `last` holds each device's VDS of the previous trial (NaN: none) and is updated. */
+function trial(devices: readonly StackDevice[], gates: readonly number[], v: number, i: number, nodes: number[], last: Float64Array): Trial {
   let x = 0;
   nodes[0] = 0;
   for (let k = 0; k < devices.length; k++) {
-    const vds = vdsFor(devices[k], gates[k] - x, x, i, v - x + 1e-12);
+    const vds = vdsFor(devices[k], gates[k] - x, x, i, v - x + 1e-12, last[k]);
     if (vds === 'high' || vds === 'low') return { kind: vds, at: k };
+    last[k] = vds;
     x += vds;
     nodes[k + 1] = x;
   }
@@ -75,16 +82,17 @@ export function bracketedOperatingPoint(devices: readonly StackDevice[], gates: 
   let hi = b.id;
   const nodes = new Array<number>(n + 1).fill(0);
   if (hi <= 0) return finish(devices, gates, v, 0, lin(n, v));
+  const last = new Float64Array(n).fill(NaN);
   for (let it = 0; it < 200 && hi - lo > 1e-14 * hi; it++) {
     const mid = 0.5 * (lo + hi);
-    const t = trial(devices, gates, v, mid, nodes);
+    const t = trial(devices, gates, v, mid, nodes, last);
     if (t.kind === 'low' || (t.kind === 'ok' && t.total < v)) lo = mid;
     else hi = mid;
   }
-  const t = trial(devices, gates, v, lo, nodes);
+  const t = trial(devices, gates, v, lo, nodes, last);
   if (t.kind !== 'ok' || Math.abs(t.total - v) > 1e-6) {
     // The solution sits against a table edge (vsb, vgs or vds): not coverable.
-    const up = trial(devices, gates, v, hi, nodes);
+    const up = trial(devices, gates, v, hi, nodes, last);
     throw edgeError(devices, gates, nodes, up.kind === 'ok' ? devices.length - 1 : up.at, v);
   }
   nodes[n] = v;
