@@ -270,6 +270,21 @@ const INFEASIBLE: Case[] = [
     spec: { device: 'p', topology: 'triple', current: 211e-6, rout: 81.5e6, headroom: 0.164, span: 1.005, objective: 'area', gmid: { min: 10, max: 25 }, l: { min: 0.5e-6, max: 0.7e-6 } },
     grid: { gmidStep: 4, vStep: 0.1 },
   },
+  // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): under a width limit of about
+  // 10 µm both devices sit on it, and the highest Rout at the headroom target has another length with another setpoint
+  // (a shorter bottom device saturates at a lower VDS); neither move alone gains, so the line probes, each moving one
+  // coordinate, stopped short (search/line-probes.ts now moves a length and a setpoint together).
+  {
+    // 35.9 kΩ at 0.8/0.18 µm and 0.85 V where the reference reaches 105 kΩ at 0.3/0.18 µm and 0.25 V.
+    id: 'n-reed-cascode-nearest-length-with-setpoint', kit: 'reed180', why: 'highest Rout at the headroom target with a length and the setpoint moved together',
+    spec: { device: 'n', topology: 'cascode', current: 143e-6, rout: 154e6, headroom: 0.386, span: 1.467, objective: 'area', wmax: 11e-6 },
+  },
+  {
+    // Both lengths change (1.3/0.18 µm to 0.5/0.3 µm), one per round of probes: 1.33 MΩ after two rounds where the
+    // reference reaches 1.67 MΩ.
+    id: 'n-reed-cascode-nearest-two-lengths', kit: 'reed180', why: 'highest Rout at the headroom target three rounds of probes away',
+    spec: { device: 'n', topology: 'cascode', current: 22.8e-6, rout: 39.3e6, headroom: 0.352, span: 1.064, objective: 'area', wmax: 6.9e-6 },
+  },
   {
     // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): the Rout target is met only
     // above mid-span (0.952 V, long devices on the 39 µm width limit). No design the search met reaches it anywhere,

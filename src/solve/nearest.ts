@@ -181,8 +181,9 @@ function liftedScreen(ctx: SolveContext, topology: Topology, pool: Evaluated[], 
   }
 }
 
-// Rounds of line probes and the climb from the best probe (each round starts from the last round's answer).
-const PROBE_ROUNDS = 2;
+// Rounds of line probes and the climb from the best probe, at most (each round starts from the last round's answer,
+// and none follows a round that finds nothing better): a better design can be several rounds away, one length per round.
+const PROBE_ROUNDS = 6;
 
 /**
  * The climb's answer, or a better one found by line probes from it (search/line-probes.ts) and a climb from the best

@@ -14,8 +14,8 @@ const TOP_ROOM = 0.02;
  * each gm/ID on the search's grid, each setpoint every PROBE_VSTEP up to mid-span, and the setpoint traded between
  * adjacent devices), the rest kept. A climb only ever steps to neighbours, so a figure with several far-apart maxima
  * over one coordinate (Rout at a headroom target where nothing is saturated has them: at a lower device's saturation
- * edge and again well above it) keeps it on the first one it reaches. Probes wider than the width limit are pulled
- * back to it (see toWidthLimit).
+ * edge and again well above it) keeps it on the first one it reaches. Also each length with each setpoint (the two
+ * together, where neither alone gains). Probes wider than the width limit are pulled back to it (see toWidthLimit).
  */
 export function lineProbes(ctx: SolveContext, c: Candidate): Candidate[] {
   const out: Candidate[] = [];
@@ -26,6 +26,7 @@ export function lineProbes(ctx: SolveContext, c: Candidate): Candidate[] {
     return f === null ? null : f === d ? 'fits' : 'pulled';
   };
   const copy = (): Candidate => ({ topology: c.topology, l: c.l, gmid: [...c.gmid], setpoints: [...c.setpoints] });
+  const gHi = ctx.gmids[ctx.gmids.length - 1];
   for (let k = 0; k < c.l.length; k++) {
     for (const l of ctx.lengths) {
       if (Math.abs(l - c.l[k]) < 1e-15) continue;
@@ -35,7 +36,6 @@ export function lineProbes(ctx: SolveContext, c: Candidate): Candidate[] {
       add(d);
       // And the device at its widest: where the width limit binds, the best designs keep each device on it, so a
       // new length is worth most with the gm/ID that brings the device back to the limit (toWidthLimit pulls it there).
-      const gHi = ctx.gmids[ctx.gmids.length - 1];
       if (c.gmid[k] < gHi - 1e-9) {
         const e = copy();
         e.l = d.l;
@@ -62,6 +62,32 @@ export function lineProbes(ctx: SolveContext, c: Candidate): Candidate[] {
       const d = copy();
       d.setpoints[k] = v;
       add(d);
+    }
+  }
+  // A length with each setpoint: a device's best VDS moves with its length (a shorter one saturates at a lower VDS,
+  // a longer one needs the room), so where the width limit holds both devices a new length alone, or a setpoint
+  // alone, can fall short where the two together do not.
+  for (let k = 0; k < c.l.length; k++) {
+    for (const l of ctx.lengths) {
+      if (Math.abs(l - c.l[k]) < 1e-15) continue;
+      for (let m = 0; m < c.setpoints.length; m++) {
+        const room = ctx.vmid - TOP_ROOM - (sum - c.setpoints[m]);
+        for (let j = 1; SETPOINT_MIN + j * PROBE_VSTEP <= room + 1e-9; j++) {
+          const v = Math.round((SETPOINT_MIN + j * PROBE_VSTEP) * 1e4) / 1e4;
+          if (Math.abs(v - c.setpoints[m]) < 1e-9) continue;
+          const d = copy();
+          d.l = [...c.l];
+          d.l[k] = l;
+          d.setpoints[m] = v;
+          add(d);
+          // And every device at its widest, pulled back to the limit: the new VDS of each changes the gm/ID that fits.
+          const e = copy();
+          e.l = d.l;
+          e.setpoints = d.setpoints;
+          for (let i = 0; i < e.gmid.length; i++) e.gmid[i] = gHi;
+          add(e);
+        }
+      }
     }
   }
   // Setpoint traded between two adjacent devices, their sum kept: the top device's room at mid-span unchanged.
