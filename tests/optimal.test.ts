@@ -286,6 +286,26 @@ const INFEASIBLE: Case[] = [
     spec: { device: 'n', topology: 'cascode', current: 22.8e-6, rout: 39.3e6, headroom: 0.352, span: 1.064, objective: 'area', wmax: 6.9e-6 },
   },
   {
+    // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): the highest Rout at the
+    // headroom target lies on a narrow peak at the middle device's saturation edge (setpoints 0.21 / 0.12 V), between
+    // two of the probes' 50 mV steps, the one past it not realisable; the probe either side is lower than the climb's
+    // best, so nothing led there: 1.32 MΩ where the reference reaches 1.56 MΩ (search/line-probes.ts now bisects
+    // each setpoint line to the edges of its realisable stretch).
+    id: 'p-reed-triple-nearest-narrow-peak', kit: 'reed180', why: 'highest Rout at the headroom target on a narrow peak at a saturation edge',
+    spec: { device: 'p', topology: 'triple', current: 1.97e-6, rout: 2e6, headroom: 0.172, span: 1.38, objective: 'headroom', l: { min: 0.18e-6, max: 0.5e-6 }, gmid: { min: 6, max: 22 } },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
+    // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): all three devices on the
+    // default width limit (1152 µm); the highest Rout at the headroom target has the middle device shorter (1.3 to
+    // 0.5 µm) at a higher gm/ID, which the probes reach only with each device raised to the limit in turn (raised all
+    // at once, the middle's gm/ID is out of its reach and no width is left to pull back by): 5.40 MΩ where the
+    // reference reaches 5.91 MΩ.
+    id: 'p-reed-triple-nearest-middle-raised', kit: 'reed180', why: 'highest Rout at the headroom target with a new length raised to the width limit',
+    spec: { device: 'p', topology: 'triple', current: 12e-6, rout: 360e6, headroom: 0.227, span: 0.935, objective: 'rout', l: { min: 0.5e-6, max: 1.3e-6 } },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
     // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): the Rout target is met only
     // above mid-span (0.952 V, long devices on the 39 µm width limit). No design the search met reaches it anywhere,
     // and the climb towards the lowest headroom ranked those by Rout at the headroom target, so it followed the
