@@ -5,6 +5,8 @@ import type { StackResult } from '../src/solve/types.js';
 import { sampleAt, holds, type StackDevice } from '../src/stack/index.js';
 import { demoKit, ensureDemoTables } from './helpers/cli.js';
 import { exhaustive, type Grid, type RefAnswer } from './helpers/exhaustive.js';
+import { verdictText } from '../src/report/verdict.js';
+import { formatEng } from '../src/units/index.js';
 
 // The search must find what an exhaustive search over the same tables finds (definition of a constrained optimum:
 // no allowed design meets every target with a better objective). The reference (tests/helpers/exhaustive.ts) tries
@@ -270,6 +272,41 @@ const INFEASIBLE: Case[] = [
     spec: { device: 'p', topology: 'triple', current: 211e-6, rout: 81.5e6, headroom: 0.164, span: 1.005, objective: 'area', gmid: { min: 10, max: 25 }, l: { min: 0.5e-6, max: 0.7e-6 } },
     grid: { gmidStep: 4, vStep: 0.1 },
   },
+  // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): under a width limit of about
+  // 10 µm both devices sit on it, and the highest Rout at the headroom target has another length with another setpoint
+  // (a shorter bottom device saturates at a lower VDS); neither move alone gains, so the line probes, each moving one
+  // coordinate, stopped short (search/line-probes.ts now moves a length and a setpoint together).
+  {
+    // 35.9 kΩ at 0.8/0.18 µm and 0.85 V where the reference reaches 105 kΩ at 0.3/0.18 µm and 0.25 V.
+    id: 'n-reed-cascode-nearest-length-with-setpoint', kit: 'reed180', why: 'highest Rout at the headroom target with a length and the setpoint moved together',
+    spec: { device: 'n', topology: 'cascode', current: 143e-6, rout: 154e6, headroom: 0.386, span: 1.467, objective: 'area', wmax: 11e-6 },
+  },
+  {
+    // Both lengths change (1.3/0.18 µm to 0.5/0.3 µm), one per round of probes: 1.33 MΩ after two rounds where the
+    // reference reaches 1.67 MΩ.
+    id: 'n-reed-cascode-nearest-two-lengths', kit: 'reed180', why: 'highest Rout at the headroom target three rounds of probes away',
+    spec: { device: 'n', topology: 'cascode', current: 22.8e-6, rout: 39.3e6, headroom: 0.352, span: 1.064, objective: 'area', wmax: 6.9e-6 },
+  },
+  {
+    // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): the highest Rout at the
+    // headroom target lies on a narrow peak at the middle device's saturation edge (setpoints 0.21 / 0.12 V), between
+    // two of the probes' 50 mV steps, the one past it not realisable; the probe either side is lower than the climb's
+    // best, so nothing led there: 1.32 MΩ where the reference reaches 1.56 MΩ (search/line-probes.ts now bisects
+    // each setpoint line to the edges of its realisable stretch).
+    id: 'p-reed-triple-nearest-narrow-peak', kit: 'reed180', why: 'highest Rout at the headroom target on a narrow peak at a saturation edge',
+    spec: { device: 'p', topology: 'triple', current: 1.97e-6, rout: 2e6, headroom: 0.172, span: 1.38, objective: 'headroom', l: { min: 0.18e-6, max: 0.5e-6 }, gmid: { min: 6, max: 22 } },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
+    // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): all three devices on the
+    // default width limit (1152 µm); the highest Rout at the headroom target has the middle device shorter (1.3 to
+    // 0.5 µm) at a higher gm/ID, which the probes reach only with each device raised to the limit in turn (raised all
+    // at once, the middle's gm/ID is out of its reach and no width is left to pull back by): 5.40 MΩ where the
+    // reference reaches 5.91 MΩ.
+    id: 'p-reed-triple-nearest-middle-raised', kit: 'reed180', why: 'highest Rout at the headroom target with a new length raised to the width limit',
+    spec: { device: 'p', topology: 'triple', current: 12e-6, rout: 360e6, headroom: 0.227, span: 0.935, objective: 'rout', l: { min: 0.5e-6, max: 1.3e-6 } },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
   {
     // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): the Rout target is met only
     // above mid-span (0.952 V, long devices on the 39 µm width limit). No design the search met reaches it anywhere,
@@ -393,6 +430,90 @@ describe('nearest points on the edge of the width limit (exhaustive reference se
     expect(Math.abs(tool.nearest!.headroomAtRout! - ref.headroomAtRout)).toBeLessThanOrEqual(0.01);
     expect(tool.nearest!.routAtHeadroom!).toBeGreaterThanOrEqual(0.95 * ref.routAtHeadroom);
     expect(tool.nearest!.routAtHeadroom!).toBeLessThanOrEqual(1.05 * ref.routAtHeadroom);
+  });
+});
+
+describe('a stacked cascode with no design within the width limit (exhaustive reference search)', () => {
+  // Found by a scan of random stacked-cascode specs: the bottom diodes leave the top device a little room at mid-span,
+  // but every top device there (and every bottom diode leaving more room) is wider than the limit, so the search met
+  // no design at all and the tool said the table does not cover the bias. The width limit binds: the verdict names the
+  // narrowest limit under which a design exists (src/solve/search/diode-room.ts narrowestDesign).
+  const cases: Case[] = [
+    {
+      id: 'n-reed-stacked-no-design-narrow', kit: 'reed180', why: '19.3 µA under a 4 µm limit',
+      spec: { device: 'n', topology: 'cascode-stacked', current: 19.3e-6, rout: 168e6, headroom: 0.426, span: 0.865, objective: 'rout', wmax: 4e-6, gmid: { min: 8, max: 18 } },
+    },
+    {
+      id: 'n-reed-stacked-no-design-high-current', kit: 'reed180', why: '989 µA under a 28 µm limit',
+      spec: { device: 'n', topology: 'cascode-stacked', current: 989e-6, rout: 15.5e6, headroom: 0.263, span: 1.388, objective: 'headroom', wmax: 28e-6 },
+    },
+  ];
+  for (const c of cases) {
+    it(`${c.id}: ${c.why}`, () => {
+      const spec: StackSpec = { name: c.id, ...c.spec };
+      const kit = kits[c.kit];
+      const tool = sizeStack(spec, kit, { supply: SUPPLY[c.kit], corners: ['tt'] }).results[0];
+      expect(tool.feasible).toBe(false);
+      const b = tool.binding!;
+      expect(b).toMatchObject({ target: 'width', required: c.spec.wmax, device: null });
+      expect(b.at).toBeCloseTo(0.5 * (c.spec.headroom + c.spec.span), 12);
+      const w = b.achieved!;
+      expect(w).toBeGreaterThan(c.spec.wmax!);
+      const line = verdictText(b);
+      expect(line).not.toContain('table');
+      expect(line).toContain(formatEng(w, 'm'));
+      // The exhaustive reference agrees: no design at all within the spec's limit or one 5 % below the named width,
+      // and designs within one 10 % above it.
+      const grid: Grid = { ...GRID, nearest: true };
+      expect(exhaustive(spec, kit, c.spec.topology, 'tt', grid).designs).toBe(0);
+      expect(exhaustive({ ...spec, wmax: 0.95 * w }, kit, c.spec.topology, 'tt', grid).designs).toBe(0);
+      const wider = exhaustive({ ...spec, wmax: 1.1 * w }, kit, c.spec.topology, 'tt', grid);
+      expect(wider.designs).toBeGreaterThan(0);
+      expect(wider.routAtHeadroom).toBeGreaterThan(0);
+    });
+  }
+});
+
+describe('a stacked cascode with no design at any width, or only narrower than the minimum (exhaustive reference search)', () => {
+  // Found by the same scan: an empty result said the table does not cover the bias.
+  it('every bottom diode is wider than the limit and none of any width leaves the top device room: saturation binds', () => {
+    // 558 µA at a mid-span of 0.31 V: the lowest VGS of any diode in the gm/ID range is above it.
+    const spec: StackSpec = { name: 'no-room-any-width', device: 'n', topology: 'cascode-stacked', current: 558e-6, rout: 4.04e6, headroom: 0.056, span: 0.563, objective: 'rout', wmax: 13e-6, gmid: { min: 8, max: 20 } };
+    const tool = sizeStack(spec, kits.reed180, { supply: 1.8, corners: ['tt'] }).results[0];
+    expect(tool.binding).toMatchObject({ target: 'saturation', device: 'top' });
+    expect(tool.binding!.achieved!).toBeLessThanOrEqual(0);
+    expect(verdictText(tool.binding!)).toContain('no room for the top device');
+    // The reference agrees that no width helps: no design at all even under a 1 m limit.
+    expect(exhaustive({ ...spec, wmax: 1 }, kits.reed180, 'cascode-stacked', 'tt', { ...GRID, nearest: true }).designs).toBe(0);
+  });
+
+  it('every bottom diode is narrower than the minimum width: width binds on the minimum', () => {
+    // 114 nA: a diode at the highest allowed gm/ID (17 /V) of the longest table length is still under 0.18 µm wide.
+    const spec: StackSpec = { name: 'too-narrow', device: 'n', topology: 'cascode-stacked', current: 114e-9, rout: 92.4e6, headroom: 0.719, span: 1.588, objective: 'area', wmax: 2.4e-6, gmid: { min: 7, max: 17 } };
+    const tool = sizeStack(spec, kits.reed180, { supply: 1.8, corners: ['tt'] }).results[0];
+    const lengths = Array.from(kits.reed180.lengths('tt', 'n'));
+    expect(tool.devices).toEqual([]);
+    expect(tool.binding).toMatchObject({ target: 'width', required: lengths[0], achieved: null });
+    expect(verdictText(tool.binding!)).toContain('narrower than the minimum width');
+    // By hand on the table: every diode (VDS = VGS, VSB = 0) of every table length with gm/ID in 7..17 /V above its
+    // peak gm/ID (the README's gm/ID-to-VGS branch: gm/ID falls with VGS above weak inversion) has W = I/jd below
+    // the shortest length (the minimum width).
+    let widest = 0;
+    for (const l of lengths) {
+      const slice = kits.reed180.slice('tt', 'n', l);
+      const vs: number[] = [];
+      for (let v = Math.max(slice.range.vgs[0], slice.range.vds[0]); v <= Math.min(slice.range.vgs[1], slice.range.vds[1]); v += 0.0005) vs.push(v);
+      const gmid = (v: number) => { const [jd, gm] = slice.small(v, v, 0); return jd > 0 ? gm / jd : 0; };
+      const peak = vs.reduce((a, v) => (gmid(v) > gmid(a) ? v : a), vs[0]);
+      for (const v of vs) {
+        const g = gmid(v);
+        if (v >= peak && g >= 7 && g <= 17) widest = Math.max(widest, spec.current / slice.small(v, v, 0)[0]);
+      }
+    }
+    expect(widest).toBeGreaterThan(0);
+    expect(widest).toBeLessThan(lengths[0]);
+    // The reference finds no design at all, however wide the limit.
+    expect(exhaustive({ ...spec, wmax: 1 }, kits.reed180, 'cascode-stacked', 'tt', { ...GRID, nearest: true }).designs).toBe(0);
   });
 });
 

@@ -47,6 +47,10 @@ export function verdictText(v: Verdict): string {
     case 'width': {
       if (got === null) return `width: every candidate needed a device narrower than the minimum width ${formatEng(need ?? 0, 'm')}`;
       const [a, b] = pair(got, need ?? 0, 'm');
+      // A stacked bias with no design at all within the limit (a top device with room above its bottom diode).
+      if (v.device === null && at !== null && need !== null && got > need) {
+        return `width: every design (a top device with room above its bottom diode at mid-span ${volts(at)}) has a device at least ${a} wide, above the ${b} width limit`;
+      }
       // Without a device the verdict is the stack's (the narrowest any design meeting Rout and headroom needs); with
       // one it is about one design, such as a corner row's, and must not read as a claim about every design.
       if (v.device === null && need !== null && got > need) return `width: every design meeting Rout and headroom has a device at least ${a} wide, above the ${b} width limit`;

@@ -4,7 +4,7 @@ import { ensureCorners, finalize, type Evaluated, type Start } from './evaluate/
 import { defer, evaluateOnce, lookOnce, refine, settle, type Hopeless, type Seen } from './search/refine.js';
 import { routSurelyBelow, routSurelyBelowAt, scanPointAtOrAbove, type Look } from './search/quick.js';
 import { screen } from './search/screen.js';
-import { candidateKey } from './search/candidate.js';
+import { candidateKey, type Candidate } from './search/candidate.js';
 import { lineProbes } from './search/line-probes.js';
 
 /** The nearest reachable points of an infeasible stack, over the whole allowed design space. */
@@ -181,12 +181,29 @@ function liftedScreen(ctx: SolveContext, topology: Topology, pool: Evaluated[], 
   }
 }
 
-// Rounds of line probes and the climb from the best probe (each round starts from the last round's answer).
-const PROBE_ROUNDS = 2;
+// Designs carried from round to round of probes, and climbs from each one's probes: the best and the best of other
+// lengths (the best probe can lead to a lower peak than one a little behind it, e.g. a short device's saturation edge
+// against a longer device's ridge).
+const LEADS = 2;
+
+/** The best LEADS probes by `prefer`, of distinct lengths. */
+function leadsOf(probes: readonly Evaluated[], prefer: (a: Evaluated, b: Evaluated) => boolean): Evaluated[] {
+  const out: Evaluated[] = [];
+  const lengths = (e: Evaluated) => e.cand.l.join(',');
+  for (const e of bestOf(probes, prefer, probes.length)) {
+    if (out.length >= LEADS) break;
+    if (!out.some((o) => lengths(o) === lengths(e))) out.push(e);
+  }
+  return out;
+}
+
+// Rounds of line probes and climbs, at most (each round starts from the last round's best designs, and none follows a
+// round that finds nothing better): a better design can be several rounds away, one length per round.
+const PROBE_ROUNDS = 6;
 
 /**
- * The climb's answer, or a better one found by line probes from it (search/line-probes.ts) and a climb from the best
- * probe. A probe is evaluated exactly only when its quick look leaves it a chance (`hopeless` says no otherwise), so
+ * The climb's answer, or a better one found by line probes from it (search/line-probes.ts) and climbs from the best
+ * probes, round after round from the best designs so far (see LEADS). A probe is evaluated exactly only when its quick look leaves it a chance (`hopeless` says no otherwise), so
  * where the climb already sits on the best ridge this costs the looks alone. From an answer that is not usable (every
  * design met is too wide, say) every probe is evaluated: the width-limited probes can reach usable designs the climb,
  * a step at a time, does not.
@@ -194,25 +211,41 @@ const PROBE_ROUNDS = 2;
 function probeFurther(
   ctx: SolveContext, from: Evaluated, seen: Seen, pool: Evaluated[], prefer: (a: Evaluated, b: Evaluated) => boolean, hopeless: Hopeless,
 ): Evaluated {
-  let best = from;
-  for (let round = 0; round < PROBE_ROUNDS; round++) {
-    let lead: Evaluated | undefined;
-    for (const c of lineProbes(ctx, best.cand)) {
+  // A probe counts as realisable once evaluated, else by its quick look (made once per search).
+  const realisable = (d: Candidate): boolean => {
+    const k = candidateKey(d);
+    const e = seen.get(k);
+    return e !== undefined ? e !== null : lookOnce(ctx, seen, k, d) !== null;
+  };
+  // The probes from `at` that beat it, evaluated.
+  const beating = (at: Evaluated): Evaluated[] => {
+    const out: Evaluated[] = [];
+    for (const c of lineProbes(ctx, at.cand, realisable)) {
       const k = candidateKey(c);
       let e = seen.get(k);
       if (e === undefined) {
         const l = lookOnce(ctx, seen, k, c);
-        if (!l || hopeless(l, best)) continue;
+        if (!l || hopeless(l, at)) continue;
         e = evaluateOnce(ctx, c, seen, l.start);
         if (e) pool.push(e);
       }
-      if (e && prefer(e, best) && (!lead || prefer(e, lead))) lead = e;
+      if (e && prefer(e, at)) out.push(e);
     }
-    if (!lead) break;
-    const climbed = refine(ctx, [lead], seen, pool, prefer, hopeless);
-    best = climbed && prefer(climbed, lead) ? climbed : lead;
+    return out;
+  };
+  let beam = [from];
+  for (let round = 0; round < PROBE_ROUNDS; round++) {
+    const next: Evaluated[] = [];
+    for (const at of beam) {
+      for (const lead of leadsOf(beating(at), prefer)) {
+        const climbed = refine(ctx, [lead], seen, pool, prefer, hopeless);
+        next.push(climbed && prefer(climbed, lead) ? climbed : lead);
+      }
+    }
+    if (next.length === 0) break;
+    beam = leadsOf([...beam, ...next], prefer);
   }
-  return best;
+  return beam[0];
 }
 
 /**

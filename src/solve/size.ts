@@ -19,7 +19,7 @@ import { chooseResult } from './choose.js';
 import { paretoFront, type FrontPoint } from './pareto.js';
 import { verdict, type Verdict } from './evaluate/verdict.js';
 import { sizeStages } from './stage-size.js';
-import { bottomRoom, diodeRoomCandidates } from './search/diode-room.js';
+import { bottomRoom, diodeRoomCandidates, narrowestDesign, bottomsTooNarrow } from './search/diode-room.js';
 import { setpointRoomCandidates } from './search/setpoint-room.js';
 import type { StageFrontPoint } from './stage-types.js';
 
@@ -183,6 +183,14 @@ function noCandidate(ctx: SolveContext, topology: Topology, from: { triode: numb
   // allowed space holds no design of the topology at all (achieved: the most VDS any of them leaves the top).
   const room = bottomRoom(ctx, topology);
   if (room !== null && room <= 0) return verdict('saturation', undefined, room, ctx.vmid, ctx.nominal, 'top');
+  // No bottom diode within the width limit, and none wider leaves room either: no width helps.
+  const anyWidth = room === null ? bottomRoom(ctx, topology, Infinity) : null;
+  if (anyWidth !== null && anyWidth <= 0) return verdict('saturation', undefined, anyWidth, ctx.vmid, ctx.nominal, 'top');
+  // Designs exist only wider than the limit (a top with room above a bottom diode): the width limit binds, not the
+  // table (achieved: the narrowest limit with a design; at: mid-span, where the room is taken).
+  const needs = narrowestDesign(ctx, topology);
+  if (needs !== null && needs > ctx.wmax) return verdict('width', ctx.wmax, needs, ctx.vmid, ctx.nominal);
+  if (bottomsTooNarrow(ctx, topology)) return verdict('width', ctx.wmin, undefined, undefined, ctx.nominal);
   const triode = ctx.count.triode - from.triode;
   const narrow = ctx.count.narrow - from.narrow;
   // No lower device saturated (VDSsat ≥ 4·UT at any inversion level) below the headroom target.

@@ -23,6 +23,8 @@ export interface Verdict {
   /**
    * The device it concerns (saturation), else null. `top` only for a stacked bias whose every allowed bottom diode
    * leaves the top device no room at mid-span (achieved: the most VDS any leaves it, ≤ 0; required null).
+   * A width verdict with no device and `at` set (mid-span) is a stacked bias's with no design at all within the width
+   * limit (achieved: the narrowest limit under which one exists).
    */
   device: Role | null;
   /** Corner it was found at. */

@@ -1,6 +1,7 @@
 import type { SolveContext } from '../context.js';
 import type { Candidate } from './candidate.js';
 import { toWidthLimit } from './width-edge.js';
+import { candidateWidths } from '../evaluate/evaluate.js';
 
 // Setpoint spacing of the probes, V: finer than the ridges seen in Rout at a headroom target where no device is
 // saturated (a few tens of mV wide), coarse enough to stay a few dozen probes per setpoint.
@@ -8,16 +9,24 @@ const PROBE_VSTEP = 0.05;
 // Lowest setpoint (as the climb's moves) and the room the top device keeps at mid-span, V.
 const SETPOINT_MIN = 0.02;
 const TOP_ROOM = 0.02;
+// Bisection steps towards the edge of a setpoint line's realisable stretch (50 mV / 2^6: under 1 mV). Rout at the
+// headroom target can peak right at that edge (a lower device at its saturation edge, or a device at the highest gm/ID
+// its bias reaches), between two probes, one of them not realisable.
+const LINE_EDGE_STEPS = 6;
+// Bisection steps of a device raised to the width limit (see widest): the gm/ID range over 2^12, a few 1e-3 /V.
+const RAISE_STEPS = 12;
 
 /**
  * Long moves from a design: each coordinate alone over its whole allowed range (each length over the allowed lengths,
  * each gm/ID on the search's grid, each setpoint every PROBE_VSTEP up to mid-span, and the setpoint traded between
  * adjacent devices), the rest kept. A climb only ever steps to neighbours, so a figure with several far-apart maxima
  * over one coordinate (Rout at a headroom target where nothing is saturated has them: at a lower device's saturation
- * edge and again well above it) keeps it on the first one it reaches. Probes wider than the width limit are pulled
- * back to it (see toWidthLimit).
+ * edge and again well above it) keeps it on the first one it reaches. Also each length with each setpoint (the two
+ * together, where neither alone gains). Probes wider than the width limit are pulled back to it (see toWidthLimit).
+ * With `realisable` (the caller's judgement of a probe), each setpoint line also gets the points at the edges of its
+ * realisable stretches.
  */
-export function lineProbes(ctx: SolveContext, c: Candidate): Candidate[] {
+export function lineProbes(ctx: SolveContext, c: Candidate, realisable?: (d: Candidate) => boolean): Candidate[] {
   const out: Candidate[] = [];
   // The probe, pulled to the width limit when too wide; 'pulled' when it was (null: it fits nowhere).
   const add = (d: Candidate): 'fits' | 'pulled' | null => {
@@ -26,6 +35,66 @@ export function lineProbes(ctx: SolveContext, c: Candidate): Candidate[] {
     return f === null ? null : f === d ? 'fits' : 'pulled';
   };
   const copy = (): Candidate => ({ topology: c.topology, l: c.l, gmid: [...c.gmid], setpoints: [...c.setpoints] });
+  const gHi = ctx.gmids[ctx.gmids.length - 1];
+  // `d` (pulled to the width limit) with each device in turn, from the bottom, raised to the highest gm/ID at which it
+  // fits the limit, the others kept: at a fixed bias W = I/jd rises with gm/ID (and a gm/ID beyond the length's reach
+  // counts as too wide), so that is an edge found by bisection. Raised together, one device not realisable at its bias
+  // would leave no width to pull the others by.
+  const widest = (d: Candidate): Candidate | null => {
+    const e = toWidthLimit(ctx, d);
+    if (e === null) return null;
+    const t: Candidate = { topology: e.topology, l: e.l, gmid: [...e.gmid], setpoints: e.setpoints };
+    const fits = (k: number, g: number): boolean => {
+      t.gmid[k] = g;
+      const w = candidateWidths(ctx, t);
+      return w !== null && w[k] <= ctx.wmax;
+    };
+    for (let k = 0; k < t.gmid.length; k++) {
+      let lo = e.gmid[k];
+      if (lo >= gHi - 1e-9 || fits(k, gHi)) continue;
+      let hi = gHi;
+      for (let it = 0; it < RAISE_STEPS; it++) {
+        const m = 0.5 * (lo + hi);
+        if (fits(k, m)) lo = m;
+        else hi = m;
+      }
+      t.gmid[k] = lo;
+    }
+    return t;
+  };
+  // One line of setpoint probes: `at(v)` for each grid value v, made to fit by `fit` (the design itself, at `own`,
+  // not probed again), and with `realisable`, the last realisable point next to each end of the line's realisable
+  // stretches (see LINE_EDGE_STEPS).
+  const line = (own: number, values: number[], at: (v: number) => Candidate, fit: (d: Candidate) => Candidate | null = (d) => toWidthLimit(ctx, d)) => {
+    const vs = (Number.isNaN(own) ? [...values] : [...values.filter((v) => Math.abs(v - own) >= 1e-9), own]).sort((a, b) => a - b);
+    const ok = vs.map((v) => {
+      if (v === own) return true;
+      const f = fit(at(v));
+      if (f) out.push(f);
+      return f !== null && (realisable === undefined || realisable(f));
+    });
+    if (realisable === undefined) return;
+    for (let j = 0; j + 1 < vs.length; j++) {
+      if (ok[j] === ok[j + 1]) continue;
+      let good = ok[j] ? vs[j] : vs[j + 1];
+      let bad = ok[j] ? vs[j + 1] : vs[j];
+      let edge: Candidate | null = null;
+      for (let it = 0; it < LINE_EDGE_STEPS; it++) {
+        const m = Math.round(0.5 * (good + bad) * 1e4) / 1e4;
+        const f = fit(at(m));
+        if (f !== null && realisable(f)) {
+          good = m;
+          edge = f;
+        } else bad = m;
+      }
+      if (edge) out.push(edge);
+    }
+  };
+  const grid = (top: number, from: number): number[] => {
+    const vs: number[] = [];
+    for (let j = from; SETPOINT_MIN + j * PROBE_VSTEP <= top + 1e-9; j++) vs.push(Math.round((SETPOINT_MIN + j * PROBE_VSTEP) * 1e4) / 1e4);
+    return vs;
+  };
   for (let k = 0; k < c.l.length; k++) {
     for (const l of ctx.lengths) {
       if (Math.abs(l - c.l[k]) < 1e-15) continue;
@@ -35,7 +104,6 @@ export function lineProbes(ctx: SolveContext, c: Candidate): Candidate[] {
       add(d);
       // And the device at its widest: where the width limit binds, the best designs keep each device on it, so a
       // new length is worth most with the gm/ID that brings the device back to the limit (toWidthLimit pulls it there).
-      const gHi = ctx.gmids[ctx.gmids.length - 1];
       if (c.gmid[k] < gHi - 1e-9) {
         const e = copy();
         e.l = d.l;
@@ -56,25 +124,45 @@ export function lineProbes(ctx: SolveContext, c: Candidate): Candidate[] {
   const sum = c.setpoints.reduce((a, b) => a + b, 0);
   for (let k = 0; k < c.setpoints.length; k++) {
     const room = ctx.vmid - TOP_ROOM - (sum - c.setpoints[k]);
-    for (let j = 1; SETPOINT_MIN + j * PROBE_VSTEP <= room + 1e-9; j++) {
-      const v = Math.round((SETPOINT_MIN + j * PROBE_VSTEP) * 1e4) / 1e4;
-      if (Math.abs(v - c.setpoints[k]) < 1e-9) continue;
+    line(c.setpoints[k], grid(room, 1), (v) => {
       const d = copy();
       d.setpoints[k] = v;
-      add(d);
+      return d;
+    });
+  }
+  // A length with each setpoint: a device's best VDS moves with its length (a shorter one saturates at a lower VDS,
+  // a longer one needs the room), so where the width limit holds both devices a new length alone, or a setpoint
+  // alone, can fall short where the two together do not.
+  for (let k = 0; k < c.l.length; k++) {
+    for (const l of ctx.lengths) {
+      if (Math.abs(l - c.l[k]) < 1e-15) continue;
+      for (let m = 0; m < c.setpoints.length; m++) {
+        const room = ctx.vmid - TOP_ROOM - (sum - c.setpoints[m]);
+        const at = (v: number): Candidate => {
+          const d = copy();
+          d.l = [...c.l];
+          d.l[k] = l;
+          d.setpoints[m] = v;
+          return d;
+        };
+        // The design's own setpoint too: at the new length it is a probe like the others.
+        const values = grid(room, 1);
+        if (!values.some((v) => Math.abs(v - c.setpoints[m]) < 1e-9)) values.push(c.setpoints[m]);
+        line(NaN, values, at);
+        // And every device at its widest, pulled back to the limit: the new VDS of each changes the gm/ID that fits.
+        line(NaN, values, at, widest);
+      }
     }
   }
   // Setpoint traded between two adjacent devices, their sum kept: the top device's room at mid-span unchanged.
   for (let k = 0; k + 1 < c.setpoints.length; k++) {
     const pair = c.setpoints[k] + c.setpoints[k + 1];
-    for (let j = 0; SETPOINT_MIN + j * PROBE_VSTEP <= pair - SETPOINT_MIN + 1e-9; j++) {
-      const v = Math.round((SETPOINT_MIN + j * PROBE_VSTEP) * 1e4) / 1e4;
-      if (Math.abs(v - c.setpoints[k]) < 1e-9) continue;
+    line(c.setpoints[k], grid(pair - SETPOINT_MIN, 0), (v) => {
       const d = copy();
       d.setpoints[k] = v;
       d.setpoints[k + 1] = pair - v;
-      add(d);
-    }
+      return d;
+    });
   }
   return out;
 }
