@@ -29,7 +29,9 @@ describe('the bundled CLI answers as the CLI from source', () => {
   const bundled = (args: string[], file = launcher): CliRun => {
     const r = spawnSync(process.execPath, [file, ...args], {
       cwd: REPO,
-      env: { ...process.env, NO_COLOR: '1', STACKWRIGHT_DEBUG_CODE_CACHE: '1' },
+      // The bundle's externals (papaparse, ml-regression) resolve from the bundle's folder, here a temporary one: as
+      // installed, dist/cli sits in the package beside its node_modules.
+      env: { ...process.env, NO_COLOR: '1', STACKWRIGHT_DEBUG_CODE_CACHE: '1', NODE_PATH: join(REPO, 'node_modules') },
       encoding: 'utf8',
       timeout: 120_000,
     });

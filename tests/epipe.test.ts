@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { spawn } from 'node:child_process';
 import { join } from 'node:path';
-import { ensureDemoTables, REPO } from './helpers/cli.js';
+import { ensureDemoTables, REPO, TSX } from './helpers/cli.js';
 
 // A reader that closes the pipe early (`stackwright kits | head -1`): Unix tools stop quietly on a broken pipe
 // (common practice; POSIX write() fails with EPIPE once the read end is closed).
@@ -9,7 +9,7 @@ describe('a closed output pipe', () => {
   it('kits and size stop quietly when the reader has gone: exit 0, no stack trace', async () => {
     ensureDemoTables();
     for (const args of [['kits', '--tables', join(REPO, 'tables')], ['size', join(REPO, 'demo-tables', 'specs', 'marsh-wren.yaml'), '--brief', '--tables', join(REPO, 'tables')]]) {
-      const child = spawn(process.execPath, ['--import', 'tsx', join(REPO, 'src', 'cli', 'main.ts'), ...args], { cwd: REPO, stdio: ['ignore', 'pipe', 'pipe'] });
+      const child = spawn(process.execPath, ['--import', TSX, join(REPO, 'src', 'cli', 'main.ts'), ...args], { cwd: REPO, stdio: ['ignore', 'pipe', 'pipe'] });
       // Close the read end before the CLI writes anything: its first write fails with EPIPE.
       child.stdout.destroy();
       let stderr = '';

@@ -6,7 +6,7 @@ import { afterAll, describe, expect, it, vi } from 'vitest';
 import { StackwrightError } from '../src/errors.js';
 import { ingestTexts } from '../src/ingest/index.js';
 import { readTable, tablePath, writeTable } from '../src/table/index.js';
-import { REPO } from './helpers/cli.js';
+import { REPO, TSX } from './helpers/cli.js';
 
 // The race of two processes: both check that the table does not exist, then both write. To make it happen on
 // purpose, the existence check is made to answer "no" for table files, as it would for the slower process.
@@ -55,7 +55,7 @@ describe('ingest: a table is created exclusively', () => {
     const tables = join(dir, 'cli-tables');
     const run = (file: string) =>
       new Promise<{ code: number | null; stderr: string }>((resolve) => {
-        const child = spawn(process.execPath, ['--import', 'tsx', join(REPO, 'src', 'cli', 'main.ts'), 'ingest', file, '--kit', 'both', '--device', 'n', '--tables', tables], {
+        const child = spawn(process.execPath, ['--import', TSX, join(REPO, 'src', 'cli', 'main.ts'), 'ingest', file, '--kit', 'both', '--device', 'n', '--tables', tables], {
           cwd: REPO,
           env: { ...process.env, NO_COLOR: '1' },
         });

@@ -1,9 +1,17 @@
 import { spawnSync } from 'node:child_process';
+import { createRequire } from 'node:module';
 import { join } from 'node:path';
+import { pathToFileURL } from 'node:url';
 import { buildDemoTables } from '../../scripts/build-demo-tables.js';
 import { loadKit, type Kit } from '../../src/index.js';
 
 export const REPO = join(import.meta.dirname, '..', '..');
+
+/**
+ * tsx's loader for `node --import`, by absolute URL: a bare `--import tsx` is resolved from the child's working
+ * folder, which some tests set to a temporary folder with no node_modules above it.
+ */
+export const TSX = pathToFileURL(createRequire(import.meta.url).resolve('tsx')).href;
 
 /** Make sure the demo kits' tables exist (skips when up to date). */
 export function ensureDemoTables(): void {
@@ -29,7 +37,7 @@ export interface CliRun {
 
 /** Run the CLI from source (tsx), as a user would run the installed command. */
 export function cli(args: string[], opts: { cwd?: string; env?: Record<string, string> } = {}): CliRun {
-  const r = spawnSync(process.execPath, ['--import', 'tsx', join(REPO, 'src', 'cli', 'main.ts'), ...args], {
+  const r = spawnSync(process.execPath, ['--import', TSX, join(REPO, 'src', 'cli', 'main.ts'), ...args], {
     cwd: opts.cwd ?? REPO,
     env: { ...process.env, NO_COLOR: '1', ...opts.env },
     encoding: 'utf8',
