@@ -260,9 +260,12 @@ export function nearestPoints(
   // What the sizing search left unevaluated, then the lifted screen: only what the nearest points may read.
   settle(ctx, seen, pool, (l) => outOfReach(ctx, l, pool));
   liftedScreen(ctx, topology, pool, seen);
-  const hr = refine(ctx, bestOf(pool, lowerHeadroom, 2), seen, pool, lowerHeadroom, headroomHopeless(ctx, pool));
+  let hr = refine(ctx, bestOf(pool, lowerHeadroom, 2), seen, pool, lowerHeadroom, headroomHopeless(ctx, pool));
   let ro = refine(ctx, seedsOf(ctx, pool, seen, higherRout, usable), seen, pool, higherRout, routBelowFromUsable(ctx));
   if (ro) ro = probeFurther(ctx, ro, seen, pool, higherRout, routBelowFromUsable(ctx));
+  // The headroom climb keeps to devices like its seeds', while the lowest headroom can lie far from them (another
+  // length, on the width limit): the same probes follow it, after the Rout climb's, which then sees the pool as before.
+  if (hr) hr = probeFurther(ctx, hr, seen, pool, lowerHeadroom, headroomHopeless(ctx, pool));
   // The figures come from the full curve, as every reported design's do, so they match wherever shown.
   if (hr) finalize(ctx, hr);
   if (ro) finalize(ctx, ro);

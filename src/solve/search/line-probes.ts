@@ -21,8 +21,8 @@ const RAISE_STEPS = 12;
  * each gm/ID on the search's grid, each setpoint every PROBE_VSTEP up to mid-span, and the setpoint traded between
  * adjacent devices), the rest kept. A climb only ever steps to neighbours, so a figure with several far-apart maxima
  * over one coordinate (Rout at a headroom target where nothing is saturated has them: at a lower device's saturation
- * edge and again well above it) keeps it on the first one it reaches. Also each length with each setpoint (the two
- * together, where neither alone gains). Probes wider than the width limit are pulled back to it (see toWidthLimit).
+ * edge and again well above it) keeps it on the first one it reaches. Also each length with each setpoint, and each
+ * length with each adjacent pair of setpoints traded (the two together, where neither alone gains). Probes wider than the width limit are pulled back to it (see toWidthLimit).
  * With `realisable` (the caller's judgement of a probe), each setpoint line also gets the points at the edges of its
  * realisable stretches.
  */
@@ -151,6 +151,26 @@ export function lineProbes(ctx: SolveContext, c: Candidate, realisable?: (d: Can
         line(NaN, values, at);
         // And every device at its widest, pulled back to the limit: the new VDS of each changes the gm/ID that fits.
         line(NaN, values, at, widest);
+      }
+    }
+  }
+  // A length with a traded pair: a new length moves its device's best VDS, and with the pair's sum kept the top device
+  // keeps its room (with a tight width limit, the top device at its lowest gm/ID leaves no room to give up).
+  for (let k = 0; k < c.l.length; k++) {
+    for (const l of ctx.lengths) {
+      if (Math.abs(l - c.l[k]) < 1e-15) continue;
+      for (let m = 0; m + 1 < c.setpoints.length; m++) {
+        const pair = c.setpoints[m] + c.setpoints[m + 1];
+        const at = (v: number): Candidate => {
+          const d = copy();
+          d.l = [...c.l];
+          d.l[k] = l;
+          d.setpoints[m] = v;
+          d.setpoints[m + 1] = pair - v;
+          return d;
+        };
+        line(NaN, grid(pair - SETPOINT_MIN, 0), at);
+        line(NaN, grid(pair - SETPOINT_MIN, 0), at, widest);
       }
     }
   }
