@@ -1,7 +1,6 @@
 import type { SolveContext } from '../context.js';
 import type { Candidate } from './candidate.js';
-import { toWidthLimit } from './width-edge.js';
-import { candidateWidths } from '../evaluate/evaluate.js';
+import { edgeGmid, fitsAt, toWidthLimit } from './width-edge.js';
 
 // Setpoint spacing of the probes, V: finer than the ridges seen in Rout at a headroom target where no device is
 // saturated (a few tens of mV wide), coarse enough to stay a few dozen probes per setpoint.
@@ -44,21 +43,10 @@ export function lineProbes(ctx: SolveContext, c: Candidate, realisable?: (d: Can
     const e = toWidthLimit(ctx, d);
     if (e === null) return null;
     const t: Candidate = { topology: e.topology, l: e.l, gmid: [...e.gmid], setpoints: e.setpoints };
-    const fits = (k: number, g: number): boolean => {
-      t.gmid[k] = g;
-      const w = candidateWidths(ctx, t);
-      return w !== null && w[k] <= ctx.wmax;
-    };
     for (let k = 0; k < t.gmid.length; k++) {
-      let lo = e.gmid[k];
-      if (lo >= gHi - 1e-9 || fits(k, gHi)) continue;
-      let hi = gHi;
-      for (let it = 0; it < RAISE_STEPS; it++) {
-        const m = 0.5 * (lo + hi);
-        if (fits(k, m)) lo = m;
-        else hi = m;
-      }
-      t.gmid[k] = lo;
+      const lo = e.gmid[k];
+      if (lo >= gHi - 1e-9 || fitsAt(ctx, t, k, gHi)) continue;
+      edgeGmid(ctx, t, k, lo, gHi, RAISE_STEPS);
     }
     return t;
   };

@@ -31,13 +31,7 @@ function pullToWidth(ctx: SolveContext, c: Candidate, whole: boolean): Candidate
   const w0 = candidateWidths(ctx, c);
   if (w0 && !anyWider(w0, ctx.wmax)) return c;
   const d: Candidate = { topology: c.topology, l: c.l, gmid: [...c.gmid], setpoints: c.setpoints };
-  // Not realisable counts as too wide (a gm/ID beyond what the length reaches at its bias: W = I/jd grows without
-  // bound towards it), as in the exhaustive reference's width edge.
-  const fits = (k: number, g: number): boolean => {
-    d.gmid[k] = g;
-    const w = candidateWidths(ctx, d);
-    return w !== null && w[k] <= ctx.wmax;
-  };
+  const fits = (k: number, g: number): boolean => fitsAt(ctx, d, k, g);
   for (let k = 0; k < c.gmid.length; k++) {
     const g = c.gmid[k];
     if (fits(k, g)) continue;
@@ -60,14 +54,34 @@ function pullToWidth(ctx: SolveContext, c: Candidate, whole: boolean): Candidate
       }
     }
     if (Number.isNaN(lo)) return null;
-    for (let it = 0; it < EDGE_STEPS; it++) {
-      const m = 0.5 * (lo + hi);
-      if (fits(k, m)) lo = m;
-      else hi = m;
-    }
-    d.gmid[k] = lo;
+    edgeGmid(ctx, d, k, lo, hi, EDGE_STEPS);
   }
   return d;
+}
+
+/**
+ * Device k of `d` fits the width limit at gm/ID g (left in d.gmid[k]), the other devices as they are. Not realisable
+ * counts as too wide (a gm/ID beyond what the length reaches at its bias: W = I/jd grows without bound towards it), as
+ * in the exhaustive reference's width edge.
+ */
+export function fitsAt(ctx: SolveContext, d: Candidate, k: number, g: number): boolean {
+  d.gmid[k] = g;
+  const w = candidateWidths(ctx, d);
+  return w !== null && w[k] <= ctx.wmax;
+}
+
+/**
+ * The edge of the width limit along device k's gm/ID between `lo` (fits) and `hi` (does not), by `steps` bisections:
+ * at a fixed bias W = I/jd rises with gm/ID. The fitting end is left in d.gmid[k] and returned.
+ */
+export function edgeGmid(ctx: SolveContext, d: Candidate, k: number, lo: number, hi: number, steps: number): number {
+  for (let it = 0; it < steps; it++) {
+    const m = 0.5 * (lo + hi);
+    if (fitsAt(ctx, d, k, m)) lo = m;
+    else hi = m;
+  }
+  d.gmid[k] = lo;
+  return lo;
 }
 
 /** Some device of `w` is wider than `wmax`. */
