@@ -43,22 +43,30 @@ function worst(ctx: SolveContext, e: Evaluated): { usable: boolean; headroom: nu
   return { usable, headroom, rout };
 }
 
+/**
+ * One design of a grid into the reference: usable at the nominal corner and, judged at its worst corner, lower in
+ * headroom or higher in Rout than the best so far. Designs beaten on both at the nominal corner (a worst corner is no
+ * better) are not judged at the others.
+ */
+function consider(ctx: SolveContext, e: Evaluated | null, into: Reference): void {
+  if (!e || !(e.margins.mismatch >= 0 && e.margins.iout >= 0 && e.margins.saturation >= 0 && e.margins.width >= 0)) return;
+  if (e.nominal.headroom >= into.headroomAtRout && e.nominal.routAtTarget <= into.routAtHeadroom) return;
+  const w = worst(ctx, e);
+  if (!w.usable) return;
+  if (w.headroom < into.headroomAtRout) {
+    into.headroomAtRout = w.headroom;
+    into.winners[0] = e.cand;
+  }
+  if (w.rout > into.routAtHeadroom) {
+    into.routAtHeadroom = w.rout;
+    into.winners[1] = e.cand;
+  }
+}
+
 function gridSearch(ctx: SolveContext, ls: number[][], gs: number[][], ss: number[], into: Reference): void {
   const topology = ctx.spec.topology as 'cascode' | 'cascode-stacked';
   for (const l1 of ls[0]) for (const l2 of ls[1]) for (const g1 of gs[0]) for (const g2 of gs[1]) for (const s1 of ss) {
-    const e = evaluateCandidate(ctx, { topology, l: [l1, l2], gmid: [g1, g2], setpoints: topology === 'cascode' ? [s1] : [] });
-    if (!e || !(e.margins.mismatch >= 0 && e.margins.iout >= 0 && e.margins.saturation >= 0 && e.margins.width >= 0)) continue;
-    if (e.nominal.headroom >= into.headroomAtRout && e.nominal.routAtTarget <= into.routAtHeadroom) continue;
-    const w = worst(ctx, e);
-    if (!w.usable) continue;
-    if (w.headroom < into.headroomAtRout) {
-      into.headroomAtRout = w.headroom;
-      into.winners[0] = e.cand;
-    }
-    if (w.rout > into.routAtHeadroom) {
-      into.routAtHeadroom = w.rout;
-      into.winners[1] = e.cand;
-    }
+    consider(ctx, evaluateCandidate(ctx, { topology, l: [l1, l2], gmid: [g1, g2], setpoints: topology === 'cascode' ? [s1] : [] }), into);
   }
 }
 
@@ -98,19 +106,7 @@ function tripleReference(spec: StackSpec, kit: Kit, supply: number, corners: str
   const search = (ls: number[][], gms: number[][], sps: number[][]): void => {
     for (const l1 of ls[0]) for (const l2 of ls[1]) for (const l3 of ls[2]) for (const g1_ of gms[0]) for (const g2 of gms[1]) for (const g3 of gms[2]) {
       for (const s1 of sps[0]) for (const s2 of sps[1]) {
-        const e = evaluateCandidate(ctx, { topology: 'triple', l: [l1, l2, l3], gmid: [g1_, g2, g3], setpoints: [s1, s2] });
-        if (!e || !(e.margins.mismatch >= 0 && e.margins.iout >= 0 && e.margins.saturation >= 0 && e.margins.width >= 0)) continue;
-        if (e.nominal.headroom >= ref.headroomAtRout && e.nominal.routAtTarget <= ref.routAtHeadroom) continue;
-        const w = worst(ctx, e);
-        if (!w.usable) continue;
-        if (w.headroom < ref.headroomAtRout) {
-          ref.headroomAtRout = w.headroom;
-          ref.winners[0] = e.cand;
-        }
-        if (w.rout > ref.routAtHeadroom) {
-          ref.routAtHeadroom = w.rout;
-          ref.winners[1] = e.cand;
-        }
+        consider(ctx, evaluateCandidate(ctx, { topology: 'triple', l: [l1, l2, l3], gmid: [g1_, g2, g3], setpoints: [s1, s2] }), ref);
       }
     }
   };
