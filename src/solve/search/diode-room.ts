@@ -55,6 +55,12 @@ function roomyBottoms(ctx: SolveContext, slice: LengthSlice): number[] {
   return allowedBottoms(ctx, slice).filter((d) => d.vgs < ctx.vmid).map((d) => d.g);
 }
 
+/** A stacked-bias topology: two devices, the bottom one a diode, no VDS setpoint (what this file searches). */
+function stackedBias(topology: string): boolean {
+  const shape = topologyOf(topology);
+  return !!shape.bottomDiode && shape.setpoints === 0 && shape.roles.length === 2;
+}
+
 /**
  * The most VDS any allowed bottom diode of a stacked-bias topology leaves the device above it at mid-span, V: v_mid
  * minus the lowest VGS of a bottom diode within the width limits (`wmax` for the upper one) and the gm/ID range over
@@ -62,8 +68,7 @@ function roomyBottoms(ctx: SolveContext, slice: LengthSlice): number[] {
  * topologies, or when no bottom diode fits the limits at all.
  */
 export function bottomRoom(ctx: SolveContext, topology: string, wmax = ctx.wmax): number | null {
-  const shape = topologyOf(topology);
-  if (!shape.bottomDiode || shape.setpoints !== 0 || shape.roles.length !== 2) return null;
+  if (!stackedBias(topology)) return null;
   let lowest = Infinity;
   for (const l of ctx.lengths) for (const d of allowedBottoms(ctx, ctx.slice(ctx.nominal, l), wmax)) lowest = Math.min(lowest, d.vgs);
   return Number.isFinite(lowest) ? ctx.vmid - lowest : null;
@@ -75,8 +80,7 @@ export function bottomRoom(ctx: SolveContext, topology: string, wmax = ctx.wmax)
  * realises). False for other topologies, or when none is realised.
  */
 export function bottomsTooNarrow(ctx: SolveContext, topology: string): boolean {
-  const shape = topologyOf(topology);
-  if (!shape.bottomDiode || shape.setpoints !== 0 || shape.roles.length !== 2) return false;
+  if (!stackedBias(topology)) return false;
   let realised = false;
   for (const l of ctx.lengths) {
     const slice = ctx.slice(ctx.nominal, l);
@@ -100,8 +104,7 @@ export function bottomsTooNarrow(ctx: SolveContext, topology: string): boolean {
  * Null for other topologies, or when the table realises no such pair.
  */
 export function narrowestDesign(ctx: SolveContext, topology: string): number | null {
-  const shape = topologyOf(topology);
-  if (!shape.bottomDiode || shape.setpoints !== 0 || shape.roles.length !== 2) return null;
+  if (!stackedBias(topology)) return null;
   const gs = ctx.gmids;
   const c: Candidate = { topology, l: [0, 0], gmid: [0, 0], setpoints: [] };
   const widths = (g2: number): ArrayLike<number> | null => {
@@ -176,8 +179,7 @@ export function narrowestDesign(ctx: SolveContext, topology: string): number | n
  * room by construction; search's `lowered` and the saturation retry cover them).
  */
 export function diodeRoomCandidates(ctx: SolveContext, topology: string): Candidate[] {
-  const shape = topologyOf(topology);
-  if (!shape.bottomDiode || shape.setpoints !== 0 || shape.roles.length !== 2) return [];
+  if (!stackedBias(topology)) return [];
   return pulledToLimit(ctx, diodeRoomRaw(ctx, topology));
 }
 
