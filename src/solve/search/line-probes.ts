@@ -83,21 +83,27 @@ export function lineProbes(ctx: SolveContext, c: Candidate, realisable?: (d: Can
     for (let j = from; SETPOINT_MIN + j * PROBE_VSTEP <= top + 1e-9; j++) vs.push(Math.round((SETPOINT_MIN + j * PROBE_VSTEP) * 1e4) / 1e4);
     return vs;
   };
+  // Each other allowed length of each device k: the design's lengths with that one changed (shared by the probes below).
+  const moved: Array<{ k: number; l: number[] }> = [];
   for (let k = 0; k < c.l.length; k++) {
     for (const l of ctx.lengths) {
       if (Math.abs(l - c.l[k]) < 1e-15) continue;
-      const d = copy();
-      d.l = [...c.l];
-      d.l[k] = l;
-      add(d);
-      // And the device at its widest: where the width limit binds, the best designs keep each device on it, so a
-      // new length is worth most with the gm/ID that brings the device back to the limit (toWidthLimit pulls it there).
-      if (c.gmid[k] < gHi - 1e-9) {
-        const e = copy();
-        e.l = d.l;
-        e.gmid[k] = gHi;
-        add(e);
-      }
+      const ls = [...c.l];
+      ls[k] = l;
+      moved.push({ k, l: ls });
+    }
+  }
+  for (const { k, l } of moved) {
+    const d = copy();
+    d.l = l;
+    add(d);
+    // And the device at its widest: where the width limit binds, the best designs keep each device on it, so a
+    // new length is worth most with the gm/ID that brings the device back to the limit (toWidthLimit pulls it there).
+    if (c.gmid[k] < gHi - 1e-9) {
+      const e = copy();
+      e.l = l;
+      e.gmid[k] = gHi;
+      add(e);
     }
   }
   for (let k = 0; k < c.gmid.length; k++) {
@@ -121,45 +127,37 @@ export function lineProbes(ctx: SolveContext, c: Candidate, realisable?: (d: Can
   // A length with each setpoint: a device's best VDS moves with its length (a shorter one saturates at a lower VDS,
   // a longer one needs the room), so where the width limit holds both devices a new length alone, or a setpoint
   // alone, can fall short where the two together do not.
-  for (let k = 0; k < c.l.length; k++) {
-    for (const l of ctx.lengths) {
-      if (Math.abs(l - c.l[k]) < 1e-15) continue;
-      for (let m = 0; m < c.setpoints.length; m++) {
-        const room = ctx.vmid - TOP_ROOM - (sum - c.setpoints[m]);
-        const at = (v: number): Candidate => {
-          const d = copy();
-          d.l = [...c.l];
-          d.l[k] = l;
-          d.setpoints[m] = v;
-          return d;
-        };
-        // The design's own setpoint too: at the new length it is a probe like the others.
-        const values = grid(room, 1);
-        if (!values.some((v) => Math.abs(v - c.setpoints[m]) < 1e-9)) values.push(c.setpoints[m]);
-        line(NaN, values, at);
-        // And every device at its widest, pulled back to the limit: the new VDS of each changes the gm/ID that fits.
-        line(NaN, values, at, widest);
-      }
+  for (const { l } of moved) {
+    for (let m = 0; m < c.setpoints.length; m++) {
+      const room = ctx.vmid - TOP_ROOM - (sum - c.setpoints[m]);
+      const at = (v: number): Candidate => {
+        const d = copy();
+        d.l = l;
+        d.setpoints[m] = v;
+        return d;
+      };
+      // The design's own setpoint too: at the new length it is a probe like the others.
+      const values = grid(room, 1);
+      if (!values.some((v) => Math.abs(v - c.setpoints[m]) < 1e-9)) values.push(c.setpoints[m]);
+      line(NaN, values, at);
+      // And every device at its widest, pulled back to the limit: the new VDS of each changes the gm/ID that fits.
+      line(NaN, values, at, widest);
     }
   }
   // A length with a traded pair: a new length moves its device's best VDS, and with the pair's sum kept the top device
   // keeps its room (with a tight width limit, the top device at its lowest gm/ID leaves no room to give up).
-  for (let k = 0; k < c.l.length; k++) {
-    for (const l of ctx.lengths) {
-      if (Math.abs(l - c.l[k]) < 1e-15) continue;
-      for (let m = 0; m + 1 < c.setpoints.length; m++) {
-        const pair = c.setpoints[m] + c.setpoints[m + 1];
-        const at = (v: number): Candidate => {
-          const d = copy();
-          d.l = [...c.l];
-          d.l[k] = l;
-          d.setpoints[m] = v;
-          d.setpoints[m + 1] = pair - v;
-          return d;
-        };
-        line(NaN, grid(pair - SETPOINT_MIN, 0), at);
-        line(NaN, grid(pair - SETPOINT_MIN, 0), at, widest);
-      }
+  for (const { l } of moved) {
+    for (let m = 0; m + 1 < c.setpoints.length; m++) {
+      const pair = c.setpoints[m] + c.setpoints[m + 1];
+      const at = (v: number): Candidate => {
+        const d = copy();
+        d.l = l;
+        d.setpoints[m] = v;
+        d.setpoints[m + 1] = pair - v;
+        return d;
+      };
+      line(NaN, grid(pair - SETPOINT_MIN, 0), at);
+      line(NaN, grid(pair - SETPOINT_MIN, 0), at, widest);
     }
   }
   // Setpoint traded between two adjacent devices, their sum kept: the top device's room at mid-span unchanged.
