@@ -3,7 +3,7 @@ import { topologyOf } from '../topology/index.js';
 import type { StageSpec } from '../design/types.js';
 import {
   biasDevices, biasGates, gainOverSwing, heldGain, stagePoint, traceStage,
-  type BiasDevice, type StackDevice, type StackOp, type StageCircuit, type StagePoint, type StageTrace,
+  type BiasDevice, type StackDevice, type StageCircuit, type StagePoint, type StageTrace,
 } from '../stack/index.js';
 import type { Side, SideDesign } from './stage-side.js';
 import { rangeSafe } from './evaluate/evaluate.js';
@@ -100,8 +100,7 @@ function inputBias(sides: StageSides, d: SideDesign): BiasDevice[] | null {
 
 /** The circuit of a pair at the nominal corner: each side's devices with the gates of its sizing. */
 export function pairCircuit(sides: StageSides, input: SideDesign, load: SideDesign): StageCircuit {
-  let loadOps = loadOpsOf.get(load);
-  if (!loadOps) loadOpsOf.set(load, (loadOps = new Map()));
+  const loadOps = (load.loadOps ??= new Map());
   return {
     supply: sides.supply, device: sides.input.device,
     input: { devices: input.devices, cascodeGate: input.sized.gates[1] },
@@ -109,9 +108,6 @@ export function pairCircuit(sides: StageSides, input: SideDesign, load: SideDesi
     loadOps,
   };
 }
-
-// Each load design's operating points at the nominal corner by output voltage, for every pair it is in.
-const loadOpsOf = new WeakMap<SideDesign, Map<number, StackOp | null>>();
 
 /**
  * How a pair is judged: traced on the search grid ('search'); the same with the gain held over the swing target

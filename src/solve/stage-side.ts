@@ -50,6 +50,8 @@ export interface SideDesign {
   gm?: Float64Array;
   /** Drain capacitance of the side's output (top) device at the design point, F (NaN when the table lacks it). */
   cdd: number;
+  /** Load side: its operating points at the nominal corner by output voltage, for every pair it is in (StageCircuit.loadOps). */
+  loadOps?: Map<number, StackOp | null>;
 }
 
 // The derived stack spec places mid-span at the design point: vmid = (headroom + span)/2 = vd.
