@@ -47,6 +47,11 @@ export interface Grid {
   keep?: number;
   /** Also answer the nearest-point questions (default true). */
   nearest?: boolean;
+  /**
+   * Judge only these designs (sized and judged as the grid's are), no grid: a design another search claims is
+   * counted only when it is one the reference would allow (lengths and gm/ID in range, every per-device rule).
+   */
+  only?: Array<{ l: number[]; gmid: number[]; setpoints: number[] }>;
 }
 
 /** One design of the reference, judged exactly. */
@@ -402,7 +407,11 @@ export function exhaustive(spec: StackSpec, kit: KitAccess, topology: Topology, 
     return [[]];
   };
   const all = (x: number[]) => Array.from({ length: devs }, () => x);
-  const coarse = designsOf(all(lengths), all(coarseG), spGrid(grid.vStep), true);
+  const allowed = (o: { l: number[]; gmid: number[] }) =>
+    o.l.every((l) => lengths.some((x) => Math.abs(x - l) <= 1e-9 * l)) && o.gmid.every((g) => g >= gLo - 1e-9 && g <= gHi + 1e-9);
+  const coarse = grid.only
+    ? grid.only.filter(allowed).flatMap((o) => designsOf(o.l.map((l) => [l]), o.gmid.map((g) => [g]), [o.setpoints]))
+    : designsOf(all(lengths), all(coarseG), spGrid(grid.vStep), true);
   const first = answer(coarse);
 
   const obj = spec.objective;
@@ -416,7 +425,7 @@ export function exhaustive(spec: StackSpec, kit: KitAccess, topology: Topology, 
   // Runners-up seed too: the coarse optimum can sit in another basin than the fine one.
   const keep = grid.keep ?? 2;
   const judged = coarse.filter((d) => d.headroom !== undefined && Number.isFinite(d.headroom));
-  let seeds = [first.best, first.hr, first.ro.d,
+  let seeds = grid.only ? [] : [first.best, first.hr, first.ro.d,
     ...[...judged].sort((a, b) => a.headroom! - b.headroom!).slice(0, keep),
     ...judged.filter((d) => d.headroom! <= spec.headroom && sigmaOk(d)).sort((a, b) => a.area - b.area).slice(0, keep),
   ].filter((d): d is Design => d !== undefined);
