@@ -396,6 +396,20 @@ const INFEASIBLE: Case[] = [
     id: 'p-reed-cascode-nearest-headroom-far', kit: 'reed180', why: 'lowest headroom at the Rout target far from the climb\'s seeds',
     spec: { device: 'p', topology: 'cascode', current: 4.12e-6, rout: 871e3, headroom: 0.164, span: 1.267, objective: 'headroom', wmax: 7.9e-6 },
   },
+  // Found by a scan of random reed180 cascode specs against the exhaustive reference (tests/helpers/exhaustive.ts):
+  // at about 1 mA under a tight width limit every design the searches evaluated was too wide, and the tool reported
+  // Rout 0 Ω at the headroom target. The usable designs have both devices at the shortest length on the width limit,
+  // between the gm/ID grid's points (the lowest not realisable, the next too wide): a move of every length at once.
+  {
+    // 947 µA n-type under 12 µm: the reference reaches 18.8 kΩ (0.18 / 0.18 µm, gm/ID near 4.5 and 4.9 /V).
+    id: 'n-reed-cascode-nearest-all-too-wide', kit: 'reed180', why: 'nearest points when every design evaluated is too wide',
+    spec: { device: 'n', topology: 'cascode', current: 947e-6, rout: 540e3, headroom: 0.757, span: 1.52, objective: 'area', wmax: 12e-6 },
+  },
+  {
+    // 149 µA p-type under 7.4 µm: the reference reaches 3.2 kΩ (0.18 / 0.18 µm).
+    id: 'p-reed-cascode-nearest-all-too-wide', kit: 'reed180', why: 'nearest points when every design evaluated is too wide',
+    spec: { device: 'p', topology: 'cascode', current: 149e-6, rout: 67.2e6, headroom: 0.222, span: 0.996, objective: 'rout', wmax: 7.4e-6 },
+  },
 ];
 
 describe('explanations of infeasible specs are true (exhaustive reference search)', () => {

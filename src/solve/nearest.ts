@@ -6,6 +6,7 @@ import { routSurelyBelow, routSurelyBelowAt, scanPointAtOrAbove, type Look } fro
 import { screen } from './search/screen.js';
 import { candidateKey, type Candidate } from './search/candidate.js';
 import { lineProbes } from './search/line-probes.js';
+import { widthRoomCandidates } from './search/width-room.js';
 
 /** The nearest reachable points of an infeasible stack, over the whole allowed design space. */
 export interface Nearest {
@@ -260,6 +261,13 @@ export function nearestPoints(
   // What the sizing search left unevaluated, then the lifted screen: only what the nearest points may read.
   settle(ctx, seen, pool, (l) => outOfReach(ctx, l, pool));
   liftedScreen(ctx, topology, pool, seen);
+  // Nothing usable yet (every design too wide, say): designs with every device on the width limit, to climb from.
+  if (!pool.some(usable)) {
+    for (const c of widthRoomCandidates(ctx, topology)) {
+      const e = evaluateOnce(ctx, c, seen);
+      if (e) pool.push(e);
+    }
+  }
   let hr = refine(ctx, bestOf(pool, lowerHeadroom, 2), seen, pool, lowerHeadroom, headroomHopeless(ctx, pool));
   let ro = refine(ctx, seedsOf(ctx, pool, seen, higherRout, usable), seen, pool, higherRout, routBelowFromUsable(ctx));
   if (ro) ro = probeFurther(ctx, ro, seen, pool, higherRout, routBelowFromUsable(ctx));
