@@ -410,6 +410,14 @@ const INFEASIBLE: Case[] = [
     id: 'p-reed-cascode-nearest-all-too-wide', kit: 'reed180', why: 'nearest points when every design evaluated is too wide',
     spec: { device: 'p', topology: 'cascode', current: 149e-6, rout: 67.2e6, headroom: 0.222, span: 0.996, objective: 'rout', wmax: 7.4e-6 },
   },
+  // Found by the same scan: at a few µA with the headroom target below 65 mV (nothing saturated there), the highest
+  // Rout at the headroom target has the bottom device at a low gm/ID just saturated at mid-span under a wide top
+  // device at a high gm/ID: three coordinates from where the climbs settled, each move alone worse.
+  {
+    // 2.55 µA n-type: the reference reaches 73.4 kΩ (bottom near 5 /V, setpoint near 0.35 V); the tool said 62.8 kΩ.
+    id: 'n-reed-cascode-nearest-bottom-saturation-edge', kit: 'reed180', why: 'highest Rout at the headroom target with the bottom device on its saturation edge',
+    spec: { device: 'n', topology: 'cascode', current: 2.55e-6, rout: 420e3, headroom: 0.054, span: 0.886, objective: 'area', wmax: 15e-6 },
+  },
 ];
 
 describe('explanations of infeasible specs are true (exhaustive reference search)', () => {
