@@ -418,6 +418,18 @@ const INFEASIBLE: Case[] = [
     id: 'n-reed-cascode-nearest-bottom-saturation-edge', kit: 'reed180', why: 'highest Rout at the headroom target with the bottom device on its saturation edge',
     spec: { device: 'n', topology: 'cascode', current: 2.55e-6, rout: 420e3, headroom: 0.054, span: 0.886, objective: 'area', wmax: 15e-6 },
   },
+  // Found by the same scan: the lowest headroom at the Rout target 11-15 mV above the reference's, on the width limit.
+  {
+    // 103 µA n-type under 10 µm: the reference meets the Rout target from 0.728 V; the tool said 0.743 V.
+    id: 'n-reed-cascode-nearest-headroom-width-limit', kit: 'reed180', why: 'lowest headroom at the Rout target with both devices on the width limit',
+    spec: { device: 'n', topology: 'cascode', current: 103e-6, rout: 2.45e6, headroom: 0.303, span: 0.987, objective: 'area', wmax: 10e-6 },
+  },
+  {
+    // 19.8 µA p-type under 8.8 µm: the reference meets the Rout target from 0.450 V; the tool said 0.461 V, where its
+    // climb, many length and gm/ID steps from its seed, ran out of rounds.
+    id: 'p-reed-cascode-nearest-headroom-long-climb', kit: 'reed180', why: 'lowest headroom at the Rout target a long climb from the seeds',
+    spec: { device: 'p', topology: 'cascode', current: 19.8e-6, rout: 4.2e6, headroom: 0.153, span: 1.304, objective: 'area', wmax: 8.8e-6 },
+  },
 ];
 
 describe('explanations of infeasible specs are true (exhaustive reference search)', () => {

@@ -1,7 +1,7 @@
 import type { Topology } from '../design/types.js';
 import type { SolveContext } from './context.js';
 import { ensureCorners, finalize, type Evaluated, type Start } from './evaluate/evaluate.js';
-import { defer, evaluateOnce, lookOnce, refine, settle, type Hopeless, type Seen } from './search/refine.js';
+import { CLIMB_ROUNDS, defer, evaluateOnce, lookOnce, refine, settle, type Hopeless, type Seen } from './search/refine.js';
 import { routSurelyBelow, routSurelyBelowAt, scanPointAtOrAbove, type Look } from './search/quick.js';
 import { screen } from './search/screen.js';
 import { candidateKey, type Candidate } from './search/candidate.js';
@@ -198,6 +198,10 @@ function leadsOf(probes: readonly Evaluated[], prefer: (a: Evaluated, b: Evaluat
   return out;
 }
 
+// Rounds of a climb towards a nearest point, at most: from a seed far from usable (every device too wide, say) a climb
+// can take more steps than the sizing's climbs, each length a grid step at a time, and stopping early leaves it short.
+const NEAREST_ROUNDS = 3 * CLIMB_ROUNDS;
+
 // Rounds of line probes and climbs, at most (each round starts from the last round's best designs, and none follows a
 // round that finds nothing better): a better design can be several rounds away, one length per round.
 const PROBE_ROUNDS = 6;
@@ -239,7 +243,7 @@ function probeFurther(
     const next: Evaluated[] = [];
     for (const at of beam) {
       for (const lead of leadsOf(beating(at), prefer)) {
-        const climbed = refine(ctx, [lead], seen, pool, prefer, hopeless);
+        const climbed = refine(ctx, [lead], seen, pool, prefer, hopeless, NEAREST_ROUNDS);
         next.push(climbed && prefer(climbed, lead) ? climbed : lead);
       }
     }
@@ -268,8 +272,8 @@ export function nearestPoints(
       if (e) pool.push(e);
     }
   }
-  let hr = refine(ctx, bestOf(pool, lowerHeadroom, 2), seen, pool, lowerHeadroom, headroomHopeless(ctx, pool));
-  let ro = refine(ctx, seedsOf(ctx, pool, seen, higherRout, usable), seen, pool, higherRout, routBelowFromUsable(ctx));
+  let hr = refine(ctx, bestOf(pool, lowerHeadroom, 2), seen, pool, lowerHeadroom, headroomHopeless(ctx, pool), NEAREST_ROUNDS);
+  let ro = refine(ctx, seedsOf(ctx, pool, seen, higherRout, usable), seen, pool, higherRout, routBelowFromUsable(ctx), NEAREST_ROUNDS);
   if (ro) ro = probeFurther(ctx, ro, seen, pool, higherRout, routBelowFromUsable(ctx));
   // The headroom climb keeps to devices like its seeds', while the lowest headroom can lie far from them (another
   // length, on the width limit): the same probes follow it, after the Rout climb's, which then sees the pool as before.
