@@ -215,6 +215,7 @@ const PROBE_ROUNDS = 6;
  */
 function probeFurther(
   ctx: SolveContext, from: Evaluated, seen: Seen, pool: Evaluated[], prefer: (a: Evaluated, b: Evaluated) => boolean, hopeless: Hopeless,
+  saturationEdges = false,
 ): Evaluated {
   // A probe counts as realisable once evaluated, else by its quick look (made once per search).
   const realisable = (d: Candidate): boolean => {
@@ -225,7 +226,7 @@ function probeFurther(
   // The probes from `at` that beat it, evaluated.
   const beating = (at: Evaluated): Evaluated[] => {
     const out: Evaluated[] = [];
-    for (const c of lineProbes(ctx, at.cand, realisable)) {
+    for (const c of lineProbes(ctx, at.cand, realisable, saturationEdges)) {
       const k = candidateKey(c);
       let e = seen.get(k);
       if (e === undefined) {
@@ -274,7 +275,8 @@ export function nearestPoints(
   }
   let hr = refine(ctx, bestOf(pool, lowerHeadroom, 2), seen, pool, lowerHeadroom, headroomHopeless(ctx, pool), NEAREST_ROUNDS);
   let ro = refine(ctx, seedsOf(ctx, pool, seen, higherRout, usable), seen, pool, higherRout, routBelowFromUsable(ctx), NEAREST_ROUNDS);
-  if (ro) ro = probeFurther(ctx, ro, seen, pool, higherRout, routBelowFromUsable(ctx));
+  // The saturation-edge probes (see lineProbes) serve Rout at the headroom target only.
+  if (ro) ro = probeFurther(ctx, ro, seen, pool, higherRout, routBelowFromUsable(ctx), true);
   // The headroom climb keeps to devices like its seeds', while the lowest headroom can lie far from them (another
   // length, on the width limit): the same probes follow it, after the Rout climb's, which then sees the pool as before.
   if (hr) hr = probeFurther(ctx, hr, seen, pool, lowerHeadroom, headroomHopeless(ctx, pool));

@@ -30,7 +30,7 @@ const SAT_SLACK = 0.002;
  * With `realisable` (the caller's judgement of a probe), each setpoint line also gets the points at the edges of its
  * realisable stretches.
  */
-export function lineProbes(ctx: SolveContext, c: Candidate, realisable?: (d: Candidate) => boolean): Candidate[] {
+export function lineProbes(ctx: SolveContext, c: Candidate, realisable?: (d: Candidate) => boolean, saturationEdges = false): Candidate[] {
   const out: Candidate[] = [];
   // The probe, pulled to the width limit when too wide; 'pulled' when it was (null: it fits nowhere).
   const add = (d: Candidate): 'fits' | 'pulled' | null => {
@@ -147,10 +147,10 @@ export function lineProbes(ctx: SolveContext, c: Candidate, realisable?: (d: Can
       return d;
     });
   }
-  // Each setpoint with its device at its saturation edge and the others at their widest: where nothing is saturated at
-  // the headroom target, Rout there can peak with a lower device at a low gm/ID just saturated at mid-span (a high VDS
+  // With `saturationEdges`, each setpoint with its device at its saturation edge and the others at their widest: where
+  // nothing is saturated at the headroom target, Rout there can peak with a lower device at a low gm/ID just saturated at mid-span (a high VDS
   // bought with its overdrive) under a wide device at a high gm/ID, three coordinates away from a design elsewhere.
-  for (let m = 0; m < c.setpoints.length; m++) {
+  for (let m = 0; saturationEdges && m < c.setpoints.length; m++) {
     const room = ctx.vmid - TOP_ROOM - (sum - c.setpoints[m]);
     let vsb = 0;
     for (let j = 0; j < m; j++) vsb += c.setpoints[j];
