@@ -2,6 +2,7 @@ import { topologyOf } from '../../topology/index.js';
 import type { SolveContext } from '../context.js';
 import type { Candidate } from './candidate.js';
 import { pulledToLimit } from './width-edge.js';
+import { someLengths } from './setpoint-room.js';
 
 // Setpoint spacing, V, by setpoint count (one setpoint: a line; two: a coarser grid of pairs), the lowest setpoint and
 // the room the top device keeps at mid-span. Coarse on purpose: the climbs and line probes refine from these.
@@ -9,11 +10,6 @@ const STEP = [0, 0.05, 0.1];
 const LOWEST = 0.05;
 const TOP_ROOM = 0.05;
 
-/** Every allowed length for up to two devices; for more, the shortest, the longest and the one between them. */
-function lengthsFor(lengths: readonly number[], devices: number): number[] {
-  if (devices <= 2 || lengths.length <= 3) return [...lengths];
-  return [lengths[0], lengths[Math.floor((lengths.length - 1) / 2)], lengths[lengths.length - 1]];
-}
 
 /**
  * Candidates with every device on the width limit, for when nothing the searches evaluated is usable (every design too
@@ -32,7 +28,8 @@ function* widthRoomRaw(ctx: SolveContext, topology: string): Generator<Candidate
   const n = shape.roles.length;
   const m = shape.setpoints;
   if (m >= STEP.length) return;
-  const ls = lengthsFor(ctx.lengths, n);
+  // Every allowed length for up to two devices; for more, a few (the combinations multiply).
+  const ls = n <= 2 ? ctx.lengths : someLengths(ctx.lengths);
   const gHi = ctx.gmids[ctx.gmids.length - 1];
   const room = ctx.vmid - TOP_ROOM;
   const setpointTuples: number[][] = [];
