@@ -396,6 +396,40 @@ const INFEASIBLE: Case[] = [
     id: 'p-reed-cascode-nearest-headroom-far', kit: 'reed180', why: 'lowest headroom at the Rout target far from the climb\'s seeds',
     spec: { device: 'p', topology: 'cascode', current: 4.12e-6, rout: 871e3, headroom: 0.164, span: 1.267, objective: 'headroom', wmax: 7.9e-6 },
   },
+  // Found by a scan of random reed180 cascode specs against the exhaustive reference (tests/helpers/exhaustive.ts):
+  // at about 1 mA under a tight width limit every design the searches evaluated was too wide, and the tool reported
+  // Rout 0 Ω at the headroom target. The usable designs have both devices at the shortest length on the width limit,
+  // between the gm/ID grid's points (the lowest not realisable, the next too wide): a move of every length at once.
+  {
+    // 947 µA n-type under 12 µm: the reference reaches 18.8 kΩ (0.18 / 0.18 µm, gm/ID near 4.5 and 4.9 /V).
+    id: 'n-reed-cascode-nearest-all-too-wide', kit: 'reed180', why: 'nearest points when every design evaluated is too wide',
+    spec: { device: 'n', topology: 'cascode', current: 947e-6, rout: 540e3, headroom: 0.757, span: 1.52, objective: 'area', wmax: 12e-6 },
+  },
+  {
+    // 149 µA p-type under 7.4 µm: the reference reaches 3.2 kΩ (0.18 / 0.18 µm).
+    id: 'p-reed-cascode-nearest-all-too-wide', kit: 'reed180', why: 'nearest points when every design evaluated is too wide',
+    spec: { device: 'p', topology: 'cascode', current: 149e-6, rout: 67.2e6, headroom: 0.222, span: 0.996, objective: 'rout', wmax: 7.4e-6 },
+  },
+  // Found by the same scan: at a few µA with the headroom target below 65 mV (nothing saturated there), the highest
+  // Rout at the headroom target has the bottom device at a low gm/ID just saturated at mid-span under a wide top
+  // device at a high gm/ID: three coordinates from where the climbs settled, each move alone worse.
+  {
+    // 2.55 µA n-type: the reference reaches 73.4 kΩ (bottom near 5 /V, setpoint near 0.35 V); the tool said 62.8 kΩ.
+    id: 'n-reed-cascode-nearest-bottom-saturation-edge', kit: 'reed180', why: 'highest Rout at the headroom target with the bottom device on its saturation edge',
+    spec: { device: 'n', topology: 'cascode', current: 2.55e-6, rout: 420e3, headroom: 0.054, span: 0.886, objective: 'area', wmax: 15e-6 },
+  },
+  // Found by the same scan: the lowest headroom at the Rout target 11-15 mV above the reference's, on the width limit.
+  {
+    // 103 µA n-type under 10 µm: the reference meets the Rout target from 0.728 V; the tool said 0.743 V.
+    id: 'n-reed-cascode-nearest-headroom-width-limit', kit: 'reed180', why: 'lowest headroom at the Rout target with both devices on the width limit',
+    spec: { device: 'n', topology: 'cascode', current: 103e-6, rout: 2.45e6, headroom: 0.303, span: 0.987, objective: 'area', wmax: 10e-6 },
+  },
+  {
+    // 19.8 µA p-type under 8.8 µm: the reference meets the Rout target from 0.450 V; the tool said 0.461 V, where its
+    // climb, many length and gm/ID steps from its seed, ran out of rounds.
+    id: 'p-reed-cascode-nearest-headroom-long-climb', kit: 'reed180', why: 'lowest headroom at the Rout target a long climb from the seeds',
+    spec: { device: 'p', topology: 'cascode', current: 19.8e-6, rout: 4.2e6, headroom: 0.153, span: 1.304, objective: 'area', wmax: 8.8e-6 },
+  },
 ];
 
 describe('explanations of infeasible specs are true (exhaustive reference search)', () => {

@@ -1,11 +1,12 @@
 import type { Topology } from '../design/types.js';
 import type { SolveContext } from './context.js';
 import { ensureCorners, finalize, type Evaluated, type Start } from './evaluate/evaluate.js';
-import { defer, evaluateOnce, lookOnce, refine, settle, type Hopeless, type Seen } from './search/refine.js';
+import { CLIMB_ROUNDS, defer, evaluateOnce, lookOnce, refine, settle, type Hopeless, type Seen } from './search/refine.js';
 import { routSurelyBelow, routSurelyBelowAt, scanPointAtOrAbove, type Look } from './search/quick.js';
 import { screen } from './search/screen.js';
 import { candidateKey, type Candidate } from './search/candidate.js';
 import { lineProbes } from './search/line-probes.js';
+import { widthRoomCandidates } from './search/width-room.js';
 
 /** The nearest reachable points of an infeasible stack, over the whole allowed design space. */
 export interface Nearest {
@@ -197,6 +198,10 @@ function leadsOf(probes: readonly Evaluated[], prefer: (a: Evaluated, b: Evaluat
   return out;
 }
 
+// Rounds of a climb towards a nearest point, at most: from a seed far from usable (every device too wide, say) a climb
+// can take more steps than the sizing's climbs, each length a grid step at a time, and stopping early leaves it short.
+const NEAREST_ROUNDS = 3 * CLIMB_ROUNDS;
+
 // Rounds of line probes and climbs, at most (each round starts from the last round's best designs, and none follows a
 // round that finds nothing better): a better design can be several rounds away, one length per round.
 const PROBE_ROUNDS = 6;
@@ -210,6 +215,7 @@ const PROBE_ROUNDS = 6;
  */
 function probeFurther(
   ctx: SolveContext, from: Evaluated, seen: Seen, pool: Evaluated[], prefer: (a: Evaluated, b: Evaluated) => boolean, hopeless: Hopeless,
+  saturationEdges = false,
 ): Evaluated {
   // A probe counts as realisable once evaluated, else by its quick look (made once per search).
   const realisable = (d: Candidate): boolean => {
@@ -220,7 +226,7 @@ function probeFurther(
   // The probes from `at` that beat it, evaluated.
   const beating = (at: Evaluated): Evaluated[] => {
     const out: Evaluated[] = [];
-    for (const c of lineProbes(ctx, at.cand, realisable)) {
+    for (const c of lineProbes(ctx, at.cand, realisable, saturationEdges)) {
       const k = candidateKey(c);
       let e = seen.get(k);
       if (e === undefined) {
@@ -238,7 +244,7 @@ function probeFurther(
     const next: Evaluated[] = [];
     for (const at of beam) {
       for (const lead of leadsOf(beating(at), prefer)) {
-        const climbed = refine(ctx, [lead], seen, pool, prefer, hopeless);
+        const climbed = refine(ctx, [lead], seen, pool, prefer, hopeless, NEAREST_ROUNDS);
         next.push(climbed && prefer(climbed, lead) ? climbed : lead);
       }
     }
@@ -260,9 +266,17 @@ export function nearestPoints(
   // What the sizing search left unevaluated, then the lifted screen: only what the nearest points may read.
   settle(ctx, seen, pool, (l) => outOfReach(ctx, l, pool));
   liftedScreen(ctx, topology, pool, seen);
-  let hr = refine(ctx, bestOf(pool, lowerHeadroom, 2), seen, pool, lowerHeadroom, headroomHopeless(ctx, pool));
-  let ro = refine(ctx, seedsOf(ctx, pool, seen, higherRout, usable), seen, pool, higherRout, routBelowFromUsable(ctx));
-  if (ro) ro = probeFurther(ctx, ro, seen, pool, higherRout, routBelowFromUsable(ctx));
+  // Nothing usable yet (every design too wide, say): designs with every device on the width limit, to climb from.
+  if (!pool.some(usable)) {
+    for (const c of widthRoomCandidates(ctx, topology)) {
+      const e = evaluateOnce(ctx, c, seen);
+      if (e) pool.push(e);
+    }
+  }
+  let hr = refine(ctx, bestOf(pool, lowerHeadroom, 2), seen, pool, lowerHeadroom, headroomHopeless(ctx, pool), NEAREST_ROUNDS);
+  let ro = refine(ctx, seedsOf(ctx, pool, seen, higherRout, usable), seen, pool, higherRout, routBelowFromUsable(ctx), NEAREST_ROUNDS);
+  // The saturation-edge probes (see lineProbes) serve Rout at the headroom target only.
+  if (ro) ro = probeFurther(ctx, ro, seen, pool, higherRout, routBelowFromUsable(ctx), true);
   // The headroom climb keeps to devices like its seeds', while the lowest headroom can lie far from them (another
   // length, on the width limit): the same probes follow it, after the Rout climb's, which then sees the pool as before.
   if (hr) hr = probeFurther(ctx, hr, seen, pool, lowerHeadroom, headroomHopeless(ctx, pool));

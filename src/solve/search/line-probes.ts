@@ -1,6 +1,7 @@
 import type { SolveContext } from '../context.js';
 import type { Candidate } from './candidate.js';
 import { edgeGmid, fitsAt, toWidthLimit } from './width-edge.js';
+import { saturationVoltage } from '../../stack/index.js';
 
 // Setpoint spacing of the probes, V: finer than the ridges seen in Rout at a headroom target where no device is
 // saturated (a few tens of mV wide), coarse enough to stay a few dozen probes per setpoint.
@@ -14,6 +15,10 @@ const TOP_ROOM = 0.02;
 const LINE_EDGE_STEPS = 6;
 // Bisection steps of a device raised to the width limit (see widest): the gm/ID range over 2^12, a few 1e-3 /V.
 const RAISE_STEPS = 12;
+// Bisection steps of a lower device's saturation edge over the gm/ID range, and the slack it keeps there, V (the
+// mid-span solve's VDSsat is at its own gm/ID, a hair from the design's).
+const SAT_STEPS = 12;
+const SAT_SLACK = 0.002;
 
 /**
  * Long moves from a design: each coordinate alone over its whole allowed range (each length over the allowed lengths,
@@ -25,7 +30,7 @@ const RAISE_STEPS = 12;
  * With `realisable` (the caller's judgement of a probe), each setpoint line also gets the points at the edges of its
  * realisable stretches.
  */
-export function lineProbes(ctx: SolveContext, c: Candidate, realisable?: (d: Candidate) => boolean): Candidate[] {
+export function lineProbes(ctx: SolveContext, c: Candidate, realisable?: (d: Candidate) => boolean, saturationEdges = false): Candidate[] {
   const out: Candidate[] = [];
   // The probe, pulled to the width limit when too wide; 'pulled' when it was (null: it fits nowhere).
   const add = (d: Candidate): 'fits' | 'pulled' | null => {
@@ -39,16 +44,34 @@ export function lineProbes(ctx: SolveContext, c: Candidate, realisable?: (d: Can
   // fits the limit, the others kept: at a fixed bias W = I/jd rises with gm/ID (and a gm/ID beyond the length's reach
   // counts as too wide), so that is an edge found by bisection. Raised together, one device not realisable at its bias
   // would leave no width to pull the others by.
-  const widest = (d: Candidate): Candidate | null => {
+  const widest = (d: Candidate, keep = -1): Candidate | null => {
     const e = toWidthLimit(ctx, d);
     if (e === null) return null;
     const t: Candidate = { topology: e.topology, l: e.l, gmid: [...e.gmid], setpoints: e.setpoints };
     for (let k = 0; k < t.gmid.length; k++) {
       const lo = e.gmid[k];
+      if (k === keep) continue;
       if (lo >= gHi - 1e-9 || fitsAt(ctx, t, k, gHi)) continue;
       edgeGmid(ctx, t, k, lo, gHi, RAISE_STEPS);
     }
     return t;
+  };
+  // The lowest gm/ID at which device k, its VDS at `v` and its source at `vsb`, is saturated (VDSsat falls as gm/ID
+  // rises; null: not at any allowed one).
+  const ut = ctx.ut(ctx.nominal);
+  const satEdge = (l: number, v: number, vsb: number): number | null => {
+    const slice = ctx.slice(ctx.nominal, l);
+    const sat = (g: number) => saturationVoltage(slice, g, vsb, ut) <= v - SAT_SLACK;
+    let lo = ctx.gmids[0];
+    let hi = gHi;
+    if (sat(lo)) return lo;
+    if (!sat(hi)) return null;
+    for (let it = 0; it < SAT_STEPS; it++) {
+      const m = 0.5 * (lo + hi);
+      if (sat(m)) hi = m;
+      else lo = m;
+    }
+    return hi;
   };
   // One line of setpoint probes: `at(v)` for each grid value v, made to fit by `fit` (the design itself, at `own`,
   // not probed again), and with `realisable`, the last realisable point next to each end of the line's realisable
@@ -123,6 +146,29 @@ export function lineProbes(ctx: SolveContext, c: Candidate, realisable?: (d: Can
       d.setpoints[k] = v;
       return d;
     });
+  }
+  // With `saturationEdges`, each setpoint with its device at its saturation edge and the others at their widest: where
+  // nothing is saturated at the headroom target, Rout there can peak with a lower device at a low gm/ID just saturated at mid-span (a high VDS
+  // bought with its overdrive) under a wide device at a high gm/ID, three coordinates away from a design elsewhere.
+  for (let m = 0; saturationEdges && m < c.setpoints.length; m++) {
+    const room = ctx.vmid - TOP_ROOM - (sum - c.setpoints[m]);
+    let vsb = 0;
+    for (let j = 0; j < m; j++) vsb += c.setpoints[j];
+    line(NaN, grid(room, 1), (v) => {
+      const d = copy();
+      d.setpoints[m] = v;
+      d.gmid[m] = satEdge(c.l[m], v, vsb) ?? gHi;
+      return d;
+    }, (d) => widest(d, m));
+    // And each other length at the design's own setpoint.
+    const v = c.setpoints[m];
+    for (const { l } of moved) {
+      const d = copy();
+      d.l = l;
+      d.gmid[m] = satEdge(l[m], v, vsb) ?? gHi;
+      const f = widest(d, m);
+      if (f) out.push(f);
+    }
   }
   // A length with each setpoint: a device's best VDS moves with its length (a shorter one saturates at a lower VDS,
   // a longer one needs the room), so where the width limit holds both devices a new length alone, or a setpoint

@@ -98,7 +98,7 @@ export function neighbours(ctx: SolveContext, c: Candidate, gstep: number, vstep
  */
 export function refine(
   ctx: SolveContext, seeds: readonly Evaluated[], seen: Seen, pool: Evaluated[],
-  prefer?: (a: Evaluated, b: Evaluated) => boolean, hopeless?: Hopeless,
+  prefer?: (a: Evaluated, b: Evaluated) => boolean, hopeless?: Hopeless, rounds = CLIMB_ROUNDS,
 ): Evaluated | undefined {
   // With the spec's own order and objective area, a move whose area is no smaller than a design meeting every
   // target cannot win: its area (from the sizing alone) spares the exact evaluation.
@@ -110,7 +110,7 @@ export function refine(
   prefer ??= (a, b) => better(ctx, a, b);
   let best: Evaluated | undefined;
   for (const seed of seeds) {
-    const local = climb(ctx, seed, seen, pool, prefer, bound, hopeless, ridge);
+    const local = climb(ctx, seed, seen, pool, prefer, bound, hopeless, ridge, rounds);
     if (!best || prefer(local, best)) best = local;
   }
   return best;
@@ -173,6 +173,8 @@ export function settle(ctx: SolveContext, seen: Seen, pool: Evaluated[], stays?:
   }
 }
 
+// Rounds of moves per climb at most (each improves or halves the steps).
+export const CLIMB_ROUNDS = 16;
 // Ridge steps per climb at most; their difference steps (gm/ID: a grid step / 8; setpoints, V) and box (in steps).
 const RIDGE_STEPS = 8;
 const RIDGE_VSTEP = 0.00625;
@@ -181,6 +183,7 @@ const RIDGE_BOX = 2;
 function climb(
   ctx: SolveContext, seed: Evaluated, seen: Seen, pool: Evaluated[],
   better: (a: Evaluated, b: Evaluated) => boolean, bound: (best: Evaluated) => number, hopeless: Hopeless | undefined, ridge: boolean,
+  rounds: number,
 ): Evaluated {
   const memo = memoOf(seen);
   // One sizing per move and search serves the area bound and the width check.
@@ -214,7 +217,7 @@ function climb(
   let best = seed;
   let gstep = ctx.gmidStep / 2;
   let vstep = topologyOf(best.cand.topology).refineVoltageStep;
-  for (let round = 0; round < 16; round++) {
+  for (let round = 0; round < rounds; round++) {
     // One-coordinate moves first; the pair moves (many more) only when none of those improves.
     // Short of the targets, the gm/ID and setpoint moves before the length moves: a climb from such a design would
     // otherwise take a longer device for its Rout and stay on it, where a smaller design of the same lengths meets them.

@@ -12,7 +12,7 @@ const LOWEST = 0.05;
 const TOP_ROOM = 0.05;
 
 /** Up to three of the allowed lengths: the shortest, the longest and the one between them. */
-function someLengths(lengths: readonly number[]): number[] {
+export function someLengths(lengths: readonly number[]): number[] {
   if (lengths.length <= 3) return [...lengths];
   return [lengths[0], lengths[Math.floor((lengths.length - 1) / 2)], lengths[lengths.length - 1]];
 }
