@@ -293,6 +293,11 @@ export function nearestPoints(
     }
     // The climb follows one design; bisect on the limit with the whole search for the edge itself.
     let lo = ctx.wmax;
+    // The bisection takes no design under a limit where the search found none at a wider one, so when the search at
+    // the last limit it would try after failing throughout finds none, that one search settles it.
+    let last = lo;
+    for (let it = 0; it < 4 && narrowest !== undefined && narrowest > last * 1.01; it++) last = Math.sqrt(last * narrowest);
+    if (fitsWithin && narrowest !== undefined && last > lo && fitsWithin(last) === null) lo = narrowest;
     for (let it = 0; it < 4 && fitsWithin && narrowest !== undefined && narrowest > lo * 1.01; it++) {
       const mid = Math.sqrt(lo * narrowest);
       const fit = fitsWithin(mid);

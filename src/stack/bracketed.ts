@@ -88,6 +88,9 @@ export function bracketedOperatingPoint(devices: readonly StackDevice[], gates: 
     const t = trial(devices, gates, v, mid, nodes, last);
     if (t.kind === 'low' || (t.kind === 'ok' && t.total < v)) lo = mid;
     else hi = mid;
+    if (t.kind === 'high' && t.at === n - 1 && nodes[n - 1] > devices[n - 1].slice.range.vsb[1] && topShortOfV(devices[n - 1], gates[n - 1], v, mid)) {
+      throw edgeError(devices, gates, nodes, n - 1, v);
+    }
   }
   const t = trial(devices, gates, v, lo, nodes, last);
   if (t.kind !== 'ok' || Math.abs(t.total - v) > 1e-6) {
@@ -97,6 +100,18 @@ export function bracketedOperatingPoint(devices: readonly StackDevice[], gates: 
   }
   nodes[n] = v;
   return finish(devices, gates, v, lo, nodes);
+}
+
+/**
+ * The top device's source ran beyond the table's VSB at current i, and even with its source on that edge it carries i
+ * with its drain more than the solve's tolerance below v: every current below i then leaves the stack short of v (the
+ * nodes rise with the current, and the top needs less VDS at a lower current, a lower source and a higher gate), so the
+ * bisection can only end at the VSB edge, not coverable. Spares the forty-odd trials that would show it.
+ */
+function topShortOfV(top: StackDevice, gate: number, v: number, i: number): boolean {
+  const x = top.slice.range.vsb[1];
+  const vds = vdsFor(top, gate - x, x, i, v - x + 1e-12, NaN);
+  return typeof vds === 'number' && x + vds < v - 2e-6;
 }
 
 function lin(n: number, v: number): number[] {
