@@ -1,6 +1,6 @@
 import { topologyOf } from '../topology/index.js';
 import { REL_TOL } from '../policy.js';
-import { designIndex, guessOf, outputGrid, stagePoint, type StagePoint } from '../stack/index.js';
+import { designIndex, guessOf, outputGrid, stageGain, stagePoint, type StagePoint } from '../stack/index.js';
 import { candidateKey, type Candidate } from './search/candidate.js';
 import { neighbours } from './search/refine.js';
 import { sideDesign, type Side, type SideDesign } from './stage-side.js';
@@ -91,12 +91,12 @@ function surelyMisses(sides: StageSides, input: SideDesign, load: SideDesign, ne
   // Newton starts away from the design point: the near design's solution there (a move changes one side by a step).
   const start = points[j0] ?? design();
   if (!start || vlow === null || vhigh === null) return short();
+  const guess = guessOf(start.input);
   // Gain at v (null: no solution from the design point's start, which proves nothing: the trace gets there by
-  // continuation).
+  // continuation); only the gain is read, so nothing of the input side's solution is allocated (stageGain).
   const gainAt = (v: number): number | null => {
     if (!(v > 0 && v < sides.supply)) return null;
-    const p = rangeSafe(() => stagePoint(c, v, start.load, guessOf(start.input)));
-    return p ? p.gain : null;
+    return rangeSafe(() => stageGain(c, v, start.load, guess));
   };
   const below = (v: number): boolean => {
     const g = gainAt(v);
