@@ -1,6 +1,6 @@
 import { topologyOf } from '../topology/index.js';
 import { REL_TOL } from '../policy.js';
-import { designIndex, guessOf, outputGrid, stagePoint, type StagePoint } from '../stack/index.js';
+import { designIndex, guessOf, outputGrid, stageGain, stagePoint, type StagePoint } from '../stack/index.js';
 import { candidateKey, type Candidate } from './search/candidate.js';
 import { neighbours } from './search/refine.js';
 import { sideDesign, type Side, type SideDesign } from './stage-side.js';
@@ -91,12 +91,12 @@ function surelyMisses(sides: StageSides, input: SideDesign, load: SideDesign, ne
   // Newton starts away from the design point: the near design's solution there (a move changes one side by a step).
   const start = points[j0] ?? design();
   if (!start || vlow === null || vhigh === null) return short();
+  const guess = guessOf(start.input);
   // Gain at v (null: no solution from the design point's start, which proves nothing: the trace gets there by
-  // continuation).
+  // continuation); only the gain is read, so nothing of the input side's solution is allocated (stageGain).
   const gainAt = (v: number): number | null => {
     if (!(v > 0 && v < sides.supply)) return null;
-    const p = rangeSafe(() => stagePoint(c, v, start.load, guessOf(start.input)));
-    return p ? p.gain : null;
+    return rangeSafe(() => stageGain(c, v, start.load, guess));
   };
   const below = (v: number): boolean => {
     const g = gainAt(v);
@@ -166,16 +166,35 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
     }
     return d;
   };
+  // Pairs by their side designs' identity (a move's sides come from the memos), before the key is built; and the
+  // pairs surelyMisses proved short of the swing: both settle a move again without a solve.
+  const known = new Map<SideDesign, Map<SideDesign, StageDesign | null>>();
+  const missed = new Map<SideDesign, Set<SideDesign>>();
   const pairOf = (input: SideDesign, load: SideDesign): StageDesign | null => {
+    let byLoad = known.get(input);
+    let d = byLoad?.get(load);
+    if (d !== undefined) return d;
     const key = `${candidateKey(input.cand)}/${candidateKey(load.cand)}`;
-    let d = pairs.get(key);
+    d = pairs.get(key);
     if (d === undefined) {
       d = evaluatePair(sides, input, load, judge);
       evaluated++;
       if (d && judge !== 'point') pool.push(d);
       pairs.set(key, d);
     }
+    if (!byLoad) known.set(input, (byLoad = new Map()));
+    byLoad.set(load, d);
     return d;
+  };
+  // True when the pair was traced already, or surelyMisses proves (or once proved) it misses the swing.
+  const skipped = (input: SideDesign, load: SideDesign, near: StageDesign): boolean => {
+    if (known.get(input)?.has(load)) return false;
+    let loads = missed.get(input);
+    if (loads?.has(load)) return true;
+    if (!surelyMisses(sides, input, load, near)) return false;
+    if (!loads) missed.set(input, (loads = new Set()));
+    loads.add(load);
+    return true;
   };
 
   type Steps = { input: { g: number; v: number }; load: { g: number; v: number } };
@@ -248,7 +267,7 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
         // Sorted by area: once one is not below the bound, none after it is.
         if (!(m.area < limit)) break;
         // While the bound is finite (the best meets every target) only a move that does can replace it.
-        if (limit < Infinity && surelyMisses(sides, m.input, m.load, best)) continue;
+        if (limit < Infinity && skipped(m.input, m.load, best)) continue;
         const p = pairOf(m.input, m.load);
         if (p && o.better(p, best)) {
           best = p;

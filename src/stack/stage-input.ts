@@ -89,7 +89,24 @@ function quickRoot(f: FallingSloped, sloped: boolean, lo: number, hi: number, gu
  * `guess`, a solution at a nearby voltage or current, only speeds up the root searches.
  */
 export function inputAtCurrent(devices: readonly StackDevice[], cascodeGate: number | undefined, v: number, i: number, guess?: InputGuess): InputOp | null {
-  if (!(v > 0) || !(i > 0)) return null;
+  if (!solveInput(devices, cascodeGate, v, i, guess)) return null;
+  const out = [{ ...solved.devices[0] }];
+  const nodes = [0, solved.x1];
+  if (devices.length > 1) {
+    out.push({ ...solved.devices[1] });
+    nodes.push(v);
+  }
+  return { gate: solved.gate, nodes, devices: out, rout: solved.rout };
+}
+
+/** The last solveInput's answer, overwritten by the next (the gain-only callers allocate nothing). */
+export const solved = { gate: 0, x1: 0, rout: 0, devices: [emptyBias(), emptyBias()] as DeviceBias[] };
+// routOf over the devices solved: the input device alone, or with its cascode.
+const solvedOne: DeviceBias[] = [solved.devices[0]];
+
+/** inputAtCurrent into `solved`: false where it gives null. */
+export function solveInput(devices: readonly StackDevice[], cascodeGate: number | undefined, v: number, i: number, guess?: InputGuess): boolean {
+  if (!(v > 0) || !(i > 0)) return false;
   const d0 = devices[0];
   let x1 = v;
   if (devices.length > 1) {
@@ -98,30 +115,26 @@ export function inputAtCurrent(devices: readonly StackDevice[], cascodeGate: num
     const r = d1.slice.range;
     const lo = Math.max(0, r.vsb[0], g - r.vgs[1], v - r.vds[1]);
     const hi = Math.min(v - r.vds[0], r.vsb[1], g - r.vgs[0]);
-    if (!(hi > lo)) return null;
+    if (!(hi > lo)) return false;
     const top = cascodeExcess.of(d1.slice, d1.w, i, true, true).along(g, v, 0, -1, -1, 1);
     const sloped = d1.slice.jdSlopes !== undefined;
     x1 = quickRoot(top, sloped, lo, hi, guess?.x1);
     if (Number.isNaN(x1)) {
       // The cascode must be able to pass i at the lowest x1 the table allows; at the highest it passes less.
-      if (!(top.at(lo) >= 0)) return null;
-      if (top.at(hi) >= 0) return null;
+      if (!(top.at(lo) >= 0)) return false;
+      if (top.at(hi) >= 0) return false;
       x1 = rootNear(top, sloped, lo, hi, 1e-10, guess?.x1);
     }
   }
   const g0 = gateForCurrent(d0, i, x1, guess?.gate);
-  if (g0 === null) return null;
-  const b0 = emptyBias();
-  if (!evalDevice(d0, g0, x1, 0, b0)) return null;
-  const out = [b0];
-  const nodes = [0, x1];
-  if (devices.length > 1) {
-    const b1 = emptyBias();
-    if (!evalDevice(devices[1], (cascodeGate as number) - x1, v - x1, x1, b1)) return null;
-    out.push(b1);
-    nodes.push(v);
-  }
-  return { gate: g0, nodes, devices: out, rout: routOf(out) };
+  if (g0 === null) return false;
+  const b = solved.devices;
+  if (!evalDevice(d0, g0, x1, 0, b[0])) return false;
+  if (devices.length > 1 && !evalDevice(devices[1], (cascodeGate as number) - x1, v - x1, x1, b[1])) return false;
+  solved.gate = g0;
+  solved.x1 = x1;
+  solved.rout = routOf(devices.length > 1 ? b : solvedOne);
+  return true;
 }
 
 /** The guess a solved input side gives a neighbouring solve. */

@@ -4,7 +4,7 @@ import type { DeviceBias, StackDevice, StackOp } from './types.js';
 import { solveOperatingPoint } from './operating.js';
 import { routAt } from './rout.js';
 import { continued } from './curve.js';
-import { inputAtCurrent, type InputGuess } from './stage-input.js';
+import { inputAtCurrent, solveInput, solved, type InputGuess } from './stage-input.js';
 
 /**
  * A gain stage as one circuit: the input side (its input gate free) and the
@@ -81,6 +81,29 @@ export function stagePoint(c: StageCircuit, vout: number, loadGuess?: StackOp, i
     input: { nodes: inp.nodes, devices: inp.devices },
     load: op,
   };
+}
+
+/**
+ * stagePoint's gain alone (null where it gives null), with nothing allocated for the input side: for checks that
+ * read only the gain at many outputs.
+ */
+export function stageGain(c: StageCircuit, vout: number, loadGuess?: StackOp, inputGuess?: InputGuess): number | null {
+  const load = c.device === 'n' ? 'p' : 'n';
+  const vl = sideVoltage(load, c.supply, vout);
+  const vi = sideVoltage(c.device, c.supply, vout);
+  if (!(vl > 0) || !(vi > 0)) return null;
+  let op = c.loadOps?.get(vout);
+  if (op === undefined) {
+    op = loadAt(c, vl, loadGuess);
+    c.loadOps?.set(vout, op);
+  }
+  if (op === null) return null;
+  if (!solveInput(c.input.devices, c.input.cascodeGate, vi, op.i, inputGuess)) return null;
+  const rload = routAt(op);
+  const gm = solved.devices[0].gm;
+  const par = parallel(solved.rout, rload);
+  if (!(par > 0) || !(gm > 0)) return null;
+  return gm * par;
 }
 
 /** The load's operating point at stack voltage vl; null where the table cannot cover it. */
