@@ -55,16 +55,9 @@ export function sideVoltage(device: Polarity, supply: number, vout: number): num
  * The guesses (solutions nearby) only speed up the solves.
  */
 export function stagePoint(c: StageCircuit, vout: number, loadGuess?: StackOp, inputGuess?: InputGuess): StagePoint | null {
-  const load = c.device === 'n' ? 'p' : 'n';
-  const vl = sideVoltage(load, c.supply, vout);
-  const vi = sideVoltage(c.device, c.supply, vout);
-  if (!(vl > 0) || !(vi > 0)) return null;
-  let op = c.loadOps?.get(vout);
-  if (op === undefined) {
-    op = loadAt(c, vl, loadGuess);
-    c.loadOps?.set(vout, op);
-  }
+  const op = loadAtOutput(c, vout, loadGuess);
   if (op === null) return null;
+  const vi = sideVoltage(c.device, c.supply, vout);
   const inp = inputAtCurrent(c.input.devices, c.input.cascodeGate, vi, op.i, inputGuess);
   if (!inp) return null;
   const rload = routAt(op);
@@ -88,22 +81,30 @@ export function stagePoint(c: StageCircuit, vout: number, loadGuess?: StackOp, i
  * read only the gain at many outputs.
  */
 export function stageGain(c: StageCircuit, vout: number, loadGuess?: StackOp, inputGuess?: InputGuess): number | null {
-  const load = c.device === 'n' ? 'p' : 'n';
-  const vl = sideVoltage(load, c.supply, vout);
-  const vi = sideVoltage(c.device, c.supply, vout);
-  if (!(vl > 0) || !(vi > 0)) return null;
-  let op = c.loadOps?.get(vout);
-  if (op === undefined) {
-    op = loadAt(c, vl, loadGuess);
-    c.loadOps?.set(vout, op);
-  }
+  const op = loadAtOutput(c, vout, loadGuess);
   if (op === null) return null;
+  const vi = sideVoltage(c.device, c.supply, vout);
   if (!solveInput(c.input.devices, c.input.cascodeGate, vi, op.i, inputGuess)) return null;
   const rload = routAt(op);
   const gm = solved.devices[0].gm;
   const par = parallel(solved.rout, rload);
   if (!(par > 0) || !(gm > 0)) return null;
   return gm * par;
+}
+
+/**
+ * The load's operating point at output voltage vout, from the circuit's memo when it has one; null where either side
+ * has no stack voltage there or the table cannot cover the load.
+ */
+function loadAtOutput(c: StageCircuit, vout: number, guess?: StackOp): StackOp | null {
+  const vl = sideVoltage(c.device === 'n' ? 'p' : 'n', c.supply, vout);
+  if (!(vl > 0) || !(sideVoltage(c.device, c.supply, vout) > 0)) return null;
+  let op = c.loadOps?.get(vout);
+  if (op === undefined) {
+    op = loadAt(c, vl, guess);
+    c.loadOps?.set(vout, op);
+  }
+  return op;
 }
 
 /** The load's operating point at stack voltage vl; null where the table cannot cover it. */
