@@ -10,7 +10,6 @@ const STEP = [0, 0.05, 0.1];
 const LOWEST = 0.05;
 const TOP_ROOM = 0.05;
 
-
 /**
  * Candidates with every device on the width limit, for when nothing the searches evaluated is usable (every design too
  * wide, say, at a high current under a tight limit): each tuple of lengths and of setpoints on a coarse grid, every
