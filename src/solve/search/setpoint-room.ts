@@ -5,11 +5,12 @@ import { pulledToLimit } from './width-edge.js';
 
 // Setpoint spacing of the fallback's grid, V (widened in 25 mV steps to keep at most LEVELS setpoints per device, so
 // a high mid-span stays a few thousand candidates; at 50 mV the climbs from it missed a Rout ridge the reference finds
-// 17 % higher), its lowest setpoint, and the room the top device keeps at mid-span.
+// 17 % higher), its lowest setpoint, and the room the top device keeps at mid-span (the last two shared with
+// width-room.ts's fallback).
 const STEP = 0.025;
 const LEVELS = 16;
-const LOWEST = 0.05;
-const TOP_ROOM = 0.05;
+export const LOWEST = 0.05;
+export const TOP_ROOM = 0.05;
 
 /** Up to three of the allowed lengths: the shortest, the longest and the one between them. */
 export function someLengths(lengths: readonly number[]): number[] {

@@ -2,13 +2,11 @@ import { topologyOf } from '../../topology/index.js';
 import type { SolveContext } from '../context.js';
 import type { Candidate } from './candidate.js';
 import { pulledToLimit } from './width-edge.js';
-import { someLengths } from './setpoint-room.js';
+import { LOWEST, TOP_ROOM, someLengths } from './setpoint-room.js';
 
-// Setpoint spacing, V, by setpoint count (one setpoint: a line; two: a coarser grid of pairs), the lowest setpoint and
-// the room the top device keeps at mid-span. Coarse on purpose: the climbs and line probes refine from these.
+// Setpoint spacing, V, by setpoint count (one setpoint: a line; two: a coarser grid of pairs); the lowest setpoint and
+// the top device's room at mid-span are setpoint-room.ts's. Coarse on purpose: the climbs and line probes refine from these.
 const STEP = [0, 0.05, 0.1];
-const LOWEST = 0.05;
-const TOP_ROOM = 0.05;
 
 /**
  * Candidates with every device on the width limit, for when nothing the searches evaluated is usable (every design too
@@ -40,12 +38,8 @@ function* widthRoomRaw(ctx: SolveContext, topology: string): Generator<Candidate
     for (let s = LOWEST; sum + s + LOWEST * (m - prefix.length - 1) <= room + 1e-9; s += STEP[m]) fill([...prefix, Math.round(s * 1e6) / 1e6], sum + s);
   };
   fill([], 0);
-  const lengthTuples: number[][] = [[]];
-  for (let k = 0; k < n; k++) {
-    const next: number[][] = [];
-    for (const t of lengthTuples) for (const l of ls) next.push([...t, l]);
-    lengthTuples.splice(0, lengthTuples.length, ...next);
-  }
+  let lengthTuples: number[][] = [[]];
+  for (let k = 0; k < n; k++) lengthTuples = lengthTuples.flatMap((t) => ls.map((l) => [...t, l]));
   for (const l of lengthTuples) {
     for (const setpoints of setpointTuples) yield { topology, l, gmid: l.map(() => gHi), setpoints };
   }
