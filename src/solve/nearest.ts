@@ -100,12 +100,12 @@ function higherRout(a: Evaluated, b: Evaluated): boolean {
  * the pool is settled before one only when it holds fewer than two such designs. Climbing width from a physical
  * design: moves not physical, or no narrower.
  */
-const headroomHopeless = (ctx: SolveContext, pool: readonly Evaluated[]): Hopeless => (l, best) => {
+const headroomHopeless = (ctx: SolveContext, byRout: Leaders): Hopeless => (l, best) => {
   if (!usable(best)) return false;
   if (l.midMiss) return true;
   if (!routSurelyBelow(l, ctx.spec.rout)) return false;
   if (l.widest > ctx.wmax) return true;
-  const [, r2] = bestOf(pool, higherRout, 2);
+  const r2 = byRout.second();
   return r2 !== undefined && usable(r2) && beyondSeeds(ctx, l, best.nominal.headroom, r2);
 };
 const routBelowFromUsable = (ctx: SolveContext): Hopeless => (l, best) =>
@@ -121,23 +121,46 @@ function beyondSeeds(ctx: SolveContext, l: Look, h: number, r2: Evaluated): bool
   return Number.isFinite(h) && routSurelyBelow(l, r2.nominal.routAtTarget) && routSurelyBelowAt(l, scanPointAtOrAbove(ctx.spec.span, h), ctx.spec.rout);
 }
 
-/** The best k of the pool by `prefer`, after settling skipped moves when fewer than two designs are of `first`'s kind. */
-function seedsOf(ctx: SolveContext, pool: Evaluated[], seen: Seen, prefer: (a: Evaluated, b: Evaluated) => boolean, first: (e: Evaluated) => boolean): Evaluated[] {
+/** The best two of the pool (`best`), after settling skipped moves when fewer than two designs are of `first`'s kind. */
+function seedsOf(ctx: SolveContext, pool: Evaluated[], seen: Seen, best: () => Evaluated[], first: (e: Evaluated) => boolean): Evaluated[] {
   let n = 0;
   for (const e of pool) if (first(e) && ++n >= 2) break;
   if (n < 2) settle(ctx, seen, pool);
-  return bestOf(pool, prefer, 2);
+  return best();
 }
 
 function bestOf(pool: readonly Evaluated[], prefer: (a: Evaluated, b: Evaluated) => boolean, k: number): Evaluated[] {
   const out: Evaluated[] = [];
-  for (const e of pool) {
-    let j = out.length;
-    while (j > 0 && prefer(e, out[j - 1])) j--;
-    if (j < k) out.splice(j, 0, e);
-    if (out.length > k) out.pop();
-  }
+  for (const e of pool) placeIn(out, e, prefer, k);
   return out;
+}
+
+/** `e` into `out`, the best k so far by `prefer` in order (after those it does not beat). */
+function placeIn(out: Evaluated[], e: Evaluated, prefer: (a: Evaluated, b: Evaluated) => boolean, k: number): void {
+  let j = out.length;
+  while (j > 0 && prefer(e, out[j - 1])) j--;
+  if (j < k) out.splice(j, 0, e);
+  if (out.length > k) out.pop();
+}
+
+/** The best two of a pool by one order, as bestOf gives them, read many times while the pool grows. */
+interface Leaders {
+  top(): Evaluated[];
+  second(): Evaluated | undefined;
+}
+
+/**
+ * Leaders brought up to date from the designs added since the last read rather than the whole pool each time. Valid
+ * while the pool only gains designs and their figures stay as evaluated: until the climbs' answers are finalized.
+ */
+function leadersOf(pool: readonly Evaluated[], prefer: (a: Evaluated, b: Evaluated) => boolean): Leaders {
+  const out: Evaluated[] = [];
+  let read = 0;
+  const update = () => {
+    for (; read < pool.length; read++) placeIn(out, pool[read], prefer, 2);
+    return out;
+  };
+  return { top: () => [...update()], second: () => update()[1] };
 }
 
 /**
@@ -148,10 +171,10 @@ function bestOf(pool: readonly Evaluated[], prefer: (a: Evaluated, b: Evaluated)
  * Rout at the headroom target is below the second-highest). The pool only gains designs, so the second-best figures
  * only improve and the judgement stays true. A climb that reaches it evaluates it then (or rules it out surely).
  */
-function outOfReach(ctx: SolveContext, l: Look | null, pool: readonly Evaluated[]): boolean {
+function outOfReach(ctx: SolveContext, l: Look | null, byHeadroom: Leaders, byRout: Leaders): boolean {
   if (!l || !routSurelyBelow(l, ctx.spec.rout)) return false;
-  const [, h2] = bestOf(pool, lowerHeadroom, 2);
-  const [, r2] = bestOf(pool, higherRout, 2);
+  const h2 = byHeadroom.second();
+  const r2 = byRout.second();
   if (!h2 || !r2 || !usable(h2) || !usable(r2)) return false;
   if (l.midMiss || l.widest > ctx.wmax) return true;
   return beyondSeeds(ctx, l, h2.nominal.headroom, r2);
@@ -160,9 +183,9 @@ function outOfReach(ctx: SolveContext, l: Look | null, pool: readonly Evaluated[
 /**
  * The screen again with the headroom target lifted towards mid-span (so the VDS setpoints may use all the room below
  * it), each proposal evaluated exactly at the spec's own targets unless a quick look shows it out of reach
- * (left for settle).
+ * (`beyond`: left for settle).
  */
-function liftedScreen(ctx: SolveContext, topology: Topology, pool: Evaluated[], seen: Seen): void {
+function liftedScreen(ctx: SolveContext, topology: Topology, pool: Evaluated[], seen: Seen, beyond: (l: Look | null) => boolean): void {
   const lifted = Math.max(ctx.spec.headroom, ctx.vmid - 0.05);
   if (!(lifted > ctx.spec.headroom)) return;
   const wide: SolveContext = { ...ctx, spec: { ...ctx.spec, headroom: lifted, objective: 'headroom' } };
@@ -171,7 +194,7 @@ function liftedScreen(ctx: SolveContext, topology: Topology, pool: Evaluated[], 
     let start: Start | undefined;
     if (!seen.has(k)) {
       const l = lookOnce(ctx, seen, k, c);
-      if (outOfReach(ctx, l, pool)) {
+      if (beyond(l)) {
         defer(seen, k, c);
         continue;
       }
@@ -263,9 +286,12 @@ export function nearestPoints(
   ctx: SolveContext, topology: Topology, pool: Evaluated[], seen: Seen,
   fitsWithin?: (wmax: number) => Evaluated | null,
 ): Nearest {
+  const byHeadroom = leadersOf(pool, lowerHeadroom);
+  const byRout = leadersOf(pool, higherRout);
+  const beyond = (l: Look | null) => outOfReach(ctx, l, byHeadroom, byRout);
   // What the sizing search left unevaluated, then the lifted screen: only what the nearest points may read.
-  settle(ctx, seen, pool, (l) => outOfReach(ctx, l, pool));
-  liftedScreen(ctx, topology, pool, seen);
+  settle(ctx, seen, pool, beyond);
+  liftedScreen(ctx, topology, pool, seen, beyond);
   // Nothing usable yet (every design too wide, say): designs with every device on the width limit, to climb from.
   if (!pool.some(usable)) {
     for (const c of widthRoomCandidates(ctx, topology)) {
@@ -273,20 +299,20 @@ export function nearestPoints(
       if (e) pool.push(e);
     }
   }
-  let hr = refine(ctx, bestOf(pool, lowerHeadroom, 2), seen, pool, lowerHeadroom, headroomHopeless(ctx, pool), NEAREST_ROUNDS);
-  let ro = refine(ctx, seedsOf(ctx, pool, seen, higherRout, usable), seen, pool, higherRout, routBelowFromUsable(ctx), NEAREST_ROUNDS);
+  let hr = refine(ctx, byHeadroom.top(), seen, pool, lowerHeadroom, headroomHopeless(ctx, byRout), NEAREST_ROUNDS);
+  let ro = refine(ctx, seedsOf(ctx, pool, seen, byRout.top, usable), seen, pool, higherRout, routBelowFromUsable(ctx), NEAREST_ROUNDS);
   // The saturation-edge probes (see lineProbes) serve Rout at the headroom target only.
   if (ro) ro = probeFurther(ctx, ro, seen, pool, higherRout, routBelowFromUsable(ctx), true);
   // The headroom climb keeps to devices like its seeds', while the lowest headroom can lie far from them (another
   // length, on the width limit): the same probes follow it, after the Rout climb's, which then sees the pool as before.
-  if (hr) hr = probeFurther(ctx, hr, seen, pool, lowerHeadroom, headroomHopeless(ctx, pool));
+  if (hr) hr = probeFurther(ctx, hr, seen, pool, lowerHeadroom, headroomHopeless(ctx, byRout));
   // The figures come from the full curve, as every reported design's do, so they match wherever shown.
   if (hr) finalize(ctx, hr);
   if (ro) finalize(ctx, ro);
   let narrowest: number | undefined;
   let atWidth: Evaluated | undefined;
   if (pool.some(physical) && !pool.some((e) => physical(e) && e.margins.width >= 0)) {
-    const w = refine(ctx, seedsOf(ctx, pool, seen, narrower, physical), seen, pool, narrower, widerFromPhysical(ctx));
+    const w = refine(ctx, seedsOf(ctx, pool, seen, () => bestOf(pool, narrower, 2), physical), seen, pool, narrower, widerFromPhysical(ctx));
     if (w && physical(w)) {
       narrowest = widestOf(w);
       atWidth = w;
