@@ -323,10 +323,12 @@ export function nearestPoints(
     // the last limit it would try after failing throughout finds none, that one search settles it.
     let last = lo;
     for (let it = 0; it < 4 && narrowest !== undefined && narrowest > last * 1.01; it++) last = Math.sqrt(last * narrowest);
-    if (fitsWithin && narrowest !== undefined && last > lo && fitsWithin(last) === null) lo = narrowest;
-    for (let it = 0; it < 4 && fitsWithin && narrowest !== undefined && narrowest > lo * 1.01; it++) {
+    // Each limit searched once: where the search at `last` finds a design, failing throughout ends on `last` again.
+    const fits = fitsWithin && onceEach(fitsWithin);
+    if (fits && narrowest !== undefined && last > lo && fits(last) === null) lo = narrowest;
+    for (let it = 0; it < 4 && fits && narrowest !== undefined && narrowest > lo * 1.01; it++) {
       const mid = Math.sqrt(lo * narrowest);
-      const fit = fitsWithin(mid);
+      const fit = fits(mid);
       if (fit === null) lo = mid;
       else if (widestOf(fit) < narrowest) {
         narrowest = widestOf(fit);
@@ -343,6 +345,16 @@ export function nearestPoints(
   };
   if (ctx.corners.length > 1) out.overCorners = nearestOverCorners(ctx, pool, seen, [hr, ro]);
   return out;
+}
+
+/** `f` made once per argument (a search under a width limit is the same whenever it runs). */
+function onceEach(f: (w: number) => Evaluated | null): (w: number) => Evaluated | null {
+  const made = new Map<number, Evaluated | null>();
+  return (w) => {
+    let e = made.get(w);
+    if (e === undefined) made.set(w, (e = f(w)));
+    return e;
+  };
 }
 
 /** Designs looked at per order for seeds usable at every corner (each look evaluates every corner in full). */
