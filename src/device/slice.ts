@@ -49,10 +49,10 @@ export class TableSlice implements LengthSlice {
   private tg = 0;
   private td = 0;
   private ts = 0;
-  // Lower node of that cell along each axis.
-  private cellG = 0;
-  private cellD = 0;
-  private cellS = 0;
+  // Width of that cell along each axis.
+  private wG = NaN;
+  private wD = NaN;
+  private wS = NaN;
   // The point of that cell: a lookup at the same point again (Newton's last pass, then the small-signal
   // values at the solution) reuses it. NaN until the first lookup succeeds.
   private atG = NaN;
@@ -161,9 +161,9 @@ export class TableSlice implements LengthSlice {
     }
     const k = this.perW;
     out[0] = f * k;
-    out[1] = this.lg.step ? (ft * k) / (this.lg.values[this.cellG + 1] - this.lg.values[this.cellG]) : 0;
-    out[2] = this.ld.step ? (fu * k) / (this.ld.values[this.cellD + 1] - this.ld.values[this.cellD]) : 0;
-    out[3] = this.ls.step ? (fv * k) / (this.ls.values[this.cellS + 1] - this.ls.values[this.cellS]) : 0;
+    out[1] = this.lg.step ? (ft * k) / this.wG : 0;
+    out[2] = this.ld.step ? (fu * k) / this.wD : 0;
+    out[3] = this.ls.step ? (fv * k) / this.wS : 0;
   }
 
   /** [gm/W, gds/W, gmb/W] into out[0..2], the same values as small()[1..3]: a DC solve has jd from jdSlopes. */
@@ -218,9 +218,9 @@ export class TableSlice implements LengthSlice {
     const is = this.ls.locate(vsb);
     if (is < 0) throw rangeError('vsb', vsb, this.ls.lo, this.ls.hi, 'V', this.where());
     this.base = ig * this.stG + id * this.stD + is;
-    this.cellG = ig;
-    this.cellD = id;
-    this.cellS = is;
+    this.wG = this.lg.width;
+    this.wD = this.ld.width;
+    this.wS = this.ls.width;
     this.tg = this.lg.t;
     this.td = this.ld.t;
     this.ts = this.ls.t;

@@ -18,8 +18,15 @@ export class AxisLocator {
   readonly step: 0 | 1;
   /** Fraction across the cell found by the last successful `locate`. */
   t = 0;
+  /** Width v[i + 1] − v[i] of that cell (NaN before the first `locate` and on a single-point axis). */
+  width = NaN;
   private readonly uniform: boolean;
   private readonly invStep: number;
+  // The last cell found, [cellLo, cellHi): lookups are local (Newton steps, sweeps), so most land in it again.
+  // Empty until a cell is found; never set on a single-point axis.
+  private cell = 0;
+  private cellLo = Infinity;
+  private cellHi = -Infinity;
 
   constructor(values: Float64Array) {
     this.values = values;
@@ -33,33 +40,44 @@ export class AxisLocator {
     this.invStep = this.n > 1 ? (this.n - 1) / span : 0;
   }
 
-  /** Index of the lower node of the cell holding x (sets `t`), or -1 outside the axis or for NaN. */
+  /** Index of the lower node of the cell holding x (sets `t` and `width`), or -1 outside the axis or for NaN. */
   locate(x: number): number {
-    const v = this.values;
+    // Inside the last cell (false for NaN): the cell and fraction a search would give, in a few instructions.
+    if (x >= this.cellLo && x < this.cellHi) {
+      this.t = (x - this.cellLo) / this.width;
+      return this.cell;
+    }
+    return this.search(x);
+  }
+
+  private search(x: number): number {
     if (!(x >= this.lo - this.tolerance && x <= this.hi + this.tolerance)) return -1;
     const last = this.n - 2;
-    if (last < 0 || x <= this.lo) {
+    if (last < 0) {
       this.t = 0;
       return 0;
     }
-    if (x >= this.hi) {
-      this.t = 1;
-      return last;
-    }
-    let i: number;
-    if (this.uniform) {
-      i = Math.floor((x - this.lo) * this.invStep);
-      if (i > last) i = last;
-      // The guess can be off by one through rounding; the node values decide. One step each way runs on every
-      // call (an increment the compiler has never seen run would throw its code away); the loops only in theory.
-      i -= i > 0 && x < v[i] ? 1 : 0;
-      i += i < last && x >= v[i + 1] ? 1 : 0;
-      while (i > 0 && x < v[i]) i--;
-      while (i < last && x >= v[i + 1]) i++;
-    } else {
-      i = cellOf(v, x);
-    }
-    this.t = (x - v[i]) / (v[i + 1] - v[i]);
+    const v = this.values;
+    const i = x <= this.lo ? 0 : x >= this.hi ? last : this.uniform ? this.uniformCell(x, last) : cellOf(v, x);
+    this.cell = i;
+    this.cellLo = v[i];
+    this.cellHi = v[i + 1];
+    this.width = v[i + 1] - v[i];
+    this.t = x <= this.lo ? 0 : x >= this.hi ? 1 : (x - v[i]) / this.width;
+    return i;
+  }
+
+  // The cell of lo < x < hi on a uniform axis: an index guess, which rounding can put one off, corrected by the node values.
+  private uniformCell(x: number, last: number): number {
+    const v = this.values;
+    let i = Math.floor((x - this.lo) * this.invStep);
+    if (i > last) i = last;
+    // One step each way runs on every call (an increment the compiler has never seen run would throw its code away);
+    // the loops only in theory.
+    i -= i > 0 && x < v[i] ? 1 : 0;
+    i += i < last && x >= v[i + 1] ? 1 : 0;
+    while (i > 0 && x < v[i]) i--;
+    while (i < last && x >= v[i + 1]) i++;
     return i;
   }
 }
