@@ -26,24 +26,25 @@ import type { LengthPlane } from './plane.js';
  * Everything is per metre of width: table value / referenceWidth.
  */
 export class TableSlice implements LengthSlice {
-  readonly l: number;
-  readonly table: DeviceTable;
-  readonly range: { vgs: [number, number]; vds: [number, number]; vsb: [number, number] };
-  readonly edges: Float64Array;
+  // `declare`d fields are set in the constructor without an undefined first (see AxisLocator).
+  declare readonly l: number;
+  declare readonly table: DeviceTable;
+  declare readonly range: { vgs: [number, number]; vds: [number, number]; vsb: [number, number] };
+  declare readonly edges: Float64Array;
   /** Conductances estimated because the table lacks them, with how. */
-  readonly estimated: Partial<Record<StoredQuantity, string>>;
-  private readonly plane: LengthPlane;
-  private readonly perW: number;
-  private readonly lg: AxisLocator;
-  private readonly ld: AxisLocator;
-  private readonly ls: AxisLocator;
-  private readonly sG: number;
-  private readonly sD: number;
-  private readonly sS: number;
+  declare readonly estimated: Partial<Record<StoredQuantity, string>>;
+  declare private readonly plane: LengthPlane;
+  declare private readonly perW: number;
+  declare private readonly lg: AxisLocator;
+  declare private readonly ld: AxisLocator;
+  declare private readonly ls: AxisLocator;
+  declare private readonly sG: number;
+  declare private readonly sD: number;
+  declare private readonly sS: number;
   // Row-major strides of the plane along vgs and vds (vsb's is 1).
-  private readonly stG: number;
-  private readonly stD: number;
-  private readonly label: string;
+  declare private readonly stG: number;
+  declare private readonly stD: number;
+  declare private readonly label: string;
   // Cell of the last locate(): base offset and fractions.
   private base = 0;
   private tg = 0;
@@ -60,10 +61,10 @@ export class TableSlice implements LengthSlice {
   private atS = NaN;
   private readonly scratch = new Float64Array(4);
   // Direct references for the hot path.
-  private readonly pId: Float64Array;
-  private readonly pGm: Float64Array;
-  private readonly pGds: Float64Array;
-  private readonly pGmb: Float64Array;
+  declare private readonly pId: Float64Array;
+  declare private readonly pGm: Float64Array;
+  declare private readonly pGds: Float64Array;
+  declare private readonly pGmb: Float64Array;
 
   constructor(table: DeviceTable, l: number) {
     this.table = table;

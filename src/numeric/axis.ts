@@ -9,19 +9,21 @@ import { TABLE_EDGE } from '../policy.js';
  * last cell; `locate` returns −1 (no cell) rather than clamping outside.
  */
 export class AxisLocator {
-  readonly values: Float64Array;
-  readonly n: number;
-  readonly lo: number;
-  readonly hi: number;
-  readonly tolerance: number;
+  // Fields set in the constructor are `declare`d: a plain declaration compiles to a class field defined as
+  // undefined first, which leaves V8 a generic field and a type check at every read on the lookup path.
+  declare readonly values: Float64Array;
+  declare readonly n: number;
+  declare readonly lo: number;
+  declare readonly hi: number;
+  declare readonly tolerance: number;
   /** 0 for a single-point axis (the neighbour is the point itself), else 1. */
-  readonly step: 0 | 1;
+  declare readonly step: 0 | 1;
   /** Fraction across the cell found by the last successful `locate`. */
   t = 0;
   /** Width v[i + 1] − v[i] of that cell (NaN before the first `locate` and on a single-point axis). */
   width = NaN;
-  private readonly uniform: boolean;
-  private readonly invStep: number;
+  declare private readonly uniform: boolean;
+  declare private readonly invStep: number;
   // The last cell found, [cellLo, cellHi): lookups are local (Newton steps, sweeps), so most land in it again.
   // Empty until a cell is found; never set on a single-point axis.
   private cell = 0;
