@@ -60,26 +60,17 @@ export class AxisLocator {
       return 0;
     }
     const v = this.values;
-    const i = x <= this.lo ? 0 : x >= this.hi ? last : this.uniform ? this.uniformCell(x, last) : cellOf(v, x);
+    let i = x <= this.lo ? 0 : x >= this.hi ? last : this.uniform ? Math.floor((x - this.lo) * this.invStep) : cellOf(v, x);
+    if (i > last) i = last;
+    // A uniform axis' guess can be one off through rounding (its nodes are within 1e-9 of the span of the ideal
+    // grid, far less than a step, so never more); the node values decide. No-ops otherwise.
+    i -= i > 0 && x < v[i] ? 1 : 0;
+    i += i < last && x >= v[i + 1] ? 1 : 0;
     this.cell = i;
     this.cellLo = v[i];
     this.cellHi = v[i + 1];
     this.width = v[i + 1] - v[i];
     this.t = x <= this.lo ? 0 : x >= this.hi ? 1 : (x - v[i]) / this.width;
-    return i;
-  }
-
-  // The cell of lo < x < hi on a uniform axis: an index guess, which rounding can put one off, corrected by the node values.
-  private uniformCell(x: number, last: number): number {
-    const v = this.values;
-    let i = Math.floor((x - this.lo) * this.invStep);
-    if (i > last) i = last;
-    // One step each way runs on every call (an increment the compiler has never seen run would throw its code away);
-    // the loops only in theory.
-    i -= i > 0 && x < v[i] ? 1 : 0;
-    i += i < last && x >= v[i + 1] ? 1 : 0;
-    while (i > 0 && x < v[i]) i--;
-    while (i < last && x >= v[i + 1]) i++;
     return i;
   }
 }
