@@ -2,7 +2,8 @@ import { TABLE_EDGE } from '../policy.js';
 
 /**
  * Finds the cell of a strictly increasing axis that holds a value, without
- * allocating. Uniform axes get an O(1) index guess; others a binary search.
+ * allocating. The cell found last is tried first (lookups are local); then
+ * uniform axes get an O(1) index guess, others a binary search.
  * Values within `tolerance` (1e-9 of the span) of an edge count as on the edge,
  * so rounding in callers does not turn into range errors; nothing farther out
  * is accepted. Like numpy.searchsorted(values, x, 'right') − 1 clipped to the
@@ -44,9 +45,10 @@ export class AxisLocator {
 
   /** Index of the lower node of the cell holding x (sets `t` and `width`), or -1 outside the axis or for NaN. */
   locate(x: number): number {
-    // Inside the last cell (false for NaN): the cell and fraction a search would give, in a few instructions.
+    // Inside the last cell (false for NaN): the cell and fraction a search would give, in a few instructions
+    // (+ 0 turns the −0 of x = −0 on a lower end of 0 into the search's 0; it changes no other value).
     if (x >= this.cellLo && x < this.cellHi) {
-      this.t = (x - this.cellLo) / this.width;
+      this.t = (x - this.cellLo) / this.width + 0;
       return this.cell;
     }
     return this.search(x);
