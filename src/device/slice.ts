@@ -26,44 +26,43 @@ import type { LengthPlane } from './plane.js';
  * Everything is per metre of width: table value / referenceWidth.
  */
 export class TableSlice implements LengthSlice {
-  readonly l: number;
-  readonly table: DeviceTable;
-  readonly range: { vgs: [number, number]; vds: [number, number]; vsb: [number, number] };
-  readonly edges: Float64Array;
+  // `declare`d fields are set in the constructor without an undefined first (see AxisLocator).
+  declare readonly l: number;
+  declare readonly table: DeviceTable;
+  declare readonly range: { vgs: [number, number]; vds: [number, number]; vsb: [number, number] };
+  declare readonly edges: Float64Array;
   /** Conductances estimated because the table lacks them, with how. */
-  readonly estimated: Partial<Record<StoredQuantity, string>>;
-  private readonly plane: LengthPlane;
-  private readonly perW: number;
-  private readonly lg: AxisLocator;
-  private readonly ld: AxisLocator;
-  private readonly ls: AxisLocator;
-  private readonly sG: number;
-  private readonly sD: number;
-  private readonly sS: number;
+  declare readonly estimated: Partial<Record<StoredQuantity, string>>;
+  declare private readonly plane: LengthPlane;
+  declare private readonly perW: number;
+  declare private readonly lg: AxisLocator;
+  declare private readonly ld: AxisLocator;
+  declare private readonly ls: AxisLocator;
+  declare private readonly sG: number;
+  declare private readonly sD: number;
+  declare private readonly sS: number;
   // Row-major strides of the plane along vgs and vds (vsb's is 1).
-  private readonly stG: number;
-  private readonly stD: number;
-  private readonly label: string;
+  declare private readonly stG: number;
+  declare private readonly stD: number;
+  declare private readonly label: string;
   // Cell of the last locate(): base offset and fractions.
   private base = 0;
   private tg = 0;
   private td = 0;
   private ts = 0;
-  // Lower node of that cell along each axis.
-  private cellG = 0;
-  private cellD = 0;
-  private cellS = 0;
+  // Width of that cell along each axis.
+  private wG = NaN;
+  private wD = NaN;
+  private wS = NaN;
   // The point of that cell: a lookup at the same point again (Newton's last pass, then the small-signal
   // values at the solution) reuses it. NaN until the first lookup succeeds.
   private atG = NaN;
   private atD = NaN;
   private atS = NaN;
   private readonly scratch = new Float64Array(4);
-  // Direct references for the hot path.
-  private readonly pId: Float64Array;
-  private readonly pGm: Float64Array;
-  private readonly pGds: Float64Array;
-  private readonly pGmb: Float64Array;
+  // Direct references for the hot path: id, then the conductances in small()'s order.
+  declare private readonly pId: Float64Array;
+  declare private readonly small4: Float64Array[];
 
   constructor(table: DeviceTable, l: number) {
     this.table = table;
@@ -75,9 +74,7 @@ export class TableSlice implements LengthSlice {
     const q = this.plane.q;
     this.pId = q.id;
     // plane.ts fills any missing conductance with an estimate, so these exist.
-    this.pGm = q.gm as Float64Array;
-    this.pGds = q.gds as Float64Array;
-    this.pGmb = q.gmb as Float64Array;
+    this.small4 = [q.id, q.gm as Float64Array, q.gds as Float64Array, q.gmb as Float64Array];
     this.lg = new AxisLocator(table.axes.vgs);
     this.ld = new AxisLocator(table.axes.vds);
     this.ls = new AxisLocator(table.axes.vsb);
@@ -103,17 +100,14 @@ export class TableSlice implements LengthSlice {
 
   jd(vgs: number, vds: number, vsb: number): number {
     this.locate(vgs, vds, vsb);
-    return this.eval(this.pId, true) * this.perW;
+    this.evalInto(0, 1, this.scratch);
+    return this.scratch[0];
   }
 
   small(vgs: number, vds: number, vsb: number, out?: Float64Array): Float64Array {
     const res = out ?? new Float64Array(4);
     this.locate(vgs, vds, vsb);
-    const k = this.perW;
-    this.evalInto(this.pId, res, 0, k);
-    this.evalInto(this.pGm, res, 1, k);
-    this.evalInto(this.pGds, res, 2, k);
-    this.evalInto(this.pGmb, res, 3, k);
+    this.evalInto(0, 4, res);
     return res;
   }
 
@@ -161,25 +155,21 @@ export class TableSlice implements LengthSlice {
     }
     const k = this.perW;
     out[0] = f * k;
-    out[1] = this.lg.step ? (ft * k) / (this.lg.values[this.cellG + 1] - this.lg.values[this.cellG]) : 0;
-    out[2] = this.ld.step ? (fu * k) / (this.ld.values[this.cellD + 1] - this.ld.values[this.cellD]) : 0;
-    out[3] = this.ls.step ? (fv * k) / (this.ls.values[this.cellS + 1] - this.ls.values[this.cellS]) : 0;
+    out[1] = this.lg.step ? (ft * k) / this.wG : 0;
+    out[2] = this.ld.step ? (fu * k) / this.wD : 0;
+    out[3] = this.ls.step ? (fv * k) / this.wS : 0;
   }
 
   /** [gm/W, gds/W, gmb/W] into out[0..2], the same values as small()[1..3]: a DC solve has jd from jdSlopes. */
   conductances(vgs: number, vds: number, vsb: number, out: Float64Array): void {
     this.locate(vgs, vds, vsb);
-    const k = this.perW;
-    this.evalInto(this.pGm, out, 0, k);
-    this.evalInto(this.pGds, out, 1, k);
-    this.evalInto(this.pGmb, out, 2, k);
+    this.evalInto(1, 4, out);
   }
 
   /** [jd, gm/W] into out[0..1], the same values as small(): half the work for gm/ID searches. */
   jdGm(vgs: number, vds: number, vsb: number, out: Float64Array): void {
     this.locate(vgs, vds, vsb);
-    this.evalInto(this.pId, out, 0, this.perW);
-    this.evalInto(this.pGm, out, 1, this.perW);
+    this.evalInto(0, 2, out);
   }
 
   /** One quantity at the reference width (NaN when the table lacks it). */
@@ -218,9 +208,9 @@ export class TableSlice implements LengthSlice {
     const is = this.ls.locate(vsb);
     if (is < 0) throw rangeError('vsb', vsb, this.ls.lo, this.ls.hi, 'V', this.where());
     this.base = ig * this.stG + id * this.stD + is;
-    this.cellG = ig;
-    this.cellD = id;
-    this.cellS = is;
+    this.wG = this.lg.width;
+    this.wD = this.ld.width;
+    this.wS = this.ls.width;
     this.tg = this.lg.t;
     this.td = this.ld.t;
     this.ts = this.ls.t;
@@ -253,23 +243,24 @@ export class TableSlice implements LengthSlice {
     return logVgs && a > 0 && c > 0 ? a * Math.exp(t * Math.log(c / a)) : lin;
   }
 
-  // eval(p, true) · k written into out[j]: no double is returned, so none is boxed when this is not inlined.
-  private evalInto(p: Float64Array, out: Float64Array, j: number, k: number): void {
+  // eval(q, true) · perW of small()'s quantities from..to−1 into out[0..]: one call for them all (the CLI runs without
+  // inlining), and no double passed or returned, so none is boxed.
+  private evalInto(from: number, to: number, out: Float64Array): void {
     const b = this.base;
     const u = this.td;
     const v = this.ts;
     const sD = this.sD;
     const sS = this.sS;
-    const a = (1 - u) * ((1 - v) * p[b] + v * p[b + sS]) + u * ((1 - v) * p[b + sD] + v * p[b + sD + sS]);
     const g = b + this.sG;
-    const c = (1 - u) * ((1 - v) * p[g] + v * p[g + sS]) + u * ((1 - v) * p[g + sD] + v * p[g + sD + sS]);
     const t = this.tg;
-    if (t === 0) out[j] = a * k;
-    else if (t === 1) out[j] = c * k;
-    else {
+    const k = this.perW;
+    for (let q = from; q < to; q++) {
+      const p = this.small4[q];
+      const a = (1 - u) * ((1 - v) * p[b] + v * p[b + sS]) + u * ((1 - v) * p[b + sD] + v * p[b + sD + sS]);
+      const c = (1 - u) * ((1 - v) * p[g] + v * p[g + sS]) + u * ((1 - v) * p[g + sD] + v * p[g + sD + sS]);
       // As in eval: the linear value on every call, so its arithmetic has type feedback when a sign change needs it.
       const lin = (1 - t) * a + t * c;
-      out[j] = (a > 0 && c > 0 ? a * Math.exp(t * Math.log(c / a)) : lin) * k;
+      out[q - from] = (t === 0 ? a : t === 1 ? c : a > 0 && c > 0 ? a * Math.exp(t * Math.log(c / a)) : lin) * k;
     }
   }
 }

@@ -2,24 +2,34 @@ import { TABLE_EDGE } from '../policy.js';
 
 /**
  * Finds the cell of a strictly increasing axis that holds a value, without
- * allocating. Uniform axes get an O(1) index guess; others a binary search.
+ * allocating. The cell found last is tried first (lookups are local); then
+ * uniform axes get an O(1) index guess, others a binary search.
  * Values within `tolerance` (1e-9 of the span) of an edge count as on the edge,
  * so rounding in callers does not turn into range errors; nothing farther out
  * is accepted. Like numpy.searchsorted(values, x, 'right') − 1 clipped to the
  * last cell; `locate` returns −1 (no cell) rather than clamping outside.
  */
 export class AxisLocator {
-  readonly values: Float64Array;
-  readonly n: number;
-  readonly lo: number;
-  readonly hi: number;
-  readonly tolerance: number;
+  // Fields set in the constructor are `declare`d: a plain declaration compiles to a class field defined as
+  // undefined first, which leaves V8 a generic field and a type check at every read on the lookup path.
+  declare readonly values: Float64Array;
+  declare readonly n: number;
+  declare readonly lo: number;
+  declare readonly hi: number;
+  declare readonly tolerance: number;
   /** 0 for a single-point axis (the neighbour is the point itself), else 1. */
-  readonly step: 0 | 1;
+  declare readonly step: 0 | 1;
   /** Fraction across the cell found by the last successful `locate`. */
   t = 0;
-  private readonly uniform: boolean;
-  private readonly invStep: number;
+  /** Width v[i + 1] − v[i] of that cell (NaN before the first `locate` and on a single-point axis). */
+  width = NaN;
+  declare private readonly uniform: boolean;
+  declare private readonly invStep: number;
+  // The last cell found, [cellLo, cellHi): lookups are local (Newton steps, sweeps), so most land in it again.
+  // Empty until a cell is found; never set on a single-point axis.
+  private cell = 0;
+  private cellLo = Infinity;
+  private cellHi = -Infinity;
 
   constructor(values: Float64Array) {
     this.values = values;
@@ -33,33 +43,36 @@ export class AxisLocator {
     this.invStep = this.n > 1 ? (this.n - 1) / span : 0;
   }
 
-  /** Index of the lower node of the cell holding x (sets `t`), or -1 outside the axis or for NaN. */
+  /** Index of the lower node of the cell holding x (sets `t` and `width`), or -1 outside the axis or for NaN. */
   locate(x: number): number {
-    const v = this.values;
+    // Inside the last cell (false for NaN): the cell and fraction a search would give, in a few instructions
+    // (+ 0 turns the −0 of x = −0 on a lower end of 0 into the search's 0; it changes no other value).
+    if (x >= this.cellLo && x < this.cellHi) {
+      this.t = (x - this.cellLo) / this.width + 0;
+      return this.cell;
+    }
+    return this.search(x);
+  }
+
+  private search(x: number): number {
     if (!(x >= this.lo - this.tolerance && x <= this.hi + this.tolerance)) return -1;
     const last = this.n - 2;
-    if (last < 0 || x <= this.lo) {
+    if (last < 0) {
       this.t = 0;
       return 0;
     }
-    if (x >= this.hi) {
-      this.t = 1;
-      return last;
-    }
-    let i: number;
-    if (this.uniform) {
-      i = Math.floor((x - this.lo) * this.invStep);
-      if (i > last) i = last;
-      // The guess can be off by one through rounding; the node values decide. One step each way runs on every
-      // call (an increment the compiler has never seen run would throw its code away); the loops only in theory.
-      i -= i > 0 && x < v[i] ? 1 : 0;
-      i += i < last && x >= v[i + 1] ? 1 : 0;
-      while (i > 0 && x < v[i]) i--;
-      while (i < last && x >= v[i + 1]) i++;
-    } else {
-      i = cellOf(v, x);
-    }
-    this.t = (x - v[i]) / (v[i + 1] - v[i]);
+    const v = this.values;
+    let i = x <= this.lo ? 0 : x >= this.hi ? last : this.uniform ? Math.floor((x - this.lo) * this.invStep) : cellOf(v, x);
+    if (i > last) i = last;
+    // A uniform axis' guess can be one off through rounding (its nodes are within 1e-9 of the span of the ideal
+    // grid, far less than a step, so never more); the node values decide. No-ops otherwise.
+    i -= i > 0 && x < v[i] ? 1 : 0;
+    i += i < last && x >= v[i + 1] ? 1 : 0;
+    this.cell = i;
+    this.cellLo = v[i];
+    this.cellHi = v[i + 1];
+    this.width = v[i + 1] - v[i];
+    this.t = x <= this.lo ? 0 : x >= this.hi ? 1 : (x - v[i]) / this.width;
     return i;
   }
 }
