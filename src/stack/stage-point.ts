@@ -82,7 +82,33 @@ export function stagePoint(c: StageCircuit, vout: number, loadGuess?: StackOp, i
  */
 export function stageGain(c: StageCircuit, vout: number, loadGuess?: StackOp, inputGuess?: InputGuess): number | null {
   const op = loadAtOutput(c, vout, loadGuess);
+  return op === null ? null : gainAtLoad(c, vout, op, inputGuess);
+}
+
+/**
+ * A solved point reduced to what a solve nearby starts from (its load's operating point, the input side's x1 and
+ * gate: an InputGuess itself) and its gain, the same as stagePoint's: for traces that keep few of their points.
+ */
+export interface StageSample extends InputGuess {
+  gain: number;
+  load: StackOp;
+}
+
+/** stagePoint as a StageSample (null where it gives null): none of the input side's devices are copied. */
+export function stageSample(c: StageCircuit, vout: number, loadGuess?: StackOp, inputGuess?: InputGuess): StageSample | null {
+  const op = loadAtOutput(c, vout, loadGuess);
   if (op === null) return null;
+  const gain = gainAtLoad(c, vout, op, inputGuess);
+  return gain === null ? null : { x1: solved.x1, gate: solved.gate, gain, load: op };
+}
+
+/** The sample of a solved point. */
+export function sampleOf(p: StagePoint): StageSample {
+  return { x1: p.input.nodes[1], gate: p.input.devices[0].vgs, gain: p.gain, load: p.load };
+}
+
+/** stagePoint's gain with the load's operating point solved (the input side's answer left in `solved`). */
+function gainAtLoad(c: StageCircuit, vout: number, op: StackOp, inputGuess?: InputGuess): number | null {
   const vi = sideVoltage(c.device, c.supply, vout);
   if (!solveInput(c.input.devices, c.input.cascodeGate, vi, op.i, inputGuess)) return null;
   const rload = routAt(op);
