@@ -1,6 +1,6 @@
 import { topologyOf } from '../topology/index.js';
 import { REL_TOL } from '../policy.js';
-import { guessOf, stageGain, stagePoint, type StagePoint } from '../stack/index.js';
+import { sampleOf, stageGain, stagePoint, type StagePoint } from '../stack/index.js';
 import { candidateKey, type Candidate } from './search/candidate.js';
 import { neighbours } from './search/refine.js';
 import { sideChecked, sideSized, type Side, type SideDesign, type SideSized } from './stage-side.js';
@@ -68,7 +68,8 @@ function lengthMoves(ctx: { lengths: readonly number[] }, from: Candidate): Arra
  */
 interface SideMove {
   sized: SideSized;
-  design?: SideDesign | null;
+  design: SideDesign | null | undefined;
+  area: number;
 }
 
 /** Side moves of one side by candidate key (null: not realisable), shared by every climb of one stage search. */
@@ -98,7 +99,7 @@ function surelyMisses(sides: StageSides, input: SideDesign, load: SideDesign, ne
   // Newton starts away from the design point: the near design's solution there (a move changes one side by a step).
   const start = points[j0] ?? design();
   if (!start || vlow === null || vhigh === null) return short();
-  const guess = guessOf(start.input);
+  const guess = sampleOf(start);
   // Gain at v (null: no solution from the design point's start, which proves nothing: the trace gets there by
   // continuation); only the gain is read, so nothing of the input side's solution is allocated (stageGain).
   const gainAt = (v: number): number | null => {
@@ -166,7 +167,7 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
       // sideSized refuses a device wider than the width limit; the input gate must also sit within the rails
       // (as the search's input designs).
       const sized = sideSized(side, c);
-      d = sized && !(side.kind === 'input' && !(sized.sized.gates[0] <= supply)) ? { sized } : null;
+      d = sized && !(side.kind === 'input' && !(sized.sized.gates[0] <= supply)) ? { sized, design: undefined, area: sized.area } : null;
       memo.set(key, d);
     }
     return d;
@@ -246,9 +247,9 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
   };
   const movesOf = (best: StageDesign, steps: Steps, kind: 'single' | 'pair' | 'cross' | 'jump'): Move[] => {
     const out: Move[] = [];
-    const move = (input: SideMove, load: SideMove): Move => ({ input, load, area: input.sized.area + load.sized.area });
+    const move = (input: SideMove, load: SideMove): Move => ({ input, load, area: input.area + load.area });
     // The side a move holds.
-    const held = { input: { sized: best.input, design: best.input }, load: { sized: best.load, design: best.load } };
+    const held = { input: { sized: best.input, design: best.input, area: best.input.area }, load: { sized: best.load, design: best.load, area: best.load.area } };
     if (kind === 'jump') {
       for (const i of jumpMoves(best, steps, 'input')) out.push(move(i, held.load));
       for (const l of jumpMoves(best, steps, 'load')) out.push(move(held.input, l));
