@@ -2,7 +2,7 @@ import { StackwrightError } from '../errors.js';
 import { topologyOf } from '../topology/index.js';
 import type { StageSpec } from '../design/types.js';
 import {
-  biasDevices, biasGates, gainOverSwing, heldGain, stagePoint, traceStage,
+  biasDevices, biasGates, gainOverSwing, heldGain, sampleOf, stagePoint, traceStage,
   type BiasDevice, type StackDevice, type StageCircuit, type StagePoint, type StageTrace,
 } from '../stack/index.js';
 import type { Side, SideDesign } from './stage-side.js';
@@ -72,15 +72,16 @@ export function gbwOf(stage: StageSpec, gm: number, cout: number | null): number
 /** Trace a circuit and summarise it against the stage targets. */
 export function stageAt(sides: StageSides, corner: string, circuit: StageCircuit, gates: StageAt['gates'], step = TRACE_STEP, solveHeld = step < SEARCH_STEP): StageAt {
   const { stage } = sides;
-  const trace = traceStage(circuit, stage.output, stage.gain, { step });
+  // A search trace is judged by its figures and the design point; its other solved points would only sit in the
+  // pools of traced designs (GC copies them), as the reported curve is traced again (fineTrace).
+  const search = step >= SEARCH_STEP;
+  const trace = traceStage(circuit, stage.output, stage.gain, { step, keep: search ? 'design' : 'all' });
   const p = trace.points[trace.j0];
   const cout = coutOf(circuit, p);
   // The search ranks on the grid estimate; reported designs (and the nearest points' climb) have the interval ends
   // solved on the circuit.
   const gainAtSwing = solveHeld ? heldGain(circuit, trace, stage.swing) : gainOverSwing(trace.vs, trace.gains, trace.j0, stage.swing);
-  // A search trace is judged by its figures and the design point; its other solved points would only sit in the
-  // pools of traced designs (GC copies them), as the reported curve is traced again (fineTrace).
-  if (step >= SEARCH_STEP) for (let j = 0; j < trace.points.length; j++) if (j !== trace.j0) trace.points[j] = null;
+  if (search) for (let j = 0; j < trace.samples.length; j++) if (j !== trace.j0) trace.samples[j] = null;
   return {
     corner, circuit, trace, gates,
     gain: trace.gains[trace.j0],
@@ -119,7 +120,7 @@ export type PairJudge = 'search' | 'held' | 'point';
 /** The design point alone, as a one-sample trace (swing 0, nothing held). */
 function pointAt(sides: StageSides, corner: string, circuit: StageCircuit, gates: StageAt['gates']): StageAt {
   const p = stagePoint(circuit, sides.stage.output);
-  const trace: StageTrace = { vs: Float64Array.of(sides.stage.output), gains: Float64Array.of(p ? p.gain : 0), points: [p], j0: 0, vlow: null, vhigh: null, swing: 0 };
+  const trace: StageTrace = { vs: Float64Array.of(sides.stage.output), gains: Float64Array.of(p ? p.gain : 0), points: [p], samples: [p && sampleOf(p)], j0: 0, vlow: null, vhigh: null, swing: 0 };
   return { corner, circuit, trace, gates, gain: trace.gains[0], gainAtSwing: 0, gbw: null, cout: null };
 }
 

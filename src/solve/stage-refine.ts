@@ -1,16 +1,14 @@
 import { topologyOf } from '../topology/index.js';
 import { REL_TOL } from '../policy.js';
-import { designIndex, guessOf, outputGrid, stageGain, stagePoint, type StagePoint } from '../stack/index.js';
+import { sampleOf, stageGain, stagePoint, type StagePoint } from '../stack/index.js';
 import { candidateKey, type Candidate } from './search/candidate.js';
 import { neighbours } from './search/refine.js';
-import { sideDesign, type Side, type SideDesign } from './stage-side.js';
+import { sideChecked, sideSized, type Side, type SideDesign, type SideSized } from './stage-side.js';
 import { SEARCH_STEP, TRACE_STEP, evaluateCorner, evaluatePair, pairCircuit, stageAt, type PairJudge, type StageDesign, type StageSides } from './stage-eval.js';
 import { meets, stageCompare, stageMargins, withinRails } from './stage-rank.js';
 import { fullyOkMemo, stageBetter } from './stage-order.js';
 import { rangeSafe } from './evaluate/evaluate.js';
 
-/** Output grid step of the side traces the refinement builds (as the pair screen's), V. */
-const SIDE_STEP = 0.05;
 /** Span of surelyMisses' secant at a swing edge, V. */
 const SECANT_STEP = 0.01;
 /** How far outside a swing edge surelyMisses looks, V (below the traces' 0.5 mV edge resolution). */
@@ -64,8 +62,18 @@ function lengthMoves(ctx: { lengths: readonly number[] }, from: Candidate): Arra
   return out;
 }
 
-/** Side designs of one side by candidate key (null: not realisable), shared by every climb of one stage search. */
-export type SideMemo = Map<string, SideDesign | null>;
+/**
+ * A side candidate a climb moves to: sized, and checked at the design point (sideChecked) only once a move to it is
+ * tried, as a move is tried only while its summed area beats the climb's bound (`design` undefined: not yet).
+ */
+interface SideMove {
+  sized: SideSized;
+  design: SideDesign | null | undefined;
+  area: number;
+}
+
+/** Side moves of one side by candidate key (null: not realisable), shared by every climb of one stage search. */
+export type SideMemo = Map<string, SideMove | null>;
 
 /**
  * True when the pair surely misses the swing target at the nominal corner. The swing is the contiguous interval
@@ -91,7 +99,7 @@ function surelyMisses(sides: StageSides, input: SideDesign, load: SideDesign, ne
   // Newton starts away from the design point: the near design's solution there (a move changes one side by a step).
   const start = points[j0] ?? design();
   if (!start || vlow === null || vhigh === null) return short();
-  const guess = guessOf(start.input);
+  const guess = sampleOf(start);
   // Gain at v (null: no solution from the design point's start, which proves nothing: the trace gets there by
   // continuation); only the gain is read, so nothing of the input side's solution is allocated (stageGain).
   const gainAt = (v: number): number | null => {
@@ -147,25 +155,24 @@ interface ClimbOptions {
  * Every pair traced is added to `pool`.
  */
 function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: SideMemo; load: SideMemo }, judge: PairJudge = 'search') {
-  const { stage, supply } = sides;
-  const vs = outputGrid(stage.output, supply, SIDE_STEP);
-  const j0 = designIndex(vs, stage.output);
+  const { supply } = sides;
   const pairs = new Map<string, StageDesign | null>();
   let evaluated = 0;
 
-  const sideOf = (side: Side, c: Candidate): SideDesign | null => {
+  const sideOf = (side: Side, c: Candidate): SideMove | null => {
     const memo = memos[side.kind];
     const key = candidateKey(c);
     let d = memo.get(key);
     if (d === undefined) {
-      // sideDesign refuses a device wider than the width limit; the input gate must also sit within the rails
+      // sideSized refuses a device wider than the width limit; the input gate must also sit within the rails
       // (as the search's input designs).
-      d = sideDesign(side, c, vs, j0, stage, supply, Infinity, false);
-      if (d && side.kind === 'input' && !(d.sized.gates[0] <= supply)) d = null;
+      const sized = sideSized(side, c);
+      d = sized && !(side.kind === 'input' && !(sized.sized.gates[0] <= supply)) ? { sized, design: undefined, area: sized.area } : null;
       memo.set(key, d);
     }
     return d;
   };
+  const designOf = (side: Side, m: SideMove): SideDesign | null => (m.design === undefined ? (m.design = sideChecked(side, m.sized)) : m.design);
   // Pairs by their side designs' identity (a move's sides come from the memos), before the key is built; and the
   // pairs surelyMisses proved short of the swing: both settle a move again without a solve.
   const known = new Map<SideDesign, Map<SideDesign, StageDesign | null>>();
@@ -198,9 +205,9 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
   };
 
   type Steps = { input: { g: number; v: number }; load: { g: number; v: number } };
-  type Move = { input: SideDesign; load: SideDesign; area: number };
-  const sideMoves = (best: StageDesign, steps: Steps, kind: 'input' | 'load', pairMoves: boolean): SideDesign[] => {
-    const out: SideDesign[] = [];
+  type Move = { input: SideMove; load: SideMove; area: number };
+  const sideMoves = (best: StageDesign, steps: Steps, kind: 'input' | 'load', pairMoves: boolean): SideMove[] => {
+    const out: SideMove[] = [];
     for (const c of neighbours(sides[kind].ctx, best[kind].cand, steps[kind].g, steps[kind].v, pairMoves)) {
       const d = sideOf(sides[kind], c);
       if (d) out.push(d);
@@ -211,8 +218,8 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
   // setpoint several steps lower (SETPOINT_JUMPS), or both. A shorter device loses Rout near the swing edges, which
   // a higher gm/ID (more gain) or a lower setpoint (more room for the device above) makes up; no single or pair
   // move of the climb finds such a move, and on a thin feasible region the climb stopped short of it.
-  const jumpMoves = (best: StageDesign, steps: Steps, kind: 'input' | 'load'): SideDesign[] => {
-    const out: SideDesign[] = [];
+  const jumpMoves = (best: StageDesign, steps: Steps, kind: 'input' | 'load'): SideMove[] => {
+    const out: SideMove[] = [];
     const ctx = sides[kind].ctx;
     const [gLo, gHi] = [ctx.gmids[0], ctx.gmids[ctx.gmids.length - 1]];
     for (const { cand: c, k } of lengthMoves(ctx, best[kind].cand)) {
@@ -240,16 +247,18 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
   };
   const movesOf = (best: StageDesign, steps: Steps, kind: 'single' | 'pair' | 'cross' | 'jump'): Move[] => {
     const out: Move[] = [];
-    const move = (input: SideDesign, load: SideDesign): Move => ({ input, load, area: input.area + load.area });
+    const move = (input: SideMove, load: SideMove): Move => ({ input, load, area: input.area + load.area });
+    // The side a move holds.
+    const held = { input: { sized: best.input, design: best.input, area: best.input.area }, load: { sized: best.load, design: best.load, area: best.load.area } };
     if (kind === 'jump') {
-      for (const i of jumpMoves(best, steps, 'input')) out.push(move(i, best.load));
-      for (const l of jumpMoves(best, steps, 'load')) out.push(move(best.input, l));
+      for (const i of jumpMoves(best, steps, 'input')) out.push(move(i, held.load));
+      for (const l of jumpMoves(best, steps, 'load')) out.push(move(held.input, l));
     } else if (kind === 'cross') {
       const loads = sideMoves(best, steps, 'load', false);
       for (const i of sideMoves(best, steps, 'input', false)) for (const l of loads) out.push(move(i, l));
     } else {
-      for (const i of sideMoves(best, steps, 'input', kind === 'pair')) out.push(move(i, best.load));
-      for (const l of sideMoves(best, steps, 'load', kind === 'pair')) out.push(move(best.input, l));
+      for (const i of sideMoves(best, steps, 'input', kind === 'pair')) out.push(move(i, held.load));
+      for (const l of sideMoves(best, steps, 'load', kind === 'pair')) out.push(move(held.input, l));
     }
     return out.sort((a, b) => a.area - b.area);
   };
@@ -266,9 +275,12 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
         const limit = o.bound(best);
         // Sorted by area: once one is not below the bound, none after it is.
         if (!(m.area < limit)) break;
+        const input = designOf(sides.input, m.input);
+        const load = input && designOf(sides.load, m.load);
+        if (!input || !load) continue;
         // While the bound is finite (the best meets every target) only a move that does can replace it.
-        if (limit < Infinity && skipped(m.input, m.load, best)) continue;
-        const p = pairOf(m.input, m.load);
+        if (limit < Infinity && skipped(input, load, best)) continue;
+        const p = pairOf(input, load);
         if (p && o.better(p, best)) {
           best = p;
           o.onBetter?.(p);

@@ -14,6 +14,7 @@ import { screen } from './search/screen.js';
 import { candidateKey, type Candidate } from './search/candidate.js';
 import { midPoint } from './evaluate/stack-eval.js';
 import { saturationMargin } from './evaluate/checks.js';
+import { rangeSafe } from './evaluate/evaluate.js';
 
 export type SideKind = 'input' | 'load';
 
@@ -122,18 +123,17 @@ export function sideCandidates(stage: StageSpec, side: Side, topology: Topology,
   return [...seen.values()];
 }
 
+/** A side candidate sized at the design point (widths, gates, area), its operating point there not yet checked (sideChecked). */
+export type SideSized = Pick<SideDesign, 'cand' | 'slices' | 'sized' | 'devices' | 'area'>;
+
 /**
- * Size a side candidate at the design point and trace its small-signal curve
- * on the output grid `vs`. Null when the table cannot realise it, a device is
- * narrower than the minimum width, or a device below the top one is not
- * saturated at the design point (as for stacks). `gmMax` (load side) is the
- * highest input gm over the input designs, to know where the load alone caps the gain.
- * With `curve` false the side is only sized and checked at the design point (rout and gm left empty).
+ * Size a side candidate at the design point. Null when the table cannot realise it, a device is narrower than the
+ * minimum width, or wider than the width limit (the narrowest such is recorded in `side.narrowestTooWide`).
  */
-export function sideDesign(side: Side, cand: Candidate, vs: Float64Array, j0: number, stage: StageSpec, supply: number, gmMax = Infinity, curve = true): SideDesign | null {
+export function sideSized(side: Side, cand: Candidate): SideSized | null {
   const ctx = side.ctx;
   ctx.count.exact++;
-  try {
+  return rangeSafe(() => {
     const slices = cand.l.map((l) => ctx.slice(ctx.nominal, l));
     const sized = sizeStackDevices({ shape: topologyOf(cand.topology), slices, gmid: cand.gmid, setpoints: cand.setpoints, current: ctx.spec.current, vmid: side.vd, wmin: ctx.wmin });
     if (!sized) return null;
@@ -144,14 +144,47 @@ export function sideDesign(side: Side, cand: Candidate, vs: Float64Array, j0: nu
       return null;
     }
     const devices: StackDevice[] = slices.map((slice, k) => ({ slice, w: sized.w[k] }));
+    return { cand, slices, sized, devices, area: devices.reduce((a, x) => a + x.w * x.slice.l, 0) };
+  });
+}
+
+/**
+ * A sized side as a side design without its curve (rout and gm left empty): null when the table cannot cover its
+ * design point or a device below the top one is not saturated there (as for stacks).
+ */
+export function sideChecked(side: Side, s: SideSized): SideDesign | null {
+  return checkedAt(side, s)?.d ?? null;
+}
+
+/** sideChecked with the operating point at the design point (where the load's curve starts from). */
+function checkedAt(side: Side, s: SideSized): { d: SideDesign; mid: StackOp } | null {
+  const ctx = side.ctx;
+  return rangeSafe(() => {
+    const { devices, sized } = s;
     const m = midPoint(devices, sized.gates, side.vd, { i: ctx.spec.current, nodes: sized.nodes }, ctx.ut(ctx.nominal));
     if (!m || saturationMargin(m) < 0) return null;
-    const n = vs.length;
-    const rout = new Float64Array(curve ? n : 0);
     const top = m.mid.devices[devices.length - 1];
     const cdd = devices[devices.length - 1].slice.op(top.vgs, top.vds, top.vsb, devices[devices.length - 1].w).cdd;
-    const d: SideDesign = { cand, slices, sized, devices, area: devices.reduce((a, x) => a + x.w * x.slice.l, 0), rout, cdd };
-    if (!curve) return d;
+    return { d: { cand: s.cand, slices: s.slices, sized, devices, area: s.area, rout: new Float64Array(0), cdd }, mid: m.mid };
+  });
+}
+
+/**
+ * Size a side candidate at the design point and trace its small-signal curve
+ * on the output grid `vs`. Null when sideSized or sideChecked refuses it. `gmMax` (load side) is the
+ * highest input gm over the input designs, to know where the load alone caps the gain.
+ * With `curve` false the side is only sized and checked at the design point (rout and gm left empty).
+ */
+export function sideDesign(side: Side, cand: Candidate, vs: Float64Array, j0: number, stage: StageSpec, supply: number, gmMax = Infinity, curve = true): SideDesign | null {
+  const s = sideSized(side, cand);
+  const checked = s && checkedAt(side, s);
+  if (!checked || !curve) return checked?.d ?? null;
+  const { d, mid } = checked;
+  const ctx = side.ctx;
+  const { devices, sized } = d;
+  return rangeSafe(() => {
+    const n = vs.length;
+    const rout = (d.rout = new Float64Array(n));
     // Beyond the point where this side alone caps the gain below half the target
     // (A ≤ gm_in·Rout_side), the stage is outside any swing: stop tracing that way.
     const floor = 0.5 * stage.gain;
@@ -180,14 +213,11 @@ export function sideDesign(side: Side, cand: Candidate, vs: Float64Array, j0: nu
         rout[j] = s.op && s.rout > 0 ? s.rout : 0;
         return s.op && gmMax * rout[j] >= floor ? s.op : null;
       };
-      let g: StackOp | null = m.mid;
+      let g: StackOp | null = mid;
       for (let j = j0; j < n && g; j++) g = at(j, g);
-      g = m.mid;
+      g = mid;
       for (let j = j0 - 1; j >= 0 && g; j--) g = at(j, g);
     }
     return d;
-  } catch (e) {
-    if (e instanceof StackwrightError && e.kind === 'range') return null;
-    throw e;
-  }
+  });
 }

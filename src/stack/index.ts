@@ -12,7 +12,7 @@ export { biasDevices, biasGates, type BiasDevice, type DiodeWidening } from './b
 export { thermalVoltage, gmidCeiling, slopeFactor, inversionCoefficient, ekvVdsat, saturationVoltage } from './saturation.js';
 export { fitSquareLaw, squareLawCheck, type SquareLawFit } from './squarelaw.js';
 export { inputAtCurrent, guessOf, type InputOp, type InputGuess } from './stage-input.js';
-export { stagePoint, stageGain, sideVoltage, parallel, type StageCircuit, type StagePoint } from './stage-point.js';
+export { stagePoint, stageGain, stageSample, sampleOf, sideVoltage, parallel, type StageCircuit, type StagePoint, type StageSample } from './stage-point.js';
 export { swingOnGrid, gainOverSwing, gainOverSwingWithEdges, swingAtGain, outputGrid, indexOf as designIndex } from './stage-swing.js';
 export { traceStage, heldGain, type StageTrace } from './stage-trace.js';
 export { handSideRout, handStageGain, handSwing } from './stage-squarelaw.js';

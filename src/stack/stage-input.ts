@@ -89,10 +89,14 @@ function quickRoot(f: FallingSloped, sloped: boolean, lo: number, hi: number, gu
  * `guess`, a solution at a nearby voltage or current, only speeds up the root searches.
  */
 export function inputAtCurrent(devices: readonly StackDevice[], cascodeGate: number | undefined, v: number, i: number, guess?: InputGuess): InputOp | null {
-  if (!solveInput(devices, cascodeGate, v, i, guess)) return null;
+  return solveInput(devices, cascodeGate, v, i, guess?.x1, guess?.gate) ? solvedOp(devices.length, v) : null;
+}
+
+/** The last solveInput's answer as an InputOp (`n` devices at stack voltage `v`), copied out of `solved`. */
+export function solvedOp(n: number, v: number): InputOp {
   const out = [{ ...solved.devices[0] }];
   const nodes = [0, solved.x1];
-  if (devices.length > 1) {
+  if (n > 1) {
     out.push({ ...solved.devices[1] });
     nodes.push(v);
   }
@@ -104,8 +108,11 @@ export const solved = { gate: 0, x1: 0, rout: 0, devices: [emptyBias(), emptyBia
 // routOf over the devices solved: the input device alone, or with its cascode.
 const solvedOne: DeviceBias[] = [solved.devices[0]];
 
-/** inputAtCurrent into `solved`: false where it gives null. */
-export function solveInput(devices: readonly StackDevice[], cascodeGate: number | undefined, v: number, i: number, guess?: InputGuess): boolean {
+/**
+ * inputAtCurrent into `solved`: false where it gives null. The guess comes as two numbers, so that every caller's
+ * guess object (InputGuess, StageSample) is read at its own site and this hot function stays monomorphic.
+ */
+export function solveInput(devices: readonly StackDevice[], cascodeGate: number | undefined, v: number, i: number, x1Guess?: number, gateGuess?: number): boolean {
   if (!(v > 0) || !(i > 0)) return false;
   const d0 = devices[0];
   let x1 = v;
@@ -118,15 +125,15 @@ export function solveInput(devices: readonly StackDevice[], cascodeGate: number 
     if (!(hi > lo)) return false;
     const top = cascodeExcess.of(d1.slice, d1.w, i, true, true).along(g, v, 0, -1, -1, 1);
     const sloped = d1.slice.jdSlopes !== undefined;
-    x1 = quickRoot(top, sloped, lo, hi, guess?.x1);
+    x1 = quickRoot(top, sloped, lo, hi, x1Guess);
     if (Number.isNaN(x1)) {
       // The cascode must be able to pass i at the lowest x1 the table allows; at the highest it passes less.
       if (!(top.at(lo) >= 0)) return false;
       if (top.at(hi) >= 0) return false;
-      x1 = rootNear(top, sloped, lo, hi, 1e-10, guess?.x1);
+      x1 = rootNear(top, sloped, lo, hi, 1e-10, x1Guess);
     }
   }
-  const g0 = gateForCurrent(d0, i, x1, guess?.gate);
+  const g0 = gateForCurrent(d0, i, x1, gateGuess);
   if (g0 === null) return false;
   const b = solved.devices;
   if (!evalDevice(d0, g0, x1, 0, b[0])) return false;

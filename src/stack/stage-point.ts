@@ -4,7 +4,7 @@ import type { DeviceBias, StackDevice, StackOp } from './types.js';
 import { solveOperatingPoint } from './operating.js';
 import { routAt } from './rout.js';
 import { continued } from './curve.js';
-import { inputAtCurrent, solveInput, solved, type InputGuess } from './stage-input.js';
+import { solveInput, solved, solvedOp, type InputGuess } from './stage-input.js';
 
 /**
  * A gain stage as one circuit: the input side (its input gate free) and the
@@ -57,20 +57,15 @@ export function sideVoltage(device: Polarity, supply: number, vout: number): num
 export function stagePoint(c: StageCircuit, vout: number, loadGuess?: StackOp, inputGuess?: InputGuess): StagePoint | null {
   const op = loadAtOutput(c, vout, loadGuess);
   if (op === null) return null;
-  const vi = sideVoltage(c.device, c.supply, vout);
-  const inp = inputAtCurrent(c.input.devices, c.input.cascodeGate, vi, op.i, inputGuess);
-  if (!inp) return null;
-  const rload = routAt(op);
-  const gm = inp.devices[0].gm;
-  const rin = inp.rout;
-  const par = parallel(rin, rload);
-  if (!(par > 0) || !(gm > 0)) return null;
+  const gain = gainAtLoad(c, vout, op, inputGuess);
+  if (gain === null) return null;
+  const inp = solvedOp(c.input.devices.length, sideVoltage(c.device, c.supply, vout));
   return {
     vout,
     vin: c.device === 'n' ? inp.gate : c.supply - inp.gate,
     i: op.i,
-    gain: gm * par,
-    gm, rin, rload,
+    gain,
+    gm: inp.devices[0].gm, rin: inp.rout, rload: routAt(op),
     input: { nodes: inp.nodes, devices: inp.devices },
     load: op,
   };
@@ -82,9 +77,35 @@ export function stagePoint(c: StageCircuit, vout: number, loadGuess?: StackOp, i
  */
 export function stageGain(c: StageCircuit, vout: number, loadGuess?: StackOp, inputGuess?: InputGuess): number | null {
   const op = loadAtOutput(c, vout, loadGuess);
+  return op === null ? null : gainAtLoad(c, vout, op, inputGuess);
+}
+
+/**
+ * A solved point reduced to what a solve nearby starts from (its load's operating point, the input side's x1 and
+ * gate: an InputGuess itself) and its gain, the same as stagePoint's: for traces that keep few of their points.
+ */
+export interface StageSample extends InputGuess {
+  gain: number;
+  load: StackOp;
+}
+
+/** stagePoint as a StageSample (null where it gives null): none of the input side's devices are copied. */
+export function stageSample(c: StageCircuit, vout: number, loadGuess?: StackOp, inputGuess?: InputGuess): StageSample | null {
+  const op = loadAtOutput(c, vout, loadGuess);
   if (op === null) return null;
+  const gain = gainAtLoad(c, vout, op, inputGuess);
+  return gain === null ? null : { x1: solved.x1, gate: solved.gate, gain, load: op };
+}
+
+/** The sample of a solved point. */
+export function sampleOf(p: StagePoint): StageSample {
+  return { x1: p.input.nodes[1], gate: p.input.devices[0].vgs, gain: p.gain, load: p.load };
+}
+
+/** stagePoint's gain with the load's operating point solved (the input side's answer left in `solved`). */
+function gainAtLoad(c: StageCircuit, vout: number, op: StackOp, inputGuess?: InputGuess): number | null {
   const vi = sideVoltage(c.device, c.supply, vout);
-  if (!solveInput(c.input.devices, c.input.cascodeGate, vi, op.i, inputGuess)) return null;
+  if (!solveInput(c.input.devices, c.input.cascodeGate, vi, op.i, inputGuess?.x1, inputGuess?.gate)) return null;
   const rload = routAt(op);
   const gm = solved.devices[0].gm;
   const par = parallel(solved.rout, rload);

@@ -1,6 +1,5 @@
 import type { StackOp } from './types.js';
-import { stagePoint, type StageCircuit, type StagePoint } from './stage-point.js';
-import { guessOf } from './stage-input.js';
+import { sampleOf, stagePoint, stageSample, type StageCircuit, type StagePoint, type StageSample } from './stage-point.js';
 import { swingEdge } from './stage-edge.js';
 import { indexOf, outputGrid, swingOnGrid } from './stage-swing.js';
 
@@ -10,8 +9,10 @@ export interface StageTrace {
   vs: Float64Array;
   /** Gain at each grid output (0 where the circuit cannot hold it within the table). */
   gains: Float64Array;
-  /** Solved points (null where not coverable), same indices; a search-grid trace kept by the stage search holds only the design point's (stage-eval stageAt). */
+  /** Solved points (null where not coverable), same indices; a trace with `keep` 'design' holds only the design point's. */
   points: Array<StagePoint | null>;
+  /** The solved points as starts for solves nearby (heldGain), same indices; a search trace kept by the stage search holds only the design point's (stage-eval stageAt). */
+  samples: Array<StageSample | null>;
   /** Index of the design point. */
   j0: number;
   /** Swing edges refined by bisection on the circuit, V; null when the design point misses the gain target. */
@@ -24,33 +25,43 @@ export interface StageTrace {
  * Trace the transfer curve outwards from the design point on a grid of `step`
  * (continuation: each DC solve starts from its neighbour), then refine each
  * swing edge on the circuit to `resolution` (the answer bisection gives, see swingEdge). A swing edge at the
- * end of the grid stays there (the circuit holds the gain up to the last point).
+ * end of the grid stays there (the circuit holds the gain up to the last point). `keep` 'design': of the solved
+ * points only the design point's is built whole (the others' gains and samples are the same).
  */
-export function traceStage(c: StageCircuit, output: number, target: number, opts: { step: number; resolution?: number }): StageTrace {
+export function traceStage(c: StageCircuit, output: number, target: number, opts: { step: number; resolution?: number; keep?: 'all' | 'design' }): StageTrace {
   const vs = outputGrid(output, c.supply, opts.step);
   const j0 = indexOf(vs, output);
   const points: Array<StagePoint | null> = new Array(vs.length).fill(null);
+  const samples: Array<StageSample | null> = new Array(vs.length).fill(null);
   const gains = new Float64Array(vs.length);
+  const whole = opts.keep !== 'design';
   // Each solve starts from the last solved neighbour towards the design point.
-  let near: StagePoint | null = null;
+  let near: StageSample | null = null;
   const at = (j: number, guess: StackOp | undefined): StackOp | undefined => {
-    const p = stagePoint(c, vs[j], guess, near ? guessOf(near.input) : undefined);
-    points[j] = p;
-    gains[j] = p ? p.gain : 0;
-    if (p) near = p;
-    return p?.load ?? guess;
+    let s: StageSample | null;
+    if (whole || j === j0) {
+      const p = stagePoint(c, vs[j], guess, near ?? undefined);
+      points[j] = p;
+      s = p && sampleOf(p);
+    } else {
+      s = stageSample(c, vs[j], guess, near ?? undefined);
+    }
+    samples[j] = s;
+    gains[j] = s ? s.gain : 0;
+    if (s) near = s;
+    return s?.load ?? guess;
   };
   const mid = at(j0, undefined);
   let g = mid;
   for (let j = j0 + 1; j < vs.length; j++) g = at(j, g);
   g = mid;
-  near = points[j0];
+  near = samples[j0];
   for (let j = j0 - 1; j >= 0; j--) g = at(j, g);
   const grid = swingOnGrid(vs, gains, j0, target);
-  if (!grid) return { vs, gains, points, j0, vlow: null, vhigh: null, swing: 0 };
+  if (!grid) return { vs, gains, points, samples, j0, vlow: null, vhigh: null, swing: 0 };
   const res = opts.resolution ?? 5e-4;
-  const solve = (v: number, near: StagePoint | null): StagePoint | null => stagePoint(c, v, near?.load, near ? guessOf(near.input) : undefined);
-  const edge = (inside: number, outside: number): number => swingEdge(solve, vs[inside], vs[outside], gains[inside], gains[outside], target, res, points[inside]);
+  const solve = (v: number, near: StageSample | null): StageSample | null => stageSample(c, v, near?.load, near ?? undefined);
+  const edge = (inside: number, outside: number): number => swingEdge(solve, vs[inside], vs[outside], gains[inside], gains[outside], target, res, samples[inside]);
   let lo = j0;
   while (lo > 0 && gains[lo - 1] >= target) lo--;
   let hi = j0;
@@ -59,7 +70,7 @@ export function traceStage(c: StageCircuit, output: number, target: number, opts
   const vhigh = hi < vs.length - 1 ? edge(hi, hi + 1) : vs[hi];
   // The edges lie on a sub-mV bisection of decimal grid voltages: their difference is cleared of binary rounding
   // (1.5075 − 0.2875 = 1.2199999999999998), so a swing that meets its target reads so wherever it is shown.
-  return { vs, gains, points, j0, vlow, vhigh, swing: Math.round((vhigh - vlow) * 1e12) / 1e12 };
+  return { vs, gains, points, samples, j0, vlow, vhigh, swing: Math.round((vhigh - vlow) * 1e12) / 1e12 };
 }
 
 /**
@@ -76,8 +87,8 @@ export function heldGain(c: StageCircuit, trace: StageTrace, width: number, reso
   let hi = Math.min(output, vs[vs.length - 1] - width);
   if (!(hi >= lo)) return 0;
   const gainAt = (v: number): number => {
-    const q = nearestPoint(trace, v);
-    const p = stagePoint(c, v, q?.load, q ? guessOf(q.input) : undefined);
+    const q = nearestSample(trace, v);
+    const p = stageSample(c, v, q?.load, q);
     return p ? p.gain : 0;
   };
   let a = lo;
@@ -95,10 +106,10 @@ export function heldGain(c: StageCircuit, trace: StageTrace, width: number, reso
 }
 
 // The solved grid sample nearest to v, as a starting guess.
-function nearestPoint(trace: StageTrace, v: number): StagePoint | undefined {
-  let best: StagePoint | undefined;
+function nearestSample(trace: StageTrace, v: number): StageSample | undefined {
+  let best: StageSample | undefined;
   let dist = Infinity;
-  trace.points.forEach((p, j) => {
+  trace.samples.forEach((p, j) => {
     const d = Math.abs(trace.vs[j] - v);
     if (p && d < dist) {
       dist = d;
