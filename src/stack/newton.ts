@@ -123,15 +123,16 @@ function slopes(d: StackDevice, p: Pass, k: number): void {
   p.gmb[k] = -(d.w * s.jd(vgs, vds, vsb + hs) - id) / hs;
 }
 
-// Working arrays per chain length, reused across solves (the solver calls nothing that solves again).
-const scratch = new Map<number, Pass>();
+// Working arrays by chain length, reused across solves (the solver calls nothing that solves again).
+const scratch: Pass[] = [];
 function scratchFor(n: number): Pass {
-  let s = scratch.get(n);
-  if (!s) {
-    const f = () => new Float64Array(n);
-    scratch.set(n, (s = { vgs: f(), vds: f(), vsb: f(), id: f(), gm: f(), gds: f(), gmb: f(), r: f(), dx: f(), x: new Float64Array(n + 1) }));
-  }
-  return s;
+  return scratch[n] ?? (scratch[n] = newPass(n));
+}
+
+// Apart from scratchFor: a closure over n there would cost a context object on every call.
+function newPass(n: number): Pass {
+  const f = () => new Float64Array(n);
+  return { vgs: f(), vds: f(), vsb: f(), id: f(), gm: f(), gds: f(), gmb: f(), r: f(), dx: f(), x: new Float64Array(n + 1) };
 }
 
 /**
@@ -193,7 +194,7 @@ function chainStep(p: Pass, r: Float64Array, dx: Float64Array): boolean {
       if (!(Math.abs(rb) > 0)) return false;
       const di = -ra / rb;
       dx[n - 1] = di;
-      return Number.isFinite(di) && fill(p, r, dx, di);
+      return Number.isFinite(di) && fill(p, r, dx);
     }
     if (!(gds > 0)) return false;
     a = ra / gds;
@@ -202,8 +203,9 @@ function chainStep(p: Pass, r: Float64Array, dx: Float64Array): boolean {
   return false;
 }
 
-// Node steps from the current step, by the same forward substitution.
-function fill(p: Pass, r: Float64Array, dx: Float64Array, di: number): boolean {
+// Node steps from the current step (in dx[n−1]: read there, a number argument would be boxed), by the same forward substitution.
+function fill(p: Pass, r: Float64Array, dx: Float64Array): boolean {
+  const di = dx[r.length - 1];
   let prev = 0;
   for (let k = 0; k < r.length - 1; k++) {
     const xk = (-r[k] + (p.gm[k] + p.gds[k] + p.gmb[k]) * prev + di) / p.gds[k];
