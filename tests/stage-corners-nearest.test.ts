@@ -1,10 +1,9 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { parseSpec, sizeStage, type Kit } from '../src/index.js';
 import type { StageSpec } from '../src/design/types.js';
-import { makeSide, sideDesign, type Side, type SideDesign } from '../src/solve/stage-side.js';
+import { makeSide, sideChecked, sideSized, type Side, type SideDesign } from '../src/solve/stage-side.js';
 import { SEARCH_STEP, TRACE_STEP, evaluateCorner, evaluatePair, stageAt, type StageDesign, type StageSides } from '../src/solve/stage-eval.js';
 import { stageMargins } from '../src/solve/stage-rank.js';
-import { designIndex, outputGrid } from '../src/stack/index.js';
 import { stageVerdict } from '../src/report/stage-rows.js';
 import { demoKits } from './helpers/cli.js';
 
@@ -46,12 +45,11 @@ function reference(stage: StageSpec, kit: Kit): { held: Worst & { d: StageDesign
   const input = makeSide(stage, 'input', kit, SUPPLY, CORNERS);
   const load = makeSide(stage, 'load', kit, SUPPLY, CORNERS);
   const sides: StageSides = { stage, supply: SUPPLY, input, load };
-  const vs = outputGrid(stage.output, SUPPLY, 0.05);
-  const j0 = designIndex(vs, stage.output);
   // A cascode input (input device, then its cascode, with the VDS setpoint of the input device) or a single device.
   const side = (s: Side, l: number[], g: number[], setpoint?: number): SideDesign | null => {
     const cand = setpoint === undefined ? { topology: 'single' as const, l, gmid: g, setpoints: [] } : { topology: 'cascode' as const, l, gmid: g, setpoints: [setpoint] };
-    const d = sideDesign(s, cand, vs, j0, stage, SUPPLY, Infinity, false);
+    const sized = sideSized(s, cand);
+    const d = sized && sideChecked(s, sized);
     return d && (s.kind !== 'input' || d.sized.gates[0] <= SUPPLY) ? d : null;
   };
   const cascoded = (s: Side) => s.kind === 'input' && stage.input.topology === 'cascode';

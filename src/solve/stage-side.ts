@@ -173,12 +173,12 @@ function checkedAt(side: Side, s: SideSized): { d: SideDesign; mid: StackOp } | 
  * Size a side candidate at the design point and trace its small-signal curve
  * on the output grid `vs`. Null when sideSized or sideChecked refuses it. `gmMax` (load side) is the
  * highest input gm over the input designs, to know where the load alone caps the gain.
- * With `curve` false the side is only sized and checked at the design point (rout and gm left empty).
+ * (sideSized and sideChecked alone give a side checked at the design point without its curve.)
  */
-export function sideDesign(side: Side, cand: Candidate, vs: Float64Array, j0: number, stage: StageSpec, supply: number, gmMax = Infinity, curve = true): SideDesign | null {
+export function sideDesign(side: Side, cand: Candidate, vs: Float64Array, j0: number, stage: StageSpec, supply: number, gmMax = Infinity): SideDesign | null {
   const s = sideSized(side, cand);
   const checked = s && checkedAt(side, s);
-  if (!checked || !curve) return checked?.d ?? null;
+  if (!checked) return null;
   const { d, mid } = checked;
   const ctx = side.ctx;
   const { devices, sized } = d;
