@@ -37,11 +37,17 @@ function sweepOf(slice: LengthSlice, mode: VdsMode, vsb: number): Sweep | null {
 const buf = new Float64Array(4);
 const small3 = new Float64Array(3);
 
-/** What a length's options at one bias share, for their saturation voltage on demand. */
-interface SatAt {
-  slice: LengthSlice;
-  vsb: number;
-  ut: number;
+/**
+ * What a length's options at one bias share, for their saturation voltage on demand. A class, not a literal: these
+ * live as long as their options, and a literal's allocation site would be switched to old-space allocation at some
+ * scavenge, throwing away the optimised fillLength that makes them.
+ */
+class SatAt {
+  constructor(
+    readonly slice: LengthSlice,
+    readonly vsb: number,
+    readonly ut: number,
+  ) {}
 }
 
 /**
@@ -209,7 +215,7 @@ function fillLength(
   // VDSsat ≥ 4·UT at any inversion level: no lower device fits below that.
   const none = lower && !diode && vds < 4 * ut;
   const nom = none ? null : sweepOf(slice, diode ? 'diode' : vds, vsb);
-  const satAt: SatAt = { slice, vsb, ut };
+  const satAt = new SatAt(slice, vsb, ut);
   // Targets usually ascend: each scan resumes where the last one stopped (see Sweep.stop).
   let from = SWEEP_TOP;
   let prev = -Infinity;
