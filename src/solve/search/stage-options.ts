@@ -83,8 +83,8 @@ class Option implements StageOption {
  * built when first asked for. Every value depends only on the bias and what a
  * context's derivatives share (slices, lengths, gm/ID grid, current, minimum
  * width, Pelgrom coefficients), so the screens of one stack (its search, the
- * nearest-point scan, the width-limit bisection, the topologies of 'auto', a
- * gain stage's side) build each option once.
+ * nearest-point scan, the topologies of 'auto', a gain stage's side at each of
+ * its headroom shares) build each option once.
  */
 interface Family {
   lengths: readonly number[];
