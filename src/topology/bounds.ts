@@ -14,7 +14,8 @@ export function bounds(options: readonly StageOption[]): OptionBounds {
   let ro = -Infinity;
   let sigma = Infinity;
   let vgs = Infinity;
-  for (const o of options) {
+  for (let j = 0; j < options.length; j++) {
+    const o = options[j];
     if (o.area < area) area = o.area;
     if (o.ro > ro) ro = o.ro;
     if (o.sigma < sigma) sigma = o.sigma;

@@ -25,13 +25,16 @@ export const cascodeStacked: TopologyDescriptor = {
       const bb = bounds(bottom);
       // Runs of 4 in list order (a group mixes lengths): rates least on the demo specs.
       const runs = runsOf(bottom, 4, false);
-      for (const top of t.top(x1)) {
+      const tops = t.top(x1);
+      for (let i = 0; i < tops.length; i++) {
+        const top = tops[i];
         const a = top.ro;
         const b = 1 + top.gmt * top.ro;
         // As for the cascode: skip the group when its best case (lowest VGS for the headroom) cannot enter a pool.
         const best = a + b * bb.ro;
         if (Number.isFinite(best) && !t.mayWant(bottom.length, bb.area + top.area, best, bb.vgs + top.vdsat, bb.sigma)) continue;
-        for (const r of runs) {
+        for (let q = 0; q < runs.length; q++) {
+          const r = runs[q];
           // The same bound per run (Rout grows with ro_bottom only when b is not negative).
           const bestRun = a + b * r.ro;
           if (runs.length > 1 && b >= 0 && Number.isFinite(bestRun) && !t.mayWant(r.end - r.start, r.area + top.area, bestRun, r.vgs + top.vdsat, r.sigma)) continue;

@@ -19,7 +19,9 @@ export const cascode: TopologyDescriptor = {
       const b = bounds(bottom);
       // Runs of one length, at most 8 long: rates least on the demo specs.
       const runs = runsOf(bottom, 8, true);
-      for (const top of t.top(s1)) {
+      const tops = t.top(s1);
+      for (let i = 0; i < tops.length; i++) {
+        const top = tops[i];
         const a = top.ro;
         const g = 1 + top.gmt * top.ro;
         const hr = s1 + top.vdsat;
@@ -27,7 +29,8 @@ export const cascode: TopologyDescriptor = {
         // (an infinite bound would be refused for not being finite, so it proves nothing).
         const best = a + g * b.ro;
         if (Number.isFinite(best) && !t.mayWant(bottom.length, b.area + top.area, best, hr, b.sigma)) continue;
-        for (const r of runs) {
+        for (let q = 0; q < runs.length; q++) {
+          const r = runs[q];
           // The same bound per run of one length (Rout grows with ro_bottom only when g is not negative).
           const bestRun = a + g * r.ro;
           if (runs.length > 1 && g >= 0 && Number.isFinite(bestRun) && !t.mayWant(r.end - r.start, r.area + top.area, bestRun, hr, r.sigma)) continue;

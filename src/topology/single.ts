@@ -11,7 +11,9 @@ export const single: TopologyDescriptor = {
   ruleOfThumbHeadroom: (vov) => vov[0],
   refineVoltageStep: 0.0125,
   screen(t) {
-    for (const o of t.options({ mode: t.vmid, vsb: 0, smallAt: t.topVds(0) })) {
+    const options = t.options({ mode: t.vmid, vsb: 0, smallAt: t.topVds(0) });
+    for (let j = 0; j < options.length; j++) {
+      const o = options[j];
       if (t.wants(o.area, o.ro, o.vdsat, o.sigma)) t.keep([o.l], [o.gmid], []);
     }
   },

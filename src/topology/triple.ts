@@ -23,7 +23,8 @@ function groupBounds(options: readonly StageOption[]): { ro: number; gain: numbe
   let area = Infinity;
   let sigma = Infinity;
   let positive = true;
-  for (const o of options) {
+  for (let j = 0; j < options.length; j++) {
+    const o = options[j];
     if (!(o.ro >= 0 && o.gmt >= 0)) positive = false;
     if (o.ro > ro) ro = o.ro;
     const g = o.gmt * o.ro;
@@ -83,14 +84,16 @@ export const triple: TopologyDescriptor = {
         const bb = bottomBounds.get(s1)!;
         // The bound needs every term non-negative (then Rout grows with each of them).
         const bounded = mb.positive && bb.positive;
-        for (const top of tops) {
+        for (let i = 0; i < tops.length; i++) {
+          const top = tops[i];
           const a3 = 1 + top.gmt * top.ro;
           if (bounded && top.ro >= 0 && a3 >= 1) {
             // Best case of the top's mids × bottoms: when it cannot enter a pool, none of them can (every key is monotone).
             const best = top.ro + a3 * mb.ro + a3 * (1 + mb.gain) * bb.ro;
             if (Number.isFinite(best) && !t.mayWant(mids.length * bottom.length, bb.area + mb.area + top.area, best, below + top.vdsat, bb.sigma)) continue;
           }
-          for (const m of mids) {
+          for (let q = 0; q < mids.length; q++) {
+            const m = mids[q];
             // Rout ≈ a + b·ro_bottom: for this (top, middle) pair each pool wants one bottom, found by binary
             // search among the bottoms sorted by ro, so the work per pair grows with the log of their count.
             const a = top.ro + a3 * m.ro;

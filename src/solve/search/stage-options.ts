@@ -37,11 +37,17 @@ function sweepOf(slice: LengthSlice, mode: VdsMode, vsb: number): Sweep | null {
 const buf = new Float64Array(4);
 const small3 = new Float64Array(3);
 
-/** What a length's options at one bias share, for their saturation voltage on demand. */
-interface SatAt {
-  slice: LengthSlice;
-  vsb: number;
-  ut: number;
+/**
+ * What a length's options at one bias share, for their saturation voltage on demand. A class, not a literal: these
+ * live as long as their options, and a literal's allocation site would be switched to old-space allocation at some
+ * scavenge, throwing away the optimised fillLength that makes them.
+ */
+class SatAt {
+  constructor(
+    readonly slice: LengthSlice,
+    readonly vsb: number,
+    readonly ut: number,
+  ) {}
 }
 
 /**
@@ -77,8 +83,8 @@ class Option implements StageOption {
  * built when first asked for. Every value depends only on the bias and what a
  * context's derivatives share (slices, lengths, gm/ID grid, current, minimum
  * width, Pelgrom coefficients), so the screens of one stack (its search, the
- * nearest-point scan, the width-limit bisection, the topologies of 'auto', a
- * gain stage's side) build each option once.
+ * nearest-point scan, the topologies of 'auto', a gain stage's side at each of
+ * its headroom shares) build each option once.
  */
 interface Family {
   lengths: readonly number[];
@@ -127,10 +133,10 @@ export function stageOptions(ctx: SolveContext, at: StageBias): readonly StageOp
   let pos = fam.every;
   if (gmids !== ctx.gmids) {
     const p: number[] = [];
-    for (const g of gmids) {
-      const j = ctx.gmids.indexOf(g);
+    for (let k = 0; k < gmids.length; k++) {
+      const j = ctx.gmids.indexOf(gmids[k]);
       // A value off the grid: built for this call only.
-      if (j < 0) return uncached(ctx, at, lower, gmids);
+      if (j < 0) return uncached(ctx, fam, at, lower, gmids);
       p.push(j);
     }
     pos = p;
@@ -140,65 +146,81 @@ export function stageOptions(ctx: SolveContext, at: StageBias): readonly StageOp
   if (!built) fam.byBias.set(key, (built = { slots: new Array(ctx.lengths.length * ctx.gmids.length).fill(undefined), lists: new Map() }));
   const list = `${pos === fam.every ? '*' : pos.join(',')}|${ctx.wmax}`;
   let out = built.lists.get(list);
-  if (!out) {
-    const n = ctx.gmids.length;
-    const all: Option[] = [];
-    for (let li = 0; li < ctx.lengths.length; li++) {
-      fillLength(ctx, at, lower, li, ctx.gmids, pos, built.slots, li * n);
-      for (const j of pos) {
-        const o = built.slots[li * n + j];
-        if (o) all.push(o);
-      }
-    }
-    built.lists.set(list, (out = withinWidth(ctx, all)));
-  }
+  if (!out) built.lists.set(list, (out = withinWidth(ctx, build(ctx, fam, askOf(ctx, at, lower), ctx.gmids, pos, built.slots))));
   return out;
 }
 
-function uncached(ctx: SolveContext, at: StageBias, lower: boolean, gmids: readonly number[]): StageOption[] {
+function uncached(ctx: SolveContext, fam: Family, at: StageBias, lower: boolean, gmids: readonly number[]): StageOption[] {
+  const slots: (Option | null | undefined)[] = new Array(ctx.lengths.length * gmids.length).fill(undefined);
+  return withinWidth(ctx, build(ctx, fam, askOf(ctx, at, lower), gmids, gmids.map((_, j) => j), slots));
+}
+
+/**
+ * What fillLength reads of an ask: one shape whatever literal the caller wrote, so its loads see one map, and the
+ * VDS mode as a flag and a number (NaN for a diode), so no field changes representation when the first diode is asked
+ * (which would throw away the code optimised until then).
+ */
+interface Ask {
+  diode: boolean;
+  vds: number;
+  vsb: number;
+  smallAt: number | undefined;
+  lower: boolean;
+  ut: number;
+}
+
+function askOf(ctx: SolveContext, at: StageBias, lower: boolean): Ask {
+  const diode = at.mode === 'diode';
+  return { diode, vds: diode ? NaN : (at.mode as number), vsb: at.vsb, smallAt: at.smallAt, lower, ut: ctx.ut(ctx.nominal) };
+}
+
+// The options at gm/ID positions `pos` of every length, built into `slots` (n = gmids.length per length) where missing.
+function build(ctx: SolveContext, fam: Family, ask: Ask, gmids: readonly number[], pos: readonly number[], slots: (Option | null | undefined)[]): Option[] {
   const n = gmids.length;
-  const pos = gmids.map((_, j) => j);
-  const slots: (Option | null | undefined)[] = new Array(ctx.lengths.length * n).fill(undefined);
   const all: Option[] = [];
-  for (let li = 0; li < ctx.lengths.length; li++) {
-    fillLength(ctx, at, lower, li, gmids, pos, slots, li * n);
-    for (let j = 0; j < n; j++) {
-      const o = slots[li * n + j];
+  for (let li = 0; li < fam.lengths.length; li++) {
+    const l = fam.lengths[li];
+    fillLength(fam, ask, l, ctx.slice(ctx.nominal, l), gmids, pos, slots, li * n);
+    for (let k = 0; k < pos.length; k++) {
+      const o = slots[li * n + pos[k]];
       if (o) all.push(o);
     }
   }
-  return withinWidth(ctx, all);
+  return all;
 }
 
 // Options within the width limit when there are any; else all, so the nearest design can show the limit binding.
 function withinWidth(ctx: SolveContext, all: Option[]): StageOption[] {
+  const wmax = ctx.wmax;
   let fit = 0;
-  for (const o of all) if (o.w <= ctx.wmax) fit++;
-  return fit > 0 && fit < all.length ? all.filter((o) => o.w <= ctx.wmax) : all;
+  for (let k = 0; k < all.length; k++) if (all[k].w <= wmax) fit++;
+  if (fit === 0 || fit === all.length) return all;
+  const out: Option[] = [];
+  for (let k = 0; k < all.length; k++) if (all[k].w <= wmax) out.push(all[k]);
+  return out;
 }
 
 /**
- * Build the options of length ctx.lengths[li] at gm/ID values gmids[p], p in
+ * Build the options of length l (its slice) at gm/ID values gmids[p], p in
  * `pos`, into slots[base + p] where not built yet. A sweep scan finds the same
  * crossing whichever lower target it resumed from, so an option does not
- * depend on which others were built with it.
+ * depend on which others were built with it. Reads the family and the ask, not
+ * the context (contexts and specs come in several shapes).
  */
 function fillLength(
-  ctx: SolveContext, at: StageBias, lower: boolean, li: number,
+  fam: Family, ask: Ask, l: number, slice: LengthSlice,
   gmids: readonly number[], pos: readonly number[], slots: (Option | null | undefined)[], base: number,
 ): void {
-  const { mode, vsb, smallAt } = at;
-  const ut = ctx.ut(ctx.nominal);
+  const { diode, vds, vsb, smallAt, lower, ut } = ask;
   // VDSsat ≥ 4·UT at any inversion level: no lower device fits below that.
-  const none = lower && typeof mode === 'number' && mode < 4 * ut;
-  const l = ctx.lengths[li];
-  const slice = ctx.slice(ctx.nominal, l);
-  const nom = none ? null : sweepOf(slice, mode, vsb);
-  const satAt: SatAt = { slice, vsb, ut };
+  const none = lower && !diode && vds < 4 * ut;
+  const nom = none ? null : sweepOf(slice, diode ? 'diode' : vds, vsb);
+  const satAt = new SatAt(slice, vsb, ut);
   // Targets usually ascend: each scan resumes where the last one stopped (see Sweep.stop).
   let from = SWEEP_TOP;
   let prev = -Infinity;
-  for (const p of pos) {
+  for (let k = 0; k < pos.length; k++) {
+    const p = pos[k];
     if (slots[base + p] !== undefined) continue;
     slots[base + p] = null;
     if (!nom) continue;
@@ -209,10 +231,10 @@ function fillLength(
     from = nom.stop;
     if (!hit) continue;
     const vgs = nom.crossVgs();
-    const w = ctx.spec.current / nom.crossJd();
-    if (w < ctx.wmin) continue;
+    const w = fam.current / nom.crossJd();
+    if (w < fam.wmin) continue;
     const sat = lower ? saturationVoltage(slice, gmid, vsb, ut) : NaN;
-    if (lower && sat > (mode === 'diode' ? vgs : mode)) continue;
+    if (lower && sat > (diode ? vgs : vds)) continue;
     let gm: number, gds: number, gmb: number;
     if (smallAt === undefined) {
       nom.crossSmall(small3);
@@ -232,7 +254,7 @@ function fillLength(
       1 / (gds * w),
       (gm + gmb) * w,
       Math.max(2 / gmid, 0.1),
-      ctx.coeff ? pelgromSigma(gmid, w, l, ctx.coeff) : 0,
+      fam.coeff ? pelgromSigma(gmid, w, l, fam.coeff) : 0,
       sat, satAt,
     );
   }
@@ -304,7 +326,8 @@ function everyPair(c: Float64Array, k: number, n: number, keep: Uint8Array): voi
 // The same for any k, rows visited in lexicographic order: each checked against the non-dominated rows before it.
 function skyline(c: Float64Array, k: number, order: readonly number[], keep: Uint8Array): void {
   const front: number[] = [];
-  for (const a of order) {
+  for (let i = 0; i < order.length; i++) {
+    const a = order[i];
     let out = false;
     for (let f = 0; f < front.length && !out; f++) out = dominates(c, k, front[f], a);
     if (!out) {

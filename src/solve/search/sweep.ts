@@ -46,13 +46,20 @@ export class Sweep {
    */
   stop = N - 1;
 
+  // The VDS mode as a flag and a number (NaN for a diode): a field holding either a string or a number would change
+  // representation when the first diode sweep is made, and code optimised for the first would be thrown away.
+  private readonly diode: boolean;
+  private readonly vds: number;
+
   constructor(
     private readonly slice: LengthSlice,
-    private readonly mode: VdsMode,
+    mode: VdsMode,
     private readonly vsb: number,
     private readonly lo: number,
     private readonly hi: number,
   ) {
+    this.diode = mode === 'diode';
+    this.vds = mode === 'diode' ? NaN : mode;
     [this.v, this.o] = block();
   }
 
@@ -69,7 +76,7 @@ export class Sweep {
     while (this.low > j) {
       const k = --this.low;
       const vgs = this.vgsOf(k);
-      const vds = this.mode === 'diode' ? vgs : this.mode;
+      const vds = this.diode ? vgs : this.vds;
       if (s.jdGm) s.jdGm(vgs, vds, this.vsb, buf);
       else s.small(vgs, vds, this.vsb, buf);
       v[o + JD + k] = buf[0];
@@ -83,7 +90,7 @@ export class Sweep {
     if (!sm) this.sm = sm = new Float64Array(2 * (N + 1)).fill(NaN);
     if (Number.isNaN(sm[j])) {
       const vgs = this.vgsOf(j);
-      const r = this.slice.small(vgs, this.mode === 'diode' ? vgs : this.mode, this.vsb, buf);
+      const r = this.slice.small(vgs, this.diode ? vgs : this.vds, this.vsb, buf);
       sm[j] = r[2];
       sm[N + 1 + j] = r[3];
     }
