@@ -206,25 +206,38 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
 
   type Steps = { input: { g: number; v: number }; load: { g: number; v: number } };
   type Move = { input: SideMove; load: SideMove; area: number };
-  const sideMoves = (best: StageDesign, steps: Steps, kind: 'input' | 'load', pairMoves: boolean): SideMove[] => {
-    const out: SideMove[] = [];
-    for (const c of neighbours(sides[kind].ctx, best[kind].cand, steps[kind].g, steps[kind].v, pairMoves)) {
-      const d = sideOf(sides[kind], c);
-      if (d) out.push(d);
-    }
+  // A side's moves depend only on its design and the steps, and a round that moves one side finds the other's
+  // again: each list is built once (the same SideMove objects in the same order), by side design and steps.
+  const lists = new WeakMap<SideDesign, Map<string, SideMove[]>>();
+  const listed = (d: SideDesign, key: string, build: () => SideMove[]): SideMove[] => {
+    let byKey = lists.get(d);
+    if (!byKey) lists.set(d, (byKey = new Map()));
+    let out = byKey.get(key);
+    if (!out) byKey.set(key, (out = build()));
     return out;
   };
+  const sideMoves = (best: StageDesign, steps: Steps, kind: 'input' | 'load', pairMoves: boolean): SideMove[] =>
+    listed(best[kind], `${steps[kind].g}|${steps[kind].v}|${pairMoves}`, () => {
+      const out: SideMove[] = [];
+      for (const c of neighbours(sides[kind].ctx, best[kind].cand, steps[kind].g, steps[kind].v, pairMoves)) {
+        const d = sideOf(sides[kind], c);
+        if (d) out.push(d);
+      }
+      return out;
+    });
   // Coupled length moves: a device's L to the neighbouring table length together with its gm/ID by a step, with one
   // setpoint several steps lower (SETPOINT_JUMPS), or both. A shorter device loses Rout near the swing edges, which
   // a higher gm/ID (more gain) or a lower setpoint (more room for the device above) makes up; no single or pair
   // move of the climb finds such a move, and on a thin feasible region the climb stopped short of it.
-  const jumpMoves = (best: StageDesign, steps: Steps, kind: 'input' | 'load'): SideMove[] => {
+  const jumpMoves = (best: StageDesign, steps: Steps, kind: 'input' | 'load'): SideMove[] =>
+    listed(best[kind], `${steps[kind].g}|${steps[kind].v}|jump`, () => jumpsOf(best[kind].cand, steps[kind], kind));
+  const jumpsOf = (from: Candidate, step: { g: number; v: number }, kind: 'input' | 'load'): SideMove[] => {
     const out: SideMove[] = [];
     const ctx = sides[kind].ctx;
     const [gLo, gHi] = [ctx.gmids[0], ctx.gmids[ctx.gmids.length - 1]];
-    for (const { cand: c, k } of lengthMoves(ctx, best[kind].cand)) {
+    for (const { cand: c, k } of lengthMoves(ctx, from)) {
       for (const gs of [0, -1, 1]) {
-        const g = c.gmid[k] + gs * steps[kind].g;
+        const g = c.gmid[k] + gs * step.g;
         if (!(g >= gLo - 1e-9 && g <= gHi + 1e-9)) continue;
         const gmid = c.gmid.map((x, i) => (i === k ? g : x));
         // The moved device's gm/ID by a step (the plain length move is the single moves' own), then with one
@@ -235,7 +248,7 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
         }
         for (let j = 0; j < c.setpoints.length; j++) {
           for (const n of SETPOINT_JUMPS) {
-            const v = c.setpoints[j] + n * steps[kind].v;
+            const v = c.setpoints[j] + n * step.v;
             if (!(v >= 0.02)) continue;
             const d = sideOf(sides[kind], { ...c, gmid, setpoints: c.setpoints.map((x, i) => (i === j ? v : x)) });
             if (d) out.push(d);
