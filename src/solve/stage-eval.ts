@@ -174,8 +174,19 @@ export function cornersOf(sides: StageSides, d: StageDesign): NonNullable<StageD
   return d.corners;
 }
 
-/** Re-trace a design (nominal and every corner) on the reported grid, for the result. */
+/** Designs whose nominal trace and other corners are on the reported grid already (see setFine). */
+const fine = new WeakSet<StageDesign>();
+
+/** Give a design its traces on the reported grid (nominal, every other corner in order), as fineTrace makes them. */
+export function setFine(d: StageDesign, nominal: StageAt, corners: NonNullable<StageDesign['corners']>): void {
+  d.nominal = nominal;
+  d.corners = corners;
+  fine.add(d);
+}
+
+/** Re-trace a design (nominal and every corner) on the reported grid, for the result, unless it is so traced. */
 export function fineTrace(sides: StageSides, d: StageDesign): void {
-  d.nominal = stageAt(sides, d.nominal.corner, d.nominal.circuit, d.nominal.gates, TRACE_STEP);
-  d.corners = sides.input.ctx.corners.slice(1).map((c) => evaluateCorner(sides, d, c, TRACE_STEP));
+  if (fine.has(d)) return;
+  const nominal = stageAt(sides, d.nominal.corner, d.nominal.circuit, d.nominal.gates, TRACE_STEP);
+  setFine(d, nominal, sides.input.ctx.corners.slice(1).map((c) => evaluateCorner(sides, d, c, TRACE_STEP)));
 }

@@ -4,7 +4,7 @@ import { sampleOf, stageGain, stagePoint, type StagePoint } from '../stack/index
 import { candidateKey, type Candidate } from './search/candidate.js';
 import { neighbours } from './search/refine.js';
 import { sideChecked, sideSized, type Side, type SideDesign, type SideSized } from './stage-side.js';
-import { SEARCH_STEP, TRACE_STEP, evaluateCorner, evaluatePair, pairCircuit, stageAt, type PairJudge, type StageDesign, type StageSides } from './stage-eval.js';
+import { SEARCH_STEP, TRACE_STEP, evaluateCorner, evaluatePair, pairCircuit, setFine, stageAt, type PairJudge, type StageDesign, type StageSides } from './stage-eval.js';
 import { meets, stageCompare, stageMargins, withinRails } from './stage-rank.js';
 import { fullyOkMemo, stageBetter } from './stage-order.js';
 import { rangeSafe } from './evaluate/evaluate.js';
@@ -23,10 +23,21 @@ const SETPOINT_JUMPS = [-4, -2];
 /** Climb rounds at most; each round tries the moves of both sides once. */
 const MAX_ROUNDS = 24;
 
-/** Meets every target at every corner on the reported grid (as the result will be traced). */
+/**
+ * Meets every target at every corner on the reported grid (as the result will be traced). The first design that
+ * does is the result: it keeps those traces (setFine), which the result would trace again.
+ */
 function okReported(sides: StageSides, d: StageDesign): boolean {
   const n = stageAt(sides, d.nominal.corner, d.nominal.circuit, d.nominal.gates, TRACE_STEP);
-  return meets(stageMargins(sides.stage, n)) && sides.input.ctx.corners.slice(1).every((c) => meets(stageMargins(sides.stage, evaluateCorner(sides, d, c, TRACE_STEP))));
+  if (!meets(stageMargins(sides.stage, n))) return false;
+  const corners: NonNullable<StageDesign['corners']> = [];
+  for (const c of sides.input.ctx.corners.slice(1)) {
+    const at = evaluateCorner(sides, d, c, TRACE_STEP);
+    if (!meets(stageMargins(sides.stage, at))) return false;
+    corners.push(at);
+  }
+  setFine(d, n, corners);
+  return true;
 }
 
 /**
