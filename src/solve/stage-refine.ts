@@ -158,7 +158,12 @@ interface ClimbOptions {
   bound: (best: StageDesign) => number;
   /** Called with every design a move reaches that beats the climb's best. */
   onBetter?: (d: StageDesign) => void;
+  /** True when a pair surely cannot beat the climb's best: it is not traced (the caller answers for the pool). */
+  hopeless?: Hopeless;
 }
+
+/** A pair of side designs that surely cannot beat a climb's best. */
+type Hopeless = (input: SideDesign, load: SideDesign, best: StageDesign) => boolean;
 
 /**
  * Climbs over stage designs with the side designs and pairs it builds memoised (shared by every climb of one load
@@ -304,6 +309,7 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
         if (!input || !load) continue;
         // While the bound is finite (the best meets every target) only a move that does can replace it.
         if (limit < Infinity && skipped(input, load, best)) continue;
+        if (o.hopeless && !known.get(input)?.has(load) && o.hopeless(input, load, best)) continue;
         const p = pairOf(input, load);
         if (p && o.better(p, best)) {
           best = p;
@@ -428,7 +434,7 @@ function nearestStage(sides: StageSides, pool: StageDesign[], memos: { input: Si
   // The leaders' climbs and those from extra seeds, skipping a seed on the same lengths as an earlier one: a climb
   // settles gm/ID and setpoints near its seed, so what another seed adds is mostly other lengths.
   const lengthsOf = (d: StageDesign) => `${d.input.cand.l.join(',')}/${d.load.cand.l.join(',')}`;
-  const top = (climber: Climber, better: StageOrder, extra: readonly (StageDesign | undefined)[] = []): StageDesign | undefined => {
+  const top = (climber: Climber, better: StageOrder, extra: readonly (StageDesign | undefined)[] = [], hopeless?: Hopeless): StageDesign | undefined => {
     const first = leaders(better);
     const taken = new Set(first.map(lengthsOf));
     const seeds = [...first];
@@ -437,7 +443,7 @@ function nearestStage(sides: StageSides, pool: StageDesign[], memos: { input: Si
       taken.add(lengthsOf(d));
       seeds.push(d);
     }
-    return climbFrom(climber, better, seeds);
+    return climbFrom(climber, better, seeds, hopeless);
   };
   const gain = (d: StageDesign) => d.nominal.gain;
   const evaluated = () => point.evaluated() + held.evaluated();
@@ -450,7 +456,7 @@ function nearestStage(sides: StageSides, pool: StageDesign[], memos: { input: Si
   // the targets the area search aimed at, and a climb from them can stop on a local best.
   const heldOrder = higher(sides, (d) => d.nominal.gainAtSwing, gain);
   const swingOrder = higher(sides, (d) => d.nominal.trace.swing, gain);
-  let heldBy = top(held, heldOrder, [peak]) ?? peak;
+  let heldBy = top(held, heldOrder, [peak], heldHopeless(sides, peak, point)) ?? peak;
   const swing = peak.nominal.gain >= stage.gain ? top(search, swingOrder, [heldBy]) : undefined;
   // The swing climb's winner on lengths of its own: the held gain climbs from it too.
   if (swing && !leaders(heldOrder).concat(heldBy).some((d) => lengthsOf(d) === lengthsOf(swing))) {
@@ -469,13 +475,36 @@ function nearestStage(sides: StageSides, pool: StageDesign[], memos: { input: Si
   return { nearest: { peak, held: heldBy, swing, gbw, overCorners }, evaluated: evaluated() };
 }
 
+/** Relative slack on the held gain's bound where heldGain's one window can end at the design point (solved there again). */
+const HELD_SLACK = 1e-6;
+
+/**
+ * The held-gain climb's sure skip. The gain held over the swing target is at most the gain at the design point
+ * (heldGain's windows hold the design point as a grid sample), which one solve gives (the point climber's,
+ * memoised): a move below the best's held gain there, and not within the rails where the best is not, cannot beat
+ * it by the held order. An untraced move is missing from the pool, which counts only where the pool is read: the
+ * swing climb (run when the peak reaches the gain target) and the climbs over corners seed from its leaders. So the
+ * skip is for one corner and a peak short of the gain target, and for moves short of it at the design point (swing
+ * 0: off the trade front, meeting nothing).
+ */
+function heldHopeless(sides: StageSides, peak: StageDesign, point: Climber): Hopeless | undefined {
+  const { stage } = sides;
+  if (peak.nominal.gain >= stage.gain || sides.input.ctx.corners.length > 1) return undefined;
+  return (input, load, best) => {
+    const q = point.pairOf(input, load);
+    if (!q || q.nominal.trace.points[0] === null) return false;
+    const g = q.nominal.gain;
+    return g < stage.gain && g * (1 + HELD_SLACK) < best.nominal.gainAtSwing && (withinRails(stage, best) || !withinRails(stage, q));
+  };
+}
+
 /** The best of the nearest points' climbs (by `better`) from these traced designs. */
-function climbFrom(climber: Climber, better: StageOrder, seeds: readonly StageDesign[]): StageDesign | undefined {
+function climbFrom(climber: Climber, better: StageOrder, seeds: readonly StageDesign[], hopeless?: Hopeless): StageDesign | undefined {
   let best: StageDesign | undefined;
   for (const traced of seeds) {
     const seed = climber.pairOf(traced.input, traced.load);
     if (!seed) continue;
-    const local = climber.climb(seed, { better, levels: NEAREST_LEVELS, scale: NEAREST_SCALE, bound: () => Infinity });
+    const local = climber.climb(seed, { better, levels: NEAREST_LEVELS, scale: NEAREST_SCALE, bound: () => Infinity, hopeless });
     if (!best || better(local, best)) best = local;
   }
   return best;
