@@ -73,7 +73,9 @@ export function gbwOf(stage: StageSpec, gm: number, cout: number | null): number
 export function stageAt(sides: StageSides, corner: string, circuit: StageCircuit, gates: StageAt['gates'], step = TRACE_STEP, solveHeld = step < SEARCH_STEP): StageAt {
   const { stage } = sides;
   // A search trace is judged by its figures and the design point; its other solved points would only sit in the
-  // pools of traced designs (GC copies them), as the reported curve is traced again (fineTrace).
+  // pools of traced designs (GC copies them), as the reported curve is traced again (fineTrace). Its samples are kept
+  // at the design point and the last grid points inside the swing edges, where a move's swing check (stage-refine
+  // surelyMisses) solves nearby.
   const search = step >= SEARCH_STEP;
   const trace = traceStage(circuit, stage.output, stage.gain, { step, keep: search ? 'design' : 'all' });
   const p = trace.points[trace.j0];
@@ -81,7 +83,14 @@ export function stageAt(sides: StageSides, corner: string, circuit: StageCircuit
   // The search ranks on the grid estimate; reported designs (and the nearest points' climb) have the interval ends
   // solved on the circuit.
   const gainAtSwing = solveHeld ? heldGain(circuit, trace, stage.swing) : gainOverSwing(trace.vs, trace.gains, trace.j0, stage.swing);
-  if (search) for (let j = 0; j < trace.samples.length; j++) if (j !== trace.j0) trace.samples[j] = null;
+  if (search) {
+    const { gains, j0 } = trace;
+    let lo = j0;
+    while (lo > 0 && gains[lo - 1] >= stage.gain) lo--;
+    let hi = j0;
+    while (hi < gains.length - 1 && gains[hi + 1] >= stage.gain) hi++;
+    for (let j = 0; j < trace.samples.length; j++) if (j !== j0 && j !== lo && j !== hi) trace.samples[j] = null;
+  }
   return {
     corner, circuit, trace, gates,
     gain: trace.gains[trace.j0],

@@ -1,6 +1,6 @@
 import { topologyOf } from '../topology/index.js';
 import { REL_TOL } from '../policy.js';
-import { sampleOf, stageGain, stagePoint, type StagePoint } from '../stack/index.js';
+import { nearestSample, sampleOf, stageGain, stagePoint, type StagePoint } from '../stack/index.js';
 import { candidateKey, type Candidate } from './search/candidate.js';
 import { neighbours } from './search/refine.js';
 import { sideChecked, sideSized, type Side, type SideDesign, type SideSized } from './stage-side.js';
@@ -107,15 +107,17 @@ function surelyMisses(sides: StageSides, input: SideDesign, load: SideDesign, ne
     return !p || !(p.gain >= stage.gain);
   };
   const { vlow, vhigh, points, j0 } = near.nominal.trace;
-  // Newton starts away from the design point: the near design's solution there (a move changes one side by a step).
+  // Newton starts from the near design's solution (a move changes one side by a step) at its kept sample nearest the
+  // output solved: the design point's, or the last grid point inside a swing edge (see stageAt).
   const start = points[j0] ?? design();
   if (!start || vlow === null || vhigh === null) return short();
   const guess = sampleOf(start);
-  // Gain at v (null: no solution from the design point's start, which proves nothing: the trace gets there by
-  // continuation); only the gain is read, so nothing of the input side's solution is allocated (stageGain).
+  // Gain at v (null: no solution from the near design's nearest kept sample, which proves nothing: the trace gets
+  // there by continuation); only the gain is read, so nothing of the input side's solution is allocated (stageGain).
   const gainAt = (v: number): number | null => {
     if (!(v > 0 && v < sides.supply)) return null;
-    return rangeSafe(() => stageGain(c, v, start.load, guess));
+    const q = nearestSample(near.nominal.trace, v) ?? guess;
+    return rangeSafe(() => stageGain(c, v, q.load, q));
   };
   const below = (v: number): boolean => {
     const g = gainAt(v);
