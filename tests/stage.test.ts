@@ -145,6 +145,27 @@ describe('swing and held gain on sampled curves (worked examples)', () => {
     expect(held).toBeGreaterThanOrEqual(Math.min(...inside) * 0.999);
     expect(held).toBeLessThanOrEqual(Math.max(...inside));
   });
+
+  it('held gain never exceeds the gain at the design point (the held-gain climb skips moves by it)', () => {
+    const cascoded: StageCircuit = {
+      ...simple,
+      input: { devices: [simple.input.devices[0], simple.input.devices[0]], cascodeGate: 1.0 },
+      load: { devices: [simple.load.devices[0], simple.load.devices[0]], gates: [0.7, 1.05] },
+    };
+    let checked = 0;
+    for (const c of [simple, cascoded]) {
+      // Design points across the range, down to the lowest grid point, and widths up to one only a single window fits.
+      for (const output of [0.05, 0.3, 0.9, 1.5]) {
+        for (const width of [0.2, 0.6, 1.0, 1.4, 1.7]) {
+          const t = traceStage(c, output, 24, { step: 0.05 });
+          const held = heldGain(c, t, width);
+          expect(held).toBeLessThanOrEqual(t.gains[t.j0] * (1 + 1e-6));
+          if (held > 0) checked++;
+        }
+      }
+    }
+    expect(checked).toBeGreaterThan(10);
+  });
 });
 
 // An EKV kit (analytic, invented parameters) for the search.

@@ -73,7 +73,9 @@ export function gbwOf(stage: StageSpec, gm: number, cout: number | null): number
 export function stageAt(sides: StageSides, corner: string, circuit: StageCircuit, gates: StageAt['gates'], step = TRACE_STEP, solveHeld = step < SEARCH_STEP): StageAt {
   const { stage } = sides;
   // A search trace is judged by its figures and the design point; its other solved points would only sit in the
-  // pools of traced designs (GC copies them), as the reported curve is traced again (fineTrace).
+  // pools of traced designs (GC copies them), as the reported curve is traced again (fineTrace). Its samples are kept
+  // at the design point and the last grid points inside the swing edges, where a move's swing check (stage-refine
+  // surelyMisses) solves nearby.
   const search = step >= SEARCH_STEP;
   const trace = traceStage(circuit, stage.output, stage.gain, { step, keep: search ? 'design' : 'all' });
   const p = trace.points[trace.j0];
@@ -81,7 +83,14 @@ export function stageAt(sides: StageSides, corner: string, circuit: StageCircuit
   // The search ranks on the grid estimate; reported designs (and the nearest points' climb) have the interval ends
   // solved on the circuit.
   const gainAtSwing = solveHeld ? heldGain(circuit, trace, stage.swing) : gainOverSwing(trace.vs, trace.gains, trace.j0, stage.swing);
-  if (search) for (let j = 0; j < trace.samples.length; j++) if (j !== trace.j0) trace.samples[j] = null;
+  if (search) {
+    const { gains, j0 } = trace;
+    let lo = j0;
+    while (lo > 0 && gains[lo - 1] >= stage.gain) lo--;
+    let hi = j0;
+    while (hi < gains.length - 1 && gains[hi + 1] >= stage.gain) hi++;
+    for (let j = 0; j < trace.samples.length; j++) if (j !== j0 && j !== lo && j !== hi) trace.samples[j] = null;
+  }
   return {
     corner, circuit, trace, gates,
     gain: trace.gains[trace.j0],
@@ -174,8 +183,19 @@ export function cornersOf(sides: StageSides, d: StageDesign): NonNullable<StageD
   return d.corners;
 }
 
-/** Re-trace a design (nominal and every corner) on the reported grid, for the result. */
+/** Designs whose nominal trace and other corners are on the reported grid already (see setFine). */
+const fine = new WeakSet<StageDesign>();
+
+/** Give a design its traces on the reported grid (nominal, every other corner in order), as fineTrace makes them. */
+export function setFine(d: StageDesign, nominal: StageAt, corners: NonNullable<StageDesign['corners']>): void {
+  d.nominal = nominal;
+  d.corners = corners;
+  fine.add(d);
+}
+
+/** Re-trace a design (nominal and every corner) on the reported grid, for the result, unless it is so traced. */
 export function fineTrace(sides: StageSides, d: StageDesign): void {
-  d.nominal = stageAt(sides, d.nominal.corner, d.nominal.circuit, d.nominal.gates, TRACE_STEP);
-  d.corners = sides.input.ctx.corners.slice(1).map((c) => evaluateCorner(sides, d, c, TRACE_STEP));
+  if (fine.has(d)) return;
+  const nominal = stageAt(sides, d.nominal.corner, d.nominal.circuit, d.nominal.gates, TRACE_STEP);
+  setFine(d, nominal, sides.input.ctx.corners.slice(1).map((c) => evaluateCorner(sides, d, c, TRACE_STEP)));
 }

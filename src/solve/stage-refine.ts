@@ -1,10 +1,10 @@
 import { topologyOf } from '../topology/index.js';
 import { REL_TOL } from '../policy.js';
-import { sampleOf, stageGain, stagePoint, type StagePoint } from '../stack/index.js';
+import { nearestSample, sampleOf, stageGain, stagePoint, type StagePoint } from '../stack/index.js';
 import { candidateKey, type Candidate } from './search/candidate.js';
 import { neighbours } from './search/refine.js';
 import { sideChecked, sideSized, type Side, type SideDesign, type SideSized } from './stage-side.js';
-import { SEARCH_STEP, TRACE_STEP, evaluateCorner, evaluatePair, pairCircuit, stageAt, type PairJudge, type StageDesign, type StageSides } from './stage-eval.js';
+import { SEARCH_STEP, TRACE_STEP, evaluateCorner, evaluatePair, pairCircuit, setFine, stageAt, type PairJudge, type StageDesign, type StageSides } from './stage-eval.js';
 import { meets, stageCompare, stageMargins, withinRails } from './stage-rank.js';
 import { fullyOkMemo, stageBetter } from './stage-order.js';
 import { rangeSafe } from './evaluate/evaluate.js';
@@ -23,10 +23,21 @@ const SETPOINT_JUMPS = [-4, -2];
 /** Climb rounds at most; each round tries the moves of both sides once. */
 const MAX_ROUNDS = 24;
 
-/** Meets every target at every corner on the reported grid (as the result will be traced). */
+/**
+ * Meets every target at every corner on the reported grid (as the result will be traced). The first design that
+ * does is the result: it keeps those traces (setFine), which the result would trace again.
+ */
 function okReported(sides: StageSides, d: StageDesign): boolean {
   const n = stageAt(sides, d.nominal.corner, d.nominal.circuit, d.nominal.gates, TRACE_STEP);
-  return meets(stageMargins(sides.stage, n)) && sides.input.ctx.corners.slice(1).every((c) => meets(stageMargins(sides.stage, evaluateCorner(sides, d, c, TRACE_STEP))));
+  if (!meets(stageMargins(sides.stage, n))) return false;
+  const corners: NonNullable<StageDesign['corners']> = [];
+  for (const c of sides.input.ctx.corners.slice(1)) {
+    const at = evaluateCorner(sides, d, c, TRACE_STEP);
+    if (!meets(stageMargins(sides.stage, at))) return false;
+    corners.push(at);
+  }
+  setFine(d, n, corners);
+  return true;
 }
 
 /**
@@ -96,15 +107,17 @@ function surelyMisses(sides: StageSides, input: SideDesign, load: SideDesign, ne
     return !p || !(p.gain >= stage.gain);
   };
   const { vlow, vhigh, points, j0 } = near.nominal.trace;
-  // Newton starts away from the design point: the near design's solution there (a move changes one side by a step).
+  // Newton starts from the near design's solution (a move changes one side by a step) at its kept sample nearest the
+  // output solved: the design point's, or the last grid point inside a swing edge (see stageAt).
   const start = points[j0] ?? design();
   if (!start || vlow === null || vhigh === null) return short();
   const guess = sampleOf(start);
-  // Gain at v (null: no solution from the design point's start, which proves nothing: the trace gets there by
-  // continuation); only the gain is read, so nothing of the input side's solution is allocated (stageGain).
+  // Gain at v (null: no solution from the near design's nearest kept sample, which proves nothing: the trace gets
+  // there by continuation); only the gain is read, so nothing of the input side's solution is allocated (stageGain).
   const gainAt = (v: number): number | null => {
     if (!(v > 0 && v < sides.supply)) return null;
-    return rangeSafe(() => stageGain(c, v, start.load, guess));
+    const q = nearestSample(near.nominal.trace, v) ?? guess;
+    return rangeSafe(() => stageGain(c, v, q.load, q));
   };
   const below = (v: number): boolean => {
     const g = gainAt(v);
@@ -147,7 +160,12 @@ interface ClimbOptions {
   bound: (best: StageDesign) => number;
   /** Called with every design a move reaches that beats the climb's best. */
   onBetter?: (d: StageDesign) => void;
+  /** True when a pair surely cannot beat the climb's best: it is not traced (the caller answers for the pool). */
+  hopeless?: Hopeless;
 }
+
+/** A pair of side designs that surely cannot beat a climb's best. */
+type Hopeless = (input: SideDesign, load: SideDesign, best: StageDesign) => boolean;
 
 /**
  * Climbs over stage designs with the side designs and pairs it builds memoised (shared by every climb of one load
@@ -206,25 +224,38 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
 
   type Steps = { input: { g: number; v: number }; load: { g: number; v: number } };
   type Move = { input: SideMove; load: SideMove; area: number };
-  const sideMoves = (best: StageDesign, steps: Steps, kind: 'input' | 'load', pairMoves: boolean): SideMove[] => {
-    const out: SideMove[] = [];
-    for (const c of neighbours(sides[kind].ctx, best[kind].cand, steps[kind].g, steps[kind].v, pairMoves)) {
-      const d = sideOf(sides[kind], c);
-      if (d) out.push(d);
-    }
+  // A side's moves depend only on its design and the steps, and a round that moves one side finds the other's
+  // again: each list is built once (the same SideMove objects in the same order), by side design and steps.
+  const lists = new WeakMap<SideDesign, Map<string, SideMove[]>>();
+  const listed = (d: SideDesign, key: string, build: () => SideMove[]): SideMove[] => {
+    let byKey = lists.get(d);
+    if (!byKey) lists.set(d, (byKey = new Map()));
+    let out = byKey.get(key);
+    if (!out) byKey.set(key, (out = build()));
     return out;
   };
+  const sideMoves = (best: StageDesign, steps: Steps, kind: 'input' | 'load', pairMoves: boolean): SideMove[] =>
+    listed(best[kind], `${steps[kind].g}|${steps[kind].v}|${pairMoves}`, () => {
+      const out: SideMove[] = [];
+      for (const c of neighbours(sides[kind].ctx, best[kind].cand, steps[kind].g, steps[kind].v, pairMoves)) {
+        const d = sideOf(sides[kind], c);
+        if (d) out.push(d);
+      }
+      return out;
+    });
   // Coupled length moves: a device's L to the neighbouring table length together with its gm/ID by a step, with one
   // setpoint several steps lower (SETPOINT_JUMPS), or both. A shorter device loses Rout near the swing edges, which
   // a higher gm/ID (more gain) or a lower setpoint (more room for the device above) makes up; no single or pair
   // move of the climb finds such a move, and on a thin feasible region the climb stopped short of it.
-  const jumpMoves = (best: StageDesign, steps: Steps, kind: 'input' | 'load'): SideMove[] => {
+  const jumpMoves = (best: StageDesign, steps: Steps, kind: 'input' | 'load'): SideMove[] =>
+    listed(best[kind], `${steps[kind].g}|${steps[kind].v}|jump`, () => jumpsOf(best[kind].cand, steps[kind], kind));
+  const jumpsOf = (from: Candidate, step: { g: number; v: number }, kind: 'input' | 'load'): SideMove[] => {
     const out: SideMove[] = [];
     const ctx = sides[kind].ctx;
     const [gLo, gHi] = [ctx.gmids[0], ctx.gmids[ctx.gmids.length - 1]];
-    for (const { cand: c, k } of lengthMoves(ctx, best[kind].cand)) {
+    for (const { cand: c, k } of lengthMoves(ctx, from)) {
       for (const gs of [0, -1, 1]) {
-        const g = c.gmid[k] + gs * steps[kind].g;
+        const g = c.gmid[k] + gs * step.g;
         if (!(g >= gLo - 1e-9 && g <= gHi + 1e-9)) continue;
         const gmid = c.gmid.map((x, i) => (i === k ? g : x));
         // The moved device's gm/ID by a step (the plain length move is the single moves' own), then with one
@@ -235,7 +266,7 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
         }
         for (let j = 0; j < c.setpoints.length; j++) {
           for (const n of SETPOINT_JUMPS) {
-            const v = c.setpoints[j] + n * steps[kind].v;
+            const v = c.setpoints[j] + n * step.v;
             if (!(v >= 0.02)) continue;
             const d = sideOf(sides[kind], { ...c, gmid, setpoints: c.setpoints.map((x, i) => (i === j ? v : x)) });
             if (d) out.push(d);
@@ -280,6 +311,7 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
         if (!input || !load) continue;
         // While the bound is finite (the best meets every target) only a move that does can replace it.
         if (limit < Infinity && skipped(input, load, best)) continue;
+        if (o.hopeless && !known.get(input)?.has(load) && o.hopeless(input, load, best)) continue;
         const p = pairOf(input, load);
         if (p && o.better(p, best)) {
           best = p;
@@ -404,7 +436,7 @@ function nearestStage(sides: StageSides, pool: StageDesign[], memos: { input: Si
   // The leaders' climbs and those from extra seeds, skipping a seed on the same lengths as an earlier one: a climb
   // settles gm/ID and setpoints near its seed, so what another seed adds is mostly other lengths.
   const lengthsOf = (d: StageDesign) => `${d.input.cand.l.join(',')}/${d.load.cand.l.join(',')}`;
-  const top = (climber: Climber, better: StageOrder, extra: readonly (StageDesign | undefined)[] = []): StageDesign | undefined => {
+  const top = (climber: Climber, better: StageOrder, extra: readonly (StageDesign | undefined)[] = [], hopeless?: Hopeless): StageDesign | undefined => {
     const first = leaders(better);
     const taken = new Set(first.map(lengthsOf));
     const seeds = [...first];
@@ -413,7 +445,7 @@ function nearestStage(sides: StageSides, pool: StageDesign[], memos: { input: Si
       taken.add(lengthsOf(d));
       seeds.push(d);
     }
-    return climbFrom(climber, better, seeds);
+    return climbFrom(climber, better, seeds, hopeless);
   };
   const gain = (d: StageDesign) => d.nominal.gain;
   const evaluated = () => point.evaluated() + held.evaluated();
@@ -426,7 +458,7 @@ function nearestStage(sides: StageSides, pool: StageDesign[], memos: { input: Si
   // the targets the area search aimed at, and a climb from them can stop on a local best.
   const heldOrder = higher(sides, (d) => d.nominal.gainAtSwing, gain);
   const swingOrder = higher(sides, (d) => d.nominal.trace.swing, gain);
-  let heldBy = top(held, heldOrder, [peak]) ?? peak;
+  let heldBy = top(held, heldOrder, [peak], heldHopeless(sides, peak, point)) ?? peak;
   const swing = peak.nominal.gain >= stage.gain ? top(search, swingOrder, [heldBy]) : undefined;
   // The swing climb's winner on lengths of its own: the held gain climbs from it too.
   if (swing && !leaders(heldOrder).concat(heldBy).some((d) => lengthsOf(d) === lengthsOf(swing))) {
@@ -445,13 +477,36 @@ function nearestStage(sides: StageSides, pool: StageDesign[], memos: { input: Si
   return { nearest: { peak, held: heldBy, swing, gbw, overCorners }, evaluated: evaluated() };
 }
 
+/** Relative slack on the held gain's bound where heldGain's one window can end at the design point (solved there again). */
+const HELD_SLACK = 1e-6;
+
+/**
+ * The held-gain climb's sure skip. The gain held over the swing target is at most the gain at the design point
+ * (heldGain's windows hold the design point as a grid sample), which one solve gives (the point climber's,
+ * memoised): a move below the best's held gain there, and not within the rails where the best is not, cannot beat
+ * it by the held order. An untraced move is missing from the pool, which counts only where the pool is read: the
+ * swing climb (run when the peak reaches the gain target) and the climbs over corners seed from its leaders. So the
+ * skip is for one corner and a peak short of the gain target, and for moves short of it at the design point (swing
+ * 0: off the trade front, meeting nothing).
+ */
+function heldHopeless(sides: StageSides, peak: StageDesign, point: Climber): Hopeless | undefined {
+  const { stage } = sides;
+  if (peak.nominal.gain >= stage.gain || sides.input.ctx.corners.length > 1) return undefined;
+  return (input, load, best) => {
+    const q = point.pairOf(input, load);
+    if (!q || q.nominal.trace.points[0] === null) return false;
+    const g = q.nominal.gain;
+    return g < stage.gain && g * (1 + HELD_SLACK) < best.nominal.gainAtSwing && (withinRails(stage, best) || !withinRails(stage, q));
+  };
+}
+
 /** The best of the nearest points' climbs (by `better`) from these traced designs. */
-function climbFrom(climber: Climber, better: StageOrder, seeds: readonly StageDesign[]): StageDesign | undefined {
+function climbFrom(climber: Climber, better: StageOrder, seeds: readonly StageDesign[], hopeless?: Hopeless): StageDesign | undefined {
   let best: StageDesign | undefined;
   for (const traced of seeds) {
     const seed = climber.pairOf(traced.input, traced.load);
     if (!seed) continue;
-    const local = climber.climb(seed, { better, levels: NEAREST_LEVELS, scale: NEAREST_SCALE, bound: () => Infinity });
+    const local = climber.climb(seed, { better, levels: NEAREST_LEVELS, scale: NEAREST_SCALE, bound: () => Infinity, hopeless });
     if (!best || better(local, best)) best = local;
   }
   return best;

@@ -5,8 +5,8 @@ import type { LengthSlice } from '../device/types.js';
 import type { Polarity } from '../table/types.js';
 import type { StackSpec, StageSpec, Topology } from '../design/types.js';
 import {
-  guessOf, inputAtCurrent, sampleAt, sideVoltage, sizeStackDevices,
-  type InputGuess, type SizedStack, type StackDevice, type StackOp,
+  sampleAt, sideVoltage, sizeStackDevices, solveInput, solved,
+  type SizedStack, type StackDevice, type StackOp,
 } from '../stack/index.js';
 import type { KitAccess } from './kit.js';
 import { makeContext, type SolveContext } from './context.js';
@@ -190,19 +190,21 @@ export function sideDesign(side: Side, cand: Candidate, vs: Float64Array, j0: nu
     const floor = 0.5 * stage.gain;
     if (side.kind === 'input') {
       const gm = new Float64Array(n);
-      // Each solve starts its root searches from the neighbour towards the design point.
-      let near: InputGuess | undefined;
+      // Each solve starts its root searches from the neighbour towards the design point (its x1 and input gate);
+      // the answers are read from `solved`, so no operating point is copied out per point.
+      let x1: number | undefined;
+      let gate: number | undefined;
       const at = (j: number): boolean => {
-        const op = inputAtCurrent(devices, sized.gates[1], sideVoltage(side.device, supply, vs[j]), ctx.spec.current, near);
-        if (!op) return false;
-        near = guessOf(op);
-        rout[j] = op.rout;
-        gm[j] = op.devices[0].gm;
-        return gm[j] * op.rout >= floor;
+        if (!solveInput(devices, sized.gates[1], sideVoltage(side.device, supply, vs[j]), ctx.spec.current, x1, gate)) return false;
+        x1 = solved.x1;
+        gate = solved.gate;
+        rout[j] = solved.rout;
+        gm[j] = solved.devices[0].gm;
+        return gm[j] * solved.rout >= floor;
       };
-      let near0: InputGuess | undefined;
-      for (let j = j0; j < n && at(j); j++) if (j === j0) near0 = near;
-      near = near0;
+      let start: [number | undefined, number | undefined] = [undefined, undefined];
+      for (let j = j0; j < n && at(j); j++) if (j === j0) start = [x1, gate];
+      [x1, gate] = start;
       for (let j = j0 - 1; j >= 0 && at(j); j--);
       d.gm = gm;
     } else {

@@ -11,8 +11,8 @@ export { sizeStackDevices, type StackDesign, type SizedStack } from './sizing.js
 export { biasDevices, biasGates, type BiasDevice, type DiodeWidening } from './bias.js';
 export { thermalVoltage, gmidCeiling, slopeFactor, inversionCoefficient, ekvVdsat, saturationVoltage } from './saturation.js';
 export { fitSquareLaw, squareLawCheck, type SquareLawFit } from './squarelaw.js';
-export { inputAtCurrent, guessOf, type InputOp, type InputGuess } from './stage-input.js';
+export { inputAtCurrent, solveInput, solved, type InputOp, type InputGuess } from './stage-input.js';
 export { stagePoint, stageGain, stageSample, sampleOf, sideVoltage, parallel, type StageCircuit, type StagePoint, type StageSample } from './stage-point.js';
 export { swingOnGrid, gainOverSwing, gainOverSwingWithEdges, swingAtGain, outputGrid, indexOf as designIndex } from './stage-swing.js';
-export { traceStage, heldGain, type StageTrace } from './stage-trace.js';
+export { traceStage, heldGain, nearestSample, type StageTrace } from './stage-trace.js';
 export { handSideRout, handStageGain, handSwing } from './stage-squarelaw.js';

@@ -144,11 +144,6 @@ export function solveInput(devices: readonly StackDevice[], cascodeGate: number 
   return true;
 }
 
-/** The guess a solved input side gives a neighbouring solve. */
-export function guessOf(op: { nodes: readonly number[]; devices: readonly DeviceBias[] }): InputGuess {
-  return { x1: op.nodes[1], gate: op.devices[0].vgs };
-}
-
 /** VGS at which the device carries i at VDS = vds, VSB = 0 (current rises with VGS); null when the table does not reach it. */
 function gateForCurrent(d: StackDevice, i: number, vds: number, guess?: number): number | null {
   const win = vgsWindow(d.slice, vds, 0);

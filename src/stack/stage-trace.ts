@@ -11,7 +11,7 @@ export interface StageTrace {
   gains: Float64Array;
   /** Solved points (null where not coverable), same indices; a trace with `keep` 'design' holds only the design point's. */
   points: Array<StagePoint | null>;
-  /** The solved points as starts for solves nearby (heldGain), same indices; a search trace kept by the stage search holds only the design point's (stage-eval stageAt). */
+  /** The solved points as starts for solves nearby (heldGain), same indices; a search trace kept by the stage search holds only the design point's and those just inside the swing edges (stage-eval stageAt). */
   samples: Array<StageSample | null>;
   /** Index of the design point. */
   j0: number;
@@ -105,8 +105,8 @@ export function heldGain(c: StageCircuit, trace: StageTrace, width: number, reso
   return held;
 }
 
-// The solved grid sample nearest to v, as a starting guess.
-function nearestSample(trace: StageTrace, v: number): StageSample | undefined {
+/** The solved grid sample nearest to v, as a starting guess (undefined when none is kept). */
+export function nearestSample(trace: StageTrace, v: number): StageSample | undefined {
   let best: StageSample | undefined;
   let dist = Infinity;
   trace.samples.forEach((p, j) => {
