@@ -130,8 +130,12 @@ function slopes(d: StackDevice, p: Pass, k: number): void {
   p.gmb[k] = -(d.w * s.jd(vgs, vds, vsb + hs) - id) / hs;
 }
 
-// Working arrays by chain length, reused across solves (the solver calls nothing that solves again).
+// Working arrays by chain length, reused across solves (the solver calls nothing that solves again). Made up front for
+// the chains of stacks and stage sides: a pass first made once the solver was compiled deopted every function that
+// reads one (a cold CLI run solves a triple's three devices only after the two of a cascode).
+const PREMADE = 4;
 const scratch: Pass[] = [];
+for (let n = 0; n <= PREMADE; n++) scratch.push(newPass(n));
 function scratchFor(n: number): Pass {
   return scratch[n] ?? (scratch[n] = newPass(n));
 }
