@@ -111,7 +111,7 @@ describe('slice interpolation', () => {
     const s = sliceAt(wi, 1e-6);
     const out = new Float64Array(4);
     for (const [g, d, b] of [[0.05, 0.6, 0.1], [0.137, 0.93, 0.37], [0.2999, 0.5, 0]]) {
-      s.jdSlopes(g, d, b, out);
+      s.jdSlopes(Float64Array.of(g, d, b), out);
       expect(out[0]).toBe(s.jd(g, d, b)); // the same current Newton's residuals use
       const two = new Float64Array(2);
       s.jdGm(g, d, b, two);
@@ -119,8 +119,8 @@ describe('slice interpolation', () => {
       expect([...two]).toEqual([...s.small(g, d, b)].slice(0, 2)); // jdGm gives small()'s own first two values
       // A DC solve keeps jdSlopes' current and reads only the conductances: together they are small()'s values.
       const three = new Float64Array(3);
-      s.conductances(g, d, b, three);
-      s.jdSlopes(g, d, b, out);
+      s.conductances(Float64Array.of(g, d, b), three);
+      s.jdSlopes(Float64Array.of(g, d, b), out);
       expect([out[0], ...three]).toEqual([...s.small(g, d, b)]);
       expect(three[0] / two[0]).toBeCloseTo(1 / (n * ut), 10); // gm/ID = 1/(n·UT) in weak inversion (Tsividis)
       const id = f(g, d, b) / 1e-6;
@@ -132,7 +132,7 @@ describe('slice interpolation', () => {
     const q = sliceAt(sq, 1.3e-6);
     const h = 1e-6;
     for (const [g, d, b] of [[0.713, 0.62, 0.13], [1.204, 1.17, 0.41]]) {
-      q.jdSlopes(g, d, b, out);
+      q.jdSlopes(Float64Array.of(g, d, b), out);
       expect(out[1] / ((q.jd(g + h, d, b) - q.jd(g - h, d, b)) / (2 * h))).toBeCloseTo(1, 5);
       expect(out[2] / ((q.jd(g, d + h, b) - q.jd(g, d - h, b)) / (2 * h))).toBeCloseTo(1, 5);
       expect(out[3] / ((q.jd(g, d, b + h) - q.jd(g, d, b - h)) / (2 * h))).toBeCloseTo(1, 5);

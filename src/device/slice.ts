@@ -1,6 +1,7 @@
 import { AxisLocator, coveredEdges } from '../numeric/axis.js';
 import { rowMajorStrides } from '../numeric/strides.js';
 import { rangeError } from '../numeric/range-error.js';
+import type { StackwrightError } from '../errors.js';
 import { tableLabel } from '../table/label.js';
 import { formatEng } from '../units/index.js';
 import type { DeviceTable, StoredQuantity } from '../table/types.js';
@@ -60,6 +61,7 @@ export class TableSlice implements LengthSlice {
   private atD = NaN;
   private atS = NaN;
   private readonly scratch = new Float64Array(4);
+  private readonly bias = new Float64Array(3);
   // Direct references for the hot path: id, then the conductances in small()'s order.
   declare private readonly pId: Float64Array;
   declare private readonly small4: Float64Array[];
@@ -99,14 +101,14 @@ export class TableSlice implements LengthSlice {
   }
 
   jd(vgs: number, vds: number, vsb: number): number {
-    this.locate(vgs, vds, vsb);
+    this.place(vgs, vds, vsb);
     this.evalInto(0, 1, this.scratch);
     return this.scratch[0];
   }
 
   small(vgs: number, vds: number, vsb: number, out?: Float64Array): Float64Array {
     const res = out ?? new Float64Array(4);
-    this.locate(vgs, vds, vsb);
+    this.place(vgs, vds, vsb);
     this.evalInto(0, 4, res);
     return res;
   }
@@ -115,10 +117,11 @@ export class TableSlice implements LengthSlice {
    * jd and the exact partial derivatives of this slice's interpolant (per metre of width), one cell lookup:
    * out = [jd, ∂jd/∂vgs, ∂jd/∂vds, ∂jd/∂vsb]. jd is bit-identical to `jd()`. The derivatives are those of
    * the cell holding the point (the cell above on a node, the last cell at the upper edge), i.e. the limit of
-   * a forward difference (backward at the upper edge); 0 along a single-point axis.
+   * a forward difference (backward at the upper edge); 0 along a single-point axis. The bias is read from
+   * `at` = [vgs, vds, vsb] (see LengthSlice.jdSlopes); false, and `out` untouched, outside the table.
    */
-  jdSlopes(vgs: number, vds: number, vsb: number, out: Float64Array): void {
-    this.locate(vgs, vds, vsb);
+  jdSlopes(at: Float64Array, out: Float64Array): boolean {
+    if (!this.locate(at)) return false;
     const p = this.pId;
     const b = this.base;
     const u = this.td;
@@ -158,24 +161,25 @@ export class TableSlice implements LengthSlice {
     out[1] = this.lg.step ? (ft * k) / this.wG : 0;
     out[2] = this.ld.step ? (fu * k) / this.wD : 0;
     out[3] = this.ls.step ? (fv * k) / this.wS : 0;
+    return true;
   }
 
-  /** [gm/W, gds/W, gmb/W] into out[0..2], the same values as small()[1..3]: a DC solve has jd from jdSlopes. */
-  conductances(vgs: number, vds: number, vsb: number, out: Float64Array): void {
-    this.locate(vgs, vds, vsb);
+  /** [gm/W, gds/W, gmb/W] at `at` = [vgs, vds, vsb] into out[0..2], the same values as small()[1..3]: a DC solve has jd from jdSlopes. */
+  conductances(at: Float64Array, out: Float64Array): void {
+    if (!this.locate(at)) throw this.outside(at);
     this.evalInto(1, 4, out);
   }
 
   /** [jd, gm/W] into out[0..1], the same values as small(): half the work for gm/ID searches. */
   jdGm(vgs: number, vds: number, vsb: number, out: Float64Array): void {
-    this.locate(vgs, vds, vsb);
+    this.place(vgs, vds, vsb);
     this.evalInto(0, 2, out);
   }
 
   /** One quantity at the reference width (NaN when the table lacks it). */
   value(q: StoredQuantity, vgs: number, vds: number, vsb: number): number {
     const block = this.plane.q[q];
-    this.locate(vgs, vds, vsb);
+    this.place(vgs, vds, vsb);
     return block ? this.eval(block, LOG_ALONG_VGS.has(q)) : NaN;
   }
 
@@ -199,14 +203,32 @@ export class TableSlice implements LengthSlice {
     };
   }
 
-  private locate(vgs: number, vds: number, vsb: number): void {
-    if (vgs === this.atG && vds === this.atD && vsb === this.atS) return;
-    const ig = this.lg.locate(vgs);
-    if (ig < 0) throw rangeError('vgs', vgs, this.lg.lo, this.lg.hi, 'V', this.where());
-    const id = this.ld.locate(vds);
-    if (id < 0) throw rangeError('vds', vds, this.ld.lo, this.ld.hi, 'V', this.where());
-    const is = this.ls.locate(vsb);
-    if (is < 0) throw rangeError('vsb', vsb, this.ls.lo, this.ls.hi, 'V', this.where());
+  // locate for a bias given as numbers (through `bias`: the locators read it from an array), or a 'range' error.
+  private place(vgs: number, vds: number, vsb: number): void {
+    const at = this.bias;
+    at[0] = vgs;
+    at[1] = vds;
+    at[2] = vsb;
+    if (!this.locate(at)) throw this.outside(at);
+  }
+
+  // The 'range' error of a bias outside the table, naming the first axis it is outside.
+  private outside(at: Float64Array): StackwrightError {
+    const axes = [this.lg, this.ld, this.ls];
+    const k = axes.findIndex((a, j) => a.locateIn(at, j) < 0);
+    return rangeError(AXES[k], at[k], axes[k].lo, axes[k].hi, 'V', this.where());
+  }
+
+  // The cell holding at = [vgs, vds, vsb]; false outside the table (the same test as stack/range `covers`).
+  private locate(at: Float64Array): boolean {
+    const vgs = at[0];
+    const vds = at[1];
+    const vsb = at[2];
+    if (vgs === this.atG && vds === this.atD && vsb === this.atS) return true;
+    const ig = this.lg.locateIn(at, 0);
+    const id = this.ld.locateIn(at, 1);
+    const is = this.ls.locateIn(at, 2);
+    if (ig < 0 || id < 0 || is < 0) return false;
     this.base = ig * this.stG + id * this.stD + is;
     this.wG = this.lg.width;
     this.wD = this.ld.width;
@@ -217,6 +239,7 @@ export class TableSlice implements LengthSlice {
     this.atG = vgs;
     this.atD = vds;
     this.atS = vsb;
+    return true;
   }
 
   private where(): string {
@@ -264,6 +287,8 @@ export class TableSlice implements LengthSlice {
     }
   }
 }
+
+const AXES = ['vgs', 'vds', 'vsb'] as const;
 
 const slices = new WeakMap<DeviceTable, Map<number, TableSlice>>();
 /** Enough for a solver's L sweep; older slices are dropped first. */

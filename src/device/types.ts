@@ -42,13 +42,15 @@ export interface LengthSlice {
   /**
    * Optional: jd and its exact partial derivatives along VGS, VDS and VSB (per metre of width) into
    * `out` = [jd, ∂jd/∂vgs, ∂jd/∂vds, ∂jd/∂vsb], for Newton; callers fall back to differences without it.
+   * The bias comes in an array, `at` = [vgs, vds, vsb]: the CLI's compiler inlines no calls, and a number
+   * argument is boxed on each one. False (and `out` untouched) outside the table, where the others throw.
    */
-  jdSlopes?(vgs: number, vds: number, vsb: number, out: Float64Array): void;
+  jdSlopes?(at: Float64Array, out: Float64Array): boolean;
   /**
-   * Optional: [gm/W, gds/W, gmb/W] only (entries 1..3 of `small`, the same values) into `out`, for a DC solve
-   * that already has jd at the point from `jdSlopes`.
+   * Optional: [gm/W, gds/W, gmb/W] only (entries 1..3 of `small`, the same values) at `at` = [vgs, vds, vsb]
+   * into `out`, for a DC solve that already has jd at the point from `jdSlopes`.
    */
-  conductances?(vgs: number, vds: number, vsb: number, out: Float64Array): void;
+  conductances?(at: Float64Array, out: Float64Array): void;
   /** Optional: [jd, gm/W] only (the first two entries of `small`, the same values) into `out`, for gm/ID searches. */
   jdGm?(vgs: number, vds: number, vsb: number, out: Float64Array): void;
   /** Full operating point at width w. */

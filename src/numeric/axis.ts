@@ -30,6 +30,8 @@ export class AxisLocator {
   private cell = 0;
   private cellLo = Infinity;
   private cellHi = -Infinity;
+  // locate's x, for locateIn.
+  private readonly x = new Float64Array(1);
 
   constructor(values: Float64Array) {
     this.values = values;
@@ -45,16 +47,27 @@ export class AxisLocator {
 
   /** Index of the lower node of the cell holding x (sets `t` and `width`), or -1 outside the axis or for NaN. */
   locate(x: number): number {
+    this.x[0] = x;
+    return this.locateIn(this.x, 0);
+  }
+
+  /**
+   * locate(at[k]). The hot lookups read x from an array: they run without inlining, where a number argument is
+   * boxed on every call.
+   */
+  locateIn(at: Float64Array, k: number): number {
+    const x = at[k];
     // Inside the last cell (false for NaN): the cell and fraction a search would give, in a few instructions
     // (+ 0 turns the −0 of x = −0 on a lower end of 0 into the search's 0; it changes no other value).
     if (x >= this.cellLo && x < this.cellHi) {
       this.t = (x - this.cellLo) / this.width + 0;
       return this.cell;
     }
-    return this.search(x);
+    return this.search(at, k);
   }
 
-  private search(x: number): number {
+  private search(at: Float64Array, k: number): number {
+    const x = at[k];
     if (!(x >= this.lo - this.tolerance && x <= this.hi + this.tolerance)) return -1;
     const last = this.n - 2;
     if (last < 0) {

@@ -3,6 +3,8 @@ import type { FallingSloped } from '../numeric/safe-newton.js';
 import { covers } from './range.js';
 
 const s4 = new Float64Array(4);
+// The bias of the lookup, [vgs, vds, vsb] (LengthSlice.jdSlopes takes it in an array).
+const at3 = new Float64Array(3);
 
 /**
  * A device's current w·jd along a straight line in bias space, (VGS, VDS, VSB) = base + x·dir, held against a
@@ -54,14 +56,17 @@ export class CurrentLine implements FallingSloped {
     const vgs = this.g0 + this.dg * x;
     const vds = this.d0 + this.dd * x;
     const vsb = this.s0 + this.ds * x;
-    if (!covers(s, vgs, vds, vsb)) return NaN;
     let j: number;
     let dj = NaN;
     if (s.jdSlopes) {
-      s.jdSlopes(vgs, vds, vsb, s4);
+      at3[0] = vgs;
+      at3[1] = vds;
+      at3[2] = vsb;
+      if (!s.jdSlopes(at3, s4)) return NaN;
       j = this.w * s4[0];
       dj = this.w * (this.dg * s4[1] + this.dd * s4[2] + this.ds * s4[3]);
     } else {
+      if (!covers(s, vgs, vds, vsb)) return NaN;
       j = this.w * s.jd(vgs, vds, vsb);
     }
     const sign = this.excess ? 1 : -1;

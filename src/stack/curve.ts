@@ -3,6 +3,7 @@ import type { StackDevice, StackOp } from './types.js';
 import { solveOperatingPoint } from './operating.js';
 import { PackedOp, gdsAt, gmAt, gmbAt, nodeAt, packedOperatingPoint, packedRout } from './packed-op.js';
 import { routAt } from './rout.js';
+import { newtonStart } from './newton.js';
 import { formatEng } from '../units/index.js';
 
 /** One point of the I–V curve; `op` is null where the table cannot cover it. */
@@ -61,24 +62,21 @@ export function sampleAt(devices: readonly StackDevice[], gates: readonly number
       const op = solveOperatingPoint(devices, gates, v, guess ? continued(guess, v) : undefined);
       return { v, i: op.i, rout: routAt(op), op };
     }
-    // The start is written into `start` (continueInto), and nothing but the packed answer is built.
+    // The start is written where the solver reads it (continueInto), and nothing but the packed answer is built.
     let i0 = 0;
     let count = 0;
     if (guess) {
-      count = guess instanceof PackedOp ? guess.n + 1 : guess.nodes.length;
-      if (start.length < count) start = new Float64Array(count);
+      const start = newtonStart(n);
+      count = Math.min(guess instanceof PackedOp ? guess.n + 1 : guess.nodes.length, start.length);
       i0 = continueInto(guess, v, start);
     }
-    const op = packedOperatingPoint(devices, gates, v, i0, start, count);
+    const op = packedOperatingPoint(devices, gates, v, i0, count);
     return { v, i: op.i, rout: op instanceof PackedOp ? packedRout(op) : routAt(op), op };
   } catch (e) {
     if (e instanceof StackwrightError && e.kind === 'range') return { v, i: NaN, rout: NaN, op: null };
     throw e;
   }
 }
-
-// The start of the next solve (continueInto writes it, newtonSolve reads it at once).
-let start = new Float64Array(8);
 
 // Within this distance of a solved point the tangent predicts the next one (Newton then needs fewer steps).
 const TANGENT_SPAN = 0.25;

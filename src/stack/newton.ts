@@ -9,35 +9,43 @@ const MAX_STEP = 0.1;
  * Newton on KCL of the series chain: unknowns x_1..x_{N−1} and I, residuals
  * r_k = W_k·jd_k(g_k − x_{k−1}, x_k − x_{k−1}, x_{k−1}) − I. Returns the current, NaN when it leaves the table or
  * does not converge (the caller falls back); the nodes and each device's bias and small-signal values are left in
- * the solution of the chain length (solutionOf), valid until the next solve, so nothing is built here. The first
- * `count` entries of `nodes` are the start (missing ones spread evenly). Allocates nothing once warm.
+ * the solution of the chain length (solutionOf), valid until the next solve, so nothing is built here. The start
+ * is the first `count` nodes written into newtonStart(n) (missing ones spread evenly). Allocates nothing once warm.
  */
-export function newtonSolve(devices: readonly StackDevice[], gates: readonly number[], v: number, i0: number, nodes: ArrayLike<number>, count: number): number {
+export function newtonSolve(devices: readonly StackDevice[], gates: readonly number[], v: number, i0: number, count: number): number {
   const n = devices.length;
   const w = scratchFor(n);
   const { r, dx, x } = w;
   x[0] = 0;
   x[n] = v;
   for (let k = 1; k < n; k++) {
-    // The even spread is worked out even when a start is given: arithmetic never run before optimisation deopts.
+    // The even spread and the given node are both read on every call: code never run before optimisation deopts.
     const spread = (v * k) / n;
-    x[k] = Math.min(Math.max(k < count ? nodes[k] : spread, x[k - 1]), v);
+    const given = x[k];
+    x[k] = Math.min(Math.max(k < count ? given : spread, x[k - 1]), v);
   }
   let i = i0;
-  if (!(i > 0)) {
-    if (!covers(devices[0].slice, gates[0], x[1], 0)) return NaN;
-    i = devices[0].w * devices[0].slice.jd(gates[0], x[1], 0);
-  }
+  // Without a start current, the bottom device's at the start nodes is the start: the first pass looks it up anyway.
+  const estimate = !(i > 0);
 
   for (let it = 0; it < MAX_ITER; it++) {
     let rmax = 0;
     let exact = true;
     for (let k = 0; k < n; k++) {
       const d = devices[k];
+      // The bias goes to the lookups in an array: a number argument would be boxed (the CLI runs without inlining).
+      const b = w.bias[k];
+      b[0] = gates[k] - x[k];
+      b[1] = x[k + 1] - x[k];
+      b[2] = x[k];
       // A slice with exact slopes gives current and slopes from one lookup; others get differences below.
-      const ok = d.slice.jdSlopes ? currentAndSlopes(d, gates[k] - x[k], x[k + 1] - x[k], x[k], w, k) : ((exact = false), current(d, gates[k] - x[k], x[k + 1] - x[k], x[k], w, k));
+      const ok = d.slice.jdSlopes ? currentAndSlopes(d, w, k) : ((exact = false), current(d, w, k));
       if (!ok) return NaN;
-      r[k] = w.id[k] - i;
+      const id = w.id[k];
+      // Tests that run on every pass, then a plain assignment: code only run without a start current would deopt the
+      // compiled loop the first time it runs.
+      if (k === 0 && it === 0 && estimate) i = id;
+      r[k] = id - i;
       rmax = Math.max(rmax, Math.abs(r[k]));
     }
     if (rmax <= 1e-10 * Math.abs(i) + 1e-24) return finish(devices, gates, w, exact) ? i : NaN;
@@ -45,10 +53,15 @@ export function newtonSolve(devices: readonly StackDevice[], gates: readonly num
     if (!exact) for (let k = 0; k < n; k++) if (!devices[k].slice.jdSlopes) slopes(devices[k], w, k);
     if (!chainStep(w, r, dx)) return NaN;
     // dx[0..n−2] are node steps, dx[n−1] the current step.
-    let scale = 1;
-    for (let k = 0; k < n - 1; k++) scale = Math.min(scale, MAX_STEP / Math.max(Math.abs(dx[k]), 1e-300));
+    let big = 0;
+    for (let k = 0; k < n - 1; k++) big = Math.max(big, Math.abs(dx[k]));
+    // The largest node step at most MAX_STEP; a quotient even when it is 1, so that `scale` is never a small integer
+    // before optimisation (its comparison below would then be compiled for integers and deopt on the first fraction).
+    let scale = MAX_STEP / Math.max(big, MAX_STEP);
     const di = dx[n - 1] * scale;
-    if (i + di < 0.2 * i) scale *= (0.8 * i) / Math.max(-di, 1e-300);
+    // The current keeps a fifth of itself; the limited scale is worked out on every step, as the spread above.
+    const keep = scale * ((0.8 * i) / Math.max(-di, 1e-300));
+    if (i + di < 0.2 * i) scale = keep;
     if (!(scale > 0) || !Number.isFinite(scale)) return NaN;
     for (let k = 1; k < n; k++) x[k] = Math.min(Math.max(x[k] + scale * dx[k - 1], x[k - 1]), v);
     i = Math.max(i + scale * dx[n - 1], 0);
@@ -66,9 +79,8 @@ const H = 1e-5;
  * the latest pass, the residuals and the step. Typed arrays: a pass stores numbers without boxing them.
  */
 interface Pass {
-  vgs: Float64Array;
-  vds: Float64Array;
-  vsb: Float64Array;
+  /** Each device's [VGS, VDS, VSB], the form the slice lookups take. */
+  bias: Float64Array[];
   id: Float64Array;
   gm: Float64Array;
   gds: Float64Array;
@@ -79,26 +91,20 @@ interface Pass {
   x: Float64Array;
 }
 
-/** Current at a bias into device k of the pass (with the bias), false outside the table. */
-function current(d: StackDevice, vgs: number, vds: number, vsb: number, p: Pass, k: number): boolean {
-  if (!covers(d.slice, vgs, vds, vsb)) return false;
-  p.vgs[k] = vgs;
-  p.vds[k] = vds;
-  p.vsb[k] = vsb;
-  p.id[k] = d.w * d.slice.jd(vgs, vds, vsb);
+/** Current at device k's bias in the pass into the pass, false outside the table. */
+function current(d: StackDevice, p: Pass, k: number): boolean {
+  const b = p.bias[k];
+  if (!covers(d.slice, b[0], b[1], b[2])) return false;
+  p.id[k] = d.w * d.slice.jd(b[0], b[1], b[2]);
   return true;
 }
 
 const js = new Float64Array(4);
 
-/** Current and its exact slopes (the interpolant's derivatives, gmb as −∂I/∂VSB) into device k of the pass; false outside the table. */
-function currentAndSlopes(d: StackDevice, vgs: number, vds: number, vsb: number, p: Pass, k: number): boolean {
-  if (!covers(d.slice, vgs, vds, vsb)) return false;
-  d.slice.jdSlopes!(vgs, vds, vsb, js);
+/** Current and its exact slopes (the interpolant's derivatives, gmb as −∂I/∂VSB) at device k's bias in the pass into the pass; false outside the table. */
+function currentAndSlopes(d: StackDevice, p: Pass, k: number): boolean {
+  if (!d.slice.jdSlopes!(p.bias[k], js)) return false;
   const w = d.w;
-  p.vgs[k] = vgs;
-  p.vds[k] = vds;
-  p.vsb[k] = vsb;
   p.id[k] = w * js[0];
   p.gm[k] = w * js[1];
   p.gds[k] = w * js[2];
@@ -109,9 +115,10 @@ function currentAndSlopes(d: StackDevice, vgs: number, vds: number, vsb: number,
 /** Slopes of the current along VGS, VDS and VSB from jd alone at device k's bias in the pass (gmb as −∂I/∂VSB). */
 function slopes(d: StackDevice, p: Pass, k: number): void {
   const s = d.slice;
-  const vgs = p.vgs[k];
-  const vds = p.vds[k];
-  const vsb = p.vsb[k];
+  const b = p.bias[k];
+  const vgs = b[0];
+  const vds = b[1];
+  const vsb = b[2];
   const id = p.id[k];
   const r = s.range;
   // Forward steps, backward at the table's upper edge.
@@ -123,8 +130,12 @@ function slopes(d: StackDevice, p: Pass, k: number): void {
   p.gmb[k] = -(d.w * s.jd(vgs, vds, vsb + hs) - id) / hs;
 }
 
-// Working arrays by chain length, reused across solves (the solver calls nothing that solves again).
+// Working arrays by chain length, reused across solves (the solver calls nothing that solves again). Made up front for
+// the chains of stacks and stage sides: a pass first made once the solver was compiled deopted every function that
+// reads one (a cold CLI run solves a triple's three devices only after the two of a cascode).
+const PREMADE = 4;
 const scratch: Pass[] = [];
+for (let n = 0; n <= PREMADE; n++) scratch.push(newPass(n));
 function scratchFor(n: number): Pass {
   return scratch[n] ?? (scratch[n] = newPass(n));
 }
@@ -132,7 +143,17 @@ function scratchFor(n: number): Pass {
 // Apart from scratchFor: a closure over n there would cost a context object on every call.
 function newPass(n: number): Pass {
   const f = () => new Float64Array(n);
-  return { vgs: f(), vds: f(), vsb: f(), id: f(), gm: f(), gds: f(), gmb: f(), r: f(), dx: f(), x: new Float64Array(n + 1) };
+  const bias: Float64Array[] = [];
+  for (let k = 0; k < n; k++) bias.push(new Float64Array(3));
+  return { bias, id: f(), gm: f(), gds: f(), gmb: f(), r: f(), dx: f(), x: new Float64Array(n + 1) };
+}
+
+/**
+ * Where the next solve of a chain of n devices starts: its caller writes the first nodes x_0.. here, then solves
+ * (newtonSolve reads them before anything else; the array is the solver's own, so the start is never boxed).
+ */
+export function newtonStart(n: number): Float64Array {
+  return scratchFor(n).x;
 }
 
 /**
@@ -144,8 +165,9 @@ function finish(devices: readonly StackDevice[], gates: readonly number[], p: Pa
   const x = p.x;
   for (let k = 0; k < devices.length; k++) {
     const d = devices[k];
+    const b = p.bias[k];
     if (exact && d.slice.conductances) {
-      d.slice.conductances(p.vgs[k], p.vds[k], p.vsb[k], js);
+      d.slice.conductances(b, js);
       p.gm[k] = js[0] * d.w;
       p.gds[k] = js[1] * d.w;
       p.gmb[k] = js[2] * d.w;
@@ -155,9 +177,9 @@ function finish(devices: readonly StackDevice[], gates: readonly number[], p: Pa
       const vsb = x[k];
       if (!covers(d.slice, vgs, vds, vsb)) return false;
       const s = d.slice.small(vgs, vds, vsb, js);
-      p.vgs[k] = vgs;
-      p.vds[k] = vds;
-      p.vsb[k] = vsb;
+      b[0] = vgs;
+      b[1] = vds;
+      b[2] = vsb;
       p.id[k] = s[0] * d.w;
       p.gm[k] = s[1] * d.w;
       p.gds[k] = s[2] * d.w;
@@ -167,8 +189,8 @@ function finish(devices: readonly StackDevice[], gates: readonly number[], p: Pa
   return true;
 }
 
-/** The solution newtonSolve left for chain length n: nodes in `x`, each device's values in vgs..gmb. */
-export type Solution = Readonly<Pick<Pass, 'x' | 'vgs' | 'vds' | 'vsb' | 'id' | 'gm' | 'gds' | 'gmb'>>;
+/** The solution newtonSolve left for chain length n: nodes in `x`, each device's values in bias..gmb. */
+export type Solution = Readonly<Pick<Pass, 'x' | 'bias' | 'id' | 'gm' | 'gds' | 'gmb'>>;
 
 export function solutionOf(n: number): Solution {
   return scratchFor(n);

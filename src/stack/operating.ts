@@ -1,6 +1,7 @@
 import { StackwrightError } from '../errors.js';
 import type { OpGuess, StackDevice, StackOp } from './types.js';
 import { packedOperatingPoint } from './packed-op.js';
+import { newtonStart } from './newton.js';
 import { emptyBias, evalDevice } from './evaluate-device.js';
 import { outsideSlice } from './range.js';
 import { formatEng } from '../units/index.js';
@@ -20,8 +21,11 @@ export function solveOperatingPoint(devices: readonly StackDevice[], gates: read
   if (!(v >= 0) || !Number.isFinite(v)) throw new StackwrightError(`stack voltage must be ≥ 0 V, got ${Number.isFinite(v) ? formatEng(v, 'V', 4) : 'a value that is not a finite number'}`, { kind: 'input' });
   if (devices.length === 1) return singleDevice(devices[0], gates[0], v);
   // Newton, else the bracketed solve; the answer packed (its device values are read where they are kept).
-  if (!guess) return packedOperatingPoint(devices, gates, v, 0, [], 0);
-  return packedOperatingPoint(devices, gates, v, guess.i, guess.nodes, guess.nodes.length);
+  // One call for both (a call site first reached after optimisation deopts).
+  const start = newtonStart(devices.length);
+  const count = guess ? Math.min(guess.nodes.length, start.length) : 0;
+  for (let k = 0; k < count; k++) start[k] = guess!.nodes[k];
+  return packedOperatingPoint(devices, gates, v, guess ? guess.i : 0, count);
 }
 
 // One device: no unknown node, the table gives the current directly.

@@ -89,13 +89,14 @@ export const gdsAt = (n: number, k: number): number => n + 3 + 5 * n + k;
 export const gmbAt = (n: number, k: number): number => n + 3 + 6 * n + k;
 
 /**
- * The DC solve of a chain of two or more devices from a start (current `i0`, nodes[0..count), the rest spread
- * evenly): Newton into the solver's working arrays, packed when it converges, else the bracketed solve.
- * Throws kind 'range' when the table cannot cover v (as solveOperatingPoint, which checks the input first).
+ * The DC solve of a chain of two or more devices from a start (current `i0`, the first `count` nodes written into
+ * newtonStart(n), the rest spread evenly): Newton into the solver's working arrays, packed when it converges, else
+ * the bracketed solve. Throws kind 'range' when the table cannot cover v (as solveOperatingPoint, which checks the
+ * input first).
  */
-export function packedOperatingPoint(devices: readonly StackDevice[], gates: readonly number[], v: number, i0: number, nodes: ArrayLike<number>, count: number): StackOp {
+export function packedOperatingPoint(devices: readonly StackDevice[], gates: readonly number[], v: number, i0: number, count: number): StackOp {
   const n = devices.length;
-  const i = newtonSolve(devices, gates, v, i0, nodes, count);
+  const i = newtonSolve(devices, gates, v, i0, count);
   if (Number.isNaN(i)) return bracketedOperatingPoint(devices, gates, v);
   const s = solutionOf(n);
   const p = doubles(8 * n + 3);
@@ -103,12 +104,13 @@ export function packedOperatingPoint(devices: readonly StackDevice[], gates: rea
   p[1] = i;
   for (let k = 0; k <= n; k++) p[2 + k] = s.x[k];
   let o = n + 3;
-  for (let k = 0; k < n; k++) p[o + k] = s.vgs[k];
-  o += n;
-  for (let k = 0; k < n; k++) p[o + k] = s.vds[k];
-  o += n;
-  for (let k = 0; k < n; k++) p[o + k] = s.vsb[k];
-  o += n;
+  for (let k = 0; k < n; k++) {
+    const b = s.bias[k];
+    p[o + k] = b[0];
+    p[o + n + k] = b[1];
+    p[o + 2 * n + k] = b[2];
+  }
+  o += 3 * n;
   for (let k = 0; k < n; k++) p[o + k] = s.id[k];
   o += n;
   for (let k = 0; k < n; k++) p[o + k] = s.gm[k];
