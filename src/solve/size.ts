@@ -128,7 +128,7 @@ function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool:
   const seeds = seedsOf(ctx, first, pool);
   // More climbs from the best design biased the ways the screen cannot rate (the topology's otherBias), each one
   // that starts within the climb's reach of the nominal targets.
-  for (const other of topologyOf(topology).otherBias?.(first.cand, ctx.vmid, ctx.gmids[0]) ?? []) {
+  for (const other of topologyOf(topology).otherBias(first.cand, ctx.vmid, ctx.gmids[0])) {
     const biased = evaluateOnce(ctx, other, seen);
     if (!biased) continue;
     pool.push(biased);

@@ -1,4 +1,4 @@
-import type { StageOption, TopologyDescriptor } from './types.js';
+import { noOtherBias, type StageOption, type TopologyDescriptor } from './types.js';
 import { bounds } from './bounds.js';
 import { runsOf } from './runs.js';
 
@@ -12,6 +12,7 @@ export const cascodeStacked: TopologyDescriptor = {
   // VGS + Vov (common practice).
   ruleOfThumbHeadroom: (vov, vgs) => vgs[0] + vov[1],
   refineVoltageStep: 0.0125,
+  otherBias: noOtherBias,
   screen(t) {
     // The bottom diode sets x1 = VGS1; group bottoms by x1 (25 mV) so top options (and their sweeps) are shared.
     const groups = new Map<number, StageOption[]>();

@@ -1,4 +1,4 @@
-import type { TopologyDescriptor } from './types.js';
+import { noOtherBias, type TopologyDescriptor } from './types.js';
 import { bounds } from './bounds.js';
 import { runsOf } from './runs.js';
 
@@ -12,6 +12,7 @@ export const cascode: TopologyDescriptor = {
   // 2·Vov (common practice).
   ruleOfThumbHeadroom: (vov) => vov[0] + vov[1],
   refineVoltageStep: 0.0125,
+  otherBias: noOtherBias,
   screen(t) {
     for (const s1 of t.setpointGrid(0.025)) {
       const bottom = t.prune(t.options({ mode: s1, vsb: 0, lower: true }), t.crit.bottom);

@@ -1,4 +1,4 @@
-import type { TopologyDescriptor } from './types.js';
+import { noOtherBias, type TopologyDescriptor } from './types.js';
 
 /** One device: the plain current source/sink. */
 export const single: TopologyDescriptor = {
@@ -10,6 +10,7 @@ export const single: TopologyDescriptor = {
   // Headroom is the device's Vov (common practice).
   ruleOfThumbHeadroom: (vov) => vov[0],
   refineVoltageStep: 0.0125,
+  otherBias: noOtherBias,
   screen(t) {
     const options = t.options({ mode: t.vmid, vsb: 0, smallAt: t.topVds(0) });
     for (let j = 0; j < options.length; j++) {

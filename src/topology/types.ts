@@ -101,8 +101,14 @@ export interface TopologyDescriptor extends StackShape {
   /** Enumerate the screen's combinations. */
   screen(t: ScreenTools): void;
   /**
-   * The same devices biased another way that the screen's estimates cannot rate (more starts for the climb), or none.
-   * `vmid`: mid-span stack voltage, V; `gmidLow`: the lowest gm/ID allowed, 1/V.
+   * The same devices biased another way that the screen's estimates cannot rate (more starts for the climb), or none
+   * (noOtherBias). Every descriptor has it, so all descriptors share one object shape and code reading them stays
+   * monomorphic. `vmid`: mid-span stack voltage, V; `gmidLow`: the lowest gm/ID allowed, 1/V.
    */
-  otherBias?(c: Candidate, vmid: number, gmidLow: number): Candidate[];
+  otherBias(c: Candidate, vmid: number, gmidLow: number): Candidate[];
+}
+
+/** otherBias of a topology with no other bias. */
+export function noOtherBias(): Candidate[] {
+  return [];
 }

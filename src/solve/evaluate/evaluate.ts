@@ -60,8 +60,10 @@ export function sigmaFor(coeff: MismatchCoefficients | undefined, ev: StackEval)
 /** A candidate sized on the nominal corner (the table's answer, null when it cannot realise it). */
 function sizeOf(ctx: SolveContext, cand: Candidate): { slices: LengthSlice[]; sized: SizedStack | null } {
   const slices = cand.l.map((l) => ctx.slice(ctx.nominal, l));
+  // wmin 0 checks nothing (startOf judges the minimum width itself), but gives the design the shape the stage
+  // sides' designs have, so sizeStackDevices sees one shape and is not deoptimised when the stage starts.
   const sized = sizeStackDevices({
-    shape: topologyOf(cand.topology), slices, gmid: cand.gmid, setpoints: cand.setpoints, current: ctx.spec.current, vmid: ctx.vmid,
+    shape: topologyOf(cand.topology), slices, gmid: cand.gmid, setpoints: cand.setpoints, current: ctx.spec.current, vmid: ctx.vmid, wmin: 0,
   });
   return { slices, sized };
 }
