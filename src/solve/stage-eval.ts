@@ -2,7 +2,7 @@ import { StackwrightError } from '../errors.js';
 import { topologyOf } from '../topology/index.js';
 import type { StageSpec } from '../design/types.js';
 import {
-  biasDevices, biasGates, gainOverSwing, heldGain, sampleOf, stagePoint, traceStage,
+  biasDevices, biasGates, gainOverSwing, heldGain, holdingRun, sampleOf, stagePoint, traceStage,
   type BiasDevice, type StackDevice, type StageCircuit, type StagePoint, type StageTrace,
 } from '../stack/index.js';
 import type { Side, SideDesign } from './stage-side.js';
@@ -84,11 +84,8 @@ export function stageAt(sides: StageSides, corner: string, circuit: StageCircuit
   // solved on the circuit.
   const gainAtSwing = solveHeld ? heldGain(circuit, trace, stage.swing) : gainOverSwing(trace.vs, trace.gains, trace.j0, stage.swing);
   if (search) {
-    const { gains, j0 } = trace;
-    let lo = j0;
-    while (lo > 0 && gains[lo - 1] >= stage.gain) lo--;
-    let hi = j0;
-    while (hi < gains.length - 1 && gains[hi + 1] >= stage.gain) hi++;
+    const { j0 } = trace;
+    const { lo, hi } = holdingRun(trace.gains, j0, stage.gain);
     for (let j = 0; j < trace.samples.length; j++) if (j !== j0 && j !== lo && j !== hi) trace.samples[j] = null;
   }
   return {

@@ -18,16 +18,25 @@ export function crossing(v0: number, g0: number, v1: number, g1: number, target:
 }
 
 /**
+ * The grid samples next to the design point (sample `j0`) that hold the gain target: from `lo` to `hi`, the
+ * neighbours of j0 outwards while gain ≥ target (j0 itself is not tested).
+ */
+export function holdingRun(gains: ArrayLike<number>, j0: number, target: number): { lo: number; hi: number } {
+  let lo = j0;
+  while (lo > 0 && gains[lo - 1] >= target) lo--;
+  let hi = j0;
+  while (hi < gains.length - 1 && gains[hi + 1] >= target) hi++;
+  return { lo, hi };
+}
+
+/**
  * Widest interval [vlow, vhigh] containing the design point (sample `j0`) on
  * which gain ≥ target, crossings by linear interpolation; null when the gain
  * at the design point is below target.
  */
 export function swingOnGrid(vs: ArrayLike<number>, gains: ArrayLike<number>, j0: number, target: number): { vlow: number; vhigh: number } | null {
   if (!(gains[j0] >= target)) return null;
-  let a = j0;
-  while (a > 0 && gains[a - 1] >= target) a--;
-  let b = j0;
-  while (b < vs.length - 1 && gains[b + 1] >= target) b++;
+  const { lo: a, hi: b } = holdingRun(gains, j0, target);
   const vlow = a > 0 ? crossing(vs[a], gains[a], vs[a - 1], gains[a - 1], target) : vs[a];
   const vhigh = b < vs.length - 1 ? crossing(vs[b], gains[b], vs[b + 1], gains[b + 1], target) : vs[b];
   return { vlow, vhigh };

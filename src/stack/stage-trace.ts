@@ -1,7 +1,7 @@
 import type { StackOp } from './types.js';
 import { sampleOf, stagePoint, stageSample, type StageCircuit, type StagePoint, type StageSample } from './stage-point.js';
 import { swingEdge } from './stage-edge.js';
-import { indexOf, outputGrid, swingOnGrid } from './stage-swing.js';
+import { holdingRun, indexOf, outputGrid } from './stage-swing.js';
 
 /** A stage's transfer curve on an output grid through the design point, with its swing. */
 export interface StageTrace {
@@ -57,15 +57,12 @@ export function traceStage(c: StageCircuit, output: number, target: number, opts
   g = mid;
   near = samples[j0];
   for (let j = j0 - 1; j >= 0; j--) g = at(j, g);
-  const grid = swingOnGrid(vs, gains, j0, target);
-  if (!grid) return { vs, gains, points, samples, j0, vlow: null, vhigh: null, swing: 0 };
+  // No swing where the design point misses the target (as swingOnGrid).
+  if (!(gains[j0] >= target)) return { vs, gains, points, samples, j0, vlow: null, vhigh: null, swing: 0 };
   const res = opts.resolution ?? 5e-4;
   const solve = (v: number, near: StageSample | null): StageSample | null => stageSample(c, v, near?.load, near ?? undefined);
   const edge = (inside: number, outside: number): number => swingEdge(solve, vs[inside], vs[outside], gains[inside], gains[outside], target, res, samples[inside]);
-  let lo = j0;
-  while (lo > 0 && gains[lo - 1] >= target) lo--;
-  let hi = j0;
-  while (hi < vs.length - 1 && gains[hi + 1] >= target) hi++;
+  const { lo, hi } = holdingRun(gains, j0, target);
   const vlow = lo > 0 ? edge(lo, lo - 1) : vs[lo];
   const vhigh = hi < vs.length - 1 ? edge(hi, hi + 1) : vs[hi];
   // The edges lie on a sub-mV bisection of decimal grid voltages: their difference is cleared of binary rounding
