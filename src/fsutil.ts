@@ -165,5 +165,20 @@ function makeFolders(dir: string): void {
     if (!statSync(at).isDirectory()) mkdirSync(at); // throws EEXIST: a file is in the way
     return;
   }
-  for (const d of missing.reverse()) mkdirSync(d);
+  for (const d of missing.reverse()) {
+    try {
+      mkdirSync(d);
+    } catch (e) {
+      // Another process may have made the same folder since the stat above: that is not "in the way".
+      if ((e as NodeJS.ErrnoException).code !== 'EEXIST' || !isFolder(d)) throw e;
+    }
+  }
+}
+
+function isFolder(path: string): boolean {
+  try {
+    return statSync(path).isDirectory();
+  } catch {
+    return false;
+  }
 }
