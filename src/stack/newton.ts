@@ -8,7 +8,7 @@ const MAX_STEP = 0.1;
 /**
  * Newton on KCL of the series chain: unknowns x_1..x_{N−1} and I, residuals
  * r_k = W_k·jd_k(g_k − x_{k−1}, x_k − x_{k−1}, x_{k−1}) − I. Returns the current, NaN when it leaves the table or
- * does not converge (the caller falls back); the nodes and each device's bias and small-signal values are left in
+ * does not converge (the caller falls back); the nodes and each device's current and small-signal values are left in
  * the solution of the chain length (solutionOf), valid until the next solve, so nothing is built here. The start
  * is the first `count` nodes written into newtonStart(n) (missing ones spread evenly). Allocates nothing once warm.
  */
@@ -48,7 +48,7 @@ export function newtonSolve(devices: readonly StackDevice[], gates: readonly num
       r[k] = id - i;
       rmax = Math.max(rmax, Math.abs(r[k]));
     }
-    if (rmax <= 1e-10 * Math.abs(i) + 1e-24) return finish(devices, gates, w, exact) ? i : NaN;
+    if (rmax <= 1e-10 * Math.abs(i) + 1e-24) return finish(devices, w, exact) ? i : NaN;
     // Differences only when another step is needed: the converged pass costs one lookup per device.
     if (!exact) for (let k = 0; k < n; k++) if (!devices[k].slice.jdSlopes) slopes(devices[k], w, k);
     if (!chainStep(w, r, dx)) return NaN;
@@ -157,12 +157,12 @@ export function newtonStart(n: number): Float64Array {
 }
 
 /**
- * The reported operating point, in the pass: table small-signal values at the solved bias. When the converged
- * pass had exact slopes (`exact`), its currents are the table's at this very bias (jdSlopes gives jd
- * bit-identical to small), so only the conductances are read; otherwise small() gives them all.
+ * The reported operating point, in the pass: table small-signal values at the solved bias (the converged pass's,
+ * worked out from the nodes now held). When that pass had exact slopes (`exact`), its currents are the table's at
+ * this very bias (jdSlopes gives jd bit-identical to small), so only the conductances are read; otherwise small()
+ * gives them all.
  */
-function finish(devices: readonly StackDevice[], gates: readonly number[], p: Pass, exact: boolean): boolean {
-  const x = p.x;
+function finish(devices: readonly StackDevice[], p: Pass, exact: boolean): boolean {
   for (let k = 0; k < devices.length; k++) {
     const d = devices[k];
     const b = p.bias[k];
@@ -172,14 +172,8 @@ function finish(devices: readonly StackDevice[], gates: readonly number[], p: Pa
       p.gds[k] = js[1] * d.w;
       p.gmb[k] = js[2] * d.w;
     } else {
-      const vgs = gates[k] - x[k];
-      const vds = x[k + 1] - x[k];
-      const vsb = x[k];
-      if (!covers(d.slice, vgs, vds, vsb)) return false;
-      const s = d.slice.small(vgs, vds, vsb, js);
-      b[0] = vgs;
-      b[1] = vds;
-      b[2] = vsb;
+      if (!covers(d.slice, b[0], b[1], b[2])) return false;
+      const s = d.slice.small(b[0], b[1], b[2], js);
       p.id[k] = s[0] * d.w;
       p.gm[k] = s[1] * d.w;
       p.gds[k] = s[2] * d.w;
@@ -189,8 +183,8 @@ function finish(devices: readonly StackDevice[], gates: readonly number[], p: Pa
   return true;
 }
 
-/** The solution newtonSolve left for chain length n: nodes in `x`, each device's values in bias..gmb. */
-export type Solution = Readonly<Pick<Pass, 'x' | 'bias' | 'id' | 'gm' | 'gds' | 'gmb'>>;
+/** The solution newtonSolve left for chain length n: nodes in `x`, each device's values in id..gmb. */
+export type Solution = Readonly<Pick<Pass, 'x' | 'id' | 'gm' | 'gds' | 'gmb'>>;
 
 export function solutionOf(n: number): Solution {
   return scratchFor(n);

@@ -5,9 +5,10 @@ import { doubles } from './doubles.js';
 
 /**
  * A solved operating point kept in one array of unboxed numbers: v, I, the nodes x_0..x_N, then each device's
- * VGS, VDS, VSB, ID, gm, gds and gmb (one block of N per quantity). Most DC solves only serve as the start of the
- * next one, so `nodes` and `devices` are built on first read, and a device's values are read from the array: a
- * point costs one array of numbers instead of an object with a boxed number per value.
+ * gate, ID, gm, gds and gmb (one block of N per quantity). Most DC solves only serve as the start of the next one,
+ * so `nodes` and `devices` are built on first read, and a device's values are read from the array: a point costs
+ * one array of numbers instead of an object with a boxed number per value. A device's VGS, VDS and VSB are not
+ * stored: the solve's lookups took them as gate − x_k, x_{k+1} − x_k and x_k, which give the same numbers again.
  */
 export class PackedOp implements StackOp {
   private nodesCache: number[] | undefined = undefined;
@@ -36,7 +37,7 @@ export class PackedOp implements StackOp {
   get devices(): DeviceBias[] {
     if (this.devicesCache === undefined) {
       const out: DeviceBias[] = new Array(this.n);
-      for (let k = 0; k < this.n; k++) out[k] = new PackedBias(this.p, this.n + 3 + k, this.n);
+      for (let k = 0; k < this.n; k++) out[k] = new PackedBias(this.p, k, this.n);
       this.devicesCache = out;
     }
     return this.devicesCache;
@@ -47,46 +48,48 @@ export class PackedOp implements StackOp {
 class PackedBias implements DeviceBias {
   constructor(
     private readonly p: readonly number[],
-    /** Index of the device's VGS; each further quantity is `n` on. */
-    private readonly o: number,
+    /** The device's index. */
+    private readonly k: number,
     private readonly n: number,
   ) {}
 
   get vgs(): number {
-    return this.p[this.o];
+    return this.p[gateAt(this.n, this.k)] - this.p[nodeAt(this.k)];
   }
 
   get vds(): number {
-    return this.p[this.o + this.n];
+    return this.p[nodeAt(this.k + 1)] - this.p[nodeAt(this.k)];
   }
 
   get vsb(): number {
-    return this.p[this.o + 2 * this.n];
+    return this.p[nodeAt(this.k)];
   }
 
   get id(): number {
-    return this.p[this.o + 3 * this.n];
+    return this.p[idAt(this.n, this.k)];
   }
 
   get gm(): number {
-    return this.p[this.o + 4 * this.n];
+    return this.p[gmAt(this.n, this.k)];
   }
 
   get gds(): number {
-    return this.p[this.o + 5 * this.n];
+    return this.p[gdsAt(this.n, this.k)];
   }
 
   get gmb(): number {
-    return this.p[this.o + 6 * this.n];
+    return this.p[gmbAt(this.n, this.k)];
   }
 }
 
 /** Index of node k in a PackedOp's array. */
 export const nodeAt = (k: number): number => 2 + k;
-/** Indices of gm, gds and gmb of device k in a PackedOp's array of n devices. */
-export const gmAt = (n: number, k: number): number => n + 3 + 4 * n + k;
-export const gdsAt = (n: number, k: number): number => n + 3 + 5 * n + k;
-export const gmbAt = (n: number, k: number): number => n + 3 + 6 * n + k;
+/** Indices of the gate, ID, gm, gds and gmb of device k in a PackedOp's array of n devices. */
+const gateAt = (n: number, k: number): number => n + 3 + k;
+const idAt = (n: number, k: number): number => n + 3 + n + k;
+export const gmAt = (n: number, k: number): number => n + 3 + 2 * n + k;
+export const gdsAt = (n: number, k: number): number => n + 3 + 3 * n + k;
+export const gmbAt = (n: number, k: number): number => n + 3 + 4 * n + k;
 
 /**
  * The DC solve of a chain of two or more devices from a start (current `i0`, the first `count` nodes written into
@@ -99,18 +102,13 @@ export function packedOperatingPoint(devices: readonly StackDevice[], gates: rea
   const i = newtonSolve(devices, gates, v, i0, count);
   if (Number.isNaN(i)) return bracketedOperatingPoint(devices, gates, v);
   const s = solutionOf(n);
-  const p = doubles(8 * n + 3);
+  const p = doubles(6 * n + 3);
   p[0] = v;
   p[1] = i;
   for (let k = 0; k <= n; k++) p[2 + k] = s.x[k];
   let o = n + 3;
-  for (let k = 0; k < n; k++) {
-    const b = s.bias[k];
-    p[o + k] = b[0];
-    p[o + n + k] = b[1];
-    p[o + 2 * n + k] = b[2];
-  }
-  o += 3 * n;
+  for (let k = 0; k < n; k++) p[o + k] = gates[k];
+  o += n;
   for (let k = 0; k < n; k++) p[o + k] = s.id[k];
   o += n;
   for (let k = 0; k < n; k++) p[o + k] = s.gm[k];
