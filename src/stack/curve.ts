@@ -56,26 +56,33 @@ export function stackCurve(
 /** One curve sample at v, NaN where the table cannot cover it. */
 export function sampleAt(devices: readonly StackDevice[], gates: readonly number[], v: number, guess?: StackOp): CurveSample {
   try {
-    const n = devices.length;
-    // One device, or bad input: the general solve (it says what is wrong).
-    if (n < 2 || gates.length !== n || !(v >= 0) || !Number.isFinite(v)) {
-      const op = solveOperatingPoint(devices, gates, v, guess ? continued(guess, v) : undefined);
-      return { v, i: op.i, rout: routAt(op), op };
-    }
-    // The start is written where the solver reads it (continueInto), and nothing but the packed answer is built.
-    let i0 = 0;
-    let count = 0;
-    if (guess) {
-      const start = newtonStart(n);
-      count = Math.min(guess instanceof PackedOp ? guess.n + 1 : guess.nodes.length, start.length);
-      i0 = continueInto(guess, v, start);
-    }
-    const op = packedOperatingPoint(devices, gates, v, i0, count);
-    return { v, i: op.i, rout: op instanceof PackedOp ? packedRout(op) : routAt(op), op };
+    const op = solveNear(devices, gates, v, guess);
+    // A packed point's current read from its array: the getter's call would box it (the CLI runs without inlining).
+    if (op instanceof PackedOp) return { v, i: op.p[1], rout: packedRout(op), op };
+    return { v, i: op.i, rout: routAt(op), op };
   } catch (e) {
     if (e instanceof StackwrightError && e.kind === 'range') return { v, i: NaN, rout: NaN, op: null };
     throw e;
   }
+}
+
+/**
+ * The operating point at v, solved from a point nearby (see continued) when there is one, as solveOperatingPoint
+ * (which throws kind 'range' where the table cannot cover it).
+ */
+export function solveNear(devices: readonly StackDevice[], gates: readonly number[], v: number, guess?: StackOp): StackOp {
+  const n = devices.length;
+  // One device, or bad input: the general solve (it says what is wrong).
+  if (n < 2 || gates.length !== n || !(v >= 0) || !Number.isFinite(v)) return solveOperatingPoint(devices, gates, v, guess ? continued(guess, v) : undefined);
+  // The start is written where the solver reads it (continueInto), and nothing but the packed answer is built.
+  let i0 = 0;
+  let count = 0;
+  if (guess) {
+    const start = newtonStart(n);
+    count = Math.min(guess instanceof PackedOp ? guess.n + 1 : guess.nodes.length, start.length);
+    i0 = continueInto(guess, v, start);
+  }
+  return packedOperatingPoint(devices, gates, v, i0, count);
 }
 
 // Within this distance of a solved point the tangent predicts the next one (Newton then needs fewer steps).
@@ -87,7 +94,7 @@ const TANGENT_SPAN = 0.25;
  * recurrence gives for a 1 A test current. Farther, or without small-signal values: internal nodes barely move
  * in saturation, so keep them, shrinking the share above each node with v.
  */
-export function continued(op: StackOp, v: number): { i: number; nodes: number[] } {
+function continued(op: StackOp, v: number): { i: number; nodes: number[] } {
   const count = op instanceof PackedOp ? op.n + 1 : op.nodes.length;
   const out = new Float64Array(count);
   const i = continueInto(op, v, out);
@@ -127,31 +134,37 @@ function continueInto(op: StackOp, v: number, out: Float64Array): number {
   return op.i;
 }
 
-// The same, reading the packed values.
+// The same, reading the packed values (v and I from the array: a getter's call would box them).
 function continuePacked(op: PackedOp, v: number, out: Float64Array): number {
   const { n, p } = op;
-  const dv = v - op.v;
+  const v0 = p[0];
+  const i0 = p[1];
+  const x0 = nodeAt(0);
+  const dv = v - v0;
   if (n > 0 && Math.abs(dv) <= TANGENT_SPAN) {
     out[0] = 0;
     out[n] = v;
+    const gm = gmAt(n);
+    const gds = gdsAt(n);
+    const gmb = gmbAt(n);
     let z = 0;
     let ok = true;
     for (let k = 0; k < n; k++) {
-      const gds = p[gdsAt(n, k)];
-      if (!(gds > 0)) {
+      const g = p[gds + k];
+      if (!(g > 0)) {
         ok = false;
         break;
       }
-      z += (1 + (p[gmAt(n, k)] + p[gmbAt(n, k)]) * z) / gds;
+      z += (1 + (p[gm + k] + p[gmb + k]) * z) / g;
       if (k < n - 1) out[k + 1] = z;
     }
     const rout = z;
     if (ok && rout > 0 && Number.isFinite(rout)) {
-      for (let k = 1; k < n; k++) out[k] = Math.min(Math.max(p[nodeAt(k)] + (dv * out[k]) / rout, out[k - 1]), v);
-      return Math.max(op.i + dv / rout, 0.5 * op.i);
+      for (let k = 1; k < n; k++) out[k] = Math.min(Math.max(p[x0 + k] + (dv * out[k]) / rout, out[k - 1]), v);
+      return Math.max(i0 + dv / rout, 0.5 * i0);
     }
   }
-  const ratio = op.v > 0 ? Math.min(v / op.v, 1) : 1;
-  for (let k = 0; k <= n; k++) out[k] = Math.max(0, Math.min(p[nodeAt(k)], v - (op.v - p[nodeAt(k)]) * ratio));
-  return op.i;
+  const ratio = v0 > 0 ? Math.min(v / v0, 1) : 1;
+  for (let k = 0; k <= n; k++) out[k] = Math.max(0, Math.min(p[x0 + k], v - (v0 - p[x0 + k]) * ratio));
+  return i0;
 }

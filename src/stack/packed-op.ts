@@ -54,7 +54,7 @@ class PackedBias implements DeviceBias {
   ) {}
 
   get vgs(): number {
-    return this.p[gateAt(this.n, this.k)] - this.p[nodeAt(this.k)];
+    return this.p[gateAt(this.n) + this.k] - this.p[nodeAt(this.k)];
   }
 
   get vds(): number {
@@ -66,30 +66,33 @@ class PackedBias implements DeviceBias {
   }
 
   get id(): number {
-    return this.p[idAt(this.n, this.k)];
+    return this.p[idAt(this.n) + this.k];
   }
 
   get gm(): number {
-    return this.p[gmAt(this.n, this.k)];
+    return this.p[gmAt(this.n) + this.k];
   }
 
   get gds(): number {
-    return this.p[gdsAt(this.n, this.k)];
+    return this.p[gdsAt(this.n) + this.k];
   }
 
   get gmb(): number {
-    return this.p[gmbAt(this.n, this.k)];
+    return this.p[gmbAt(this.n) + this.k];
   }
 }
 
 /** Index of node k in a PackedOp's array. */
 export const nodeAt = (k: number): number => 2 + k;
-/** Indices of the gate, ID, gm, gds and gmb of device k in a PackedOp's array of n devices. */
-const gateAt = (n: number, k: number): number => n + 3 + k;
-const idAt = (n: number, k: number): number => n + 3 + n + k;
-export const gmAt = (n: number, k: number): number => n + 3 + 2 * n + k;
-export const gdsAt = (n: number, k: number): number => n + 3 + 3 * n + k;
-export const gmbAt = (n: number, k: number): number => n + 3 + 4 * n + k;
+/**
+ * Indices of the gate, ID, gm, gds and gmb of device 0 in a PackedOp's array of n devices (device k's are k on).
+ * Hot loops take the offset once: a call per index costs a call each (the CLI runs without inlining).
+ */
+const gateAt = (n: number): number => n + 3;
+const idAt = (n: number): number => 2 * n + 3;
+export const gmAt = (n: number): number => 3 * n + 3;
+export const gdsAt = (n: number): number => 4 * n + 3;
+export const gmbAt = (n: number): number => 5 * n + 3;
 
 /**
  * The DC solve of a chain of two or more devices from a start (current `i0`, the first `count` nodes written into
@@ -122,11 +125,14 @@ export function packedOperatingPoint(devices: readonly StackDevice[], gates: rea
 /** routOf over a PackedOp's devices (the same recurrence, the same order of operations). */
 export function packedRout(op: PackedOp): number {
   const { n, p } = op;
+  const gm = gmAt(n);
+  const gds = gdsAt(n);
+  const gmb = gmbAt(n);
   let vs = 0;
   for (let k = 0; k < n; k++) {
-    const gds = p[gdsAt(n, k)];
-    if (!(gds > 0)) return Infinity;
-    vs += (1 + (p[gmAt(n, k)] + p[gmbAt(n, k)]) * vs) / gds;
+    const g = p[gds + k];
+    if (!(g > 0)) return Infinity;
+    vs += (1 + (p[gm + k] + p[gmb + k]) * vs) / g;
   }
   return vs;
 }

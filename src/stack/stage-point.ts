@@ -1,9 +1,8 @@
 import { StackwrightError } from '../errors.js';
 import type { Polarity } from '../table/types.js';
 import type { DeviceBias, StackDevice, StackOp } from './types.js';
-import { solveOperatingPoint } from './operating.js';
 import { routAt } from './rout.js';
-import { continued } from './curve.js';
+import { solveNear } from './curve.js';
 import { solveInput, solved, solvedOp, type InputGuess } from './stage-input.js';
 
 /**
@@ -131,7 +130,7 @@ function loadAtOutput(c: StageCircuit, vout: number, guess?: StackOp): StackOp |
 /** The load's operating point at stack voltage vl; null where the table cannot cover it. */
 function loadAt(c: StageCircuit, vl: number, guess?: StackOp): StackOp | null {
   try {
-    return solveOperatingPoint(c.load.devices, c.load.gates, vl, guess ? continued(guess, vl) : undefined);
+    return solveNear(c.load.devices, c.load.gates, vl, guess);
   } catch (e) {
     if (e instanceof StackwrightError && e.kind === 'range') return null;
     throw e;
