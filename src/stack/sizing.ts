@@ -22,10 +22,9 @@ export interface StackDesign {
   wmin?: number;
 }
 
-/** Widths, gate voltages (stack coordinates) and design-bias nodes of a stack. */
+/** Widths, gate voltages (stack coordinates) and design-bias nodes of a stack (each VGS is its gate less its source node). */
 export interface SizedStack {
   w: number[];
-  vgs: number[];
   gates: number[];
   /** Node voltages x_0..x_N at v = vmid. */
   nodes: number[];
@@ -48,7 +47,7 @@ export function sizeStackDevices(d: StackDesign): SizedStack | null {
   // Arrays of exactly their length, stored unboxed (designs keep them).
   const nodes = doubles(n + 1);
   nodes[0] = 0;
-  const vgs = doubles(n);
+  const gates = doubles(n);
   const w = doubles(n);
   for (let k = 0; k < n; k++) {
     const xs = nodes[k];
@@ -67,12 +66,10 @@ export function sizeStackDevices(d: StackDesign): SizedStack | null {
     if (!(jd > 0)) return null;
     const width = d.current / jd;
     if (d.wmin !== undefined && width < d.wmin * (1 - 1e-9)) return null;
-    vgs[k] = g;
+    gates[k] = g + xs;
     w[k] = width;
     nodes[k + 1] = xs + vds;
   }
   if (Math.abs(nodes[n] - d.vmid) > 1e-9) return null;
-  const gates = doubles(n);
-  for (let k = 0; k < n; k++) gates[k] = vgs[k] + nodes[k];
-  return { w, vgs, gates, nodes };
+  return { w, gates, nodes };
 }
