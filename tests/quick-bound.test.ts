@@ -6,7 +6,8 @@ import { screen } from '../src/solve/search/screen.js';
 import { neighbours } from '../src/solve/search/refine.js';
 import { lookAt, routSurelyBelow, routSurelyBelowAt, scanPointAtOrAbove, shortfallSurelyAbove } from '../src/solve/search/quick.js';
 import { evaluateCandidate } from '../src/solve/evaluate/evaluate.js';
-import { candidateKey, type Candidate } from '../src/solve/search/candidate.js';
+import type { Candidate } from '../src/solve/search/candidate.js';
+import { CandidateMap } from '../src/solve/search/candidate-map.js';
 import { distanceToFeasible } from '../src/policy.js';
 import { demoKit, ensureDemoTables } from './helpers/cli.js';
 
@@ -31,10 +32,10 @@ function candidates(): Candidate[] {
   const ctx = makeContext(spec, kit, 1.8, ['tt']);
   const lifted = { ...ctx, spec: { ...ctx.spec, headroom: ctx.vmid - 0.05, objective: 'headroom' as const } };
   const seeds = [...screen(ctx, 'cascode-stacked'), ...screen(lifted, 'cascode-stacked')];
-  const out = new Map<string, Candidate>();
+  const out = new CandidateMap<Candidate>();
   for (const c of seeds) {
-    out.set(candidateKey(c), c);
-    for (const n of neighbours(ctx, c, ctx.gmidStep / 2, 0.05, false)) out.set(candidateKey(n), n);
+    out.set(out.key(c), c);
+    for (const n of neighbours(ctx, c, ctx.gmidStep / 2, 0.05, false)) out.set(out.key(n), n);
   }
   return [...out.values()];
 }

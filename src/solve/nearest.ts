@@ -4,7 +4,7 @@ import { ensureCorners, finalize, type Evaluated, type Start } from './evaluate/
 import { CLIMB_ROUNDS, defer, evaluateOnce, lookOnce, refine, settle, type Hopeless, type Seen } from './search/refine.js';
 import { routSurelyBelow, routSurelyBelowAt, scanPointAtOrAbove, type Look } from './search/quick.js';
 import { screen } from './search/screen.js';
-import { candidateKey, type Candidate } from './search/candidate.js';
+import type { Candidate } from './search/candidate.js';
 import { lineProbes } from './search/line-probes.js';
 import { widthRoomCandidates } from './search/width-room.js';
 
@@ -190,7 +190,7 @@ function liftedScreen(ctx: SolveContext, topology: Topology, pool: Evaluated[], 
   if (!(lifted > ctx.spec.headroom)) return;
   const wide: SolveContext = { ...ctx, spec: { ...ctx.spec, headroom: lifted, objective: 'headroom' } };
   for (const c of screen(wide, topology)) {
-    const k = candidateKey(c);
+    const k = seen.key(c);
     let start: Start | undefined;
     if (!seen.has(k)) {
       const l = lookOnce(ctx, seen, k, c);
@@ -242,7 +242,7 @@ function probeFurther(
 ): Evaluated {
   // A probe counts as realisable once evaluated, else by its quick look (made once per search).
   const realisable = (d: Candidate): boolean => {
-    const k = candidateKey(d);
+    const k = seen.key(d);
     const e = seen.get(k);
     return e !== undefined ? e !== null : lookOnce(ctx, seen, k, d) !== null;
   };
@@ -250,7 +250,7 @@ function probeFurther(
   const beating = (at: Evaluated): Evaluated[] => {
     const out: Evaluated[] = [];
     for (const c of lineProbes(ctx, at.cand, realisable, saturationEdges)) {
-      const k = candidateKey(c);
+      const k = seen.key(c);
       let e = seen.get(k);
       if (e === undefined) {
         const l = lookOnce(ctx, seen, k, c);

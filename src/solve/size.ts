@@ -10,6 +10,7 @@ import { makeContext, type SolveContext } from './context.js';
 import { screen } from './search/screen.js';
 import { evaluateOnce, refine, settle, type Seen } from './search/refine.js';
 import { reuseOf, type Reuse } from './search/reuse.js';
+import { CandidateMap } from './search/candidate-map.js';
 import type { Candidate } from './search/candidate.js';
 import { evaluateCandidate, finalize, fullyOk, nominalOk, type Evaluated } from './evaluate/evaluate.js';
 import { compareDesigns, pickBest, shortfall } from './search/rank.js';
@@ -107,7 +108,7 @@ function lowered(ctx: SolveContext, cands: readonly Candidate[], seen: Seen, poo
 
 /** Screen, evaluate, refine: the best design and everything evaluated, or null when nothing could be realised. */
 function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool: Evaluated[]; seen: Seen } | null {
-  const seen: Seen = new Map();
+  const seen: Seen = new CandidateMap();
   const pool: Evaluated[] = [];
   const screened = screen(ctx, topology);
   for (const c of screened) {

@@ -1,7 +1,8 @@
 import { topologyOf } from '../topology/index.js';
 import { REL_TOL } from '../policy.js';
 import { nearestSample, sampleOf, stageGain, stagePoint, type StagePoint } from '../stack/index.js';
-import { candidateKey, type Candidate } from './search/candidate.js';
+import type { Candidate } from './search/candidate.js';
+import type { CandidateMap } from './search/candidate-map.js';
 import { neighbours } from './search/refine.js';
 import { sideChecked, sideSized, type Side, type SideDesign, type SideSized } from './stage-side.js';
 import { SEARCH_STEP, TRACE_STEP, evaluateCorner, evaluatePair, pairCircuit, setFine, stageAt, type PairJudge, type StageDesign, type StageSides } from './stage-eval.js';
@@ -84,7 +85,7 @@ interface SideMove {
 }
 
 /** Side moves of one side by candidate key (null: not realisable), shared by every climb of one stage search. */
-export type SideMemo = Map<string, SideMove | null>;
+export type SideMemo = CandidateMap<SideMove | null>;
 
 /**
  * True when the pair surely misses the swing target at the nominal corner. The swing is the contiguous interval
@@ -174,12 +175,13 @@ type Hopeless = (input: SideDesign, load: SideDesign, best: StageDesign) => bool
  */
 function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: SideMemo; load: SideMemo }, judge: PairJudge = 'search') {
   const { supply } = sides;
-  const pairs = new Map<string, StageDesign | null>();
+  // Pairs by their sides' keys in `memos` (input, then load).
+  const pairs = new Map<number, Map<number, StageDesign | null>>();
   let evaluated = 0;
 
   const sideOf = (side: Side, c: Candidate): SideMove | null => {
     const memo = memos[side.kind];
-    const key = candidateKey(c);
+    const key = memo.key(c);
     let d = memo.get(key);
     if (d === undefined) {
       // sideSized refuses a device wider than the width limit; the input gate must also sit within the rails
@@ -199,13 +201,16 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
     let byLoad = known.get(input);
     let d = byLoad?.get(load);
     if (d !== undefined) return d;
-    const key = `${candidateKey(input.cand)}/${candidateKey(load.cand)}`;
-    d = pairs.get(key);
+    const ki = memos.input.key(input.cand);
+    let byLoadKey = pairs.get(ki);
+    if (!byLoadKey) pairs.set(ki, (byLoadKey = new Map()));
+    const kl = memos.load.key(load.cand);
+    d = byLoadKey.get(kl);
     if (d === undefined) {
       d = evaluatePair(sides, input, load, judge);
       evaluated++;
       if (d && judge !== 'point') pool.push(d);
-      pairs.set(key, d);
+      byLoadKey.set(kl, d);
     }
     if (!byLoad) known.set(input, (byLoad = new Map()));
     byLoad.set(load, d);

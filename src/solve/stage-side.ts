@@ -11,7 +11,8 @@ import {
 import type { KitAccess } from './kit.js';
 import { makeContext, type SolveContext } from './context.js';
 import { screen } from './search/screen.js';
-import { candidateKey, type Candidate } from './search/candidate.js';
+import type { Candidate } from './search/candidate.js';
+import { CandidateMap } from './search/candidate-map.js';
 import { midPoint } from './evaluate/stack-eval.js';
 import { saturationMargin } from './evaluate/checks.js';
 import { rangeSafe } from './evaluate/evaluate.js';
@@ -103,19 +104,19 @@ export function sideCandidates(stage: StageSpec, side: Side, topology: Topology,
   const [lo, hi] = headroomRange(side.vd, supply);
   const rout = (2 * stage.gain) / (12 * stage.current);
   const base = ctx.spec;
-  const seen = new Map<string, Candidate>();
+  const seen = new CandidateMap<Candidate>();
   try {
     for (const share of roomy ? [] : SHARES[side.kind]) {
       const h = Math.min(Math.max(share * free, lo), hi);
       ctx.spec = { ...base, rout, headroom: h, span: 2 * side.vd - h };
-      for (const c of screen(ctx, topology)) seen.set(candidateKey(c), c);
+      for (const c of screen(ctx, topology)) seen.set(seen.key(c), c);
     }
     // A wide swing target can leave a share too small for any design of the topology (a triple's lower devices
     // need their VDSsat each) although the stage still holds its gain past the load's saturation edge: then the
     // side is screened with all the headroom it may have, and the traced pairs say what the stage reaches.
     if (seen.size === 0) {
       ctx.spec = { ...base, rout, headroom: hi, span: 2 * side.vd - hi };
-      for (const c of screen(ctx, topology)) seen.set(candidateKey(c), c);
+      for (const c of screen(ctx, topology)) seen.set(seen.key(c), c);
     }
   } finally {
     ctx.spec = base;

@@ -11,6 +11,7 @@ import type { StageFrontPoint, StageResult } from './stage-types.js';
 import { paretoStages } from './stage-front.js';
 import { checkStageCover } from './table-cover.js';
 import { refineStage, type SideMemo } from './stage-refine.js';
+import { CandidateMap } from './search/candidate-map.js';
 import { fullyOkMemo, pickStage } from './stage-order.js';
 
 /** Output grid step of the pair screen, V. */
@@ -71,7 +72,7 @@ export function sizeStage(stage: StageSpec, kit: KitAccess, opts: { supply: numb
   const results: StageResult[] = [];
   const explored: StageFrontPoint[] = [];
   // Side designs the climbs build, by candidate key, shared by the load topologies' climbs.
-  const memos: { input: SideMemo; load: SideMemo } = { input: new Map(), load: new Map() };
+  const memos: { input: SideMemo; load: SideMemo } = { input: new CandidateMap(), load: new CandidateMap() };
   let evaluated = 0;
   for (const t of topologies) {
     const before = input.ctx.count.exact + load.ctx.count.exact + input.ctx.count.screened + load.ctx.count.screened;

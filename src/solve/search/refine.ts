@@ -1,6 +1,6 @@
 import { topologyOf } from '../../topology/index.js';
 import type { Candidate } from './candidate.js';
-import { candidateKey, perCoordinate } from './candidate.js';
+import { perCoordinate } from './candidate.js';
 import type { SolveContext } from '../context.js';
 import { candidateWidths, evaluateCandidate, fullyOk, nominalOk, type Evaluated, type Start } from '../evaluate/evaluate.js';
 import { REL_TOL } from '../../policy.js';
@@ -17,16 +17,16 @@ export type { Seen };
  * in both), continuing from `start` when a quick look already made it.
  */
 export function evaluateOnce(ctx: SolveContext, c: Candidate, seen: Seen, start?: Start): Evaluated | null {
-  const k = candidateKey(c);
-  if (!seen.has(k)) seen.set(k, ctx.reuse ? reusedOrEvaluated(ctx, ctx.reuse, k, c, start) : evaluateCandidate(ctx, c, start));
+  const k = seen.key(c);
+  if (!seen.has(k)) seen.set(k, ctx.reuse ? reusedOrEvaluated(ctx, ctx.reuse, c, start) : evaluateCandidate(ctx, c, start));
   return seen.get(k)!;
 }
 
-function reusedOrEvaluated(ctx: SolveContext, reuse: Reuse, k: string, c: Candidate, start?: Start): Evaluated | null {
-  const known = reuse.lookup(k);
+function reusedOrEvaluated(ctx: SolveContext, reuse: Reuse, c: Candidate, start?: Start): Evaluated | null {
+  const known = reuse.lookup(c);
   if (known !== undefined) return rejudged(ctx, known);
   const e = evaluateCandidate(ctx, c, start);
-  reuse.store(k, e);
+  reuse.store(c, e);
   return e;
 }
 
@@ -122,15 +122,15 @@ export function refine(
  */
 export type Hopeless = (look: Look, best: Evaluated) => boolean;
 
-// Per search (one `seen` map, one sizing context): areas from the sizing alone and the quick looks, by candidate
-// key (the same moves recur from round to round), and the moves a look ruled out without an exact evaluation.
+// Per search (one `seen` map, one sizing context): areas from the sizing alone and the quick looks, by the candidate's
+// key in `seen` (the same moves recur from round to round), and the moves a look ruled out without an exact evaluation.
 interface Memo {
   /** A move's sizing alone: ΣW·L (NaN when the table cannot realise it) and whether it is wider than the limit (or fails). */
-  sizes: Map<string, { area: number; wide: boolean }>;
+  sizes: Map<number, { area: number; wide: boolean }>;
   /** Width-edge version of a move by its key (null: the move fits, or has none). */
-  edges: Map<string, Candidate | null>;
-  looks: Map<string, Look | null>;
-  deferred: Map<string, Candidate>;
+  edges: Map<number, Candidate | null>;
+  looks: Map<number, Look | null>;
+  deferred: Map<number, Candidate>;
 }
 const memos = new WeakMap<Seen, Memo>();
 
@@ -141,7 +141,7 @@ function memoOf(seen: Seen): Memo {
 }
 
 /** The quick look at a candidate, made once per search (the climbs and settle use the same). */
-export function lookOnce(ctx: SolveContext, seen: Seen, key: string, c: Candidate): Look | null {
+export function lookOnce(ctx: SolveContext, seen: Seen, key: number, c: Candidate): Look | null {
   const looks = memoOf(seen).looks;
   let l = looks.get(key);
   if (l === undefined) looks.set(key, (l = lookAt(ctx, c)));
@@ -149,7 +149,7 @@ export function lookOnce(ctx: SolveContext, seen: Seen, key: string, c: Candidat
 }
 
 /** Leave a candidate unevaluated for now; settle evaluates it with the rest the climbs skipped. */
-export function defer(seen: Seen, key: string, c: Candidate): void {
+export function defer(seen: Seen, key: number, c: Candidate): void {
   memoOf(seen).deferred.set(key, c);
 }
 
@@ -187,7 +187,7 @@ function climb(
 ): Evaluated {
   const memo = memoOf(seen);
   // One sizing per move and search serves the area bound and the width check.
-  const sizeOf = (key: string, c: Candidate): { area: number; wide: boolean } => {
+  const sizeOf = (key: number, c: Candidate): { area: number; wide: boolean } => {
     let z = memo.sizes.get(key);
     if (z === undefined) {
       const w = candidateWidths(ctx, c);
@@ -198,7 +198,7 @@ function climb(
     return z;
   };
   // A move the look rules out; recorded for settle.
-  const ruledOut = (key: string, c: Candidate): boolean => {
+  const ruledOut = (key: number, c: Candidate): boolean => {
     let l = memo.looks.get(key);
     if (l === undefined) memo.looks.set(key, (l = lookAt(ctx, c)));
     if (!l || !hopeless!(l, best)) return false;
@@ -208,7 +208,7 @@ function climb(
 
   // An exact evaluation for the ridge steps, added to the pool when new.
   const evaluate = (c: Candidate): Evaluated | null => {
-    const known = seen.has(candidateKey(c));
+    const known = seen.has(seen.key(c));
     const e = evaluateOnce(ctx, c, seen);
     if (e && !known) pool.push(e);
     return e;
@@ -263,7 +263,7 @@ function climb(
     };
     for (let q = 0; q < queue.length; q++) {
       const n = queue[q];
-      const key = candidateKey(n);
+      const key = seen.key(n);
       const limit = bound(best);
       if (limit < Infinity && !(sizeOf(key, n).area < limit * (1 - REL_TOL))) {
         // Narrower at the edge is also smaller: a move too large for the bound may have an edge version within it.
@@ -297,7 +297,7 @@ function climb(
 
   /** The width-edge version of a move, once per search (null: it fits, or has none). */
   function edgeOf(n: Candidate): Candidate | null {
-    const key = candidateKey(n);
+    const key = seen.key(n);
     let e = memo.edges.get(key);
     if (e === undefined) {
       const at = atWidthEdge(ctx, n);
@@ -307,7 +307,7 @@ function climb(
   }
 
   /** Whether a move ruled out by its quick look is too wide (or not realisable), from that look. */
-  function tooWideLook(key: string): boolean {
+  function tooWideLook(key: number): boolean {
     const l = memo.looks.get(key);
     return !l || l.widest > ctx.wmax;
   }

@@ -1,5 +1,5 @@
 import { topologyOf, type Candidate, type Criteria, type ScreenTools, type StageBias, type StageOption, type Topology } from '../../topology/index.js';
-import { candidateKey } from './candidate.js';
+import { CandidateIds } from './candidate-map.js';
 import type { SolveContext } from '../context.js';
 import { setpointGrid } from './grid.js';
 import { prune, stageOptions } from './stage-options.js';
@@ -99,19 +99,16 @@ class Pools {
   }
 
   candidates(): Candidate[] {
-    // A combination kept by several pools is one object: skip those before building keys.
+    // A combination kept by several pools is one object: skip those before quantising them.
     const same = new Set<Candidate>();
-    const seen = new Set<string>();
+    const ids = new CandidateIds();
     const out: Candidate[] = [];
     for (const h of this.heaps) {
       for (const c of h.sorted()) {
         if (same.has(c)) continue;
         same.add(c);
-        const k = candidateKey(c);
-        if (!seen.has(k)) {
-          seen.add(k);
-          out.push(c);
-        }
+        // Ids come in the order first met: a new identity's is the count so far.
+        if (ids.id(c) === out.length) out.push(c);
       }
     }
     return out;

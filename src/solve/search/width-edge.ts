@@ -1,6 +1,7 @@
 import type { SolveContext } from '../context.js';
 import { candidateWidths } from '../evaluate/evaluate.js';
-import { candidateKey, type Candidate } from './candidate.js';
+import type { Candidate } from './candidate.js';
+import { CandidateIds } from './candidate-map.js';
 
 // Bisection steps per device: the gm/ID range over 2^16 is below the candidate key's 1e-4 /V resolution on any
 // range up to 6 /V, and within a few 1e-4 /V on the default range.
@@ -93,14 +94,11 @@ export function anyWider(w: ArrayLike<number>, wmax: number): boolean {
 /** Each candidate pulled back to the width limit (toWidthLimit), once per distinct result; one that fits nowhere is dropped. */
 export function pulledToLimit(ctx: SolveContext, cands: Iterable<Candidate>): Candidate[] {
   const out: Candidate[] = [];
-  const seen = new Set<string>();
+  const ids = new CandidateIds();
   for (const c of cands) {
     const d = toWidthLimit(ctx, c);
-    if (!d) continue;
-    const k = candidateKey(d);
-    if (seen.has(k)) continue;
-    seen.add(k);
-    out.push(d);
+    // Ids come in the order first met: a new identity's is the count so far.
+    if (d && ids.id(d) === out.length) out.push(d);
   }
   return out;
 }
