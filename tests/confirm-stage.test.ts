@@ -7,8 +7,7 @@
  * the swing by the README's definition (src/spice stageNetlist, simulateStage,
  * measuredGain; src/stack swingOnGrid) — not with the confirm code's own numbers.
  */
-import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { readFileSync, writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import type { DeviceTable } from '../src/table/types.js';
@@ -24,6 +23,7 @@ import { confirmDesign, runBatch, stageCircuit, withStageCorrection } from '../s
 import { TEST_LIB, TEST_MODELS, libLine, ngspiceStatus, testCardTable } from './fixtures/spice/ngspice.js';
 import { cli } from './helpers/cli.js';
 import { stageAcReference } from './helpers/stage-ac.js';
+import { scratchDir } from './helpers/scratch.js';
 
 const KIT = 'stagecard';
 const SUPPLY = 1.8;
@@ -63,7 +63,7 @@ withNgspice('size --spice for gain stages with the invented BSIM4 test card (ref
   beforeAll(async () => {
     // One at a time: parallel runs only fight over two cores. Tables of section tt only, stored as corner "typical".
     for (const d of ['n', 'p'] as const) tables.push(await table(d, 'tt', 'typical'));
-    tablesDir = mkdtempSync(join(tmpdir(), 'stackwright-confirm-stage-'));
+    tablesDir = scratchDir('stackwright-confirm-stage-');
     for (const t of tables) writeTable(tablesDir, t);
   }, 900_000);
 
@@ -126,7 +126,7 @@ withNgspice('size --spice for gain stages with the invented BSIM4 test card (ref
     // Simulation cards with a 10x stronger channel-length modulation (pclm) than the tables saw: every Rout, and the
     // gain with them, falls several-fold in ngspice, beyond what the width and cascode knobs can win back in 4 rounds
     // (with 4x the correction still reaches the targets).
-    const dir = mkdtempSync(join(tmpdir(), 'stackwright-weak-stage-'));
+    const dir = scratchDir('stackwright-weak-stage-');
     const cards = readFileSync(join(dirname(TEST_LIB), 'test-bsim4-cards.inc'), 'utf8').replace(/pclm=1\.1\b/, 'pclm=11').replace(/pclm=1\.0\b/, 'pclm=10');
     writeFileSync(join(dir, 'weak-cards.inc'), cards);
     writeFileSync(join(dir, 'weak.lib'), '* invented test cards with strong CLM\n.lib weak\n.param swt_dvth=0 swt_mu=1\n.include weak-cards.inc\n.endl weak\n');
@@ -143,7 +143,7 @@ withNgspice('size --spice for gain stages with the invented BSIM4 test card (ref
   }, 900_000);
 
   it('size --spice --json carries simulated, confirmed and rounds on the chosen stage', () => {
-    const dir = mkdtempSync(join(tmpdir(), 'stackwright-json-stage-'));
+    const dir = scratchDir('stackwright-json-stage-');
     writeFileSync(join(dir, 'spec.yaml'), [
       `kit: ${KIT}`, 'corner: typical', 'supply: 1.8', 'stages:', '  - name: amp', '    current: 20u', '    gain: 300', '    swing: 0.9', '    output: 0.9',
       '    input: {device: n, topology: cascode}', '    load: {topology: auto}', '',
@@ -216,7 +216,7 @@ withNgspice('size --spice for gain stages with the invented BSIM4 test card (ref
   it('a gbw target the stage cannot reach in simulation exits 3 naming the gbw miss after the correction rounds', () => {
     // Simulation cards with a 3000x gate-drain overlap capacitance (cgdo) the tables never saw: the DC point, gain and
     // swing are unchanged, but the output node carries far more capacitance than the tables predict.
-    const dir = mkdtempSync(join(tmpdir(), 'stackwright-fat-stage-'));
+    const dir = scratchDir('stackwright-fat-stage-');
     const cards = readFileSync(join(dirname(TEST_LIB), 'test-bsim4-cards.inc'), 'utf8').replace(/cgdo=3\.2e-10/, 'cgdo=9.6e-7').replace(/cgdo=3\.0e-10/, 'cgdo=9e-7');
     expect(cards).toMatch(/cgdo=9\.6e-7[\s\S]*cgdo=9e-7/);
     writeFileSync(join(dir, 'fat-cards.inc'), cards);
@@ -247,7 +247,7 @@ withNgspice('size --spice for gain stages with the invented BSIM4 test card (ref
   it('a GBW simulation shows short of its target is corrected, and the corrected stage meets it in a plain AC run', async () => {
     // Simulation cards with a 10x gate-drain overlap capacitance (cgdo) the tables never saw: the tables predict about
     // 500 MHz into 100 fF, ngspice about 410 MHz for the table design, against a 450 MHz target.
-    const dir = mkdtempSync(join(tmpdir(), 'stackwright-cgd-stage-'));
+    const dir = scratchDir('stackwright-cgd-stage-');
     const cards = readFileSync(join(dirname(TEST_LIB), 'test-bsim4-cards.inc'), 'utf8').replace(/cgdo=3\.2e-10/, 'cgdo=3.2e-9').replace(/cgdo=3\.0e-10/, 'cgdo=3e-9');
     expect(cards).toMatch(/cgdo=3\.2e-9[\s\S]*cgdo=3e-9/);
     writeFileSync(join(dir, 'cgd-cards.inc'), cards);

@@ -5,8 +5,7 @@
  * existing netlist writer and measurement (src/spice), not with the confirm
  * code's own numbers.
  */
-import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { readFileSync, writeFileSync } from 'node:fs';
 import { dirname, join, relative } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import type { DeviceTable } from '../src/table/types.js';
@@ -20,6 +19,7 @@ import { designNetlist, measuredHeadroom, midSpan, routOf, interpolateCurve, sim
 import { confirmStacks, cornerModels, type Confirmation } from '../src/confirm/index.js';
 import { TEST_LIB, TEST_MODELS, libLine, ngspiceStatus, testCardTable } from './fixtures/spice/ngspice.js';
 import { cli } from './helpers/cli.js';
+import { scratchDir } from './helpers/scratch.js';
 
 const KIT = 'confirmcard';
 const SUPPLY = 1.8;
@@ -93,7 +93,7 @@ withNgspice('size --spice with the invented BSIM4 test card (reference: ngspice,
     for (const [d, section, corner] of [['n', 'tt', 'typical'], ['p', 'tt', 'typical'], ['n', 'ss', 'slow'], ['p', 'ss', 'slow']] as const) {
       tables.push(await table(d, section, corner));
     }
-    tablesDir = mkdtempSync(join(tmpdir(), 'stackwright-confirm-'));
+    tablesDir = scratchDir('stackwright-confirm-');
     for (const t of tables) writeTable(tablesDir, t);
   }, 1_200_000);
 
@@ -177,7 +177,7 @@ withNgspice('size --spice with the invented BSIM4 test card (reference: ngspice,
   it('a spec infeasible in simulation exits 3 with the binding target and the simulated values', () => {
     // Simulation cards with a 4x stronger channel-length modulation (pclm) than the tables saw: Rout falls
     // about fourfold in ngspice, beyond what the setpoint can win back.
-    const dir = mkdtempSync(join(tmpdir(), 'stackwright-weak-'));
+    const dir = scratchDir('stackwright-weak-');
     const cards = readFileSync(join(dirname(TEST_LIB), 'test-bsim4-cards.inc'), 'utf8').replace(/pclm=1\.1\b/, 'pclm=4.4').replace(/pclm=1\.0\b/, 'pclm=4.0');
     writeFileSync(join(dir, 'weak-cards.inc'), cards);
     writeFileSync(join(dir, 'weak.lib'), '* invented test cards with strong CLM\n.lib weak\n.param swt_dvth=0 swt_mu=1\n.include weak-cards.inc\n.endl weak\n');

@@ -1,10 +1,10 @@
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { existsSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { cli, ensureDemoTables } from './helpers/cli.js';
 import { ngspiceStatus } from './fixtures/spice/ngspice.js';
+import { scratchDir } from './helpers/scratch.js';
 
 // A user's path through the tools: `size --json` on the invented reed180 kit, `netlist` of the result with the kit's
 // model file, and the deck run as written by plain `ngspice -b` from another folder. ngspice is the outside check.
@@ -23,7 +23,7 @@ let result: { stacks: Array<{ name: string; devices: Array<{ w: number }>; predi
 
 beforeAll(() => {
   ensureDemoTables();
-  dir = mkdtempSync(join(tmpdir(), 'sw-netlist-cli-'));
+  dir = scratchDir('sw-netlist-cli-');
   writeFileSync(join(dir, 'spec.yaml'), SPEC);
   const r = cli(['size', join(dir, 'spec.yaml'), '--json']);
   expect(r.code, r.stderr).toBe(0);
@@ -45,7 +45,7 @@ withNgspice('netlist of a size result, run as written by ngspice (reference simu
     expect(r.code, r.stderr).toBe(0);
     const text = readFileSync(deck, 'utf8');
     expect(text).toMatch(/^\.lib '\/.*\/demo-tables\/reed180\/reed180\.lib' tt$/m);
-    const elsewhere = mkdtempSync(join(tmpdir(), 'sw-netlist-run-'));
+    const elsewhere = scratchDir('sw-netlist-run-');
     const run = ngspice(deck, elsewhere);
     const said = run.stdout + run.stderr;
     expect(said).not.toMatch(/error|warning/i);
@@ -101,7 +101,7 @@ stacks:
   let sized: Sized;
   let d: string;
   beforeAll(() => {
-    d = mkdtempSync(join(tmpdir(), 'sw-netlist-spice-'));
+    d = scratchDir('sw-netlist-spice-');
     writeFileSync(join(d, 'one.yaml'), ONE);
     const r = cli(['size', join(d, 'one.yaml'), '--spice', '--include', 'demo-tables/reed180/reed180.lib', '--model-n', 'nfet_reed', '--model-p', 'pfet_reed',
       '--json', '--netlist', join(d, 'size.cir')]);
@@ -123,7 +123,7 @@ stacks:
     const deck = readFileSync(join(d, 'size.cir'), 'utf8');
     expect(deck).toMatch(/^\.lib '\/.*\/demo-tables\/reed180\/reed180\.lib' tt$/m);
     expect(deck).not.toMatch(/nmos_model|pmos_model/);
-    const run = ngspice(join(d, 'size.cir'), mkdtempSync(join(tmpdir(), 'sw-netlist-run-')));
+    const run = ngspice(join(d, 'size.cir'), scratchDir('sw-netlist-run-'));
     expect(run.status, run.stdout + run.stderr).toBe(0);
     expect(run.stdout + run.stderr).not.toMatch(/error|warning/i);
   });
@@ -154,7 +154,7 @@ stacks:
 withNgspice('netlist --stage, run as written by ngspice (reference simulator)', () => {
   it('the stage deck runs by itself in batch mode, its .op at the input DC voltage (not at the sweep\'s start)', () => {
     // The gain stage of demo-tables/specs/marsh-wren-spice.yaml (invented targets, invented kit reed180), alone.
-    const d = mkdtempSync(join(tmpdir(), 'sw-netlist-stage-'));
+    const d = scratchDir('sw-netlist-stage-');
     writeFileSync(join(d, 'stage.yaml'), `kit: reed180
 supply: 1.8
 stages:
@@ -166,7 +166,7 @@ stages:
     const vin = (JSON.parse(r.stdout) as { stages: Array<{ predicted: { vin: number } }> }).stages[0].predicted.vin;
     const n = cli(['netlist', join(d, 'r.json'), '--stage', 'amp', '--include', 'demo-tables/reed180/reed180.lib', '--model-n', 'nfet_reed', '--model-p', 'pfet_reed', '--out', join(d, 'amp.cir')]);
     expect(n.code, n.stderr).toBe(0);
-    const run = ngspice(join(d, 'amp.cir'), mkdtempSync(join(tmpdir(), 'sw-netlist-run-')));
+    const run = ngspice(join(d, 'amp.cir'), scratchDir('sw-netlist-run-'));
     expect(run.status, run.stdout + run.stderr).toBe(0);
     expect(run.stdout + run.stderr).not.toMatch(/error|warning|no data saved/i);
     const inp = /^\s*inp\s+(\S+)/m.exec(run.stdout);

@@ -1,6 +1,5 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { REPO, cli, ensureDemoTables } from './helpers/cli.js';
 import { loadKit, sizeSpec, sizeSpecParallel } from '../src/api.js';
@@ -12,6 +11,7 @@ import { fromWire, toWire } from '../src/solve/parallel-error.js';
 import { exitCodeFor, StackwrightError } from '../src/errors.js';
 import { jobsArg, mayUseWorkers } from '../src/cli/size-prestart.js';
 import { sizeWorkerUrl, startSizeWorker } from '../src/solve/size-worker-start.js';
+import { scratchDir } from './helpers/scratch.js';
 
 const DEMO = join('demo-tables', 'specs', 'marsh-wren.yaml');
 const tables = () => join(REPO, 'tables');
@@ -127,7 +127,7 @@ describe('parallel sizing gives the serial result (demo180, invented demo kit)',
   let dir = '';
   beforeAll(() => {
     ensureDemoTables();
-    dir = mkdtempSync(join(tmpdir(), 'stackwright-parallel-'));
+    dir = scratchDir('stackwright-parallel-');
   });
 
   it('size of the demo spec: text, front CSV, charts and report byte-identical with --jobs 1 and --jobs 2', () => {

@@ -1,9 +1,9 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { REPO, cli, ensureDemoTables } from './helpers/cli.js';
 import { parseEng } from '../src/units/index.js';
+import { scratchDir } from './helpers/scratch.js';
 
 const tables = () => join(REPO, 'tables');
 
@@ -13,7 +13,7 @@ describe('gain stages through the CLI (demo180, invented demo kit)', () => {
   let dir = '';
   beforeAll(() => {
     ensureDemoTables();
-    dir = mkdtempSync(join(tmpdir(), 'stackwright-stage-'));
+    dir = scratchDir('stackwright-stage-');
   });
 
   it('size --json carries stages with the documented fields, SI units, one entry per load topology and one chosen', () => {

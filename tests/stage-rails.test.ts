@@ -1,9 +1,9 @@
-import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { parseSpec, sizeSpec, type Kit } from '../src/index.js';
 import { cli, ensureDemoTables, REPO, demoKit } from './helpers/cli.js';
+import { scratchDir } from './helpers/scratch.js';
 
 /*
  * How the input is provoked outside the rails: a common-source stage on a 0.6 V supply whose
@@ -41,7 +41,7 @@ describe('a stage whose input DC voltage would lie outside the rails', () => {
       expect(s.corners?.[0].feasible).toBe(false);
       expect(s.corners?.[0].binding?.target).toBe('vin');
 
-      const dir = mkdtempSync(join(tmpdir(), 'sw-rails-'));
+      const dir = scratchDir('sw-rails-');
       const file = join(dir, 'rails.yaml');
       writeFileSync(file, stage(device, '[3, 6]'));
       const tables = join(REPO, 'tables');

@@ -5,9 +5,9 @@ import { sizeDesign } from '../src/solve/size.js';
 import { parseSpec } from '../src/design/index.js';
 import { loadTable, writeTable } from '../src/table/index.js';
 import type { DeviceTable } from '../src/table/types.js';
-import { mkdtempSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { writeFileSync } from 'node:fs';
 import { cli, ensureDemoTables, REPO, demoKit } from './helpers/cli.js';
+import { scratchDir } from './helpers/scratch.js';
 
 /** The demo table cut to its VSB = 0 points, as a sweep without body bias would give. */
 function vsbZeroOnly(t: DeviceTable): DeviceTable {
@@ -111,7 +111,7 @@ describe('gain stages on tables with VSB = 0 only', () => {
 describe('size on VSB = 0 tables from the command line', () => {
   it('a cascode-input stage exits 2 with one line naming the spec location, the side and the missing axis', () => {
     ensureDemoTables();
-    const dir = mkdtempSync(join(tmpdir(), 'sw-vsb0-'));
+    const dir = scratchDir('sw-vsb0-');
     for (const d of ['n', 'p'] as const) writeTable(dir, vsbZeroOnly(loadTable(join(REPO, 'tables'), 'demo180', d, 'tt')));
     const spec = join(dir, 'stage.yaml');
     writeFileSync(spec, 'kit: demo180\nsupply: 1.8\nstacks: []\nstages:\n  - name: amp\n    current: 10u\n    gain: 20\n    swing: 0.6\n    input: {device: n, topology: cascode}\n    load: {topology: single}\n');

@@ -1,11 +1,11 @@
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { cli, ensureDemoTables, REPO } from './helpers/cli.js';
 import { describe, expect, it } from 'vitest';
 import { parseEng, parseEngShifted } from '../src/units/index.js';
 import { parseSpec } from '../src/design/index.js';
+import { scratchDir } from './helpers/scratch.js';
 
 /**
  * The double nearest each exact decimal value, from Python's float() (correctly rounded
@@ -76,7 +76,7 @@ describe('spec values carry no float noise', () => {
 describe('size --json echoes spec values without float noise', () => {
   it('current 10u and wmax 200u print as 0.00001 and 0.0002 in the verdict and the result (Python float() repr)', () => {
     ensureDemoTables();
-    const dir = mkdtempSync(join(tmpdir(), 'sw-exact-'));
+    const dir = scratchDir('sw-exact-');
     const file = join(dir, 'w.yaml');
     // Rout 100 MΩ at 0.3 V headroom needs wider devices than 200 µm here, so width binds and quotes wmax.
     writeFileSync(file, 'kit: demo180\nsupply: 1.8\nstacks:\n  - name: s\n    device: n\n    topology: cascode\n    current: 10u\n    rout: 100meg\n    headroom: 0.3\n    wmax: 200u\n');
