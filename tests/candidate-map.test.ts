@@ -37,6 +37,9 @@ describe('candidate ids', () => {
         Array.from({ length: pick([0, 1, 2]) }, () => nudge(pick([0.1, 0.2]), 1e-4)),
       );
       const k = stringKey(c);
+      // fresh: true exactly for a string key not met before (and it gives the id as id() would).
+      const isNew = i % 2 === 0 ? ids.fresh(c) : undefined;
+      if (isNew !== undefined) expect(isNew).toBe(!byString.has(k));
       const id = ids.id(c);
       if (!byString.has(k)) {
         // A new identity takes the next id (and none of the earlier ones).

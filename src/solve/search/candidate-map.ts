@@ -51,6 +51,12 @@ export class CandidateIds {
     return e >= 0 ? e : this.add(s, c.topology);
   }
 
+  /** Whether `c`'s identity is met for the first time (it gets its id now): for keeping one candidate per identity. */
+  fresh(c: Candidate): boolean {
+    const count = this.hashes.length;
+    return this.id(c) === count;
+  }
+
   /** The id of `c`'s identity, −1 when it has none (and no id is given). */
   find(c: Candidate): number {
     return this.slots[this.probe(c)] - 1;

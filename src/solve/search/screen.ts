@@ -107,8 +107,7 @@ class Pools {
       for (const c of h.sorted()) {
         if (same.has(c)) continue;
         same.add(c);
-        // Ids come in the order first met: a new identity's is the count so far.
-        if (ids.id(c) === out.length) out.push(c);
+        if (ids.fresh(c)) out.push(c);
       }
     }
     return out;

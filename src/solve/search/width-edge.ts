@@ -97,8 +97,7 @@ export function pulledToLimit(ctx: SolveContext, cands: Iterable<Candidate>): Ca
   const ids = new CandidateIds();
   for (const c of cands) {
     const d = toWidthLimit(ctx, c);
-    // Ids come in the order first met: a new identity's is the count so far.
-    if (d && ids.id(d) === out.length) out.push(d);
+    if (d && ids.fresh(d)) out.push(d);
   }
   return out;
 }
