@@ -73,6 +73,7 @@ export async function bundleCli(root = packageRoot(), opts: { entry?: string; ou
 
   const launcher = join(outdir, 'stackwright.cjs');
   copyFileSync(join(root, 'scripts', 'cli-launcher.cjs'), launcher);
+  copyFileSync(join(root, 'scripts', 'v8-flags.cjs'), join(outdir, 'v8-flags.cjs'));
   writeFileSync(launcher, `#!/usr/bin/env node\n${readFileSync(launcher, 'utf8')}`);
   chmodSync(launcher, 0o755);
   const esmEntry = join(outdir, 'stackwright.mjs');

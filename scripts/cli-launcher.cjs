@@ -8,14 +8,10 @@
  * simply compiled from source, as without a cache. scripts/bundle-cli.ts copies this file
  * to dist/cli/stackwright.cjs, which `bin` points at.
  */
-// A CLI run is short, and on a 2-core machine V8's optimising compiler, not our code, is its critical path: a
-// cold `size` of the demo spec spent over half its instructions in TurboFan (valgrind), while the functions waiting
-// for it ran unoptimised. Less inlining, no loop peeling and a later tier-up cut that run by about a quarter
-// (interleaved whole-process runs, README "Performance"), warm speed unchanged. Set before the bundle is
-// compiled, so the code caches (trained through this launcher) carry the same flags and stay valid.
-// The flags exist in the V8 of node 18 to 24; elsewhere V8 would print a warning, so they are left alone.
-const major = Number(process.versions.node.split('.')[0]);
-if (major >= 18 && major <= 24) require('node:v8').setFlagsFromString('--no-turbo-inlining --no-turbo-loop-peeling --interrupt-budget=200000');
+// V8 flags for a short run (scripts/v8-flags.cjs, copied beside this file), set before the bundle is compiled, so the
+// code caches (trained through this launcher) carry the same flags and stay valid.
+const flags = require('./v8-flags.cjs').v8FlagsFor(Number(process.versions.node.split('.')[0]));
+if (flags) require('node:v8').setFlagsFromString(flags);
 const { readFileSync, writeFileSync } = require('node:fs');
 const { join } = require('node:path');
 const { Script } = require('node:vm');
