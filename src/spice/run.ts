@@ -1,4 +1,5 @@
-import { spawn } from 'node:child_process';
+import { spawn, type ChildProcess } from 'node:child_process';
+import { rmSync } from 'node:fs';
 import { mkdtemp, readdir, readFile, rm, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -24,10 +25,12 @@ const DECK = 'deck.cir';
 
 /** Run `ngspice -b` on a deck; throws a one-line StackwrightError when ngspice is missing or reports an error. */
 export async function runNgspice(deck: string, opts: RunOptions = {}): Promise<NgspiceRun> {
-  const dir = opts.cwd ?? (await mkdtemp(join(tmpdir(), 'stackwright-ngspice-')));
+  const run: Live = {};
+  guard(run);
   try {
+    const dir = opts.cwd ?? (run.dir = await mkdtemp(join(tmpdir(), 'stackwright-ngspice-')));
     await writeFile(join(dir, DECK), deck);
-    const { stdout, stderr, code } = await spawnBatch(opts.binary ?? 'ngspice', dir, opts.timeoutMs ?? 120_000);
+    const { stdout, stderr, code } = await spawnBatch(opts.binary ?? 'ngspice', dir, opts.timeoutMs ?? 120_000, run);
     const problem = firstError(stdout + '\n' + stderr);
     if (code !== 0 || problem) {
       throw new StackwrightError(`ngspice failed (exit ${code}): ${problem ?? lastLine(stderr || stdout)}`, {
@@ -41,13 +44,51 @@ export async function runNgspice(deck: string, opts: RunOptions = {}): Promise<N
     }
     return { stdout, stderr, files };
   } finally {
-    if (!opts.cwd) await rm(dir, { recursive: true, force: true });
+    release(run);
+    if (run.dir) await rm(run.dir, { recursive: true, force: true });
   }
 }
 
-function spawnBatch(binary: string, cwd: string, timeoutMs: number): Promise<{ stdout: string; stderr: string; code: number | null }> {
+/** A run in flight: its temporary folder (not a caller's `cwd`) and its ngspice process, once they exist. */
+interface Live {
+  dir?: string;
+  child?: ChildProcess;
+  /** The stop signal that ended it. */
+  stop?: NodeJS.Signals;
+}
+
+// Runs in flight. While there are any, a stop signal first kills their ngspice processes (which would otherwise run on,
+// orphaned, after a SIGTERM to this process alone) and removes their folders, then takes its usual effect. Only while
+// they wait on ngspice: a handler installed for good would hold Ctrl-C back until synchronous work (a sizing) ends.
+const live = new Set<Live>();
+const STOPS = ['SIGINT', 'SIGTERM', 'SIGHUP'] as const;
+
+function guard(run: Live): void {
+  if (live.size === 0) for (const s of STOPS) process.on(s, stopped);
+  live.add(run);
+}
+
+function release(run: Live): void {
+  live.delete(run);
+  if (live.size === 0) for (const s of STOPS) process.off(s, stopped);
+}
+
+function stopped(signal: NodeJS.Signals): void {
+  for (const run of [...live]) {
+    run.stop = signal;
+    run.child?.kill('SIGKILL');
+    if (run.dir) rmSync(run.dir, { recursive: true, force: true });
+    release(run);
+  }
+  // The signal again, now with no handler of ours: the default ends the process as the signal says (a program using
+  // this library with handlers of its own keeps them, and decides).
+  if (process.listenerCount(signal) === 0) process.kill(process.pid, signal);
+}
+
+function spawnBatch(binary: string, cwd: string, timeoutMs: number, run: Live): Promise<{ stdout: string; stderr: string; code: number | null }> {
   return new Promise((resolve, reject) => {
     const child = spawn(binary, ['-b', DECK], { cwd, stdio: ['ignore', 'pipe', 'pipe'] });
+    run.child = child;
     let stdout = '';
     let stderr = '';
     child.stdout.on('data', (d: Buffer) => (stdout += d.toString()));
@@ -63,7 +104,9 @@ function spawnBatch(binary: string, cwd: string, timeoutMs: number): Promise<{ s
     });
     child.on('close', (code, signal) => {
       clearTimeout(timer);
-      if (signal === 'SIGKILL') {
+      if (run.stop) {
+        reject(new StackwrightError(`ngspice stopped: this process received ${run.stop}`, { kind: 'internal', where: 'ngspice' }));
+      } else if (signal === 'SIGKILL') {
         reject(new StackwrightError(`ngspice did not finish within ${timeoutMs} ms`, { kind: 'internal', where: 'ngspice' }));
       } else resolve({ stdout, stderr, code });
     });
