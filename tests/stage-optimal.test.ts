@@ -96,6 +96,48 @@ const cases: StageCase[] = [
     stage: { ...stageOf({ gain: 60, swing: 1.0, output: 0.9, input: 'n', inputTopology: 'single', load: 'single', l: [0.35e-6, 1.4e-6], gmid: [6, 24] }), gbw: 30e6, cap: 1e-12 },
     why: 'the GBW holds the input gm/ID up: a longer load pays only with the input gm/ID half a step down at once (both sides moved at the halved step)',
   },
+  {
+    // Found by audit2 (seed 20261207, #57): area 14.17e-12 m² vs reference 8.718e-12 m² (tool +62.5 %).
+    // Reference pair: input l [250e-9, 350e-9], gm/ID [18, 12], setpoints [0.25]; load l [1e-6], gm/ID [8], setpoints [].
+    id: 'audit2 demo180: n cascode input, p single load, gain 306 over 0.55 V (seed 20261207 #57)', kit: 'demo180', grid: { gmidPoints: 7, vStep: 0.1 },
+    stage: stageOf({ gain: 306, swing: 0.55, output: 0.897, input: 'n', inputTopology: 'cascode', load: 'single', l: [250e-9, 350e-9], gmid: [8, 20], loadL: [1e-6, 1.4e-6] }),
+    why: 'the single load only as the stack screen kept it for one derived Rout target: the smallest pair has a shorter load (less Rout) the input makes up for',
+  },
+  {
+    // Found by audit2 (seed 20261208, #405): area 6.223e-12 m² vs reference 5.34e-12 m² (tool +16.5 %).
+    // Reference pair: input l [220e-9], gm/ID [17.5], setpoints []; load l [220e-9], gm/ID [10], setpoints [].
+    id: 'audit2 demo090: n single input, p single load, gain 15.5 over 0.755 V (seed 20261208 #405)', kit: 'demo090', grid: { gmidPoints: 9, vStep: 0.05 },
+    stage: { ...stageOf({ gain: 15.5, swing: 0.755, output: 0.642, input: 'n', inputTopology: 'single', load: 'single', l: [120e-9, 220e-9], gmid: [10, 22], loadL: [220e-9, 400e-9] }), current: 71.6e-6 },
+    why: 'the single load only as the stack screen kept it for one derived Rout target: the smallest pair has a shorter load (less Rout) the input makes up for',
+  },
+  {
+    // Found by audit2 (seed 20261208, #409): area 2.99e-12 m² vs reference 2.484e-12 m² (tool +20.4 %).
+    // Reference pair: input l [120e-9, 160e-9], gm/ID [22, 12.4], setpoints [0.15]; load l [750e-9], gm/ID [10], setpoints [].
+    id: 'audit2 demo090: p cascode input, n single load, gain 110 over 0.554 V (seed 20261208 #409)', kit: 'demo090', grid: { gmidPoints: 6, vStep: 0.1 },
+    stage: stageOf({ gain: 110, swing: 0.554, output: 0.713, input: 'p', inputTopology: 'cascode', load: 'single', l: [120e-9, 160e-9], gmid: [10, 22], loadL: [750e-9, 1e-6] }),
+    why: 'the single load only as the stack screen kept it for one derived Rout target: the smallest pair has a shorter load (less Rout) the input makes up for',
+  },
+  {
+    // Found by audit2 (seed 20261208, #452): area 831.6e-15 m² vs reference 689.7e-15 m² (tool +20.6 %).
+    // Reference pair: input l [160e-9], gm/ID [20.5], setpoints []; load l [220e-9], gm/ID [10], setpoints [].
+    id: 'audit2 demo090: n single input, p single load, gain 13.9 over 0.612 V (seed 20261208 #452)', kit: 'demo090', grid: { gmidPoints: 9, vStep: 0.05 },
+    stage: stageOf({ gain: 13.9, swing: 0.612, output: 0.684, input: 'n', inputTopology: 'single', load: 'single', l: [90e-9, 160e-9], gmid: [10, 22], loadL: [160e-9, 300e-9] }),
+    why: 'the single load only as the stack screen kept it for one derived Rout target: the smallest pair has a shorter load (less Rout) the input makes up for',
+  },
+  {
+    // Found by audit2 (seed 20261208, #820): area 13.97e-12 m² vs reference 10.4e-12 m² (tool +34.4 %).
+    // Reference pair: input l [500e-9], gm/ID [18.75], setpoints []; load l [700e-9], gm/ID [10], setpoints [].
+    id: 'audit2 demo180: n single input, p single load, gain 76.4 over 0.737 V (seed 20261208 #820)', kit: 'demo180', grid: { gmidPoints: 9, vStep: 0.05 },
+    stage: stageOf({ gain: 76.4, swing: 0.737, output: 1.04, input: 'n', inputTopology: 'single', load: 'single', l: [250e-9, 500e-9], gmid: [10, 24], loadL: [500e-9, 1e-6] }),
+    why: 'the single load only as the stack screen kept it for one derived Rout target: the smallest pair has a shorter load (less Rout) the input makes up for',
+  },
+  {
+    // Found by audit2 (seed 20261208, #976): area 35.98e-12 m² vs reference 30.19e-12 m² (tool +19.2 %).
+    // Reference pair: input l [1e-6], gm/ID [18], setpoints []; load l [1.4e-6], gm/ID [8], setpoints [].
+    id: 'audit2 demo180: n single input, p single load, gain 178 over 1.07 V (seed 20261208 #976)', kit: 'demo180', grid: { gmidPoints: 9, vStep: 0.05 },
+    stage: stageOf({ gain: 178, swing: 1.07, output: 0.953, input: 'n', inputTopology: 'single', load: 'single', l: [500e-9, 1e-6], gmid: [8, 24], loadL: [1e-6, 2e-6] }),
+    why: 'the single load only as the stack screen kept it for one derived Rout target: the smallest pair has a shorter load (less Rout) the input makes up for',
+  },
 ];
 
 describe('gain-stage search against an exhaustive reference (objective area, tt)', () => {

@@ -92,12 +92,13 @@ export function makeSide(stage: StageSpec, kind: SideKind, kit: KitAccess, suppl
  * side's share of the voltage the swing target leaves (supply − swing), and
  * the Rout each side needs for the gain target when the two are equal
  * (2·gain/gm_in at a middling gm/ID) — so its pools hold designs across the
- * headroom/Rout/area trade. A common-source input side is enumerated whole. `roomy`: screened with all the
- * headroom the side may have at once.
+ * headroom/Rout/area trade. A one-device side (common-source input, single load) is enumerated whole: one derived
+ * Rout target drops the short, low-Rout devices the smallest pairs often have (the other side making up the gain),
+ * and there are only lengths × gm/ID values. `roomy`: screened with all the headroom the side may have at once.
  */
 export function sideCandidates(stage: StageSpec, side: Side, topology: Topology, supply: number, roomy = false): Candidate[] {
   const ctx = side.ctx;
-  if (side.kind === 'input' && topology === 'single') {
+  if (topology === 'single') {
     return ctx.lengths.flatMap((l) => ctx.gmids.map((g) => ({ topology, l: [l], gmid: [g], setpoints: [] })));
   }
   const free = Math.max(supply - stage.swing, 0.1);
