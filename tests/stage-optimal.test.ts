@@ -138,6 +138,13 @@ const cases: StageCase[] = [
     stage: stageOf({ gain: 178, swing: 1.07, output: 0.953, input: 'n', inputTopology: 'single', load: 'single', l: [500e-9, 1e-6], gmid: [8, 24], loadL: [1e-6, 2e-6] }),
     why: 'the single load only as the stack screen kept it for one derived Rout target: the smallest pair has a shorter load (less Rout) the input makes up for',
   },
+  {
+    // Found by audit2 (seed 20261208, #216): area 4.032e-12 m² vs reference 3.796e-12 m² (tool +6.2 %).
+    // Reference pair: input l [400e-9], gm/ID [16], setpoints []; load l [300e-9], gm/ID [10], setpoints [].
+    id: 'audit2 demo090: p single input, n single load, gain 28.7 over 0.616 V (seed 20261208 #216)', kit: 'demo090', grid: { gmidPoints: 9, vStep: 0.05 },
+    stage: stageOf({ gain: 28.7, swing: 0.616, output: 0.646, input: 'p', inputTopology: 'single', load: 'single', l: [300e-9, 550e-9], gmid: [10, 22], loadL: [160e-9, 300e-9] }),
+    why: 'a seed behind at the screen\'s step (a longer input at a lower gm/ID) holds the smaller design at the halved steps',
+  },
 ];
 
 describe('gain-stage search against an exhaustive reference (objective area, tt)', () => {
