@@ -145,6 +145,13 @@ const cases: StageCase[] = [
     stage: stageOf({ gain: 28.7, swing: 0.616, output: 0.646, input: 'p', inputTopology: 'single', load: 'single', l: [300e-9, 550e-9], gmid: [10, 22], loadL: [160e-9, 300e-9] }),
     why: 'a seed behind at the screen\'s step (a longer input at a lower gm/ID) holds the smaller design at the halved steps',
   },
+  {
+    // Found by audit2 (seed 20261208, #421): area 21.36e-12 m² vs reference 15.88e-12 m² (tool +34.5 %).
+    // Reference pair: input l [1e-6], gm/ID [18], setpoints []; load l [350e-9], gm/ID [7.5], setpoints [].
+    id: 'audit2 demo180: p single input, n single load, gain 75.6 over 0.571 V (seed 20261208 #421)', kit: 'demo180', grid: { gmidPoints: 9, vStep: 0.05 },
+    stage: { ...stageOf({ gain: 75.6, swing: 0.571, output: 0.927, input: 'p', inputTopology: 'single', load: 'single', l: [1e-6, 2e-6], gmid: [6, 18], loadL: [180e-9, 350e-9] }), current: 2.7e-6 },
+    why: 'the smallest load sits between the gm/ID grid points, at its length\'s minimum width: the grid point above misses the gain with the shorter input, the one below is too narrow',
+  },
 ];
 
 describe('gain-stage search against an exhaustive reference (objective area, tt)', () => {

@@ -98,9 +98,7 @@ export function makeSide(stage: StageSpec, kind: SideKind, kit: KitAccess, suppl
  */
 export function sideCandidates(stage: StageSpec, side: Side, topology: Topology, supply: number, roomy = false): Candidate[] {
   const ctx = side.ctx;
-  if (topology === 'single') {
-    return ctx.lengths.flatMap((l) => ctx.gmids.map((g) => ({ topology, l: [l], gmid: [g], setpoints: [] })));
-  }
+  if (topology === 'single') return singleCandidates(side);
   const free = Math.max(supply - stage.swing, 0.1);
   const [lo, hi] = headroomRange(side.vd, supply);
   const rout = (2 * stage.gain) / (12 * stage.current);
@@ -123,6 +121,36 @@ export function sideCandidates(stage: StageSpec, side: Side, topology: Topology,
     ctx.spec = base;
   }
   return [...seen.values()];
+}
+
+/** Bisection steps for a one-device side's narrowest gm/ID: a grid step over 2^16, below the candidate key's resolution. */
+const EDGE_STEPS = 16;
+
+/**
+ * A one-device side's candidates: every table length × gm/ID, and for each length whose lowest realisable grid
+ * gm/ID has an unrealisable one below it (narrower than the minimum width, at a fixed current W falls with gm/ID),
+ * the lowest gm/ID it reaches, bisected between the two: that length's smallest device, with its highest Rout, which
+ * the smallest pair may need (the grid point above it misses the gain, the one below is too narrow).
+ */
+function singleCandidates(side: Side): Candidate[] {
+  const ctx = side.ctx;
+  const one = (l: number, g: number): Candidate => ({ topology: 'single', l: [l], gmid: [g], setpoints: [] });
+  const fits = (l: number, g: number): boolean =>
+    rangeSafe(() => sizeStackDevices({ shape: topologyOf('single'), slices: [ctx.slice(ctx.nominal, l)], gmid: [g], setpoints: [], current: ctx.spec.current, vmid: side.vd, wmin: ctx.wmin })) !== null;
+  const out: Candidate[] = [];
+  for (const l of ctx.lengths) {
+    for (const g of ctx.gmids) out.push(one(l, g));
+    const j = ctx.gmids.findIndex((g) => fits(l, g));
+    if (j < 1) continue;
+    let [lo, hi] = [ctx.gmids[j - 1], ctx.gmids[j]];
+    for (let k = 0; k < EDGE_STEPS; k++) {
+      const mid = 0.5 * (lo + hi);
+      if (fits(l, mid)) hi = mid;
+      else lo = mid;
+    }
+    out.push(one(l, hi));
+  }
+  return out;
 }
 
 /** A side candidate sized at the design point (widths, gates, area), its operating point there not yet checked (sideChecked). */
