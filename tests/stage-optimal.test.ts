@@ -152,6 +152,34 @@ const cases: StageCase[] = [
     stage: { ...stageOf({ gain: 75.6, swing: 0.571, output: 0.927, input: 'p', inputTopology: 'single', load: 'single', l: [1e-6, 2e-6], gmid: [6, 18], loadL: [180e-9, 350e-9] }), current: 2.7e-6 },
     why: 'the smallest load sits between the gm/ID grid points, at its length\'s minimum width: the grid point above misses the gain with the shorter input, the one below is too narrow',
   },
+  {
+    // Found by audit2 (seed 20261208, #55): area 517.8e-15 m² vs reference 476.2e-15 m² (tool +8.7 %).
+    // Reference pair: input l [220e-9], gm/ID [15.6], setpoints []; load l [160e-9, 120e-9], gm/ID [10.8, 10.8], setpoints [0.25].
+    id: 'audit2 demo090: n single input, p cascode load, gain 15.3 over 0.774 V (seed 20261208 #55)', kit: 'demo090', grid: { gmidPoints: 6, vStep: 0.1 },
+    stage: { ...stageOf({ gain: 15.3, swing: 0.774, output: 0.56, input: 'n', inputTopology: 'single', load: 'cascode', l: [120e-9, 220e-9], gmid: [6, 18] }), current: 7.2e-6 },
+    why: 'over a common-source input the smallest load takes most of the free voltage (high setpoints or low gm/ID): screened with only 35 % and 60 % of it, none was kept',
+  },
+  {
+    // Found by audit2 (seed 20261208, #293): area 92.61e-12 m² vs reference 67.74e-12 m² (tool +36.7 %).
+    // Reference pair: input l [500e-9], gm/ID [14.667], setpoints []; load l [500e-9, 500e-9, 500e-9], gm/ID [10, 10, 10], setpoints [0.25, 0.35].
+    id: 'audit2 demo180: n single input, p triple load, gain 77.8 over 1.14 V (seed 20261208 #293)', kit: 'demo180', grid: { gmidPoints: 4, vStep: 0.1 },
+    stage: { ...stageOf({ gain: 77.8, swing: 1.14, output: 0.965, input: 'n', inputTopology: 'single', load: 'triple', l: [350e-9, 500e-9], gmid: [10, 24], loadL: [500e-9, 500e-9] }), current: 61.3e-6 },
+    why: 'over a common-source input the smallest load takes most of the free voltage (high setpoints or low gm/ID): screened with only 35 % and 60 % of it, none was kept',
+  },
+  {
+    // Found by audit2 (seed 20261208, #478): area 16.2e-12 m² vs reference 14.63e-12 m² (tool +10.7 %).
+    // Reference pair: input l [400e-9], gm/ID [22], setpoints []; load l [1e-6, 1e-6], gm/ID [10, 10], setpoints [].
+    id: 'audit2 demo090: p single input, n cascode-stacked load, gain 65.5 over 0.502 V (seed 20261208 #478)', kit: 'demo090', grid: { gmidPoints: 6, vStep: 0.1 },
+    stage: stageOf({ gain: 65.5, swing: 0.502, output: 0.712, input: 'p', inputTopology: 'single', load: 'cascode-stacked', l: [300e-9, 400e-9], gmid: [10, 22], loadL: [1e-6, 1e-6] }),
+    why: 'over a common-source input the smallest load takes most of the free voltage (high setpoints or low gm/ID): screened with only 35 % and 60 % of it, none was kept',
+  },
+  {
+    // Found by audit2 (seed 20261208, #777): area 4.182e-12 m² vs reference 3.975e-12 m² (tool +5.2 %).
+    // Reference pair: input l [350e-9], gm/ID [10.8], setpoints []; load l [700e-9, 700e-9], gm/ID [8.4, 8.4], setpoints [].
+    id: 'audit2 demo180: p single input, n cascode-stacked load, gain 46.7 over 0.796 V (seed 20261208 #777)', kit: 'demo180', grid: { gmidPoints: 6, vStep: 0.1 },
+    stage: stageOf({ gain: 46.7, swing: 0.796, output: 0.994, input: 'p', inputTopology: 'single', load: 'cascode-stacked', l: [250e-9, 350e-9], gmid: [6, 18], loadL: [700e-9, 700e-9] }),
+    why: 'over a common-source input the smallest load takes most of the free voltage (high setpoints or low gm/ID): screened with only 35 % and 60 % of it, none was kept',
+  },
 ];
 
 describe('gain-stage search against an exhaustive reference (objective area, tt)', () => {

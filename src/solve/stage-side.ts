@@ -24,6 +24,16 @@ export type SideKind = 'input' | 'load';
  * with as headroom: two, so each side's pools span the headroom/Rout trade.
  */
 const SHARES: Record<SideKind, number[]> = { input: [0.35, 0.6], load: [0.35, 0.6] };
+/**
+ * A load over a common-source input, which needs only its one device's VDSsat below the output, is also screened
+ * with nearly all of the free voltage: the smallest pairs then often have a load of high setpoints and low gm/ID.
+ */
+const ROOMY_LOAD_SHARE = 0.9;
+
+/** The shares a side is screened with (see SHARES, ROOMY_LOAD_SHARE). */
+function sharesOf(stage: StageSpec, kind: SideKind): number[] {
+  return kind === 'load' && stage.input.topology === 'single' ? [...SHARES.load, ROOMY_LOAD_SHARE] : SHARES[kind];
+}
 
 /** One side of a stage as a stack search: its polarity, design stack voltage and the stack context it screens with. */
 export interface Side {
@@ -105,7 +115,7 @@ export function sideCandidates(stage: StageSpec, side: Side, topology: Topology,
   const base = ctx.spec;
   const seen = new CandidateMap<Candidate>();
   try {
-    for (const share of roomy ? [] : SHARES[side.kind]) {
+    for (const share of roomy ? [] : sharesOf(stage, side.kind)) {
       const h = Math.min(Math.max(share * free, lo), hi);
       ctx.spec = { ...base, rout, headroom: h, span: 2 * side.vd - h };
       for (const c of screen(ctx, topology)) seen.set(seen.key(c), c);
