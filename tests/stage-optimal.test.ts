@@ -180,6 +180,13 @@ const cases: StageCase[] = [
     stage: stageOf({ gain: 46.7, swing: 0.796, output: 0.994, input: 'p', inputTopology: 'single', load: 'cascode-stacked', l: [250e-9, 350e-9], gmid: [6, 18], loadL: [700e-9, 700e-9] }),
     why: 'over a common-source input the smallest load takes most of the free voltage (high setpoints or low gm/ID): screened with only 35 % and 60 % of it, none was kept',
   },
+  {
+    // Found by audit2 (seed 20261208, #58): area 6.341e-12 m² vs reference 5.646e-12 m² (tool +12.3 %).
+    // Reference pair: input l [750e-9, 750e-9], gm/ID [15.6, 6], setpoints [0.45]; load l [550e-9], gm/ID [8.4], setpoints [].
+    id: 'audit2 demo090: n cascode input, p single load, gain 46.1 over 0.708 V (seed 20261208 #58)', kit: 'demo090', grid: { gmidPoints: 6, vStep: 0.1 },
+    stage: stageOf({ gain: 46.1, swing: 0.708, output: 0.603, input: 'n', inputTopology: 'cascode', load: 'single', l: [750e-9, 1e-6], gmid: [6, 18], loadL: [400e-9, 550e-9] }),
+    why: 'over a single load the smallest cascode input takes most of the free voltage (setpoint 0.45 V, cascode gm/ID 6): screened with only 35 % and 60 % of it, none was kept',
+  },
 ];
 
 describe('gain-stage search against an exhaustive reference (objective area, tt)', () => {

@@ -25,14 +25,16 @@ export type SideKind = 'input' | 'load';
  */
 const SHARES: Record<SideKind, number[]> = { input: [0.35, 0.6], load: [0.35, 0.6] };
 /**
- * A load over a common-source input, which needs only its one device's VDSsat below the output, is also screened
- * with nearly all of the free voltage: the smallest pairs then often have a load of high setpoints and low gm/ID.
+ * A side facing a one-device side (common-source input, single load), which needs only its device's VDSsat, is
+ * also screened with nearly all of the free voltage: the smallest pairs then often have this side at high setpoints
+ * and low gm/ID.
  */
-const ROOMY_LOAD_SHARE = 0.9;
+const ROOMY_SHARE = 0.9;
 
-/** The shares a side is screened with (see SHARES, ROOMY_LOAD_SHARE). */
+/** The shares a side is screened with (see SHARES, ROOMY_SHARE). */
 function sharesOf(stage: StageSpec, kind: SideKind): number[] {
-  return kind === 'load' && stage.input.topology === 'single' ? [...SHARES.load, ROOMY_LOAD_SHARE] : SHARES[kind];
+  const other = kind === 'load' ? stage.input.topology : stage.load.topology;
+  return other === 'single' ? [...SHARES[kind], ROOMY_SHARE] : SHARES[kind];
 }
 
 /** One side of a stage as a stack search: its polarity, design stack voltage and the stack context it screens with. */
