@@ -187,6 +187,20 @@ const cases: StageCase[] = [
     stage: stageOf({ gain: 46.1, swing: 0.708, output: 0.603, input: 'n', inputTopology: 'cascode', load: 'single', l: [750e-9, 1e-6], gmid: [6, 18], loadL: [400e-9, 550e-9] }),
     why: 'over a single load the smallest cascode input takes most of the free voltage (setpoint 0.45 V, cascode gm/ID 6): screened with only 35 % and 60 % of it, none was kept',
   },
+  {
+    // Found by audit2 (seed 20261208, #609): area 274.6e-12 m² vs reference 237.4e-12 m² (tool +15.7 %).
+    // Reference pair: input l [700e-9], gm/ID [24], setpoints []; load l [1.4e-6, 1.4e-6], gm/ID [20.8, 8], setpoints [].
+    id: 'audit2 demo180: n single input, p cascode-stacked load, gain 173 over 1.11 V (seed 20261208 #609)', kit: 'demo180', grid: { gmidPoints: 6, vStep: 0.1 },
+    stage: stageOf({ gain: 173, swing: 1.11, output: 0.857, input: 'n', inputTopology: 'single', load: 'cascode-stacked', l: [500e-9, 700e-9], gmid: [8, 24], loadL: [1.4e-6, 1.4e-6] }),
+    why: 'over a common-source input the smallest stacked-cascode load (top device at low gm/ID) needs all the free voltage by the screen\'s headroom estimate, though the gain holds',
+  },
+  {
+    // Found by audit2 (seed 20261208, #1059): area 100.4e-12 m² vs reference 93.44e-12 m² (tool +7.5 %).
+    // Reference pair: input l [1.4e-6], gm/ID [22], setpoints []; load l [700e-9, 700e-9], gm/ID [14.8, 10], setpoints [].
+    id: 'audit2 demo180: n single input, p cascode-stacked load, gain 200 over 1.08 V (seed 20261208 #1059)', kit: 'demo180', grid: { gmidPoints: 6, vStep: 0.1 },
+    stage: stageOf({ gain: 200, swing: 1.08, output: 0.965, input: 'n', inputTopology: 'single', load: 'cascode-stacked', l: [1e-6, 1.4e-6], gmid: [10, 22], loadL: [700e-9, 700e-9] }),
+    why: 'over a common-source input the smallest stacked-cascode load (top device at low gm/ID) needs all the free voltage by the screen\'s headroom estimate, though the gain holds',
+  },
 ];
 
 describe('gain-stage search against an exhaustive reference (objective area, tt)', () => {

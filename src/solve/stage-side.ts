@@ -26,15 +26,15 @@ export type SideKind = 'input' | 'load';
 const SHARES: Record<SideKind, number[]> = { input: [0.35, 0.6], load: [0.35, 0.6] };
 /**
  * A side facing a one-device side (common-source input, single load), which needs only its device's VDSsat, is
- * also screened with nearly all of the free voltage: the smallest pairs then often have this side at high setpoints
- * and low gm/ID.
+ * also screened with nearly all and with all of the free voltage (the gain can hold a little past a side's
+ * saturation edge): the smallest pairs then often have this side at high setpoints and low gm/ID.
  */
-const ROOMY_SHARE = 0.9;
+const ROOMY_SHARES = [0.9, 1];
 
-/** The shares a side is screened with (see SHARES, ROOMY_SHARE). */
+/** The shares a side is screened with (see SHARES, ROOMY_SHARES). */
 function sharesOf(stage: StageSpec, kind: SideKind): number[] {
   const other = kind === 'load' ? stage.input.topology : stage.load.topology;
-  return other === 'single' ? [...SHARES[kind], ROOMY_SHARE] : SHARES[kind];
+  return other === 'single' ? [...SHARES[kind], ...ROOMY_SHARES] : SHARES[kind];
 }
 
 /** One side of a stage as a stack search: its polarity, design stack voltage and the stack context it screens with. */
