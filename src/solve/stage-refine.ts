@@ -356,7 +356,8 @@ type Climber = ReturnType<typeof stageClimber>;
  * the rest, no smaller than it, are not traced; a move surelyMisses rules out is not traced either.
  * Every seed climbs at the screen's gm/ID step; the best of those, and each other meeting the targets, climbs on with
  * the steps halved twice. The screen ranks pairs on estimated gain curves from a few hundred side candidates, so its
- * pick can be far from the best nearby design. Every design traced is added to `pool` (the trade front and the nearest points see them).
+ * pick can be far from the best nearby design. Every design traced is added to `pool` (the trade front and the
+ * nearest points see them).
  * When nothing meets the targets, the nearest points are climbed for too (nearestStage).
  */
 export function refineStage(

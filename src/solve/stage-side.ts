@@ -21,7 +21,7 @@ export type SideKind = 'input' | 'load';
 
 /**
  * Shares of the free voltage (supply − swing) a side's screen is asked to live
- * with as headroom: two, so each side's pools span the headroom/Rout trade.
+ * with as headroom: two (more for some sides: sharesOf), so each side's pools span the headroom/Rout trade.
  */
 const SHARES: Record<SideKind, number[]> = { input: [0.35, 0.6], load: [0.35, 0.6] };
 /**
