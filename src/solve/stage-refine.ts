@@ -354,9 +354,10 @@ type Climber = ReturnType<typeof stageClimber>;
  * - then, at a climb's finest step only, coupled length moves of one side (jumpMoves).
  * Moves go in order of summed area, so with objective area the first one meeting every target wins the round and
  * the rest, no smaller than it, are not traced; a move surelyMisses rules out is not traced either.
- * Every seed climbs at the screen's gm/ID step; the best of those climbs on with the steps halved twice. The screen
- * ranks pairs on estimated gain curves from a few hundred side candidates, so its pick can be far from the best
- * nearby design. Every design traced is added to `pool` (the trade front and the nearest points see them).
+ * Every seed climbs at the screen's gm/ID step; the best of those, and each other meeting the targets, climbs on with
+ * the steps halved twice. The screen ranks pairs on estimated gain curves from a few hundred side candidates, so its
+ * pick can be far from the best nearby design. Every design traced is added to `pool` (the trade front and the
+ * nearest points see them).
  * When nothing meets the targets, the nearest points are climbed for too (nearestStage).
  */
 export function refineStage(
@@ -375,11 +376,13 @@ export function refineStage(
     if (ok(p)) met.push(p);
   };
   let overall = picked;
+  const locals: StageDesign[] = [];
   for (const seed of seeds) if (ok(seed)) met.push(seed);
   // Nothing the screen found meets the targets: one climb from the pick at the screen's step, then the climbs for
   // the nearest points; the full refinement is for designs that meet them (should one of those climbs reach one).
   for (const seed of met.length > 0 ? seeds : seeds.slice(0, 1)) {
     const local = climber.climb(seed, { better, levels: 1, scale: 1, bound, onBetter });
+    locals.push(local);
     if (local === overall || better(local, overall)) overall = local;
   }
   if (met.length === 0) {
@@ -388,7 +391,14 @@ export function refineStage(
     if (met.length === 0) return { best: overall, evaluated: climber.evaluated() + evaluated, nearest };
     for (const d of met) if (better(d, overall)) overall = d;
   }
-  const best = climber.climb(overall, { better, levels: 2, scale: 0.5, bound, onBetter });
+  // Every seed's climb meeting the targets goes on at the finer steps, not only the best: a basin behind at the
+  // screen's step can hold the better design at a finer one.
+  let best = climber.climb(overall, { better, levels: 2, scale: 0.5, bound, onBetter });
+  for (const local of new Set(locals)) {
+    if (local === overall || !ok(local)) continue;
+    const fine = climber.climb(local, { better, levels: 2, scale: 0.5, bound, onBetter });
+    if (better(fine, best)) best = fine;
+  }
   // In objective order, the first the reported trace confirms (nearly always the climb's own best).
   met.sort((a, b) => stageCompare(stage.objective, a, b));
   return { best: met.find((d) => okReported(sides, d)) ?? best, evaluated: climber.evaluated() };

@@ -21,9 +21,21 @@ export type SideKind = 'input' | 'load';
 
 /**
  * Shares of the free voltage (supply − swing) a side's screen is asked to live
- * with as headroom: two, so each side's pools span the headroom/Rout trade.
+ * with as headroom: two (more for some sides: sharesOf), so each side's pools span the headroom/Rout trade.
  */
 const SHARES: Record<SideKind, number[]> = { input: [0.35, 0.6], load: [0.35, 0.6] };
+/**
+ * A side facing a one-device side (common-source input, single load), which needs only its device's VDSsat, is
+ * also screened with nearly all and with all of the free voltage (the gain can hold a little past a side's
+ * saturation edge): the smallest pairs then often have this side at high setpoints and low gm/ID.
+ */
+const ROOMY_SHARES = [0.9, 1];
+
+/** The shares a side is screened with (see SHARES, ROOMY_SHARES). */
+function sharesOf(stage: StageSpec, kind: SideKind): number[] {
+  const other = kind === 'load' ? stage.input.topology : stage.load.topology;
+  return other === 'single' ? [...SHARES[kind], ...ROOMY_SHARES] : SHARES[kind];
+}
 
 /** One side of a stage as a stack search: its polarity, design stack voltage and the stack context it screens with. */
 export interface Side {
@@ -92,21 +104,20 @@ export function makeSide(stage: StageSpec, kind: SideKind, kit: KitAccess, suppl
  * side's share of the voltage the swing target leaves (supply − swing), and
  * the Rout each side needs for the gain target when the two are equal
  * (2·gain/gm_in at a middling gm/ID) — so its pools hold designs across the
- * headroom/Rout/area trade. A common-source input side is enumerated whole. `roomy`: screened with all the
- * headroom the side may have at once.
+ * headroom/Rout/area trade. A one-device side (common-source input, single load) is enumerated whole: one derived
+ * Rout target drops the short, low-Rout devices the smallest pairs often have (the other side making up the gain),
+ * and there are only lengths × gm/ID values. `roomy`: screened with all the headroom the side may have at once.
  */
 export function sideCandidates(stage: StageSpec, side: Side, topology: Topology, supply: number, roomy = false): Candidate[] {
   const ctx = side.ctx;
-  if (side.kind === 'input' && topology === 'single') {
-    return ctx.lengths.flatMap((l) => ctx.gmids.map((g) => ({ topology, l: [l], gmid: [g], setpoints: [] })));
-  }
+  if (topology === 'single') return singleCandidates(side);
   const free = Math.max(supply - stage.swing, 0.1);
   const [lo, hi] = headroomRange(side.vd, supply);
   const rout = (2 * stage.gain) / (12 * stage.current);
   const base = ctx.spec;
   const seen = new CandidateMap<Candidate>();
   try {
-    for (const share of roomy ? [] : SHARES[side.kind]) {
+    for (const share of roomy ? [] : sharesOf(stage, side.kind)) {
       const h = Math.min(Math.max(share * free, lo), hi);
       ctx.spec = { ...base, rout, headroom: h, span: 2 * side.vd - h };
       for (const c of screen(ctx, topology)) seen.set(seen.key(c), c);
@@ -122,6 +133,36 @@ export function sideCandidates(stage: StageSpec, side: Side, topology: Topology,
     ctx.spec = base;
   }
   return [...seen.values()];
+}
+
+/** Bisection steps for a one-device side's narrowest gm/ID: a grid step over 2^16, below the candidate key's resolution. */
+const EDGE_STEPS = 16;
+
+/**
+ * A one-device side's candidates: every table length × gm/ID, and for each length whose lowest realisable grid
+ * gm/ID has an unrealisable one below it (narrower than the minimum width, at a fixed current W falls with gm/ID),
+ * the lowest gm/ID it reaches, bisected between the two: that length's smallest device, with its highest Rout, which
+ * the smallest pair may need (the grid point above it misses the gain, the one below is too narrow).
+ */
+function singleCandidates(side: Side): Candidate[] {
+  const ctx = side.ctx;
+  const one = (l: number, g: number): Candidate => ({ topology: 'single', l: [l], gmid: [g], setpoints: [] });
+  const fits = (l: number, g: number): boolean =>
+    rangeSafe(() => sizeStackDevices({ shape: topologyOf('single'), slices: [ctx.slice(ctx.nominal, l)], gmid: [g], setpoints: [], current: ctx.spec.current, vmid: side.vd, wmin: ctx.wmin })) !== null;
+  const out: Candidate[] = [];
+  for (const l of ctx.lengths) {
+    for (const g of ctx.gmids) out.push(one(l, g));
+    const j = ctx.gmids.findIndex((g) => fits(l, g));
+    if (j < 1) continue;
+    let [lo, hi] = [ctx.gmids[j - 1], ctx.gmids[j]];
+    for (let k = 0; k < EDGE_STEPS; k++) {
+      const mid = 0.5 * (lo + hi);
+      if (fits(l, mid)) hi = mid;
+      else lo = mid;
+    }
+    out.push(one(l, hi));
+  }
+  return out;
 }
 
 /** A side candidate sized at the design point (widths, gates, area), its operating point there not yet checked (sideChecked). */
