@@ -1,0 +1,76 @@
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { sizeStack, sizeStage, type Kit } from '../src/index.js';
+import type { StackSpec, StageSpec, Topology } from '../src/design/types.js';
+import { demoKit, ensureDemoTables, REPO } from './helpers/cli.js';
+import { exhaustive } from './helpers/exhaustive.js';
+
+/**
+ * Open misses of the random audit of 2026-12-05 against the exhaustive references (tests/helpers/exhaustive.ts,
+ * tests/helpers/stage-exhaustive.ts): specs drawn near the edge of feasibility on the three demo kits, where the
+ * reference found a better design than the search does, beyond the tolerances of tests/optimal.test.ts and
+ * tests/stage-optimal.test.ts (area and Rout 5 %, headroom 5 mV, nearest points 5 %). They are known defects (issue
+ * 9), so they run only on demand: `STACKWRIGHT_AUDIT=1 npx vitest run tests/audit-open.test.ts`. A case that is fixed
+ * moves into those tests (with the exhaustive search itself) and out of tests/fixtures/audit-open.json.
+ *
+ * Stacks: the reference's better design is judged here by the reference's own code (`only`), so the check needs no
+ * grid search. Stages: the area the reference search found on the case's grid, recorded by the audit.
+ */
+
+interface StackCase {
+  case: number;
+  id: string;
+  kit: string;
+  /** What the search misses: an objective, a feasible spec called infeasible, or the nearest Rout at the headroom target. */
+  kind: 'area' | 'headroom' | 'rout' | 'infeasible' | 'nearR';
+  spec: Omit<StackSpec, 'name' | 'topology'> & { topology: Topology };
+  design: { l: number[]; gmid: number[]; setpoints: number[] };
+}
+interface StageCase {
+  case: string;
+  id: string;
+  kit: string;
+  stage: Omit<StageSpec, 'name'>;
+  /** The reference search's area on its grid (gm/ID points per device, setpoint step), m². */
+  reference: { area: number; grid: { gmidPoints: number; vStep: number } };
+}
+
+const open = JSON.parse(readFileSync(join(REPO, 'tests', 'fixtures', 'audit-open.json'), 'utf8')) as { stacks: StackCase[]; stages: StageCase[] };
+const SUPPLY: Record<string, number> = { demo180: 1.8, demo090: 1.2, reed180: 1.8 };
+const kits: Record<string, Kit> = {};
+
+describe.runIf(process.env.STACKWRIGHT_AUDIT)('open audit misses (on demand: STACKWRIGHT_AUDIT=1)', () => {
+  beforeAll(() => {
+    ensureDemoTables();
+    for (const k of Object.keys(SUPPLY)) kits[k] = demoKit(k);
+  });
+
+  for (const c of open.stacks) {
+    it(`#${c.case} ${c.id} (${c.kind})`, () => {
+      const spec: StackSpec = { name: c.id, ...c.spec };
+      const tool = sizeStack(spec, kits[c.kit], { supply: SUPPLY[c.kit], corners: ['tt'] }).results[0];
+      const judged = exhaustive(spec, kits[c.kit], c.spec.topology, 'tt', { gmidStep: 1, vStep: 1, nearest: true, only: [c.design] });
+      if (c.kind === 'nearR') {
+        expect(tool.feasible).toBe(false);
+        expect(tool.nearest?.routAtHeadroom ?? 0).toBeGreaterThanOrEqual(0.95 * judged.routAtHeadroom);
+        return;
+      }
+      const ref = judged.best;
+      expect(ref, 'the reference accepts the design').toBeDefined();
+      expect(tool.feasible).toBe(true);
+      if (c.kind === 'area') expect(tool.predicted.area).toBeLessThanOrEqual(1.05 * ref!.area);
+      if (c.kind === 'headroom') expect(tool.predicted.headroom).toBeLessThanOrEqual(ref!.headroom + 0.005);
+      if (c.kind === 'rout') expect(tool.predicted.rout).toBeGreaterThanOrEqual(0.95 * ref!.rout);
+    });
+  }
+
+  for (const c of open.stages) {
+    it(`${c.case} ${c.id}`, () => {
+      const stage: StageSpec = { name: c.case, ...c.stage };
+      const tool = sizeStage(stage, kits[c.kit], { supply: SUPPLY[c.kit], corners: ['tt'] }).results[0];
+      expect(tool.feasible).toBe(true);
+      expect(tool.predicted.area).toBeLessThanOrEqual(1.05 * c.reference.area);
+    });
+  }
+});
