@@ -170,6 +170,42 @@ const FEASIBLE: Case[] = [
     spec: { device: 'p', topology: 'triple', current: 484e-6, rout: 41.5e3, headroom: 0.4, span: 1.594, objective: 'headroom', l: { min: 0.8e-6, max: 1.3e-6 }, gmid: { min: 6, max: 22 } },
     grid: { gmidStep: 4, vStep: 0.1 },
   },
+  {
+    // Found by audit2 (seed 20261206, #580): area 218.7e-12 m² vs reference 155.3e-12 m² (tool +40.8 %).
+    // Reference design: l [1.3e-6, 800e-9], gm/ID [12, 12], setpoints [].
+    id: 'preed-cascode-stacked-area-audit2-s580', kit: 'reed180', why: 'least area under a mismatch budget',
+    spec: { device: 'p', topology: 'cascode-stacked', current: 50.1e-6, rout: 242e3, headroom: 0.535, span: 1.69, objective: 'area', l: { min: 800e-9, max: 2e-6 }, mismatch: 0.00625 },
+  },
+  {
+    // Found by audit2 (seed 20261206, #708): area 1.143e-12 m² vs reference 1.044e-12 m² (tool +9.5 %).
+    // Reference design: l [400e-9, 220e-9], gm/ID [26.9, 23.5], setpoints [].
+    id: 'n090-cascode-stacked-area-audit2-s708', kit: 'demo090', why: 'least area',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 1.04e-6, rout: 5.51e6, headroom: 0.306, span: 0.971, objective: 'area', l: { min: 220e-9, max: 400e-9 } },
+  },
+  {
+    // Found by audit2 (seed 20261206, #773): Rout 118.7e3 Ω vs reference 162.9e3 Ω (tool -27.1 %).
+    // Reference design: l [800e-9, 300e-9], gm/ID [19.413, 21.512], setpoints [].
+    id: 'preed-cascode-stacked-rout-audit2-s773', kit: 'reed180', why: 'highest Rout',
+    spec: { device: 'p', topology: 'cascode-stacked', current: 191e-6, rout: 64.7e3, headroom: 0.611, span: 1.29, objective: 'rout', l: { min: 300e-9, max: 800e-9 }, gmid: { min: 8, max: 22 } },
+  },
+  {
+    // Found by audit2 (seed 20261206, #1134): area 337.2e-12 m² vs reference 162.3e-12 m² (tool +107.8 %).
+    // Reference design: l [1e-6, 550e-9], gm/ID [17.375, 8], setpoints [].
+    id: 'n090-cascode-stacked-area-audit2-s1134', kit: 'demo090', why: 'least area',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 183e-6, rout: 86.4e3, headroom: 0.356, span: 1.11, objective: 'area', l: { min: 550e-9, max: 1e-6 }, gmid: { min: 8, max: 26 } },
+  },
+  {
+    // Found by audit2 (seed 20261206, #1452): area 1.326e-12 m² vs reference 1.176e-12 m² (tool +12.8 %).
+    // Reference design: l [300e-9, 160e-9], gm/ID [28.5, 26.25], setpoints [].
+    id: 'n090-cascode-stacked-area-audit2-s1452', kit: 'demo090', why: 'least area',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 1.31e-6, rout: 5.46e6, headroom: 0.316, span: 0.986, objective: 'area', l: { min: 160e-9, max: 300e-9 } },
+  },
+  {
+    // Found by audit2 (seed 20261206, #1510): area 41.03e-12 m² vs reference 12.98e-12 m² (tool +216.1 %).
+    // Reference design: l [2e-6, 1e-6], gm/ID [17.625, 6], setpoints [].
+    id: 'n180-cascode-stacked-area-audit2-s1510', kit: 'demo180', why: 'least area under a mismatch budget',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 2.03e-6, rout: 7.08e6, headroom: 0.256, span: 1.22, objective: 'area', l: { min: 1e-6, max: 2e-6 }, mismatch: 0.025 },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {
