@@ -206,6 +206,27 @@ const FEASIBLE: Case[] = [
     id: 'n180-cascode-stacked-area-audit2-s1510', kit: 'demo180', why: 'least area under a mismatch budget',
     spec: { device: 'n', topology: 'cascode-stacked', current: 2.03e-6, rout: 7.08e6, headroom: 0.256, span: 1.22, objective: 'area', l: { min: 1e-6, max: 2e-6 }, mismatch: 0.025 },
   },
+  {
+    // Found by audit2 (seed 20261206, #799): Rout 599.7e3 Ω vs reference 668.2e3 Ω (tool -10.3 %).
+    // Reference design: l [300e-9, 300e-9, 300e-9], gm/ID [6, 6.5, 6.5], setpoints [0.3125, 0.375].
+    id: 'nreed-triple-rout-audit2-s799', kit: 'reed180', why: 'highest Rout under a width limit',
+    spec: { device: 'n', topology: 'triple', current: 76.8e-6, rout: 377e3, headroom: 0.753, span: 1.69, objective: 'rout', l: { min: 300e-9, max: 500e-9 }, gmid: { min: 6, max: 22 }, wmax: 2.36e-6 },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
+    // Found by audit2 (seed 20261206, #1009): area 33.18e-12 m² vs reference 29.48e-12 m² (tool +12.6 %).
+    // Reference design: l [1e-6, 700e-9, 700e-9], gm/ID [12.493, 14, 9.569], setpoints [0.25, 0.6].
+    id: 'n180-triple-area-audit2-s1009', kit: 'demo180', why: 'least area under a width limit',
+    spec: { device: 'n', topology: 'triple', current: 20.9e-6, rout: 80.7e6, headroom: 0.482, span: 1.33, objective: 'area', l: { min: 700e-9, max: 1e-6 }, gmid: { min: 6, max: 22 }, wmax: 12.3e-6 },
+    grid: { gmidStep: 2, vStep: 0.05, keep: 3 },
+  },
+  {
+    // Found by audit2 (seed 20261206, #1590): tool: infeasible (binding headroom, nearest headroomAtRout 0.254 V, routAtHeadroom 165.6e3 Ω); reference: feasible, headroom 0.2482 V, Rout 106.8e3 Ω, area 16.1e-12 m².
+    // Reference design: l [220e-9, 220e-9], gm/ID [20.25, 21], setpoints [0.16875].
+    id: 'n090-cascode-rout-audit2-s1590', kit: 'demo090', why: 'the tool calls a feasible spec infeasible',
+    spec: { device: 'n', topology: 'cascode', current: 106e-6, rout: 103e3, headroom: 0.25, span: 1.11, objective: 'rout', l: { min: 90e-9, max: 220e-9 }, gmid: { min: 3, max: 21 } },
+    grid: { nearest: true },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {
@@ -438,7 +459,10 @@ const INFEASIBLE: Case[] = [
   // between the gm/ID grid's points (the lowest not realisable, the next too wide): a move of every length at once.
   {
     // 947 µA n-type under 12 µm: the reference reaches 18.8 kΩ (0.18 / 0.18 µm, gm/ID near 4.5 and 4.9 /V).
-    id: 'n-reed-cascode-nearest-all-too-wide', kit: 'reed180', why: 'nearest points when every design evaluated is too wide',
+    // Every design meeting Rout and headroom is wider than the limit (the reference, without it, finds one meeting every
+    // target): the width binds. Before the coarser second climb of a search meeting nothing, the tool met none at all
+    // and said Rout.
+    id: 'n-reed-cascode-nearest-all-too-wide', kit: 'reed180', why: 'nearest points when every design evaluated is too wide', widthBinds: true,
     spec: { device: 'n', topology: 'cascode', current: 947e-6, rout: 540e3, headroom: 0.757, span: 1.52, objective: 'area', wmax: 12e-6 },
   },
   {

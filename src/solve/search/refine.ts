@@ -94,11 +94,11 @@ export function neighbours(ctx: SolveContext, c: Candidate, gstep: number, vstep
  * Local refinement: from each seed, hill-climb over the neighbouring moves,
  * halving the gm/ID and setpoint steps when no move improves. Returns the
  * best design of all climbs by `prefer` (default: the spec's targets and
- * objective); every design it returns was evaluated exactly.
+ * objective); every design it returns was evaluated exactly. `scale`: the first steps' multiple of the usual ones.
  */
 export function refine(
   ctx: SolveContext, seeds: readonly Evaluated[], seen: Seen, pool: Evaluated[],
-  prefer?: (a: Evaluated, b: Evaluated) => boolean, hopeless?: Hopeless, rounds = CLIMB_ROUNDS,
+  prefer?: (a: Evaluated, b: Evaluated) => boolean, hopeless?: Hopeless, rounds = CLIMB_ROUNDS, scale = 1,
 ): Evaluated | undefined {
   // With the spec's own order and objective area, a move whose area is no smaller than a design meeting every
   // target cannot win: its area (from the sizing alone) spares the exact evaluation.
@@ -110,7 +110,7 @@ export function refine(
   prefer ??= (a, b) => better(ctx, a, b);
   let best: Evaluated | undefined;
   for (const seed of seeds) {
-    const local = climb(ctx, seed, seen, pool, prefer, bound, hopeless, ridge, rounds);
+    const local = climb(ctx, seed, seen, pool, prefer, bound, hopeless, ridge, rounds, scale);
     if (!best || prefer(local, best)) best = local;
   }
   return best;
@@ -183,7 +183,7 @@ const RIDGE_BOX = 2;
 function climb(
   ctx: SolveContext, seed: Evaluated, seen: Seen, pool: Evaluated[],
   better: (a: Evaluated, b: Evaluated) => boolean, bound: (best: Evaluated) => number, hopeless: Hopeless | undefined, ridge: boolean,
-  rounds: number,
+  rounds: number, scale: number,
 ): Evaluated {
   const memo = memoOf(seen);
   // One sizing per move and search serves the area bound and the width check.
@@ -215,8 +215,8 @@ function climb(
   };
 
   let best = seed;
-  let gstep = ctx.gmidStep / 2;
-  let vstep = topologyOf(best.cand.topology).refineVoltageStep;
+  let gstep = (ctx.gmidStep / 2) * scale;
+  let vstep = topologyOf(best.cand.topology).refineVoltageStep * scale;
   for (let round = 0; round < rounds; round++) {
     // One-coordinate moves first; the pair moves (many more) only when none of those improves.
     // Short of the targets, the gm/ID and setpoint moves before the length moves: a climb from such a design would
