@@ -227,6 +227,40 @@ const FEASIBLE: Case[] = [
     spec: { device: 'n', topology: 'cascode', current: 106e-6, rout: 103e3, headroom: 0.25, span: 1.11, objective: 'rout', l: { min: 90e-9, max: 220e-9 }, gmid: { min: 3, max: 21 } },
     grid: { nearest: true },
   },
+  {
+    // Found by audit2 (seed 20261206, #92): Rout 4.013e9 Ω vs reference 4.442e9 Ω (tool -9.7 %).
+    // Reference design: l [2e-6, 2e-6, 1.3e-6], gm/ID [11.95, 12.234, 14.449], setpoints [0.3, 0.3].
+    id: 'nreed-triple-rout-audit2-s92', kit: 'reed180', why: 'highest Rout under a width limit and a mismatch budget',
+    spec: { device: 'n', topology: 'triple', current: 16.6e-6, rout: 2.4e9, headroom: 0.86, span: 1.01, objective: 'rout', l: { min: 1.3e-6, max: 2e-6 }, gmid: { min: 6, max: 22 }, mismatch: 0.0151, wmax: 9.78e-6 },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
+    // Found by audit2 (seed 20261206, #373): headroom 0.439 V vs reference 0.4308 V (tool +8.2 mV).
+    // Reference design: l [300e-9, 300e-9, 300e-9], gm/ID [22, 22, 22], setpoints [0.15, 0.1375].
+    id: 'preed-triple-headroom-audit2-s373', kit: 'reed180', why: 'lowest headroom under a mismatch budget',
+    spec: { device: 'p', topology: 'triple', current: 64.6e-6, rout: 54.1e6, headroom: 0.718, span: 1.64, objective: 'headroom', l: { min: 180e-9, max: 300e-9 }, gmid: { min: 6, max: 22 }, mismatch: 0.00907 },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
+    // Found by audit2 (seed 20261206, #380): Rout 55.62e6 Ω vs reference 65e6 Ω (tool -14.4 %).
+    // Reference design: l [1.3e-6, 1.3e-6, 1.3e-6], gm/ID [16.899, 16.124, 16.594], setpoints [0.15, 0.25].
+    id: 'preed-triple-rout-audit2-s380', kit: 'reed180', why: 'highest Rout',
+    spec: { device: 'p', topology: 'triple', current: 213e-6, rout: 27.9e6, headroom: 0.561, span: 1.24, objective: 'rout', l: { min: 1.3e-6, max: 2e-6 }, gmid: { min: 6, max: 22 } },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
+    // Found by audit2 (seed 20261206, #1376): Rout 549.3e6 Ω vs reference 685.7e6 Ω (tool -19.9 %).
+    // Reference design: l [1.4e-6, 2e-6], gm/ID [29.482, 29.354], setpoints [].
+    id: 'p180-cascode-stacked-rout-audit2-s1376', kit: 'demo180', why: 'highest Rout',
+    spec: { device: 'p', topology: 'cascode-stacked', current: 5.63e-6, rout: 247e6, headroom: 0.549, span: 1.32, objective: 'rout', l: { min: 1e-6, max: 2e-6 } },
+  },
+  {
+    // Found by audit2 (seed 20261206, #1641): area 748e-15 m² vs reference 500.6e-15 m² (tool +49.4 %).
+    // Reference design: l [120e-9, 120e-9, 90e-9], gm/ID [8, 8.5, 6], setpoints [0.275, 0.2625].
+    id: 'n090-triple-area-audit2-s1641', kit: 'demo090', why: 'least area under a width limit',
+    spec: { device: 'n', topology: 'triple', current: 62e-6, rout: 206e3, headroom: 0.508, span: 0.726, objective: 'area', l: { min: 90e-9, max: 120e-9 }, gmid: { min: 6, max: 22 }, wmax: 2.35e-6 },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {

@@ -7,7 +7,7 @@ import { REL_TOL } from '../../policy.js';
 import { better, shortfall, stepTop } from './rank.js';
 import { rejudged, type Reuse, type Seen } from './reuse.js';
 import { lookAt, shortfallSurelyAbove, surelyMisses, type Look } from './quick.js';
-import { anyWider, atWidthEdge } from './width-edge.js';
+import { anyWider, atWidthEdge, raisedToLimit } from './width-edge.js';
 import { ridgeStep } from './ridge.js';
 
 export type { Seen };
@@ -175,6 +175,8 @@ export function settle(ctx: SolveContext, seen: Seen, pool: Evaluated[], stays?:
 
 // Rounds of moves per climb at most (each improves or halves the steps).
 export const CLIMB_ROUNDS = 16;
+// Climbs on from a raised length move (see climb), at most.
+const RAISED_CLIMBS = 2;
 // Ridge steps per climb at most; their difference steps (gm/ID: a grid step / 8; setpoints, V) and box (in steps).
 const RIDGE_STEPS = 8;
 const RIDGE_VSTEP = 0.00625;
@@ -215,25 +217,12 @@ function climb(
   };
 
   let best = seed;
-  let gstep = (ctx.gmidStep / 2) * scale;
-  let vstep = topologyOf(best.cand.topology).refineVoltageStep * scale;
-  for (let round = 0; round < rounds; round++) {
-    // One-coordinate moves first; the pair moves (many more) only when none of those improves.
-    // Short of the targets, the gm/ID and setpoint moves before the length moves: a climb from such a design would
-    // otherwise take a longer device for its Rout and stay on it, where a smaller design of the same lengths meets them.
-    const singles = neighbours(ctx, best.cand, gstep, vstep, false);
-    const lengths = best.cand.l;
-    const moved = (m: Candidate) => m.l.some((l, k) => l !== lengths[k]);
-    const short = !(nominalOk(best) && fullyOk(ctx, best));
-    let improved = step(short ? singles.filter((m) => !moved(m)) : singles);
-    if (!improved && short) improved = step(singles.filter(moved));
-    if (!improved) improved = step(neighbours(ctx, best.cand, gstep, vstep, true));
-    if (!improved) {
-      gstep /= 2;
-      vstep /= 2;
-      if (gstep < ctx.gmidStep / 8 && vstep < 0.003) break;
-    }
-  }
+  climbRounds();
+  // Where the climb stops, each length move with its device raised to the width limit (raisedToLimit): where the limit
+  // binds, a new length is worth most with the gm/ID that brings the device back to it, a move no step of the climb
+  // makes (the length alone leaves the device narrower, the gm/ID alone is too wide). Tried only from the climb's own
+  // answer, so it can only improve on it; when one does, the climb goes on from there.
+  for (let again = 0; again < RAISED_CLIMBS && step(raisedLengthMoves()); again++) climbRounds();
   // Stuck where several targets bind at once: steps along the ridge (search/ridge.ts), for a design meeting them.
   for (let it = 0; ridge && it < RIDGE_STEPS && nominalOk(best) && fullyOk(ctx, best); it++) {
     const c = best.cand;
@@ -245,6 +234,45 @@ function climb(
     best = r;
   }
   return best;
+
+  /** Rounds of moves from `best`, halving the steps when none improves. */
+  function climbRounds(): void {
+    let gstep = (ctx.gmidStep / 2) * scale;
+    let vstep = topologyOf(best.cand.topology).refineVoltageStep * scale;
+    for (let round = 0; round < rounds; round++) {
+      // One-coordinate moves first; the pair moves (many more) only when none of those improves.
+      // Short of the targets, the gm/ID and setpoint moves before the length moves: a climb from such a design would
+      // otherwise take a longer device for its Rout and stay on it, where a smaller design of the same lengths meets them.
+      const singles = neighbours(ctx, best.cand, gstep, vstep, false);
+      const lengths = best.cand.l;
+      const moved = (m: Candidate) => m.l.some((l, k) => l !== lengths[k]);
+      const short = !(nominalOk(best) && fullyOk(ctx, best));
+      let improved = step(short ? singles.filter((m) => !moved(m)) : singles);
+      if (!improved && short) improved = step(singles.filter(moved));
+      if (!improved) improved = step(neighbours(ctx, best.cand, gstep, vstep, true));
+      if (!improved) {
+        gstep /= 2;
+        vstep /= 2;
+        if (gstep < ctx.gmidStep / 8 && vstep < 0.003) break;
+      }
+    }
+  }
+
+  /** best's length moves, each with its device raised to the width limit (those it changes). */
+  function raisedLengthMoves(): Candidate[] {
+    const out: Candidate[] = [];
+    const c = best.cand;
+    for (let k = 0; k < c.l.length; k++) {
+      const j = nearestIndex(ctx.lengths, c.l[k]);
+      for (const l of [ctx.lengths[j - 1], ctx.lengths[j + 1]]) {
+        if (l === undefined) continue;
+        const m: Candidate = { topology: c.topology, l: c.l.map((x, i) => (i === k ? l : x)), gmid: c.gmid, setpoints: c.setpoints };
+        const r = raisedToLimit(ctx, m, k);
+        if (r) out.push(r);
+      }
+    }
+    return out;
+  }
 
   function step(moves: Candidate[]): boolean {
     let improved = false;
