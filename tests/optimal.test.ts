@@ -577,6 +577,16 @@ describe('nearest points on the edge of the width limit (exhaustive reference se
     expect(tool.nearest!.routAtHeadroom!).toBeGreaterThanOrEqual(0.95 * ref.routAtHeadroom);
     expect(tool.nearest!.routAtHeadroom!).toBeLessThanOrEqual(1.05 * ref.routAtHeadroom);
   });
+
+  it('p090-cascode-stacked-headroom-audit2-s1512: nearest Rout at the headroom target (audit2 seed 20261206 #1512)', () => {
+    // nearest.routAtHeadroom 49.8e3 Ω vs reference 65.92e3 Ω (tool -24.5 %); reference design l [750e-9, 550e-9], gm/ID [7.977, 7.569], setpoints [].
+    const spec: StackSpec = { name: 'p090-cascode-stacked-headroom-audit2-s1512', ...{ device: 'p', topology: 'cascode-stacked', current: 147e-6, rout: 31.8e3, headroom: 0.411, span: 1.05, objective: 'headroom', l: { min: 550e-9, max: 1e-6 }, mismatch: 0.0173, wmax: 47.7e-6 } };
+    const tool = sizeStack(spec, kits.demo090, { supply: SUPPLY.demo090, corners: ['tt'] }).results[0];
+    const ref = exhaustive(spec, kits.demo090, 'cascode-stacked', 'tt', { ...GRID, nearest: true });
+    expect(ref.best).toBeUndefined();
+    expect(tool.feasible).toBe(false);
+    expect(tool.nearest!.routAtHeadroom!).toBeGreaterThanOrEqual(0.95 * ref.routAtHeadroom);
+  });
 });
 
 describe('a stacked cascode with no design within the width limit (exhaustive reference search)', () => {

@@ -139,8 +139,9 @@ function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool:
   // Short of the targets, the seeds climbed again from twice the steps: Rout and headroom can vary in narrow valleys
   // along a setpoint (a few mV wide, a couple of steps apart: the headroom where the bottom leaves saturation first,
   // and again where the top does), and a climb from the screen's grid settles in the nearest, short of a target met
-  // in the next. Only for searches that meet nothing, so it costs nothing where the first climbs succeed.
-  if (!(nominalOk(best) && fullyOk(ctx, best))) {
+  // in the next. Only for searches that meet nothing, so it costs nothing where the first climbs succeed; not in the
+  // meet-only searches of the nearest points' width bisection, which repeat the search at several limits.
+  if (!ctx.meetOnly && !(nominalOk(best) && fullyOk(ctx, best))) {
     const coarse = refine(ctx, seeds, seen, pool, undefined, undefined, CLIMB_ROUNDS, 2);
     if (coarse && better(ctx, coarse, best)) best = coarse;
   }

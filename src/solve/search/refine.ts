@@ -106,11 +106,12 @@ export function refine(
   // By the spec's order nothing short of the nominal targets beats a design meeting every target; short of them,
   // a move beats one only with a smaller shortfall in rank.better's steps.
   if (!prefer) hopeless = (l, b) => (nominalOk(b) && fullyOk(ctx, b) ? surelyMisses(ctx, l) : shortfallSurelyAbove(ctx, l, stepTop(shortfall(ctx, b))));
-  const ridge = !prefer && !ctx.meetOnly;
+  // The sizing's own climbs (the spec's order, not a meet-only search) also get the ridge steps and raised length moves.
+  const sizing = !prefer && !ctx.meetOnly;
   prefer ??= (a, b) => better(ctx, a, b);
   let best: Evaluated | undefined;
   for (const seed of seeds) {
-    const local = climb(ctx, seed, seen, pool, prefer, bound, hopeless, ridge, rounds, scale);
+    const local = climb(ctx, seed, seen, pool, prefer, bound, hopeless, sizing, rounds, scale);
     if (!best || prefer(local, best)) best = local;
   }
   return best;
@@ -175,8 +176,6 @@ export function settle(ctx: SolveContext, seen: Seen, pool: Evaluated[], stays?:
 
 // Rounds of moves per climb at most (each improves or halves the steps).
 export const CLIMB_ROUNDS = 16;
-// Climbs on from a raised length move (see climb), at most.
-const RAISED_CLIMBS = 2;
 // Ridge steps per climb at most; their difference steps (gm/ID: a grid step / 8; setpoints, V) and box (in steps).
 const RIDGE_STEPS = 8;
 const RIDGE_VSTEP = 0.00625;
@@ -184,7 +183,7 @@ const RIDGE_BOX = 2;
 
 function climb(
   ctx: SolveContext, seed: Evaluated, seen: Seen, pool: Evaluated[],
-  better: (a: Evaluated, b: Evaluated) => boolean, bound: (best: Evaluated) => number, hopeless: Hopeless | undefined, ridge: boolean,
+  better: (a: Evaluated, b: Evaluated) => boolean, bound: (best: Evaluated) => number, hopeless: Hopeless | undefined, sizing: boolean,
   rounds: number, scale: number,
 ): Evaluated {
   const memo = memoOf(seen);
@@ -218,13 +217,13 @@ function climb(
 
   let best = seed;
   climbRounds();
-  // Where the climb stops, each length move with its device raised to the width limit (raisedToLimit): where the limit
-  // binds, a new length is worth most with the gm/ID that brings the device back to it, a move no step of the climb
-  // makes (the length alone leaves the device narrower, the gm/ID alone is too wide). Tried only from the climb's own
-  // answer, so it can only improve on it; when one does, the climb goes on from there.
-  for (let again = 0; again < RAISED_CLIMBS && step(raisedLengthMoves()); again++) climbRounds();
+  // Where the sizing's climb stops, each length move with its device raised to the width limit (raisedToLimit): where
+  // the limit binds, a new length is worth most with the gm/ID that brings the device back to it, a move no step of the
+  // climb makes (the length alone leaves the device narrower, the gm/ID alone is too wide). Tried only from the climb's
+  // own answer, so it can only improve on it; when one does, the climb goes on from there once.
+  if (sizing && step(raisedLengthMoves())) climbRounds();
   // Stuck where several targets bind at once: steps along the ridge (search/ridge.ts), for a design meeting them.
-  for (let it = 0; ridge && it < RIDGE_STEPS && nominalOk(best) && fullyOk(ctx, best); it++) {
+  for (let it = 0; sizing && it < RIDGE_STEPS && nominalOk(best) && fullyOk(ctx, best); it++) {
     const c = best.cand;
     const h = perCoordinate(c, ctx.gmidStep / 8, RIDGE_VSTEP);
     const lo = perCoordinate(c, ctx.gmids[0], 0.02);
