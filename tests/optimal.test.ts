@@ -170,6 +170,97 @@ const FEASIBLE: Case[] = [
     spec: { device: 'p', topology: 'triple', current: 484e-6, rout: 41.5e3, headroom: 0.4, span: 1.594, objective: 'headroom', l: { min: 0.8e-6, max: 1.3e-6 }, gmid: { min: 6, max: 22 } },
     grid: { gmidStep: 4, vStep: 0.1 },
   },
+  {
+    // Found by audit2 (seed 20261206, #580): area 218.7e-12 m² vs reference 155.3e-12 m² (tool +40.8 %).
+    // Reference design: l [1.3e-6, 800e-9], gm/ID [12, 12], setpoints [].
+    id: 'preed-cascode-stacked-area-audit2-s580', kit: 'reed180', why: 'least area under a mismatch budget',
+    spec: { device: 'p', topology: 'cascode-stacked', current: 50.1e-6, rout: 242e3, headroom: 0.535, span: 1.69, objective: 'area', l: { min: 800e-9, max: 2e-6 }, mismatch: 0.00625 },
+  },
+  {
+    // Found by audit2 (seed 20261206, #708): area 1.143e-12 m² vs reference 1.044e-12 m² (tool +9.5 %).
+    // Reference design: l [400e-9, 220e-9], gm/ID [26.9, 23.5], setpoints [].
+    id: 'n090-cascode-stacked-area-audit2-s708', kit: 'demo090', why: 'least area',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 1.04e-6, rout: 5.51e6, headroom: 0.306, span: 0.971, objective: 'area', l: { min: 220e-9, max: 400e-9 } },
+  },
+  {
+    // Found by audit2 (seed 20261206, #773): Rout 118.7e3 Ω vs reference 162.9e3 Ω (tool -27.1 %).
+    // Reference design: l [800e-9, 300e-9], gm/ID [19.413, 21.512], setpoints [].
+    id: 'preed-cascode-stacked-rout-audit2-s773', kit: 'reed180', why: 'highest Rout',
+    spec: { device: 'p', topology: 'cascode-stacked', current: 191e-6, rout: 64.7e3, headroom: 0.611, span: 1.29, objective: 'rout', l: { min: 300e-9, max: 800e-9 }, gmid: { min: 8, max: 22 } },
+  },
+  {
+    // Found by audit2 (seed 20261206, #1134): area 337.2e-12 m² vs reference 162.3e-12 m² (tool +107.8 %).
+    // Reference design: l [1e-6, 550e-9], gm/ID [17.375, 8], setpoints [].
+    id: 'n090-cascode-stacked-area-audit2-s1134', kit: 'demo090', why: 'least area',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 183e-6, rout: 86.4e3, headroom: 0.356, span: 1.11, objective: 'area', l: { min: 550e-9, max: 1e-6 }, gmid: { min: 8, max: 26 } },
+  },
+  {
+    // Found by audit2 (seed 20261206, #1452): area 1.326e-12 m² vs reference 1.176e-12 m² (tool +12.8 %).
+    // Reference design: l [300e-9, 160e-9], gm/ID [28.5, 26.25], setpoints [].
+    id: 'n090-cascode-stacked-area-audit2-s1452', kit: 'demo090', why: 'least area',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 1.31e-6, rout: 5.46e6, headroom: 0.316, span: 0.986, objective: 'area', l: { min: 160e-9, max: 300e-9 } },
+  },
+  {
+    // Found by audit2 (seed 20261206, #1510): area 41.03e-12 m² vs reference 12.98e-12 m² (tool +216.1 %).
+    // Reference design: l [2e-6, 1e-6], gm/ID [17.625, 6], setpoints [].
+    id: 'n180-cascode-stacked-area-audit2-s1510', kit: 'demo180', why: 'least area under a mismatch budget',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 2.03e-6, rout: 7.08e6, headroom: 0.256, span: 1.22, objective: 'area', l: { min: 1e-6, max: 2e-6 }, mismatch: 0.025 },
+  },
+  {
+    // Found by audit2 (seed 20261206, #799): Rout 599.7e3 Ω vs reference 668.2e3 Ω (tool -10.3 %).
+    // Reference design: l [300e-9, 300e-9, 300e-9], gm/ID [6, 6.5, 6.5], setpoints [0.3125, 0.375].
+    id: 'nreed-triple-rout-audit2-s799', kit: 'reed180', why: 'highest Rout under a width limit',
+    spec: { device: 'n', topology: 'triple', current: 76.8e-6, rout: 377e3, headroom: 0.753, span: 1.69, objective: 'rout', l: { min: 300e-9, max: 500e-9 }, gmid: { min: 6, max: 22 }, wmax: 2.36e-6 },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
+    // Found by audit2 (seed 20261206, #1009): area 33.18e-12 m² vs reference 29.48e-12 m² (tool +12.6 %).
+    // Reference design: l [1e-6, 700e-9, 700e-9], gm/ID [12.493, 14, 9.569], setpoints [0.25, 0.6].
+    id: 'n180-triple-area-audit2-s1009', kit: 'demo180', why: 'least area under a width limit',
+    spec: { device: 'n', topology: 'triple', current: 20.9e-6, rout: 80.7e6, headroom: 0.482, span: 1.33, objective: 'area', l: { min: 700e-9, max: 1e-6 }, gmid: { min: 6, max: 22 }, wmax: 12.3e-6 },
+    grid: { gmidStep: 2, vStep: 0.05, keep: 3 },
+  },
+  {
+    // Found by audit2 (seed 20261206, #1590): tool: infeasible (binding headroom, nearest headroomAtRout 0.254 V, routAtHeadroom 165.6e3 Ω); reference: feasible, headroom 0.2482 V, Rout 106.8e3 Ω, area 16.1e-12 m².
+    // Reference design: l [220e-9, 220e-9], gm/ID [20.25, 21], setpoints [0.16875].
+    id: 'n090-cascode-rout-audit2-s1590', kit: 'demo090', why: 'the tool calls a feasible spec infeasible',
+    spec: { device: 'n', topology: 'cascode', current: 106e-6, rout: 103e3, headroom: 0.25, span: 1.11, objective: 'rout', l: { min: 90e-9, max: 220e-9 }, gmid: { min: 3, max: 21 } },
+    grid: { nearest: true },
+  },
+  {
+    // Found by audit2 (seed 20261206, #92): Rout 4.013e9 Ω vs reference 4.442e9 Ω (tool -9.7 %).
+    // Reference design: l [2e-6, 2e-6, 1.3e-6], gm/ID [11.95, 12.234, 14.449], setpoints [0.3, 0.3].
+    id: 'nreed-triple-rout-audit2-s92', kit: 'reed180', why: 'highest Rout under a width limit and a mismatch budget',
+    spec: { device: 'n', topology: 'triple', current: 16.6e-6, rout: 2.4e9, headroom: 0.86, span: 1.01, objective: 'rout', l: { min: 1.3e-6, max: 2e-6 }, gmid: { min: 6, max: 22 }, mismatch: 0.0151, wmax: 9.78e-6 },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
+    // Found by audit2 (seed 20261206, #373): headroom 0.439 V vs reference 0.4308 V (tool +8.2 mV).
+    // Reference design: l [300e-9, 300e-9, 300e-9], gm/ID [22, 22, 22], setpoints [0.15, 0.1375].
+    id: 'preed-triple-headroom-audit2-s373', kit: 'reed180', why: 'lowest headroom under a mismatch budget',
+    spec: { device: 'p', topology: 'triple', current: 64.6e-6, rout: 54.1e6, headroom: 0.718, span: 1.64, objective: 'headroom', l: { min: 180e-9, max: 300e-9 }, gmid: { min: 6, max: 22 }, mismatch: 0.00907 },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
+    // Found by audit2 (seed 20261206, #380): Rout 55.62e6 Ω vs reference 65e6 Ω (tool -14.4 %).
+    // Reference design: l [1.3e-6, 1.3e-6, 1.3e-6], gm/ID [16.899, 16.124, 16.594], setpoints [0.15, 0.25].
+    id: 'preed-triple-rout-audit2-s380', kit: 'reed180', why: 'highest Rout',
+    spec: { device: 'p', topology: 'triple', current: 213e-6, rout: 27.9e6, headroom: 0.561, span: 1.24, objective: 'rout', l: { min: 1.3e-6, max: 2e-6 }, gmid: { min: 6, max: 22 } },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
+    // Found by audit2 (seed 20261206, #1376): Rout 549.3e6 Ω vs reference 685.7e6 Ω (tool -19.9 %).
+    // Reference design: l [1.4e-6, 2e-6], gm/ID [29.482, 29.354], setpoints [].
+    id: 'p180-cascode-stacked-rout-audit2-s1376', kit: 'demo180', why: 'highest Rout',
+    spec: { device: 'p', topology: 'cascode-stacked', current: 5.63e-6, rout: 247e6, headroom: 0.549, span: 1.32, objective: 'rout', l: { min: 1e-6, max: 2e-6 } },
+  },
+  {
+    // Found by audit2 (seed 20261206, #1641): area 748e-15 m² vs reference 500.6e-15 m² (tool +49.4 %).
+    // Reference design: l [120e-9, 120e-9, 90e-9], gm/ID [8, 8.5, 6], setpoints [0.275, 0.2625].
+    id: 'n090-triple-area-audit2-s1641', kit: 'demo090', why: 'least area under a width limit',
+    spec: { device: 'n', topology: 'triple', current: 62e-6, rout: 206e3, headroom: 0.508, span: 0.726, objective: 'area', l: { min: 90e-9, max: 120e-9 }, gmid: { min: 6, max: 22 }, wmax: 2.35e-6 },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {
@@ -402,7 +493,10 @@ const INFEASIBLE: Case[] = [
   // between the gm/ID grid's points (the lowest not realisable, the next too wide): a move of every length at once.
   {
     // 947 µA n-type under 12 µm: the reference reaches 18.8 kΩ (0.18 / 0.18 µm, gm/ID near 4.5 and 4.9 /V).
-    id: 'n-reed-cascode-nearest-all-too-wide', kit: 'reed180', why: 'nearest points when every design evaluated is too wide',
+    // Every design meeting Rout and headroom is wider than the limit (the reference, without it, finds one meeting every
+    // target): the width binds. Before the coarser second climb of a search meeting nothing, the tool met none at all
+    // and said Rout.
+    id: 'n-reed-cascode-nearest-all-too-wide', kit: 'reed180', why: 'nearest points when every design evaluated is too wide', widthBinds: true,
     spec: { device: 'n', topology: 'cascode', current: 947e-6, rout: 540e3, headroom: 0.757, span: 1.52, objective: 'area', wmax: 12e-6 },
   },
   {
@@ -482,6 +576,16 @@ describe('nearest points on the edge of the width limit (exhaustive reference se
     expect(Math.abs(tool.nearest!.headroomAtRout! - ref.headroomAtRout)).toBeLessThanOrEqual(0.01);
     expect(tool.nearest!.routAtHeadroom!).toBeGreaterThanOrEqual(0.95 * ref.routAtHeadroom);
     expect(tool.nearest!.routAtHeadroom!).toBeLessThanOrEqual(1.05 * ref.routAtHeadroom);
+  });
+
+  it('p090-cascode-stacked-headroom-audit2-s1512: nearest Rout at the headroom target (audit2 seed 20261206 #1512)', () => {
+    // nearest.routAtHeadroom 49.8e3 Ω vs reference 65.92e3 Ω (tool -24.5 %); reference design l [750e-9, 550e-9], gm/ID [7.977, 7.569], setpoints [].
+    const spec: StackSpec = { name: 'p090-cascode-stacked-headroom-audit2-s1512', ...{ device: 'p', topology: 'cascode-stacked', current: 147e-6, rout: 31.8e3, headroom: 0.411, span: 1.05, objective: 'headroom', l: { min: 550e-9, max: 1e-6 }, mismatch: 0.0173, wmax: 47.7e-6 } };
+    const tool = sizeStack(spec, kits.demo090, { supply: SUPPLY.demo090, corners: ['tt'] }).results[0];
+    const ref = exhaustive(spec, kits.demo090, 'cascode-stacked', 'tt', { ...GRID, nearest: true });
+    expect(ref.best).toBeUndefined();
+    expect(tool.feasible).toBe(false);
+    expect(tool.nearest!.routAtHeadroom!).toBeGreaterThanOrEqual(0.95 * ref.routAtHeadroom);
   });
 });
 

@@ -8,12 +8,12 @@ import type { KitAccess } from './kit.js';
 import { checkStageCover, checkTableCover } from './table-cover.js';
 import { makeContext, type SolveContext } from './context.js';
 import { screen } from './search/screen.js';
-import { evaluateOnce, refine, settle, type Seen } from './search/refine.js';
+import { CLIMB_ROUNDS, evaluateOnce, refine, settle, type Seen } from './search/refine.js';
 import { reuseOf, type Reuse } from './search/reuse.js';
 import { CandidateMap } from './search/candidate-map.js';
 import type { Candidate } from './search/candidate.js';
 import { evaluateCandidate, finalize, fullyOk, nominalOk, type Evaluated } from './evaluate/evaluate.js';
-import { compareDesigns, pickBest, shortfall } from './search/rank.js';
+import { better, compareDesigns, pickBest, shortfall } from './search/rank.js';
 import { emptyResult, stackResult } from './result.js';
 import { nearestPoints } from './nearest.js';
 import { chooseResult } from './choose.js';
@@ -136,6 +136,15 @@ function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool:
     if (distanceToFeasible(biased.margins) <= REACH) seeds.push(biased);
   }
   let best = refine(ctx, seeds, seen, pool) ?? first;
+  // Short of the targets, the seeds climbed again from twice the steps: Rout and headroom can vary in narrow valleys
+  // along a setpoint (a few mV wide, a couple of steps apart: the headroom where the bottom leaves saturation first,
+  // and again where the top does), and a climb from the screen's grid settles in the nearest, short of a target met
+  // in the next. Only for searches that meet nothing, so it costs nothing where the first climbs succeed; not in the
+  // meet-only searches of the nearest points' width bisection, which repeat the search at several limits.
+  if (!ctx.meetOnly && !(nominalOk(best) && fullyOk(ctx, best))) {
+    const coarse = refine(ctx, seeds, seen, pool, undefined, undefined, CLIMB_ROUNDS, 2);
+    if (coarse && better(ctx, coarse, best)) best = coarse;
+  }
   // The report uses the full curve; if that loses a target the scan met, take the next best.
   for (let tries = 0; tries < 5 && !finalize(ctx, best); tries++) {
     settle(ctx, seen, pool);

@@ -7,7 +7,7 @@ import { REL_TOL } from '../../policy.js';
 import { better, shortfall, stepTop } from './rank.js';
 import { rejudged, type Reuse, type Seen } from './reuse.js';
 import { lookAt, shortfallSurelyAbove, surelyMisses, type Look } from './quick.js';
-import { anyWider, atWidthEdge } from './width-edge.js';
+import { anyWider, atWidthEdge, raisedToLimit } from './width-edge.js';
 import { ridgeStep } from './ridge.js';
 
 export type { Seen };
@@ -94,11 +94,11 @@ export function neighbours(ctx: SolveContext, c: Candidate, gstep: number, vstep
  * Local refinement: from each seed, hill-climb over the neighbouring moves,
  * halving the gm/ID and setpoint steps when no move improves. Returns the
  * best design of all climbs by `prefer` (default: the spec's targets and
- * objective); every design it returns was evaluated exactly.
+ * objective); every design it returns was evaluated exactly. `scale`: the first steps' multiple of the usual ones.
  */
 export function refine(
   ctx: SolveContext, seeds: readonly Evaluated[], seen: Seen, pool: Evaluated[],
-  prefer?: (a: Evaluated, b: Evaluated) => boolean, hopeless?: Hopeless, rounds = CLIMB_ROUNDS,
+  prefer?: (a: Evaluated, b: Evaluated) => boolean, hopeless?: Hopeless, rounds = CLIMB_ROUNDS, scale = 1,
 ): Evaluated | undefined {
   // With the spec's own order and objective area, a move whose area is no smaller than a design meeting every
   // target cannot win: its area (from the sizing alone) spares the exact evaluation.
@@ -106,11 +106,12 @@ export function refine(
   // By the spec's order nothing short of the nominal targets beats a design meeting every target; short of them,
   // a move beats one only with a smaller shortfall in rank.better's steps.
   if (!prefer) hopeless = (l, b) => (nominalOk(b) && fullyOk(ctx, b) ? surelyMisses(ctx, l) : shortfallSurelyAbove(ctx, l, stepTop(shortfall(ctx, b))));
-  const ridge = !prefer && !ctx.meetOnly;
+  // The sizing's own climbs (the spec's order, not a meet-only search) also get the ridge steps and raised length moves.
+  const sizing = !prefer && !ctx.meetOnly;
   prefer ??= (a, b) => better(ctx, a, b);
   let best: Evaluated | undefined;
   for (const seed of seeds) {
-    const local = climb(ctx, seed, seen, pool, prefer, bound, hopeless, ridge, rounds);
+    const local = climb(ctx, seed, seen, pool, prefer, bound, hopeless, sizing, rounds, scale);
     if (!best || prefer(local, best)) best = local;
   }
   return best;
@@ -182,8 +183,8 @@ const RIDGE_BOX = 2;
 
 function climb(
   ctx: SolveContext, seed: Evaluated, seen: Seen, pool: Evaluated[],
-  better: (a: Evaluated, b: Evaluated) => boolean, bound: (best: Evaluated) => number, hopeless: Hopeless | undefined, ridge: boolean,
-  rounds: number,
+  better: (a: Evaluated, b: Evaluated) => boolean, bound: (best: Evaluated) => number, hopeless: Hopeless | undefined, sizing: boolean,
+  rounds: number, scale: number,
 ): Evaluated {
   const memo = memoOf(seen);
   // One sizing per move and search serves the area bound and the width check.
@@ -215,27 +216,14 @@ function climb(
   };
 
   let best = seed;
-  let gstep = ctx.gmidStep / 2;
-  let vstep = topologyOf(best.cand.topology).refineVoltageStep;
-  for (let round = 0; round < rounds; round++) {
-    // One-coordinate moves first; the pair moves (many more) only when none of those improves.
-    // Short of the targets, the gm/ID and setpoint moves before the length moves: a climb from such a design would
-    // otherwise take a longer device for its Rout and stay on it, where a smaller design of the same lengths meets them.
-    const singles = neighbours(ctx, best.cand, gstep, vstep, false);
-    const lengths = best.cand.l;
-    const moved = (m: Candidate) => m.l.some((l, k) => l !== lengths[k]);
-    const short = !(nominalOk(best) && fullyOk(ctx, best));
-    let improved = step(short ? singles.filter((m) => !moved(m)) : singles);
-    if (!improved && short) improved = step(singles.filter(moved));
-    if (!improved) improved = step(neighbours(ctx, best.cand, gstep, vstep, true));
-    if (!improved) {
-      gstep /= 2;
-      vstep /= 2;
-      if (gstep < ctx.gmidStep / 8 && vstep < 0.003) break;
-    }
-  }
+  climbRounds();
+  // Where the sizing's climb stops, each length move with its device raised to the width limit (raisedToLimit): where
+  // the limit binds, a new length is worth most with the gm/ID that brings the device back to it, a move no step of the
+  // climb makes (the length alone leaves the device narrower, the gm/ID alone is too wide). Tried only from the climb's
+  // own answer, so it can only improve on it; when one does, the climb goes on from there once.
+  if (sizing && step(raisedLengthMoves())) climbRounds();
   // Stuck where several targets bind at once: steps along the ridge (search/ridge.ts), for a design meeting them.
-  for (let it = 0; ridge && it < RIDGE_STEPS && nominalOk(best) && fullyOk(ctx, best); it++) {
+  for (let it = 0; sizing && it < RIDGE_STEPS && nominalOk(best) && fullyOk(ctx, best); it++) {
     const c = best.cand;
     const h = perCoordinate(c, ctx.gmidStep / 8, RIDGE_VSTEP);
     const lo = perCoordinate(c, ctx.gmids[0], 0.02);
@@ -245,6 +233,45 @@ function climb(
     best = r;
   }
   return best;
+
+  /** Rounds of moves from `best`, halving the steps when none improves. */
+  function climbRounds(): void {
+    let gstep = (ctx.gmidStep / 2) * scale;
+    let vstep = topologyOf(best.cand.topology).refineVoltageStep * scale;
+    for (let round = 0; round < rounds; round++) {
+      // One-coordinate moves first; the pair moves (many more) only when none of those improves.
+      // Short of the targets, the gm/ID and setpoint moves before the length moves: a climb from such a design would
+      // otherwise take a longer device for its Rout and stay on it, where a smaller design of the same lengths meets them.
+      const singles = neighbours(ctx, best.cand, gstep, vstep, false);
+      const lengths = best.cand.l;
+      const moved = (m: Candidate) => m.l.some((l, k) => l !== lengths[k]);
+      const short = !(nominalOk(best) && fullyOk(ctx, best));
+      let improved = step(short ? singles.filter((m) => !moved(m)) : singles);
+      if (!improved && short) improved = step(singles.filter(moved));
+      if (!improved) improved = step(neighbours(ctx, best.cand, gstep, vstep, true));
+      if (!improved) {
+        gstep /= 2;
+        vstep /= 2;
+        if (gstep < ctx.gmidStep / 8 && vstep < 0.003) break;
+      }
+    }
+  }
+
+  /** best's length moves, each with its device raised to the width limit (those it changes). */
+  function raisedLengthMoves(): Candidate[] {
+    const out: Candidate[] = [];
+    const c = best.cand;
+    for (let k = 0; k < c.l.length; k++) {
+      const j = nearestIndex(ctx.lengths, c.l[k]);
+      for (const l of [ctx.lengths[j - 1], ctx.lengths[j + 1]]) {
+        if (l === undefined) continue;
+        const m: Candidate = { topology: c.topology, l: c.l.map((x, i) => (i === k ? l : x)), gmid: c.gmid, setpoints: c.setpoints };
+        const r = raisedToLimit(ctx, m, k);
+        if (r) out.push(r);
+      }
+    }
+    return out;
+  }
 
   function step(moves: Candidate[]): boolean {
     let improved = false;

@@ -61,6 +61,20 @@ function pullToWidth(ctx: SolveContext, c: Candidate, whole: boolean): Candidate
 }
 
 /**
+ * `c` with device k raised to the highest gm/ID at which it fits the width limit, the others kept; null when it is
+ * at the top of the range or does not fit at its own gm/ID. Where the limit binds the best designs keep their devices
+ * on it, so a new length is worth most with the gm/ID that brings the device back to it.
+ */
+export function raisedToLimit(ctx: SolveContext, c: Candidate, k: number): Candidate | null {
+  const gHi = ctx.gmids[ctx.gmids.length - 1];
+  const g = c.gmid[k];
+  const d: Candidate = { topology: c.topology, l: c.l, gmid: [...c.gmid], setpoints: c.setpoints };
+  if (g >= gHi - 1e-9 || !fitsAt(ctx, d, k, g)) return null;
+  if (!fitsAt(ctx, d, k, gHi)) edgeGmid(ctx, d, k, g, gHi, EDGE_STEPS);
+  return d;
+}
+
+/**
  * Device k of `d` fits the width limit at gm/ID g (left in d.gmid[k]), the other devices as they are. Not realisable
  * counts as too wide (a gm/ID beyond what the length reaches at its bias: W = I/jd grows without bound towards it), as
  * in the exhaustive reference's width edge.
