@@ -10,5 +10,6 @@ export { TopK } from './topk.js';
 export { dominates, nonDominated } from './pareto.js';
 export { fallingRoot, type Falling } from './illinois.js';
 export { bisectionAnswer, type Trial } from './bisection-answer.js';
+export { edgeOf } from './edge.js';
 export { fallingNewton, type FallingSloped } from './safe-newton.js';
 export { vertexLp, type LpRow } from './vertex-lp.js';

@@ -13,6 +13,8 @@ import { makeContext, type SolveContext } from './context.js';
 import { screen } from './search/screen.js';
 import type { Candidate } from './search/candidate.js';
 import { CandidateMap } from './search/candidate-map.js';
+import { EDGE_STEPS } from './search/width-edge.js';
+import { edgeOf } from '../numeric/index.js';
 import { midPoint } from './evaluate/stack-eval.js';
 import { saturationMargin } from './evaluate/checks.js';
 import { rangeSafe } from './evaluate/evaluate.js';
@@ -135,9 +137,6 @@ export function sideCandidates(stage: StageSpec, side: Side, topology: Topology,
   return [...seen.values()];
 }
 
-/** Bisection steps for a one-device side's narrowest gm/ID: a grid step over 2^16, below the candidate key's resolution. */
-const EDGE_STEPS = 16;
-
 /**
  * A one-device side's candidates: every table length × gm/ID, and for each length whose lowest realisable grid
  * gm/ID has an unrealisable one below it (narrower than the minimum width, at a fixed current W falls with gm/ID),
@@ -153,14 +152,7 @@ function singleCandidates(side: Side): Candidate[] {
   for (const l of ctx.lengths) {
     for (const g of ctx.gmids) out.push(one(l, g));
     const j = ctx.gmids.findIndex((g) => fits(l, g));
-    if (j < 1) continue;
-    let [lo, hi] = [ctx.gmids[j - 1], ctx.gmids[j]];
-    for (let k = 0; k < EDGE_STEPS; k++) {
-      const mid = 0.5 * (lo + hi);
-      if (fits(l, mid)) hi = mid;
-      else lo = mid;
-    }
-    out.push(one(l, hi));
+    if (j >= 1) out.push(one(l, edgeOf((g) => fits(l, g), ctx.gmids[j], ctx.gmids[j - 1], EDGE_STEPS)));
   }
   return out;
 }

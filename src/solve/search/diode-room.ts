@@ -4,10 +4,8 @@ import type { LengthSlice } from '../../device/types.js';
 import type { SolveContext } from '../context.js';
 import { candidateWidths } from '../evaluate/evaluate.js';
 import type { Candidate } from './candidate.js';
-import { pulledToLimit } from './width-edge.js';
-
-// Bisection steps of the bottom diode's width edge over one gm/ID grid step (far below the candidate key's 1e-4 /V).
-const EDGE_STEPS = 16;
+import { EDGE_STEPS, pulledToLimit } from './width-edge.js';
+import { edgeOf } from '../../numeric/index.js';
 
 /** The diode's VGS and width at gm/ID `g` (VDS = VGS, VSB = 0), or null where the table does not reach it. */
 function diodeAt(slice: LengthSlice, g: number, current: number): { vgs: number; w: number } | null {
@@ -38,13 +36,7 @@ function allowedBottoms(ctx: SolveContext, slice: LengthSlice, wmax = ctx.wmax):
     }
   }
   if (Number.isNaN(lastFit) || Number.isNaN(firstWide)) return out;
-  let lo = lastFit;
-  let hi = firstWide;
-  for (let it = 0; it < EDGE_STEPS; it++) {
-    const m = 0.5 * (lo + hi);
-    if (fits(diodeAt(slice, m, ctx.spec.current))) lo = m;
-    else hi = m;
-  }
+  const lo = edgeOf((m) => fits(diodeAt(slice, m, ctx.spec.current)), lastFit, firstWide, EDGE_STEPS);
   const edge = diodeAt(slice, lo, ctx.spec.current);
   if (lo > lastFit && edge !== null) out.push({ g: lo, vgs: edge.vgs });
   return out;

@@ -2,10 +2,13 @@ import type { SolveContext } from '../context.js';
 import { candidateWidths } from '../evaluate/evaluate.js';
 import type { Candidate } from './candidate.js';
 import { CandidateIds } from './candidate-map.js';
+import { edgeOf } from '../../numeric/index.js';
 
-// Bisection steps per device: the gm/ID range over 2^16 is below the candidate key's 1e-4 /V resolution on any
-// range up to 6 /V, and within a few 1e-4 /V on the default range.
-const EDGE_STEPS = 16;
+/**
+ * Bisection steps of a gm/ID edge (the width limit, the minimum width): the gm/ID range over 2^16 is below the
+ * candidate key's 1e-4 /V resolution on any range up to 6 /V, and within a few 1e-4 /V on the default range.
+ */
+export const EDGE_STEPS = 16;
 
 /**
  * A refinement move with every output device wider than the width limit pulled back to the gm/ID at which it meets
@@ -90,13 +93,9 @@ export function fitsAt(ctx: SolveContext, d: Candidate, k: number, g: number): b
  * at a fixed bias W = I/jd rises with gm/ID. The fitting end is left in d.gmid[k] and returned.
  */
 export function edgeGmid(ctx: SolveContext, d: Candidate, k: number, lo: number, hi: number, steps: number): number {
-  for (let it = 0; it < steps; it++) {
-    const m = 0.5 * (lo + hi);
-    if (fitsAt(ctx, d, k, m)) lo = m;
-    else hi = m;
-  }
-  d.gmid[k] = lo;
-  return lo;
+  const g = edgeOf((m) => fitsAt(ctx, d, k, m), lo, hi, steps);
+  d.gmid[k] = g;
+  return g;
 }
 
 /** Some device of `w` is wider than `wmax`. */
