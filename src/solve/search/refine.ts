@@ -56,16 +56,11 @@ export function neighbours(ctx: SolveContext, c: Candidate, gstep: number, vstep
     else d.setpoints[k - n] = x;
   };
   const copy = (): Candidate => ({ topology: c.topology, l: [...c.l], gmid: [...c.gmid], setpoints: [...c.setpoints] });
-  for (let k = 0; k < c.l.length; k++) {
-    const j = nearestIndex(ctx.lengths, c.l[k]);
-    for (const dj of [-1, 1]) {
-      const l = ctx.lengths[j + dj];
-      if (l === undefined) continue;
-      const d = copy();
-      d.l[k] = l;
-      out.push(d);
-    }
-  }
+  lengthMoves(ctx, c, (k, l) => {
+    const d = copy();
+    d.l[k] = l;
+    out.push(d);
+  });
   const dims = n + m;
   for (let a = 0; a < dims; a++) {
     for (const sa of [-1, 1]) {
@@ -88,6 +83,17 @@ export function neighbours(ctx: SolveContext, c: Candidate, gstep: number, vstep
     }
   }
   return out;
+}
+
+/** Each device k's neighbouring table lengths l (the shorter first), device by device from the bottom: `move(k, l)`. */
+function lengthMoves(ctx: SolveContext, c: Candidate, move: (k: number, l: number) => void): void {
+  for (let k = 0; k < c.l.length; k++) {
+    const j = nearestIndex(ctx.lengths, c.l[k]);
+    for (const dj of [-1, 1]) {
+      const l = ctx.lengths[j + dj];
+      if (l !== undefined) move(k, l);
+    }
+  }
 }
 
 /**
@@ -261,15 +267,10 @@ function climb(
   function raisedLengthMoves(): Candidate[] {
     const out: Candidate[] = [];
     const c = best.cand;
-    for (let k = 0; k < c.l.length; k++) {
-      const j = nearestIndex(ctx.lengths, c.l[k]);
-      for (const l of [ctx.lengths[j - 1], ctx.lengths[j + 1]]) {
-        if (l === undefined) continue;
-        const m: Candidate = { topology: c.topology, l: c.l.map((x, i) => (i === k ? l : x)), gmid: c.gmid, setpoints: c.setpoints };
-        const r = raisedToLimit(ctx, m, k);
-        if (r) out.push(r);
-      }
-    }
+    lengthMoves(ctx, c, (k, l) => {
+      const r = raisedToLimit(ctx, { topology: c.topology, l: c.l.map((x, i) => (i === k ? l : x)), gmid: c.gmid, setpoints: c.setpoints }, k);
+      if (r) out.push(r);
+    });
     return out;
   }
 
