@@ -22,6 +22,14 @@ beforeAll(() => {
 const FINE: StageGrid = { gmidPoints: 9, vStep: 0.05 };
 const COARSE: StageGrid = { gmidPoints: 7, vStep: 0.1 };
 
+// Causes shared by several audit cases below (the search as it was before each fix).
+const WHY_SINGLE_LOAD =
+  'the single load only as the stack screen kept it for one derived Rout target: the smallest pair has a shorter load (less Rout) the input makes up for';
+const WHY_ROOMY_LOAD =
+  'over a common-source input the smallest load takes most of the free voltage (high setpoints or low gm/ID): screened with only 35 % and 60 % of it, none was kept';
+const WHY_ROOMY_STACKED =
+  'over a common-source input the smallest stacked-cascode load (top device at low gm/ID) needs all the free voltage by the screen\'s headroom estimate, though the gain holds';
+
 const cases: StageCase[] = [
   {
     id: 'n common-source input, p cascode load, gain 200', kit: 'demo180', grid: FINE,
@@ -101,42 +109,42 @@ const cases: StageCase[] = [
     // Reference pair: input l [250e-9, 350e-9], gm/ID [18, 12], setpoints [0.25]; load l [1e-6], gm/ID [8], setpoints [].
     id: 'audit2 demo180: n cascode input, p single load, gain 306 over 0.55 V (seed 20261207 #57)', kit: 'demo180', grid: { gmidPoints: 7, vStep: 0.1 },
     stage: stageOf({ gain: 306, swing: 0.55, output: 0.897, input: 'n', inputTopology: 'cascode', load: 'single', l: [250e-9, 350e-9], gmid: [8, 20], loadL: [1e-6, 1.4e-6] }),
-    why: 'the single load only as the stack screen kept it for one derived Rout target: the smallest pair has a shorter load (less Rout) the input makes up for',
+    why: WHY_SINGLE_LOAD,
   },
   {
     // Found by audit2 (seed 20261208, #405): area 6.223e-12 m² vs reference 5.34e-12 m² (tool +16.5 %).
     // Reference pair: input l [220e-9], gm/ID [17.5], setpoints []; load l [220e-9], gm/ID [10], setpoints [].
     id: 'audit2 demo090: n single input, p single load, gain 15.5 over 0.755 V (seed 20261208 #405)', kit: 'demo090', grid: { gmidPoints: 9, vStep: 0.05 },
     stage: { ...stageOf({ gain: 15.5, swing: 0.755, output: 0.642, input: 'n', inputTopology: 'single', load: 'single', l: [120e-9, 220e-9], gmid: [10, 22], loadL: [220e-9, 400e-9] }), current: 71.6e-6 },
-    why: 'the single load only as the stack screen kept it for one derived Rout target: the smallest pair has a shorter load (less Rout) the input makes up for',
+    why: WHY_SINGLE_LOAD,
   },
   {
     // Found by audit2 (seed 20261208, #409): area 2.99e-12 m² vs reference 2.484e-12 m² (tool +20.4 %).
     // Reference pair: input l [120e-9, 160e-9], gm/ID [22, 12.4], setpoints [0.15]; load l [750e-9], gm/ID [10], setpoints [].
     id: 'audit2 demo090: p cascode input, n single load, gain 110 over 0.554 V (seed 20261208 #409)', kit: 'demo090', grid: { gmidPoints: 6, vStep: 0.1 },
     stage: stageOf({ gain: 110, swing: 0.554, output: 0.713, input: 'p', inputTopology: 'cascode', load: 'single', l: [120e-9, 160e-9], gmid: [10, 22], loadL: [750e-9, 1e-6] }),
-    why: 'the single load only as the stack screen kept it for one derived Rout target: the smallest pair has a shorter load (less Rout) the input makes up for',
+    why: WHY_SINGLE_LOAD,
   },
   {
     // Found by audit2 (seed 20261208, #452): area 831.6e-15 m² vs reference 689.7e-15 m² (tool +20.6 %).
     // Reference pair: input l [160e-9], gm/ID [20.5], setpoints []; load l [220e-9], gm/ID [10], setpoints [].
     id: 'audit2 demo090: n single input, p single load, gain 13.9 over 0.612 V (seed 20261208 #452)', kit: 'demo090', grid: { gmidPoints: 9, vStep: 0.05 },
     stage: stageOf({ gain: 13.9, swing: 0.612, output: 0.684, input: 'n', inputTopology: 'single', load: 'single', l: [90e-9, 160e-9], gmid: [10, 22], loadL: [160e-9, 300e-9] }),
-    why: 'the single load only as the stack screen kept it for one derived Rout target: the smallest pair has a shorter load (less Rout) the input makes up for',
+    why: WHY_SINGLE_LOAD,
   },
   {
     // Found by audit2 (seed 20261208, #820): area 13.97e-12 m² vs reference 10.4e-12 m² (tool +34.4 %).
     // Reference pair: input l [500e-9], gm/ID [18.75], setpoints []; load l [700e-9], gm/ID [10], setpoints [].
     id: 'audit2 demo180: n single input, p single load, gain 76.4 over 0.737 V (seed 20261208 #820)', kit: 'demo180', grid: { gmidPoints: 9, vStep: 0.05 },
     stage: stageOf({ gain: 76.4, swing: 0.737, output: 1.04, input: 'n', inputTopology: 'single', load: 'single', l: [250e-9, 500e-9], gmid: [10, 24], loadL: [500e-9, 1e-6] }),
-    why: 'the single load only as the stack screen kept it for one derived Rout target: the smallest pair has a shorter load (less Rout) the input makes up for',
+    why: WHY_SINGLE_LOAD,
   },
   {
     // Found by audit2 (seed 20261208, #976): area 35.98e-12 m² vs reference 30.19e-12 m² (tool +19.2 %).
     // Reference pair: input l [1e-6], gm/ID [18], setpoints []; load l [1.4e-6], gm/ID [8], setpoints [].
     id: 'audit2 demo180: n single input, p single load, gain 178 over 1.07 V (seed 20261208 #976)', kit: 'demo180', grid: { gmidPoints: 9, vStep: 0.05 },
     stage: stageOf({ gain: 178, swing: 1.07, output: 0.953, input: 'n', inputTopology: 'single', load: 'single', l: [500e-9, 1e-6], gmid: [8, 24], loadL: [1e-6, 2e-6] }),
-    why: 'the single load only as the stack screen kept it for one derived Rout target: the smallest pair has a shorter load (less Rout) the input makes up for',
+    why: WHY_SINGLE_LOAD,
   },
   {
     // Found by audit2 (seed 20261208, #216): area 4.032e-12 m² vs reference 3.796e-12 m² (tool +6.2 %).
@@ -157,28 +165,28 @@ const cases: StageCase[] = [
     // Reference pair: input l [220e-9], gm/ID [15.6], setpoints []; load l [160e-9, 120e-9], gm/ID [10.8, 10.8], setpoints [0.25].
     id: 'audit2 demo090: n single input, p cascode load, gain 15.3 over 0.774 V (seed 20261208 #55)', kit: 'demo090', grid: { gmidPoints: 6, vStep: 0.1 },
     stage: { ...stageOf({ gain: 15.3, swing: 0.774, output: 0.56, input: 'n', inputTopology: 'single', load: 'cascode', l: [120e-9, 220e-9], gmid: [6, 18] }), current: 7.2e-6 },
-    why: 'over a common-source input the smallest load takes most of the free voltage (high setpoints or low gm/ID): screened with only 35 % and 60 % of it, none was kept',
+    why: WHY_ROOMY_LOAD,
   },
   {
     // Found by audit2 (seed 20261208, #293): area 92.61e-12 m² vs reference 67.74e-12 m² (tool +36.7 %).
     // Reference pair: input l [500e-9], gm/ID [14.667], setpoints []; load l [500e-9, 500e-9, 500e-9], gm/ID [10, 10, 10], setpoints [0.25, 0.35].
     id: 'audit2 demo180: n single input, p triple load, gain 77.8 over 1.14 V (seed 20261208 #293)', kit: 'demo180', grid: { gmidPoints: 4, vStep: 0.1 },
     stage: { ...stageOf({ gain: 77.8, swing: 1.14, output: 0.965, input: 'n', inputTopology: 'single', load: 'triple', l: [350e-9, 500e-9], gmid: [10, 24], loadL: [500e-9, 500e-9] }), current: 61.3e-6 },
-    why: 'over a common-source input the smallest load takes most of the free voltage (high setpoints or low gm/ID): screened with only 35 % and 60 % of it, none was kept',
+    why: WHY_ROOMY_LOAD,
   },
   {
     // Found by audit2 (seed 20261208, #478): area 16.2e-12 m² vs reference 14.63e-12 m² (tool +10.7 %).
     // Reference pair: input l [400e-9], gm/ID [22], setpoints []; load l [1e-6, 1e-6], gm/ID [10, 10], setpoints [].
     id: 'audit2 demo090: p single input, n cascode-stacked load, gain 65.5 over 0.502 V (seed 20261208 #478)', kit: 'demo090', grid: { gmidPoints: 6, vStep: 0.1 },
     stage: stageOf({ gain: 65.5, swing: 0.502, output: 0.712, input: 'p', inputTopology: 'single', load: 'cascode-stacked', l: [300e-9, 400e-9], gmid: [10, 22], loadL: [1e-6, 1e-6] }),
-    why: 'over a common-source input the smallest load takes most of the free voltage (high setpoints or low gm/ID): screened with only 35 % and 60 % of it, none was kept',
+    why: WHY_ROOMY_LOAD,
   },
   {
     // Found by audit2 (seed 20261208, #777): area 4.182e-12 m² vs reference 3.975e-12 m² (tool +5.2 %).
     // Reference pair: input l [350e-9], gm/ID [10.8], setpoints []; load l [700e-9, 700e-9], gm/ID [8.4, 8.4], setpoints [].
     id: 'audit2 demo180: p single input, n cascode-stacked load, gain 46.7 over 0.796 V (seed 20261208 #777)', kit: 'demo180', grid: { gmidPoints: 6, vStep: 0.1 },
     stage: stageOf({ gain: 46.7, swing: 0.796, output: 0.994, input: 'p', inputTopology: 'single', load: 'cascode-stacked', l: [250e-9, 350e-9], gmid: [6, 18], loadL: [700e-9, 700e-9] }),
-    why: 'over a common-source input the smallest load takes most of the free voltage (high setpoints or low gm/ID): screened with only 35 % and 60 % of it, none was kept',
+    why: WHY_ROOMY_LOAD,
   },
   {
     // Found by audit2 (seed 20261208, #58): area 6.341e-12 m² vs reference 5.646e-12 m² (tool +12.3 %).
@@ -192,14 +200,14 @@ const cases: StageCase[] = [
     // Reference pair: input l [700e-9], gm/ID [24], setpoints []; load l [1.4e-6, 1.4e-6], gm/ID [20.8, 8], setpoints [].
     id: 'audit2 demo180: n single input, p cascode-stacked load, gain 173 over 1.11 V (seed 20261208 #609)', kit: 'demo180', grid: { gmidPoints: 6, vStep: 0.1 },
     stage: stageOf({ gain: 173, swing: 1.11, output: 0.857, input: 'n', inputTopology: 'single', load: 'cascode-stacked', l: [500e-9, 700e-9], gmid: [8, 24], loadL: [1.4e-6, 1.4e-6] }),
-    why: 'over a common-source input the smallest stacked-cascode load (top device at low gm/ID) needs all the free voltage by the screen\'s headroom estimate, though the gain holds',
+    why: WHY_ROOMY_STACKED,
   },
   {
     // Found by audit2 (seed 20261208, #1059): area 100.4e-12 m² vs reference 93.44e-12 m² (tool +7.5 %).
     // Reference pair: input l [1.4e-6], gm/ID [22], setpoints []; load l [700e-9, 700e-9], gm/ID [14.8, 10], setpoints [].
     id: 'audit2 demo180: n single input, p cascode-stacked load, gain 200 over 1.08 V (seed 20261208 #1059)', kit: 'demo180', grid: { gmidPoints: 6, vStep: 0.1 },
     stage: stageOf({ gain: 200, swing: 1.08, output: 0.965, input: 'n', inputTopology: 'single', load: 'cascode-stacked', l: [1e-6, 1.4e-6], gmid: [10, 22], loadL: [700e-9, 700e-9] }),
-    why: 'over a common-source input the smallest stacked-cascode load (top device at low gm/ID) needs all the free voltage by the screen\'s headroom estimate, though the gain holds',
+    why: WHY_ROOMY_STACKED,
   },
 ];
 
