@@ -261,6 +261,41 @@ const FEASIBLE: Case[] = [
     spec: { device: 'n', topology: 'triple', current: 62e-6, rout: 206e3, headroom: 0.508, span: 0.726, objective: 'area', l: { min: 90e-9, max: 120e-9 }, gmid: { min: 6, max: 22 }, wmax: 2.35e-6 },
     grid: { gmidStep: 4, vStep: 0.1 },
   },
+  {
+    // Found by audit2 (seed 20261206, #545): headroom 0.623 V vs reference 0.6149 V (tool +8.1 mV).
+    // Reference design: l [800e-9, 800e-9, 800e-9], gm/ID [22, 22, 22], setpoints [0.1625, 0.225].
+    id: 'nreed-triple-headroom-audit2-s545', kit: 'reed180', why: 'lowest headroom',
+    spec: { device: 'n', topology: 'triple', current: 46.6e-6, rout: 567e6, headroom: 0.767, span: 1.08, objective: 'headroom', l: { min: 500e-9, max: 800e-9 }, gmid: { min: 6, max: 22 } },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
+    // Found by audit2 (seed 20261206, #605): Rout 40.75e6 Ω vs reference 45.04e6 Ω (tool -9.5 %).
+    // Reference design: l [250e-9, 250e-9, 250e-9], gm/ID [12.5, 22, 22], setpoints [0.2, 0.1625].
+    id: 'p180-triple-rout-audit2-s605', kit: 'demo180', why: 'highest Rout',
+    spec: { device: 'p', topology: 'triple', current: 85.1e-6, rout: 16.3e6, headroom: 0.538, span: 1.02, objective: 'rout', l: { min: 180e-9, max: 250e-9 }, gmid: { min: 6, max: 22 } },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
+    // Found by audit2 (seed 20261206, #794): headroom 0.623 V vs reference 0.6149 V (tool +8.1 mV).
+    // Reference design: l [500e-9, 500e-9, 500e-9], gm/ID [22, 22, 22], setpoints [0.16875, 0.225].
+    id: 'preed-triple-headroom-audit2-s794', kit: 'reed180', why: 'lowest headroom',
+    spec: { device: 'p', topology: 'triple', current: 4.25e-6, rout: 12.6e9, headroom: 0.725, span: 1.15, objective: 'headroom', l: { min: 300e-9, max: 500e-9 }, gmid: { min: 6, max: 22 } },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
+    // Found by audit2 (seed 20261206, #937): Rout 18.17e9 Ω vs reference 19.37e9 Ω (tool -6.2 %).
+    // Reference design: l [1.3e-6, 1.3e-6, 1.3e-6], gm/ID [17, 22, 22], setpoints [0.3, 0.225].
+    id: 'preed-triple-rout-audit2-s937', kit: 'reed180', why: 'highest Rout under a mismatch budget',
+    spec: { device: 'p', topology: 'triple', current: 19.3e-6, rout: 16.1e9, headroom: 0.751, span: 1.42, objective: 'rout', l: { min: 800e-9, max: 1.3e-6 }, gmid: { min: 6, max: 22 }, mismatch: 0.00969 },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
+    // Found by audit2 (seed 20261206, #1817): headroom 0.568 V vs reference 0.5579 V (tool +10.1 mV).
+    // Reference design: l [300e-9, 300e-9, 300e-9], gm/ID [22, 22, 22], setpoints [0.15, 0.1875].
+    id: 'preed-triple-headroom-audit2-s1817', kit: 'reed180', why: 'lowest headroom',
+    spec: { device: 'p', topology: 'triple', current: 116e-6, rout: 140e6, headroom: 0.619, span: 1.37, objective: 'headroom', l: { min: 180e-9, max: 300e-9 }, gmid: { min: 6, max: 22 } },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {
@@ -276,6 +311,25 @@ describe('sizing is optimal within the tables (exhaustive reference search)', ()
       if (c.spec.objective === 'rout') expect(tool.predicted.rout).toBeGreaterThanOrEqual(0.95 * best.rout);
     });
   }
+
+  it('n180-triple-headroom-audit2-s173: a spec the reference grid calls infeasible is met (audit2 seed 20261206 #173)', () => {
+    // The audit took it for infeasible (the tool reached 167.7e6 Ω at the headroom target, the reference 189.7e6 Ω with
+    // l [2e-6, 2e-6, 2e-6], gm/ID [22, 22, 22], setpoints [0.15, 0.15625]); with every device at the highest gm/ID
+    // the tool meets the targets, off the reference's grid. Its design, judged by the reference's own code, does too.
+    const c: Case = {
+      id: 'n180-triple-headroom-audit2-s173', kit: 'demo180', why: 'a feasible spec',
+      spec: { device: 'n', topology: 'triple', current: 35.3e-6, rout: 187e6, headroom: 0.391, span: 1.52, objective: 'headroom', l: { min: 1.4e-6, max: 2e-6 }, gmid: { min: 6, max: 22 } },
+    };
+    const spec: StackSpec = { name: c.id, ...c.spec };
+    const tool = sizeStack(spec, kits[c.kit], { supply: SUPPLY[c.kit], corners: ['tt'] }).results[0];
+    expect(tool.feasible).toBe(true);
+    expect(meetsTargets(tool, c.spec, kits[c.kit], SUPPLY[c.kit])).toBe(true);
+    const design = { l: tool.devices.map((d) => d.l), gmid: tool.devices.map((d) => d.gmid), setpoints: tool.devices.slice(0, -1).map((d) => d.vds) };
+    const judged = exhaustive(spec, kits[c.kit], 'triple', 'tt', { gmidStep: 1, vStep: 1, nearest: false, only: [design] }).best;
+    expect(judged).toBeDefined();
+    expect(judged!.headroom).toBeLessThanOrEqual(c.spec.headroom);
+    expect(judged!.rout).toBeGreaterThanOrEqual(c.spec.rout);
+  });
 });
 
 const INFEASIBLE: Case[] = [

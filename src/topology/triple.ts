@@ -13,6 +13,16 @@ function withLowSetpoint(t: ScreenTools, grid: number[]): number[] {
 }
 
 /**
+ * Every other gm/ID grid value from the lowest, the last of them moved up to the highest (as many values as every
+ * other one): the highest allowed gm/ID is where the lowest headroom and the highest Rout often sit, all three devices
+ * there with setpoints to match, and a climb from the value below reaches it only with the setpoints moved too.
+ */
+function everyOther(gmids: readonly number[]): number[] {
+  const last = gmids.length - 1;
+  return gmids.filter((_, j) => j === 0 || (j % 2 === 0 && j + 1 < last) || j === last);
+}
+
+/**
  * Best case of a group of lower devices (each taken over the group): largest ro
  * and gmt·ro, smallest area and σ; `positive` when every ro and gmt is (then
  * Rout grows with each, so the best case bounds every member).
@@ -64,7 +74,7 @@ export const triple: TopologyDescriptor = {
   screen(t) {
     // Three stages multiply: screen on every other gm/ID value and let refinement fill in.
     const grid = withLowSetpoint(t, t.setpointGrid(0.05));
-    const gm = t.gmids.filter((_, j) => j % 2 === 0);
+    const gm = everyOther(t.gmids);
     const bottoms = new Map(grid.map((s1) => [s1, t.prune(t.options({ mode: s1, vsb: 0, gmids: gm, lower: true }), t.crit.bottom)]));
     const picked: StageOption[] = [];
     const finders = new Map([...bottoms].map(([s1, b]) => [s1, new BottomFinder(b, t.mismatch)]));
