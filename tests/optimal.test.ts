@@ -290,6 +290,13 @@ const FEASIBLE: Case[] = [
     grid: { gmidStep: 4, vStep: 0.1 },
   },
   {
+    // Found by audit2 (seed 20261206, #1131): area 3.526e-12 m² vs reference 3.229e-12 m² (tool +9.2 %).
+    // Reference design: l [300e-9, 300e-9, 300e-9], gm/ID [7.464, 9.5, 7], setpoints [0.2875, 0.2375].
+    id: 'p090-triple-area-audit2-s1131', kit: 'demo090', why: 'least area under a width limit',
+    spec: { device: 'p', topology: 'triple', current: 24.1e-6, rout: 3.01e6, headroom: 0.604, span: 0.887, objective: 'area', l: { min: 300e-9, max: 400e-9 }, gmid: { min: 6, max: 22 }, wmax: 6.73e-6 },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
     // Found by audit2 (seed 20261206, #1817): headroom 0.568 V vs reference 0.5579 V (tool +10.1 mV).
     // Reference design: l [300e-9, 300e-9, 300e-9], gm/ID [22, 22, 22], setpoints [0.15, 0.1875].
     id: 'preed-triple-headroom-audit2-s1817', kit: 'reed180', why: 'lowest headroom',

@@ -186,6 +186,8 @@ export const CLIMB_ROUNDS = 16;
 const RIDGE_STEPS = 8;
 const RIDGE_VSTEP = 0.00625;
 const RIDGE_BOX = 2;
+// First steps of the climb after ridge steps, as a multiple of the usual: gm/ID a grid step / 4, as the ridge's box.
+const RIDGE_CLIMB = 0.5;
 
 function climb(
   ctx: SolveContext, seed: Evaluated, seen: Seen, pool: Evaluated[],
@@ -228,22 +230,32 @@ function climb(
   // climb makes (the length alone leaves the device narrower, the gm/ID alone is too wide). Tried only from the climb's
   // own answer, so it can only improve on it; when one does, the climb goes on from there once.
   if (sizing && step(raisedLengthMoves())) climbRounds();
-  // Stuck where several targets bind at once: steps along the ridge (search/ridge.ts), for a design meeting them.
-  for (let it = 0; sizing && it < RIDGE_STEPS && nominalOk(best) && fullyOk(ctx, best); it++) {
-    const c = best.cand;
-    const h = perCoordinate(c, ctx.gmidStep / 8, RIDGE_VSTEP);
-    const lo = perCoordinate(c, ctx.gmids[0], 0.02);
-    const hi = perCoordinate(c, ctx.gmids[ctx.gmids.length - 1], Infinity);
-    const r = ridgeStep(best, h, RIDGE_BOX, lo, hi, evaluate, better, ctx.spec.objective);
-    if (!r) break;
-    best = r;
-  }
+  // Stuck where several targets bind at once: steps along the ridge (search/ridge.ts), for a design meeting them. A
+  // ridge step can land where the climb's own moves gain again (off the ridge, e.g. a lower gm/ID bought with a
+  // higher setpoint): when the steps moved, the climb goes on from there once, with steps the size of the ridge's box.
+  if (ridgeSteps()) climbRounds(RIDGE_CLIMB);
   return best;
 
-  /** Rounds of moves from `best`, halving the steps when none improves. */
-  function climbRounds(): void {
-    let gstep = (ctx.gmidStep / 2) * scale;
-    let vstep = topologyOf(best.cand.topology).refineVoltageStep * scale;
+  /** Ridge steps from `best` (at most RIDGE_STEPS); whether any was taken. */
+  function ridgeSteps(): boolean {
+    let moved = false;
+    for (let it = 0; sizing && it < RIDGE_STEPS && nominalOk(best) && fullyOk(ctx, best); it++) {
+      const c = best.cand;
+      const h = perCoordinate(c, ctx.gmidStep / 8, RIDGE_VSTEP);
+      const lo = perCoordinate(c, ctx.gmids[0], 0.02);
+      const hi = perCoordinate(c, ctx.gmids[ctx.gmids.length - 1], Infinity);
+      const r = ridgeStep(best, h, RIDGE_BOX, lo, hi, evaluate, better, ctx.spec.objective);
+      if (!r) break;
+      best = r;
+      moved = true;
+    }
+    return moved;
+  }
+
+  /** Rounds of moves from `best`, halving the steps when none improves; `from`: the first steps' multiple of `scale`'s. */
+  function climbRounds(from = 1): void {
+    let gstep = (ctx.gmidStep / 2) * scale * from;
+    let vstep = topologyOf(best.cand.topology).refineVoltageStep * scale * from;
     for (let round = 0; round < rounds; round++) {
       // One-coordinate moves first; the pair moves (many more) only when none of those improves.
       // Short of the targets, the gm/ID and setpoint moves before the length moves: a climb from such a design would
