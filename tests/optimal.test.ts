@@ -262,6 +262,13 @@ const FEASIBLE: Case[] = [
     grid: { gmidStep: 4, vStep: 0.1 },
   },
   {
+    // Found by audit2 (seed 20261205, #92): Rout 1.985e6 Ω vs reference 2.233e6 Ω (tool -11.1 %).
+    // Reference design: l [2e-6, 2e-6, 1.3e-6], gm/ID [22, 22, 22], setpoints [0.15, 0.225].
+    id: 'nreed-triple-rout-audit2-t92', kit: 'reed180', why: 'highest Rout',
+    spec: { device: 'n', topology: 'triple', current: 154e-6, rout: 1.68e6, headroom: 0.327, span: 1.5, objective: 'rout', l: { min: 1.3e-6, max: 2e-6 }, gmid: { min: 6, max: 22 } },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
     // Found by audit2 (seed 20261206, #545): headroom 0.623 V vs reference 0.6149 V (tool +8.1 mV).
     // Reference design: l [800e-9, 800e-9, 800e-9], gm/ID [22, 22, 22], setpoints [0.1625, 0.225].
     id: 'nreed-triple-headroom-audit2-s545', kit: 'reed180', why: 'lowest headroom',

@@ -8,7 +8,7 @@ import { tightest, type Margins, type Target } from './evaluate/checks.js';
 import { meetsAll, reportedHeadroom } from '../policy.js';
 import type { Nearest } from './nearest.js';
 import { verdict, verdictOf, type Verdict } from './evaluate/verdict.js';
-import { ensureCorners, nominalOk, type Evaluated } from './evaluate/evaluate.js';
+import { ensureCorners, finalize, nominalOk, type Evaluated } from './evaluate/evaluate.js';
 import { curveFigures, type StackEval } from './evaluate/stack-eval.js';
 
 /** Absolute voltage to ground of a stack-coordinate voltage. */
@@ -153,8 +153,13 @@ function nearestMiss(ctx: SolveContext, best: Evaluated, nearest: { headroomAtRo
   return verdict('rout', s.rout, r > 0 ? r : undefined, s.headroom, ctx.nominal);
 }
 
-/** The report for one topology: the chosen design, its corners, and why it fails if it does. */
-export function stackResult(ctx: SolveContext, best: Evaluated, pool: Evaluated[], evaluated: () => number, nearest: () => Nearest): StackResult {
+/**
+ * The report for one topology: the chosen design, its corners, and why it fails if it does. `climb`: a climb by the
+ * spec's order from a design the nearest scan found meeting every target.
+ */
+export function stackResult(
+  ctx: SolveContext, best: Evaluated, pool: Evaluated[], evaluated: () => number, nearest: () => Nearest, climb?: (e: Evaluated) => Evaluated,
+): StackResult {
   const { spec, supply } = ctx;
   let corners = cornerResults(ctx, best);
   let near: Nearest | undefined;
@@ -166,7 +171,16 @@ export function stackResult(ctx: SolveContext, best: Evaluated, pool: Evaluated[
       corners = cornerResults(ctx, best);
       // The nearest scan can reach a design meeting every target at every corner that the search missed: then
       // the stack is feasible, and its verdict, corner rows and figures all say so (one verdict, not two).
-      if (corners.every((c) => c.feasible)) near = undefined;
+      if (corners.every((c) => c.feasible)) {
+        near = undefined;
+        // It was found for the nearest point, not the objective: the search's climb goes on from it (kept only when
+        // the full curve confirms the targets).
+        const climbed = climb?.(best);
+        if (climbed && climbed !== best && finalize(ctx, climbed)) {
+          best = climbed;
+          corners = cornerResults(ctx, best);
+        }
+      }
     }
   }
   const feasible = near === undefined;

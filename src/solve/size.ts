@@ -164,7 +164,7 @@ function sizeTopology(ctx: SolveContext, topology: Topology): { result: StackRes
     const reuse = reuseOf(r.seen);
     return nearestPoints(ctx, topology, r.pool, r.seen, (w) => fitsWithin(ctx, topology, w, reuse));
   };
-  if (run) return { result: stackResult(ctx, run.best, run.pool, counted, nearOf(run)), pool: run.pool };
+  if (run) return { result: stackResult(ctx, run.best, run.pool, counted, nearOf(run), (e) => refine(ctx, [e], run.seen, run.pool) ?? e), pool: run.pool };
   // Nothing with saturated lower devices on the screen's grid: search again with them allowed, so refinement
   // can still reach a saturated design or, failing that, show the nearest one failing on saturation.
   // Only saturated designs go on the front.
