@@ -209,6 +209,13 @@ const cases: StageCase[] = [
     stage: stageOf({ gain: 200, swing: 1.08, output: 0.965, input: 'n', inputTopology: 'single', load: 'cascode-stacked', l: [1e-6, 1.4e-6], gmid: [10, 22], loadL: [700e-9, 700e-9] }),
     why: WHY_ROOMY_STACKED,
   },
+  {
+    // Found by audit2 (seed 20261208, #51): area 45.08e-12 m² vs reference 42.28e-12 m² (tool +6.6 %).
+    // Reference pair: input l [250e-9, 250e-9], gm/ID [19.333, 24], setpoints [0.35]; load l [2e-6, 2e-6], gm/ID [10, 10], setpoints [0.35].
+    id: 'audit2 demo180: p cascode input, n cascode load, gain 2140 over 0.635 V (seed 20261208 #51)', kit: 'demo180', grid: { gmidPoints: 4, vStep: 0.1 },
+    stage: stageOf({ gain: 2.14e3, swing: 0.635, output: 0.91, input: 'p', inputTopology: 'cascode', load: 'cascode', l: [180e-9, 250e-9], gmid: [10, 24], loadL: [2e-6, 2e-6] }),
+    why: 'the smallest pair has its input at high gm/ID (gm makes the gain with less Rout), which the input screen ranking by area never kept',
+  },
 ];
 
 describe('gain-stage search against an exhaustive reference (objective area, tt)', () => {

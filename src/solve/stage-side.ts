@@ -124,6 +124,15 @@ export function sideCandidates(stage: StageSpec, side: Side, topology: Topology,
       ctx.spec = { ...base, rout, headroom: h, span: 2 * side.vd - h };
       for (const c of screen(ctx, topology)) seen.set(seen.key(c), c);
     }
+    // The input side's gain is gm·Rout, its gm set by the input device's gm/ID: at the top of the range it needs the
+    // least Rout, and a stack screen ranking by area alone never proposes it (a higher gm/ID only costs width). Such
+    // inputs, at their least headroom, leave the load the most room, which the smallest pairs often spend on a long
+    // load at low gm/ID: screened once more with the Rout target at the top gm/ID and the least headroom allowed.
+    if (!roomy && side.kind === 'input') {
+      const top = ctx.gmids[ctx.gmids.length - 1];
+      ctx.spec = { ...base, rout: (2 * stage.gain) / (top * stage.current), headroom: lo, span: 2 * side.vd - lo };
+      for (const c of screen(ctx, topology)) seen.set(seen.key(c), c);
+    }
     // A wide swing target can leave a share too small for any design of the topology (a triple's lower devices
     // need their VDSsat each) although the stage still holds its gain past the load's saturation edge: then the
     // side is screened with all the headroom it may have, and the traced pairs say what the stage reaches.
