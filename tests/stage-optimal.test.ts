@@ -27,6 +27,8 @@ const WHY_SINGLE_LOAD =
   'the single load only as the stack screen kept it for one derived Rout target: the smallest pair has a shorter load (less Rout) the input makes up for';
 const WHY_ROOMY_LOAD =
   'over a common-source input the smallest load takes most of the free voltage (high setpoints or low gm/ID): screened with only 35 % and 60 % of it, none was kept';
+const WHY_LEAN_INPUT_ROOM =
+  'a lean cascode input (high gm/ID, low setpoint) leaves a stacked-cascode load more room than its shares of the free voltage, which the smallest pair spends on a long load at low gm/ID';
 const WHY_ROOMY_STACKED =
   'over a common-source input the smallest stacked-cascode load (top device at low gm/ID) needs all the free voltage by the screen\'s headroom estimate, though the gain holds';
 
@@ -215,6 +217,20 @@ const cases: StageCase[] = [
     id: 'audit2 demo180: p cascode input, n cascode load, gain 2140 over 0.635 V (seed 20261208 #51)', kit: 'demo180', grid: { gmidPoints: 4, vStep: 0.1 },
     stage: stageOf({ gain: 2.14e3, swing: 0.635, output: 0.91, input: 'p', inputTopology: 'cascode', load: 'cascode', l: [180e-9, 250e-9], gmid: [10, 24], loadL: [2e-6, 2e-6] }),
     why: 'the smallest pair has its input at high gm/ID (gm makes the gain with less Rout), which the input screen ranking by area never kept',
+  },
+  {
+    // Found by audit2 (seed 20261208, #416): area 34.55e-12 m² vs reference 25.76e-12 m² (tool +34.1 %).
+    // Reference pair: input l [250e-9, 250e-9], gm/ID [22, 22], setpoints [0.15]; load l [700e-9, 700e-9], gm/ID [14, 10], setpoints [].
+    id: 'audit2 demo180: n cascode input, p cascode-stacked load, gain 1010 over 0.719 V (seed 20261208 #416)', kit: 'demo180', grid: { gmidPoints: 4, vStep: 0.1 },
+    stage: stageOf({ gain: 1.01e3, swing: 0.719, output: 1.05, input: 'n', inputTopology: 'cascode', load: 'cascode-stacked', l: [180e-9, 250e-9], gmid: [10, 22], loadL: [700e-9, 700e-9] }),
+    why: WHY_LEAN_INPUT_ROOM,
+  },
+  {
+    // Found by audit2 (seed 20261208, #453): area 21.07e-12 m² vs reference 18.56e-12 m² (tool +13.5 %).
+    // Reference pair: input l [250e-9, 250e-9], gm/ID [20, 20], setpoints [0.15]; load l [500e-9, 500e-9], gm/ID [16, 12], setpoints [].
+    id: 'audit2 demo180: n cascode input, p cascode-stacked load, gain 721 over 0.792 V (seed 20261208 #453)', kit: 'demo180', grid: { gmidPoints: 4, vStep: 0.1 },
+    stage: stageOf({ gain: 721, swing: 0.792, output: 1.08, input: 'n', inputTopology: 'cascode', load: 'cascode-stacked', l: [180e-9, 250e-9], gmid: [8, 20], loadL: [500e-9, 500e-9] }),
+    why: WHY_LEAN_INPUT_ROOM,
   },
 ];
 

@@ -32,6 +32,8 @@ const SHARES: Record<SideKind, number[]> = { input: [0.35, 0.6], load: [0.35, 0.
  * saturation edge): the smallest pairs then often have this side at high setpoints and low gm/ID.
  */
 const ROOMY_SHARES = [0.9, 1];
+/** How far the room the leanest input leaves must exceed the load's largest share to be screened on its own, V. */
+const ROOM_MIN = 0.02;
 
 /** The shares a side is screened with (see SHARES, ROOMY_SHARES). */
 function sharesOf(stage: StageSpec, kind: SideKind): number[] {
@@ -144,6 +146,45 @@ export function sideCandidates(stage: StageSpec, side: Side, topology: Topology,
     ctx.spec = base;
   }
   return [...seen.values()];
+}
+
+/**
+ * The room one input design leaves the load: the free voltage less the least stack voltage the input needs below
+ * the output for its own gain (gm·Rout of the side alone, above any pair's) to reach the target, read off its curve
+ * on the output grid. Undefined unless that is more than the load's largest share gave it (by ROOM_MIN): such an
+ * input (high gm/ID, low setpoint) lets the load spend the rest on a long device at low gm/ID.
+ */
+export function roomLeft(input: Side, d: SideDesign, vs: Float64Array, j0: number, stage: StageSpec, supply: number): number | undefined {
+  const gm = d.gm as Float64Array;
+  const holds = (j: number) => j >= 0 && j < vs.length && gm[j] * d.rout[j] >= stage.gain;
+  if (!holds(j0)) return undefined;
+  // Towards a lower input stack voltage: down the output grid for an n input, up for a p input.
+  const dir = input.device === 'n' ? -1 : 1;
+  let j = j0;
+  while (holds(j + dir)) j += dir;
+  const free = Math.max(supply - stage.swing, 0.1);
+  const room = free - sideVoltage(input.device, supply, vs[j]);
+  return room > Math.max(...sharesOf(stage, 'load')) * free + ROOM_MIN ? room : undefined;
+}
+
+/**
+ * A stacked-cascode load's candidates screened with `room` as its headroom (see roomLeft). Its headroom is set by
+ * its devices' gm/ID alone (VGS of the bottom one, VDSsat of the top), with no setpoint to trade, so the screens at
+ * the shares never reach its low-gm/ID designs. Loads with setpoints are not screened so: their screens grow with
+ * the headroom (every split of it among the setpoints), for a cost the demo's auto load would pay on each topology.
+ */
+export function roomCandidates(stage: StageSpec, side: Side, topology: Topology, supply: number, room: number): Candidate[] {
+  if (topology !== 'cascode-stacked') return [];
+  const ctx = side.ctx;
+  const [lo, hi] = headroomRange(side.vd, supply);
+  const h = Math.min(Math.max(room, lo), hi);
+  const base = ctx.spec;
+  try {
+    ctx.spec = { ...base, rout: (2 * stage.gain) / (12 * stage.current), headroom: h, span: 2 * side.vd - h };
+    return screen(ctx, topology);
+  } finally {
+    ctx.spec = base;
+  }
 }
 
 /**
