@@ -29,6 +29,8 @@ const WHY_ROOMY_LOAD =
   'over a common-source input the smallest load takes most of the free voltage (high setpoints or low gm/ID): screened with only 35 % and 60 % of it, none was kept';
 const WHY_LEAN_INPUT_ROOM =
   'a lean cascode input (high gm/ID, low setpoint) leaves a stacked-cascode load more room than its shares of the free voltage, which the smallest pair spends on a long load at low gm/ID';
+const WHY_INPUT_MIDPOINT =
+  'the smallest pair has its common-source input between the gm/ID grid points (its gm sets the gain), and the climb moving one side at a time does not get there';
 const WHY_ROOMY_STACKED =
   'over a common-source input the smallest stacked-cascode load (top device at low gm/ID) needs all the free voltage by the screen\'s headroom estimate, though the gain holds';
 
@@ -231,6 +233,27 @@ const cases: StageCase[] = [
     id: 'audit2 demo180: n cascode input, p cascode-stacked load, gain 721 over 0.792 V (seed 20261208 #453)', kit: 'demo180', grid: { gmidPoints: 4, vStep: 0.1 },
     stage: stageOf({ gain: 721, swing: 0.792, output: 1.08, input: 'n', inputTopology: 'cascode', load: 'cascode-stacked', l: [180e-9, 250e-9], gmid: [8, 20], loadL: [500e-9, 500e-9] }),
     why: WHY_LEAN_INPUT_ROOM,
+  },
+  {
+    // Found by audit2 (seed 20261208, #130): area 6.337e-12 m² vs reference 5.783e-12 m² (tool +9.6 %).
+    // Reference pair: input l [550e-9], gm/ID [14.8], setpoints []; load l [90e-9, 90e-9], gm/ID [22, 22], setpoints [].
+    id: 'audit2 demo090: p single input, n cascode-stacked load, gain 26.1 over 0.604 V (seed 20261208 #130)', kit: 'demo090', grid: { gmidPoints: 6, vStep: 0.1 },
+    stage: stageOf({ gain: 26.1, swing: 0.604, output: 0.489, input: 'p', inputTopology: 'single', load: 'cascode-stacked', l: [550e-9, 750e-9], gmid: [10, 22], loadL: [90e-9, 90e-9] }),
+    why: WHY_INPUT_MIDPOINT,
+  },
+  {
+    // Found by audit2 (seed 20261208, #283): area 9.355e-12 m² vs reference 8.809e-12 m² (tool +6.2 %).
+    // Reference pair: input l [550e-9], gm/ID [17.2], setpoints []; load l [160e-9, 160e-9], gm/ID [10, 17.2], setpoints [0.25].
+    id: 'audit2 demo090: p single input, n cascode load, gain 81.3 over 0.448 V (seed 20261208 #283)', kit: 'demo090', grid: { gmidPoints: 6, vStep: 0.1 },
+    stage: stageOf({ gain: 81.3, swing: 0.448, output: 0.616, input: 'p', inputTopology: 'single', load: 'cascode', l: [300e-9, 550e-9], gmid: [10, 22], loadL: [90e-9, 160e-9] }),
+    why: WHY_INPUT_MIDPOINT,
+  },
+  {
+    // Found by audit2 (seed 20261208, #613): area 7.821e-12 m² vs reference 7.426e-12 m² (tool +5.3 %).
+    // Reference pair: input l [1e-6], gm/ID [12.4], setpoints []; load l [180e-9, 180e-9], gm/ID [12.4, 15.6], setpoints [].
+    id: 'audit2 demo180: n single input, p cascode-stacked load, gain 159 over 0.735 V (seed 20261208 #613)', kit: 'demo180', grid: { gmidPoints: 6, vStep: 0.1 },
+    stage: stageOf({ gain: 159, swing: 0.735, output: 0.773, input: 'n', inputTopology: 'single', load: 'cascode-stacked', l: [700e-9, 1e-6], gmid: [6, 22], loadL: [180e-9, 180e-9] }),
+    why: WHY_INPUT_MIDPOINT,
   },
 ];
 

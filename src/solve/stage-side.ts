@@ -188,10 +188,11 @@ export function roomCandidates(stage: StageSpec, side: Side, topology: Topology,
 }
 
 /**
- * A one-device side's candidates: every table length × gm/ID, and for each length whose lowest realisable grid
- * gm/ID has an unrealisable one below it (narrower than the minimum width, at a fixed current W falls with gm/ID),
- * the lowest gm/ID it reaches, bisected between the two: that length's smallest device, with its highest Rout, which
- * the smallest pair may need (the grid point above it misses the gain, the one below is too narrow).
+ * A one-device side's candidates: every table length × gm/ID (an input's also halfway between the grid's), and for
+ * each length whose lowest realisable grid gm/ID has an unrealisable one below it (narrower than the minimum width,
+ * at a fixed current W falls with gm/ID), the lowest gm/ID it reaches, bisected between the two: that length's
+ * smallest device, with its highest Rout, which the smallest pair may need (the grid point above it misses the gain,
+ * the one below is too narrow).
  */
 function singleCandidates(side: Side): Candidate[] {
   const ctx = side.ctx;
@@ -201,6 +202,10 @@ function singleCandidates(side: Side): Candidate[] {
   const out: Candidate[] = [];
   for (const l of ctx.lengths) {
     for (const g of ctx.gmids) out.push(one(l, g));
+    // A common-source input's gm/ID sets its gm, so the stage's gain, in steps of several percent; the smallest pair,
+    // holding the gain and swing with little to spare, often has it between the grid points: also the midpoints
+    // (the climb's halved steps move one side at a time, and the load must move with it).
+    if (side.kind === 'input') for (let k = 1; k < ctx.gmids.length; k++) out.push(one(l, 0.5 * (ctx.gmids[k - 1] + ctx.gmids[k])));
     const j = ctx.gmids.findIndex((g) => fits(l, g));
     if (j >= 1) out.push(one(l, edgeOf((g) => fits(l, g), ctx.gmids[j], ctx.gmids[j - 1], EDGE_STEPS)));
   }
