@@ -27,6 +27,10 @@ const WHY_SINGLE_LOAD =
   'the single load only as the stack screen kept it for one derived Rout target: the smallest pair has a shorter load (less Rout) the input makes up for';
 const WHY_ROOMY_LOAD =
   'over a common-source input the smallest load takes most of the free voltage (high setpoints or low gm/ID): screened with only 35 % and 60 % of it, none was kept';
+const WHY_LEAN_INPUT_ROOM =
+  'a lean cascode input (high gm/ID, low setpoint) leaves a stacked-cascode load more room than its shares of the free voltage, which the smallest pair spends on a long load at low gm/ID';
+const WHY_INPUT_MIDPOINT =
+  'the smallest pair has its common-source input between the gm/ID grid points (its gm sets the gain), and the climb moving one side at a time does not get there';
 const WHY_ROOMY_STACKED =
   'over a common-source input the smallest stacked-cascode load (top device at low gm/ID) needs all the free voltage by the screen\'s headroom estimate, though the gain holds';
 
@@ -208,6 +212,48 @@ const cases: StageCase[] = [
     id: 'audit2 demo180: n single input, p cascode-stacked load, gain 200 over 1.08 V (seed 20261208 #1059)', kit: 'demo180', grid: { gmidPoints: 6, vStep: 0.1 },
     stage: stageOf({ gain: 200, swing: 1.08, output: 0.965, input: 'n', inputTopology: 'single', load: 'cascode-stacked', l: [1e-6, 1.4e-6], gmid: [10, 22], loadL: [700e-9, 700e-9] }),
     why: WHY_ROOMY_STACKED,
+  },
+  {
+    // Found by audit2 (seed 20261208, #51): area 45.08e-12 m² vs reference 42.28e-12 m² (tool +6.6 %).
+    // Reference pair: input l [250e-9, 250e-9], gm/ID [19.333, 24], setpoints [0.35]; load l [2e-6, 2e-6], gm/ID [10, 10], setpoints [0.35].
+    id: 'audit2 demo180: p cascode input, n cascode load, gain 2140 over 0.635 V (seed 20261208 #51)', kit: 'demo180', grid: { gmidPoints: 4, vStep: 0.1 },
+    stage: stageOf({ gain: 2.14e3, swing: 0.635, output: 0.91, input: 'p', inputTopology: 'cascode', load: 'cascode', l: [180e-9, 250e-9], gmid: [10, 24], loadL: [2e-6, 2e-6] }),
+    why: 'the smallest pair has its input at high gm/ID (gm makes the gain with less Rout), which the input screen ranking by area never kept',
+  },
+  {
+    // Found by audit2 (seed 20261208, #416): area 34.55e-12 m² vs reference 25.76e-12 m² (tool +34.1 %).
+    // Reference pair: input l [250e-9, 250e-9], gm/ID [22, 22], setpoints [0.15]; load l [700e-9, 700e-9], gm/ID [14, 10], setpoints [].
+    id: 'audit2 demo180: n cascode input, p cascode-stacked load, gain 1010 over 0.719 V (seed 20261208 #416)', kit: 'demo180', grid: { gmidPoints: 4, vStep: 0.1 },
+    stage: stageOf({ gain: 1.01e3, swing: 0.719, output: 1.05, input: 'n', inputTopology: 'cascode', load: 'cascode-stacked', l: [180e-9, 250e-9], gmid: [10, 22], loadL: [700e-9, 700e-9] }),
+    why: WHY_LEAN_INPUT_ROOM,
+  },
+  {
+    // Found by audit2 (seed 20261208, #453): area 21.07e-12 m² vs reference 18.56e-12 m² (tool +13.5 %).
+    // Reference pair: input l [250e-9, 250e-9], gm/ID [20, 20], setpoints [0.15]; load l [500e-9, 500e-9], gm/ID [16, 12], setpoints [].
+    id: 'audit2 demo180: n cascode input, p cascode-stacked load, gain 721 over 0.792 V (seed 20261208 #453)', kit: 'demo180', grid: { gmidPoints: 4, vStep: 0.1 },
+    stage: stageOf({ gain: 721, swing: 0.792, output: 1.08, input: 'n', inputTopology: 'cascode', load: 'cascode-stacked', l: [180e-9, 250e-9], gmid: [8, 20], loadL: [500e-9, 500e-9] }),
+    why: WHY_LEAN_INPUT_ROOM,
+  },
+  {
+    // Found by audit2 (seed 20261208, #130): area 6.337e-12 m² vs reference 5.783e-12 m² (tool +9.6 %).
+    // Reference pair: input l [550e-9], gm/ID [14.8], setpoints []; load l [90e-9, 90e-9], gm/ID [22, 22], setpoints [].
+    id: 'audit2 demo090: p single input, n cascode-stacked load, gain 26.1 over 0.604 V (seed 20261208 #130)', kit: 'demo090', grid: { gmidPoints: 6, vStep: 0.1 },
+    stage: stageOf({ gain: 26.1, swing: 0.604, output: 0.489, input: 'p', inputTopology: 'single', load: 'cascode-stacked', l: [550e-9, 750e-9], gmid: [10, 22], loadL: [90e-9, 90e-9] }),
+    why: WHY_INPUT_MIDPOINT,
+  },
+  {
+    // Found by audit2 (seed 20261208, #283): area 9.355e-12 m² vs reference 8.809e-12 m² (tool +6.2 %).
+    // Reference pair: input l [550e-9], gm/ID [17.2], setpoints []; load l [160e-9, 160e-9], gm/ID [10, 17.2], setpoints [0.25].
+    id: 'audit2 demo090: p single input, n cascode load, gain 81.3 over 0.448 V (seed 20261208 #283)', kit: 'demo090', grid: { gmidPoints: 6, vStep: 0.1 },
+    stage: stageOf({ gain: 81.3, swing: 0.448, output: 0.616, input: 'p', inputTopology: 'single', load: 'cascode', l: [300e-9, 550e-9], gmid: [10, 22], loadL: [90e-9, 160e-9] }),
+    why: WHY_INPUT_MIDPOINT,
+  },
+  {
+    // Found by audit2 (seed 20261208, #613): area 7.821e-12 m² vs reference 7.426e-12 m² (tool +5.3 %).
+    // Reference pair: input l [1e-6], gm/ID [12.4], setpoints []; load l [180e-9, 180e-9], gm/ID [12.4, 15.6], setpoints [].
+    id: 'audit2 demo180: n single input, p cascode-stacked load, gain 159 over 0.735 V (seed 20261208 #613)', kit: 'demo180', grid: { gmidPoints: 6, vStep: 0.1 },
+    stage: stageOf({ gain: 159, swing: 0.735, output: 0.773, input: 'n', inputTopology: 'single', load: 'cascode-stacked', l: [700e-9, 1e-6], gmid: [6, 22], loadL: [180e-9, 180e-9] }),
+    why: WHY_INPUT_MIDPOINT,
   },
 ];
 

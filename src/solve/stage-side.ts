@@ -32,6 +32,8 @@ const SHARES: Record<SideKind, number[]> = { input: [0.35, 0.6], load: [0.35, 0.
  * saturation edge): the smallest pairs then often have this side at high setpoints and low gm/ID.
  */
 const ROOMY_SHARES = [0.9, 1];
+/** How far the room the leanest input leaves must exceed the load's largest share to be screened on its own, V. */
+const ROOM_MIN = 0.02;
 
 /** The shares a side is screened with (see SHARES, ROOMY_SHARES). */
 function sharesOf(stage: StageSpec, kind: SideKind): number[] {
@@ -124,6 +126,15 @@ export function sideCandidates(stage: StageSpec, side: Side, topology: Topology,
       ctx.spec = { ...base, rout, headroom: h, span: 2 * side.vd - h };
       for (const c of screen(ctx, topology)) seen.set(seen.key(c), c);
     }
+    // The input side's gain is gm·Rout, its gm set by the input device's gm/ID: at the top of the range it needs the
+    // least Rout, and a stack screen ranking by area alone never proposes it (a higher gm/ID only costs width). Such
+    // inputs, at their least headroom, leave the load the most room, which the smallest pairs often spend on a long
+    // load at low gm/ID: screened once more with the Rout target at the top gm/ID and the least headroom allowed.
+    if (!roomy && side.kind === 'input') {
+      const top = ctx.gmids[ctx.gmids.length - 1];
+      ctx.spec = { ...base, rout: (2 * stage.gain) / (top * stage.current), headroom: lo, span: 2 * side.vd - lo };
+      for (const c of screen(ctx, topology)) seen.set(seen.key(c), c);
+    }
     // A wide swing target can leave a share too small for any design of the topology (a triple's lower devices
     // need their VDSsat each) although the stage still holds its gain past the load's saturation edge: then the
     // side is screened with all the headroom it may have, and the traced pairs say what the stage reaches.
@@ -138,10 +149,50 @@ export function sideCandidates(stage: StageSpec, side: Side, topology: Topology,
 }
 
 /**
- * A one-device side's candidates: every table length × gm/ID, and for each length whose lowest realisable grid
- * gm/ID has an unrealisable one below it (narrower than the minimum width, at a fixed current W falls with gm/ID),
- * the lowest gm/ID it reaches, bisected between the two: that length's smallest device, with its highest Rout, which
- * the smallest pair may need (the grid point above it misses the gain, the one below is too narrow).
+ * The room one input design leaves the load: the free voltage less the least stack voltage the input needs below
+ * the output for its own gain (gm·Rout of the side alone, above any pair's) to reach the target, read off its curve
+ * on the output grid. Undefined unless that is more than the load's largest share gave it (by ROOM_MIN): such an
+ * input (high gm/ID, low setpoint) lets the load spend the rest on a long device at low gm/ID.
+ */
+export function roomLeft(input: Side, d: SideDesign, vs: Float64Array, j0: number, stage: StageSpec, supply: number): number | undefined {
+  const gm = d.gm as Float64Array;
+  const holds = (j: number) => j >= 0 && j < vs.length && gm[j] * d.rout[j] >= stage.gain;
+  if (!holds(j0)) return undefined;
+  // Towards a lower input stack voltage: down the output grid for an n input, up for a p input.
+  const dir = input.device === 'n' ? -1 : 1;
+  let j = j0;
+  while (holds(j + dir)) j += dir;
+  const free = Math.max(supply - stage.swing, 0.1);
+  const room = free - sideVoltage(input.device, supply, vs[j]);
+  return room > Math.max(...sharesOf(stage, 'load')) * free + ROOM_MIN ? room : undefined;
+}
+
+/**
+ * A stacked-cascode load's candidates screened with `room` as its headroom (see roomLeft). Its headroom is set by
+ * its devices' gm/ID alone (VGS of the bottom one, VDSsat of the top), with no setpoint to trade, so the screens at
+ * the shares never reach its low-gm/ID designs. Loads with setpoints are not screened so: their screens grow with
+ * the headroom (every split of it among the setpoints), for a cost the demo's auto load would pay on each topology.
+ */
+export function roomCandidates(stage: StageSpec, side: Side, topology: Topology, supply: number, room: number): Candidate[] {
+  if (topology !== 'cascode-stacked') return [];
+  const ctx = side.ctx;
+  const [lo, hi] = headroomRange(side.vd, supply);
+  const h = Math.min(Math.max(room, lo), hi);
+  const base = ctx.spec;
+  try {
+    ctx.spec = { ...base, rout: (2 * stage.gain) / (12 * stage.current), headroom: h, span: 2 * side.vd - h };
+    return screen(ctx, topology);
+  } finally {
+    ctx.spec = base;
+  }
+}
+
+/**
+ * A one-device side's candidates: every table length × gm/ID (an input's also halfway between the grid's), and for
+ * each length whose lowest realisable grid gm/ID has an unrealisable one below it (narrower than the minimum width,
+ * at a fixed current W falls with gm/ID), the lowest gm/ID it reaches, bisected between the two: that length's
+ * smallest device, with its highest Rout, which the smallest pair may need (the grid point above it misses the gain,
+ * the one below is too narrow).
  */
 function singleCandidates(side: Side): Candidate[] {
   const ctx = side.ctx;
@@ -151,6 +202,10 @@ function singleCandidates(side: Side): Candidate[] {
   const out: Candidate[] = [];
   for (const l of ctx.lengths) {
     for (const g of ctx.gmids) out.push(one(l, g));
+    // A common-source input's gm/ID sets its gm, so the stage's gain, in steps of several percent; the smallest pair,
+    // holding the gain and swing with little to spare, often has it between the grid points: also the midpoints
+    // (the climb's halved steps move one side at a time, and the load must move with it).
+    if (side.kind === 'input') for (let k = 1; k < ctx.gmids.length; k++) out.push(one(l, 0.5 * (ctx.gmids[k - 1] + ctx.gmids[k])));
     const j = ctx.gmids.findIndex((g) => fits(l, g));
     if (j >= 1) out.push(one(l, edgeOf((g) => fits(l, g), ctx.gmids[j], ctx.gmids[j - 1], EDGE_STEPS)));
   }

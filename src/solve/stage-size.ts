@@ -2,7 +2,7 @@ import type { StageSpec, Topology } from '../design/types.js';
 import { topologyNames } from '../topology/index.js';
 import { designIndex, outputGrid } from '../stack/index.js';
 import type { KitAccess } from './kit.js';
-import { makeSide, sideCandidates, sideDesign, type SideDesign } from './stage-side.js';
+import { makeSide, roomCandidates, roomLeft, sideCandidates, sideDesign, type SideDesign } from './stage-side.js';
 import { screenPairs } from './stage-screen.js';
 import { evaluatePair, type StageDesign, type StageSides } from './stage-eval.js';
 import { emptyStageResult, stageFrontPoint, stageResult } from './stage-result.js';
@@ -16,6 +16,8 @@ import { fullyOkMemo, pickStage } from './stage-order.js';
 
 /** Output grid step of the pair screen, V. */
 const SCREEN_STEP = 0.05;
+/** Inputs the loads screened with the room they leave are paired with: the leanest few (the room is theirs). */
+const LEAN_INPUTS = 8;
 
 export interface SizeStageResult {
   /** One result per load topology tried (`chosen` marks the objective's pick with 'auto'). */
@@ -46,6 +48,43 @@ function designs(sides: StageSides, side: StageSides['input'], topology: Topolog
   return out;
 }
 
+/** The pairs traced exactly as one circuit each (those the tables cannot realise left out). */
+function tracedPairs(sides: StageSides, pairs: readonly { input: SideDesign; load: SideDesign }[]): StageDesign[] {
+  const out: StageDesign[] = [];
+  for (const p of pairs) {
+    const d = evaluatePair(sides, p.input, p.load);
+    if (d) out.push(d);
+  }
+  return out;
+}
+
+/**
+ * The LEAN_INPUTS input designs leaving the load the most room, beyond what its shares gave it (roomLeft), and the
+ * most room any leaves.
+ */
+function leanInputs(sides: StageSides, inputs: readonly SideDesign[], vs: Float64Array, j0: number): { inputs: SideDesign[]; room?: number } {
+  const out: Array<{ d: SideDesign; r: number }> = [];
+  for (const d of inputs) {
+    const r = roomLeft(sides.input, d, vs, j0, sides.stage, sides.supply);
+    if (r !== undefined) out.push({ d, r });
+  }
+  out.sort((a, b) => b.r - a.r);
+  return { inputs: out.slice(0, LEAN_INPUTS).map((x) => x.d), room: out[0]?.r };
+}
+
+/** Load designs from the room the leanest input leaves (roomCandidates), those already among `loads` left out. */
+function roomLoads(sides: StageSides, topology: Topology, vs: Float64Array, j0: number, gmMax: number, room: number, loads: readonly SideDesign[]): SideDesign[] {
+  const seen = new CandidateMap<true>();
+  for (const d of loads) seen.set(seen.key(d.cand), true);
+  const out: SideDesign[] = [];
+  for (const c of roomCandidates(sides.stage, sides.load, topology, sides.supply, room)) {
+    if (seen.has(seen.key(c))) continue;
+    const d = sideDesign(sides.load, c, vs, j0, sides.stage, sides.supply, gmMax);
+    if (d) out.push(d);
+  }
+  return out;
+}
+
 /**
  * Size one gain stage: two stack searches coupled through the output node.
  * Each side is screened as a stack (the input side of the input type, the load
@@ -68,6 +107,7 @@ export function sizeStage(stage: StageSpec, kit: KitAccess, opts: { supply: numb
   const within = sized.filter((d) => d.sized.gates[0] <= opts.supply);
   const inputs = within.length > 0 ? within : sized;
   const gmMax = Math.max(0, ...inputs.map((d) => Math.max(...(d.gm as Float64Array))));
+  const lean = leanInputs(sides, inputs, vs, j0);
   const topologies: readonly Topology[] = stage.load.topology === 'auto' ? topologyNames() : [stage.load.topology];
   const results: StageResult[] = [];
   const explored: StageFrontPoint[] = [];
@@ -78,17 +118,22 @@ export function sizeStage(stage: StageSpec, kit: KitAccess, opts: { supply: numb
     const before = input.ctx.count.exact + load.ctx.count.exact + input.ctx.count.screened + load.ctx.count.screened;
     const loads = designs(sides, load, t, vs, j0, gmMax);
     const { pairs, screened } = screenPairs(stage, inputs, loads, vs, j0);
-    const pool: StageDesign[] = [];
-    for (const p of pairs) {
-      const d = evaluatePair(sides, p.input, p.load);
-      if (d) pool.push(d);
-    }
-    const traced = pool.length;
+    // The loads the leanest inputs' room gives, paired with those inputs in a pair screen of their own: in one screen
+    // their estimated curves could push the other pairs out of its pools.
+    const roomy = lean.room === undefined ? [] : roomLoads(sides, t, vs, j0, gmMax, lean.room, loads);
+    const more = roomy.length > 0 ? screenPairs(stage, lean.inputs, roomy, vs, j0) : { pairs: [], screened: 0 };
+    const pool = tracedPairs(sides, pairs);
+    const roomPool = tracedPairs(sides, more.pairs);
+    const traced = pool.length + roomPool.length;
     // One memo of "meets every target at every corner" for the pick and the climbs (corners are traced on demand).
     const ok = fullyOkMemo(sides);
-    const picked = pickStage(sides, pool, ok);
-    const climb = picked ? refineStage(sides, picked, pool, memos, ok) : undefined;
-    const count = input.ctx.count.exact + load.ctx.count.exact + input.ctx.count.screened + load.ctx.count.screened - before + screened + traced + (climb?.evaluated ?? 0);
+    // The room's best pair is climbed from besides the others' seeds, which it must not displace: a climb from a
+    // smaller pick can settle on a larger design than the one it displaced.
+    const roomPick = pickStage(sides, roomPool, ok);
+    const picked = pickStage(sides, pool, ok) ?? roomPick;
+    const climb = picked ? refineStage(sides, picked, pool, memos, ok, roomPick && roomPick !== picked ? [roomPick] : []) : undefined;
+    pool.push(...roomPool);
+    const count = input.ctx.count.exact + load.ctx.count.exact + input.ctx.count.screened + load.ctx.count.screened - before + screened + more.screened + traced + (climb?.evaluated ?? 0);
     evaluated += count;
     if (!climb) {
       // No candidate of a side at all: its lower devices cannot be saturated in the room the design point leaves
