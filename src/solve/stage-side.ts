@@ -34,6 +34,13 @@ const SHARES: Record<SideKind, number[]> = { input: [0.35, 0.6], load: [0.35, 0.
 const ROOMY_SHARES = [0.9, 1];
 /** How far the room the leanest input leaves must exceed the load's largest share to be screened on its own, V. */
 const ROOM_MIN = 0.02;
+/** A middling input gm/ID, 1/V: the derived Rout target of a side screen assumes it (see sideRout). */
+const MIDDLING_GMID = 12;
+
+/** The Rout each side needs for the gain target when the two are equal: 2·gain/gm_in at MIDDLING_GMID, Ω. */
+function sideRout(stage: StageSpec): number {
+  return (2 * stage.gain) / (MIDDLING_GMID * stage.current);
+}
 
 /** The shares a side is screened with (see SHARES, ROOMY_SHARES). */
 function sharesOf(stage: StageSpec, kind: SideKind): number[] {
@@ -117,7 +124,7 @@ export function sideCandidates(stage: StageSpec, side: Side, topology: Topology,
   if (topology === 'single') return singleCandidates(side);
   const free = Math.max(supply - stage.swing, 0.1);
   const [lo, hi] = headroomRange(side.vd, supply);
-  const rout = (2 * stage.gain) / (12 * stage.current);
+  const rout = sideRout(stage);
   const base = ctx.spec;
   const seen = new CandidateMap<Candidate>();
   try {
@@ -180,7 +187,7 @@ export function roomCandidates(stage: StageSpec, side: Side, topology: Topology,
   const h = Math.min(Math.max(room, lo), hi);
   const base = ctx.spec;
   try {
-    ctx.spec = { ...base, rout: (2 * stage.gain) / (12 * stage.current), headroom: h, span: 2 * side.vd - h };
+    ctx.spec = { ...base, rout: sideRout(stage), headroom: h, span: 2 * side.vd - h };
     return screen(ctx, topology);
   } finally {
     ctx.spec = base;
