@@ -261,6 +261,24 @@ const FEASIBLE: Case[] = [
     spec: { device: 'n', topology: 'triple', current: 62e-6, rout: 206e3, headroom: 0.508, span: 0.726, objective: 'area', l: { min: 90e-9, max: 120e-9 }, gmid: { min: 6, max: 22 }, wmax: 2.35e-6 },
     grid: { gmidStep: 4, vStep: 0.1 },
   },
+  {
+    // Found by audit2 (seed 20261205, #27): headroom 0.196 V vs reference 0.1790 V (tool +17.0 mV).
+    // Reference design: l [220e-9, 220e-9], gm/ID [25.5, 29.625], setpoints [0.13125].
+    id: 'n090-cascode-headroom-audit2-t27', kit: 'demo090', why: 'lowest headroom',
+    spec: { device: 'n', topology: 'cascode', current: 142e-6, rout: 14.9e3, headroom: 0.202, span: 0.748, objective: 'headroom', l: { min: 90e-9, max: 220e-9 } },
+  },
+  {
+    // Found by audit2 (seed 20261206, #688): area 14.05e-12 m² vs reference 12.93e-12 m² (tool +8.6 %).
+    // Reference design: l [1e-6, 700e-9], gm/ID [10.875, 12.375], setpoints [0.425].
+    id: 'n180-cascode-area-audit2-s688', kit: 'demo180', why: 'least area under a width limit',
+    spec: { device: 'n', topology: 'cascode', current: 18.3e-6, rout: 759e3, headroom: 0.274, span: 1.49, objective: 'area', l: { min: 700e-9, max: 2e-6 }, wmax: 12.2e-6 },
+  },
+  {
+    // Found by audit2 (seed 20261206, #841): Rout 4.396e6 Ω vs reference 4.661e6 Ω (tool -5.7 %).
+    // Reference design: l [500e-9, 250e-9], gm/ID [7.448, 10.52], setpoints [0.3].
+    id: 'p180-cascode-rout-audit2-s841', kit: 'demo180', why: 'highest Rout under a width limit',
+    spec: { device: 'p', topology: 'cascode', current: 20.8e-6, rout: 4.33e6, headroom: 0.482, span: 1.49, objective: 'rout', l: { min: 180e-9, max: 500e-9 }, gmid: { min: 5, max: 19 }, wmax: 6.48e-6 },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {
