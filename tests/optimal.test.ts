@@ -262,12 +262,6 @@ const FEASIBLE: Case[] = [
     grid: { gmidStep: 4, vStep: 0.1 },
   },
   {
-    // Found by audit2 (seed 20261205, #27): headroom 0.196 V vs reference 0.1790 V (tool +17.0 mV).
-    // Reference design: l [220e-9, 220e-9], gm/ID [25.5, 29.625], setpoints [0.13125].
-    id: 'n090-cascode-headroom-audit2-t27', kit: 'demo090', why: 'lowest headroom',
-    spec: { device: 'n', topology: 'cascode', current: 142e-6, rout: 14.9e3, headroom: 0.202, span: 0.748, objective: 'headroom', l: { min: 90e-9, max: 220e-9 } },
-  },
-  {
     // Found by audit2 (seed 20261206, #688): area 14.05e-12 m² vs reference 12.93e-12 m² (tool +8.6 %).
     // Reference design: l [1e-6, 700e-9], gm/ID [10.875, 12.375], setpoints [0.425].
     id: 'n180-cascode-area-audit2-s688', kit: 'demo180', why: 'least area under a width limit',
