@@ -310,6 +310,24 @@ const FEASIBLE: Case[] = [
     spec: { device: 'p', topology: 'triple', current: 116e-6, rout: 140e6, headroom: 0.619, span: 1.37, objective: 'headroom', l: { min: 180e-9, max: 300e-9 }, gmid: { min: 6, max: 22 } },
     grid: { gmidStep: 4, vStep: 0.1 },
   },
+  {
+    // Found by audit2 (seed 20261206, #688): area 14.05e-12 m² vs reference 12.93e-12 m² (tool +8.6 %).
+    // Reference design: l [1e-6, 700e-9], gm/ID [10.875, 12.375], setpoints [0.425].
+    id: 'n180-cascode-area-audit2-s688', kit: 'demo180', why: 'least area under a width limit',
+    spec: { device: 'n', topology: 'cascode', current: 18.3e-6, rout: 759e3, headroom: 0.274, span: 1.49, objective: 'area', l: { min: 700e-9, max: 2e-6 }, wmax: 12.2e-6 },
+  },
+  {
+    // Found by audit2 (seed 20261206, #841): Rout 4.396e6 Ω vs reference 4.661e6 Ω (tool -5.7 %).
+    // Reference design: l [500e-9, 250e-9], gm/ID [7.448, 10.52], setpoints [0.3].
+    id: 'p180-cascode-rout-audit2-s841', kit: 'demo180', why: 'highest Rout under a width limit',
+    spec: { device: 'p', topology: 'cascode', current: 20.8e-6, rout: 4.33e6, headroom: 0.482, span: 1.49, objective: 'rout', l: { min: 180e-9, max: 500e-9 }, gmid: { min: 5, max: 19 }, wmax: 6.48e-6 },
+  },
+  {
+    // Found by audit2 (seed 20261205, #70): area 150.5e-12 m² vs reference 125.7e-12 m² (tool +19.8 %).
+    // Reference design: l [2e-6, 700e-9], gm/ID [9.852, 7.875], setpoints [0.69375].
+    id: 'n180-cascode-area-audit2-t70', kit: 'demo180', why: 'least area under a width limit and a mismatch budget',
+    spec: { device: 'n', topology: 'cascode', current: 89e-6, rout: 403e3, headroom: 0.322, span: 1.34, objective: 'area', l: { min: 700e-9, max: 2e-6 }, mismatch: 0.0048, wmax: 56.5e-6 },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {

@@ -1,6 +1,10 @@
-import { noOtherBias, type TopologyDescriptor } from './types.js';
+import type { TopologyDescriptor } from './types.js';
 import { bounds } from './bounds.js';
 import { runsOf } from './runs.js';
+
+// The screen's setpoint step, V, and the VDS a squeezed top keeps at mid-span (otherBias), V.
+const SETPOINT_STEP = 0.025;
+const TOP_ROOM = 0.15;
 
 /** Two devices with low-voltage biasing: the bottom drain sits at a chosen VDS setpoint. */
 export const cascode: TopologyDescriptor = {
@@ -12,9 +16,15 @@ export const cascode: TopologyDescriptor = {
   // 2·Vov (common practice).
   ruleOfThumbHeadroom: (vov) => vov[0] + vov[1],
   refineVoltageStep: 0.0125,
-  otherBias: noOtherBias,
+  otherBias(c, vmid) {
+    // The bottom takes all but TOP_ROOM of mid-span: as the output falls to the headroom target the top is squeezed
+    // out of saturation and the bottom's drain follows it down, so a long bottom alone can carry the Rout target with
+    // its setpoint far above the target, where the screen's estimate (s1 + VDSsat2) and its setpoint grid never go.
+    const s1 = Math.floor((vmid - TOP_ROOM) / SETPOINT_STEP + 1e-9) * SETPOINT_STEP;
+    return s1 > c.setpoints[0] + SETPOINT_STEP ? [{ ...c, setpoints: [Math.round(s1 * 1e6) / 1e6] }] : [];
+  },
   screen(t) {
-    for (const s1 of t.setpointGrid(0.025)) {
+    for (const s1 of t.setpointGrid(SETPOINT_STEP)) {
       const bottom = t.prune(t.options({ mode: s1, vsb: 0, lower: true }), t.crit.bottom);
       if (bottom.length === 0) continue;
       const b = bounds(bottom);
