@@ -35,6 +35,8 @@ const WHY_ROOMY_STACKED =
   'over a common-source input the smallest stacked-cascode load (top device at low gm/ID) needs all the free voltage by the screen\'s headroom estimate, though the gain holds';
 const WHY_SPARE_ROUT =
   'the load has far more Rout than the gain needs, and the smallest pair spends it on headroom (top device at low gm/ID past its saturation edge, a high setpoint below it), which no screen at a share of the free voltage proposes';
+const WHY_SETPOINT_TRADE =
+  'the smallest pair has a load at lower gm/ID over a higher setpoint: the higher setpoint alone costs no area and the lower gm/ID alone misses the swing, so the climb stopped on the swing-bound ridge';
 
 const cases: StageCase[] = [
   {
@@ -277,6 +279,20 @@ const cases: StageCase[] = [
     id: 'audit2 demo090: p cascode input, n triple load, gain 1530 over 0.378 V (seed 20261208 #885)', kit: 'demo090', grid: { gmidPoints: 4, vStep: 0.15 },
     stage: stageOf({ gain: 1.53e3, swing: 0.378, output: 0.666, input: 'p', inputTopology: 'cascode', load: 'triple', l: [220e-9, 300e-9], gmid: [8, 22], loadL: [750e-9, 750e-9] }),
     why: WHY_SPARE_ROUT,
+  },
+  {
+    // Found by audit2 (seed 20261208, #627): area 47.46e-12 m² vs reference 38.91e-12 m² (tool +22.0 %).
+    // Reference pair: input l [550e-9, 550e-9], gm/ID [18, 18], setpoints [0.15]; load l [1e-6, 1e-6], gm/ID [14, 14], setpoints [0.45].
+    id: 'audit2 demo090: n cascode input, p cascode load, gain 115 over 0.75 V (seed 20261208 #627)', kit: 'demo090', grid: { gmidPoints: 4, vStep: 0.1 },
+    stage: stageOf({ gain: 115, swing: 0.75, output: 0.57, input: 'n', inputTopology: 'cascode', load: 'cascode', l: [400e-9, 550e-9], gmid: [6, 18], loadL: [1e-6, 1e-6] }),
+    why: WHY_SETPOINT_TRADE,
+  },
+  {
+    // Found by audit2 (seed 20261208, #928): area 4.084e-12 m² vs reference 3.817e-12 m² (tool +7.0 %).
+    // Reference pair: input l [160e-9], gm/ID [18], setpoints []; load l [750e-9, 550e-9], gm/ID [13.2, 10.8], setpoints [0.35].
+    id: 'audit2 demo090: p single input, n cascode load, gain 18.2 over 0.746 V (seed 20261208 #928)', kit: 'demo090', grid: { gmidPoints: 6, vStep: 0.1 },
+    stage: stageOf({ gain: 18.2, swing: 0.746, output: 0.542, input: 'p', inputTopology: 'single', load: 'cascode', l: [90e-9, 160e-9], gmid: [6, 18], loadL: [550e-9, 1e-6] }),
+    why: WHY_SETPOINT_TRADE,
   },
 ];
 
