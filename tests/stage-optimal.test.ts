@@ -33,6 +33,10 @@ const WHY_INPUT_MIDPOINT =
   'the smallest pair has its common-source input between the gm/ID grid points (its gm sets the gain), and the climb moving one side at a time does not get there';
 const WHY_ROOMY_STACKED =
   'over a common-source input the smallest stacked-cascode load (top device at low gm/ID) needs all the free voltage by the screen\'s headroom estimate, though the gain holds';
+const WHY_SPARE_ROUT =
+  'the load has far more Rout than the gain needs, and the smallest pair spends it on headroom (top device at low gm/ID past its saturation edge, a high setpoint below it), which no screen at a share of the free voltage proposes';
+const WHY_SETPOINT_TRADE =
+  'the smallest pair has a load at lower gm/ID over a higher setpoint: the higher setpoint alone costs no area and the lower gm/ID alone misses the swing, so the climb stopped on the swing-bound ridge';
 
 const cases: StageCase[] = [
   {
@@ -254,6 +258,41 @@ const cases: StageCase[] = [
     id: 'audit2 demo180: n single input, p cascode-stacked load, gain 159 over 0.735 V (seed 20261208 #613)', kit: 'demo180', grid: { gmidPoints: 6, vStep: 0.1 },
     stage: stageOf({ gain: 159, swing: 0.735, output: 0.773, input: 'n', inputTopology: 'single', load: 'cascode-stacked', l: [700e-9, 1e-6], gmid: [6, 22], loadL: [180e-9, 180e-9] }),
     why: WHY_INPUT_MIDPOINT,
+  },
+  {
+    // Found by audit2 (seed 20261208, #90): area 498.1e-12 m² vs reference 422.6e-12 m² (tool +17.8 %).
+    // Reference pair: input l [350e-9, 350e-9], gm/ID [24, 24], setpoints [0.2]; load l [1.4e-6, 1.4e-6, 1.4e-6], gm/ID [19.333, 19.333, 14.667], setpoints [0.2, 0.35].
+    id: 'audit2 demo180: n cascode input, p triple load, gain 5260 over 1.04 V (seed 20261208 #90)', kit: 'demo180', grid: { gmidPoints: 4, vStep: 0.15 },
+    stage: stageOf({ gain: 5.26e3, swing: 1.04, output: 1.07, input: 'n', inputTopology: 'cascode', load: 'triple', l: [250e-9, 350e-9], gmid: [10, 24], loadL: [1.4e-6, 1.4e-6] }),
+    why: WHY_SPARE_ROUT,
+  },
+  {
+    // Found by audit2 (seed 20261208, #182): area 302.3e-12 m² vs reference 229.3e-12 m² (tool +31.8 %).
+    // Reference pair: input l [500e-9, 500e-9], gm/ID [20, 20], setpoints [0.2]; load l [2e-6, 2e-6, 2e-6], gm/ID [16, 16, 12], setpoints [0.2, 0.5].
+    id: 'audit2 demo180: n cascode input, p triple load, gain 6960 over 1.06 V (seed 20261208 #182)', kit: 'demo180', grid: { gmidPoints: 4, vStep: 0.15 },
+    stage: { ...stageOf({ gain: 6.96e3, swing: 1.06, output: 1.02, input: 'n', inputTopology: 'cascode', load: 'triple', l: [350e-9, 500e-9], gmid: [8, 20], loadL: [2e-6, 2e-6] }), current: 4.66e-6 },
+    why: WHY_SPARE_ROUT,
+  },
+  {
+    // Found by audit2 (seed 20261208, #885): area 11.35e-12 m² vs reference 10.71e-12 m² (tool +6.0 %).
+    // Reference pair: input l [300e-9, 300e-9], gm/ID [17.333, 17.333], setpoints [0.2]; load l [750e-9, 750e-9, 750e-9], gm/ID [12.667, 12.667, 8], setpoints [0.2, 0.35].
+    id: 'audit2 demo090: p cascode input, n triple load, gain 1530 over 0.378 V (seed 20261208 #885)', kit: 'demo090', grid: { gmidPoints: 4, vStep: 0.15 },
+    stage: stageOf({ gain: 1.53e3, swing: 0.378, output: 0.666, input: 'p', inputTopology: 'cascode', load: 'triple', l: [220e-9, 300e-9], gmid: [8, 22], loadL: [750e-9, 750e-9] }),
+    why: WHY_SPARE_ROUT,
+  },
+  {
+    // Found by audit2 (seed 20261208, #627): area 47.46e-12 m² vs reference 38.91e-12 m² (tool +22.0 %).
+    // Reference pair: input l [550e-9, 550e-9], gm/ID [18, 18], setpoints [0.15]; load l [1e-6, 1e-6], gm/ID [14, 14], setpoints [0.45].
+    id: 'audit2 demo090: n cascode input, p cascode load, gain 115 over 0.75 V (seed 20261208 #627)', kit: 'demo090', grid: { gmidPoints: 4, vStep: 0.1 },
+    stage: stageOf({ gain: 115, swing: 0.75, output: 0.57, input: 'n', inputTopology: 'cascode', load: 'cascode', l: [400e-9, 550e-9], gmid: [6, 18], loadL: [1e-6, 1e-6] }),
+    why: WHY_SETPOINT_TRADE,
+  },
+  {
+    // Found by audit2 (seed 20261208, #928): area 4.084e-12 m² vs reference 3.817e-12 m² (tool +7.0 %).
+    // Reference pair: input l [160e-9], gm/ID [18], setpoints []; load l [750e-9, 550e-9], gm/ID [13.2, 10.8], setpoints [0.35].
+    id: 'audit2 demo090: p single input, n cascode load, gain 18.2 over 0.746 V (seed 20261208 #928)', kit: 'demo090', grid: { gmidPoints: 6, vStep: 0.1 },
+    stage: stageOf({ gain: 18.2, swing: 0.746, output: 0.542, input: 'p', inputTopology: 'single', load: 'cascode', l: [90e-9, 160e-9], gmid: [6, 18], loadL: [550e-9, 1e-6] }),
+    why: WHY_SETPOINT_TRADE,
   },
 ];
 

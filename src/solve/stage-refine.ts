@@ -21,6 +21,12 @@ const NEAREST_SCALE = 4;
 const NEAREST_LEVELS = 4;
 /** Setpoint moves, in steps, tried together with a length move (and a gm/ID step) once the other moves are exhausted. */
 const SETPOINT_JUMPS = [-4, -2];
+/**
+ * Setpoint moves, in steps, tried together with a device's gm/ID a step lower once the other moves are exhausted: a
+ * higher setpoint costs no area and widens the swing, which a lower gm/ID (less area) then spends; on a swing-bound
+ * ridge neither move alone beats the climb's best.
+ */
+const TRADE_JUMPS = [2, 4, 8];
 /** Climb rounds at most; each round tries the moves of both sides once. */
 const MAX_ROUNDS = 24;
 
@@ -251,9 +257,10 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
   // Coupled length moves: a device's L to the neighbouring table length together with its gm/ID by a step, with one
   // setpoint several steps lower (SETPOINT_JUMPS), or both. A shorter device loses Rout near the swing edges, which
   // a higher gm/ID (more gain) or a lower setpoint (more room for the device above) makes up; no single or pair
-  // move of the climb finds such a move, and on a thin feasible region the climb stopped short of it.
+  // move of the climb finds such a move, and on a thin feasible region the climb stopped short of it. Also the
+  // trades (tradesOf).
   const jumpMoves = (best: StageDesign, steps: Steps, kind: 'input' | 'load'): SideMove[] =>
-    listed(best[kind], `${steps[kind].g}|${steps[kind].v}|jump`, () => jumpsOf(best[kind].cand, steps[kind], kind));
+    listed(best[kind], `${steps[kind].g}|${steps[kind].v}|jump`, () => [...jumpsOf(best[kind].cand, steps[kind], kind), ...tradesOf(best[kind].cand, steps[kind], kind)]);
   const jumpsOf = (from: Candidate, step: { g: number; v: number }, kind: 'input' | 'load'): SideMove[] => {
     const out: SideMove[] = [];
     const ctx = sides[kind].ctx;
@@ -276,6 +283,23 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
             const d = sideOf(sides[kind], { ...c, gmid, setpoints: c.setpoints.map((x, i) => (i === j ? v : x)) });
             if (d) out.push(d);
           }
+        }
+      }
+    }
+    return out;
+  };
+  // Trades: a device's gm/ID a step lower (less area, less swing) with one setpoint several steps higher (TRADE_JUMPS).
+  const tradesOf = (from: Candidate, step: { g: number; v: number }, kind: 'input' | 'load'): SideMove[] => {
+    const out: SideMove[] = [];
+    const gLo = sides[kind].ctx.gmids[0];
+    for (let k = 0; k < from.gmid.length; k++) {
+      const g = from.gmid[k] - step.g;
+      if (!(g >= gLo - 1e-9)) continue;
+      const gmid = from.gmid.map((x, i) => (i === k ? g : x));
+      for (let j = 0; j < from.setpoints.length; j++) {
+        for (const n of TRADE_JUMPS) {
+          const d = sideOf(sides[kind], { ...from, gmid, setpoints: from.setpoints.map((x, i) => (i === j ? x + n * step.v : x)) });
+          if (d) out.push(d);
         }
       }
     }

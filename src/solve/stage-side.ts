@@ -34,6 +34,11 @@ const SHARES: Record<SideKind, number[]> = { input: [0.35, 0.6], load: [0.35, 0.
 const ROOMY_SHARES = [0.9, 1];
 /** How far the room the leanest input leaves must exceed the load's largest share to be screened on its own, V. */
 const ROOM_MIN = 0.02;
+/**
+ * How far beyond the derived Rout target (sideRout) every screened load design's Rout must lie for the load to be
+ * screened with all its headroom too (see spareRout).
+ */
+const SPARE_ROUT = 10;
 /** A middling input gm/ID, 1/V: the derived Rout target of a side screen assumes it (see sideRout). */
 const MIDDLING_GMID = 12;
 
@@ -153,6 +158,17 @@ export function sideCandidates(stage: StageSpec, side: Side, topology: Topology,
     ctx.spec = base;
   }
   return [...seen.values()];
+}
+
+/**
+ * True when every load design has setpoints and far more Rout at the design point than the gain needs
+ * (SPARE_ROUT × sideRout): the input's Rout then sets the gain, and the smallest pairs spend the load's spare Rout
+ * on headroom, its top device at low gm/ID run past its own saturation edge over a high setpoint below it, which no
+ * share's screen proposes (each keeps every device saturated within its share).
+ */
+export function spareRout(stage: StageSpec, loads: readonly SideDesign[], j0: number): boolean {
+  const need = SPARE_ROUT * sideRout(stage);
+  return loads.length > 0 && loads.every((d) => d.cand.setpoints.length > 0 && d.rout[j0] > need);
 }
 
 /**

@@ -2,7 +2,7 @@ import type { StageSpec, Topology } from '../design/types.js';
 import { topologyNames } from '../topology/index.js';
 import { designIndex, outputGrid } from '../stack/index.js';
 import type { KitAccess } from './kit.js';
-import { makeSide, roomCandidates, roomLeft, sideCandidates, sideDesign, type SideDesign } from './stage-side.js';
+import { makeSide, roomCandidates, roomLeft, sideCandidates, sideDesign, spareRout, type SideDesign } from './stage-side.js';
 import { screenPairs } from './stage-screen.js';
 import { evaluatePair, type StageDesign, type StageSides } from './stage-eval.js';
 import { emptyStageResult, stageFrontPoint, stageResult } from './stage-result.js';
@@ -36,10 +36,14 @@ function designs(sides: StageSides, side: StageSides['input'], topology: Topolog
     const d = sideDesign(side, c, vs, j0, sides.stage, sides.supply, gmMax);
     if (d) out.push(d);
   }
-  // The shares' candidates were all refused (a too-small headroom share buys Rout with width beyond the width
-  // limit): screen again with all the headroom the side may have.
-  if (out.length === 0 && cands.length > 0 && side.narrowestTooWide !== undefined) {
+  // Screen again with all the headroom the side may have when the shares' candidates were all refused (a too-small
+  // headroom share buys Rout with width beyond the width limit), or when a load has Rout to spare (spareRout).
+  const refused = out.length === 0 && cands.length > 0 && side.narrowestTooWide !== undefined;
+  if (refused || (side.kind === 'load' && spareRout(sides.stage, out, j0))) {
+    const seen = new CandidateMap<true>();
+    for (const c of cands) seen.set(seen.key(c), true);
     for (const c of sideCandidates(sides.stage, side, topology, sides.supply, true)) {
+      if (seen.has(seen.key(c))) continue;
       const d = sideDesign(side, c, vs, j0, sides.stage, sides.supply, gmMax);
       if (d) out.push(d);
     }
