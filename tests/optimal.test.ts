@@ -327,6 +327,13 @@ const FEASIBLE: Case[] = [
     // Reference design: l [2e-6, 700e-9], gm/ID [9.852, 7.875], setpoints [0.69375].
     id: 'n180-cascode-area-audit2-t70', kit: 'demo180', why: 'least area under a width limit and a mismatch budget',
     spec: { device: 'n', topology: 'cascode', current: 89e-6, rout: 403e3, headroom: 0.322, span: 1.34, objective: 'area', l: { min: 700e-9, max: 2e-6 }, mismatch: 0.0048, wmax: 56.5e-6 },
+  },  {
+    // Found by audit2 (seed 20261205, #27): headroom 0.197 V vs reference 0.1789 V (tool +18 mV). The climbs short of
+    // the targets settled on 0.22 µm devices at low gm/ID; the lowest headroom is reached only from seeds beyond the
+    // climb's reach, on the coarse second climb.
+    // Reference design: l [220e-9, 220e-9], gm/ID [25.5, 29.625], setpoints [0.13125].
+    id: 'n090-cascode-headroom-audit2-t27', kit: 'demo090', why: 'lowest headroom reached only from a seed far short of the targets',
+    spec: { device: 'n', topology: 'cascode', current: 142e-6, rout: 14.9e3, headroom: 0.202, span: 0.748, objective: 'headroom', l: { min: 90e-9, max: 220e-9 } },
   },
 ];
 
@@ -489,8 +496,10 @@ const INFEASIBLE: Case[] = [
     // above mid-span (0.952 V, long devices on the 39 µm width limit). No design the search met reaches it anywhere,
     // and the climb towards the lowest headroom ranked those by Rout at the headroom target, so it followed the
     // highest-Rout design and reported no headroom at all; it now ranks them by Rout at span, where the target is
-    // first reached.
-    id: 'p090-stacked-nearest-headroom-above-mid', kit: 'demo090', why: 'Rout target reached only above mid-span',
+    // first reached. Every target is met by wider devices (12 MΩ at 0.55 V on the default limit, from a width limit of
+    // about 340 µm in the reference), so the width limit binds (the tool said Rout binds before the coarse second climb
+    // also started from the length choices beyond the climb's reach).
+    id: 'p090-stacked-nearest-headroom-above-mid', kit: 'demo090', why: 'Rout target reached only above mid-span', widthBinds: true,
     spec: { device: 'p', topology: 'cascode-stacked', current: 128e-6, rout: 5.41e6, headroom: 0.59, span: 1.085, objective: 'rout', wmax: 39e-6 },
   },
   // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): the stacked cascode's screen
