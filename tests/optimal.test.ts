@@ -334,6 +334,13 @@ const FEASIBLE: Case[] = [
     // Reference design: l [220e-9, 220e-9], gm/ID [25.5, 29.625], setpoints [0.13125].
     id: 'n090-cascode-headroom-audit2-t27', kit: 'demo090', why: 'lowest headroom reached only from a seed far short of the targets',
     spec: { device: 'n', topology: 'cascode', current: 142e-6, rout: 14.9e3, headroom: 0.202, span: 0.748, objective: 'headroom', l: { min: 90e-9, max: 220e-9 } },
+  },  {
+    // Found by audit2 (seed 20261206, #394): area 795e-12 m² vs reference 598.5e-12 m² (tool +33 %). The climb ended on
+    // a 0.8 µm bottom; the 0.5 µm bottom raised to the width limit (gm/ID 28.75, between grid points) misses headroom
+    // and Rout until the top's gm/ID is two steps higher too, so the raised length move alone did not improve.
+    // Reference design: l [500e-9, 300e-9], gm/ID [28.753471, 27].
+    id: 'nreed-cascode-stacked-area-audit2-s394', kit: 'reed180', why: 'least area with a new bottom length on the width limit and the top moved with it',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 7.57e-6, rout: 7.13e6, headroom: 0.419, span: 1.52, objective: 'area', l: { min: 300e-9, max: 800e-9 }, mismatch: 0.0285 },
   },
 ];
 
