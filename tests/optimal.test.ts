@@ -689,6 +689,17 @@ describe('nearest points on the edge of the width limit (exhaustive reference se
     expect(tool.feasible).toBe(false);
     expect(tool.nearest!.routAtHeadroom!).toBeGreaterThanOrEqual(0.95 * ref.routAtHeadroom);
   });
+  it('nreed-cascode-stacked-rout-audit2-s1727: nearest Rout at the headroom target (audit2 seed 20261206 #1727)', () => {
+    // nearest.routAtHeadroom 45.55e3 Ω vs reference 55.85e3 Ω (tool -18.4 %); reference design l [1.3e-6, 500e-9], gm/ID [5.139, 7.001], setpoints [].
+    // The line probe taking the bottom to 1.3 µm was dropped: pulled back to the width limit, its bottom fits only
+    // between the grid's 3 /V (not realisable: its VGS leaves the top no room) and 5.4 /V (too wide).
+    const spec: StackSpec = { name: 'nreed-cascode-stacked-rout-audit2-s1727', ...{ device: 'n', topology: 'cascode-stacked', current: 178e-6, rout: 25.4e3, headroom: 0.56, span: 1.55, objective: 'rout', l: { min: 500e-9, max: 1.3e-6 }, wmax: 11.8e-6 } };
+    const tool = sizeStack(spec, kits.reed180, { supply: SUPPLY.reed180, corners: ['tt'] }).results[0];
+    const ref = exhaustive(spec, kits.reed180, 'cascode-stacked', 'tt', { ...GRID, nearest: true });
+    expect(ref.best).toBeUndefined();
+    expect(tool.feasible).toBe(false);
+    expect(tool.nearest!.routAtHeadroom!).toBeGreaterThanOrEqual(0.95 * ref.routAtHeadroom);
+  });
 });
 
 describe('a stacked cascode with no design within the width limit (exhaustive reference search)', () => {
