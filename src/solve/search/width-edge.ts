@@ -55,12 +55,15 @@ function pullToWidth(ctx: SolveContext, c: Candidate, whole: boolean): Candidate
       for (let j = ctx.gmids.length - 1; j >= 0; j--) {
         const x = ctx.gmids[j];
         if (!(x < hi)) continue;
-        if (fits(k, x)) {
+        // fitsAt, keeping the sizing to tell too wide from not realisable.
+        d.gmid[k] = x;
+        const w = candidateWidths(ctx, d);
+        if (w !== null && w[k] <= ctx.wmax) {
           lo = x;
           break;
         }
         hi = x;
-        if (candidateWidths(ctx, d) !== null) [wide, gone] = [x, NaN];
+        if (w !== null) [wide, gone] = [x, NaN];
         else if (!Number.isNaN(wide) && Number.isNaN(gone)) gone = x;
       }
       if (Number.isNaN(lo) && !Number.isNaN(gone)) [lo, hi] = fittingBetween(ctx, d, k, gone, wide);
