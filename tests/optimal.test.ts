@@ -341,6 +341,12 @@ const FEASIBLE: Case[] = [
     // Reference design: l [500e-9, 300e-9], gm/ID [28.753471, 27].
     id: 'nreed-cascode-stacked-area-audit2-s394', kit: 'reed180', why: 'least area with a new bottom length on the width limit and the top moved with it',
     spec: { device: 'n', topology: 'cascode-stacked', current: 7.57e-6, rout: 7.13e6, headroom: 0.419, span: 1.52, objective: 'area', l: { min: 300e-9, max: 800e-9 }, mismatch: 0.0285 },
+  },  {
+    // Found by audit2 (seed 20261206, #204): area 19.82e-12 m² vs reference 17.82e-12 m² (tool +11.3 %); 18.02e-12 m²
+    // since the climb from a raised length move missing the targets (search/refine.ts, fromRaised).
+    // Reference design: l [300e-9, 300e-9], gm/ID [15.375, 18.375], setpoints [0.1875].
+    id: 'p090-cascode-area-audit2-s204', kit: 'demo090', why: 'least area',
+    spec: { device: 'p', topology: 'cascode', current: 36.3e-6, rout: 1.75e6, headroom: 0.345, span: 1.12, objective: 'area', l: { min: 120e-9, max: 300e-9 }, gmid: { min: 3, max: 21 } },
   },
 ];
 
