@@ -327,6 +327,26 @@ const FEASIBLE: Case[] = [
     // Reference design: l [2e-6, 700e-9], gm/ID [9.852, 7.875], setpoints [0.69375].
     id: 'n180-cascode-area-audit2-t70', kit: 'demo180', why: 'least area under a width limit and a mismatch budget',
     spec: { device: 'n', topology: 'cascode', current: 89e-6, rout: 403e3, headroom: 0.322, span: 1.34, objective: 'area', l: { min: 700e-9, max: 2e-6 }, mismatch: 0.0048, wmax: 56.5e-6 },
+  },  {
+    // Found by audit2 (seed 20261205, #27): headroom 0.197 V vs reference 0.1789 V (tool +18 mV). The climbs short of
+    // the targets settled on 0.22 µm devices at low gm/ID; the lowest headroom is reached only from seeds beyond the
+    // climb's reach, on the coarse second climb.
+    // Reference design: l [220e-9, 220e-9], gm/ID [25.5, 29.625], setpoints [0.13125].
+    id: 'n090-cascode-headroom-audit2-t27', kit: 'demo090', why: 'lowest headroom reached only from a seed far short of the targets',
+    spec: { device: 'n', topology: 'cascode', current: 142e-6, rout: 14.9e3, headroom: 0.202, span: 0.748, objective: 'headroom', l: { min: 90e-9, max: 220e-9 } },
+  },  {
+    // Found by audit2 (seed 20261206, #394): area 795e-12 m² vs reference 598.5e-12 m² (tool +33 %). The climb ended on
+    // a 0.8 µm bottom; the 0.5 µm bottom raised to the width limit (gm/ID 28.75, between grid points) misses headroom
+    // and Rout until the top's gm/ID is two steps higher too, so the raised length move alone did not improve.
+    // Reference design: l [500e-9, 300e-9], gm/ID [28.753471, 27].
+    id: 'nreed-cascode-stacked-area-audit2-s394', kit: 'reed180', why: 'least area with a new bottom length on the width limit and the top moved with it',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 7.57e-6, rout: 7.13e6, headroom: 0.419, span: 1.52, objective: 'area', l: { min: 300e-9, max: 800e-9 }, mismatch: 0.0285 },
+  },  {
+    // Found by audit2 (seed 20261206, #204): area 19.82e-12 m² vs reference 17.82e-12 m² (tool +11.3 %); 18.02e-12 m²
+    // since the climb from a raised length move missing the targets (search/refine.ts, fromRaised).
+    // Reference design: l [300e-9, 300e-9], gm/ID [15.375, 18.375], setpoints [0.1875].
+    id: 'p090-cascode-area-audit2-s204', kit: 'demo090', why: 'least area',
+    spec: { device: 'p', topology: 'cascode', current: 36.3e-6, rout: 1.75e6, headroom: 0.345, span: 1.12, objective: 'area', l: { min: 120e-9, max: 300e-9 }, gmid: { min: 3, max: 21 } },
   },
 ];
 
@@ -489,8 +509,10 @@ const INFEASIBLE: Case[] = [
     // above mid-span (0.952 V, long devices on the 39 µm width limit). No design the search met reaches it anywhere,
     // and the climb towards the lowest headroom ranked those by Rout at the headroom target, so it followed the
     // highest-Rout design and reported no headroom at all; it now ranks them by Rout at span, where the target is
-    // first reached.
-    id: 'p090-stacked-nearest-headroom-above-mid', kit: 'demo090', why: 'Rout target reached only above mid-span',
+    // first reached. Every target is met by wider devices (12 MΩ at 0.55 V on the default limit, from a width limit of
+    // about 340 µm in the reference), so the width limit binds (the tool said Rout binds before the coarse second climb
+    // also started from the length choices beyond the climb's reach).
+    id: 'p090-stacked-nearest-headroom-above-mid', kit: 'demo090', why: 'Rout target reached only above mid-span', widthBinds: true,
     spec: { device: 'p', topology: 'cascode-stacked', current: 128e-6, rout: 5.41e6, headroom: 0.59, span: 1.085, objective: 'rout', wmax: 39e-6 },
   },
   // Found by an audit against the exhaustive reference (tests/helpers/exhaustive.ts): the stacked cascode's screen
@@ -669,6 +691,17 @@ describe('nearest points on the edge of the width limit (exhaustive reference se
     const spec: StackSpec = { name: 'p090-cascode-stacked-headroom-audit2-s1512', ...{ device: 'p', topology: 'cascode-stacked', current: 147e-6, rout: 31.8e3, headroom: 0.411, span: 1.05, objective: 'headroom', l: { min: 550e-9, max: 1e-6 }, mismatch: 0.0173, wmax: 47.7e-6 } };
     const tool = sizeStack(spec, kits.demo090, { supply: SUPPLY.demo090, corners: ['tt'] }).results[0];
     const ref = exhaustive(spec, kits.demo090, 'cascode-stacked', 'tt', { ...GRID, nearest: true });
+    expect(ref.best).toBeUndefined();
+    expect(tool.feasible).toBe(false);
+    expect(tool.nearest!.routAtHeadroom!).toBeGreaterThanOrEqual(0.95 * ref.routAtHeadroom);
+  });
+  it('nreed-cascode-stacked-rout-audit2-s1727: nearest Rout at the headroom target (audit2 seed 20261206 #1727)', () => {
+    // nearest.routAtHeadroom 45.55e3 Ω vs reference 55.85e3 Ω (tool -18.4 %); reference design l [1.3e-6, 500e-9], gm/ID [5.139, 7.001], setpoints [].
+    // The line probe taking the bottom to 1.3 µm was dropped: pulled back to the width limit, its bottom fits only
+    // between the grid's 3 /V (not realisable: its VGS leaves the top no room) and 5.4 /V (too wide).
+    const spec: StackSpec = { name: 'nreed-cascode-stacked-rout-audit2-s1727', ...{ device: 'n', topology: 'cascode-stacked', current: 178e-6, rout: 25.4e3, headroom: 0.56, span: 1.55, objective: 'rout', l: { min: 500e-9, max: 1.3e-6 }, wmax: 11.8e-6 } };
+    const tool = sizeStack(spec, kits.reed180, { supply: SUPPLY.reed180, corners: ['tt'] }).results[0];
+    const ref = exhaustive(spec, kits.reed180, 'cascode-stacked', 'tt', { ...GRID, nearest: true });
     expect(ref.best).toBeUndefined();
     expect(tool.feasible).toBe(false);
     expect(tool.nearest!.routAtHeadroom!).toBeGreaterThanOrEqual(0.95 * ref.routAtHeadroom);

@@ -66,7 +66,7 @@ function near(objective: StackSpec['objective'], e: Evaluated, best: Evaluated):
  * choice of the same kind (meeting targets and starting near the best, or
  * nearest to meeting them).
  */
-function seedsOf(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[]): Evaluated[] {
+function seedsOf(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[], reach = REACH): Evaluated[] {
   const ok = nominalOk(best) && fullyOk(ctx, best);
   // Without a design meeting every corner, seed from those nearest to it over all corners (designs meeting
   // the nominal targets but missing at another corner included: they are often the nearest).
@@ -79,7 +79,7 @@ function seedsOf(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[])
   for (const e of rest) {
     if (seeds.length >= (ok || !ctx.meetOnly ? SEEDS : NEAREST)) break;
     if (ok && !near(ctx.spec.objective, e, best)) break;
-    if (!ok && seeds.length >= NEAREST && distanceToFeasible(e.margins) > REACH) continue;
+    if (!ok && seeds.length >= NEAREST && distanceToFeasible(e.margins) > reach) continue;
     if (taken.has(lengths(e))) continue;
     taken.add(lengths(e));
     seeds.push(e);
@@ -145,9 +145,11 @@ function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool:
   // along a setpoint (a few mV wide, a couple of steps apart: the headroom where the bottom leaves saturation first,
   // and again where the top does), and a climb from the screen's grid settles in the nearest, short of a target met
   // in the next. Only for searches that meet nothing, so it costs nothing where the first climbs succeed; not in the
-  // meet-only searches of the nearest points' width bisection, which repeat the search at several limits.
+  // meet-only searches of the nearest points' width bisection, which repeat the search at several limits. With them, the
+  // nearest designs of the length choices beyond the climb's reach: the nearer ones' climbs have failed.
   if (!ctx.meetOnly && !(nominalOk(best) && fullyOk(ctx, best))) {
-    const coarse = refine(ctx, seeds, seen, pool, undefined, undefined, CLIMB_ROUNDS, 2);
+    const far = seedsOf(ctx, first, pool, Infinity).filter((e) => !seeds.includes(e));
+    const coarse = refine(ctx, [...seeds, ...far], seen, pool, undefined, undefined, CLIMB_ROUNDS, 2);
     if (coarse && better(ctx, coarse, best)) best = coarse;
   }
   // The report uses the full curve; if that loses a target the scan met, take the next best.

@@ -3,7 +3,7 @@ import type { Candidate } from './candidate.js';
 import { perCoordinate } from './candidate.js';
 import type { SolveContext } from '../context.js';
 import { candidateWidths, evaluateCandidate, fullyOk, nominalOk, type Evaluated, type Start } from '../evaluate/evaluate.js';
-import { REL_TOL } from '../../policy.js';
+import { distanceToFeasible, REL_TOL } from '../../policy.js';
 import { better, shortfall, stepTop } from './rank.js';
 import { rejudged, type Reuse, type Seen } from './reuse.js';
 import { lookAt, shortfallSurelyAbove, surelyMisses, type Look } from './quick.js';
@@ -186,6 +186,8 @@ export const CLIMB_ROUNDS = 16;
 const RIDGE_STEPS = 8;
 const RIDGE_VSTEP = 0.00625;
 const RIDGE_BOX = 2;
+// Shortfall (policy.distanceToFeasible) within which a raised length move missing the targets gets a climb (fromRaised).
+const RAISED_REACH = 2;
 // First steps of the climb after ridge steps, as a multiple of the usual: gm/ID a grid step / 4, as the ridge's box.
 const RIDGE_CLIMB = 0.5;
 
@@ -229,7 +231,11 @@ function climb(
   // the limit binds, a new length is worth most with the gm/ID that brings the device back to it, a move no step of the
   // climb makes (the length alone leaves the device narrower, the gm/ID alone is too wide). Tried only from the climb's
   // own answer, so it can only improve on it; when one does, the climb goes on from there once.
-  if (sizing && step(raisedLengthMoves())) climbRounds();
+  if (sizing) {
+    const raised = raisedLengthMoves();
+    if (step(raised)) climbRounds();
+    else fromRaised(raised);
+  }
   // Stuck where several targets bind at once: steps along the ridge (search/ridge.ts), for a design meeting them. A
   // ridge step can land where the climb's own moves gain again (off the ridge, e.g. a lower gm/ID bought with a
   // higher setpoint): when the steps moved, the climb goes on from there once, with steps the size of the ridge's box.
@@ -273,6 +279,25 @@ function climb(
         if (gstep < ctx.gmidStep / 8 && vstep < 0.003) break;
       }
     }
+  }
+
+  /**
+   * With objective area, where no raised length move improves on a design meeting every target: a climb from the one
+   * nearest to meeting them of those smaller than it. A new length on the limit often needs another device's gm/ID a
+   * few steps away too (a top with less VDSsat for the headroom a raised bottom's VGS takes), which no one step makes.
+   * Their areas come from the sizing alone, so only the smaller ones are evaluated.
+   */
+  function fromRaised(raised: readonly Candidate[]): void {
+    if (ctx.spec.objective !== 'area' || !(nominalOk(best) && fullyOk(ctx, best))) return;
+    let from: Evaluated | undefined;
+    for (const c of raised) {
+      if (!(sizeOf(seen.key(c), c).area < best.area * (1 - REL_TOL))) continue;
+      const e = evaluate(c);
+      if (e && distanceToFeasible(e.margins) <= RAISED_REACH && (!from || shortfall(ctx, e) < shortfall(ctx, from))) from = e;
+    }
+    if (!from) return;
+    const r = climb(ctx, from, seen, pool, better, bound, hopeless, false, rounds, scale);
+    if (better(r, best)) best = r;
   }
 
   /** best's length moves, each with its device raised to the width limit (those it changes). */

@@ -47,20 +47,47 @@ function pullToWidth(ctx: SolveContext, c: Candidate, whole: boolean): Candidate
       if (fits(k, below)) lo = below;
     } else {
       // The highest grid gm/ID below that fits (scanned down: the lowest ones may not be realisable at all, e.g. a
-      // bottom diode's VGS leaving the device above no room), then the edge between it and the next one up.
+      // bottom diode's VGS leaving the device above no room), then the edge between it and the next one up. Where none
+      // fits, the stretch that does can lie between two grid points: the lowest too wide (`wide`) and the one below it,
+      // not realisable (`gone`).
+      let wide = NaN;
+      let gone = NaN;
       for (let j = ctx.gmids.length - 1; j >= 0; j--) {
-        if (!(ctx.gmids[j] < hi)) continue;
-        if (fits(k, ctx.gmids[j])) {
-          lo = ctx.gmids[j];
+        const x = ctx.gmids[j];
+        if (!(x < hi)) continue;
+        // fitsAt, keeping the sizing to tell too wide from not realisable.
+        d.gmid[k] = x;
+        const w = candidateWidths(ctx, d);
+        if (w !== null && w[k] <= ctx.wmax) {
+          lo = x;
           break;
         }
-        hi = ctx.gmids[j];
+        hi = x;
+        if (w !== null) [wide, gone] = [x, NaN];
+        else if (!Number.isNaN(wide) && Number.isNaN(gone)) gone = x;
       }
+      if (Number.isNaN(lo) && !Number.isNaN(gone)) [lo, hi] = fittingBetween(ctx, d, k, gone, wide);
     }
     if (Number.isNaN(lo)) return null;
     edgeGmid(ctx, d, k, lo, hi, EDGE_STEPS);
   }
   return d;
+}
+
+/**
+ * A gm/ID of device k that fits the width limit between `gone` (not realisable) and `wide` (realisable, too wide), by
+ * bisection (EDGE_STEPS at most), with the too-wide end left: [fits, wide], or [NaN, wide] when none is found.
+ */
+function fittingBetween(ctx: SolveContext, d: Candidate, k: number, gone: number, wide: number): [number, number] {
+  for (let it = 0; it < EDGE_STEPS; it++) {
+    const m = 0.5 * (gone + wide);
+    d.gmid[k] = m;
+    const w = candidateWidths(ctx, d);
+    if (w === null) gone = m;
+    else if (w[k] > ctx.wmax) wide = m;
+    else return [m, wide];
+  }
+  return [NaN, wide];
 }
 
 /**
