@@ -328,6 +328,24 @@ const FEASIBLE: Case[] = [
     id: 'n180-cascode-area-audit2-t70', kit: 'demo180', why: 'least area under a width limit and a mismatch budget',
     spec: { device: 'n', topology: 'cascode', current: 89e-6, rout: 403e3, headroom: 0.322, span: 1.34, objective: 'area', l: { min: 700e-9, max: 2e-6 }, mismatch: 0.0048, wmax: 56.5e-6 },
   },
+  {
+    // Found by audit2 (seed 20261206, #204): area 19.82e-12 m² vs reference 17.82e-12 m² (tool +11.3 %).
+    // Reference design: l [300e-9, 300e-9], gm/ID [15.375, 18.375], setpoints [0.1875].
+    id: 'p090-cascode-area-audit2-s204', kit: 'demo090', why: 'least area',
+    spec: { device: 'p', topology: 'cascode', current: 36.3e-6, rout: 1.75e6, headroom: 0.345, span: 1.12, objective: 'area', l: { min: 120e-9, max: 300e-9 }, gmid: { min: 3, max: 21 } },
+  },
+  {
+    // Found by audit2 (seed 20261206, #1119): area 149.8e-12 m² vs reference 142e-12 m² (tool +5.5 %).
+    // Reference design: l [300e-9, 300e-9], gm/ID [11.75, 23.25], setpoints [0.24375].
+    id: 'p090-cascode-area-audit2-s1119', kit: 'demo090', why: 'least area',
+    spec: { device: 'p', topology: 'cascode', current: 177e-6, rout: 813e3, headroom: 0.429, span: 0.845, objective: 'area', l: { min: 120e-9, max: 300e-9 } },
+  },
+  {
+    // Found by audit2 (seed 20261206, #1689): area 254.5e-15 m² vs reference 242.1e-15 m² (tool +5.1 %).
+    // Reference design: l [220e-9, 160e-9], gm/ID [9, 13.875], setpoints [0.25].
+    id: 'p090-cascode-area-audit2-s1689', kit: 'demo090', why: 'least area under a width limit',
+    spec: { device: 'p', topology: 'cascode', current: 3.55e-6, rout: 7.72e6, headroom: 0.426, span: 0.915, objective: 'area', l: { min: 90e-9, max: 220e-9 }, wmax: 3.02e-6 },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {
