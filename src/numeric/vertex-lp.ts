@@ -16,6 +16,8 @@ export function vertexLp(c: ArrayLike<number>, rows: readonly LpRow[], d: number
   // One matrix and one answer for every trial (thousands of them per call).
   const m = Array.from({ length: d }, () => new Float64Array(d + 1));
   const v = new Float64Array(d);
+  // A row and its opposite (a box's two sides) never make a vertex together: picks holding both are skipped.
+  const opposite = oppositeRows(rows);
   const visit = (depth: number, from: number): void => {
     if (depth === d) {
       if (!solveRows(rows, pick, d, m, v)) return;
@@ -28,12 +30,27 @@ export function vertexLp(c: ArrayLike<number>, rows: readonly LpRow[], d: number
       return;
     }
     for (let i = from; i <= rows.length - (d - depth); i++) {
+      if (opposite[i] >= 0 && opposite[i] < i && picked(pick, depth, opposite[i])) continue;
       pick[depth] = i;
       visit(depth + 1, i + 1);
     }
   };
   visit(0, 0);
   return best ? { x: best, value: bestValue } : null;
+}
+
+/** For each row, the index of a row with the opposite normal (−a), −1 when none. */
+function oppositeRows(rows: readonly LpRow[]): Int32Array {
+  const out = new Int32Array(rows.length).fill(-1);
+  for (let i = 0; i < rows.length; i++) {
+    for (let j = 0; j < i && out[i] < 0; j++) if (rows[i].a.every((x, k) => x === -rows[j].a[k])) out[i] = j;
+  }
+  return out;
+}
+
+function picked(pick: Int32Array, depth: number, i: number): boolean {
+  for (let t = 0; t < depth; t++) if (pick[t] === i) return true;
+  return false;
 }
 
 function dot(a: ArrayLike<number>, b: ArrayLike<number>): number {

@@ -7,15 +7,27 @@ import { vertexLp, type LpRow } from '../../numeric/index.js';
 // Margin (in the policy's units: 50 mV, ln Rout, …) a ridge step keeps where the design has it.
 const KEEP = 0.02;
 
+/** The objective's and the margins' slopes along one coordinate, to one side (null: not measurable there). */
+interface Slope {
+  f: number;
+  m: Float64Array;
+}
+
 /**
  * One step along a ridge of the design space, for a climb stuck where several targets bind at once: no move of one or
  * two coordinates by the climb's steps keeps every target met and improves the objective, though a move of three or
  * more in the right proportions would (e.g. a bottom gm/ID raised, its setpoint lowered and the top's gm/ID lowered,
- * each by its own amount). From forward differences of the objective and the margins in each continuous coordinate
- * (gm/ID per device, setpoints), the linearised problem (objective down, every margin kept ≥ 0, each coordinate
- * within `box` steps `h`) is solved as a small linear programme, and its answer tried; on failure again within half and
- * a quarter of the box (sequential linear programming with a trust region, common practice). Returns the first try
- * `better` prefers to `best`, or null. `lo`, `hi`: limits of each coordinate.
+ * each by its own amount). From differences of the objective and the margins in each continuous coordinate (gm/ID per
+ * device, setpoints), the linearised problem (objective down, every margin kept ≥ 0, each coordinate within `box`
+ * steps `h`) is solved as a small linear programme, and its answer tried; on failure again within half and a quarter
+ * of the box (sequential linear programming with a trust region, common practice). Returns the first try `better`
+ * prefers to `best`, or null. `lo`, `hi`: limits of each coordinate.
+ *
+ * The differences are one-sided (forward where it can be realised), and a margin can have a kink where the design
+ * stands (the headroom is least at some setpoint and rises on both sides of it). When no try is better and an answer
+ * moved a coordinate the other way, the slopes that side are measured too, and the tries are made again with the
+ * programme solved for each side of each coordinate measured both ways, on that side's slopes (a piecewise linear
+ * model, exact on either side of the kink).
  */
 export function ridgeStep(
   best: Evaluated, h: readonly number[], box: number, lo: readonly number[], hi: readonly number[],
@@ -25,66 +37,123 @@ export function ridgeStep(
   const d = x.length;
   const f0 = objectiveOf(best, objective);
   const m0 = marginList(best.margins);
-  const gradF = new Float64Array(d);
-  const gradM = m0.map(() => new Float64Array(d));
-  const free: boolean[] = [];
-  for (let k = 0; k < d; k++) {
-    // Forward difference, else backward where the forward point cannot be realised (or leaves a margin undefined).
-    let dk = h[k];
-    let e = x[k] + dk <= hi[k] ? evaluate(withCoordinate(best.cand, k, x[k] + dk)) : null;
-    if (!usable(e, m0)) {
-      dk = -h[k];
-      e = x[k] + dk >= lo[k] ? evaluate(withCoordinate(best.cand, k, x[k] + dk)) : null;
-    }
-    free.push(usable(e, m0));
-    if (!usable(e, m0)) continue;
-    gradF[k] = (objectiveOf(e!, objective) - f0) / dk;
+  // Slopes up (+1) and down (−1) per coordinate; undefined until measured.
+  const up: (Slope | null | undefined)[] = new Array(d);
+  const down: (Slope | null | undefined)[] = new Array(d);
+  const measure = (k: number, dir: 1 | -1): Slope | null => {
+    const dk = dir * h[k];
+    const v = x[k] + dk;
+    const e = v <= hi[k] && v >= lo[k] ? evaluate(withCoordinate(best.cand, k, v)) : null;
+    if (!usable(e, m0)) return null;
     const m = marginList(e!.margins);
-    for (let j = 0; j < m0.length; j++) gradM[j][k] = (m[j] - m0[j]) / dk;
-  }
-  // Half-spaces a·δ ≤ b: the linearised margins; the box is added per try, halved after each failed one.
-  const rows: LpRow[] = [];
-  // Each margin kept at KEEP or at what it is, if less (a step that spends all of a margin overshoots on the curvature).
-  for (let j = 0; j < m0.length; j++) if (Number.isFinite(m0[j])) rows.push({ a: gradM[j].map((g) => -g), b: Math.max(m0[j] - Math.min(m0[j], KEEP), 0) });
-  for (const scale of [1, 0.5, 0.25]) {
-    const answer = vertexLp(gradF, withBox(rows, x, h, free, scale * box, lo, hi), d);
-    // None, or none better than standing still (by the linearised objective).
-    if (!answer || !(answer.value < -1e-12)) return null;
-    const delta = answer.x;
-    let moved = best.cand;
-    for (let k = 0; k < d; k++) moved = withCoordinate(moved, k, x[k] + delta[k]);
-    const e = evaluate(moved);
-    if (e && better(e, best)) return e;
-  }
-  return null;
+    return { f: (objectiveOf(e!, objective) - f0) / dk, m: Float64Array.from(m0, (v0, j) => (m[j] - v0) / dk) };
+  };
+  // Forward, else backward where the forward point cannot be realised (or leaves a margin undefined).
+  for (let k = 0; k < d; k++) if (!(up[k] = measure(k, 1))) down[k] = measure(k, -1);
+  // Whether an answer moved a coordinate to a side not measured.
+  let against = false;
+  // The answer within `r` steps; when it moves a coordinate to a side not measured, with `sides` that side is
+  // measured and the programme solved again.
+  const answerWithin = (r: number, sides: boolean) => {
+    let answer = bestOverSides(x, h, r, lo, hi, m0, up, down);
+    for (;;) {
+      const unmeasured = answer ? unmeasuredSides(answer.x, up, down) : [];
+      if (unmeasured.length > 0) against = true;
+      if (unmeasured.length === 0 || !sides) return answer;
+      for (const [k, dir] of unmeasured) (dir > 0 ? up : down)[k] = measure(k, dir);
+      answer = bestOverSides(x, h, r, lo, hi, m0, up, down);
+    }
+  };
+  const tries = (sides: boolean): Evaluated | null => {
+    for (const scale of [1, 0.5, 0.25]) {
+      const answer = answerWithin(box * scale, sides);
+      // None, or none better than standing still (by the linearised objective).
+      if (!answer || !(answer.value < -1e-12)) return null;
+      let moved = best.cand;
+      for (let k = 0; k < d; k++) moved = withCoordinate(moved, k, x[k] + answer.x[k]);
+      const e = evaluate(moved);
+      if (e && better(e, best)) return e;
+    }
+    return null;
+  };
+  // First on the slopes of one side, extrapolated to the other (no more evaluations, and right where the margins are
+  // smooth); when no try was better and an answer went where that extrapolates, again with that side measured.
+  return tries(false) ?? (against ? tries(true) : null);
 }
 
-/** The rows with the box added: each coordinate within `box` of its steps and its limits (frozen ones fixed). */
-function withBox(
-  rows: readonly LpRow[], x: readonly number[], h: readonly number[], free: readonly boolean[],
-  box: number, lo: readonly number[], hi: readonly number[],
-): LpRow[] {
-  const d = x.length;
-  const ups: number[] = [];
-  const downs: number[] = [];
-  for (let k = 0; k < d; k++) {
-    const r = free[k] ? box * h[k] : 0;
-    ups.push(Math.max(Math.min(r, hi[k] - x[k]), 0));
-    downs.push(Math.max(Math.min(r, x[k] - lo[k]), 0));
+/** The coordinates `delta` moves to a side whose slopes are not measured yet, with that side. */
+function unmeasuredSides(delta: ArrayLike<number>, up: readonly (Slope | null | undefined)[], down: readonly (Slope | null | undefined)[]): [number, 1 | -1][] {
+  const out: [number, 1 | -1][] = [];
+  for (let k = 0; k < delta.length; k++) {
+    if (delta[k] > 0 && up[k] === undefined) out.push([k, 1]);
+    else if (delta[k] < 0 && down[k] === undefined) out.push([k, -1]);
   }
+  return out;
+}
+
+/**
+ * The linearised problem's best answer within `box` steps: a coordinate with slopes one way only moves either way on
+ * them; one measured both ways moves one way at a time, on that side's slopes (each combination of sides solved).
+ */
+function bestOverSides(
+  x: readonly number[], h: readonly number[], box: number, lo: readonly number[], hi: readonly number[], m0: readonly number[],
+  up: readonly (Slope | null | undefined)[], down: readonly (Slope | null | undefined)[],
+): { x: Float64Array; value: number } | null {
+  const d = x.length;
+  const both: number[] = [];
+  for (let k = 0; k < d; k++) if (up[k] && down[k]) both.push(k);
+  let best: { x: Float64Array; value: number } | null = null;
+  for (let pattern = 0; pattern < 1 << both.length; pattern++) {
+    const c = new Float64Array(d);
+    const slopes: (Slope | null)[] = [];
+    const reach: { up: number; down: number }[] = [];
+    for (let k = 0; k < d; k++) {
+      const j = both.indexOf(k);
+      const side = j >= 0 ? ((pattern >> j) & 1 ? 1 : -1) : 0;
+      const s = side > 0 ? up[k]! : side < 0 ? down[k]! : (up[k] ?? down[k] ?? null);
+      slopes.push(s);
+      c[k] = s?.f ?? 0;
+      // Frozen without slopes; one side only when measured both ways, or when the other cannot be realised.
+      const r = s ? box * h[k] : 0;
+      const upOk = side >= 0 && up[k] !== null;
+      const downOk = side <= 0 && down[k] !== null;
+      reach.push({ up: upOk ? Math.max(Math.min(r, hi[k] - x[k]), 0) : 0, down: downOk ? Math.max(Math.min(r, x[k] - lo[k]), 0) : 0 });
+    }
+    const answer = vertexLp(c, withBox(marginRows(m0, slopes), reach), d);
+    if (answer && (!best || answer.value < best.value)) best = answer;
+  }
+  return best;
+}
+
+/**
+ * Half-spaces a·δ ≤ b: the linearised margins, each kept at KEEP or at what it is, if less (a step that spends all of a
+ * margin overshoots on the curvature). `slopes`: per coordinate (null: frozen).
+ */
+function marginRows(m0: readonly number[], slopes: readonly (Slope | null)[]): LpRow[] {
+  const rows: LpRow[] = [];
+  for (let j = 0; j < m0.length; j++) {
+    if (!Number.isFinite(m0[j])) continue;
+    rows.push({ a: Float64Array.from(slopes, (s) => -(s?.m[j] ?? 0)), b: Math.max(m0[j] - Math.min(m0[j], KEEP), 0) });
+  }
+  return rows;
+}
+
+/** The rows with the box added: each coordinate within its reach up and down. */
+function withBox(rows: readonly LpRow[], reach: readonly { up: number; down: number }[]): LpRow[] {
+  const d = reach.length;
   // A row that holds everywhere in the box cannot bind (the vertex search grows with the rows): only the others.
   const out = rows.filter((r) => {
     let most = 0;
-    for (let k = 0; k < d; k++) most += Math.max(r.a[k] * ups[k], -r.a[k] * downs[k]);
+    for (let k = 0; k < d; k++) most += Math.max(r.a[k] * reach[k].up, -r.a[k] * reach[k].down);
     return most > r.b;
   });
   for (let k = 0; k < d; k++) {
-    const up = new Float64Array(d);
-    up[k] = 1;
-    out.push({ a: up, b: ups[k] });
-    const down = new Float64Array(d);
-    down[k] = -1;
-    out.push({ a: down, b: downs[k] });
+    const upRow = new Float64Array(d);
+    upRow[k] = 1;
+    out.push({ a: upRow, b: reach[k].up });
+    const downRow = new Float64Array(d);
+    downRow[k] = -1;
+    out.push({ a: downRow, b: reach[k].down });
   }
   return out;
 }
