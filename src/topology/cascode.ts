@@ -1,10 +1,9 @@
-import type { TopologyDescriptor } from './types.js';
+import { squeezedSetpoint, type TopologyDescriptor } from './types.js';
 import { bounds } from './bounds.js';
 import { runsOf } from './runs.js';
 
-// The screen's setpoint step, V, and the VDS a squeezed top keeps at mid-span (otherBias), V.
+// The screen's setpoint step, V.
 const SETPOINT_STEP = 0.025;
-const TOP_ROOM = 0.15;
 
 /** Two devices with low-voltage biasing: the bottom drain sits at a chosen VDS setpoint. */
 export const cascode: TopologyDescriptor = {
@@ -17,11 +16,11 @@ export const cascode: TopologyDescriptor = {
   ruleOfThumbHeadroom: (vov) => vov[0] + vov[1],
   refineVoltageStep: 0.0125,
   otherBias(c, vmid) {
-    // The bottom takes all but TOP_ROOM of mid-span: as the output falls to the headroom target the top is squeezed
-    // out of saturation and the bottom's drain follows it down, so a long bottom alone can carry the Rout target with
-    // its setpoint far above the target, where the screen's estimate (s1 + VDSsat2) and its setpoint grid never go.
-    const s1 = Math.floor((vmid - TOP_ROOM) / SETPOINT_STEP + 1e-9) * SETPOINT_STEP;
-    return s1 > c.setpoints[0] + SETPOINT_STEP ? [{ ...c, setpoints: [Math.round(s1 * 1e6) / 1e6] }] : [];
+    // The bottom takes all but the squeezed top's room of mid-span (squeezedSetpoint): its drain follows the top down
+    // as the output falls to the headroom target, so a long bottom alone can carry the Rout target with its setpoint far
+    // above the target, where the screen's estimate (s1 + VDSsat2) and its setpoint grid never go.
+    const s1 = squeezedSetpoint(vmid, 0, c.setpoints[0], SETPOINT_STEP);
+    return s1 === null ? [] : [{ ...c, setpoints: [s1] }];
   },
   screen(t) {
     for (const s1 of t.setpointGrid(SETPOINT_STEP)) {

@@ -1,4 +1,4 @@
-import type { ScreenTools, StageOption, TopologyDescriptor } from './types.js';
+import { squeezedSetpoint, type ScreenTools, type StageOption, type TopologyDescriptor } from './types.js';
 import { BottomFinder } from './bottom-finder.js';
 
 /**
@@ -45,9 +45,6 @@ function groupBounds(options: readonly StageOption[]): { ro: number; gain: numbe
   return { ro, gain, area, sigma, positive };
 }
 
-// VDS a squeezed top keeps at mid-span (otherBias), V.
-const TOP_ROOM = 0.15;
-
 /** Three devices with low-voltage biasing: two VDS setpoints below the top device. */
 export const triple: TopologyDescriptor = {
   name: 'triple',
@@ -59,12 +56,12 @@ export const triple: TopologyDescriptor = {
   ruleOfThumbHeadroom: (vov) => vov[0] + vov[1] + vov[2],
   refineVoltageStep: 0.025,
   otherBias(c, vmid, gmidLow) {
-    // The middle takes all but TOP_ROOM of mid-span: as the output falls the top leaves saturation first and the
-    // middle gives up its spare VDS, so the headroom can sit far below s1 + s2 + VDSsat3, where the screen's estimate
-    // (and so its setpoint grid) never goes. The climb takes it from there.
-    const s2 = Math.floor((vmid - TOP_ROOM - c.setpoints[0]) / 0.025 + 1e-9) * 0.025;
-    if (!(s2 > c.setpoints[1] + 0.025)) return [];
-    const setpoints = [c.setpoints[0], Math.round(s2 * 1e6) / 1e6];
+    // The middle takes all but the squeezed top's room of mid-span (squeezedSetpoint): the top leaves saturation first
+    // and the middle gives up its spare VDS, so the headroom can sit far below s1 + s2 + VDSsat3, where the screen's
+    // estimate (and so its setpoint grid) never goes. The climb takes it from there.
+    const s2 = squeezedSetpoint(vmid, c.setpoints[0], c.setpoints[1], 0.025);
+    if (s2 === null) return [];
+    const setpoints = [c.setpoints[0], s2];
     // Also with the top at the lowest gm/ID: squeezed, it carries the current in triode and gives no gain, so the
     // strongest inversion (the narrowest device) may serve.
     const out = [{ ...c, setpoints }];

@@ -112,3 +112,17 @@ export interface TopologyDescriptor extends StackShape {
 export function noOtherBias(): Candidate[] {
   return [];
 }
+
+/** VDS a squeezed top keeps at mid-span (squeezedSetpoint), V. */
+const TOP_ROOM = 0.15;
+
+/**
+ * For otherBias: the setpoint of the device under the top when it takes all of mid-span `vmid` but TOP_ROOM and the
+ * setpoints `below` it, on a grid of `step` (rounded to 1 µV); null unless that is more than a step above `current`.
+ * As the output falls to the headroom target the top is squeezed out of saturation and the device under it gives up
+ * its spare VDS, so the headroom can sit far below what the screen's estimate (setpoints + VDSsat of the top) says.
+ */
+export function squeezedSetpoint(vmid: number, below: number, current: number, step: number): number | null {
+  const s = Math.floor((vmid - TOP_ROOM - below) / step + 1e-9) * step;
+  return s > current + step ? Math.round(s * 1e6) / 1e6 : null;
+}
