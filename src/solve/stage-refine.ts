@@ -276,14 +276,7 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
           const d = sideOf(sides[kind], { ...c, gmid });
           if (d) out.push(d);
         }
-        for (let j = 0; j < c.setpoints.length; j++) {
-          for (const n of SETPOINT_JUMPS) {
-            const v = c.setpoints[j] + n * step.v;
-            if (!(v >= 0.02)) continue;
-            const d = sideOf(sides[kind], { ...c, gmid, setpoints: c.setpoints.map((x, i) => (i === j ? v : x)) });
-            if (d) out.push(d);
-          }
-        }
+        setpointJumps({ ...c, gmid }, SETPOINT_JUMPS, step.v, kind, out);
       }
     }
     return out;
@@ -295,15 +288,20 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
     for (let k = 0; k < from.gmid.length; k++) {
       const g = from.gmid[k] - step.g;
       if (!(g >= gLo - 1e-9)) continue;
-      const gmid = from.gmid.map((x, i) => (i === k ? g : x));
-      for (let j = 0; j < from.setpoints.length; j++) {
-        for (const n of TRADE_JUMPS) {
-          const d = sideOf(sides[kind], { ...from, gmid, setpoints: from.setpoints.map((x, i) => (i === j ? x + n * step.v : x)) });
-          if (d) out.push(d);
-        }
-      }
+      setpointJumps({ ...from, gmid: from.gmid.map((x, i) => (i === k ? g : x)) }, TRADE_JUMPS, step.v, kind, out);
     }
     return out;
+  };
+  // `c` with one setpoint moved by each of `jumps` steps of `vstep` (those left at 0.02 V or more), onto `out`.
+  const setpointJumps = (c: Candidate, jumps: readonly number[], vstep: number, kind: 'input' | 'load', out: SideMove[]): void => {
+    for (let j = 0; j < c.setpoints.length; j++) {
+      for (const n of jumps) {
+        const v = c.setpoints[j] + n * vstep;
+        if (!(v >= 0.02)) continue;
+        const d = sideOf(sides[kind], { ...c, setpoints: c.setpoints.map((x, i) => (i === j ? v : x)) });
+        if (d) out.push(d);
+      }
+    }
   };
   const movesOf = (best: StageDesign, steps: Steps, kind: 'single' | 'pair' | 'cross' | 'jump'): Move[] => {
     const out: Move[] = [];

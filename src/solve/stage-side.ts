@@ -125,39 +125,40 @@ export function makeSide(stage: StageSpec, kind: SideKind, kit: KitAccess, suppl
  * and there are only lengths × gm/ID values. `roomy`: screened with all the headroom the side may have at once.
  */
 export function sideCandidates(stage: StageSpec, side: Side, topology: Topology, supply: number, roomy = false): Candidate[] {
-  const ctx = side.ctx;
   if (topology === 'single') return singleCandidates(side);
   const free = Math.max(supply - stage.swing, 0.1);
   const [lo, hi] = headroomRange(side.vd, supply);
   const rout = sideRout(stage);
-  const base = ctx.spec;
   const seen = new CandidateMap<Candidate>();
+  const add = (cands: readonly Candidate[]) => {
+    for (const c of cands) seen.set(seen.key(c), c);
+  };
+  for (const share of roomy ? [] : sharesOf(stage, side.kind)) add(screenAt(side, topology, rout, Math.min(Math.max(share * free, lo), hi)));
+  // The input side's gain is gm·Rout, its gm set by the input device's gm/ID: at the top of the range it needs the
+  // least Rout, and a stack screen ranking by area alone never proposes it (a higher gm/ID only costs width). Such
+  // inputs, at their least headroom, leave the load the most room, which the smallest pairs often spend on a long
+  // load at low gm/ID: screened once more with the Rout target at the top gm/ID and the least headroom allowed.
+  if (!roomy && side.kind === 'input') {
+    const top = side.ctx.gmids[side.ctx.gmids.length - 1];
+    add(screenAt(side, topology, (2 * stage.gain) / (top * stage.current), lo));
+  }
+  // A wide swing target can leave a share too small for any design of the topology (a triple's lower devices
+  // need their VDSsat each) although the stage still holds its gain past the load's saturation edge: then the
+  // side is screened with all the headroom it may have, and the traced pairs say what the stage reaches.
+  if (seen.size === 0) add(screenAt(side, topology, rout, hi));
+  return [...seen.values()];
+}
+
+/** The stack screen of one side with derived targets: Rout `rout`, headroom `h` and the span to match; the side's own spec is kept. */
+function screenAt(side: Side, topology: Topology, rout: number, h: number): Candidate[] {
+  const ctx = side.ctx;
+  const base = ctx.spec;
   try {
-    for (const share of roomy ? [] : sharesOf(stage, side.kind)) {
-      const h = Math.min(Math.max(share * free, lo), hi);
-      ctx.spec = { ...base, rout, headroom: h, span: 2 * side.vd - h };
-      for (const c of screen(ctx, topology)) seen.set(seen.key(c), c);
-    }
-    // The input side's gain is gm·Rout, its gm set by the input device's gm/ID: at the top of the range it needs the
-    // least Rout, and a stack screen ranking by area alone never proposes it (a higher gm/ID only costs width). Such
-    // inputs, at their least headroom, leave the load the most room, which the smallest pairs often spend on a long
-    // load at low gm/ID: screened once more with the Rout target at the top gm/ID and the least headroom allowed.
-    if (!roomy && side.kind === 'input') {
-      const top = ctx.gmids[ctx.gmids.length - 1];
-      ctx.spec = { ...base, rout: (2 * stage.gain) / (top * stage.current), headroom: lo, span: 2 * side.vd - lo };
-      for (const c of screen(ctx, topology)) seen.set(seen.key(c), c);
-    }
-    // A wide swing target can leave a share too small for any design of the topology (a triple's lower devices
-    // need their VDSsat each) although the stage still holds its gain past the load's saturation edge: then the
-    // side is screened with all the headroom it may have, and the traced pairs say what the stage reaches.
-    if (seen.size === 0) {
-      ctx.spec = { ...base, rout, headroom: hi, span: 2 * side.vd - hi };
-      for (const c of screen(ctx, topology)) seen.set(seen.key(c), c);
-    }
+    ctx.spec = { ...base, rout, headroom: h, span: 2 * side.vd - h };
+    return screen(ctx, topology);
   } finally {
     ctx.spec = base;
   }
-  return [...seen.values()];
 }
 
 /**
@@ -198,16 +199,8 @@ export function roomLeft(input: Side, d: SideDesign, vs: Float64Array, j0: numbe
  */
 export function roomCandidates(stage: StageSpec, side: Side, topology: Topology, supply: number, room: number): Candidate[] {
   if (topology !== 'cascode-stacked') return [];
-  const ctx = side.ctx;
   const [lo, hi] = headroomRange(side.vd, supply);
-  const h = Math.min(Math.max(room, lo), hi);
-  const base = ctx.spec;
-  try {
-    ctx.spec = { ...base, rout: sideRout(stage), headroom: h, span: 2 * side.vd - h };
-    return screen(ctx, topology);
-  } finally {
-    ctx.spec = base;
-  }
+  return screenAt(side, topology, sideRout(stage), Math.min(Math.max(room, lo), hi));
 }
 
 /**

@@ -12,6 +12,7 @@ import { paretoStages } from './stage-front.js';
 import { checkStageCover } from './table-cover.js';
 import { refineStage, type SideMemo } from './stage-refine.js';
 import { CandidateMap } from './search/candidate-map.js';
+import type { Candidate } from './search/candidate.js';
 import { fullyOkMemo, pickStage } from './stage-order.js';
 
 /** Output grid step of the pair screen, V. */
@@ -32,24 +33,29 @@ function designs(sides: StageSides, side: StageSides['input'], topology: Topolog
   const out: SideDesign[] & { screened?: boolean } = [];
   side.narrowestTooWide = undefined; // this topology's own
   const cands = sideCandidates(sides.stage, side, topology, sides.supply);
-  for (const c of cands) {
-    const d = sideDesign(side, c, vs, j0, sides.stage, sides.supply, gmMax);
-    if (d) out.push(d);
-  }
+  sizedInto(out, sides, side, cands, [], vs, j0, gmMax);
   // Screen again with all the headroom the side may have when the shares' candidates were all refused (a too-small
   // headroom share buys Rout with width beyond the width limit), or when a load has Rout to spare (spareRout).
   const refused = out.length === 0 && cands.length > 0 && side.narrowestTooWide !== undefined;
   if (refused || (side.kind === 'load' && spareRout(sides.stage, out, j0))) {
-    const seen = new CandidateMap<true>();
-    for (const c of cands) seen.set(seen.key(c), true);
-    for (const c of sideCandidates(sides.stage, side, topology, sides.supply, true)) {
-      if (seen.has(seen.key(c))) continue;
-      const d = sideDesign(side, c, vs, j0, sides.stage, sides.supply, gmMax);
-      if (d) out.push(d);
-    }
+    sizedInto(out, sides, side, sideCandidates(sides.stage, side, topology, sides.supply, true), cands, vs, j0, gmMax);
   }
   out.screened = cands.length > 0;
   return out;
+}
+
+/** The side designs of `cands` not among `known` onto `out` (those the tables cannot realise left out). */
+function sizedInto(
+  out: SideDesign[], sides: StageSides, side: StageSides['input'], cands: readonly Candidate[], known: readonly Candidate[],
+  vs: Float64Array, j0: number, gmMax?: number,
+): void {
+  const seen = new CandidateMap<true>();
+  for (const c of known) seen.set(seen.key(c), true);
+  for (const c of cands) {
+    if (seen.has(seen.key(c))) continue;
+    const d = sideDesign(side, c, vs, j0, sides.stage, sides.supply, gmMax);
+    if (d) out.push(d);
+  }
 }
 
 /** The pairs traced exactly as one circuit each (those the tables cannot realise left out). */
@@ -78,14 +84,8 @@ function leanInputs(sides: StageSides, inputs: readonly SideDesign[], vs: Float6
 
 /** Load designs from the room the leanest input leaves (roomCandidates), those already among `loads` left out. */
 function roomLoads(sides: StageSides, topology: Topology, vs: Float64Array, j0: number, gmMax: number, room: number, loads: readonly SideDesign[]): SideDesign[] {
-  const seen = new CandidateMap<true>();
-  for (const d of loads) seen.set(seen.key(d.cand), true);
   const out: SideDesign[] = [];
-  for (const c of roomCandidates(sides.stage, sides.load, topology, sides.supply, room)) {
-    if (seen.has(seen.key(c))) continue;
-    const d = sideDesign(sides.load, c, vs, j0, sides.stage, sides.supply, gmMax);
-    if (d) out.push(d);
-  }
+  sizedInto(out, sides, sides.load, roomCandidates(sides.stage, sides.load, topology, sides.supply, room), loads.map((d) => d.cand), vs, j0, gmMax);
   return out;
 }
 
