@@ -67,7 +67,7 @@ function near(objective: StackSpec['objective'], e: Evaluated, best: Evaluated):
  * nearest to meeting them).
  */
 function seedsOf(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[], reach = REACH): Evaluated[] {
-  const ok = nominalOk(best) && fullyOk(ctx, best);
+  const ok = fullyOk(ctx, best);
   // Without a design meeting every corner, seed from those nearest to it over all corners (designs meeting
   // the nominal targets but missing at another corner included: they are often the nearest).
   const rest = pool
@@ -147,7 +147,7 @@ function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool:
   // in the next. Only for searches that meet nothing, so it costs nothing where the first climbs succeed; not in the
   // meet-only searches of the nearest points' width bisection, which repeat the search at several limits. With them, the
   // nearest designs of the length choices beyond the climb's reach: the nearer ones' climbs have failed.
-  if (!ctx.meetOnly && !(nominalOk(best) && fullyOk(ctx, best))) {
+  if (!ctx.meetOnly && !fullyOk(ctx, best)) {
     const far = seedsOf(ctx, first, pool, Infinity).filter((e) => !seeds.includes(e));
     const coarse = refine(ctx, [...seeds, ...far], seen, pool, undefined, undefined, CLIMB_ROUNDS, 2);
     if (coarse && better(ctx, coarse, best)) best = coarse;

@@ -22,8 +22,8 @@ const SHORTFALL_STEP = 0.02;
  */
 export function better(ctx: SolveContext, a: Evaluated, b: Evaluated): boolean {
   const obj = ctx.spec.objective;
-  if (nominalOk(b) && fullyOk(ctx, b)) return nominalOk(a) && compareDesigns(obj, a, b) < 0 && fullyOk(ctx, a);
-  if (nominalOk(a) && fullyOk(ctx, a)) return true;
+  if (fullyOk(ctx, b)) return nominalOk(a) && compareDesigns(obj, a, b) < 0 && fullyOk(ctx, a);
+  if (fullyOk(ctx, a)) return true;
   // Neither meets everything: judge both by their shortfall at every corner, not only where it was computed,
   // or a nominal-only shortfall would look smaller than one that includes a corner's miss.
   // Shortfalls within ~2 % of Rout (1 mV of headroom) tie, so the nearest design is not bought with huge area.

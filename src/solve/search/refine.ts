@@ -2,7 +2,7 @@ import { topologyOf } from '../../topology/index.js';
 import type { Candidate } from './candidate.js';
 import { perCoordinate } from './candidate.js';
 import type { SolveContext } from '../context.js';
-import { candidateWidths, evaluateCandidate, fullyOk, nominalOk, type Evaluated, type Start } from '../evaluate/evaluate.js';
+import { candidateWidths, evaluateCandidate, fullyOk, type Evaluated, type Start } from '../evaluate/evaluate.js';
 import { distanceToFeasible, REL_TOL } from '../../policy.js';
 import { better, shortfall, stepTop } from './rank.js';
 import { rejudged, type Reuse, type Seen } from './reuse.js';
@@ -108,10 +108,10 @@ export function refine(
 ): Evaluated | undefined {
   // With the spec's own order and objective area, a move whose area is no smaller than a design meeting every
   // target cannot win: its area (from the sizing alone) spares the exact evaluation.
-  const bound = prefer ? () => Infinity : (b: Evaluated) => (ctx.spec.objective === 'area' && nominalOk(b) && fullyOk(ctx, b) ? b.area : Infinity);
+  const bound = prefer ? () => Infinity : (b: Evaluated) => (ctx.spec.objective === 'area' && fullyOk(ctx, b) ? b.area : Infinity);
   // By the spec's order nothing short of the nominal targets beats a design meeting every target; short of them,
   // a move beats one only with a smaller shortfall in rank.better's steps.
-  if (!prefer) hopeless = (l, b) => (nominalOk(b) && fullyOk(ctx, b) ? surelyMisses(ctx, l) : shortfallSurelyAbove(ctx, l, stepTop(shortfall(ctx, b))));
+  if (!prefer) hopeless = (l, b) => (fullyOk(ctx, b) ? surelyMisses(ctx, l) : shortfallSurelyAbove(ctx, l, stepTop(shortfall(ctx, b))));
   // The sizing's own climbs (the spec's order, not a meet-only search) also get the ridge steps and raised length moves.
   const sizing = !prefer && !ctx.meetOnly;
   prefer ??= (a, b) => better(ctx, a, b);
@@ -245,7 +245,7 @@ function climb(
   /** Ridge steps from `best` (at most RIDGE_STEPS); whether any was taken. */
   function ridgeSteps(): boolean {
     let moved = false;
-    for (let it = 0; sizing && it < RIDGE_STEPS && nominalOk(best) && fullyOk(ctx, best); it++) {
+    for (let it = 0; sizing && it < RIDGE_STEPS && fullyOk(ctx, best); it++) {
       const c = best.cand;
       const h = perCoordinate(c, ctx.gmidStep / 8, RIDGE_VSTEP);
       const lo = perCoordinate(c, ctx.gmids[0], 0.02);
@@ -269,7 +269,7 @@ function climb(
       const singles = neighbours(ctx, best.cand, gstep, vstep, false);
       const lengths = best.cand.l;
       const moved = (m: Candidate) => m.l.some((l, k) => l !== lengths[k]);
-      const short = !(nominalOk(best) && fullyOk(ctx, best));
+      const short = !fullyOk(ctx, best);
       let improved = step(short ? singles.filter((m) => !moved(m)) : singles);
       if (!improved && short) improved = step(singles.filter(moved));
       if (!improved) improved = step(neighbours(ctx, best.cand, gstep, vstep, true));
@@ -288,7 +288,7 @@ function climb(
    * Their areas come from the sizing alone, so only the smaller ones are evaluated.
    */
   function fromRaised(raised: readonly Candidate[]): void {
-    if (ctx.spec.objective !== 'area' || !(nominalOk(best) && fullyOk(ctx, best))) return;
+    if (ctx.spec.objective !== 'area' || !fullyOk(ctx, best)) return;
     let from: Evaluated | undefined;
     for (const c of raised) {
       if (!(sizeOf(seen.key(c), c).area < best.area * (1 - REL_TOL))) continue;
