@@ -55,15 +55,13 @@ function pullToWidth(ctx: SolveContext, c: Candidate, whole: boolean): Candidate
       for (let j = ctx.gmids.length - 1; j >= 0; j--) {
         const x = ctx.gmids[j];
         if (!(x < hi)) continue;
-        // fitsAt, keeping the sizing to tell too wide from not realisable.
-        d.gmid[k] = x;
-        const w = candidateWidths(ctx, d);
-        if (w !== null && w[k] <= ctx.wmax) {
+        const at = widthAt(ctx, d, k, x);
+        if (at === 'fits') {
           lo = x;
           break;
         }
         hi = x;
-        if (w !== null) [wide, gone] = [x, NaN];
+        if (at === 'wide') [wide, gone] = [x, NaN];
         else if (!Number.isNaN(wide) && Number.isNaN(gone)) gone = x;
       }
       if (Number.isNaN(lo) && !Number.isNaN(gone)) [lo, hi] = fittingBetween(ctx, d, k, gone, wide);
@@ -81,10 +79,9 @@ function pullToWidth(ctx: SolveContext, c: Candidate, whole: boolean): Candidate
 function fittingBetween(ctx: SolveContext, d: Candidate, k: number, gone: number, wide: number): [number, number] {
   for (let it = 0; it < EDGE_STEPS; it++) {
     const m = 0.5 * (gone + wide);
-    d.gmid[k] = m;
-    const w = candidateWidths(ctx, d);
-    if (w === null) gone = m;
-    else if (w[k] > ctx.wmax) wide = m;
+    const at = widthAt(ctx, d, k, m);
+    if (at === 'gone') gone = m;
+    else if (at === 'wide') wide = m;
     else return [m, wide];
   }
   return [NaN, wide];
@@ -110,9 +107,14 @@ export function raisedToLimit(ctx: SolveContext, c: Candidate, k: number): Candi
  * in the exhaustive reference's width edge.
  */
 export function fitsAt(ctx: SolveContext, d: Candidate, k: number, g: number): boolean {
+  return widthAt(ctx, d, k, g) === 'fits';
+}
+
+/** Device k of `d` at gm/ID g (left in d.gmid[k]), the others as they are: within the width limit, wider, or not realisable. */
+function widthAt(ctx: SolveContext, d: Candidate, k: number, g: number): 'fits' | 'wide' | 'gone' {
   d.gmid[k] = g;
   const w = candidateWidths(ctx, d);
-  return w !== null && w[k] <= ctx.wmax;
+  return w === null ? 'gone' : w[k] <= ctx.wmax ? 'fits' : 'wide';
 }
 
 /**
