@@ -41,6 +41,25 @@ for i in range(60):
         'x': res.x.tolist() if res.status == 0 else None,
     })
 
+# Shaped like the ridge step's programmes, where vertexLp takes the simplex path: x = 0 feasible (every b >= 0, some
+# rows through it with b = 0), objective entries exactly zero for coordinates it does not need (optimal faces, not
+# single vertices), rows of the box only for some coordinates pinned at zero reach.
+for i in range(40):
+    d = int(rng.integers(2, 6))
+    m = int(rng.integers(1, 7))
+    A = rng.normal(size=(m, d))
+    b = np.where(rng.uniform(size=m) < 0.4, 0.0, rng.uniform(0, 0.5, size=m))
+    r = np.where(rng.uniform(size=d) < 0.15, 0.0, rng.uniform(0.05, 0.5, size=d))
+    A_ub = np.vstack([A, np.eye(d), -np.eye(d)])
+    b_ub = np.concatenate([b, r, r])
+    c = np.where(rng.uniform(size=d) < 0.4, 0.0, rng.normal(size=d))
+    res = linprog(c, A_ub=A_ub, b_ub=b_ub, bounds=[(None, None)] * d, method='highs')
+    cases.append({
+        'c': c.tolist(), 'A': A_ub.tolist(), 'b': b_ub.tolist(),
+        'status': int(res.status), 'value': float(res.fun) if res.status == 0 else None,
+        'x': res.x.tolist() if res.status == 0 else None,
+    })
+
 os.makedirs(OUT, exist_ok=True)
 with open(os.path.join(OUT, 'vertex-lp.json'), 'w') as f:
     json.dump({'versions': {'scipy': scipy.__version__, 'numpy': np.__version__, 'python': sys.version.split()[0]}, 'cases': cases}, f, indent=1)

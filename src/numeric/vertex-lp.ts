@@ -5,11 +5,24 @@ export interface LpRow {
 }
 
 /**
- * min c·x subject to a_i·x ≤ b_i (like scipy.optimize.linprog with only A_ub, b_ub and free bounds), by trying every
- * vertex (d of the rows held as equalities) and keeping the best feasible one. For the small problems of a ridge step
- * (up to five unknowns, about sixteen rows); the rows must bound the feasible set. null when no vertex is feasible.
+ * min c·x subject to a_i·x ≤ b_i (like scipy.optimize.linprog with only A_ub, b_ub and free bounds): the best vertex
+ * (d of the rows held as equalities), the first in the order of the rows' indices among equals. For the small problems
+ * of a ridge step (up to five unknowns, about sixteen rows); the rows must bound the feasible set. null when no vertex
+ * is feasible.
+ *
+ * Where x = 0 is feasible (every b ≥ 0, as in a ridge step), the simplex method (Bland's rule, so it cannot cycle)
+ * finds an optimal vertex in a few pivots, and the vertex is then computed from the rows that hold there exactly as
+ * trying every vertex computes it. Otherwise, or when the simplex meets numerical trouble, every vertex is tried
+ * (thousands of small solves). Where the optimum is a face, not one vertex, the two may answer different vertices of it.
  */
 export function vertexLp(c: ArrayLike<number>, rows: readonly LpRow[], d: number): { x: Float64Array; value: number } | null {
+  const tight = rows.every((r) => r.b >= 0) ? simplexTight(c, rows, d) : null;
+  return (tight && bestVertex(c, rows, d, tight)) ?? bestVertex(c, rows, d, null);
+}
+
+/** The best feasible vertex made of the rows in `among` (all rows when null), by trying each pick of d of them. */
+function bestVertex(c: ArrayLike<number>, rows: readonly LpRow[], d: number, among: readonly number[] | null): { x: Float64Array; value: number } | null {
+  const idx = among ?? rows.map((_, i) => i);
   let best: Float64Array | null = null;
   let bestValue = Infinity;
   const pick = new Int32Array(d);
@@ -29,14 +42,100 @@ export function vertexLp(c: ArrayLike<number>, rows: readonly LpRow[], d: number
       }
       return;
     }
-    for (let i = from; i <= rows.length - (d - depth); i++) {
+    for (let j = from; j <= idx.length - (d - depth); j++) {
+      const i = idx[j];
       if (opposite[i] >= 0 && opposite[i] < i && picked(pick, depth, opposite[i])) continue;
       pick[depth] = i;
-      visit(depth + 1, i + 1);
+      visit(depth + 1, j + 1);
     }
   };
   visit(0, 0);
   return best ? { x: best, value: bestValue } : null;
+}
+
+// Pivots below this (relative to the column's largest entry) are taken as zero.
+const PIVOT_EPS = 1e-11;
+
+/**
+ * The rows holding at the optimal vertex the simplex method finds from x = 0 (feasible: every b ≥ 0), in index order;
+ * null when it cannot tell (unbounded, too many pivots, or a pivot too small to trust).
+ * Tableau of A x + s = b with x free and s ≥ 0; a free variable that enters the basis never leaves it, and one whose
+ * reduced cost is zero is pivoted in at the end anyway, so the answer is a vertex (d rows hold).
+ */
+function simplexTight(c: ArrayLike<number>, rows: readonly LpRow[], d: number): number[] | null {
+  const nr = rows.length;
+  const w = d + nr + 1;
+  const t = new Float64Array(nr * w);
+  const z = new Float64Array(w);
+  // basis[i]: the variable of row i (x_k = k, slack of row j = d + j).
+  const basis = new Int32Array(nr);
+  for (let i = 0; i < nr; i++) {
+    for (let k = 0; k < d; k++) t[i * w + k] = rows[i].a[k];
+    t[i * w + d + i] = 1;
+    t[i * w + w - 1] = rows[i].b;
+    basis[i] = d + i;
+  }
+  for (let k = 0; k < d; k++) z[k] = c[k];
+  const isBasic = (j: number) => basis.indexOf(j) >= 0;
+  // Moves variable j by `dir` until a slack in the basis reaches zero; false when nothing limits it or the pivot is unsafe.
+  const enter = (j: number, dir: number): boolean => {
+    let r = -1;
+    let ratio = Infinity;
+    let scale = 0;
+    for (let i = 0; i < nr; i++) scale = Math.max(scale, Math.abs(t[i * w + j]));
+    for (let i = 0; i < nr; i++) {
+      if (basis[i] < d) continue;
+      const a = dir * t[i * w + j];
+      if (!(a > PIVOT_EPS * scale)) continue;
+      const q = Math.max(t[i * w + w - 1], 0) / a;
+      if (q < ratio || (q === ratio && basis[i] < basis[r])) {
+        ratio = q;
+        r = i;
+      }
+    }
+    if (r < 0) return false;
+    pivot(t, z, w, nr, r, j);
+    basis[r] = j;
+    return true;
+  };
+  for (let iter = 0; ; iter++) {
+    if (iter > 50 * (nr + d)) return null;
+    // Bland's rule: the lowest-numbered variable that improves the objective enters.
+    let j = -1;
+    let dir = 0;
+    let zs = 1;
+    for (let k = 0; k < w - 1; k++) zs = Math.max(zs, Math.abs(z[k]));
+    for (let k = 0; k < w - 1 && j < 0; k++) {
+      if (isBasic(k)) continue;
+      if (k < d ? Math.abs(z[k]) > 1e-12 * zs : z[k] < -1e-12 * zs) {
+        j = k;
+        dir = z[k] > 0 ? -1 : 1;
+      }
+    }
+    if (j < 0) break;
+    if (!enter(j, dir)) return null;
+  }
+  // Free variables left out of the basis (zero reduced cost) are pivoted in, so that d rows hold.
+  for (let k = 0; k < d; k++) if (!isBasic(k) && !enter(k, 1) && !enter(k, -1)) return null;
+  const tight: number[] = [];
+  for (let i = 0; i < nr; i++) {
+    const slack = isBasic(d + i) ? t[basis.indexOf(d + i) * w + w - 1] : 0;
+    if (slack <= 1e-9 * (1 + Math.abs(rows[i].b))) tight.push(i);
+  }
+  return tight.length >= d ? tight : null;
+}
+
+/** Gauss–Jordan pivot of the tableau `t` (rows of width `w`) and its objective row `z` on row r, column j. */
+function pivot(t: Float64Array, z: Float64Array, w: number, nr: number, r: number, j: number): void {
+  const p = t[r * w + j];
+  for (let k = 0; k < w; k++) t[r * w + k] /= p;
+  for (let i = 0; i < nr; i++) {
+    if (i === r) continue;
+    const f = t[i * w + j];
+    if (f !== 0) for (let k = 0; k < w; k++) t[i * w + k] -= f * t[r * w + k];
+  }
+  const f = z[j];
+  if (f !== 0) for (let k = 0; k < w; k++) z[k] -= f * t[r * w + k];
 }
 
 /** For each row, the index of a row with the opposite normal (−a), −1 when none. */
