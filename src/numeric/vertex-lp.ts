@@ -29,8 +29,9 @@ function bestVertex(c: ArrayLike<number>, rows: readonly LpRow[], d: number, amo
   // One matrix and one answer for every trial (thousands of them per call).
   const m = Array.from({ length: d }, () => new Float64Array(d + 1));
   const v = new Float64Array(d);
-  // A row and its opposite (a box's two sides) never make a vertex together: picks holding both are skipped.
-  const opposite = oppositeRows(rows);
+  // A row and its opposite (a box's two sides) never make a vertex together: picks holding both are skipped (with
+  // only d rows to pick from there is one pick, tried as it is).
+  const opposite = idx.length > d ? oppositeRows(rows) : null;
   const visit = (depth: number, from: number): void => {
     if (depth === d) {
       if (!solveRows(rows, pick, d, m, v)) return;
@@ -44,7 +45,7 @@ function bestVertex(c: ArrayLike<number>, rows: readonly LpRow[], d: number, amo
     }
     for (let j = from; j <= idx.length - (d - depth); j++) {
       const i = idx[j];
-      if (opposite[i] >= 0 && opposite[i] < i && picked(pick, depth, opposite[i])) continue;
+      if (opposite && opposite[i] >= 0 && opposite[i] < i && picked(pick, depth, opposite[i])) continue;
       pick[depth] = i;
       visit(depth + 1, j + 1);
     }
@@ -142,9 +143,14 @@ function pivot(t: Float64Array, z: Float64Array, w: number, nr: number, r: numbe
 function oppositeRows(rows: readonly LpRow[]): Int32Array {
   const out = new Int32Array(rows.length).fill(-1);
   for (let i = 0; i < rows.length; i++) {
-    for (let j = 0; j < i && out[i] < 0; j++) if (rows[i].a.every((x, k) => x === -rows[j].a[k])) out[i] = j;
+    for (let j = 0; j < i && out[i] < 0; j++) if (isOpposite(rows[i].a, rows[j].a)) out[i] = j;
   }
   return out;
+}
+
+function isOpposite(a: Float64Array, b: Float64Array): boolean {
+  for (let k = 0; k < a.length; k++) if (a[k] !== -b[k]) return false;
+  return true;
 }
 
 function picked(pick: Int32Array, depth: number, i: number): boolean {
