@@ -37,6 +37,8 @@ const WHY_SPARE_ROUT =
   'the load has far more Rout than the gain needs, and the smallest pair spends it on headroom (top device at low gm/ID past its saturation edge, a high setpoint below it), which no screen at a share of the free voltage proposes';
 const WHY_SETPOINT_TRADE =
   'the smallest pair has a load at lower gm/ID over a higher setpoint: the higher setpoint alone costs no area and the lower gm/ID alone misses the swing, so the climb stopped on the swing-bound ridge';
+const WHY_RIDGE =
+  'the smallest pair lies along a swing-bound ridge: it needs three or more coordinates moved at once in the right proportions (one gm/ID up for swing, another down for area, a setpoint up; or margin bought on one side and spent on the other), which no single, pair or cross move of the climb makes';
 
 const cases: StageCase[] = [
   {
@@ -293,6 +295,27 @@ const cases: StageCase[] = [
     id: 'audit2 demo090: p single input, n cascode load, gain 18.2 over 0.746 V (seed 20261208 #928)', kit: 'demo090', grid: { gmidPoints: 6, vStep: 0.1 },
     stage: stageOf({ gain: 18.2, swing: 0.746, output: 0.542, input: 'p', inputTopology: 'single', load: 'cascode', l: [90e-9, 160e-9], gmid: [6, 18], loadL: [550e-9, 1e-6] }),
     why: WHY_SETPOINT_TRADE,
+  },
+  {
+    // Found by audit2 (seed 20261207, #115): area 47.67e-12 m² vs reference 42.65e-12 m² (tool +11.8 %; +5.9 % before the stage ridge steps).
+    // Reference pair: input l [1e-6], gm/ID [16], setpoints []; load l [250e-9, 250e-9], gm/ID [20, 20], setpoints [].
+    id: 'audit2 demo180: p single input, n cascode-stacked load, gain 192 over 0.981 V (seed 20261207 #115)', kit: 'demo180', grid: { gmidPoints: 7, vStep: 0.1 },
+    stage: stageOf({ gain: 192, swing: 0.981, output: 0.786, input: 'p', inputTopology: 'single', load: 'cascode-stacked', l: [1e-6, 1.4e-6], gmid: [8, 20], loadL: [250e-9, 250e-9] }),
+    why: WHY_RIDGE,
+  },
+  {
+    // Found by audit2 (seed 20261208, #242): area 3.207e-12 m² vs reference 2.77e-12 m² (tool +15.8 %).
+    // Reference pair: input l [550e-9, 550e-9], gm/ID [16.4, 10.8], setpoints [0.25]; load l [160e-9], gm/ID [8], setpoints [].
+    id: 'audit2 demo090: n cascode input, p single load, gain 21.7 over 0.679 V (seed 20261208 #242)', kit: 'demo090', grid: { gmidPoints: 6, vStep: 0.1 },
+    stage: { ...stageOf({ gain: 21.7, swing: 0.679, output: 0.651, input: 'n', inputTopology: 'cascode', load: 'single', l: [550e-9, 750e-9], gmid: [8, 22], loadL: [120e-9, 160e-9] }), current: 8.94e-6 },
+    why: WHY_RIDGE,
+  },
+  {
+    // Found by audit2 (seed 20261208, #309): area 14.11e-12 m² vs reference 12.8e-12 m² (tool +10.3 %).
+    // Reference pair: input l [120e-9, 120e-9], gm/ID [22, 22], setpoints [0.15]; load l [550e-9, 550e-9], gm/ID [18, 10], setpoints [].
+    id: 'audit2 demo090: n cascode input, p cascode-stacked load, gain 124 over 0.47 V (seed 20261208 #309)', kit: 'demo090', grid: { gmidPoints: 4, vStep: 0.1 },
+    stage: stageOf({ gain: 124, swing: 0.47, output: 0.539, input: 'n', inputTopology: 'cascode', load: 'cascode-stacked', l: [90e-9, 120e-9], gmid: [10, 22], loadL: [550e-9, 550e-9] }),
+    why: WHY_RIDGE,
   },
 ];
 

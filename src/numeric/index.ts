@@ -12,4 +12,4 @@ export { fallingRoot, type Falling } from './illinois.js';
 export { bisectionAnswer, type Trial } from './bisection-answer.js';
 export { edgeOf } from './edge.js';
 export { fallingNewton, type FallingSloped } from './safe-newton.js';
-export { vertexLp, type LpRow } from './vertex-lp.js';
+export { boxLp1, vertexLp, type LpRow } from './vertex-lp.js';

@@ -1,7 +1,9 @@
 import { topologyOf } from '../topology/index.js';
 import { REL_TOL } from '../policy.js';
-import { nearestSample, sampleOf, stageGain, stagePoint, type StagePoint } from '../stack/index.js';
-import type { Candidate } from './search/candidate.js';
+import { nearestSample, sampleOf, stageGain, stagePoint, type StageCircuit, type StagePoint, type StageSample, type StageTrace } from '../stack/index.js';
+import { vinMargin } from './stage-rails.js';
+import { coordinates, perCoordinate, type Candidate } from './search/candidate.js';
+import { ridgeStepOver, withCoordinate, type RidgeFigures, type RidgePoint } from './search/ridge.js';
 import type { CandidateMap } from './search/candidate-map.js';
 import { neighbours } from './search/refine.js';
 import { sideChecked, sideSized, type Side, type SideDesign, type SideSized } from './stage-side.js';
@@ -27,6 +29,10 @@ const SETPOINT_JUMPS = [-4, -2];
  * ridge neither move alone beats the climb's best.
  */
 const TRADE_JUMPS = [2, 4, 8];
+/** Ridge steps at most after the climbs; their difference steps (a multiple of the screen's gm/ID and refine voltage steps) and box (in those steps). */
+const RIDGE_STEPS = 8;
+const RIDGE_SCALE = 0.25;
+const RIDGE_BOX = 4;
 /** Climb rounds at most; each round tries the moves of both sides once. */
 const MAX_ROUNDS = 24;
 
@@ -119,13 +125,7 @@ function surelyMisses(sides: StageSides, input: SideDesign, load: SideDesign, ne
   const start = points[j0] ?? design();
   if (!start || vlow === null || vhigh === null) return short();
   const guess = sampleOf(start);
-  // Gain at v (null: no solution from the near design's nearest kept sample, which proves nothing: the trace gets
-  // there by continuation); only the gain is read, so nothing of the input side's solution is allocated (stageGain).
-  const gainAt = (v: number): number | null => {
-    if (!(v > 0 && v < sides.supply)) return null;
-    const q = nearestSample(near.nominal.trace, v) ?? guess;
-    return rangeSafe(() => stageGain(c, v, q.load, q));
-  };
+  const gainAt = (v: number): number | null => gainFrom(sides, c, near.nominal.trace, guess, v);
   const below = (v: number): boolean => {
     const g = gainAt(v);
     return g !== null && !(g >= stage.gain);
@@ -152,6 +152,17 @@ function surelyMisses(sides: StageSides, input: SideDesign, load: SideDesign, ne
   // best absorbs the secant's error.
   const pad = 0.45 * (stage.swing - (hi - lo));
   return miss(lo - pad, hi + pad);
+}
+
+/**
+ * Gain of circuit `c` at output `v`, Newton from the kept sample of `near` (a trace of a design a step away) nearest
+ * v, else from `guess` (null: no solution from there, which proves nothing: a trace gets there by continuation);
+ * only the gain is read, so nothing of the input side's solution is allocated (stageGain).
+ */
+function gainFrom(sides: StageSides, c: StageCircuit, near: StageTrace, guess: StageSample, v: number): number | null {
+  if (!(v > 0 && v < sides.supply)) return null;
+  const q = nearestSample(near, v) ?? guess;
+  return rangeSafe(() => stageGain(c, v, q.load, q));
 }
 
 /** An order of stage designs for a climb: true when `a` is better than `b`. */
@@ -360,7 +371,74 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
     }
     return best;
   };
-  return { climb, pairOf, evaluated: () => evaluated };
+  // One ridge step (search/ridge.ts) over both sides' continuous coordinates (input's, then the load's), objective
+  // ln area, margins the nominal swing and input DC voltage (see stageMargins; a gbw target is left to the tries'
+  // judging): where the climb stops on a swing-bound ridge that only three or more coordinates moved at once in the
+  // right proportions leave (a device's gm/ID up for swing, another's down for area, a setpoint up), which no single,
+  // pair or cross move makes. The differences are taken of estimates, a few solves each instead of a trace: each
+  // swing edge moves by the move's change of ln gain there over the slope of ln gain in the output at that edge
+  // (first order, as the differences themselves). A try surelyMisses rules out is not traced.
+  const ridge = (best: StageDesign, better: StageOrder): StageDesign | null => {
+    const { stage } = sides;
+    const { trace, circuit } = best.nominal;
+    const start = trace.points[trace.j0];
+    if (trace.vlow === null || trace.vhigh === null || !start) return null;
+    const guess = sampleOf(start);
+    const edges: { v: number; ln: number; slope: number }[] = [];
+    for (const [v, inward] of [[trace.vlow, 1], [trace.vhigh, -1]]) {
+      const g0 = gainFrom(sides, circuit, trace, guess, v);
+      const g1 = gainFrom(sides, circuit, trace, guess, v + inward * SECANT_STEP);
+      if (!(g0 !== null && g1 !== null && g0 > 0 && g1 > 0 && g0 !== g1)) return null;
+      edges.push({ v, ln: Math.log(g0), slope: (Math.log(g1) - Math.log(g0)) / (inward * SECANT_STEP) });
+    }
+    const cands = [best.input.cand, best.load.cand];
+    const split = coordinates(cands[0]).length;
+    const pairAt = (x: ArrayLike<number>, moved: readonly number[]): { input: SideDesign; load: SideDesign } | null => {
+      let [ci, cl] = cands;
+      for (const k of moved) {
+        if (k < split) ci = withCoordinate(ci, k, x[k]);
+        else cl = withCoordinate(cl, k - split, x[k]);
+      }
+      const mi = sideOf(sides.input, ci);
+      const ml = mi && sideOf(sides.load, cl);
+      const input = mi && ml && designOf(sides.input, mi);
+      const load = input && designOf(sides.load, ml!);
+      return input && load ? { input, load } : null;
+    };
+    const marginsOf = (d: StageDesign): number[] => {
+      const m = stageMargins(stage, d.nominal);
+      return [m.swing, m.vin];
+    };
+    const at = (x: ArrayLike<number>, moved: readonly number[]): RidgePoint<StageDesign> | null => {
+      const q = pairAt(x, moved);
+      const d = q && !skipped(q.input, q.load, best) ? pairOf(q.input, q.load) : null;
+      const m = d && marginsOf(d);
+      return d && m!.every(Number.isFinite) ? { design: d, f: Math.log(d.area), m: m! } : null;
+    };
+    const slopesAt = (x: ArrayLike<number>, moved: readonly number[]): RidgeFigures | null => {
+      const q = pairAt(x, moved);
+      if (!q) return null;
+      const c = pairCircuit(sides, q.input, q.load);
+      let swing = 0;
+      for (const [j, e] of edges.entries()) {
+        const g = gainFrom(sides, c, trace, guess, e.v);
+        if (g === null || !(g > 0)) return null;
+        swing += (j === 0 ? -1 : 1) * (e.v - (Math.log(g) - e.ln) / e.slope);
+      }
+      const p = rangeSafe(() => stagePoint(c, stage.output, guess.load, guess));
+      if (!p) return null;
+      return { f: Math.log(q.input.area + q.load.area), m: [(swing - stage.swing) / stage.swing, vinMargin(p.vin, sides.supply)] };
+    };
+    // One value per coordinate of both sides, from each side's context and candidate.
+    const perSide = (gmid: (ctx: Side['ctx']) => number, setpoint: (c: Candidate) => number): number[] =>
+      cands.flatMap((c, s) => perCoordinate(c, gmid((s === 0 ? sides.input : sides.load).ctx), setpoint(c)));
+    const h = perSide((ctx) => ctx.gmidStep * RIDGE_SCALE, (c) => topologyOf(c.topology).refineVoltageStep * RIDGE_SCALE);
+    const lo = perSide((ctx) => ctx.gmids[0], () => 0.02);
+    const hi = perSide((ctx) => ctx.gmids[ctx.gmids.length - 1], () => Infinity);
+    const x = cands.flatMap(coordinates);
+    return ridgeStepOver({ design: best, f: Math.log(best.area), m: marginsOf(best) }, x, h, RIDGE_BOX, lo, hi, at, better, slopesAt);
+  };
+  return { climb, ridge, pairOf, evaluated: () => evaluated };
 }
 type Climber = ReturnType<typeof stageClimber>;
 
@@ -374,7 +452,9 @@ type Climber = ReturnType<typeof stageClimber>;
  * - then, at the screen's step and the halved ones (not in the nearest points' coarser climbs), both sides at once,
  *   one single-coordinate move of each: a side giving up area and Rout only pays when the other makes up the gain,
  *   which no move of one side finds;
- * - then, at a climb's finest step only, coupled length moves of one side (jumpMoves).
+ * - then, at a climb's finest step only, coupled length moves of one side (jumpMoves);
+ * - with objective area, once the climbs have stopped: ridge steps over both sides' gm/IDs and setpoints at once
+ *   (stageClimber's ridge), then the finest climb again when they moved.
  * Moves go in order of summed area, so with objective area the first one meeting every target wins the round and
  * the rest, no smaller than it, are not traced; a move surelyMisses rules out is not traced either.
  * Every seed climbs at the screen's gm/ID step; the best of those, and each other meeting the targets, climbs on with
@@ -422,6 +502,16 @@ export function refineStage(
     const fine = climber.climb(local, { better, levels: 2, scale: 0.5, bound, onBetter });
     if (better(fine, best)) best = fine;
   }
+  // With objective area, where the climbs stop: ridge steps, then a climb at the finest steps from where they went.
+  let moved = false;
+  for (let it = 0; stage.objective === 'area' && it < RIDGE_STEPS && ok(best); it++) {
+    const r = climber.ridge(best, better);
+    if (!r) break;
+    onBetter(r);
+    best = r;
+    moved = true;
+  }
+  if (moved) best = climber.climb(best, { better, levels: 1, scale: RIDGE_SCALE, bound, onBetter });
   // In objective order, the first the reported trace confirms (nearly always the climb's own best).
   met.sort((a, b) => stageCompare(stage.objective, a, b));
   return { best: met.find((d) => okReported(sides, d)) ?? best, evaluated: climber.evaluated() };

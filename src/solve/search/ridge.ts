@@ -2,7 +2,7 @@ import { coordinates, type Candidate } from './candidate.js';
 import type { SolveContext } from '../context.js';
 import { VOLT_SCALE, type Margins } from '../../policy.js';
 import type { Evaluated } from '../evaluate/evaluate.js';
-import { vertexLp, type LpRow } from '../../numeric/index.js';
+import { boxLp1, vertexLp, type LpRow } from '../../numeric/index.js';
 
 // Margin (in the policy's units: 50 mV, ln Rout, …) a ridge step keeps where the design has it.
 const KEEP = 0.02;
@@ -17,11 +17,42 @@ interface Slope {
  * One step along a ridge of the design space, for a climb stuck where several targets bind at once: no move of one or
  * two coordinates by the climb's steps keeps every target met and improves the objective, though a move of three or
  * more in the right proportions would (e.g. a bottom gm/ID raised, its setpoint lowered and the top's gm/ID lowered,
- * each by its own amount). From differences of the objective and the margins in each continuous coordinate (gm/ID per
- * device, setpoints), the linearised problem (objective down, every margin kept ≥ 0, each coordinate within `box`
- * steps `h`) is solved as a small linear programme, and its answer tried; on failure again within half and a quarter
- * of the box (sequential linear programming with a trust region, common practice). Returns the first try `better`
- * prefers to `best`, or null. `lo`, `hi`: limits of each coordinate.
+ * each by its own amount). See ridgeStepOver; here over a stack candidate's continuous coordinates (gm/ID per device,
+ * setpoints). `lo`, `hi`: limits of each coordinate.
+ */
+export function ridgeStep(
+  best: Evaluated, h: readonly number[], box: number, lo: readonly number[], hi: readonly number[],
+  evaluate: (c: Candidate) => Evaluated | null, better: (a: Evaluated, b: Evaluated) => boolean, objective: SolveContext['spec']['objective'],
+): Evaluated | null {
+  const m0 = marginList(best.margins);
+  const pointOf = (e: Evaluated | null): RidgePoint<Evaluated> | null =>
+    usable(e, m0) ? { design: e!, f: objectiveOf(e!, objective), m: marginList(e!.margins) } : null;
+  const at = (x: ArrayLike<number>, moved: readonly number[]) => pointOf(evaluate(moved.reduce((c, k) => withCoordinate(c, k, x[k]), best.cand)));
+  return ridgeStepOver({ design: best, f: objectiveOf(best, objective), m: m0 }, coordinates(best.cand), h, box, lo, hi, at, better);
+}
+
+/** Objective (lower is better) and margins (≥ 0 met; not finite: not a target) of a design, for ridgeStepOver. */
+export interface RidgeFigures {
+  f: number;
+  m: readonly number[];
+}
+
+/** A design with its figures. */
+export interface RidgePoint<T> extends RidgeFigures {
+  design: T;
+}
+
+/** The figures (or the design) with the coordinates `moved` set to `x`'s, the others as the step's start; null: not measurable. */
+type RidgeAt<P> = (x: ArrayLike<number>, moved: readonly number[]) => P | null;
+
+/**
+ * One ridge step from `best` at coordinates `x`: from differences of the objective and the margins in each
+ * coordinate, the linearised problem (objective down, every margin kept ≥ 0, each coordinate within `box` steps `h`)
+ * is solved as a small linear programme, and its answer tried; on failure again within half and a quarter of the
+ * box (sequential linear programming with a trust region, common practice). Returns the first try `better` prefers
+ * to `best`, or null. `lo`, `hi`: limits of each coordinate; `at`: the design there, null when it cannot be realised or
+ * leaves a margin of `best` undefined; `slopesAt`: the figures the differences are taken of (`at`'s, unless the
+ * caller has a cheaper estimate, exact to first order).
  *
  * The differences are one-sided (forward where it can be realised), and a margin can have a kink where the design
  * stands (the headroom is least at some setpoint and rises on both sides of it). When no try is better and an answer
@@ -29,24 +60,21 @@ interface Slope {
  * programme solved for each side of each coordinate measured both ways, on that side's slopes (a piecewise linear
  * model, exact on either side of the kink).
  */
-export function ridgeStep(
-  best: Evaluated, h: readonly number[], box: number, lo: readonly number[], hi: readonly number[],
-  evaluate: (c: Candidate) => Evaluated | null, better: (a: Evaluated, b: Evaluated) => boolean, objective: SolveContext['spec']['objective'],
-): Evaluated | null {
-  const x = coordinates(best.cand);
+export function ridgeStepOver<T>(
+  best: RidgePoint<T>, x: readonly number[], h: readonly number[], box: number, lo: readonly number[], hi: readonly number[],
+  at: RidgeAt<RidgePoint<T>>, better: (a: T, b: T) => boolean, slopesAt: RidgeAt<RidgeFigures> = at,
+): T | null {
   const d = x.length;
-  const f0 = objectiveOf(best, objective);
-  const m0 = marginList(best.margins);
+  const { f: f0, m: m0 } = best;
   // Slopes up (+1) and down (−1) per coordinate; undefined until measured.
   const up: (Slope | null | undefined)[] = new Array(d);
   const down: (Slope | null | undefined)[] = new Array(d);
   const measure = (k: number, dir: 1 | -1): Slope | null => {
     const dk = dir * h[k];
     const v = x[k] + dk;
-    const e = v <= hi[k] && v >= lo[k] ? evaluate(withCoordinate(best.cand, k, v)) : null;
-    if (!usable(e, m0)) return null;
-    const m = marginList(e!.margins);
-    return { f: (objectiveOf(e!, objective) - f0) / dk, m: Float64Array.from(m0, (v0, j) => (m[j] - v0) / dk) };
+    const e = v <= hi[k] && v >= lo[k] ? slopesAt(x.map((xj, j) => (j === k ? v : xj)), [k]) : null;
+    if (!e) return null;
+    return { f: (e.f - f0) / dk, m: Float64Array.from(m0, (v0, j) => (e.m[j] - v0) / dk) };
   };
   // Forward, else backward where the forward point cannot be realised (or leaves a margin undefined).
   for (let k = 0; k < d; k++) if (!(up[k] = measure(k, 1))) down[k] = measure(k, -1);
@@ -64,15 +92,14 @@ export function ridgeStep(
       answer = bestOverSides(x, h, r, lo, hi, m0, up, down);
     }
   };
-  const tries = (sides: boolean): Evaluated | null => {
+  const all = x.map((_, k) => k);
+  const tries = (sides: boolean): T | null => {
     for (const scale of [1, 0.5, 0.25]) {
       const answer = answerWithin(box * scale, sides);
       // None, or none better than standing still (by the linearised objective).
       if (!answer || !(answer.value < -1e-12)) return null;
-      let moved = best.cand;
-      for (let k = 0; k < d; k++) moved = withCoordinate(moved, k, x[k] + answer.x[k]);
-      const e = evaluate(moved);
-      if (e && better(e, best)) return e;
+      const e = at(x.map((xk, k) => xk + answer.x[k]), all);
+      if (e && better(e.design, best.design)) return e.design;
     }
     return null;
   };
@@ -119,7 +146,7 @@ function bestOverSides(
       const downOk = side <= 0 && down[k] !== null;
       reach.push({ up: upOk ? Math.max(Math.min(r, hi[k] - x[k]), 0) : 0, down: downOk ? Math.max(Math.min(r, x[k] - lo[k]), 0) : 0 });
     }
-    const answer = vertexLp(c, withBox(marginRows(m0, slopes), reach), d);
+    const answer = programme(c, marginRows(m0, slopes), reach);
     if (answer && (!best || answer.value < best.value)) best = answer;
   }
   return best;
@@ -138,15 +165,29 @@ function marginRows(m0: readonly number[], slopes: readonly (Slope | null)[]): L
   return rows;
 }
 
-/** The rows with the box added: each coordinate within its reach up and down. */
-function withBox(rows: readonly LpRow[], reach: readonly { up: number; down: number }[]): LpRow[] {
+/**
+ * The linearised programme's answer: min c·δ within the margin rows and each coordinate's reach; by boxLp1 when at
+ * most one row can bind, else by vertexLp.
+ */
+function programme(c: Float64Array, rows: readonly LpRow[], reach: readonly { up: number; down: number }[]): { x: Float64Array; value: number } | null {
   const d = reach.length;
   // A row that holds everywhere in the box cannot bind (the vertex search grows with the rows): only the others.
-  const out = rows.filter((r) => {
+  const binding = rows.filter((r) => {
     let most = 0;
     for (let k = 0; k < d; k++) most += Math.max(r.a[k] * reach[k].up, -r.a[k] * reach[k].down);
     return most > r.b;
   });
+  if (binding.length <= 1) {
+    const row = binding[0] ?? { a: new Float64Array(d), b: 0 };
+    return boxLp1(c, row.a, row.b, reach.map((r) => r.up), reach.map((r) => r.down));
+  }
+  return vertexLp(c, withBox(binding, reach), d);
+}
+
+/** The rows with the box added: each coordinate within its reach up and down. */
+function withBox(rows: readonly LpRow[], reach: readonly { up: number; down: number }[]): LpRow[] {
+  const d = reach.length;
+  const out = [...rows];
   for (let k = 0; k < d; k++) {
     const upRow = new Float64Array(d);
     upRow[k] = 1;
@@ -158,7 +199,8 @@ function withBox(rows: readonly LpRow[], reach: readonly { up: number; down: num
   return out;
 }
 
-function withCoordinate(c: Candidate, k: number, v: number): Candidate {
+/** `c` with its continuous coordinate k (see coordinates) set to `v`. */
+export function withCoordinate(c: Candidate, k: number, v: number): Candidate {
   const n = c.gmid.length;
   const gmid = [...c.gmid];
   const setpoints = [...c.setpoints];
