@@ -364,6 +364,14 @@ const FEASIBLE: Case[] = [
     id: 'p090-cascode-area-audit2-s1689', kit: 'demo090', why: 'least area under a width limit',
     spec: { device: 'p', topology: 'cascode', current: 3.55e-6, rout: 7.72e6, headroom: 0.426, span: 0.915, objective: 'area', l: { min: 90e-9, max: 220e-9 }, wmax: 3.02e-6 },
   },
+  {
+    // Found by audit2 (seed 20261206, #241): area 2.474e-12 m² vs reference 2.177e-12 m² (tool +13.6 %); 2.402e-12 m²
+    // since the ridge step measures both sides of a kink; 2.173e-12 m² since the ridge steps grow their box while
+    // whole-box steps succeed (the ridge runs 75 mV of setpoint and 2 /V of bottom gm/ID, with the top at its highest).
+    // Reference design: l [800e-9, 300e-9], gm/ID [8.625, 18], setpoints [0.38125].
+    id: 'preed-cascode-area-audit2-s241', kit: 'reed180', why: 'least area far along a ridge',
+    spec: { device: 'p', topology: 'cascode', current: 2.4e-6, rout: 276e6, headroom: 0.605, span: 1.5, objective: 'area', l: { min: 180e-9, max: 800e-9 }, wmax: 7.57e-6 },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {

@@ -13,15 +13,22 @@ interface Slope {
   m: Float64Array;
 }
 
+/** A ridge step taken: the design it reached and the box (in steps) of the try that reached it. */
+export interface RidgeMove {
+  next: Evaluated;
+  box: number;
+}
+
 /**
  * One step along a ridge of the design space, for a climb stuck where several targets bind at once: no move of one or
  * two coordinates by the climb's steps keeps every target met and improves the objective, though a move of three or
  * more in the right proportions would (e.g. a bottom gm/ID raised, its setpoint lowered and the top's gm/ID lowered,
  * each by its own amount). From differences of the objective and the margins in each continuous coordinate (gm/ID per
  * device, setpoints), the linearised problem (objective down, every margin kept ≥ 0, each coordinate within `box`
- * steps `h`) is solved as a small linear programme, and its answer tried; on failure again within half and a quarter
- * of the box (sequential linear programming with a trust region, common practice). Returns the first try `better`
- * prefers to `best`, or null. `lo`, `hi`: limits of each coordinate.
+ * steps `h`) is solved as a small linear programme, and its answer tried; on failure again within half the box, and
+ * so on down to `least` steps (sequential linear programming with a trust region, common practice; the caller grows
+ * the box while whole-box steps succeed). Returns the first try `better` prefers to `best`, with its box, or null.
+ * `lo`, `hi`: limits of each coordinate.
  *
  * The differences are one-sided (forward where it can be realised), and a margin can have a kink where the design
  * stands (the headroom is least at some setpoint and rises on both sides of it). When no try is better and an answer
@@ -30,9 +37,9 @@ interface Slope {
  * model, exact on either side of the kink).
  */
 export function ridgeStep(
-  best: Evaluated, h: readonly number[], box: number, lo: readonly number[], hi: readonly number[],
+  best: Evaluated, h: readonly number[], box: number, least: number, lo: readonly number[], hi: readonly number[],
   evaluate: (c: Candidate) => Evaluated | null, better: (a: Evaluated, b: Evaluated) => boolean, objective: SolveContext['spec']['objective'],
-): Evaluated | null {
+): RidgeMove | null {
   const x = coordinates(best.cand);
   const d = x.length;
   const f0 = objectiveOf(best, objective);
@@ -64,15 +71,15 @@ export function ridgeStep(
       answer = bestOverSides(x, h, r, lo, hi, m0, up, down);
     }
   };
-  const tries = (sides: boolean): Evaluated | null => {
-    for (const scale of [1, 0.5, 0.25]) {
-      const answer = answerWithin(box * scale, sides);
+  const tries = (sides: boolean): RidgeMove | null => {
+    for (let r = box; r >= least; r /= 2) {
+      const answer = answerWithin(r, sides);
       // None, or none better than standing still (by the linearised objective).
       if (!answer || !(answer.value < -1e-12)) return null;
       let moved = best.cand;
       for (let k = 0; k < d; k++) moved = withCoordinate(moved, k, x[k] + answer.x[k]);
       const e = evaluate(moved);
-      if (e && better(e, best)) return e;
+      if (e && better(e, best)) return { next: e, box: r };
     }
     return null;
   };
