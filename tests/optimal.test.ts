@@ -380,6 +380,14 @@ const FEASIBLE: Case[] = [
     id: 'p180-cascode-rout-audit2-s2119', kit: 'demo180', why: 'highest Rout with a long bottom at a high setpoint on the width limit',
     spec: { device: 'p', topology: 'cascode', current: 6.62e-6, rout: 1.6e6, headroom: 0.215, span: 1.52, objective: 'rout', l: { min: 700e-9, max: 2e-6 }, mismatch: 0.0285, wmax: 49.4e-6 },
   },
+  {
+    // Found by audit2 (seed 20261206, #1170): area 75.76e-12 m² vs reference 71.55e-12 m² (tool +5.9 %). The climb
+    // stopped with the bottom at its saturation edge (setpoint 151 mV); Rout at the headroom target dips above it and
+    // is met again only at 168–170 mV, past every setpoint step of the climb. 72.32e-12 m² since the setpoint jumps.
+    // Reference design: l [400e-9, 400e-9], gm/ID [16.125, 17.375], setpoints [0.16875].
+    id: 'n090-cascode-area-audit2-s1170', kit: 'demo090', why: 'least area past a dip of Rout along the setpoint',
+    spec: { device: 'n', topology: 'cascode', current: 280e-6, rout: 46.8e3, headroom: 0.254, span: 1.05, objective: 'area', l: { min: 400e-9, max: 1e-6 }, gmid: { min: 8, max: 18 } },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {
