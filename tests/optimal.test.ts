@@ -364,6 +364,30 @@ const FEASIBLE: Case[] = [
     id: 'p090-cascode-area-audit2-s1689', kit: 'demo090', why: 'least area under a width limit',
     spec: { device: 'p', topology: 'cascode', current: 3.55e-6, rout: 7.72e6, headroom: 0.426, span: 0.915, objective: 'area', l: { min: 90e-9, max: 220e-9 }, wmax: 3.02e-6 },
   },
+  {
+    // Found by audit2 (seed 20261206, #241): area 2.474e-12 m² vs reference 2.177e-12 m² (tool +13.6 %); 2.402e-12 m²
+    // since the ridge step measures both sides of a kink; 2.173e-12 m² since the ridge steps grow their box while
+    // whole-box steps succeed (the ridge runs 75 mV of setpoint and 2 /V of bottom gm/ID, with the top at its highest).
+    // Reference design: l [800e-9, 300e-9], gm/ID [8.625, 18], setpoints [0.38125].
+    id: 'preed-cascode-area-audit2-s241', kit: 'reed180', why: 'least area far along a ridge',
+    spec: { device: 'p', topology: 'cascode', current: 2.4e-6, rout: 276e6, headroom: 0.605, span: 1.5, objective: 'area', l: { min: 180e-9, max: 800e-9 }, wmax: 7.57e-6 },
+  },
+  {
+    // Found by audit2 (seed 20261206, #2119): Rout 1.883e6 Ω vs reference 2.046e6 Ω (tool -8.0 %). The optimum has a
+    // 2 µm bottom at setpoint 0.54 V on the width limit; the squeezed-top bias (otherBias) was tried from the best
+    // screened design alone (0.7 µm devices), not from the other length choices' seeds, nor pulled to the width limit.
+    // Reference design: l [2e-6, 700e-9], gm/ID [15.596, 20.487], setpoints [0.5375].
+    id: 'p180-cascode-rout-audit2-s2119', kit: 'demo180', why: 'highest Rout with a long bottom at a high setpoint on the width limit',
+    spec: { device: 'p', topology: 'cascode', current: 6.62e-6, rout: 1.6e6, headroom: 0.215, span: 1.52, objective: 'rout', l: { min: 700e-9, max: 2e-6 }, mismatch: 0.0285, wmax: 49.4e-6 },
+  },
+  {
+    // Found by audit2 (seed 20261206, #1170): area 75.76e-12 m² vs reference 71.55e-12 m² (tool +5.9 %). The climb
+    // stopped with the bottom at its saturation edge (setpoint 151 mV); Rout at the headroom target dips above it and
+    // is met again only at 168–170 mV, past every setpoint step of the climb. 72.32e-12 m² since the setpoint jumps.
+    // Reference design: l [400e-9, 400e-9], gm/ID [16.125, 17.375], setpoints [0.16875].
+    id: 'n090-cascode-area-audit2-s1170', kit: 'demo090', why: 'least area past a dip of Rout along the setpoint',
+    spec: { device: 'n', topology: 'cascode', current: 280e-6, rout: 46.8e3, headroom: 0.254, span: 1.05, objective: 'area', l: { min: 400e-9, max: 1e-6 }, gmid: { min: 8, max: 18 } },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {

@@ -23,6 +23,7 @@ import { sizeStages } from './stage-size.js';
 import { bottomRoom, diodeRoomCandidates, narrowestDesign, bottomsTooNarrow } from './search/diode-room.js';
 import { setpointRoomCandidates } from './search/setpoint-room.js';
 import type { StageFrontPoint } from './stage-types.js';
+import { toWidthLimit } from './search/width-edge.js';
 
 export interface SizeStackResult {
   results: StackResult[];
@@ -132,13 +133,19 @@ function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool:
   const first = pickBest(ctx, pool);
   if (!first) return null;
   const seeds = seedsOf(ctx, first, pool);
-  // More climbs from the best design biased the ways the screen cannot rate (the topology's otherBias), each one
-  // that starts within the climb's reach of the nominal targets.
-  for (const other of topologyOf(topology).otherBias(first.cand, ctx.vmid, ctx.gmids[0])) {
-    const biased = evaluateOnce(ctx, other, seen);
-    if (!biased) continue;
-    pool.push(biased);
-    if (distanceToFeasible(biased.margins) <= REACH) seeds.push(biased);
+  // More climbs from each seed biased the ways the screen cannot rate (the topology's otherBias), each one that starts
+  // within the climb's reach of the nominal targets. When too wide, also pulled back to the width limit: a long bottom
+  // at a high setpoint carries the Rout target at a lower gm/ID, far below the seed's (audit2 #2119: 22.6 -> 15.6 /V).
+  for (const from of [...seeds]) {
+    for (const other of topologyOf(topology).otherBias(from.cand, ctx.vmid, ctx.gmids[0])) {
+      const fits = toWidthLimit(ctx, other);
+      for (const c of fits && fits !== other ? [other, fits] : [other]) {
+        const biased = evaluateOnce(ctx, c, seen);
+        if (!biased) continue;
+        pool.push(biased);
+        if (distanceToFeasible(biased.margins) <= REACH) seeds.push(biased);
+      }
+    }
   }
   let best = refine(ctx, seeds, seen, pool) ?? first;
   // Short of the targets, the seeds climbed again from twice the steps: Rout and headroom can vary in narrow valleys

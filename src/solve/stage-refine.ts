@@ -436,7 +436,7 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
     const lo = perSide((ctx) => ctx.gmids[0], () => 0.02);
     const hi = perSide((ctx) => ctx.gmids[ctx.gmids.length - 1], () => Infinity);
     const x = cands.flatMap(coordinates);
-    return ridgeStepOver({ design: best, f: Math.log(best.area), m: marginsOf(best) }, x, h, RIDGE_BOX, lo, hi, at, better, slopesAt);
+    return ridgeStepOver({ design: best, f: Math.log(best.area), m: marginsOf(best) }, x, h, RIDGE_BOX, RIDGE_BOX / 4, lo, hi, at, better, slopesAt)?.next ?? null;
   };
   return { climb, ridge, pairOf, evaluated: () => evaluated };
 }

@@ -9,6 +9,7 @@ import { rejudged, type Reuse, type Seen } from './reuse.js';
 import { lookAt, shortfallSurelyAbove, surelyMisses, type Look } from './quick.js';
 import { anyWider, atWidthEdge, raisedToLimit } from './width-edge.js';
 import { ridgeStep } from './ridge.js';
+import { leastSaturated } from '../evaluate/checks.js';
 
 export type { Seen };
 
@@ -182,10 +183,17 @@ export function settle(ctx: SolveContext, seen: Seen, pool: Evaluated[], stays?:
 
 // Rounds of moves per climb at most (each improves or halves the steps).
 export const CLIMB_ROUNDS = 16;
-// Ridge steps per climb at most; their difference steps (gm/ID: a grid step / 8; setpoints, V) and box (in steps).
+// Ridge steps per climb at most; their difference steps (gm/ID: a grid step / 8; setpoints, V) and box (in steps): the
+// first, and the most it grows to along a ridge that goes on (8 steps of RIDGE_BOX each stopped short of audit2 #241's
+// optimum, 75 mV of setpoint and 2 /V of bottom gm/ID along the ridge: 2.40 against 2.18 pm²).
 const RIDGE_STEPS = 8;
 const RIDGE_VSTEP = 0.00625;
 const RIDGE_BOX = 2;
+const RIDGE_BOX_MAX = 16;
+// A lower device within this saturation margin (VDS − VDSsat over 50 mV: 1 mV) is at its edge, and its setpoint's
+// jumps up (V): from two of the climb's last setpoint steps to 25 mV, past the dips of Rout at the headroom target.
+const SATURATION_EDGE = 0.02;
+const SATURATION_JUMPS = [2, 3, 4, 5, 6, 7, 8].map((n) => n * 0.003125);
 // Shortfall (policy.distanceToFeasible) within which a raised length move missing the targets gets a climb (fromRaised).
 const RAISED_REACH = 2;
 // First steps of the climb after ridge steps, as a multiple of the usual: gm/ID a grid step / 4, as the ridge's box.
@@ -240,19 +248,38 @@ function climb(
   // ridge step can land where the climb's own moves gain again (off the ridge, e.g. a lower gm/ID bought with a
   // higher setpoint): when the steps moved, the climb goes on from there once, with steps the size of the ridge's box.
   if (ridgeSteps()) climbRounds(RIDGE_CLIMB);
+  // Stuck with a lower device at its saturation edge: its setpoint jumps up; when one improves, the climb goes on from
+  // there once, as after the ridge steps.
+  if (sizing && step(saturationJumps())) climbRounds(RIDGE_CLIMB);
   return best;
+
+  /**
+   * best with the setpoint of a lower device at its saturation edge raised by each of SATURATION_JUMPS (none when no
+   * device is there): its gm/ID can fall (less area) only with its setpoint up, and Rout at the headroom target can
+   * dip along a setpoint between pockets a few mV wide (audit2 #1170: met at 151 mV, then again only at 168–170 mV),
+   * past every step of the climb.
+   */
+  function saturationJumps(): Candidate[] {
+    const k = leastSaturated(best.nominal);
+    if (k < 0 || !(best.margins.saturation < SATURATION_EDGE)) return [];
+    const c = best.cand;
+    return SATURATION_JUMPS.map((j) => ({ topology: c.topology, l: c.l, gmid: c.gmid, setpoints: c.setpoints.map((v, i) => (i === k ? Math.round((v + j) * 1e6) / 1e6 : v)) }));
+  }
 
   /** Ridge steps from `best` (at most RIDGE_STEPS); whether any was taken. */
   function ridgeSteps(): boolean {
     let moved = false;
+    let box = RIDGE_BOX;
     for (let it = 0; sizing && it < RIDGE_STEPS && fullyOk(ctx, best); it++) {
       const c = best.cand;
       const h = perCoordinate(c, ctx.gmidStep / 8, RIDGE_VSTEP);
       const lo = perCoordinate(c, ctx.gmids[0], 0.02);
       const hi = perCoordinate(c, ctx.gmids[ctx.gmids.length - 1], Infinity);
-      const r = ridgeStep(best, h, RIDGE_BOX, lo, hi, evaluate, better, ctx.spec.objective);
+      const r = ridgeStep(best, h, box, RIDGE_BOX / 4, lo, hi, evaluate, better, ctx.spec.objective);
       if (!r) break;
-      best = r;
+      best = r.next;
+      // A trust region: a step that used its whole box doubles the next one's, a shorter one shrinks it.
+      box = r.box === box ? Math.min(2 * box, RIDGE_BOX_MAX) : Math.max(r.box, RIDGE_BOX);
       moved = true;
     }
     return moved;

@@ -13,6 +13,12 @@ interface Slope {
   m: Float64Array;
 }
 
+/** A ridge step taken: the design it reached and the box (in steps) of the try that reached it. */
+export interface RidgeMove<T> {
+  next: T;
+  box: number;
+}
+
 /**
  * One step along a ridge of the design space, for a climb stuck where several targets bind at once: no move of one or
  * two coordinates by the climb's steps keeps every target met and improves the objective, though a move of three or
@@ -21,14 +27,14 @@ interface Slope {
  * setpoints). `lo`, `hi`: limits of each coordinate.
  */
 export function ridgeStep(
-  best: Evaluated, h: readonly number[], box: number, lo: readonly number[], hi: readonly number[],
+  best: Evaluated, h: readonly number[], box: number, least: number, lo: readonly number[], hi: readonly number[],
   evaluate: (c: Candidate) => Evaluated | null, better: (a: Evaluated, b: Evaluated) => boolean, objective: SolveContext['spec']['objective'],
-): Evaluated | null {
+): RidgeMove<Evaluated> | null {
   const m0 = marginList(best.margins);
   const pointOf = (e: Evaluated | null): RidgePoint<Evaluated> | null =>
     usable(e, m0) ? { design: e!, f: objectiveOf(e!, objective), m: marginList(e!.margins) } : null;
   const at = (x: ArrayLike<number>, moved: readonly number[]) => pointOf(evaluate(moved.reduce((c, k) => withCoordinate(c, k, x[k]), best.cand)));
-  return ridgeStepOver({ design: best, f: objectiveOf(best, objective), m: m0 }, coordinates(best.cand), h, box, lo, hi, at, better);
+  return ridgeStepOver({ design: best, f: objectiveOf(best, objective), m: m0 }, coordinates(best.cand), h, box, least, lo, hi, at, better);
 }
 
 /** Objective (lower is better) and margins (≥ 0 met; not finite: not a target) of a design, for ridgeStepOver. */
@@ -48,9 +54,9 @@ type RidgeAt<P> = (x: ArrayLike<number>, moved: readonly number[]) => P | null;
 /**
  * One ridge step from `best` at coordinates `x`: from differences of the objective and the margins in each
  * coordinate, the linearised problem (objective down, every margin kept ≥ 0, each coordinate within `box` steps `h`)
- * is solved as a small linear programme, and its answer tried; on failure again within half and a quarter of the
- * box (sequential linear programming with a trust region, common practice). Returns the first try `better` prefers
- * to `best`, or null. `lo`, `hi`: limits of each coordinate; `at`: the design there, null when it cannot be realised or
+ * is solved as a small linear programme, and its answer tried; on failure again within half the box, and so on down
+ * to `least` steps (sequential linear programming with a trust region, common practice; a caller may grow the box
+ * while whole-box steps succeed). Returns the first try `better` prefers to `best`, with its box, or null. `lo`, `hi`: limits of each coordinate; `at`: the design there, null when it cannot be realised or
  * leaves a margin of `best` undefined; `slopesAt`: the figures the differences are taken of (`at`'s, unless the
  * caller has a cheaper estimate, exact to first order).
  *
@@ -61,9 +67,9 @@ type RidgeAt<P> = (x: ArrayLike<number>, moved: readonly number[]) => P | null;
  * model, exact on either side of the kink).
  */
 export function ridgeStepOver<T>(
-  best: RidgePoint<T>, x: readonly number[], h: readonly number[], box: number, lo: readonly number[], hi: readonly number[],
+  best: RidgePoint<T>, x: readonly number[], h: readonly number[], box: number, least: number, lo: readonly number[], hi: readonly number[],
   at: RidgeAt<RidgePoint<T>>, better: (a: T, b: T) => boolean, slopesAt: RidgeAt<RidgeFigures> = at,
-): T | null {
+): RidgeMove<T> | null {
   const d = x.length;
   const { f: f0, m: m0 } = best;
   // Slopes up (+1) and down (−1) per coordinate; undefined until measured.
@@ -93,13 +99,13 @@ export function ridgeStepOver<T>(
     }
   };
   const all = x.map((_, k) => k);
-  const tries = (sides: boolean): T | null => {
-    for (const scale of [1, 0.5, 0.25]) {
-      const answer = answerWithin(box * scale, sides);
+  const tries = (sides: boolean): RidgeMove<T> | null => {
+    for (let r = box; r >= least; r /= 2) {
+      const answer = answerWithin(r, sides);
       // None, or none better than standing still (by the linearised objective).
       if (!answer || !(answer.value < -1e-12)) return null;
       const e = at(x.map((xk, k) => xk + answer.x[k]), all);
-      if (e && better(e.design, best.design)) return e.design;
+      if (e && better(e.design, best.design)) return { next: e.design, box: r };
     }
     return null;
   };
