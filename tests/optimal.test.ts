@@ -364,6 +364,7 @@ const FEASIBLE: Case[] = [
     id: 'p090-cascode-area-audit2-s1689', kit: 'demo090', why: 'least area under a width limit',
     spec: { device: 'p', topology: 'cascode', current: 3.55e-6, rout: 7.72e6, headroom: 0.426, span: 0.915, objective: 'area', l: { min: 90e-9, max: 220e-9 }, wmax: 3.02e-6 },
   },
+
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {
@@ -387,6 +388,27 @@ describe('sizing is optimal within the tables (exhaustive reference search)', ()
     const c: Case = {
       id: 'n180-triple-headroom-audit2-s173', kit: 'demo180', why: 'a feasible spec',
       spec: { device: 'n', topology: 'triple', current: 35.3e-6, rout: 187e6, headroom: 0.391, span: 1.52, objective: 'headroom', l: { min: 1.4e-6, max: 2e-6 }, gmid: { min: 6, max: 22 } },
+    };
+    const spec: StackSpec = { name: c.id, ...c.spec };
+    const tool = sizeStack(spec, kits[c.kit], { supply: SUPPLY[c.kit], corners: ['tt'] }).results[0];
+    expect(tool.feasible).toBe(true);
+    expect(meetsTargets(tool, c.spec, kits[c.kit], SUPPLY[c.kit])).toBe(true);
+    const design = { l: tool.devices.map((d) => d.l), gmid: tool.devices.map((d) => d.gmid), setpoints: tool.devices.slice(0, -1).map((d) => d.vds) };
+    const judged = exhaustive(spec, kits[c.kit], 'triple', 'tt', { gmidStep: 1, vStep: 1, nearest: false, only: [design] }).best;
+    expect(judged).toBeDefined();
+    expect(judged!.headroom).toBeLessThanOrEqual(c.spec.headroom);
+    expect(judged!.rout).toBeGreaterThanOrEqual(c.spec.rout);
+  });
+
+  it('p180-triple-headroom-audit2-s1280: a feasible spec whose designs sit within a mV of a setpoint edge (audit2 seed 20261206 #1280)', () => {
+    // The tool called it infeasible (nearest headroomAtRout 0.774 V at Rout 1.185e9 Ω); the reference met it with
+    // l [250e-9, 250e-9, 250e-9], gm/ID [12.5, 22, 22], setpoints [0.2125, 0.2] (headroom 0.7147 V). The designs meeting
+    // it lie on the edge where the setpoints' sum leaves a bias diode below the minimum width (0.414 V here), within a
+    // mV of it: the climb's finest setpoint step (3.1 mV) stepped over them. Its design, judged by the reference's own
+    // code, meets the targets.
+    const c: Case = {
+      id: 'p180-triple-headroom-audit2-s1280', kit: 'demo180', why: 'a feasible spec',
+      spec: { device: 'p', topology: 'triple', current: 4.96e-6, rout: 1.19e9, headroom: 0.752, span: 1.07, objective: 'headroom', l: { min: 180e-9, max: 250e-9 }, gmid: { min: 6, max: 22 } },
     };
     const spec: StackSpec = { name: c.id, ...c.spec };
     const tool = sizeStack(spec, kits[c.kit], { supply: SUPPLY[c.kit], corners: ['tt'] }).results[0];
