@@ -364,7 +364,14 @@ const FEASIBLE: Case[] = [
     id: 'p090-cascode-area-audit2-s1689', kit: 'demo090', why: 'least area under a width limit',
     spec: { device: 'p', topology: 'cascode', current: 3.55e-6, rout: 7.72e6, headroom: 0.426, span: 0.915, objective: 'area', l: { min: 90e-9, max: 220e-9 }, wmax: 3.02e-6 },
   },
-
+  {
+    // Found by audit2 (seed 20261206, #13): Rout 219.6e3 Ω vs reference 235.2e3 Ω (tool -6.6 %). On the width limit
+    // Rout along the setpoint has two separate stretches meeting the targets (0.183-0.192 V and 0.245-0.282 V, the
+    // targets needing wider devices between them); the climb stayed on the first, the peak of the second is ~20 mV wide.
+    // Reference design: l [500e-9, 500e-9], gm/ID [11.719, 11.571], setpoints [0.25].
+    id: 'preed-cascode-rout-audit2-s13', kit: 'reed180', why: 'highest Rout under a width limit, on a second stretch of the setpoint',
+    spec: { device: 'p', topology: 'cascode', current: 35.5e-6, rout: 203e3, headroom: 0.327, span: 1.17, objective: 'rout', l: { min: 500e-9, max: 2e-6 }, wmax: 23e-6 },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {

@@ -22,6 +22,7 @@ import { verdict, type Verdict } from './evaluate/verdict.js';
 import { sizeStages } from './stage-size.js';
 import { bottomRoom, diodeRoomCandidates, narrowestDesign, bottomsTooNarrow } from './search/diode-room.js';
 import { setpointRoomCandidates } from './search/setpoint-room.js';
+import { fromSetpointLine } from './search/setpoint-line.js';
 import type { StageFrontPoint } from './stage-types.js';
 
 export interface SizeStackResult {
@@ -152,6 +153,7 @@ function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool:
     const coarse = refine(ctx, [...seeds, ...far], seen, pool, undefined, undefined, CLIMB_ROUNDS, 2);
     if (coarse && better(ctx, coarse, best)) best = coarse;
   }
+  best = fromSetpointLine(ctx, best, seen, pool);
   // The report uses the full curve; if that loses a target the scan met, take the next best.
   for (let tries = 0; tries < 5 && !finalize(ctx, best); tries++) {
     settle(ctx, seen, pool);
