@@ -85,6 +85,13 @@ function seedsOf(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[],
     taken.add(lengths(e));
     seeds.push(e);
   }
+  // Short of the targets with every other design of the same lengths (a pool of a few designs: the screen's candidates
+  // mostly not realisable): still the NEAREST, the next ones whatever their lengths. Designs of one length choice can
+  // lie in separate basins (the targets met on islands a few mV wide), and one climb reaches only one.
+  for (const e of rest) {
+    if (ok || seeds.length >= NEAREST) break;
+    if (!seeds.includes(e)) seeds.push(e);
+  }
   return seeds;
 }
 
