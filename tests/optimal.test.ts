@@ -388,6 +388,26 @@ const FEASIBLE: Case[] = [
     id: 'n090-cascode-area-audit2-s1170', kit: 'demo090', why: 'least area past a dip of Rout along the setpoint',
     spec: { device: 'n', topology: 'cascode', current: 280e-6, rout: 46.8e3, headroom: 0.254, span: 1.05, objective: 'area', l: { min: 400e-9, max: 1e-6 }, gmid: { min: 8, max: 18 } },
   },
+  {
+    // Found by audit2 (seed 20261206, #13): Rout 219.6e3 Ω vs reference 235.2e3 Ω (tool -6.6 %). On the width limit
+    // Rout along the setpoint has two separate stretches meeting the targets (0.183-0.192 V and 0.245-0.282 V, the
+    // targets needing wider devices between them); the climb stayed on the first, the peak of the second is ~20 mV wide.
+    // Reference design: l [500e-9, 500e-9], gm/ID [11.719, 11.571], setpoints [0.25].
+    id: 'preed-cascode-rout-audit2-s13', kit: 'reed180', why: 'highest Rout under a width limit, on a second stretch of the setpoint',
+    spec: { device: 'p', topology: 'cascode', current: 35.5e-6, rout: 203e3, headroom: 0.327, span: 1.17, objective: 'rout', l: { min: 500e-9, max: 2e-6 }, wmax: 23e-6 },
+  },
+  {
+    // Found by audit2 (seed 20261206, #1280): tool: infeasible (binding rout, nearest headroomAtRout 0.774 V, routAtHeadroom
+    // 1.185e9 Ω); reference: feasible, headroom 0.7147 V, Rout 1.199e9 Ω. The designs meeting the targets lie on islands
+    // within a mV of the edge where the setpoints' sum leaves a bias diode below the minimum width (0.414 V here), and
+    // the screen's candidates beyond it leave a pool of three designs of one length choice: the climb from the nearest
+    // stepped over its island (finest setpoint step 3.1 mV), and the lower island is reached only from the next nearest.
+    // Reference design: l [250e-9, 250e-9, 250e-9], gm/ID [12.5, 22, 22], setpoints [0.2125, 0.2].
+    id: 'p180-triple-headroom-audit2-s1280', kit: 'demo180', why: 'a feasible spec whose designs sit within a mV of a setpoint edge',
+    spec: { device: 'p', topology: 'triple', current: 4.96e-6, rout: 1.19e9, headroom: 0.752, span: 1.07, objective: 'headroom', l: { min: 180e-9, max: 250e-9 }, gmid: { min: 6, max: 22 } },
+    // The reference's own grid meets the targets only around its nearest designs (nearest: true refines around them).
+    grid: { gmidStep: 4, vStep: 0.1, nearest: true },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {

@@ -22,6 +22,7 @@ import { verdict, type Verdict } from './evaluate/verdict.js';
 import { sizeStages } from './stage-size.js';
 import { bottomRoom, diodeRoomCandidates, narrowestDesign, bottomsTooNarrow } from './search/diode-room.js';
 import { setpointRoomCandidates } from './search/setpoint-room.js';
+import { fromSetpointLine } from './search/setpoint-line.js';
 import type { StageFrontPoint } from './stage-types.js';
 import { toWidthLimit } from './search/width-edge.js';
 
@@ -84,6 +85,13 @@ function seedsOf(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[],
     if (taken.has(lengths(e))) continue;
     taken.add(lengths(e));
     seeds.push(e);
+  }
+  // Short of the targets with every other design of the same lengths (a pool of a few designs: the screen's candidates
+  // mostly not realisable): still the NEAREST, the next ones whatever their lengths. Designs of one length choice can
+  // lie in separate basins (the targets met on islands a few mV wide), and one climb reaches only one.
+  for (const e of rest) {
+    if (ok || seeds.length >= NEAREST) break;
+    if (!seeds.includes(e)) seeds.push(e);
   }
   return seeds;
 }
@@ -159,6 +167,7 @@ function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool:
     const coarse = refine(ctx, [...seeds, ...far], seen, pool, undefined, undefined, CLIMB_ROUNDS, 2);
     if (coarse && better(ctx, coarse, best)) best = coarse;
   }
+  best = fromSetpointLine(ctx, best, seen, pool);
   // The report uses the full curve; if that loses a target the scan met, take the next best.
   for (let tries = 0; tries < 5 && !finalize(ctx, best); tries++) {
     settle(ctx, seen, pool);

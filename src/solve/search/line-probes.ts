@@ -1,6 +1,6 @@
 import type { SolveContext } from '../context.js';
 import type { Candidate } from './candidate.js';
-import { edgeGmid, fitsAt, toWidthLimit } from './width-edge.js';
+import { toWidthLimit, widestAt } from './width-edge.js';
 import { saturationVoltage } from '../../stack/index.js';
 
 // Setpoint spacing of the probes, V: finer than the ridges seen in Rout at a headroom target where no device is
@@ -13,8 +13,6 @@ const TOP_ROOM = 0.02;
 // headroom target can peak right at that edge (a lower device at its saturation edge, or a device at the highest gm/ID
 // its bias reaches), between two probes, one of them not realisable.
 const LINE_EDGE_STEPS = 6;
-// Bisection steps of a device raised to the width limit (see widest): the gm/ID range over 2^12, a few 1e-3 /V.
-const RAISE_STEPS = 12;
 // Bisection steps of a lower device's saturation edge over the gm/ID range, and the slack it keeps there, V (the
 // mid-span solve's VDSsat is at its own gm/ID, a hair from the design's).
 const SAT_STEPS = 12;
@@ -40,22 +38,7 @@ export function lineProbes(ctx: SolveContext, c: Candidate, realisable?: (d: Can
   };
   const copy = (): Candidate => ({ topology: c.topology, l: c.l, gmid: [...c.gmid], setpoints: [...c.setpoints] });
   const gHi = ctx.gmids[ctx.gmids.length - 1];
-  // `d` (pulled to the width limit) with each device in turn, from the bottom, raised to the highest gm/ID at which it
-  // fits the limit, the others kept: at a fixed bias W = I/jd rises with gm/ID (and a gm/ID beyond the length's reach
-  // counts as too wide), so that is an edge found by bisection. Raised together, one device not realisable at its bias
-  // would leave no width to pull the others by.
-  const widest = (d: Candidate, keep = -1): Candidate | null => {
-    const e = toWidthLimit(ctx, d);
-    if (e === null) return null;
-    const t: Candidate = { topology: e.topology, l: e.l, gmid: [...e.gmid], setpoints: e.setpoints };
-    for (let k = 0; k < t.gmid.length; k++) {
-      const lo = e.gmid[k];
-      if (k === keep) continue;
-      if (lo >= gHi - 1e-9 || fitsAt(ctx, t, k, gHi)) continue;
-      edgeGmid(ctx, t, k, lo, gHi, RAISE_STEPS);
-    }
-    return t;
-  };
+  const widest = (d: Candidate, keep = -1): Candidate | null => widestAt(ctx, d, keep);
   // The lowest gm/ID at which device k, its VDS at `v` and its source at `vsb`, is saturated (VDSsat falls as gm/ID
   // rises; null: not at any allowed one).
   const ut = ctx.ut(ctx.nominal);

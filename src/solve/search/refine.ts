@@ -181,6 +181,8 @@ export function settle(ctx: SolveContext, seen: Seen, pool: Evaluated[], stays?:
   }
 }
 
+// Resolution of a setpoint's realisable edge (setpointEdges), V: the candidate key's.
+const SETPOINT_EDGE_V = 1e-4;
 // Rounds of moves per climb at most (each improves or halves the steps).
 export const CLIMB_ROUNDS = 16;
 // Ridge steps per climb at most; their difference steps (gm/ID: a grid step / 8; setpoints, V) and box (in steps): the
@@ -301,11 +303,46 @@ function climb(
       if (!improved && short) improved = step(singles.filter(moved));
       if (!improved) improved = step(neighbours(ctx, best.cand, gstep, vstep, true));
       if (!improved) {
+        // Stalled at the finest steps: the setpoints' realisable edges within the last step, then stop.
+        if (gstep / 2 < ctx.gmidStep / 8 && vstep / 2 < 0.003) {
+          if (setpointEdges(vstep)) continue;
+          break;
+        }
         gstep /= 2;
         vstep /= 2;
-        if (gstep < ctx.gmidStep / 8 && vstep < 0.003) break;
       }
     }
+  }
+
+  /**
+   * Each setpoint move of `vstep` from `best` that could not be realised, bisected back to the last setpoint that can
+   * (within SETPOINT_EDGE_V): Rout and headroom can improve all the way to where a bias diode reaches the minimum
+   * width or a lower device leaves saturation, and the best designs then sit within a mV of that edge, between the
+   * climb's finest steps. Whether one improved on `best` (it becomes `best`).
+   */
+  function setpointEdges(vstep: number): boolean {
+    let improved = false;
+    const c = best.cand;
+    for (let k = 0; k < c.setpoints.length; k++) {
+      for (const sign of [-1, 1]) {
+        const at = (v: number): Candidate => ({ topology: c.topology, l: c.l, gmid: c.gmid, setpoints: c.setpoints.map((x, j) => (j === k ? Math.round(v * 1e6) / 1e6 : x)) });
+        let good = c.setpoints[k];
+        let bad = good + sign * vstep;
+        if (bad < 0.02 || seen.get(seen.key(at(bad))) !== null) continue;
+        let edge: Evaluated | null = null;
+        while (Math.abs(bad - good) > SETPOINT_EDGE_V) {
+          const m = 0.5 * (good + bad);
+          const e = evaluate(at(m));
+          if (e) [good, edge] = [m, e];
+          else bad = m;
+        }
+        if (edge && better(edge, best)) {
+          best = edge;
+          improved = true;
+        }
+      }
+    }
+    return improved;
   }
 
   /**

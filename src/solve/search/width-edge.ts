@@ -101,6 +101,29 @@ export function raisedToLimit(ctx: SolveContext, c: Candidate, k: number): Candi
   return d;
 }
 
+// Bisection steps of a device raised to the width limit (widestAt): the gm/ID range over 2^12, a few 1e-3 /V.
+const RAISE_STEPS = 12;
+
+/**
+ * `d` (pulled to the width limit) with each device in turn, from the bottom, raised to the highest gm/ID at which it
+ * fits the limit, the others kept (device `keep` excepted); null when it fits nowhere. At a fixed bias W = I/jd rises
+ * with gm/ID (and a gm/ID beyond the length's reach counts as too wide), so that is an edge found by bisection. Raised
+ * together, one device not realisable at its bias would leave no width to pull the others by.
+ */
+export function widestAt(ctx: SolveContext, d: Candidate, keep = -1): Candidate | null {
+  const e = toWidthLimit(ctx, d);
+  if (e === null) return null;
+  const gHi = ctx.gmids[ctx.gmids.length - 1];
+  const t: Candidate = { topology: e.topology, l: e.l, gmid: [...e.gmid], setpoints: e.setpoints };
+  for (let k = 0; k < t.gmid.length; k++) {
+    const lo = e.gmid[k];
+    if (k === keep) continue;
+    if (lo >= gHi - 1e-9 || fitsAt(ctx, t, k, gHi)) continue;
+    edgeGmid(ctx, t, k, lo, gHi, RAISE_STEPS);
+  }
+  return t;
+}
+
 /**
  * Device k of `d` fits the width limit at gm/ID g (left in d.gmid[k]), the other devices as they are. Not realisable
  * counts as too wide (a gm/ID beyond what the length reaches at its bias: W = I/jd grows without bound towards it), as
