@@ -40,7 +40,10 @@ const open = JSON.parse(readFileSync(join(REPO, 'tests', 'fixtures', 'audit-open
 const SUPPLY: Record<string, number> = { demo180: 1.8, demo090: 1.2, reed180: 1.8 };
 const kits: Record<string, Kit> = {};
 
-describe.runIf(process.env.STACKWRIGHT_AUDIT)('open audit misses (on demand: STACKWRIGHT_AUDIT=1)', () => {
+// With none open the suite is skipped (vitest fails a suite without tests).
+const anyOpen = open.stacks.length + open.stages.length > 0;
+
+describe.runIf(process.env.STACKWRIGHT_AUDIT && anyOpen)('open audit misses (on demand: STACKWRIGHT_AUDIT=1)', () => {
   beforeAll(() => {
     ensureDemoTables();
     for (const k of Object.keys(SUPPLY)) kits[k] = demoKit(k);
