@@ -297,7 +297,7 @@ const cases: StageCase[] = [
     why: WHY_SETPOINT_TRADE,
   },
   {
-    // Found by audit2 (seed 20261207, #115): area 47.67e-12 m² vs reference 42.65e-12 m² (tool +11.8 %; +5.9 % before the stage ridge steps).
+    // Found by audit2 (seed 20261207, #115): area 47.67e-12 m² vs reference 42.65e-12 m² (tool +11.8 % at the audit, +5.9 % with the half-step common-source inputs, +1.7 % since the stage ridge steps).
     // Reference pair: input l [1e-6], gm/ID [16], setpoints []; load l [250e-9, 250e-9], gm/ID [20, 20], setpoints [].
     id: 'audit2 demo180: p single input, n cascode-stacked load, gain 192 over 0.981 V (seed 20261207 #115)', kit: 'demo180', grid: { gmidPoints: 7, vStep: 0.1 },
     stage: stageOf({ gain: 192, swing: 0.981, output: 0.786, input: 'p', inputTopology: 'single', load: 'cascode-stacked', l: [1e-6, 1.4e-6], gmid: [8, 20], loadL: [250e-9, 250e-9] }),
