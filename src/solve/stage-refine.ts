@@ -2,7 +2,7 @@ import { topologyOf } from '../topology/index.js';
 import { REL_TOL } from '../policy.js';
 import { nearestSample, sampleOf, stageGain, stagePoint, type StageCircuit, type StagePoint, type StageSample, type StageTrace } from '../stack/index.js';
 import { vinMargin } from './stage-rails.js';
-import { coordinates, perCoordinate, type Candidate } from './search/candidate.js';
+import { coordinates, perCoordinate, SETPOINT_MIN, type Candidate } from './search/candidate.js';
 import { ridgeStepOver, withCoordinate, type RidgeFigures, type RidgePoint } from './search/ridge.js';
 import type { CandidateMap } from './search/candidate-map.js';
 import { neighbours } from './search/refine.js';
@@ -303,12 +303,12 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
     }
     return out;
   };
-  // `c` with one setpoint moved by each of `jumps` steps of `vstep` (those left at 0.02 V or more), onto `out`.
+  // `c` with one setpoint moved by each of `jumps` steps of `vstep` (those left at SETPOINT_MIN or more), onto `out`.
   const setpointJumps = (c: Candidate, jumps: readonly number[], vstep: number, kind: 'input' | 'load', out: SideMove[]): void => {
     for (let j = 0; j < c.setpoints.length; j++) {
       for (const n of jumps) {
         const v = c.setpoints[j] + n * vstep;
-        if (!(v >= 0.02)) continue;
+        if (!(v >= SETPOINT_MIN)) continue;
         const d = sideOf(sides[kind], { ...c, setpoints: c.setpoints.map((x, i) => (i === j ? v : x)) });
         if (d) out.push(d);
       }
@@ -433,7 +433,7 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
     const perSide = (gmid: (ctx: Side['ctx']) => number, setpoint: (c: Candidate) => number): number[] =>
       cands.flatMap((c, s) => perCoordinate(c, gmid((s === 0 ? sides.input : sides.load).ctx), setpoint(c)));
     const h = perSide((ctx) => ctx.gmidStep * RIDGE_SCALE, (c) => topologyOf(c.topology).refineVoltageStep * RIDGE_SCALE);
-    const lo = perSide((ctx) => ctx.gmids[0], () => 0.02);
+    const lo = perSide((ctx) => ctx.gmids[0], () => SETPOINT_MIN);
     const hi = perSide((ctx) => ctx.gmids[ctx.gmids.length - 1], () => Infinity);
     const x = cands.flatMap(coordinates);
     return ridgeStepOver({ design: best, f: Math.log(best.area), m: marginsOf(best) }, x, h, RIDGE_BOX, RIDGE_BOX / 4, lo, hi, at, better, slopesAt)?.next ?? null;

@@ -2,6 +2,9 @@ import type { Candidate } from '../../topology/types.js';
 
 export type { Candidate };
 
+/** Lowest VDS setpoint a move or probe takes, V (below it a lower device has no room to conduct its current). */
+export const SETPOINT_MIN = 0.02;
+
 /** Continuous coordinates of a candidate: gm/ID per device, then the setpoints (the order the climb's moves use). */
 export function coordinates(c: Candidate): number[] {
   return [...c.gmid, ...c.setpoints];

@@ -1,14 +1,13 @@
 import type { SolveContext } from '../context.js';
-import type { Candidate } from './candidate.js';
+import { SETPOINT_MIN, type Candidate } from './candidate.js';
 import { toWidthLimit, widestAt } from './width-edge.js';
 import { saturationVoltage } from '../../stack/index.js';
 
 // Setpoint spacing of the probes, V: finer than the ridges seen in Rout at a headroom target where no device is
 // saturated (a few tens of mV wide), coarse enough to stay a few dozen probes per setpoint.
 const PROBE_VSTEP = 0.05;
-// Lowest setpoint (as the climb's moves) and the room the top device keeps at mid-span, V.
-const SETPOINT_MIN = 0.02;
-const TOP_ROOM = 0.02;
+// The room the top device keeps at mid-span, V.
+export const TOP_ROOM = 0.02;
 // Bisection steps towards the edge of a setpoint line's realisable stretch (50 mV / 2^6: under 1 mV). Rout at the
 // headroom target can peak right at that edge (a lower device at its saturation edge, or a device at the highest gm/ID
 // its bias reaches), between two probes, one of them not realisable.

@@ -1,6 +1,6 @@
 import { topologyOf } from '../../topology/index.js';
 import type { Candidate } from './candidate.js';
-import { perCoordinate } from './candidate.js';
+import { perCoordinate, SETPOINT_MIN } from './candidate.js';
 import type { SolveContext } from '../context.js';
 import { candidateWidths, evaluateCandidate, fullyOk, type Evaluated, type Start } from '../evaluate/evaluate.js';
 import { distanceToFeasible, REL_TOL } from '../../policy.js';
@@ -51,7 +51,7 @@ export function neighbours(ctx: SolveContext, c: Candidate, gstep: number, vstep
   // Continuous coordinate k: gm/ID of device k (k < n), else setpoint k − n.
   const value = (d: Candidate, k: number) => (k < n ? d.gmid[k] : d.setpoints[k - n]);
   const step = (k: number) => (k < n ? gstep : vstep);
-  const allowed = (k: number, x: number) => (k < n ? x >= gLo - 1e-9 && x <= gHi + 1e-9 : x >= 0.02);
+  const allowed = (k: number, x: number) => (k < n ? x >= gLo - 1e-9 && x <= gHi + 1e-9 : x >= SETPOINT_MIN);
   const set = (d: Candidate, k: number, x: number) => {
     if (k < n) d.gmid[k] = x;
     else d.setpoints[k - n] = x;
@@ -275,7 +275,7 @@ function climb(
     for (let it = 0; sizing && it < RIDGE_STEPS && fullyOk(ctx, best); it++) {
       const c = best.cand;
       const h = perCoordinate(c, ctx.gmidStep / 8, RIDGE_VSTEP);
-      const lo = perCoordinate(c, ctx.gmids[0], 0.02);
+      const lo = perCoordinate(c, ctx.gmids[0], SETPOINT_MIN);
       const hi = perCoordinate(c, ctx.gmids[ctx.gmids.length - 1], Infinity);
       const r = ridgeStep(best, h, box, RIDGE_BOX / 4, lo, hi, evaluate, better, ctx.spec.objective);
       if (!r) break;
@@ -328,7 +328,7 @@ function climb(
         const at = (v: number): Candidate => ({ topology: c.topology, l: c.l, gmid: c.gmid, setpoints: c.setpoints.map((x, j) => (j === k ? Math.round(v * 1e6) / 1e6 : x)) });
         let good = c.setpoints[k];
         let bad = good + sign * vstep;
-        if (bad < 0.02 || seen.get(seen.key(at(bad))) !== null) continue;
+        if (bad < SETPOINT_MIN || seen.get(seen.key(at(bad))) !== null) continue;
         let edge: Evaluated | null = null;
         while (Math.abs(bad - good) > SETPOINT_EDGE_V) {
           const m = 0.5 * (good + bad);

@@ -1,15 +1,13 @@
 import { topologyOf } from '../../topology/index.js';
 import type { SolveContext } from '../context.js';
 import { fullyOk, type Evaluated } from '../evaluate/evaluate.js';
-import type { Candidate } from './candidate.js';
+import { SETPOINT_MIN, type Candidate } from './candidate.js';
 import { better } from './rank.js';
 import { evaluateOnce, lookOnce, refine, type Seen } from './refine.js';
 import { routSurelyBelow, surelyMisses } from './quick.js';
 import { widestAt } from './width-edge.js';
+import { TOP_ROOM } from './line-probes.js';
 
-// Lowest setpoint of the line (as the climb's moves) and the room the top device keeps at mid-span, V.
-const SETPOINT_MIN = 0.02;
-const TOP_ROOM = 0.02;
 // Width margin (ln of limit / widest device) under which the width limit counts as binding: within 1 %.
 const ON_LIMIT = 0.01;
 
