@@ -19,7 +19,8 @@ import { exhaustive } from './helpers/exhaustive.js';
  */
 
 interface StackCase {
-  case: number;
+  /** The audit's case label: a number (audit2) or 'A3-n' (audit3). */
+  case: number | string;
   id: string;
   kit: string;
   /** What the search misses: an objective, a feasible spec called infeasible, or the nearest Rout at the headroom target. */
