@@ -317,6 +317,16 @@ const cases: StageCase[] = [
     stage: stageOf({ gain: 124, swing: 0.47, output: 0.539, input: 'n', inputTopology: 'cascode', load: 'cascode-stacked', l: [90e-9, 120e-9], gmid: [10, 22], loadL: [550e-9, 550e-9] }),
     why: WHY_RIDGE,
   },
+  {
+    // Found by audit3 (seed 20261217, #34): the tool called it infeasible ("the tables cannot hold the stage's bias")
+    // although the reference pair meets every target (gain 1110 >= 1050, swing 0.788 >= 0.748 V, area 56.71e-12 m²).
+    // Every pair the screen kept had a load whose bias diodes cannot be realised (cascode setpoints of 0.275 V and
+    // more at gm/ID 19-20), so none could be traced; such side designs are now left out before the pairs are screened.
+    // Reference pair: input l [700e-9, 700e-9], gm/ID [20, 16], setpoints [0.25]; load l [180e-9, 180e-9], gm/ID [8, 20], setpoints [0.25].
+    id: 'audit3 demo180: p cascode input, n cascode load, gain 1050 over 0.748 V (seed 20261217 #34)', kit: 'demo180', grid: { gmidPoints: 4, vStep: 0.1 },
+    stage: { ...stageOf({ gain: 1.05e3, swing: 0.748, output: 0.839, input: 'p', inputTopology: 'cascode', load: 'cascode', l: [500e-9, 700e-9], gmid: [8, 20], loadL: [180e-9, 180e-9] }), current: 8.8e-6 },
+    why: 'a feasible stage whose screened pairs all had loads with unrealisable bias diodes',
+  },
 ];
 
 describe('gain-stage search against an exhaustive reference (objective area, tt)', () => {

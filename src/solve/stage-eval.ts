@@ -105,6 +105,20 @@ function inputBias(sides: StageSides, d: SideDesign): BiasDevice[] | null {
   return all ? [all[1]] : null;
 }
 
+/** Bias diodes of every load gate (as the load's stack has them). */
+function loadBias(sides: StageSides, d: SideDesign): BiasDevice[] | null {
+  const ctx = sides.load.ctx;
+  return biasDevices(topologyOf(d.cand.topology), d.slices, d.sized.gates, ctx.ib, { wmin: ctx.wmin, lengths: ctx.lengths, slice: (l) => ctx.slice(ctx.nominal, l) });
+}
+
+/**
+ * Whether a side design's bias diodes can be realised (the tables cover them, each at least the minimum width): a pair
+ * with one that cannot is never realised (evaluatePair), so such designs are left out before the pairs are screened.
+ */
+export function biasRealisable(sides: StageSides, side: StageSides['input'], d: SideDesign): boolean {
+  return rangeSafe(() => (side.kind === 'input' ? inputBias : loadBias)(sides, d)) !== null;
+}
+
 /** The circuit of a pair at the nominal corner: each side's devices with the gates of its sizing. */
 export function pairCircuit(sides: StageSides, input: SideDesign, load: SideDesign): StageCircuit {
   const loadOps = (load.loadOps ??= new Map());
@@ -138,8 +152,7 @@ function pointAt(sides: StageSides, corner: string, circuit: StageCircuit, gates
 export function evaluatePair(sides: StageSides, input: SideDesign, load: SideDesign, judge: PairJudge = 'search'): StageDesign | null {
   return rangeSafe(() => {
     const ib = inputBias(sides, input);
-    const lctx = sides.load.ctx;
-    const lb = biasDevices(topologyOf(load.cand.topology), load.slices, load.sized.gates, lctx.ib, { wmin: lctx.wmin, lengths: lctx.lengths, slice: (l) => lctx.slice(lctx.nominal, l) });
+    const lb = loadBias(sides, load);
     if (!ib || !lb) return null;
     const circuit = pairCircuit(sides, input, load);
     const gates = { input: input.sized.gates.slice(1), load: load.sized.gates };

@@ -4,7 +4,7 @@ import { designIndex, outputGrid } from '../stack/index.js';
 import type { KitAccess } from './kit.js';
 import { makeSide, roomCandidates, roomLeft, sideCandidates, sideDesign, spareRout, type SideDesign } from './stage-side.js';
 import { screenPairs } from './stage-screen.js';
-import { evaluatePair, type StageDesign, type StageSides } from './stage-eval.js';
+import { biasRealisable, evaluatePair, type StageDesign, type StageSides } from './stage-eval.js';
 import { emptyStageResult, stageFrontPoint, stageResult } from './stage-result.js';
 import { chooseStage } from './stage-choose.js';
 import type { StageFrontPoint, StageResult } from './stage-types.js';
@@ -44,7 +44,10 @@ function designs(sides: StageSides, side: StageSides['input'], topology: Topolog
   return out;
 }
 
-/** The side designs of `cands` not among `known` onto `out` (those the tables cannot realise left out). */
+/**
+ * The side designs of `cands` not among `known` onto `out`, those the tables cannot realise left out, and those whose
+ * bias diodes cannot be (no pair with them can: in the pair screen they would only displace pairs that can).
+ */
 function sizedInto(
   out: SideDesign[], sides: StageSides, side: StageSides['input'], cands: readonly Candidate[], known: readonly Candidate[],
   vs: Float64Array, j0: number, gmMax?: number,
@@ -54,7 +57,7 @@ function sizedInto(
   for (const c of cands) {
     if (seen.has(seen.key(c))) continue;
     const d = sideDesign(side, c, vs, j0, sides.stage, sides.supply, gmMax);
-    if (d) out.push(d);
+    if (d && biasRealisable(sides, side, d)) out.push(d);
   }
 }
 
