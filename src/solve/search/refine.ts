@@ -10,6 +10,7 @@ import { lookAt, shortfallSurelyAbove, surelyMisses, type Look } from './quick.j
 import { anyWider, atWidthEdge, raisedToLimit } from './width-edge.js';
 import { ridgeStep } from './ridge.js';
 import { leastSaturated } from '../evaluate/checks.js';
+import { edgeOf } from '../../numeric/index.js';
 
 export type { Seen };
 
@@ -323,19 +324,18 @@ function climb(
   function setpointEdges(vstep: number): boolean {
     let improved = false;
     const c = best.cand;
+    // Halvings of a step down to SETPOINT_EDGE_V.
+    let halvings = 0;
+    for (let w = vstep; w > SETPOINT_EDGE_V; w /= 2) halvings++;
     for (let k = 0; k < c.setpoints.length; k++) {
       for (const sign of [-1, 1]) {
         const at = (v: number): Candidate => ({ topology: c.topology, l: c.l, gmid: c.gmid, setpoints: c.setpoints.map((x, j) => (j === k ? Math.round(v * 1e6) / 1e6 : x)) });
-        let good = c.setpoints[k];
-        let bad = good + sign * vstep;
+        const from = c.setpoints[k];
+        const bad = from + sign * vstep;
         if (bad < SETPOINT_MIN || seen.get(seen.key(at(bad))) !== null) continue;
-        let edge: Evaluated | null = null;
-        while (Math.abs(bad - good) > SETPOINT_EDGE_V) {
-          const m = 0.5 * (good + bad);
-          const e = evaluate(at(m));
-          if (e) [good, edge] = [m, e];
-          else bad = m;
-        }
+        const v = edgeOf((m) => evaluate(at(m)) !== null, from, bad, halvings);
+        // Evaluated already by the bisection (when it moved at all).
+        const edge = v === from ? null : evaluate(at(v));
         if (edge && better(edge, best)) {
           best = edge;
           improved = true;
@@ -384,7 +384,7 @@ function climb(
     const edged = new Set<Candidate>();
     const follow = (n: Candidate, tooWide: boolean) => {
       if (!tooWide || edged.has(n)) return;
-      const e = edgeOf(n);
+      const e = widthEdgeOf(n);
       if (e) {
         edged.add(e);
         queue.push(e);
@@ -425,7 +425,7 @@ function climb(
   }
 
   /** The width-edge version of a move, once per search (null: it fits, or has none). */
-  function edgeOf(n: Candidate): Candidate | null {
+  function widthEdgeOf(n: Candidate): Candidate | null {
     const key = seen.key(n);
     let e = memo.edges.get(key);
     if (e === undefined) {
