@@ -7,7 +7,7 @@ import { saturationVoltage } from '../../stack/index.js';
 // saturated (a few tens of mV wide), coarse enough to stay a few dozen probes per setpoint.
 const PROBE_VSTEP = 0.05;
 // The room the top device keeps at mid-span, V.
-export const TOP_ROOM = 0.02;
+const TOP_ROOM = 0.02;
 // Bisection steps towards the edge of a setpoint line's realisable stretch (50 mV / 2^6: under 1 mV). Rout at the
 // headroom target can peak right at that edge (a lower device at its saturation edge, or a device at the highest gm/ID
 // its bias reaches), between two probes, one of them not realisable.
@@ -16,6 +16,12 @@ const LINE_EDGE_STEPS = 6;
 // mid-span solve's VDSsat is at its own gm/ID, a hair from the design's).
 const SAT_STEPS = 12;
 const SAT_SLACK = 0.002;
+
+/** The highest value setpoint k can take with the others as they are: all of mid-span but the top's TOP_ROOM, V. */
+export function setpointRoom(ctx: SolveContext, setpoints: readonly number[], k: number): number {
+  const sum = setpoints.reduce((a, b) => a + b, 0);
+  return ctx.vmid - TOP_ROOM - (sum - setpoints[k]);
+}
 
 /**
  * Long moves from a design: each coordinate alone over its whole allowed range (each length over the allowed lengths,
@@ -120,9 +126,8 @@ export function lineProbes(ctx: SolveContext, c: Candidate, realisable?: (d: Can
       if (add(d) === 'pulled') break;
     }
   }
-  const sum = c.setpoints.reduce((a, b) => a + b, 0);
   for (let k = 0; k < c.setpoints.length; k++) {
-    const room = ctx.vmid - TOP_ROOM - (sum - c.setpoints[k]);
+    const room = setpointRoom(ctx, c.setpoints, k);
     line(c.setpoints[k], grid(room, 1), (v) => {
       const d = copy();
       d.setpoints[k] = v;
@@ -133,7 +138,7 @@ export function lineProbes(ctx: SolveContext, c: Candidate, realisable?: (d: Can
   // nothing is saturated at the headroom target, Rout there can peak with a lower device at a low gm/ID just saturated at mid-span (a high VDS
   // bought with its overdrive) under a wide device at a high gm/ID, three coordinates away from a design elsewhere.
   for (let m = 0; saturationEdges && m < c.setpoints.length; m++) {
-    const room = ctx.vmid - TOP_ROOM - (sum - c.setpoints[m]);
+    const room = setpointRoom(ctx, c.setpoints, m);
     let vsb = 0;
     for (let j = 0; j < m; j++) vsb += c.setpoints[j];
     line(NaN, grid(room, 1), (v) => {
@@ -157,7 +162,7 @@ export function lineProbes(ctx: SolveContext, c: Candidate, realisable?: (d: Can
   // alone, can fall short where the two together do not.
   for (const { l } of moved) {
     for (let m = 0; m < c.setpoints.length; m++) {
-      const room = ctx.vmid - TOP_ROOM - (sum - c.setpoints[m]);
+      const room = setpointRoom(ctx, c.setpoints, m);
       const at = (v: number): Candidate => {
         const d = copy();
         d.l = l;

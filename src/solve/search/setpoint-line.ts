@@ -6,7 +6,7 @@ import { better } from './rank.js';
 import { evaluateOnce, lookOnce, refine, type Seen } from './refine.js';
 import { routSurelyBelow, surelyMisses } from './quick.js';
 import { widestAt } from './width-edge.js';
-import { TOP_ROOM } from './line-probes.js';
+import { setpointRoom } from './line-probes.js';
 
 // Width margin (ln of limit / widest device) under which the width limit counts as binding: within 1 %.
 const ON_LIMIT = 0.01;
@@ -41,10 +41,9 @@ export function fromSetpointLine(ctx: SolveContext, best: Evaluated, seen: Seen,
 function setpointLine(ctx: SolveContext, c: Candidate): Candidate[] {
   const out: Candidate[] = [];
   const step = topologyOf(c.topology).refineVoltageStep;
-  const sum = c.setpoints.reduce((a, b) => a + b, 0);
   for (let k = 0; k < c.setpoints.length; k++) {
     const own = c.setpoints[k];
-    const room = ctx.vmid - TOP_ROOM - (sum - own);
+    const room = setpointRoom(ctx, c.setpoints, k);
     for (let j = Math.ceil((SETPOINT_MIN - own) / step); own + j * step <= room + 1e-9; j++) {
       if (j === 0) continue;
       const setpoints = c.setpoints.map((v, i) => (i === k ? Math.round((own + j * step) * 1e6) / 1e6 : v));
