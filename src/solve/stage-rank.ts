@@ -1,6 +1,7 @@
 import type { StageObjective, StageSpec } from '../design/types.js';
 import type { StageAt, StageDesign } from './stage-eval.js';
 import { vinMargin } from './stage-rails.js';
+import { REL_TOL } from '../policy.js';
 
 /** Normalised margins of one traced corner (≥ 0 met): gain in ln units, swing relative to its target, gbw in ln units. */
 export interface StageMargins {
@@ -25,7 +26,7 @@ export function stageMargins(stage: StageSpec, at: StageAt | { error: string }):
 
 /** Met when the swing with gain ≥ target reaches the swing target (which is the gain held over it) and the gbw target holds, with the input DC voltage within the rails. */
 export function meets(m: StageMargins): boolean {
-  return m.swing >= -1e-9 && m.gbw >= 0 && m.vin >= 0;
+  return m.swing >= -REL_TOL && m.gbw >= 0 && m.vin >= 0;
 }
 
 /** Sum of shortfalls (capped so every design still ranks). */

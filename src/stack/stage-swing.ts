@@ -3,6 +3,7 @@
  * `vs` ascending output voltages (V), `gains` the gain there (0 where the
  * circuit cannot hold the output), linear between samples.
  */
+import { REL_TOL } from '../policy.js';
 
 /** Index of the sample at `output` (the design point is a grid point). */
 export function indexOf(vs: ArrayLike<number>, output: number): number {
@@ -103,10 +104,10 @@ export function gainOverSwingWithEdges(
     // or the segment beyond it would read a window poking past the edge as holding the target.
     push(vs[j], isEdge(vs[j]) ? Math.min(gains[j], target) : gains[j]);
   }
-  // A swing reaching `width` within the targets' tolerance (1e-9 relative, see meets in solve/stage-rank.ts) holds the
+  // A swing reaching `width` within the targets' tolerance (REL_TOL, as meets in solve/stage-rank.ts) holds the
   // target over it: edges 1 V apart on the 0.5 mV bisection grid differ by 0.9999999999999999 V in floating point,
   // and a window of exactly `width` would poke past an edge by that rounding and read a hair below the target.
-  return gainOverSwing(xs, gs, k0, width * (1 - 1e-9));
+  return gainOverSwing(xs, gs, k0, width * (1 - REL_TOL));
 }
 
 /** Widest swing with gain ≥ target around the design point, V (0 when the design point misses the target). */
