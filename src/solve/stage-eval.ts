@@ -5,7 +5,7 @@ import {
   biasDevices, biasGates, gainOverSwing, heldGain, holdingRun, sampleOf, stagePoint, traceStage,
   type BiasDevice, type StackDevice, type StageCircuit, type StagePoint, type StageTrace,
 } from '../stack/index.js';
-import type { Side, SideDesign } from './stage-side.js';
+import type { Side, SideDesign, SideKind } from './stage-side.js';
 import { rangeSafe } from './evaluate/evaluate.js';
 
 /** Output grid step of the reported trace, V; swing edges are bisected on the circuit to 0.5 mV either way. */
@@ -111,12 +111,18 @@ function loadBias(sides: StageSides, d: SideDesign): BiasDevice[] | null {
   return biasDevices(topologyOf(d.cand.topology), d.slices, d.sized.gates, ctx.ib, { wmin: ctx.wmin, lengths: ctx.lengths, slice: (l) => ctx.slice(ctx.nominal, l) });
 }
 
+/** A side design's bias diodes (null: not realisable), worked out once per design: it serves every pair it is in. */
+function biasOf(sides: StageSides, kind: SideKind, d: SideDesign): BiasDevice[] | null {
+  if (d.bias === undefined) d.bias = rangeSafe(() => (kind === 'input' ? inputBias : loadBias)(sides, d));
+  return d.bias;
+}
+
 /**
  * Whether a side design's bias diodes can be realised (the tables cover them, each at least the minimum width): a pair
  * with one that cannot is never realised (evaluatePair), so such designs are left out before the pairs are screened.
  */
 export function biasRealisable(sides: StageSides, side: StageSides['input'], d: SideDesign): boolean {
-  return rangeSafe(() => (side.kind === 'input' ? inputBias : loadBias)(sides, d)) !== null;
+  return biasOf(sides, side.kind, d) !== null;
 }
 
 /** The circuit of a pair at the nominal corner: each side's devices with the gates of its sizing. */
@@ -151,8 +157,8 @@ function pointAt(sides: StageSides, corner: string, circuit: StageCircuit, gates
  */
 export function evaluatePair(sides: StageSides, input: SideDesign, load: SideDesign, judge: PairJudge = 'search'): StageDesign | null {
   return rangeSafe(() => {
-    const ib = inputBias(sides, input);
-    const lb = loadBias(sides, load);
+    const ib = biasOf(sides, 'input', input);
+    const lb = biasOf(sides, 'load', load);
     if (!ib || !lb) return null;
     const circuit = pairCircuit(sides, input, load);
     const gates = { input: input.sized.gates.slice(1), load: load.sized.gates };

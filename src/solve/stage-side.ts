@@ -6,7 +6,7 @@ import type { Polarity } from '../table/types.js';
 import type { StackSpec, StageSpec, Topology } from '../design/types.js';
 import {
   sampleAt, sideVoltage, sizeStackDevices, solveInput, solved,
-  type SizedStack, type StackDevice, type StackOp,
+  type BiasDevice, type SizedStack, type StackDevice, type StackOp,
 } from '../stack/index.js';
 import type { KitAccess } from './kit.js';
 import { makeContext, type SolveContext } from './context.js';
@@ -82,6 +82,8 @@ export interface SideDesign {
   cdd: number;
   /** Load side: its operating points at the nominal corner by output voltage, for every pair it is in (StageCircuit.loadOps). */
   loadOps?: Map<number, StackOp | null>;
+  /** Its bias diodes at the nominal corner once worked out (null: not realisable), for every pair it is in (stage-eval biasOf). */
+  bias?: BiasDevice[] | null;
 }
 
 // The derived stack spec places mid-span at the design point: vmid = (headroom + span)/2 = vd.
