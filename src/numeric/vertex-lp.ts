@@ -192,8 +192,8 @@ function solveRows(rows: readonly LpRow[], pick: Int32Array, d: number, m: Float
  * min c·x subject to a·x ≤ b and −down ≤ x ≤ up (one row and a box), exactly, as a fractional knapsack: each
  * coordinate at the bound its cost prefers (a free one at the bound the row prefers), then, while the row is
  * violated, coordinates moved back towards their other bound in order of least cost per unit of the row removed.
- * null when infeasible. The ridge step's programme when at most one margin can bind: vertexLp tries every vertex,
- * 2^d and more of them (about a millisecond at d = 8, the stage's ridge over both sides).
+ * null when infeasible. The ridge step's programme when at most one margin can bind (vertexLp serves the others); among
+ * equally good answers it takes its own (a zero-cost coordinate at the bound the row prefers), which vertexLp need not.
  */
 export function boxLp1(c: ArrayLike<number>, a: ArrayLike<number>, b: number, up: ArrayLike<number>, down: ArrayLike<number>): { x: Float64Array; value: number } | null {
   const d = c.length;
