@@ -65,7 +65,7 @@ export interface RefDesign {
   headroom: number;
   /** Lowest Rout over [target headroom, span], Ω. */
   routAtTarget: number;
-  /** Lowest Rout over [max(headroom, target headroom), span], Ω. */
+  /** Lowest Rout over [max(headroom, target headroom), span], Ω (0 for a design never meeting the Rout target). */
   rout: number;
 }
 
@@ -77,6 +77,9 @@ export interface RefAnswer {
   headroomAtRout: number;
   /** Highest lowest-Rout over [target headroom, span] of any design within the mismatch budget, Ω. */
   routAtHeadroom: number;
+  /** The designs giving headroomAtRout and routAtHeadroom (when the nearest points were asked for and one exists). */
+  headroomDesign?: RefDesign;
+  routDesign?: RefDesign;
   /** Designs on the grids (after the per-device rules) and the DC solves spent judging them. */
   designs: number;
   solves: number;
@@ -420,7 +423,9 @@ export function exhaustive(spec: StackSpec, kit: KitAccess, topology: Topology, 
   const h = (d?: Design) => (d ? headroomOf(d) : Infinity);
   let best = first.best;
   let hrBest = h(first.hr);
+  let hrDesign = first.hr;
   let roBest = first.ro.r;
+  let roDesign = first.ro.d;
 
   // Runners-up seed too: the coarse optimum can sit in another basin than the fine one.
   const keep = grid.keep ?? 2;
@@ -448,8 +453,8 @@ export function exhaustive(spec: StackSpec, kit: KitAccess, topology: Topology, 
     count.designs += fine.length;
     const next = answer(fine);
     if (next.best && (!best || beats(next.best, best))) best = next.best;
-    hrBest = Math.min(hrBest, h(next.hr));
-    roBest = Math.max(roBest, next.ro.r);
+    if (h(next.hr) < hrBest) [hrBest, hrDesign] = [h(next.hr), next.hr];
+    if (next.ro.r > roBest) [roBest, roDesign] = [next.ro.r, next.ro.d];
     seeds = [next.best, next.hr, next.ro.d].filter((d): d is Design => d !== undefined);
     gStep /= 2;
     vStep /= 2;
@@ -458,12 +463,15 @@ export function exhaustive(spec: StackSpec, kit: KitAccess, topology: Topology, 
   const report = (d: Design | undefined): RefDesign | undefined => d && {
     l: d.opts.map((o) => o.l), gmid: d.opts.map((o) => o.gmid), setpoints: d.setpoints, w: d.opts.map((o) => o.w),
     area: d.area, sigma: coeff ? d.sigma : undefined,
-    headroom: headroomOf(d), routAtTarget: minRout(d, spec.headroom), rout: minRout(d, Math.max(headroomOf(d), spec.headroom)),
+    headroom: headroomOf(d), routAtTarget: minRout(d, spec.headroom),
+    rout: Number.isFinite(headroomOf(d)) ? minRout(d, Math.max(headroomOf(d), spec.headroom)) : 0,
   };
   return {
     best: report(best),
     headroomAtRout: hrBest,
     routAtHeadroom: roBest,
+    headroomDesign: report(hrDesign),
+    routDesign: report(roDesign),
     designs: count.designs,
     solves,
   };
