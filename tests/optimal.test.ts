@@ -408,6 +408,16 @@ const FEASIBLE: Case[] = [
     // The reference's own grid meets the targets only around its nearest designs (nearest: true refines around them).
     grid: { gmidStep: 4, vStep: 0.1, nearest: true },
   },
+  {
+    // Found by audit3 (seed 20261216, #253): tool: infeasible (binding rout, nearest headroomAtRout 0.866 V, routAtHeadroom 35.57e9 Ω); reference: feasible, headroom 0.7170 V, Rout 42.24e9 Ω, area 109.7e-12 m².
+    // Every screened candidate leaves the top bias diode below the minimum width; Rout rises steeply with the top
+    // setpoint up to that edge (0.22 V at gm/ID 22), and the climb, stopped short of it, drifted to a lower top gm/ID,
+    // which lowers the edge. 43.7e9 Ω since a setpoint move that cannot be realised is followed to its edge.
+    // Reference design: l [2e-6, 2e-6, 2e-6], gm/ID [22, 22, 22], setpoints [0.15, 0.21875].
+    id: 'nreed-triple-rout-audit3-s16-253', kit: 'reed180', why: 'the tool calls a feasible spec infeasible under a width limit and a mismatch budget',
+    spec: { device: 'n', topology: 'triple', current: 2.92e-6, rout: 36.6e9, headroom: 0.834, span: 1.52, objective: 'rout', l: { min: 1.3e-6, max: 2e-6 }, gmid: { min: 6, max: 22 }, mismatch: 0.0264, wmax: 24.9e-6 },
+    grid: { gmidStep: 4, vStep: 0.1, nearest: true },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {
