@@ -418,6 +418,32 @@ const FEASIBLE: Case[] = [
     spec: { device: 'n', topology: 'triple', current: 2.92e-6, rout: 36.6e9, headroom: 0.834, span: 1.52, objective: 'rout', l: { min: 1.3e-6, max: 2e-6 }, gmid: { min: 6, max: 22 }, mismatch: 0.0264, wmax: 24.9e-6 },
     grid: { gmidStep: 4, vStep: 0.1, nearest: true },
   },
+  {
+    // Found by audit3 (seed 20261216, #25): area 666.8e-15 m² vs reference 600.1e-15 m² (tool +11.1 %). Two designs of
+    // the screen of one length choice at other setpoints, only the better one climbed (one seed per length choice).
+    // 588.6e-15 m² since near designs of a length choice at other setpoints take the seeds to spare.
+    // Reference design: l [120e-9, 120e-9, 120e-9], gm/ID [13.75, 14, 17], setpoints [0.175, 0.175].
+    id: 'n090-triple-area-audit3-s16-25', kit: 'demo090', why: 'least area under a width limit',
+    spec: { device: 'n', topology: 'triple', current: 20.2e-6, rout: 6.22e6, headroom: 0.534, span: 0.935, objective: 'area', l: { min: 90e-9, max: 120e-9 }, gmid: { min: 6, max: 22 }, wmax: 6.23e-6 },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
+    // Found by audit3 (seed 20261216, #350): Rout 15.53e6 Ω vs reference 16.72e6 Ω (tool -7.1 %). The bottom at its
+    // saturation edge at 0.2 V with a low gm/ID, or at 0.15 V with a high one: separate basins of one length choice, and
+    // only the first climbed. 16.0e6 Ω since near designs of a length choice at other setpoints take the seeds to spare.
+    // Reference design: l [160e-9, 160e-9, 160e-9], gm/ID [16.5, 22, 22], setpoints [0.1625, 0.15625].
+    id: 'n090-triple-rout-audit3-s16-350', kit: 'demo090', why: 'highest Rout',
+    spec: { device: 'n', topology: 'triple', current: 26.9e-6, rout: 13e6, headroom: 0.47, span: 0.829, objective: 'rout', l: { min: 120e-9, max: 160e-9 }, gmid: { min: 6, max: 22 } },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
+    // Found by audit3 (seed 20261216, #830): headroom 0.474 V vs reference 0.4590 V (tool +15.0 mV). As the case above,
+    // for the headroom: 0.458 V since near designs of a length choice at other setpoints take the seeds to spare.
+    // Reference design: l [160e-9, 160e-9, 160e-9], gm/ID [16.5, 22, 22], setpoints [0.1625, 0.14375].
+    id: 'p090-triple-headroom-audit3-s16-830', kit: 'demo090', why: 'lowest headroom',
+    spec: { device: 'p', topology: 'triple', current: 165e-6, rout: 2.16e6, headroom: 0.536, span: 0.798, objective: 'headroom', l: { min: 120e-9, max: 160e-9 }, gmid: { min: 6, max: 22 } },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {
