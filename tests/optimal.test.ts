@@ -444,6 +444,16 @@ const FEASIBLE: Case[] = [
     spec: { device: 'p', topology: 'triple', current: 165e-6, rout: 2.16e6, headroom: 0.536, span: 0.798, objective: 'headroom', l: { min: 120e-9, max: 160e-9 }, gmid: { min: 6, max: 22 } },
     grid: { gmidStep: 4, vStep: 0.1 },
   },
+  {
+    // Found by audit3 (seed 20261215, #372): Rout 2.836e6 Ω vs reference 3.565e6 Ω (tool -20.5 %). Rout rises as the
+    // bottom's setpoint falls to its saturation edge (2.83e6 Ω at 0.15 V, 3.72e6 Ω at 0.135 V with gm/ID 21); the first
+    // setpoint step down left it in triode, and the climb drifted to a lower bottom gm/ID (Rout tied within 1 %, less
+    // area), which raises the edge. 4.13e6 Ω since a setpoint move that cannot be realised is followed to its edge.
+    // Reference design: l [160e-9, 160e-9, 120e-9], gm/ID [20, 20.609, 22], setpoints [0.1375, 0.14375].
+    id: 'n090-triple-rout-audit3-s15-372', kit: 'demo090', why: 'highest Rout under a width limit',
+    spec: { device: 'n', topology: 'triple', current: 17.9e-6, rout: 2.43e6, headroom: 0.333, span: 1.13, objective: 'rout', l: { min: 120e-9, max: 160e-9 }, gmid: { min: 6, max: 22 }, wmax: 5.42e-6 },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {
@@ -688,7 +698,10 @@ const INFEASIBLE: Case[] = [
   },
   {
     // 4.12 µA p-type under a 7.9 µm width limit: the reference meets the Rout target from 0.208 V; the tool said 0.252 V.
-    id: 'p-reed-cascode-nearest-headroom-far', kit: 'reed180', why: 'lowest headroom at the Rout target far from the climb\'s seeds',
+    // Width binds: since setpoint moves are followed to their realisable edge, the search finds a design meeting Rout
+    // and headroom at 150 µm (the reference's own judge agrees: l [500e-9, 300e-9], gm/ID [24.05, 23.76], setpoint
+    // 0.1134 V, headroom 0.164 V, Rout 880 kΩ); the reference's grid, without the limit, meets every target at 1.15 mm.
+    id: 'p-reed-cascode-nearest-headroom-far', kit: 'reed180', why: 'lowest headroom at the Rout target far from the climb\'s seeds', widthBinds: true,
     spec: { device: 'p', topology: 'cascode', current: 4.12e-6, rout: 871e3, headroom: 0.164, span: 1.267, objective: 'headroom', wmax: 7.9e-6 },
   },
   // Found by a scan of random reed180 cascode specs against the exhaustive reference (tests/helpers/exhaustive.ts):

@@ -420,14 +420,14 @@ function climb(
   function step(moves: Candidate[]): boolean {
     let improved = false;
     const queue = [...moves];
-    // Short of the targets, a setpoint move that could not be realised is followed by its realisable-edge version:
-    // where a bias diode reaches the minimum width, the only designs meeting the targets can lie within a few mV of
-    // that edge (audit3 A3-17: Rout rising steeply with the top setpoint up to its edge), and a climb that stops short
-    // of it drifts along the other coordinates, each of which lowers the edge (called infeasible).
+    // A setpoint move that could not be realised is followed by its realisable-edge version: Rout can rise steeply
+    // with a setpoint up to where a bias diode reaches the minimum width (audit3 A3-17, the only designs meeting the
+    // targets within a few mV of it) or down to where a lower device leaves saturation (audit3 A3-8), and a climb
+    // stopped a step short of the edge drifts along the other coordinates, which move the edge away. Only in the
+    // sizing's own climbs, as the ridge steps.
     const origin = best.cand;
-    const short = !fullyOk(ctx, best);
     const toEdge = (n: Candidate) => {
-      const e = short ? setpointEdgeOf(origin, n) : null;
+      const e = sizing ? setpointEdgeOf(origin, n) : null;
       if (e) queue.push(e);
     };
     // A move found wider than the width limit (or not realisable: a gm/ID beyond its length's reach) is followed by
