@@ -817,6 +817,40 @@ describe('nearest points on the edge of the width limit (exhaustive reference se
   });
 });
 
+describe('nearest Rout at the headroom target in another basin than the leaders\' (exhaustive reference search)', () => {
+  // The two best designs by Rout were neighbours on one climb's path; the nearest point lies a few setpoint steps away,
+  // the upper setpoint near its bias diode's edge. Since the Rout climb also starts from the best design in another basin.
+  it('n180-triple-headroom-audit3-s15-76: nearest Rout at the headroom target (audit3 seed 20261215 #76)', () => {
+    // nearest.routAtHeadroom 37.94e6 Ω vs reference 45.52e6 Ω (tool -16.6 %); reference design l [350e-9, 350e-9, 350e-9], gm/ID [9.418, 10.64, 10.865], setpoints [0.25, 0.25]. 45.8e6 Ω since.
+    const spec: StackSpec = { name: 'n180-triple-headroom-audit3-s15-76', ...{ device: 'n', topology: 'triple', current: 244e-6, rout: 47.9e6, headroom: 0.731, span: 1.32, objective: 'headroom', l: { min: 250e-9, max: 350e-9 }, gmid: { min: 6, max: 22 }, wmax: 38.9e-6 } };
+    const tool = sizeStack(spec, kits.demo180, { supply: SUPPLY.demo180, corners: ['tt'] }).results[0];
+    const ref = exhaustive(spec, kits.demo180, 'triple', 'tt', { ...GRID, nearest: true, gmidStep: 4, vStep: 0.1 });
+    expect(ref.best).toBeUndefined();
+    expect(tool.feasible).toBe(false);
+    expect(tool.nearest!.routAtHeadroom!).toBeGreaterThanOrEqual(0.95 * ref.routAtHeadroom);
+  });
+
+  it('preed-triple-headroom-audit3-s16-416: nearest Rout at the headroom target (audit3 seed 20261216 #416)', () => {
+    // nearest.routAtHeadroom 8.177e6 Ω vs reference 12.06e6 Ω (tool -32.2 %); reference design l [1.3e-6, 1.3e-6, 800e-9], gm/ID [22, 21.528, 22], setpoints [0.15, 0.21875]. 12.05e6 Ω since.
+    const spec: StackSpec = { name: 'preed-triple-headroom-audit3-s16-416', ...{ device: 'p', topology: 'triple', current: 37.9e-6, rout: 12.2e6, headroom: 0.319, span: 1.66, objective: 'headroom', l: { min: 800e-9, max: 1.3e-6 }, gmid: { min: 6, max: 22 } } };
+    const tool = sizeStack(spec, kits.reed180, { supply: SUPPLY.reed180, corners: ['tt'] }).results[0];
+    const ref = exhaustive(spec, kits.reed180, 'triple', 'tt', { ...GRID, nearest: true, gmidStep: 4, vStep: 0.1 });
+    expect(ref.best).toBeUndefined();
+    expect(tool.feasible).toBe(false);
+    expect(tool.nearest!.routAtHeadroom!).toBeGreaterThanOrEqual(0.95 * ref.routAtHeadroom);
+  });
+
+  it('nreed-triple-rout-audit3-s16-461: nearest Rout at the headroom target (audit3 seed 20261216 #461)', () => {
+    // nearest.routAtHeadroom 3.949e6 Ω vs reference 4.313e6 Ω (tool -8.4 %); reference design l [800e-9, 800e-9, 500e-9], gm/ID [22, 22, 22], setpoints [0.15, 0.23125]. 4.35e6 Ω since.
+    const spec: StackSpec = { name: 'nreed-triple-rout-audit3-s16-461', ...{ device: 'n', topology: 'triple', current: 38.1e-6, rout: 14.3e6, headroom: 0.318, span: 1.56, objective: 'rout', l: { min: 500e-9, max: 800e-9 }, gmid: { min: 6, max: 22 } } };
+    const tool = sizeStack(spec, kits.reed180, { supply: SUPPLY.reed180, corners: ['tt'] }).results[0];
+    const ref = exhaustive(spec, kits.reed180, 'triple', 'tt', { ...GRID, nearest: true, gmidStep: 4, vStep: 0.1 });
+    expect(ref.best).toBeUndefined();
+    expect(tool.feasible).toBe(false);
+    expect(tool.nearest!.routAtHeadroom!).toBeGreaterThanOrEqual(0.95 * ref.routAtHeadroom);
+  });
+});
+
 describe('a stacked cascode with no design within the width limit (exhaustive reference search)', () => {
   // Found by a scan of random stacked-cascode specs: the bottom diodes leave the top device a little room at mid-span,
   // but every top device there (and every bottom diode leaving more room) is wider than the limit, so the search met
