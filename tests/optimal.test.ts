@@ -408,6 +408,21 @@ const FEASIBLE: Case[] = [
     // The reference's own grid meets the targets only around its nearest designs (nearest: true refines around them).
     grid: { gmidStep: 4, vStep: 0.1, nearest: true },
   },
+  {
+    // Found by audit3 (seed 20261216, #59): Rout 746.5e3 Ω vs reference 4.906e6 Ω (tool -84.8 %).
+    // Reference design: l [2e-6, 800e-9], gm/ID [21.811, 23.141], setpoints [] (both devices on the width limit). Its
+    // Rout is ten times the target, so it holds with the top far below its VDSsat: headroom 0.47 V where the screen's
+    // estimate (VGS1 + VDSsat2, 0.61 V) missed the 0.578 V target, and the screen dropped every weakly inverted pair.
+    id: 'preed-cascode-stacked-rout-audit3-s16-59', kit: 'reed180', why: 'highest Rout, met with the top below its VDSsat',
+    spec: { device: 'p', topology: 'cascode-stacked', current: 33.4e-6, rout: 479e3, headroom: 0.578, span: 1.61, objective: 'rout', l: { min: 800e-9, max: 2e-6 } },
+  },
+  {
+    // Found by audit3 (seed 20261215, #407): headroom 0.365 V vs reference 0.3360 V (tool +29.0 mV).
+    // Reference design: l [2e-6, 1e-6], gm/ID [29.81, 12], setpoints []. As for s16-59: its Rout meets the target with
+    // the top below its VDSsat, under a headroom the screen's estimate put above the target.
+    id: 'p180-cascode-stacked-headroom-audit3-s15-407', kit: 'demo180', why: 'lowest headroom, met with the top below its VDSsat',
+    spec: { device: 'p', topology: 'cascode-stacked', current: 2.75e-6, rout: 15.3e6, headroom: 0.439, span: 1.48, objective: 'headroom', l: { min: 1e-6, max: 2e-6 } },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {
