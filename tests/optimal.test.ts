@@ -423,6 +423,46 @@ const FEASIBLE: Case[] = [
     id: 'p180-cascode-stacked-headroom-audit3-s15-407', kit: 'demo180', why: 'lowest headroom, met with the top below its VDSsat',
     spec: { device: 'p', topology: 'cascode-stacked', current: 2.75e-6, rout: 15.3e6, headroom: 0.439, span: 1.48, objective: 'headroom', l: { min: 1e-6, max: 2e-6 } },
   },
+  // Found by audit3: the best stacked cascodes lie along a valley where the bottom's gm/ID rises as the top's falls
+  // several times as fast (the headroom held at its target by the current window, or at the kink where VGS1 + VDSsat2
+  // gives way to the Rout target). The climb stopped where it met the valley: no one-coordinate move improves there,
+  // an equal-step pair move leaves it, and the ridge step read the headroom's 1 mV resolution as flat.
+  {
+    // Found by audit3 (seed 20261216, #644): Rout 3.051e6 Ω vs reference 3.45e6 Ω (tool -11.6 %).
+    // Reference design: l [1e-6, 500e-9], gm/ID [29.839, 9.188], setpoints [].
+    id: 'p180-cascode-stacked-rout-audit3-s16-644', kit: 'demo180', why: 'highest Rout along a valley of the two gm/IDs',
+    spec: { device: 'p', topology: 'cascode-stacked', current: 5.25e-6, rout: 2.58e6, headroom: 0.347, span: 1.64, objective: 'rout', l: { min: 500e-9, max: 1e-6 } },
+  },
+  {
+    // Found by audit3 (seed 20261216, #89): Rout 2.512e6 Ω vs reference 2.7e6 Ω (tool -7.0 %).
+    // Reference design: l [2e-6, 800e-9], gm/ID [24.816, 16.688], setpoints [].
+    id: 'preed-cascode-stacked-rout-audit3-s16-89', kit: 'reed180', why: 'highest Rout along a valley of the two gm/IDs',
+    spec: { device: 'p', topology: 'cascode-stacked', current: 4.67e-6, rout: 2.02e6, headroom: 0.38, span: 1.48, objective: 'rout', l: { min: 800e-9, max: 2e-6 } },
+  },
+  {
+    // Found by audit3 (seed 20261215, #437): Rout 17.5e6 Ω vs reference 18.44e6 Ω (tool -5.1 %).
+    // Reference design: l [1.4e-6, 1e-6], gm/ID [15, 5.938], setpoints [].
+    id: 'n180-cascode-stacked-rout-audit3-s15-437', kit: 'demo180', why: 'highest Rout along a valley of the two gm/IDs',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 1.91e-6, rout: 11e6, headroom: 0.458, span: 1.08, objective: 'rout', l: { min: 700e-9, max: 1.4e-6 }, gmid: { min: 5, max: 15 } },
+  },
+  {
+    // Found by audit3 (seed 20261215, #71): headroom 0.375 V vs reference 0.3561 V (tool +18.9 mV).
+    // Reference design: l [1e-6, 500e-9], gm/ID [22.875, 14.812], setpoints [].
+    id: 'p180-cascode-stacked-headroom-audit3-s15-71', kit: 'demo180', why: 'lowest headroom along a valley of the two gm/IDs',
+    spec: { device: 'p', topology: 'cascode-stacked', current: 70.4e-6, rout: 237e3, headroom: 0.378, span: 1.61, objective: 'headroom', l: { min: 500e-9, max: 1e-6 } },
+  },
+  {
+    // Found by audit3 (seed 20261215, #113): headroom 0.417 V vs reference 0.4025 V (tool +14.5 mV).
+    // Reference design: l [1e-6, 500e-9], gm/ID [13.25, 7.625], setpoints [].
+    id: 'n180-cascode-stacked-headroom-audit3-s15-113', kit: 'demo180', why: 'lowest headroom along a valley of the two gm/IDs',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 179e-6, rout: 120e3, headroom: 0.535, span: 1.29, objective: 'headroom', l: { min: 500e-9, max: 1e-6 }, gmid: { min: 5, max: 15 } },
+  },
+  {
+    // Found by audit3 (seed 20261216, #176): headroom 0.324 V vs reference 0.3122 V (tool +11.8 mV).
+    // Reference design: l [1.4e-6, 700e-9], gm/ID [16.5, 15.75], setpoints [].
+    id: 'p180-cascode-stacked-headroom-audit3-s16-176', kit: 'demo180', why: 'lowest headroom along a valley of the two gm/IDs',
+    spec: { device: 'p', topology: 'cascode-stacked', current: 8.19e-6, rout: 3.1e6, headroom: 0.421, span: 1.15, objective: 'headroom', l: { min: 700e-9, max: 1.4e-6 }, gmid: { min: 3, max: 21 } },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {

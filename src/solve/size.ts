@@ -23,6 +23,7 @@ import { sizeStages } from './stage-size.js';
 import { bottomRoom, diodeRoomCandidates, narrowestDesign, bottomsTooNarrow } from './search/diode-room.js';
 import { setpointRoomCandidates } from './search/setpoint-room.js';
 import { fromSetpointLine } from './search/setpoint-line.js';
+import { alongValley } from './search/valley.js';
 import type { StageFrontPoint } from './stage-types.js';
 import { toWidthLimit } from './search/width-edge.js';
 
@@ -168,6 +169,7 @@ function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool:
     if (coarse && better(ctx, coarse, best)) best = coarse;
   }
   best = fromSetpointLine(ctx, best, seen, pool);
+  best = alongValley(ctx, best, seen, pool);
   // The report uses the full curve; if that loses a target the scan met, take the next best.
   for (let tries = 0; tries < 5 && !finalize(ctx, best); tries++) {
     settle(ctx, seen, pool);
