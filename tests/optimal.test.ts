@@ -463,6 +463,13 @@ const FEASIBLE: Case[] = [
     id: 'p180-cascode-stacked-headroom-audit3-s16-176', kit: 'demo180', why: 'lowest headroom along a valley of the two gm/IDs',
     spec: { device: 'p', topology: 'cascode-stacked', current: 8.19e-6, rout: 3.1e6, headroom: 0.421, span: 1.15, objective: 'headroom', l: { min: 700e-9, max: 1.4e-6 }, gmid: { min: 3, max: 21 } },
   },
+  {
+    // Found by audit3 (seed 20261215, #107): Rout 124.9e3 Ω vs reference 141.9e3 Ω (tool -12.0 %).
+    // Reference design: l [400e-9, 400e-9], gm/ID [26.541, 26.527], setpoints [] (both devices on the width limit,
+    // between the gm/ID grid's points; the screen's designs of these lengths all missed the headroom target).
+    id: 'n090-cascode-stacked-rout-audit3-s15-107', kit: 'demo090', why: 'highest Rout under a mismatch budget, on the width limit',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 294e-6, rout: 89.5e3, headroom: 0.388, span: 0.953, objective: 'rout', l: { min: 400e-9, max: 750e-9 }, mismatch: 0.00727 },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {
