@@ -828,6 +828,17 @@ describe('nearest points on the edge of the width limit (exhaustive reference se
     expect(tool.feasible).toBe(false);
     expect(tool.nearest!.routAtHeadroom!).toBeGreaterThanOrEqual(0.95 * ref.routAtHeadroom);
   });
+  it('n090-cascode-stacked-headroom-audit3-s16-1065: nearest Rout at the headroom target (audit3 seed 20261216 #1065)', () => {
+    // nearest.routAtHeadroom 57.7e3 Ω vs reference 76.54e3 Ω (tool -24.6 %); reference design l [550e-9, 400e-9], gm/ID [6.921, 6.843], setpoints [].
+    // The Rout climb ended at l [400e-9, 550e-9], both lengths away; the headroom climb's line probes reached the
+    // reference's design (its bottom length alone changed), but only the Rout climb's answer was reported.
+    const spec: StackSpec = { name: 'n090-cascode-stacked-headroom-audit3-s16-1065', ...{ device: 'n', topology: 'cascode-stacked', current: 99.7e-6, rout: 37.3e3, headroom: 0.385, span: 1.11, objective: 'headroom', l: { min: 400e-9, max: 750e-9 }, wmax: 5.64e-6 } };
+    const tool = sizeStack(spec, kits.demo090, { supply: SUPPLY.demo090, corners: ['tt'] }).results[0];
+    const ref = exhaustive(spec, kits.demo090, 'cascode-stacked', 'tt', { ...GRID, nearest: true });
+    expect(ref.best).toBeUndefined();
+    expect(tool.feasible).toBe(false);
+    expect(tool.nearest!.routAtHeadroom!).toBeGreaterThanOrEqual(0.95 * ref.routAtHeadroom);
+  });
 });
 
 describe('a stacked cascode with no design within the width limit (exhaustive reference search)', () => {
