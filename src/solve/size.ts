@@ -123,10 +123,10 @@ function lowered(ctx: SolveContext, cands: readonly Candidate[], seen: Seen, poo
 
 /**
  * With objective Rout, the length choices of which no screened design meets the targets: each one's nearest design with
- * every device raised to the width limit (widestAt), evaluated when new; those meeting the targets within reach of `best` (near)
- * come back as more seeds. Rout rises with gm/ID into weak inversion, so a length choice's best design can sit on the
- * width limit between the gm/ID grid's points, the grid point below missing a target (audit3 A3-2: both devices at
- * 400 nm and 26.5 /V, 14 % above the answer; the screen's 25.1 /V missed the headroom target).
+ * every device raised to the width limit (widestAt), evaluated when new; those meeting the targets within reach of
+ * `best` (near) come back as more seeds. Rout rises with gm/ID into weak inversion, so a length choice's best design can
+ * sit on the width limit between the gm/ID grid's points, the grid point below missing a target (audit3 A3-2: both
+ * devices at 400 nm and 26.5 /V, 14 % above the answer; the screen's 25.1 /V missed the headroom target).
  */
 function widestOfShortLengths(ctx: SolveContext, best: Evaluated, pool: Evaluated[], seen: Seen): Evaluated[] {
   if (ctx.meetOnly || ctx.spec.objective !== 'rout' || !fullyOk(ctx, best)) return [];

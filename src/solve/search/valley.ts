@@ -15,7 +15,7 @@ const ROW_FINEST = 1 / 4;
  * the headroom kept at its target by the current window, or at the kink where VGS1 + VDSsat2 gives way to the Rout
  * target). No move of one coordinate improves there, a pair move of equal steps leaves the valley, and the ridge step's
  * differences read the headroom's 1 mV resolution as flat. A slide moves one gm/ID by half a grid step and searches the
- * other along its line for the best design there (search/refine.ts `better`), so it follows the valley at any slope.
+ * other along its line for the best design there (by rank.ts `better`), so it follows the valley at any slope.
  * Slides repeat while one improves (the last direction that did tried first), then a climb polishes the answer.
  */
 export function alongValley(ctx: SolveContext, best: Evaluated, seen: Seen, pool: Evaluated[]): Evaluated {
