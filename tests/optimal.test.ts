@@ -454,6 +454,68 @@ const FEASIBLE: Case[] = [
     spec: { device: 'n', topology: 'triple', current: 17.9e-6, rout: 2.43e6, headroom: 0.333, span: 1.13, objective: 'rout', l: { min: 120e-9, max: 160e-9 }, gmid: { min: 6, max: 22 }, wmax: 5.42e-6 },
     grid: { gmidStep: 4, vStep: 0.1 },
   },
+  {
+    // Found by audit3 (seed 20261216, #59): Rout 746.5e3 Ω vs reference 4.906e6 Ω (tool -84.8 %).
+    // Reference design: l [2e-6, 800e-9], gm/ID [21.811, 23.141], setpoints [] (both devices on the width limit). Its
+    // Rout is ten times the target, so it holds with the top far below its VDSsat: headroom 0.47 V where the screen's
+    // estimate (VGS1 + VDSsat2, 0.61 V) missed the 0.578 V target, and the screen dropped every weakly inverted pair.
+    id: 'preed-cascode-stacked-rout-audit3-s16-59', kit: 'reed180', why: 'highest Rout, met with the top below its VDSsat',
+    spec: { device: 'p', topology: 'cascode-stacked', current: 33.4e-6, rout: 479e3, headroom: 0.578, span: 1.61, objective: 'rout', l: { min: 800e-9, max: 2e-6 } },
+  },
+  {
+    // Found by audit3 (seed 20261215, #407): headroom 0.365 V vs reference 0.3360 V (tool +29.0 mV).
+    // Reference design: l [2e-6, 1e-6], gm/ID [29.81, 12], setpoints []. As for s16-59: its Rout meets the target with
+    // the top below its VDSsat, under a headroom the screen's estimate put above the target.
+    id: 'p180-cascode-stacked-headroom-audit3-s15-407', kit: 'demo180', why: 'lowest headroom, met with the top below its VDSsat',
+    spec: { device: 'p', topology: 'cascode-stacked', current: 2.75e-6, rout: 15.3e6, headroom: 0.439, span: 1.48, objective: 'headroom', l: { min: 1e-6, max: 2e-6 } },
+  },
+  // Found by audit3: the best stacked cascodes lie along a valley where the bottom's gm/ID rises as the top's falls
+  // several times as fast (the headroom held at its target by the current window, or at the kink where VGS1 + VDSsat2
+  // gives way to the Rout target). The climb stopped where it met the valley: no one-coordinate move improves there,
+  // an equal-step pair move leaves it, and the ridge step read the headroom's 1 mV resolution as flat.
+  {
+    // Found by audit3 (seed 20261216, #644): Rout 3.051e6 Ω vs reference 3.45e6 Ω (tool -11.6 %).
+    // Reference design: l [1e-6, 500e-9], gm/ID [29.839, 9.188], setpoints [].
+    id: 'p180-cascode-stacked-rout-audit3-s16-644', kit: 'demo180', why: 'highest Rout along a valley of the two gm/IDs',
+    spec: { device: 'p', topology: 'cascode-stacked', current: 5.25e-6, rout: 2.58e6, headroom: 0.347, span: 1.64, objective: 'rout', l: { min: 500e-9, max: 1e-6 } },
+  },
+  {
+    // Found by audit3 (seed 20261216, #89): Rout 2.512e6 Ω vs reference 2.7e6 Ω (tool -7.0 %).
+    // Reference design: l [2e-6, 800e-9], gm/ID [24.816, 16.688], setpoints [].
+    id: 'preed-cascode-stacked-rout-audit3-s16-89', kit: 'reed180', why: 'highest Rout along a valley of the two gm/IDs',
+    spec: { device: 'p', topology: 'cascode-stacked', current: 4.67e-6, rout: 2.02e6, headroom: 0.38, span: 1.48, objective: 'rout', l: { min: 800e-9, max: 2e-6 } },
+  },
+  {
+    // Found by audit3 (seed 20261215, #437): Rout 17.5e6 Ω vs reference 18.44e6 Ω (tool -5.1 %).
+    // Reference design: l [1.4e-6, 1e-6], gm/ID [15, 5.938], setpoints [].
+    id: 'n180-cascode-stacked-rout-audit3-s15-437', kit: 'demo180', why: 'highest Rout along a valley of the two gm/IDs',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 1.91e-6, rout: 11e6, headroom: 0.458, span: 1.08, objective: 'rout', l: { min: 700e-9, max: 1.4e-6 }, gmid: { min: 5, max: 15 } },
+  },
+  {
+    // Found by audit3 (seed 20261215, #71): headroom 0.375 V vs reference 0.3561 V (tool +18.9 mV).
+    // Reference design: l [1e-6, 500e-9], gm/ID [22.875, 14.812], setpoints [].
+    id: 'p180-cascode-stacked-headroom-audit3-s15-71', kit: 'demo180', why: 'lowest headroom along a valley of the two gm/IDs',
+    spec: { device: 'p', topology: 'cascode-stacked', current: 70.4e-6, rout: 237e3, headroom: 0.378, span: 1.61, objective: 'headroom', l: { min: 500e-9, max: 1e-6 } },
+  },
+  {
+    // Found by audit3 (seed 20261215, #113): headroom 0.417 V vs reference 0.4025 V (tool +14.5 mV).
+    // Reference design: l [1e-6, 500e-9], gm/ID [13.25, 7.625], setpoints [].
+    id: 'n180-cascode-stacked-headroom-audit3-s15-113', kit: 'demo180', why: 'lowest headroom along a valley of the two gm/IDs',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 179e-6, rout: 120e3, headroom: 0.535, span: 1.29, objective: 'headroom', l: { min: 500e-9, max: 1e-6 }, gmid: { min: 5, max: 15 } },
+  },
+  {
+    // Found by audit3 (seed 20261216, #176): headroom 0.324 V vs reference 0.3122 V (tool +11.8 mV).
+    // Reference design: l [1.4e-6, 700e-9], gm/ID [16.5, 15.75], setpoints [].
+    id: 'p180-cascode-stacked-headroom-audit3-s16-176', kit: 'demo180', why: 'lowest headroom along a valley of the two gm/IDs',
+    spec: { device: 'p', topology: 'cascode-stacked', current: 8.19e-6, rout: 3.1e6, headroom: 0.421, span: 1.15, objective: 'headroom', l: { min: 700e-9, max: 1.4e-6 }, gmid: { min: 3, max: 21 } },
+  },
+  {
+    // Found by audit3 (seed 20261215, #107): Rout 124.9e3 Ω vs reference 141.9e3 Ω (tool -12.0 %).
+    // Reference design: l [400e-9, 400e-9], gm/ID [26.541, 26.527], setpoints [] (both devices on the width limit,
+    // between the gm/ID grid's points; the screen's designs of these lengths all missed the headroom target).
+    id: 'n090-cascode-stacked-rout-audit3-s15-107', kit: 'demo090', why: 'highest Rout under a mismatch budget, on the width limit',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 294e-6, rout: 89.5e3, headroom: 0.388, span: 0.953, objective: 'rout', l: { min: 400e-9, max: 750e-9 }, mismatch: 0.00727 },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {
@@ -811,6 +873,17 @@ describe('nearest points on the edge of the width limit (exhaustive reference se
     const spec: StackSpec = { name: 'nreed-cascode-stacked-rout-audit2-s1727', ...{ device: 'n', topology: 'cascode-stacked', current: 178e-6, rout: 25.4e3, headroom: 0.56, span: 1.55, objective: 'rout', l: { min: 500e-9, max: 1.3e-6 }, wmax: 11.8e-6 } };
     const tool = sizeStack(spec, kits.reed180, { supply: SUPPLY.reed180, corners: ['tt'] }).results[0];
     const ref = exhaustive(spec, kits.reed180, 'cascode-stacked', 'tt', { ...GRID, nearest: true });
+    expect(ref.best).toBeUndefined();
+    expect(tool.feasible).toBe(false);
+    expect(tool.nearest!.routAtHeadroom!).toBeGreaterThanOrEqual(0.95 * ref.routAtHeadroom);
+  });
+  it('n090-cascode-stacked-headroom-audit3-s16-1065: nearest Rout at the headroom target (audit3 seed 20261216 #1065)', () => {
+    // nearest.routAtHeadroom 57.7e3 Ω vs reference 76.54e3 Ω (tool -24.6 %); reference design l [550e-9, 400e-9], gm/ID [6.921, 6.843], setpoints [].
+    // The Rout climb ended at l [400e-9, 550e-9], both lengths away; the headroom climb's line probes reached the
+    // reference's design (its bottom length alone changed), but only the Rout climb's answer was reported.
+    const spec: StackSpec = { name: 'n090-cascode-stacked-headroom-audit3-s16-1065', ...{ device: 'n', topology: 'cascode-stacked', current: 99.7e-6, rout: 37.3e3, headroom: 0.385, span: 1.11, objective: 'headroom', l: { min: 400e-9, max: 750e-9 }, wmax: 5.64e-6 } };
+    const tool = sizeStack(spec, kits.demo090, { supply: SUPPLY.demo090, corners: ['tt'] }).results[0];
+    const ref = exhaustive(spec, kits.demo090, 'cascode-stacked', 'tt', { ...GRID, nearest: true });
     expect(ref.best).toBeUndefined();
     expect(tool.feasible).toBe(false);
     expect(tool.nearest!.routAtHeadroom!).toBeGreaterThanOrEqual(0.95 * ref.routAtHeadroom);

@@ -325,6 +325,10 @@ export function nearestPoints(
   // The headroom climb keeps to devices like its seeds', while the lowest headroom can lie far from them (another
   // length, on the width limit): the same probes follow it, after the Rout climb's, which then sees the pool as before.
   if (hr) hr = probeFurther(ctx, hr, seen, pool, lowerHeadroom, headroomHopeless(ctx, byRout));
+  // Those probes can reach a higher Rout at the headroom target than the Rout climb did (audit3 A3-21: both lengths
+  // changed from the Rout climb's answer, one from the headroom climb's): the pool's best by Rout, when it leads.
+  const lead = byRout.top()[0];
+  if (ro && lead && higherRout(lead, ro)) ro = lead;
   // The figures come from the full curve, as every reported design's do, so they match wherever shown.
   if (hr) finalize(ctx, hr);
   if (ro) finalize(ctx, ro);

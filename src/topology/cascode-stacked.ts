@@ -30,26 +30,27 @@ export const cascodeStacked: TopologyDescriptor = {
       // The bottom's VDS at the headroom target: what the top's VDS there (t.topVds) leaves it. Below VGS1 the top is
       // squeezed out of saturation as the output falls to the target, and the bottom's drain follows it down.
       const room = t.headroom - t.topVds(x1);
-      const squeezed = room < x1 - 1e-9;
       for (let i = 0; i < tops.length; i++) {
         const top = tops[i];
         const a = top.ro;
         const b = 1 + top.gmt * top.ro;
-        // Headroom estimate: VGS1 + VDSsat2; with the top squeezed, the target itself where the Rout estimate (the top
-        // taken at the VDS it keeps there) meets its target and the bottom stays saturated: where that Rout holds, so
-        // does the headroom. The bottom's VDSsat is a fraction of its VGS, so a bottom of high VGS (a long one at low
-        // gm/ID: little area for a mismatch budget) can serve a headroom target far below VGS1 + VDSsat2.
-        const hrOf = (o: StageOption, rout: number) => (squeezed && o.sat <= room && rout >= t.rout ? t.headroom : o.vgs + top.vdsat);
-        // A bound over a group: squeezed members may sit at the target.
-        const hrBound = (vgs: number) => (squeezed ? Math.min(vgs + top.vdsat, t.headroom) : vgs + top.vdsat);
+        // Headroom estimate: VGS1 + VDSsat2, or the target itself where the Rout estimate (the top taken at the VDS it
+        // keeps there) meets its target and the bottom stays saturated: where that Rout holds, so does the headroom.
+        // A Rout well above its target holds with the top far below its VDSsat (audit3 A3-9: VGS1 + VDSsat2 0.61 V,
+        // headroom 0.47 V, Rout 10 times its target), and a squeezed top (below VGS1) holds it with the bottom's drain
+        // pulled down: the bottom's VDSsat is a fraction of its VGS, so a bottom of high VGS (a long one at low gm/ID:
+        // little area for a mismatch budget) can serve a headroom target far below VGS1 + VDSsat2.
+        const hrOf = (o: StageOption, rout: number) => (rout >= t.rout && o.sat <= room ? Math.min(o.vgs + top.vdsat, t.headroom) : o.vgs + top.vdsat);
+        // A bound over a group whose Rout is at most `rout`: members meeting the Rout target may sit at the target.
+        const hrBound = (vgs: number, rout: number) => (rout >= t.rout ? Math.min(vgs + top.vdsat, t.headroom) : vgs + top.vdsat);
         // As for the cascode: skip the group when its best case (lowest VGS for the headroom) cannot enter a pool.
         const best = a + b * bb.ro;
-        if (Number.isFinite(best) && !t.mayWant(bottom.length, bb.area + top.area, best, hrBound(bb.vgs), bb.sigma)) continue;
+        if (Number.isFinite(best) && !t.mayWant(bottom.length, bb.area + top.area, best, hrBound(bb.vgs, best), bb.sigma)) continue;
         for (let q = 0; q < runs.length; q++) {
           const r = runs[q];
           // The same bound per run (Rout grows with ro_bottom only when b is not negative).
           const bestRun = a + b * r.ro;
-          if (runs.length > 1 && b >= 0 && Number.isFinite(bestRun) && !t.mayWant(r.end - r.start, r.area + top.area, bestRun, hrBound(r.vgs), r.sigma)) continue;
+          if (runs.length > 1 && b >= 0 && Number.isFinite(bestRun) && !t.mayWant(r.end - r.start, r.area + top.area, bestRun, hrBound(r.vgs, bestRun), r.sigma)) continue;
           for (let j = r.start; j < r.end; j++) {
             const o = bottom[j];
             const rout = a + b * o.ro;
