@@ -197,7 +197,7 @@ const RIDGE_BOX_MAX = 16;
 // jumps up (V): from two of the climb's last setpoint steps to 25 mV, past the dips of Rout at the headroom target.
 const SATURATION_EDGE = 0.02;
 const SATURATION_JUMPS = [2, 3, 4, 5, 6, 7, 8].map((n) => n * 0.003125);
-// Shortfall (policy.distanceToFeasible) within which a raised length move missing the targets gets a climb (fromRaised).
+// Shortfall (policy.distanceToFeasible) within which a length move missing the targets gets a climb (fromLengthMoves).
 const RAISED_REACH = 2;
 // First steps of the climb after ridge steps, as a multiple of the usual: gm/ID a grid step / 4, as the ridge's box.
 const RIDGE_CLIMB = 0.5;
@@ -241,11 +241,12 @@ function climb(
   // Where the sizing's climb stops, each length move with its device raised to the width limit (raisedToLimit): where
   // the limit binds, a new length is worth most with the gm/ID that brings the device back to it, a move no step of the
   // climb makes (the length alone leaves the device narrower, the gm/ID alone is too wide). Tried only from the climb's
-  // own answer, so it can only improve on it; when one does, the climb goes on from there once.
+  // own answer, so it can only improve on it; when one does, the climb goes on from there once. Else (fromLengthMoves)
+  // a climb from the nearest to meeting the targets of these and the plain length moves smaller than the answer.
   if (sizing) {
     const raised = raisedLengthMoves();
     if (step(raised)) climbRounds();
-    else fromRaised(raised);
+    else fromLengthMoves([...raised, ...plainLengthMoves()]);
   }
   // Stuck where several targets bind at once: steps along the ridge (search/ridge.ts), for a design meeting them. A
   // ridge step can land where the climb's own moves gain again (off the ridge, e.g. a lower gm/ID bought with a
@@ -346,15 +347,16 @@ function climb(
   }
 
   /**
-   * With objective area, where no raised length move improves on a design meeting every target: a climb from the one
-   * nearest to meeting them of those smaller than it. A new length on the limit often needs another device's gm/ID a
-   * few steps away too (a top with less VDSsat for the headroom a raised bottom's VGS takes), which no one step makes.
-   * Their areas come from the sizing alone, so only the smaller ones are evaluated.
+   * With objective area, where no length move (raised to the width limit, or alone) improves on a design meeting every
+   * target: a climb from the one nearest to meeting them of those smaller than it. A new length often needs a gm/ID or
+   * setpoint a few steps away too (on the limit, a top with less VDSsat for the headroom a raised bottom's VGS takes; a
+   * shorter top, its gm/ID and setpoint up for the Rout it lost), which no one step makes. Their areas come from the
+   * sizing alone, so only the smaller ones are evaluated.
    */
-  function fromRaised(raised: readonly Candidate[]): void {
+  function fromLengthMoves(moves: readonly Candidate[]): void {
     if (ctx.spec.objective !== 'area' || !fullyOk(ctx, best)) return;
     let from: Evaluated | undefined;
-    for (const c of raised) {
+    for (const c of moves) {
       if (!(sizeOf(seen.key(c), c).area < best.area * (1 - REL_TOL))) continue;
       const e = evaluate(c);
       if (e && distanceToFeasible(e.margins) <= RAISED_REACH && (!from || shortfall(ctx, e) < shortfall(ctx, from))) from = e;
@@ -362,6 +364,14 @@ function climb(
     if (!from) return;
     const r = climb(ctx, from, seen, pool, better, bound, hopeless, false, rounds, scale);
     if (better(r, best)) best = r;
+  }
+
+  /** best's length moves alone. */
+  function plainLengthMoves(): Candidate[] {
+    const out: Candidate[] = [];
+    const c = best.cand;
+    lengthMoves(ctx, c, (k, l) => out.push({ topology: c.topology, l: c.l.map((x, i) => (i === k ? l : x)), gmid: c.gmid, setpoints: c.setpoints }));
+    return out;
   }
 
   /** best's length moves, each with its device raised to the width limit (those it changes). */
