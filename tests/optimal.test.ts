@@ -417,6 +417,52 @@ const FEASIBLE: Case[] = [
     // The reference's own grid meets the targets only around its nearest designs (nearest: true refines around them).
     grid: { gmidStep: 4, vStep: 0.1, nearest: true },
   },
+  {
+    // Found by audit3 (seed 20261216, #253): tool: infeasible (binding rout, nearest headroomAtRout 0.866 V, routAtHeadroom 35.57e9 Ω); reference: feasible, headroom 0.7170 V, Rout 42.24e9 Ω, area 109.7e-12 m².
+    // Every screened candidate leaves the top bias diode below the minimum width; Rout rises steeply with the top
+    // setpoint up to that edge (0.22 V at gm/ID 22), and the climb, stopped short of it, drifted to a lower top gm/ID,
+    // which lowers the edge. 43.7e9 Ω since a setpoint move that cannot be realised is followed to its edge.
+    // Reference design: l [2e-6, 2e-6, 2e-6], gm/ID [22, 22, 22], setpoints [0.15, 0.21875].
+    id: 'nreed-triple-rout-audit3-s16-253', kit: 'reed180', why: 'the tool calls a feasible spec infeasible under a width limit and a mismatch budget',
+    spec: { device: 'n', topology: 'triple', current: 2.92e-6, rout: 36.6e9, headroom: 0.834, span: 1.52, objective: 'rout', l: { min: 1.3e-6, max: 2e-6 }, gmid: { min: 6, max: 22 }, mismatch: 0.0264, wmax: 24.9e-6 },
+    grid: { gmidStep: 4, vStep: 0.1, nearest: true },
+  },
+  {
+    // Found by audit3 (seed 20261216, #25): area 666.8e-15 m² vs reference 600.1e-15 m² (tool +11.1 %). Two designs of
+    // the screen of one length choice at other setpoints, only the better one climbed (one seed per length choice).
+    // 588.6e-15 m² since near designs of a length choice at other setpoints take the seeds to spare.
+    // Reference design: l [120e-9, 120e-9, 120e-9], gm/ID [13.75, 14, 17], setpoints [0.175, 0.175].
+    id: 'n090-triple-area-audit3-s16-25', kit: 'demo090', why: 'least area under a width limit',
+    spec: { device: 'n', topology: 'triple', current: 20.2e-6, rout: 6.22e6, headroom: 0.534, span: 0.935, objective: 'area', l: { min: 90e-9, max: 120e-9 }, gmid: { min: 6, max: 22 }, wmax: 6.23e-6 },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
+    // Found by audit3 (seed 20261216, #350): Rout 15.53e6 Ω vs reference 16.72e6 Ω (tool -7.1 %). The bottom at its
+    // saturation edge at 0.2 V with a low gm/ID, or at 0.15 V with a high one: separate basins of one length choice, and
+    // only the first climbed. 16.0e6 Ω since near designs of a length choice at other setpoints take the seeds to spare.
+    // Reference design: l [160e-9, 160e-9, 160e-9], gm/ID [16.5, 22, 22], setpoints [0.1625, 0.15625].
+    id: 'n090-triple-rout-audit3-s16-350', kit: 'demo090', why: 'highest Rout',
+    spec: { device: 'n', topology: 'triple', current: 26.9e-6, rout: 13e6, headroom: 0.47, span: 0.829, objective: 'rout', l: { min: 120e-9, max: 160e-9 }, gmid: { min: 6, max: 22 } },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
+    // Found by audit3 (seed 20261216, #830): headroom 0.474 V vs reference 0.4590 V (tool +15.0 mV). As the case above,
+    // for the headroom: 0.458 V since near designs of a length choice at other setpoints take the seeds to spare.
+    // Reference design: l [160e-9, 160e-9, 160e-9], gm/ID [16.5, 22, 22], setpoints [0.1625, 0.14375].
+    id: 'p090-triple-headroom-audit3-s16-830', kit: 'demo090', why: 'lowest headroom',
+    spec: { device: 'p', topology: 'triple', current: 165e-6, rout: 2.16e6, headroom: 0.536, span: 0.798, objective: 'headroom', l: { min: 120e-9, max: 160e-9 }, gmid: { min: 6, max: 22 } },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
+    // Found by audit3 (seed 20261215, #372): Rout 2.836e6 Ω vs reference 3.565e6 Ω (tool -20.5 %). Rout rises as the
+    // bottom's setpoint falls to its saturation edge (2.83e6 Ω at 0.15 V, 3.72e6 Ω at 0.135 V with gm/ID 21); the first
+    // setpoint step down left it in triode, and the climb drifted to a lower bottom gm/ID (Rout tied within 1 %, less
+    // area), which raises the edge. 4.13e6 Ω since a setpoint move that cannot be realised is followed to its edge.
+    // Reference design: l [160e-9, 160e-9, 120e-9], gm/ID [20, 20.609, 22], setpoints [0.1375, 0.14375].
+    id: 'n090-triple-rout-audit3-s15-372', kit: 'demo090', why: 'highest Rout under a width limit',
+    spec: { device: 'n', topology: 'triple', current: 17.9e-6, rout: 2.43e6, headroom: 0.333, span: 1.13, objective: 'rout', l: { min: 120e-9, max: 160e-9 }, gmid: { min: 6, max: 22 }, wmax: 5.42e-6 },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {
@@ -661,7 +707,10 @@ const INFEASIBLE: Case[] = [
   },
   {
     // 4.12 µA p-type under a 7.9 µm width limit: the reference meets the Rout target from 0.208 V; the tool said 0.252 V.
-    id: 'p-reed-cascode-nearest-headroom-far', kit: 'reed180', why: 'lowest headroom at the Rout target far from the climb\'s seeds',
+    // Width binds: since setpoint moves are followed to their realisable edge, the search finds a design meeting Rout
+    // and headroom at 150 µm (the reference's own judge agrees: l [500e-9, 300e-9], gm/ID [24.05, 23.76], setpoint
+    // 0.1134 V, headroom 0.164 V, Rout 880 kΩ); the reference's grid, without the limit, meets every target at 1.15 mm.
+    id: 'p-reed-cascode-nearest-headroom-far', kit: 'reed180', why: 'lowest headroom at the Rout target far from the climb\'s seeds', widthBinds: true,
     spec: { device: 'p', topology: 'cascode', current: 4.12e-6, rout: 871e3, headroom: 0.164, span: 1.267, objective: 'headroom', wmax: 7.9e-6 },
   },
   // Found by a scan of random reed180 cascode specs against the exhaustive reference (tests/helpers/exhaustive.ts):
@@ -771,6 +820,40 @@ describe('nearest points on the edge of the width limit (exhaustive reference se
     const spec: StackSpec = { name: 'nreed-cascode-stacked-rout-audit2-s1727', ...{ device: 'n', topology: 'cascode-stacked', current: 178e-6, rout: 25.4e3, headroom: 0.56, span: 1.55, objective: 'rout', l: { min: 500e-9, max: 1.3e-6 }, wmax: 11.8e-6 } };
     const tool = sizeStack(spec, kits.reed180, { supply: SUPPLY.reed180, corners: ['tt'] }).results[0];
     const ref = exhaustive(spec, kits.reed180, 'cascode-stacked', 'tt', { ...GRID, nearest: true });
+    expect(ref.best).toBeUndefined();
+    expect(tool.feasible).toBe(false);
+    expect(tool.nearest!.routAtHeadroom!).toBeGreaterThanOrEqual(0.95 * ref.routAtHeadroom);
+  });
+});
+
+describe('nearest Rout at the headroom target in another basin than the leaders\' (exhaustive reference search)', () => {
+  // The two best designs by Rout were neighbours on one climb's path; the nearest point lies a few setpoint steps away,
+  // the upper setpoint near its bias diode's edge. Since the Rout climb also starts from the best design in another basin.
+  it('n180-triple-headroom-audit3-s15-76: nearest Rout at the headroom target (audit3 seed 20261215 #76)', () => {
+    // nearest.routAtHeadroom 37.94e6 Ω vs reference 45.52e6 Ω (tool -16.6 %); reference design l [350e-9, 350e-9, 350e-9], gm/ID [9.418, 10.64, 10.865], setpoints [0.25, 0.25]. 45.8e6 Ω since.
+    const spec: StackSpec = { name: 'n180-triple-headroom-audit3-s15-76', ...{ device: 'n', topology: 'triple', current: 244e-6, rout: 47.9e6, headroom: 0.731, span: 1.32, objective: 'headroom', l: { min: 250e-9, max: 350e-9 }, gmid: { min: 6, max: 22 }, wmax: 38.9e-6 } };
+    const tool = sizeStack(spec, kits.demo180, { supply: SUPPLY.demo180, corners: ['tt'] }).results[0];
+    const ref = exhaustive(spec, kits.demo180, 'triple', 'tt', { ...GRID, nearest: true, gmidStep: 4, vStep: 0.1 });
+    expect(ref.best).toBeUndefined();
+    expect(tool.feasible).toBe(false);
+    expect(tool.nearest!.routAtHeadroom!).toBeGreaterThanOrEqual(0.95 * ref.routAtHeadroom);
+  });
+
+  it('preed-triple-headroom-audit3-s16-416: nearest Rout at the headroom target (audit3 seed 20261216 #416)', () => {
+    // nearest.routAtHeadroom 8.177e6 Ω vs reference 12.06e6 Ω (tool -32.2 %); reference design l [1.3e-6, 1.3e-6, 800e-9], gm/ID [22, 21.528, 22], setpoints [0.15, 0.21875]. 12.05e6 Ω since.
+    const spec: StackSpec = { name: 'preed-triple-headroom-audit3-s16-416', ...{ device: 'p', topology: 'triple', current: 37.9e-6, rout: 12.2e6, headroom: 0.319, span: 1.66, objective: 'headroom', l: { min: 800e-9, max: 1.3e-6 }, gmid: { min: 6, max: 22 } } };
+    const tool = sizeStack(spec, kits.reed180, { supply: SUPPLY.reed180, corners: ['tt'] }).results[0];
+    const ref = exhaustive(spec, kits.reed180, 'triple', 'tt', { ...GRID, nearest: true, gmidStep: 4, vStep: 0.1 });
+    expect(ref.best).toBeUndefined();
+    expect(tool.feasible).toBe(false);
+    expect(tool.nearest!.routAtHeadroom!).toBeGreaterThanOrEqual(0.95 * ref.routAtHeadroom);
+  });
+
+  it('nreed-triple-rout-audit3-s16-461: nearest Rout at the headroom target (audit3 seed 20261216 #461)', () => {
+    // nearest.routAtHeadroom 3.949e6 Ω vs reference 4.313e6 Ω (tool -8.4 %); reference design l [800e-9, 800e-9, 500e-9], gm/ID [22, 22, 22], setpoints [0.15, 0.23125]. 4.35e6 Ω since.
+    const spec: StackSpec = { name: 'nreed-triple-rout-audit3-s16-461', ...{ device: 'n', topology: 'triple', current: 38.1e-6, rout: 14.3e6, headroom: 0.318, span: 1.56, objective: 'rout', l: { min: 500e-9, max: 800e-9 }, gmid: { min: 6, max: 22 } } };
+    const tool = sizeStack(spec, kits.reed180, { supply: SUPPLY.reed180, corners: ['tt'] }).results[0];
+    const ref = exhaustive(spec, kits.reed180, 'triple', 'tt', { ...GRID, nearest: true, gmidStep: 4, vStep: 0.1 });
     expect(ref.best).toBeUndefined();
     expect(tool.feasible).toBe(false);
     expect(tool.nearest!.routAtHeadroom!).toBeGreaterThanOrEqual(0.95 * ref.routAtHeadroom);

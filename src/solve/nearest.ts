@@ -221,6 +221,25 @@ function leadsOf(probes: readonly Evaluated[], prefer: (a: Evaluated, b: Evaluat
   return out;
 }
 
+// Setpoint distance beyond which a design lies in another basin than a seed's, V: two of the screen's setpoint steps.
+const BASIN_V = 0.05;
+
+/**
+ * `seeds` and the best design of the pool by `prefer` whose setpoints lie in another basin than the first seed's (one
+ * differs by more than BASIN_V), when there is one. The leaders are often neighbours on one climb's path, and the
+ * nearest point can lie in a basin of its own: a triple's upper setpoint near its bias diode's edge, where Rout at the
+ * headroom target rises steeply (audit3 A3-18..A3-20: 8-33 % more than the leaders' basin).
+ */
+function withOtherBasin(seeds: Evaluated[], pool: readonly Evaluated[], prefer: (a: Evaluated, b: Evaluated) => boolean): Evaluated[] {
+  const s = seeds[0]?.cand.setpoints;
+  if (!s || s.length === 0) return seeds;
+  let other: Evaluated | undefined;
+  for (const e of pool) {
+    if (e.cand.setpoints.some((x, k) => Math.abs(x - s[k]) > BASIN_V + 1e-9) && (!other || prefer(e, other))) other = e;
+  }
+  return other ? [...seeds, other] : seeds;
+}
+
 // Rounds of a climb towards a nearest point, at most: from a seed far from usable (every device too wide, say) a climb
 // can take more steps than the sizing's climbs, each length a grid step at a time, and stopping early leaves it short.
 const NEAREST_ROUNDS = 3 * CLIMB_ROUNDS;
@@ -300,7 +319,7 @@ export function nearestPoints(
     }
   }
   let hr = refine(ctx, byHeadroom.top(), seen, pool, lowerHeadroom, headroomHopeless(ctx, byRout), NEAREST_ROUNDS);
-  let ro = refine(ctx, seedsOf(ctx, pool, seen, byRout.top, usable), seen, pool, higherRout, routBelowFromUsable(ctx), NEAREST_ROUNDS);
+  let ro = refine(ctx, withOtherBasin(seedsOf(ctx, pool, seen, byRout.top, usable), pool, higherRout), seen, pool, higherRout, routBelowFromUsable(ctx), NEAREST_ROUNDS);
   // The saturation-edge probes (see lineProbes) serve Rout at the headroom target only.
   if (ro) ro = probeFurther(ctx, ro, seen, pool, higherRout, routBelowFromUsable(ctx), true);
   // The headroom climb keeps to devices like its seeds', while the lowest headroom can lie far from them (another

@@ -86,6 +86,18 @@ function seedsOf(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[],
     taken.add(lengths(e));
     seeds.push(e);
   }
+  // Seeds to spare after every near length choice: near designs of a length choice already taken at other setpoints.
+  // Designs of one length choice can lie in separate basins along the setpoints (audit3 A3-15: a triple's bottom at
+  // its saturation edge at 0.2 V with a low gm/ID, or at 0.15 V with a high one, 7 % more Rout), and one climb
+  // reaches only one. Only where the length choices leave seeds to spare, so it costs nothing where they do not.
+  const basin = (e: Evaluated) => `${lengths(e)}|${e.cand.setpoints.join(',')}`;
+  const basins = new Set(seeds.map(basin));
+  for (const e of rest) {
+    if (!ok || seeds.length >= SEEDS || !near(ctx.spec.objective, e, best)) break;
+    if (basins.has(basin(e))) continue;
+    basins.add(basin(e));
+    seeds.push(e);
+  }
   // Short of the targets with every other design of the same lengths (a pool of a few designs: the screen's candidates
   // mostly not realisable): still the NEAREST, the next ones whatever their lengths. Designs of one length choice can
   // lie in separate basins (the targets met on islands a few mV wide), and one climb reaches only one.

@@ -32,6 +32,23 @@ function reusedOrEvaluated(ctx: SolveContext, reuse: Reuse, c: Candidate, start?
   return e;
 }
 
+/** c with setpoint k at v (on the candidate key's µV grid). */
+function withSetpoint(c: Candidate, k: number, v: number): Candidate {
+  return { topology: c.topology, l: c.l, gmid: c.gmid, setpoints: c.setpoints.map((x, j) => (j === k ? Math.round(v * 1e6) / 1e6 : x)) };
+}
+
+/** The setpoint n moves alone from c (same lengths, gm/ID and other setpoints), else −1. */
+function loneSetpointMove(c: Candidate, n: Candidate): number {
+  if (n.l.some((l, j) => l !== c.l[j]) || n.gmid.some((g, j) => g !== c.gmid[j])) return -1;
+  let k = -1;
+  for (let j = 0; j < n.setpoints.length; j++) {
+    if (n.setpoints[j] === c.setpoints[j]) continue;
+    if (k >= 0) return -1;
+    k = j;
+  }
+  return k;
+}
+
 function nearestIndex(values: readonly number[], x: number): number {
   let best = 0;
   for (let j = 1; j < values.length; j++) if (Math.abs(values[j] - x) < Math.abs(values[best] - x)) best = j;
@@ -138,6 +155,8 @@ interface Memo {
   sizes: Map<number, { area: number; wide: boolean }>;
   /** Width-edge version of a move by its key (null: the move fits, or has none). */
   edges: Map<number, Candidate | null>;
+  /** Realisable-edge version of a setpoint move that could not be realised, by the move's key (null: none). */
+  setpointEdges: Map<number, Candidate | null>;
   looks: Map<number, Look | null>;
   deferred: Map<number, Candidate>;
 }
@@ -145,7 +164,7 @@ const memos = new WeakMap<Seen, Memo>();
 
 function memoOf(seen: Seen): Memo {
   let m = memos.get(seen);
-  if (!m) memos.set(seen, (m = { sizes: new Map(), edges: new Map(), looks: new Map(), deferred: new Map() }));
+  if (!m) memos.set(seen, (m = { sizes: new Map(), edges: new Map(), setpointEdges: new Map(), looks: new Map(), deferred: new Map() }));
   return m;
 }
 
@@ -325,18 +344,13 @@ function climb(
   function setpointEdges(vstep: number): boolean {
     let improved = false;
     const c = best.cand;
-    // Halvings of a step down to SETPOINT_EDGE_V.
-    let halvings = 0;
-    for (let w = vstep; w > SETPOINT_EDGE_V; w /= 2) halvings++;
     for (let k = 0; k < c.setpoints.length; k++) {
       for (const sign of [-1, 1]) {
-        const at = (v: number): Candidate => ({ topology: c.topology, l: c.l, gmid: c.gmid, setpoints: c.setpoints.map((x, j) => (j === k ? Math.round(v * 1e6) / 1e6 : x)) });
-        const from = c.setpoints[k];
-        const bad = from + sign * vstep;
-        if (bad < SETPOINT_MIN || seen.get(seen.key(at(bad))) !== null) continue;
-        const v = edgeOf((m) => evaluate(at(m)) !== null, from, bad, halvings);
-        // Evaluated already by the bisection (when it moved at all).
-        const edge = v === from ? null : evaluate(at(v));
+        const bad = c.setpoints[k] + sign * vstep;
+        if (bad < SETPOINT_MIN || seen.get(seen.key(withSetpoint(c, k, bad))) !== null) continue;
+        const v = setpointEdge(c, k, bad);
+        // Evaluated already by the bisection.
+        const edge = v === null ? null : evaluate(withSetpoint(c, k, v));
         if (edge && better(edge, best)) {
           best = edge;
           improved = true;
@@ -344,6 +358,34 @@ function climb(
       }
     }
     return improved;
+  }
+
+  /**
+   * Setpoint k of `c` bisected from its own value (realisable) towards `bad` (not) to the last realisable one (within
+   * SETPOINT_EDGE_V), or null when that is its own value.
+   */
+  function setpointEdge(c: Candidate, k: number, bad: number): number | null {
+    const from = c.setpoints[k];
+    let halvings = 0;
+    for (let w = Math.abs(bad - from); w > SETPOINT_EDGE_V; w /= 2) halvings++;
+    const v = edgeOf((m) => evaluate(withSetpoint(c, k, m)) !== null, from, bad, halvings);
+    return v === from ? null : v;
+  }
+
+  /**
+   * The realisable-edge version of a move of one setpoint alone from `from` that could not be realised (setpointEdge),
+   * once per search; null for any other move, or when there is none.
+   */
+  function setpointEdgeOf(from: Candidate, n: Candidate): Candidate | null {
+    const k = loneSetpointMove(from, n);
+    if (k < 0) return null;
+    const key = seen.key(n);
+    let e = memo.setpointEdges.get(key);
+    if (e === undefined) {
+      const v = setpointEdge(from, k, n.setpoints[k]);
+      memo.setpointEdges.set(key, (e = v === null ? null : withSetpoint(from, k, v)));
+    }
+    return e;
   }
 
   /**
@@ -388,6 +430,16 @@ function climb(
   function step(moves: Candidate[]): boolean {
     let improved = false;
     const queue = [...moves];
+    // A setpoint move that could not be realised is followed by its realisable-edge version: Rout can rise steeply
+    // with a setpoint up to where a bias diode reaches the minimum width (audit3 A3-17, the only designs meeting the
+    // targets within a few mV of it) or down to where a lower device leaves saturation (audit3 A3-8), and a climb
+    // stopped a step short of the edge drifts along the other coordinates, which move the edge away. Only in the
+    // sizing's own climbs, as the ridge steps.
+    const origin = best.cand;
+    const toEdge = (n: Candidate) => {
+      const e = sizing ? setpointEdgeOf(origin, n) : null;
+      if (e) queue.push(e);
+    };
     // A move found wider than the width limit (or not realisable: a gm/ID beyond its length's reach) is followed by
     // its width-edge version (search/width-edge.ts); moves that fit need no extra sizing. An edge version is not
     // followed again (it fits, or has no edge within a grid step).
@@ -412,6 +464,7 @@ function climb(
       if (seen.has(key)) {
         const e = seen.get(key);
         follow(n, !e || e.margins.width < 0);
+        if (!e) toEdge(n);
         if (e && better(e, best)) {
           best = e;
           improved = true;
@@ -424,7 +477,10 @@ function climb(
       }
       const e = evaluateOnce(ctx, n, seen, memo.looks.get(key)?.start);
       follow(n, !e || e.margins.width < 0);
-      if (!e) continue;
+      if (!e) {
+        toEdge(n);
+        continue;
+      }
       pool.push(e);
       if (better(e, best)) {
         best = e;
