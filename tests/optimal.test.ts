@@ -346,7 +346,7 @@ const FEASIBLE: Case[] = [
   },
   {
     // Found by audit2 (seed 20261206, #204): area 19.82e-12 m² vs reference 17.82e-12 m² (tool +11.3 %); 18.02e-12 m²
-    // since the climb from a raised length move missing the targets (search/refine.ts, fromRaised); 17.45e-12 m² since
+    // since the climb from a raised length move missing the targets (search/refine.ts, fromRaised, now fromLengthMoves); 17.45e-12 m² since
     // the ridge step measures both sides of a kink (search/ridge.ts).
     // Reference design: l [300e-9, 300e-9], gm/ID [15.375, 18.375], setpoints [0.1875].
     id: 'p090-cascode-area-audit2-s204', kit: 'demo090', why: 'least area',
@@ -395,6 +395,15 @@ const FEASIBLE: Case[] = [
     // Reference design: l [500e-9, 500e-9], gm/ID [11.719, 11.571], setpoints [0.25].
     id: 'preed-cascode-rout-audit2-s13', kit: 'reed180', why: 'highest Rout under a width limit, on a second stretch of the setpoint',
     spec: { device: 'p', topology: 'cascode', current: 35.5e-6, rout: 203e3, headroom: 0.327, span: 1.17, objective: 'rout', l: { min: 500e-9, max: 2e-6 }, wmax: 23e-6 },
+  },
+  {
+    // Found by the random audit (tests/audit-random.test.ts, seed 20261302 #154): area 669e-12 m² vs reference
+    // 417e-12 m² (tool +60 %). The climb settled with both devices at 0.8 µm; the shorter top (0.5 µm) is smaller at the
+    // same gm/ID but then misses Rout by a little, made up only with its gm/ID and the setpoint up a few steps, which
+    // no single or pair move does. 404e-12 m² since a climb starts from the plain length moves as from the raised ones.
+    // Reference design: l [800e-9, 500e-9], gm/ID [20.25, 22.875], setpoints [0.15625].
+    id: 'nreed-cascode-area-audit4-s154', kit: 'reed180', why: 'least area with a shorter top device bought with its gm/ID and the setpoint',
+    spec: { device: 'n', topology: 'cascode', current: 171e-6, rout: 171e3, headroom: 0.252, span: 1.44, objective: 'area', l: { min: 500e-9, max: 2e-6 } },
   },
   {
     // Found by audit2 (seed 20261206, #1280): tool: infeasible (binding rout, nearest headroomAtRout 0.774 V, routAtHeadroom
