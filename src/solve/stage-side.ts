@@ -140,9 +140,14 @@ export function sideCandidates(stage: StageSpec, side: Side, topology: Topology,
   // least Rout, and a stack screen ranking by area alone never proposes it (a higher gm/ID only costs width). Such
   // inputs, at their least headroom, leave the load the most room, which the smallest pairs often spend on a long
   // load at low gm/ID: screened once more with the Rout target at the top gm/ID and the least headroom allowed.
+  // That screen still gives its input device the lowest gm/ID meeting the Rout (by area), less gm than the target
+  // assumed: its designs also with the input device at the top gm/ID, whose gain lets the smallest pairs have a
+  // shorter load.
   if (!roomy && side.kind === 'input') {
     const top = side.ctx.gmids[side.ctx.gmids.length - 1];
-    add(screenAt(side, topology, (2 * stage.gain) / (top * stage.current), lo));
+    const lean = screenAt(side, topology, (2 * stage.gain) / (top * stage.current), lo);
+    add(lean);
+    add(lean.map((c) => ({ ...c, gmid: [top, ...c.gmid.slice(1)] })));
   }
   // A wide swing target can leave a share too small for any design of the topology (a triple's lower devices
   // need their VDSsat each) although the stage still holds its gain past the load's saturation edge: then the
