@@ -161,7 +161,8 @@ function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool:
   // within the climb's reach of the nominal targets. When too wide, also pulled back to the width limit: a long bottom
   // at a high setpoint carries the Rout target at a lower gm/ID, far below the seed's (audit2 #2119: 22.6 -> 15.6 /V).
   for (const from of [...seeds]) {
-    const pulled = pulledToWidth(ctx, from.cand, seen);
+    // Not in the meet-only searches of the nearest points' width bisection: each would pull every too-wide seed again.
+    const pulled = ctx.meetOnly ? null : pulledToWidth(ctx, from.cand, seen);
     if (pulled) {
       pool.push(pulled);
       if (distanceToFeasible(pulled.margins) <= REACH) seeds.push(pulled);
