@@ -406,6 +406,20 @@ const FEASIBLE: Case[] = [
     spec: { device: 'n', topology: 'cascode', current: 171e-6, rout: 171e3, headroom: 0.252, span: 1.44, objective: 'area', l: { min: 500e-9, max: 2e-6 } },
   },
   {
+    // Found by audit3 (seed 20261215, #790): Rout 1.007e6 Ω vs reference 1.081e6 Ω (tool -6.9 %). The climbs' seeds
+    // were wider than the width limit; pulled back to it, the bottom's VDSsat lies above the seed's setpoint.
+    // Reference design: l [350e-9, 250e-9], gm/ID [10.023, 11.747], setpoints [0.24063].
+    id: 'p180-cascode-rout-audit3-s15-790', kit: 'demo180', why: 'highest Rout under a width limit the seeds are wider than',
+    spec: { device: 'p', topology: 'cascode', current: 76.7e-6, rout: 763e3, headroom: 0.431, span: 1.17, objective: 'rout', l: { min: 180e-9, max: 500e-9 }, wmax: 33.6e-6 },
+  },
+  {
+    // Found by audit3 (seed 20261216, #1174): headroom 0.394 V vs reference 0.3870 V (tool +7.0 mV). As above: the
+    // lowest headroom has the bottom at the width limit's gm/ID over a setpoint at its VDSsat there.
+    // Reference design: l [700e-9, 700e-9], gm/ID [8.393, 8.531], setpoints [0.26562].
+    id: 'n180-cascode-headroom-audit3-s16-1174', kit: 'demo180', why: 'lowest headroom under a width limit the seeds are wider than',
+    spec: { device: 'n', topology: 'cascode', current: 78.8e-6, rout: 334e3, headroom: 0.405, span: 1.04, objective: 'headroom', l: { min: 700e-9, max: 2e-6 }, wmax: 13.6e-6 },
+  },
+  {
     // Found by audit2 (seed 20261206, #1280): tool: infeasible (binding rout, nearest headroomAtRout 0.774 V, routAtHeadroom
     // 1.185e9 Ω); reference: feasible, headroom 0.7147 V, Rout 1.199e9 Ω. The designs meeting the targets lie on islands
     // within a mV of the edge where the setpoints' sum leaves a bias diode below the minimum width (0.414 V here), and

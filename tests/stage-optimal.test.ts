@@ -35,6 +35,10 @@ const WHY_ROOMY_STACKED =
   'over a common-source input the smallest stacked-cascode load (top device at low gm/ID) needs all the free voltage by the screen\'s headroom estimate, though the gain holds';
 const WHY_SPARE_ROUT =
   'the load has far more Rout than the gain needs, and the smallest pair spends it on headroom (top device at low gm/ID past its saturation edge, a high setpoint below it), which no screen at a share of the free voltage proposes';
+const WHY_SPARE_STACKED =
+  'the stacked-cascode loads screened at the shares all cap the gain far above the target, and the smallest pair spends that on headroom (both load devices at low gm/ID, past their saturation edge), which no share\'s screen proposes: the spare-Rout screen with all the headroom was kept to loads with setpoints';
+const WHY_LEAN_INPUT_GM =
+  'the smallest pair has a short load whose Rout only an input device at high gm/ID makes up for; the input screen with the Rout target at the top gm/ID still gave its input device the lowest gm/ID meeting that Rout (by area), so no screened input had the gm';
 const WHY_SETPOINT_TRADE =
   'the smallest pair has a load at lower gm/ID over a higher setpoint: the higher setpoint alone costs no area and the lower gm/ID alone misses the swing, so the climb stopped on the swing-bound ridge';
 const WHY_RIDGE =
@@ -326,6 +330,27 @@ const cases: StageCase[] = [
     id: 'audit3 demo180: p cascode input, n cascode load, gain 1050 over 0.748 V (seed 20261217 #34)', kit: 'demo180', grid: { gmidPoints: 4, vStep: 0.1 },
     stage: { ...stageOf({ gain: 1.05e3, swing: 0.748, output: 0.839, input: 'p', inputTopology: 'cascode', load: 'cascode', l: [500e-9, 700e-9], gmid: [8, 20], loadL: [180e-9, 180e-9] }), current: 8.8e-6 },
     why: 'a feasible stage whose screened pairs all had loads with unrealisable bias diodes',
+  },
+  {
+    // Found by audit3 (seed 20261218, #188): area 8.643e-12 m² vs reference 2.716e-12 m² (tool +218.2 %).
+    // Reference pair: input l [350e-9, 350e-9], gm/ID [18, 6], setpoints [0.25]; load l [180e-9, 180e-9], gm/ID [6, 6], setpoints [].
+    id: 'audit3 demo180: n cascode input, p cascode-stacked load, gain 46.3 over 1.1 V (seed 20261218 #188)', kit: 'demo180', grid: { gmidPoints: 4, vStep: 0.1 },
+    stage: stageOf({ gain: 46.3, swing: 1.1, output: 0.829, input: 'n', inputTopology: 'cascode', load: 'cascode-stacked', l: [350e-9, 500e-9], gmid: [6, 18], loadL: [180e-9, 180e-9] }),
+    why: WHY_SPARE_STACKED,
+  },
+  {
+    // Found by audit3 (seed 20261218, #338): area 291.4e-12 m² vs reference 146.9e-12 m² (tool +98.3 %).
+    // Reference pair: input l [1.4e-6, 1.4e-6], gm/ID [24, 10], setpoints [0.55]; load l [1e-6, 1e-6], gm/ID [10, 10], setpoints [].
+    id: 'audit3 demo180: n cascode input, p cascode-stacked load, gain 469 over 1.14 V (seed 20261218 #338)', kit: 'demo180', grid: { gmidPoints: 4, vStep: 0.1 },
+    stage: stageOf({ gain: 469, swing: 1.14, output: 0.797, input: 'n', inputTopology: 'cascode', load: 'cascode-stacked', l: [1.4e-6, 2e-6], gmid: [10, 24], loadL: [1e-6, 1e-6] }),
+    why: WHY_SPARE_STACKED,
+  },
+  {
+    // Found by audit3 (seed 20261218, #355): area 2.537e-12 m² vs reference 1.856e-12 m² (tool +36.7 %).
+    // Reference pair: input l [120e-9, 120e-9], gm/ID [17.2, 14.8], setpoints [0.25]; load l [750e-9], gm/ID [10], setpoints [].
+    id: 'audit3 demo090: p cascode input, n single load, gain 84.9 over 0.478 V (seed 20261218 #355)', kit: 'demo090', grid: { gmidPoints: 6, vStep: 0.1 },
+    stage: stageOf({ gain: 84.9, swing: 0.478, output: 0.586, input: 'p', inputTopology: 'cascode', load: 'single', l: [90e-9, 120e-9], gmid: [10, 22], loadL: [750e-9, 1e-6] }),
+    why: WHY_LEAN_INPUT_GM,
   },
 ];
 

@@ -162,6 +162,22 @@ function widestOfShortLengths(ctx: SolveContext, best: Evaluated, pool: Evaluate
   return out;
 }
 
+/**
+ * A seed wider than the width limit pulled back to it (toWidthLimit), its setpoints then raised by LOWER_STEP until it
+ * is realised: at the lower gm/ID the limit leaves, a lower device's VDSsat can lie above the seed's setpoint, and the
+ * climb's moves, one step at a time, do not get there from the too-wide seed. Null when the seed fits already or
+ * nothing is realised.
+ */
+function pulledToWidth(ctx: SolveContext, c: Candidate, seen: Seen): Evaluated | null {
+  const fits = toWidthLimit(ctx, c);
+  if (!fits || fits === c) return null;
+  for (let d = 0; fits.setpoints.every((s) => s + d < ctx.vmid); d += LOWER_STEP) {
+    const e = evaluateOnce(ctx, { ...fits, setpoints: fits.setpoints.map((s) => Math.round((s + d) * 1e6) / 1e6) }, seen);
+    if (e || fits.setpoints.length === 0) return e;
+  }
+  return null;
+}
+
 /** Screen, evaluate, refine: the best design and everything evaluated, or null when nothing could be realised. */
 function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool: Evaluated[]; seen: Seen } | null {
   const seen: Seen = new CandidateMap();
@@ -187,6 +203,12 @@ function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool:
   // within the climb's reach of the nominal targets. When too wide, also pulled back to the width limit: a long bottom
   // at a high setpoint carries the Rout target at a lower gm/ID, far below the seed's (audit2 #2119: 22.6 -> 15.6 /V).
   for (const from of [...seeds]) {
+    // Not in the meet-only searches of the nearest points' width bisection: each would pull every too-wide seed again.
+    const pulled = ctx.meetOnly ? null : pulledToWidth(ctx, from.cand, seen);
+    if (pulled) {
+      pool.push(pulled);
+      if (distanceToFeasible(pulled.margins) <= REACH) seeds.push(pulled);
+    }
     for (const other of topologyOf(topology).otherBias(from.cand, ctx.vmid, ctx.gmids[0])) {
       const fits = toWidthLimit(ctx, other);
       for (const c of fits && fits !== other ? [other, fits] : [other]) {

@@ -35,8 +35,8 @@ const ROOMY_SHARES = [0.9, 1];
 /** How far the room the leanest input leaves must exceed the load's largest share to be screened on its own, V. */
 const ROOM_MIN = 0.02;
 /**
- * How far beyond the derived Rout target (sideRout) every screened load design's Rout must lie for the load to be
- * screened with all its headroom too (see spareRout).
+ * How far above the gain target every screened load design alone must cap the gain (with the input of the highest
+ * gm) for the load to be screened with all its headroom too (see spareRout).
  */
 const SPARE_ROUT = 10;
 /** A middling input gm/ID, 1/V: the derived Rout target of a side screen assumes it (see sideRout). */
@@ -140,9 +140,14 @@ export function sideCandidates(stage: StageSpec, side: Side, topology: Topology,
   // least Rout, and a stack screen ranking by area alone never proposes it (a higher gm/ID only costs width). Such
   // inputs, at their least headroom, leave the load the most room, which the smallest pairs often spend on a long
   // load at low gm/ID: screened once more with the Rout target at the top gm/ID and the least headroom allowed.
+  // That screen still gives its input device the lowest gm/ID meeting the Rout (by area), less gm than the target
+  // assumed: its designs also with the input device at the top gm/ID, whose gain lets the smallest pairs have a
+  // shorter load.
   if (!roomy && side.kind === 'input') {
     const top = side.ctx.gmids[side.ctx.gmids.length - 1];
-    add(screenAt(side, topology, (2 * stage.gain) / (top * stage.current), lo));
+    const lean = screenAt(side, topology, (2 * stage.gain) / (top * stage.current), lo);
+    add(lean);
+    add(lean.map((c) => ({ ...c, gmid: [top, ...c.gmid.slice(1)] })));
   }
   // A wide swing target can leave a share too small for any design of the topology (a triple's lower devices
   // need their VDSsat each) although the stage still holds its gain past the load's saturation edge: then the
@@ -164,14 +169,16 @@ function screenAt(side: Side, topology: Topology, rout: number, h: number): Cand
 }
 
 /**
- * True when every load design has setpoints and far more Rout at the design point than the gain needs
- * (SPARE_ROUT × sideRout): the input's Rout then sets the gain, and the smallest pairs spend the load's spare Rout
- * on headroom, its top device at low gm/ID run past its own saturation edge over a high setpoint below it, which no
- * share's screen proposes (each keeps every device saturated within its share).
+ * True when every load design has far more Rout at the design point than the gain needs: with the input of the
+ * highest gm (`gmMax`) it alone caps the gain above SPARE_ROUT × the target. The smallest pairs then spend the spare
+ * Rout on headroom, the load's devices at low gm/ID run past their saturation edge (the top one over a high setpoint
+ * below it, or a stacked cascode's pair at low gm/ID, which has no setpoint to trade), which no share's screen
+ * proposes (each keeps every device saturated within its share). The derived target sideRout does not tell: a
+ * screen held by its headroom share gives loads far above it whenever the share forces high gm/ID.
  */
-export function spareRout(stage: StageSpec, loads: readonly SideDesign[], j0: number): boolean {
-  const need = SPARE_ROUT * sideRout(stage);
-  return loads.length > 0 && loads.every((d) => d.cand.setpoints.length > 0 && d.rout[j0] > need);
+export function spareRout(stage: StageSpec, loads: readonly SideDesign[], j0: number, gmMax: number): boolean {
+  const need = (SPARE_ROUT * stage.gain) / gmMax;
+  return loads.length > 0 && loads.every((d) => d.rout[j0] > need);
 }
 
 /**

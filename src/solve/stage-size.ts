@@ -37,7 +37,7 @@ function designs(sides: StageSides, side: StageSides['input'], topology: Topolog
   // Screen again with all the headroom the side may have when the shares' candidates were all refused (a too-small
   // headroom share buys Rout with width beyond the width limit), or when a load has Rout to spare (spareRout).
   const refused = out.length === 0 && cands.length > 0 && side.narrowestTooWide !== undefined;
-  if (refused || (side.kind === 'load' && spareRout(sides.stage, out, j0))) {
+  if (refused || (side.kind === 'load' && spareRout(sides.stage, out, j0, gmMax ?? 0))) {
     sizedInto(out, sides, side, sideCandidates(sides.stage, side, topology, sides.supply, true), cands, vs, j0, gmMax);
   }
   out.screened = cands.length > 0;
