@@ -538,6 +538,22 @@ const FEASIBLE: Case[] = [
     // between the gm/ID grid's points; the screen's designs of these lengths all missed the headroom target).
     id: 'n090-cascode-stacked-rout-audit3-s15-107', kit: 'demo090', why: 'highest Rout under a mismatch budget, on the width limit',
     spec: { device: 'n', topology: 'cascode-stacked', current: 294e-6, rout: 89.5e3, headroom: 0.388, span: 0.953, objective: 'rout', l: { min: 400e-9, max: 750e-9 }, mismatch: 0.00727 },
+  },  {
+    // Found by audit3 (seed 20261215, #799): Rout 57.74e6 Ω vs reference 61.64e6 Ω (tool -6.3 %). The reference needs
+    // a longer bottom and a shorter top at once, on the width limit, which no single climb move makes; found since
+    // each length choice with no screened design meeting the targets gets its nearest design raised to the limit
+    // (size.ts widestOfShortLengths): 62.06e6 Ω.
+    // Reference design: l [700e-9, 250e-9], gm/ID [7.952, 12.597], setpoints [0.31562].
+    id: 'p180-cascode-rout-audit3-s15-799', kit: 'demo180', why: 'highest Rout with a longer bottom and shorter top on the width limit',
+    spec: { device: 'p', topology: 'cascode', current: 4.83e-6, rout: 28.2e6, headroom: 0.502, span: 1.54, objective: 'rout', l: { min: 250e-9, max: 700e-9 }, wmax: 2.38e-6 },
+  },
+  {
+    // Found by the random audit (tests/audit-random.test.ts, seed 20261303 #154): area 14.12e-12 m² vs reference
+    // 13.42e-12 m² (tool +5.2 %). The climb settled with both devices at 220 nm; the shorter top (160 nm) at a higher
+    // gm/ID is smaller, reached since a climb starts from the plain length moves (refine.ts fromLengthMoves): 13.33e-12 m².
+    // Reference design: l [300e-9, 160e-9], gm/ID [28.5, 26.25], setpoints [].
+    id: 'p090-cascode-stacked-area-audit4-s1303-154', kit: 'demo090', why: 'least area with a shorter top device at a higher gm/ID',
+    spec: { device: 'p', topology: 'cascode-stacked', current: 5.04e-6, rout: 3.51e6, headroom: 0.391, span: 0.769, objective: 'area', l: { min: 160e-9, max: 300e-9 } },
   },
 ];
 
