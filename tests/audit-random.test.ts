@@ -7,6 +7,8 @@ import { evaluateCandidate, finalize, nominalOk } from '../src/solve/evaluate/ev
 import { demoKit, ensureDemoTables } from './helpers/cli.js';
 import { exhaustive, type Grid, type RefDesign } from './helpers/exhaustive.js';
 import { stageExhaustive, stageOf, type StageGrid } from './helpers/stage-exhaustive.js';
+// A seeded generator (mulberry32), so a seed always draws the same specs.
+import { seededRandom } from '../scripts/bench/stats.js';
 
 /**
  * The random audit of the search's "best", on demand: specs drawn near the edge of feasibility on the three demo kits
@@ -31,17 +33,6 @@ const KIND = process.env.STACKWRIGHT_AUDIT_KIND ?? 'both';
 const OUT = process.env.STACKWRIGHT_AUDIT_OUT;
 const SUPPLY: Record<string, number> = { demo180: 1.8, demo090: 1.2, reed180: 1.8 };
 
-/** mulberry32 (T. Ettinger, public domain): a small seeded generator, so a seed always draws the same specs. */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 const sig3 = (x: number) => Number(x.toPrecision(3));
 
 interface Miss {
@@ -199,7 +190,7 @@ describe.runIf(SEED !== undefined)('random audit against the exhaustive referenc
     ensureDemoTables();
     const kits: Record<string, Kit> = {};
     for (const k of Object.keys(SUPPLY)) kits[k] = demoKit(k);
-    const R = rng(Number(SEED));
+    const R = seededRandom(Number(SEED));
     const misses: Miss[] = [];
     let drawn = 0;
     for (let i = 0; drawn < COUNT; i++) {
