@@ -6,8 +6,6 @@ import { boxLp1, vertexLp, type LpRow } from '../../numeric/index.js';
 
 // Margin (in the policy's units: 50 mV, ln Rout, …) a ridge step keeps where the design has it.
 const KEEP = 0.02;
-/** Corrections at most of a ridge try that lost a margin (see ridgeStepOver). */
-const CORRECTIONS = 3;
 
 /** The objective's and the margins' slopes along one coordinate, to one side (null: not measurable there). */
 interface Slope {
@@ -60,7 +58,8 @@ type RidgeAt<P> = (x: ArrayLike<number>, moved: readonly number[]) => P | null;
  * to `least` steps (sequential linear programming with a trust region, common practice; a caller may grow the box
  * while whole-box steps succeed). Returns the first try `better` prefers to `best`, with its box, or null. `lo`, `hi`: limits of each coordinate; `at`: the design there, null when it cannot be realised or
  * leaves a margin of `best` undefined; `slopesAt`: the figures the differences are taken of (`at`'s, unless the
- * caller has a cheaper estimate, exact to first order).
+ * caller has a cheaper estimate, exact to first order); `corrections`: how often a try that lost a margin is
+ * corrected before the box is halved (see `tries`).
  *
  * The differences are one-sided (forward where it can be realised), and a margin can have a kink where the design
  * stands (the headroom is least at some setpoint and rises on both sides of it). When no try is better and an answer
@@ -70,7 +69,7 @@ type RidgeAt<P> = (x: ArrayLike<number>, moved: readonly number[]) => P | null;
  */
 export function ridgeStepOver<T>(
   best: RidgePoint<T>, x: readonly number[], h: readonly number[], box: number, least: number, lo: readonly number[], hi: readonly number[],
-  at: RidgeAt<RidgePoint<T>>, better: (a: T, b: T) => boolean, slopesAt: RidgeAt<RidgeFigures> = at,
+  at: RidgeAt<RidgePoint<T>>, better: (a: T, b: T) => boolean, slopesAt: RidgeAt<RidgeFigures> = at, corrections = 0,
 ): RidgeMove<T> | null {
   const d = x.length;
   const { f: f0, m: m0 } = best;
@@ -111,10 +110,10 @@ export function ridgeStepOver<T>(
       if (e && better(e.design, best.design)) return { next: e.design, box: r };
       // A try that lost a margin the programme kept (curvature, where a margin is thin): again within this box with
       // each such margin's row tightened by what the try fell short of its floor (a second-order correction), at most
-      // CORRECTIONS times; a margin resolved only so finely (a swing edge on a trace grid) can stay a hair short of
+      // `corrections` times; a margin resolved only so finely (a swing edge on a trace grid) can stay a hair short of
       // it, so each further shortfall counts twice as much as the one before.
       const shift = m0.map(() => 0);
-      for (let i = 0, t = e; t && i < CORRECTIONS; i++) {
+      for (let i = 0, t = e; t && i < corrections; i++) {
         const m = t.m;
         const short = m0.map((v, j) => (Number.isFinite(v) && m[j] < 0 ? v - kept(v) - m[j] : 0));
         if (!short.some((v) => v > 0)) break;
