@@ -43,6 +43,8 @@ const WHY_SETPOINT_TRADE =
   'the smallest pair has a load at lower gm/ID over a higher setpoint: the higher setpoint alone costs no area and the lower gm/ID alone misses the swing, so the climb stopped on the swing-bound ridge';
 const WHY_RIDGE =
   'the smallest pair lies along a swing-bound ridge: it needs three or more coordinates moved at once in the right proportions (one gm/ID up for swing, another down for area, a setpoint up; or margin bought on one side and spent on the other), which no single, pair or cross move of the climb makes';
+const WHY_RIDGE_CURVED =
+  'the climb stops on a swing-bound ridge with a hair of swing margin, and every ridge step the linearised programme proposed lost that hair on the curvature, so none was taken';
 
 const cases: StageCase[] = [
   {
@@ -351,6 +353,20 @@ const cases: StageCase[] = [
     id: 'audit3 demo090: p cascode input, n single load, gain 84.9 over 0.478 V (seed 20261218 #355)', kit: 'demo090', grid: { gmidPoints: 6, vStep: 0.1 },
     stage: stageOf({ gain: 84.9, swing: 0.478, output: 0.586, input: 'p', inputTopology: 'cascode', load: 'single', l: [90e-9, 120e-9], gmid: [10, 22], loadL: [750e-9, 1e-6] }),
     why: WHY_LEAN_INPUT_GM,
+  },
+  {
+    // Found by audit3 (seed 20261217, #143): area 6.193e-12 m² vs reference 5.872e-12 m² (tool +5.5 %).
+    // Reference pair: input l [250e-9, 250e-9], gm/ID [14.667, 14.667], setpoints [0.25]; load l [500e-9, 500e-9], gm/ID [10, 10], setpoints [0.25].
+    id: 'audit3 demo180: p cascode input, n cascode load, gain 1320 over 0.814 V (seed 20261217 #143)', kit: 'demo180', grid: { gmidPoints: 4, vStep: 0.1 },
+    stage: stageOf({ gain: 1.32e3, swing: 0.814, output: 1.06, input: 'p', inputTopology: 'cascode', load: 'cascode', l: [180e-9, 250e-9], gmid: [10, 24], loadL: [500e-9, 500e-9] }),
+    why: WHY_RIDGE_CURVED,
+  },
+  {
+    // Found by audit3 (seed 20261218, #71): area 688.7e-12 m² vs reference 649.8e-12 m² (tool +6.0 %).
+    // Reference pair: input l [1e-6, 1.4e-6], gm/ID [20, 16], setpoints [0.25]; load l [700e-9, 700e-9], gm/ID [12, 20], setpoints [0.25].
+    id: 'audit3 demo180: p cascode input, n cascode load, gain 28900 over 0.852 V (seed 20261218 #71)', kit: 'demo180', grid: { gmidPoints: 4, vStep: 0.1 },
+    stage: { ...stageOf({ gain: 28.9e3, swing: 0.852, output: 1.07, input: 'p', inputTopology: 'cascode', load: 'cascode', l: [1e-6, 1.4e-6], gmid: [8, 20], loadL: [700e-9, 700e-9] }), current: 34.6e-6 },
+    why: WHY_RIDGE_CURVED,
   },
 ];
 

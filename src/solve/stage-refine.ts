@@ -33,6 +33,11 @@ const TRADE_JUMPS = [2, 4, 8];
 const RIDGE_STEPS = 8;
 const RIDGE_SCALE = 0.25;
 const RIDGE_BOX = 4;
+/**
+ * Corrections of a ridge try that lost the swing margin (see ridgeStepOver): on a swing-bound ridge the margin left
+ * is often a hair, which the curvature takes from every linearised step.
+ */
+const RIDGE_CORRECTIONS = 3;
 /** Climb rounds at most; each round tries the moves of both sides once. */
 const MAX_ROUNDS = 24;
 
@@ -436,7 +441,7 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
     const lo = perSide((ctx) => ctx.gmids[0], () => SETPOINT_MIN);
     const hi = perSide((ctx) => ctx.gmids[ctx.gmids.length - 1], () => Infinity);
     const x = cands.flatMap(coordinates);
-    return ridgeStepOver({ design: best, f: Math.log(best.area), m: marginsOf(best) }, x, h, RIDGE_BOX, RIDGE_BOX / 4, lo, hi, at, better, slopesAt)?.next ?? null;
+    return ridgeStepOver({ design: best, f: Math.log(best.area), m: marginsOf(best) }, x, h, RIDGE_BOX, RIDGE_BOX / 4, lo, hi, at, better, slopesAt, RIDGE_CORRECTIONS)?.next ?? null;
   };
   return { climb, ridge, pairOf, evaluated: () => evaluated };
 }

@@ -58,7 +58,8 @@ type RidgeAt<P> = (x: ArrayLike<number>, moved: readonly number[]) => P | null;
  * to `least` steps (sequential linear programming with a trust region, common practice; a caller may grow the box
  * while whole-box steps succeed). Returns the first try `better` prefers to `best`, with its box, or null. `lo`, `hi`: limits of each coordinate; `at`: the design there, null when it cannot be realised or
  * leaves a margin of `best` undefined; `slopesAt`: the figures the differences are taken of (`at`'s, unless the
- * caller has a cheaper estimate, exact to first order).
+ * caller has a cheaper estimate, exact to first order); `corrections`: how often a try that lost a margin is
+ * corrected before the box is halved (see `tries`).
  *
  * The differences are one-sided (forward where it can be realised), and a margin can have a kink where the design
  * stands (the headroom is least at some setpoint and rises on both sides of it). When no try is better and an answer
@@ -68,7 +69,7 @@ type RidgeAt<P> = (x: ArrayLike<number>, moved: readonly number[]) => P | null;
  */
 export function ridgeStepOver<T>(
   best: RidgePoint<T>, x: readonly number[], h: readonly number[], box: number, least: number, lo: readonly number[], hi: readonly number[],
-  at: RidgeAt<RidgePoint<T>>, better: (a: T, b: T) => boolean, slopesAt: RidgeAt<RidgeFigures> = at,
+  at: RidgeAt<RidgePoint<T>>, better: (a: T, b: T) => boolean, slopesAt: RidgeAt<RidgeFigures> = at, corrections = 0,
 ): RidgeMove<T> | null {
   const d = x.length;
   const { f: f0, m: m0 } = best;
@@ -88,24 +89,40 @@ export function ridgeStepOver<T>(
   let against = false;
   // The answer within `r` steps; when it moves a coordinate to a side not measured, with `sides` that side is
   // measured and the programme solved again.
-  const answerWithin = (r: number, sides: boolean) => {
-    let answer = bestOverSides(x, h, r, lo, hi, m0, up, down);
+  const answerWithin = (r: number, sides: boolean, shift: readonly number[]) => {
+    let answer = bestOverSides(x, h, r, lo, hi, m0, up, down, shift);
     for (;;) {
       const unmeasured = answer ? unmeasuredSides(answer.x, up, down) : [];
       if (unmeasured.length > 0) against = true;
       if (unmeasured.length === 0 || !sides) return answer;
       for (const [k, dir] of unmeasured) (dir > 0 ? up : down)[k] = measure(k, dir);
-      answer = bestOverSides(x, h, r, lo, hi, m0, up, down);
+      answer = bestOverSides(x, h, r, lo, hi, m0, up, down, shift);
     }
   };
   const all = x.map((_, k) => k);
+  const none = m0.map(() => 0);
   const tries = (sides: boolean): RidgeMove<T> | null => {
     for (let r = box; r >= least; r /= 2) {
-      const answer = answerWithin(r, sides);
+      const answer = answerWithin(r, sides, none);
       // None, or none better than standing still (by the linearised objective).
       if (!answer || !(answer.value < -1e-12)) return null;
       const e = at(x.map((xk, k) => xk + answer.x[k]), all);
       if (e && better(e.design, best.design)) return { next: e.design, box: r };
+      // A try that lost a margin the programme kept (curvature, where a margin is thin): again within this box with
+      // each such margin's row tightened by what the try fell short of its floor (a second-order correction), at most
+      // `corrections` times; a margin resolved only so finely (a swing edge on a trace grid) can stay a hair short of
+      // it, so each further shortfall counts twice as much as the one before.
+      const shift = m0.map(() => 0);
+      for (let i = 0, t = e; t && i < corrections; i++) {
+        const m = t.m;
+        const short = m0.map((v, j) => (Number.isFinite(v) && m[j] < 0 ? v - kept(v) - m[j] : 0));
+        if (!short.some((v) => v > 0)) break;
+        for (const [j, v] of short.entries()) shift[j] += v * 2 ** i;
+        const again = answerWithin(r, sides, shift);
+        if (!again || !(again.value < -1e-12)) break;
+        t = at(x.map((xk, k) => xk + again.x[k]), all);
+        if (t && better(t.design, best.design)) return { next: t.design, box: r };
+      }
     }
     return null;
   };
@@ -130,7 +147,7 @@ function unmeasuredSides(delta: ArrayLike<number>, up: readonly (Slope | null | 
  */
 function bestOverSides(
   x: readonly number[], h: readonly number[], box: number, lo: readonly number[], hi: readonly number[], m0: readonly number[],
-  up: readonly (Slope | null | undefined)[], down: readonly (Slope | null | undefined)[],
+  up: readonly (Slope | null | undefined)[], down: readonly (Slope | null | undefined)[], shift: readonly number[],
 ): { x: Float64Array; value: number } | null {
   const d = x.length;
   const both: number[] = [];
@@ -152,21 +169,26 @@ function bestOverSides(
       const downOk = side <= 0 && down[k] !== null;
       reach.push({ up: upOk ? Math.max(Math.min(r, hi[k] - x[k]), 0) : 0, down: downOk ? Math.max(Math.min(r, x[k] - lo[k]), 0) : 0 });
     }
-    const answer = programme(c, marginRows(m0, slopes), reach);
+    const answer = programme(c, marginRows(m0, slopes, shift), reach);
     if (answer && (!best || answer.value < best.value)) best = answer;
   }
   return best;
 }
 
+/** The floor a ridge step keeps a margin at: KEEP, or what it is, if less (a step that spends all of a margin overshoots on the curvature). */
+function kept(m: number): number {
+  return Math.min(m, KEEP);
+}
+
 /**
- * Half-spaces a·δ ≤ b: the linearised margins, each kept at KEEP or at what it is, if less (a step that spends all of a
- * margin overshoots on the curvature). `slopes`: per coordinate (null: frozen).
+ * Half-spaces a·δ ≤ b: the linearised margins, each kept at its floor (kept), raised by `shift` (per margin).
+ * `slopes`: per coordinate (null: frozen).
  */
-function marginRows(m0: readonly number[], slopes: readonly (Slope | null)[]): LpRow[] {
+function marginRows(m0: readonly number[], slopes: readonly (Slope | null)[], shift: readonly number[]): LpRow[] {
   const rows: LpRow[] = [];
   for (let j = 0; j < m0.length; j++) {
     if (!Number.isFinite(m0[j])) continue;
-    rows.push({ a: Float64Array.from(slopes, (s) => -(s?.m[j] ?? 0)), b: Math.max(m0[j] - Math.min(m0[j], KEEP), 0) });
+    rows.push({ a: Float64Array.from(slopes, (s) => -(s?.m[j] ?? 0)), b: Math.max(m0[j] - kept(m0[j]), 0) - shift[j] });
   }
   return rows;
 }
