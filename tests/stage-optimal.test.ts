@@ -355,6 +355,26 @@ const cases: StageCase[] = [
     why: WHY_LEAN_INPUT_GM,
   },
   {
+    // Found by audit3 (seed 20261218, #294): area 745.1e-15 m² vs reference 570.5e-15 m² (tool +30.6 %; +8.2 % with the
+    // input screen at the top gm/ID). Reference pair: input l [90e-9, 120e-9], gm/ID [22, 12.4], setpoints [0.15]; load
+    // l [220e-9], gm/ID [10], setpoints []. The input device at the top gm/ID with a short load; with the other inputs'
+    // pairs those pairs pushed others out of the pair screen's pools, so they have a pair screen of their own.
+    id: 'audit3 demo090: n cascode input, p single load, gain 33.3 over 0.61 V (seed 20261218 #294)', kit: 'demo090', grid: { gmidPoints: 6, vStep: 0.1 },
+    stage: stageOf({ gain: 33.3, swing: 0.61, output: 0.498, input: 'n', inputTopology: 'cascode', load: 'single', l: [90e-9, 120e-9], gmid: [10, 22], loadL: [220e-9, 300e-9] }),
+    why: WHY_LEAN_INPUT_GM,
+  },
+  {
+    // Found by the random audit (tests/audit-random.test.ts, seed 20261311 #53): area 561.6e-15 m² vs reference
+    // 478.6e-15 m² (tool +17 %); the same kind as the case above.
+    id: 'demo090: n cascode input, p single load, gain 32.9 over 0.622 V (audit seed 20261311 #53)', kit: 'demo090', grid: { gmidPoints: 6, vStep: 0.1 },
+    stage: {
+      current: 10e-6, gain: 32.9, swing: 0.622, output: 0.57, objective: 'area',
+      input: { device: 'n', topology: 'cascode', l: { min: 120e-9, max: 160e-9 }, gmid: { min: 8, max: 20 } },
+      load: { topology: 'single', l: { min: 220e-9, max: 300e-9 }, gmid: { min: 8, max: 20 } },
+    } as Omit<StageSpec, 'name'>,
+    why: WHY_LEAN_INPUT_GM,
+  },
+  {
     // Found by audit3 (seed 20261217, #143): area 6.193e-12 m² vs reference 5.872e-12 m² (tool +5.5 %).
     // Reference pair: input l [250e-9, 250e-9], gm/ID [14.667, 14.667], setpoints [0.25]; load l [500e-9, 500e-9], gm/ID [10, 10], setpoints [0.25].
     id: 'audit3 demo180: p cascode input, n cascode load, gain 1320 over 0.814 V (seed 20261217 #143)', kit: 'demo180', grid: { gmidPoints: 4, vStep: 0.1 },

@@ -448,8 +448,8 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
 type Climber = ReturnType<typeof stageClimber>;
 
 /**
- * Local refinement of a gain stage: from the pair the pair screen picked, the seeds seedsOf adds from its pool and
- * `also` (designs from another pair screen, not in `pool`),
+ * Local refinement of a gain stage: from the pair the pair screen picked, the seeds seedsOf adds from its pool (and
+ * from `rivals`, not in `pool`), and `also` (designs from another pair screen, not in `pool`),
  * hill-climb over moves judged exactly as one circuit (evaluatePair, every corner when it meets the nominal targets)
  * by stageBetter:
  * - one side moved with the other held: the stack climb's neighbours (each device's L to the neighbouring grid
@@ -470,12 +470,12 @@ type Climber = ReturnType<typeof stageClimber>;
  */
 export function refineStage(
   sides: StageSides, picked: StageDesign, pool: StageDesign[], memos: { input: SideMemo; load: SideMemo },
-  ok: (d: StageDesign) => boolean = fullyOkMemo(sides), also: readonly StageDesign[] = [],
+  ok: (d: StageDesign) => boolean = fullyOkMemo(sides), also: readonly StageDesign[] = [], rivals: readonly StageDesign[] = [],
 ): { best: StageDesign; evaluated: number; nearest?: StageNearest } {
   const { stage } = sides;
   const climber = stageClimber(sides, pool, memos);
   const better: StageOrder = (a, b) => stageBetter(sides, a, b, ok);
-  const seeds = [...seedsOf(sides, picked, pool, ok), ...also];
+  const seeds = [...seedsOf(sides, picked, [...pool, ...rivals], ok), ...also];
   // Designs meeting every target that the climbs moved to (or started from): the result is the best of them that
   // the reported trace confirms.
   const met: StageDesign[] = [];
