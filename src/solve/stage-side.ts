@@ -147,7 +147,7 @@ export function sideCandidates(stage: StageSpec, side: Side, topology: Topology,
     const top = side.ctx.gmids[side.ctx.gmids.length - 1];
     const lean = screenAt(side, topology, (2 * stage.gain) / (top * stage.current), lo);
     add(lean);
-    add(lean.map((c) => ({ ...c, gmid: [top, ...c.gmid.slice(1)] })));
+    add(lean.map((c) => inputAtTop(side, c)));
   }
   // A wide swing target can leave a share too small for any design of the topology (a triple's lower devices
   // need their VDSsat each) although the stage still holds its gain past the load's saturation edge: then the
@@ -157,6 +157,11 @@ export function sideCandidates(stage: StageSpec, side: Side, topology: Topology,
 }
 
 /** The stack screen of one side with derived targets: Rout `rout`, headroom `h` and the span to match; the side's own spec is kept. */
+/** An input-side candidate with its input device (the bottom) at the top of the side's gm/ID range. */
+export function inputAtTop(side: Side, c: Candidate): Candidate {
+  return { ...c, gmid: [side.ctx.gmids[side.ctx.gmids.length - 1], ...c.gmid.slice(1)] };
+}
+
 function screenAt(side: Side, topology: Topology, rout: number, h: number): Candidate[] {
   const ctx = side.ctx;
   const base = ctx.spec;

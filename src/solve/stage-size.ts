@@ -2,7 +2,7 @@ import type { StageSpec, Topology } from '../design/types.js';
 import { topologyNames } from '../topology/index.js';
 import { designIndex, outputGrid } from '../stack/index.js';
 import type { KitAccess } from './kit.js';
-import { makeSide, roomCandidates, roomLeft, sideCandidates, sideDesign, spareRout, type SideDesign } from './stage-side.js';
+import { inputAtTop, makeSide, roomCandidates, roomLeft, sideCandidates, sideDesign, spareRout, type SideDesign } from './stage-side.js';
 import { screenPairs } from './stage-screen.js';
 import { biasRealisable, evaluatePair, type StageDesign, type StageSides } from './stage-eval.js';
 import { emptyStageResult, stageFrontPoint, stageResult } from './stage-result.js';
@@ -97,9 +97,8 @@ function leanInputs(sides: StageSides, inputs: readonly SideDesign[], vs: Float6
  * its pools (a pair screen of their own).
  */
 function highInputs(sides: StageSides, inputs: readonly SideDesign[], vs: Float64Array, j0: number): SideDesign[] {
-  const top = sides.input.ctx.gmids[sides.input.ctx.gmids.length - 1];
   const out: SideDesign[] = [];
-  const cands = inputs.map((d) => ({ ...d.cand, gmid: [top, ...d.cand.gmid.slice(1)] }));
+  const cands = inputs.map((d) => inputAtTop(sides.input, d.cand));
   sizedInto(out, sides, sides.input, cands, inputs.map((d) => d.cand), vs, j0);
   return out.filter((d) => d.sized.gates[0] <= sides.supply);
 }

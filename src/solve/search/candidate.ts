@@ -10,6 +10,11 @@ export function coordinates(c: Candidate): number[] {
   return [...c.gmid, ...c.setpoints];
 }
 
+/** `c` with setpoint k at v, rounded to the candidate key's µV grid (so the same point reached twice has one key). */
+export function withSetpoint(c: Candidate, k: number, v: number): Candidate {
+  return { topology: c.topology, l: c.l, gmid: c.gmid, setpoints: c.setpoints.map((x, j) => (j === k ? Math.round(v * 1e6) / 1e6 : x)) };
+}
+
 /** One value per continuous coordinate of `c` (see coordinates): `gmid` for each device's gm/ID, `setpoint` for each setpoint. */
 export function perCoordinate(c: Candidate, gmid: number, setpoint: number): number[] {
   return [...c.gmid.map(() => gmid), ...c.setpoints.map(() => setpoint)];

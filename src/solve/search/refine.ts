@@ -1,6 +1,6 @@
 import { topologyOf } from '../../topology/index.js';
 import type { Candidate } from './candidate.js';
-import { perCoordinate, SETPOINT_MIN } from './candidate.js';
+import { perCoordinate, SETPOINT_MIN, withSetpoint } from './candidate.js';
 import type { SolveContext } from '../context.js';
 import { candidateWidths, evaluateCandidate, fullyOk, type Evaluated, type Start } from '../evaluate/evaluate.js';
 import { distanceToFeasible, REL_TOL } from '../../policy.js';
@@ -24,17 +24,20 @@ export function evaluateOnce(ctx: SolveContext, c: Candidate, seen: Seen, start?
   return seen.get(k)!;
 }
 
+/** evaluateOnce, the evaluation added to `pool` when it is new to `seen`. */
+export function evaluateToPool(ctx: SolveContext, c: Candidate, seen: Seen, pool: Evaluated[]): Evaluated | null {
+  const known = seen.has(seen.key(c));
+  const e = evaluateOnce(ctx, c, seen);
+  if (e && !known) pool.push(e);
+  return e;
+}
+
 function reusedOrEvaluated(ctx: SolveContext, reuse: Reuse, c: Candidate, start?: Start): Evaluated | null {
   const known = reuse.lookup(c);
   if (known !== undefined) return rejudged(ctx, known);
   const e = evaluateCandidate(ctx, c, start);
   reuse.store(c, e);
   return e;
-}
-
-/** c with setpoint k at v (on the candidate key's µV grid). */
-function withSetpoint(c: Candidate, k: number, v: number): Candidate {
-  return { topology: c.topology, l: c.l, gmid: c.gmid, setpoints: c.setpoints.map((x, j) => (j === k ? Math.round(v * 1e6) / 1e6 : x)) };
 }
 
 /** The setpoint n moves alone from c (same lengths, gm/ID and other setpoints), else −1. */
@@ -176,9 +179,7 @@ function fromLengthMoves(
   let from: Evaluated | undefined;
   for (const { c, reach } of moves) {
     if (!(sizeOnce(ctx, seen, seen.key(c), c).area < best.area * (1 - REL_TOL))) continue;
-    const known = seen.has(seen.key(c));
-    const e = evaluateOnce(ctx, c, seen);
-    if (e && !known) pool.push(e);
+    const e = evaluateToPool(ctx, c, seen, pool);
     if (e && distanceToFeasible(e.margins) <= reach && (!from || shortfall(ctx, e) < shortfall(ctx, from))) from = e;
   }
   if (!from) return best;
@@ -289,12 +290,7 @@ function climb(
   };
 
   // An exact evaluation for the ridge steps, added to the pool when new.
-  const evaluate = (c: Candidate): Evaluated | null => {
-    const known = seen.has(seen.key(c));
-    const e = evaluateOnce(ctx, c, seen);
-    if (e && !known) pool.push(e);
-    return e;
-  };
+  const evaluate = (c: Candidate): Evaluated | null => evaluateToPool(ctx, c, seen, pool);
 
   let best = seed;
   climbRounds();
@@ -306,9 +302,9 @@ function climb(
   // gm/ID is smaller but short of Rout, made up with its gm/ID and a setpoint a few steps up (random audit seed
   // 20261302 #154: a reed180 cascode's top at 0.5 instead of 0.8 µm, 40 % less area).
   if (sizing) {
-    const raised = raisedLengthMoves();
+    const { plain, raised } = lengthMovesOfBest();
     if (step(raised)) climbRounds();
-    else best = fromLengthMoves(ctx, best, [...raised.map((c) => ({ c, reach: RAISED_REACH })), ...plainLengthMoves().map((c) => ({ c, reach: PLAIN_REACH }))], seen, pool, better, climbFrom);
+    else best = fromLengthMoves(ctx, best, [...raised.map((c) => ({ c, reach: RAISED_REACH })), ...plain.map((c) => ({ c, reach: PLAIN_REACH }))], seen, pool, better, climbFrom);
   }
   // Stuck where several targets bind at once: steps along the ridge (search/ridge.ts), for a design meeting them. A
   // ridge step can land where the climb's own moves gain again (off the ridge, e.g. a lower gm/ID bought with a
@@ -329,7 +325,7 @@ function climb(
     const k = leastSaturated(best.nominal);
     if (k < 0 || !(best.margins.saturation < SATURATION_EDGE)) return [];
     const c = best.cand;
-    return SATURATION_JUMPS.map((j) => ({ topology: c.topology, l: c.l, gmid: c.gmid, setpoints: c.setpoints.map((v, i) => (i === k ? Math.round((v + j) * 1e6) / 1e6 : v)) }));
+    return SATURATION_JUMPS.map((j) => withSetpoint(c, k, c.setpoints[k] + j));
   }
 
   /** Ridge steps from `best` (at most RIDGE_STEPS); whether any was taken. */
@@ -439,23 +435,18 @@ function climb(
     return r;
   }
 
-  /** best's length moves alone. */
-  function plainLengthMoves(): Candidate[] {
-    const out: Candidate[] = [];
-    const c = best.cand;
-    lengthMoves(ctx, c, (k, l) => out.push({ topology: c.topology, l: c.l.map((x, i) => (i === k ? l : x)), gmid: c.gmid, setpoints: c.setpoints }));
-    return out;
-  }
-
-  /** best's length moves, each with its device raised to the width limit (those it changes). */
-  function raisedLengthMoves(): Candidate[] {
-    const out: Candidate[] = [];
+  /** best's length moves: alone, and with the moved device raised to the width limit (those it changes). */
+  function lengthMovesOfBest(): { plain: Candidate[]; raised: Candidate[] } {
+    const plain: Candidate[] = [];
+    const raised: Candidate[] = [];
     const c = best.cand;
     lengthMoves(ctx, c, (k, l) => {
-      const r = raisedToLimit(ctx, { topology: c.topology, l: c.l.map((x, i) => (i === k ? l : x)), gmid: c.gmid, setpoints: c.setpoints }, k);
-      if (r) out.push(r);
+      const d = { topology: c.topology, l: c.l.map((x, i) => (i === k ? l : x)), gmid: c.gmid, setpoints: c.setpoints };
+      plain.push(d);
+      const r = raisedToLimit(ctx, d, k);
+      if (r) raised.push(r);
     });
-    return out;
+    return { plain, raised };
   }
 
   function step(moves: Candidate[]): boolean {

@@ -1,7 +1,7 @@
 import { topologyOf } from '../../topology/index.js';
 import type { SolveContext } from '../context.js';
 import { fullyOk, type Evaluated } from '../evaluate/evaluate.js';
-import { SETPOINT_MIN, type Candidate } from './candidate.js';
+import { SETPOINT_MIN, withSetpoint, type Candidate } from './candidate.js';
 import { better } from './rank.js';
 import { evaluateOnce, lookOnce, refine, type Seen } from './refine.js';
 import { routSurelyBelow, surelyMisses } from './quick.js';
@@ -46,8 +46,7 @@ function setpointLine(ctx: SolveContext, c: Candidate): Candidate[] {
     const room = setpointRoom(ctx, c.setpoints, k);
     for (let j = Math.ceil((SETPOINT_MIN - own) / step); own + j * step <= room + 1e-9; j++) {
       if (j === 0) continue;
-      const setpoints = c.setpoints.map((v, i) => (i === k ? Math.round((own + j * step) * 1e6) / 1e6 : v));
-      const d = widestAt(ctx, { topology: c.topology, l: c.l, gmid: c.gmid, setpoints });
+      const d = widestAt(ctx, withSetpoint(c, k, own + j * step));
       if (d) out.push(d);
     }
   }

@@ -2,7 +2,7 @@ import type { SolveContext } from '../context.js';
 import { fullyOk, type Evaluated } from '../evaluate/evaluate.js';
 import type { Candidate } from './candidate.js';
 import { better } from './rank.js';
-import { evaluateOnce, refine, type Seen } from './refine.js';
+import { evaluateToPool, refine, type Seen } from './refine.js';
 
 // Slides per search at most, and the finest step of a row's search as a fraction of its first (the climb's finest).
 const SLIDES = 12;
@@ -22,12 +22,7 @@ export function alongValley(ctx: SolveContext, best: Evaluated, seen: Seen, pool
   const c = best.cand;
   if (ctx.meetOnly || ctx.spec.objective === 'area' || c.gmid.length !== 2 || c.setpoints.length !== 0 || !fullyOk(ctx, best)) return best;
   const step = ctx.gmidStep / 2;
-  const evaluate = (d: Candidate): Evaluated | null => {
-    const known = seen.has(seen.key(d));
-    const e = evaluateOnce(ctx, d, seen);
-    if (e && !known) pool.push(e);
-    return e;
-  };
+  const evaluate = (d: Candidate): Evaluated | null => evaluateToPool(ctx, d, seen, pool);
   // Rows: the device moved and the sign of its move.
   const rows: [number, number][] = [[0, 1], [1, -1], [0, -1], [1, 1]];
   let first = 0;
