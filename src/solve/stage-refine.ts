@@ -492,8 +492,9 @@ function shorterClimbs(sides: StageSides, climber: Climber, from: StageDesign, o
  *   (stageClimber's ridge), then the finest climb again when they moved.
  * Moves go in order of summed area, so with objective area the first one meeting every target wins the round and
  * the rest, no smaller than it, are not traced; a move surelyMisses rules out is not traced either.
- * Every seed climbs at the screen's gm/ID step; the best of those, and each other meeting the targets, climbs on with
- * the steps halved twice. The screen ranks pairs on estimated gain curves from a few hundred side candidates, so its
+ * Every seed climbs at the screen's gm/ID step (only the pick when no seed meets the targets, and then, should it
+ * reach them, also the shorterClimbs from where it did); the best of those, and each other meeting the targets,
+ * climbs on with the steps halved twice. The screen ranks pairs on estimated gain curves from a few hundred side candidates, so its
  * pick can be far from the best nearby design. Every design traced is added to `pool` (the trade front and the
  * nearest points see them).
  * When nothing meets the targets, the nearest points are climbed for too (nearestStage).
