@@ -375,6 +375,14 @@ const cases: StageCase[] = [
     why: WHY_LEAN_INPUT_GM,
   },
   {
+    // Found by the random audit (tests/audit-random.test.ts, seed 20261331 #23): area 903.1e-15 m² vs reference
+    // 809.9e-15 m² (tool +11.5 %; 735.9e-15 m² since the climbs from shorter lengths). Reference pair: input l
+    // [120e-9, 160e-9], gm/ID [22, 14], setpoints [0.15]; load l [120e-9, 120e-9], gm/ID [10, 10], setpoints [].
+    id: 'demo090: n cascode input, p cascode-stacked load, gain 21.4 over 0.719 V (audit seed 20261331 #23)', kit: 'demo090', grid: { gmidPoints: 4, vStep: 0.1 },
+    stage: stageOf({ gain: 21.4, swing: 0.719, output: 0.636, input: 'n', inputTopology: 'cascode', load: 'cascode-stacked', l: [120e-9, 160e-9], gmid: [10, 22], loadL: [120e-9, 120e-9] }),
+    why: 'no screened pair met the targets, and the one climb from the pick chose its input lengths (160/120 nm) on its way to them; the smallest pair has the input device shorter and the cascode longer, gm/ID and setpoint retuned, which no one move of the climb makes',
+  },
+  {
     // Found by audit3 (seed 20261217, #143): area 6.193e-12 m² vs reference 5.872e-12 m² (tool +5.5 %).
     // Reference pair: input l [250e-9, 250e-9], gm/ID [14.667, 14.667], setpoints [0.25]; load l [500e-9, 500e-9], gm/ID [10, 10], setpoints [0.25].
     id: 'audit3 demo180: p cascode input, n cascode load, gain 1320 over 0.814 V (seed 20261217 #143)', kit: 'demo180', grid: { gmidPoints: 4, vStep: 0.1 },

@@ -185,6 +185,8 @@ interface ClimbOptions {
   onBetter?: (d: StageDesign) => void;
   /** True when a pair surely cannot beat the climb's best: it is not traced (the caller answers for the pool). */
   hopeless?: Hopeless;
+  /** A device length every move keeps (see shorterClimbs). */
+  hold?: { kind: 'input' | 'load'; k: number; l: number };
 }
 
 /** A pair of side designs that surely cannot beat a climb's best. */
@@ -247,6 +249,19 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
     if (!loads) missed.set(input, (loads = new Set()));
     loads.add(load);
     return true;
+  };
+
+  // The side designs of two candidates (null: a side not realisable, or not saturated at the design point).
+  const sidesAt = (ci: Candidate, cl: Candidate): { input: SideDesign; load: SideDesign } | null => {
+    const mi = sideOf(sides.input, ci);
+    const ml = mi && sideOf(sides.load, cl);
+    const input = mi && ml && designOf(sides.input, mi);
+    const load = input && designOf(sides.load, ml!);
+    return input && load ? { input, load } : null;
+  };
+  const pairAt = (ci: Candidate, cl: Candidate): StageDesign | null => {
+    const q = sidesAt(ci, cl);
+    return q && pairOf(q.input, q.load);
   };
 
   type Steps = { input: { g: number; v: number }; load: { g: number; v: number } };
@@ -349,6 +364,7 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
         const limit = o.bound(best);
         // Sorted by area: once one is not below the bound, none after it is.
         if (!(m.area < limit)) break;
+        if (o.hold && m[o.hold.kind].sized.cand.l[o.hold.k] !== o.hold.l) continue;
         const input = designOf(sides.input, m.input);
         const load = input && designOf(sides.load, m.load);
         if (!input || !load) continue;
@@ -404,11 +420,7 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
         if (k < split) ci = withCoordinate(ci, k, x[k]);
         else cl = withCoordinate(cl, k - split, x[k]);
       }
-      const mi = sideOf(sides.input, ci);
-      const ml = mi && sideOf(sides.load, cl);
-      const input = mi && ml && designOf(sides.input, mi);
-      const load = input && designOf(sides.load, ml!);
-      return input && load ? { input, load } : null;
+      return sidesAt(ci, cl);
     };
     const marginsOf = (d: StageDesign): number[] => {
       const m = stageMargins(stage, d.nominal);
@@ -443,9 +455,27 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
     const x = cands.flatMap(coordinates);
     return ridgeStepOver({ design: best, f: Math.log(best.area), m: marginsOf(best) }, x, h, RIDGE_BOX, RIDGE_BOX / 4, lo, hi, at, better, slopesAt, RIDGE_CORRECTIONS)?.next ?? null;
   };
-  return { climb, ridge, pairOf, evaluated: () => evaluated };
+  return { climb, ridge, pairOf, pairAt, evaluated: () => evaluated };
 }
 type Climber = ReturnType<typeof stageClimber>;
+
+/**
+ * Climbs from `from` with one device a table length shorter, each holding that length (else its first move is
+ * straight back to `from`). A shorter device is the main way to less area, but from a design on the targets' edge
+ * it often meets them again only with several other coordinates moved far (another device longer, gm/IDs and a
+ * setpoint retuned), which no move of a climb makes at once.
+ */
+function shorterClimbs(sides: StageSides, climber: Climber, from: StageDesign, o: ClimbOptions): StageDesign[] {
+  const out: StageDesign[] = [];
+  for (const kind of ['input', 'load'] as const) {
+    for (const { cand, k } of lengthMoves(sides[kind].ctx, from[kind].cand)) {
+      if (!(cand.l[k] < from[kind].cand.l[k])) continue;
+      const seed = kind === 'input' ? climber.pairAt(cand, from.load.cand) : climber.pairAt(from.input.cand, cand);
+      if (seed) out.push(climber.climb(seed, { ...o, hold: { kind, k, l: cand.l[k] } }));
+    }
+  }
+  return out;
+}
 
 /**
  * Local refinement of a gain stage: from the pair the pair screen picked, the seeds seedsOf adds from its pool (and
@@ -462,8 +492,9 @@ type Climber = ReturnType<typeof stageClimber>;
  *   (stageClimber's ridge), then the finest climb again when they moved.
  * Moves go in order of summed area, so with objective area the first one meeting every target wins the round and
  * the rest, no smaller than it, are not traced; a move surelyMisses rules out is not traced either.
- * Every seed climbs at the screen's gm/ID step; the best of those, and each other meeting the targets, climbs on with
- * the steps halved twice. The screen ranks pairs on estimated gain curves from a few hundred side candidates, so its
+ * Every seed climbs at the screen's gm/ID step (only the pick when no seed meets the targets, and then, should it
+ * reach them, also the shorterClimbs from where it did); the best of those, and each other meeting the targets,
+ * climbs on with the steps halved twice. The screen ranks pairs on estimated gain curves from a few hundred side candidates, so its
  * pick can be far from the best nearby design. Every design traced is added to `pool` (the trade front and the
  * nearest points see them).
  * When nothing meets the targets, the nearest points are climbed for too (nearestStage).
@@ -486,12 +517,22 @@ export function refineStage(
   let overall = picked;
   const locals: StageDesign[] = [];
   for (const seed of seeds) if (ok(seed)) met.push(seed);
+  const seedsMet = met.length > 0;
   // Nothing the screen found meets the targets: one climb from the pick at the screen's step, then the climbs for
   // the nearest points; the full refinement is for designs that meet them (should one of those climbs reach one).
-  for (const seed of met.length > 0 ? seeds : seeds.slice(0, 1)) {
-    const local = climber.climb(seed, { better, levels: 1, scale: 1, bound, onBetter });
+  const start = { better, levels: 1, scale: 1, bound, onBetter };
+  for (const seed of seedsMet ? seeds : seeds.slice(0, 1)) {
+    const local = climber.climb(seed, start);
     locals.push(local);
     if (local === overall || better(local, overall)) overall = local;
+  }
+  // That one climb chose its lengths on its way to the targets, not by area: where it met them, each device a length
+  // shorter seeds a climb of its own.
+  if (!seedsMet && ok(overall)) {
+    for (const local of shorterClimbs(sides, climber, overall, start)) {
+      locals.push(local);
+      if (better(local, overall)) overall = local;
+    }
   }
   if (met.length === 0) {
     const { nearest, evaluated } = nearestStage(sides, pool, memos, climber);
