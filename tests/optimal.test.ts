@@ -566,6 +566,16 @@ const FEASIBLE: Case[] = [
     spec: { device: 'n', topology: 'cascode-stacked', current: 51e-6, rout: 1.21e6, headroom: 0.539, span: 1.41, objective: 'area', l: { min: 180e-9, max: 500e-9 } },
   },
   {
+    // Found by the random audit (tests/audit-random.test.ts, seed 20261332 #63): headroom 0.2920 V vs reference
+    // 0.2806 V (tool +11.4 mV). The headroom falls about 1 mV per 1 /V of the bottom's gm/ID along a valley on which
+    // the top's gm/ID falls twice as fast; ranked to 1 mV with ties settled by area, the climb ended on a plateau at
+    // 16.2 /V, and no valley slide of half a grid step gained. Found since longer slides follow when no shorter one
+    // gains (valley.ts STRIDES): 0.281 V with the bottom at 25.9 /V and the top at 11.6 /V.
+    // Reference design: l [2e-6, 1e-6], gm/ID [25.917, 12], setpoints [].
+    id: 'n180-cascode-stacked-headroom-audit4-s1332-63', kit: 'demo180', why: 'lowest headroom along a shallow valley of the two gm/IDs',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 62.3e-6, rout: 608e3, headroom: 0.307, span: 1.05, objective: 'headroom', l: { min: 1e-6, max: 2e-6 } },
+  },
+  {
     // Found by the random audit (tests/audit-random.test.ts, seed 20261332 #141): area 360.1e-12 m² vs reference
     // 258.4e-12 m² (tool +39.4 %). As for seed 20261322 #7: of the screen's designs only one, a 300 nm bottom under a
     // 500 nm top, met the targets, the 500 nm bottom's 12 mV above the headroom target. Found since the near misses of
