@@ -565,6 +565,37 @@ const FEASIBLE: Case[] = [
     id: 'nreed-cascode-stacked-area-audit4-s1322-7', kit: 'reed180', why: 'least area with a longer bottom and a shorter top than the only screened design meeting the targets',
     spec: { device: 'n', topology: 'cascode-stacked', current: 51e-6, rout: 1.21e6, headroom: 0.539, span: 1.41, objective: 'area', l: { min: 180e-9, max: 500e-9 } },
   },
+  {
+    // Found by the random audit (tests/audit-random.test.ts, seed 20261332 #17): area 161.4e-12 m² vs reference
+    // 146.7e-12 m² (tool +10 %). A 220 nm bottom meets the targets only between the screen's gm/ID grid points (28 to
+    // 29.7 /V: the headroom missed below, the width limit above), so no screened design had it; the climbs' length move
+    // to it at the same gm/ID missed by 0.61, beyond their reach, and the one climb went to the nearest other length
+    // choice. Found since the length moves also come with the moved device's gm/ID a step up or down, and the nearest
+    // moves of two length choices get a climb (refine.ts fromLengthMoves): 146.4e-12 m².
+    // Reference design: l [220e-9, 300e-9], gm/ID [28.5, 24.75], setpoints [].
+    id: 'n090-cascode-stacked-area-audit4-s1332-17', kit: 'demo090', why: 'least area with a short bottom that meets the targets only between grid points',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 202e-6, rout: 211e3, headroom: 0.407, span: 0.698, objective: 'area', l: { min: 220e-9, max: 400e-9 } },
+  },
+  {
+    // Found by the random audit (tests/audit-random.test.ts, seed 20261332 #63): headroom 0.2920 V vs reference
+    // 0.2806 V (tool +11.4 mV). The headroom falls about 1 mV per 1 /V of the bottom's gm/ID along a valley on which
+    // the top's gm/ID falls twice as fast; ranked to 1 mV with ties settled by area, the climb ended on a plateau at
+    // 16.2 /V, and no valley slide of half a grid step gained. Found since longer slides follow when no shorter one
+    // gains (valley.ts STRIDES): 0.281 V with the bottom at 25.9 /V and the top at 11.6 /V.
+    // Reference design: l [2e-6, 1e-6], gm/ID [25.917, 12], setpoints [].
+    id: 'n180-cascode-stacked-headroom-audit4-s1332-63', kit: 'demo180', why: 'lowest headroom along a shallow valley of the two gm/IDs',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 62.3e-6, rout: 608e3, headroom: 0.307, span: 1.05, objective: 'headroom', l: { min: 1e-6, max: 2e-6 } },
+  },
+  {
+    // Found by the random audit (tests/audit-random.test.ts, seed 20261332 #141): area 360.1e-12 m² vs reference
+    // 258.4e-12 m² (tool +39.4 %). As for seed 20261322 #7: of the screen's designs only one, a 300 nm bottom under a
+    // 500 nm top, met the targets, the 500 nm bottom's 12 mV above the headroom target. Found since the near misses of
+    // other length choices seed climbs too (size.ts seedsOf): 259.3e-12 m² with a 500 nm bottom under a 300 nm top; the
+    // climbs' length moves with a gm/ID step (refine.ts fromLengthMoves) alone find it too.
+    // Reference design: l [500e-9, 500e-9], gm/ID [26.25, 21], setpoints [].
+    id: 'nreed-cascode-stacked-area-audit4-s1332-141', kit: 'reed180', why: 'least area with a longer bottom than the screened designs meeting the targets',
+    spec: { device: 'n', topology: 'cascode-stacked', current: 34.6e-6, rout: 5.08e6, headroom: 0.587, span: 1.09, objective: 'area', l: { min: 180e-9, max: 500e-9 } },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {
