@@ -225,17 +225,41 @@ export class TableSlice implements LengthSlice {
     const vds = at[1];
     const vsb = at[2];
     if (vgs === this.atG && vds === this.atD && vsb === this.atS) return true;
-    const ig = this.lg.locateIn(at, 0);
-    const id = this.ld.locateIn(at, 1);
-    const is = this.ls.locateIn(at, 2);
+    // Each axis' last cell first, then its search: AxisLocator.locateIn written out (the same cell and fraction).
+    const lg = this.lg;
+    const ld = this.ld;
+    const ls = this.ls;
+    let ig: number, id: number, is: number;
+    let tg: number, td: number, ts: number;
+    if (vgs >= lg.cellLo && vgs < lg.cellHi) {
+      ig = lg.cell;
+      tg = (vgs - lg.cellLo) / lg.width + 0;
+    } else {
+      ig = lg.search(at, 0);
+      tg = lg.t;
+    }
+    if (vds >= ld.cellLo && vds < ld.cellHi) {
+      id = ld.cell;
+      td = (vds - ld.cellLo) / ld.width + 0;
+    } else {
+      id = ld.search(at, 1);
+      td = ld.t;
+    }
+    if (vsb >= ls.cellLo && vsb < ls.cellHi) {
+      is = ls.cell;
+      ts = (vsb - ls.cellLo) / ls.width + 0;
+    } else {
+      is = ls.search(at, 2);
+      ts = ls.t;
+    }
     if (ig < 0 || id < 0 || is < 0) return false;
     this.base = ig * this.stG + id * this.stD + is;
-    this.wG = this.lg.width;
-    this.wD = this.ld.width;
-    this.wS = this.ls.width;
-    this.tg = this.lg.t;
-    this.td = this.ld.t;
-    this.ts = this.ls.t;
+    this.wG = lg.width;
+    this.wD = ld.width;
+    this.wS = ls.width;
+    this.tg = tg;
+    this.td = td;
+    this.ts = ts;
     this.atG = vgs;
     this.atD = vds;
     this.atS = vsb;

@@ -25,11 +25,19 @@ export class AxisLocator {
   width = NaN;
   declare private readonly uniform: boolean;
   declare private readonly invStep: number;
-  // The last cell found, [cellLo, cellHi): lookups are local (Newton steps, sweeps), so most land in it again.
-  // Empty until a cell is found; never set on a single-point axis.
-  private cell = 0;
-  private cellLo = Infinity;
-  private cellHi = -Infinity;
+  /**
+   * The last cell found, [cellLo, cellHi): lookups are local (Newton steps, sweeps), so most land in it again.
+   * Empty until a cell is found; never set on a single-point axis. Read by TableSlice, which tries it itself
+   * (as locateIn does) before it calls `search`: a call per axis costs (the CLI runs without inlining).
+   */
+  cell = 0;
+  cellLo = Infinity;
+  cellHi = -Infinity;
+  // The cell found before it, tried next: lookups alternate between two cells (the devices of one length in a stack).
+  private prevCell = 0;
+  private prevLo = Infinity;
+  private prevHi = -Infinity;
+  private prevWidth = NaN;
   // locate's x, for locateIn.
   private readonly x = new Float64Array(1);
 
@@ -66,8 +74,14 @@ export class AxisLocator {
     return this.search(at, k);
   }
 
-  private search(at: Float64Array, k: number): number {
+  /** locateIn without trying the last cell first. */
+  search(at: Float64Array, k: number): number {
     const x = at[k];
+    if (x >= this.prevLo && x < this.prevHi) {
+      this.swapCells();
+      this.t = (x - this.cellLo) / this.width + 0;
+      return this.cell;
+    }
     if (!(x >= this.lo - this.tolerance && x <= this.hi + this.tolerance)) return -1;
     const last = this.n - 2;
     if (last < 0) {
@@ -81,12 +95,29 @@ export class AxisLocator {
     // grid, far less than a step, so never more); the node values decide. No-ops otherwise.
     i -= i > 0 && x < v[i] ? 1 : 0;
     i += i < last && x >= v[i + 1] ? 1 : 0;
+    if (i !== this.cell) this.swapCells();
     this.cell = i;
     this.cellLo = v[i];
     this.cellHi = v[i + 1];
     this.width = v[i + 1] - v[i];
     this.t = x <= this.lo ? 0 : x >= this.hi ? 1 : (x - v[i]) / this.width;
     return i;
+  }
+
+  // The last cell and the one before it change places.
+  private swapCells(): void {
+    const cell = this.cell;
+    const lo = this.cellLo;
+    const hi = this.cellHi;
+    const width = this.width;
+    this.cell = this.prevCell;
+    this.cellLo = this.prevLo;
+    this.cellHi = this.prevHi;
+    this.width = this.prevWidth;
+    this.prevCell = cell;
+    this.prevLo = lo;
+    this.prevHi = hi;
+    this.prevWidth = width;
   }
 }
 

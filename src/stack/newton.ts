@@ -38,9 +38,19 @@ export function newtonSolve(devices: readonly StackDevice[], gates: readonly num
       b[0] = gates[k] - x[k];
       b[1] = x[k + 1] - x[k];
       b[2] = x[k];
-      // A slice with exact slopes gives current and slopes from one lookup; others get differences below.
-      const ok = d.slice.jdSlopes ? currentAndSlopes(d, w, k) : ((exact = false), current(d, w, k));
-      if (!ok) return NaN;
+      // A slice with exact slopes gives current and slopes from one lookup (written out here: a call per device and
+      // pass costs, as the CLI runs without inlining); others get differences below. gmb is −∂I/∂VSB.
+      if (d.slice.jdSlopes) {
+        if (!d.slice.jdSlopes(b, js)) return NaN;
+        const wk = d.w;
+        w.id[k] = wk * js[0];
+        w.gm[k] = wk * js[1];
+        w.gds[k] = wk * js[2];
+        w.gmb[k] = -wk * js[3];
+      } else {
+        exact = false;
+        if (!current(d, w, k)) return NaN;
+      }
       const id = w.id[k];
       // Tests that run on every pass, then a plain assignment: code only run without a start current would deopt the
       // compiled loop the first time it runs.
@@ -100,17 +110,6 @@ function current(d: StackDevice, p: Pass, k: number): boolean {
 }
 
 const js = new Float64Array(4);
-
-/** Current and its exact slopes (the interpolant's derivatives, gmb as −∂I/∂VSB) at device k's bias in the pass into the pass; false outside the table. */
-function currentAndSlopes(d: StackDevice, p: Pass, k: number): boolean {
-  if (!d.slice.jdSlopes!(p.bias[k], js)) return false;
-  const w = d.w;
-  p.id[k] = w * js[0];
-  p.gm[k] = w * js[1];
-  p.gds[k] = w * js[2];
-  p.gmb[k] = -w * js[3];
-  return true;
-}
 
 /** Slopes of the current along VGS, VDS and VSB from jd alone at device k's bias in the pass (gmb as −∂I/∂VSB). */
 function slopes(d: StackDevice, p: Pass, k: number): void {

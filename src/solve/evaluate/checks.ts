@@ -9,10 +9,17 @@ export type Target = 'rout' | 'headroom' | 'iout' | 'mismatch' | 'saturation' | 
 
 /** Index of the device below the top one with the least VDS − VDSsat at mid-span, −1 for a single device. */
 export function leastSaturated(ev: Pick<StackEval, 'mid' | 'vdsat'>): number {
+  // Each device's values read once: they are getters over a packed point, costly before this is compiled.
+  const devices = ev.mid.devices;
+  const vdsat = ev.vdsat;
   let worst = -1;
-  for (let k = 0; k < ev.mid.devices.length - 1; k++) {
-    const slack = ev.mid.devices[k].vds - ev.vdsat[k];
-    if (worst < 0 || slack < ev.mid.devices[worst].vds - ev.vdsat[worst]) worst = k;
+  let least = NaN;
+  for (let k = 0; k < devices.length - 1; k++) {
+    const slack = devices[k].vds - vdsat[k];
+    if (worst < 0 || slack < least) {
+      worst = k;
+      least = slack;
+    }
   }
   return worst;
 }
