@@ -7,7 +7,7 @@ import { makeContext } from '../src/solve/context.js';
 import { evaluateCandidate, finalize, nominalOk } from '../src/solve/evaluate/evaluate.js';
 import { demoKit, ensureDemoTables } from './helpers/cli.js';
 import { exhaustive, type Grid, type RefDesign } from './helpers/exhaustive.js';
-import { stageExhaustive, stageNearestExhaustive, stageOf, type StageGrid } from './helpers/stage-exhaustive.js';
+import { heldOnGrid, stageExhaustive, stageNearestExhaustive, stageOf, type StageGrid } from './helpers/stage-exhaustive.js';
 import type { Nearest } from '../src/solve/nearest.js';
 // A seeded generator (mulberry32), so a seed always draws the same specs.
 import { seededRandom } from '../scripts/bench/stats.js';
@@ -26,7 +26,9 @@ import { seededRandom } from '../scripts/bench/stats.js';
  * up to the span" counts as a miss when the reference's design meets the Rout target, and when only the tool finds
  * one, that design is judged by the reference's code: kind nearHclaim). Gain stages: the checks and tolerances of
  * tests/stage-nearest.test.ts against stageNearestExhaustive on the draw's grid (kinds nearPeak, nearSwing, nearHeld),
- * a figure of the tool's above the reference's bounds confirmed on a grid twice as fine (the climbs leave the grid).
+ * a figure of the tool's above the reference's bounds confirmed on a grid twice as fine (the climbs leave the grid),
+ * and then counted only when no design backs it (claimBacked: re-sized with that figure as its target, judged on its
+ * traced curve by the reference's definition).
  * The final line counts the infeasible specs so checked.
  *
  *   STACKWRIGHT_AUDIT_SEED=20261301 [STACKWRIGHT_AUDIT_COUNT=40] [STACKWRIGHT_AUDIT_KIND=stacks|stages|both]
@@ -241,11 +243,31 @@ function auditStage(kits: Record<string, Kit>, kit: string, stage: StageSpec, gr
       near = stageNearestExhaustive(stage, kits[kit], SUPPLY[kit], 'tt', g);
       why = stageNearMiss(stage, tool, near);
     }
+    // Still above: no miss if a design backs the tool's figure, judged by the reference's own definition on the
+    // design's traced curve (the optimum can sit between any grid's setpoints, on a saturation margin of a millivolt).
+    if (why?.[2] && (why[0] === 'nearHeld' || why[0] === 'nearSwing') && claimBacked(kits[kit], kit, stage, tool, why[0])) return null;
     return why ? m(why[1], why[0], { grid: g, peak: near.peak, held: near.held, swing: near.swing }) : null;
   }
   if (!tool.feasible) return m('called infeasible; the reference found a design');
   if (tool.predicted.area > 1.05 * ref.best.area) return m(`area ${tool.predicted.area.toPrecision(4)} m², reference ${ref.best.area.toPrecision(4)} m²`);
   return null;
+}
+
+/**
+ * True when the tool's nearest figure of `kind` (the gain held over the swing target, or the swing at the gain target)
+ * is backed by a design: the stage re-sized with that figure (less 0.1 %) as its target is feasible, and its traced
+ * curve (20 mV samples) holds the claimed gain over the claimed swing by heldOnGrid, the reference's definition.
+ */
+function claimBacked(k: Kit, kit: string, stage: StageSpec, tool: StageResult, kind: 'nearHeld' | 'nearSwing'): boolean {
+  const near = tool.nearest!;
+  const gain = kind === 'nearHeld' ? near.gainAtSwing : stage.gain;
+  const swing = kind === 'nearSwing' ? near.swingAtGain : stage.swing;
+  const r = sizeStage({ ...stage, gain: gain * 0.999, swing: swing - 0.001 }, k, { supply: SUPPLY[kit], corners: ['tt'] }).results[0];
+  if (!r.feasible || r.curve.length < 2) return false;
+  const vs = r.curve.map((p) => p.vout);
+  let j0 = 0;
+  for (let j = 1; j < vs.length; j++) if (Math.abs(vs[j] - stage.output) < Math.abs(vs[j0] - stage.output)) j0 = j;
+  return heldOnGrid(vs, r.curve.map((p) => p.gain), j0, swing - 0.001) >= 0.99 * gain;
 }
 
 /**

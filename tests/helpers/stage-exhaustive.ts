@@ -244,7 +244,7 @@ export interface StageNearestAnswer {
 }
 
 /** Gain held over `width` on a sampled curve: max over windows containing the design point of the min gain (linear between samples). */
-function heldOnGrid(vs: ArrayLike<number>, gains: ArrayLike<number>, j0: number, width: number): number {
+export function heldOnGrid(vs: ArrayLike<number>, gains: ArrayLike<number>, j0: number, width: number): number {
   const n = vs.length;
   const at = (v: number): number => {
     let k = 0;
