@@ -396,6 +396,18 @@ const cases: StageCase[] = [
     stage: { ...stageOf({ gain: 28.9e3, swing: 0.852, output: 1.07, input: 'p', inputTopology: 'cascode', load: 'cascode', l: [1e-6, 1.4e-6], gmid: [8, 20], loadL: [700e-9, 700e-9] }), current: 34.6e-6 },
     why: WHY_RIDGE_CURVED,
   },
+  {
+    // Found by the random audit (tests/audit-random.test.ts, seed 20261362 #24): area 5.274e-12 m² vs reference
+    // 3.256e-12 m² (tool +62 %; 3.069e-12 m² since). Reference pair: input l [300e-9, 300e-9], gm/ID [22, 10], setpoints
+    // [0.45]; load l [90e-9, 90e-9], gm/ID [10, 10], setpoints [].
+    id: 'demo090: p cascode input, n cascode-stacked load, gain 15.2 over 0.764 V (audit seed 20261362 #24)', kit: 'demo090', grid: { gmidPoints: 4, vStep: 0.1 },
+    stage: {
+      current: 5e-6, gain: 15.2, swing: 0.764, output: 0.496, objective: 'area',
+      input: { device: 'p', topology: 'cascode', l: { min: 300e-9, max: 400e-9 }, gmid: { min: 10, max: 22 } },
+      load: { topology: 'cascode-stacked', l: { min: 90e-9, max: 90e-9 }, gmid: { min: 10, max: 22 } },
+    } as Omit<StageSpec, 'name'>,
+    why: 'the stacked-cascode loads screened at the shares cap the gain 6 × above the target, below the spare-Rout screen\'s 10 ×, and the smallest pair spends that on headroom (both load devices at the bottom gm/ID, saturated only at the design point, more swing than at any gm/ID between), which even that screen, 50 mV short of the design stack voltage, did not reach; with the swing so won the input cascode goes to the bottom gm/ID too',
+  },
 ];
 
 describe('gain-stage search against an exhaustive reference (objective area, tt)', () => {

@@ -39,6 +39,18 @@ const ROOM_MIN = 0.02;
  * gm) for the load to be screened with all its headroom too (see spareRout).
  */
 const SPARE_ROUT = 10;
+/**
+ * SPARE_ROUT for a load without setpoints (a stacked cascode): its headroom is set by its gm/IDs alone, so the smallest
+ * pairs spend less spare Rout on it (both devices at the bottom gm/ID, saturated only at the design point), and its
+ * screen with all the headroom costs one screen (no split of the headroom among setpoints).
+ */
+const SPARE_ROUT_FIXED = 4;
+/**
+ * How far below its design stack voltage a side's roomy screen puts its headroom, V: a design needs its devices
+ * saturated at the design point only, and a load with Rout to spare is often smallest right at that edge (a stacked
+ * cascode at the bottom gm/ID), past the 50 mV the other screens keep from it.
+ */
+const ROOMY_EDGE = 0.01;
 /** A middling input gm/ID, 1/V: the derived Rout target of a side screen assumes it (see sideRout). */
 const MIDDLING_GMID = 12;
 
@@ -128,6 +140,7 @@ export function makeSide(stage: StageSpec, kind: SideKind, kit: KitAccess, suppl
  */
 export function sideCandidates(stage: StageSpec, side: Side, topology: Topology, supply: number, roomy = false): Candidate[] {
   if (topology === 'single') return singleCandidates(side);
+  if (roomy) return screenAt(side, topology, sideRout(stage), side.vd - ROOMY_EDGE);
   const free = Math.max(supply - stage.swing, 0.1);
   const [lo, hi] = headroomRange(side.vd, supply);
   const rout = sideRout(stage);
@@ -135,7 +148,7 @@ export function sideCandidates(stage: StageSpec, side: Side, topology: Topology,
   const add = (cands: readonly Candidate[]) => {
     for (const c of cands) seen.set(seen.key(c), c);
   };
-  for (const share of roomy ? [] : sharesOf(stage, side.kind)) add(screenAt(side, topology, rout, Math.min(Math.max(share * free, lo), hi)));
+  for (const share of sharesOf(stage, side.kind)) add(screenAt(side, topology, rout, Math.min(Math.max(share * free, lo), hi)));
   // The input side's gain is gm·Rout, its gm set by the input device's gm/ID: at the top of the range it needs the
   // least Rout, and a stack screen ranking by area alone never proposes it (a higher gm/ID only costs width). Such
   // inputs, at their least headroom, leave the load the most room, which the smallest pairs often spend on a long
@@ -143,7 +156,7 @@ export function sideCandidates(stage: StageSpec, side: Side, topology: Topology,
   // That screen still gives its input device the lowest gm/ID meeting the Rout (by area), less gm than the target
   // assumed: its designs also with the input device at the top gm/ID, whose gain lets the smallest pairs have a
   // shorter load.
-  if (!roomy && side.kind === 'input') {
+  if (side.kind === 'input') {
     const top = side.ctx.gmids[side.ctx.gmids.length - 1];
     const lean = screenAt(side, topology, (2 * stage.gain) / (top * stage.current), lo);
     add(lean);
@@ -175,15 +188,16 @@ function screenAt(side: Side, topology: Topology, rout: number, h: number): Cand
 
 /**
  * True when every load design has far more Rout at the design point than the gain needs: with the input of the
- * highest gm (`gmMax`) it alone caps the gain above SPARE_ROUT × the target. The smallest pairs then spend the spare
+ * highest gm (`gmMax`) it alone caps the gain above SPARE_ROUT (SPARE_ROUT_FIXED) × the target. The smallest pairs then spend the spare
  * Rout on headroom, the load's devices at low gm/ID run past their saturation edge (the top one over a high setpoint
  * below it, or a stacked cascode's pair at low gm/ID, which has no setpoint to trade), which no share's screen
  * proposes (each keeps every device saturated within its share). The derived target sideRout does not tell: a
  * screen held by its headroom share gives loads far above it whenever the share forces high gm/ID.
  */
 export function spareRout(stage: StageSpec, loads: readonly SideDesign[], j0: number, gmMax: number): boolean {
-  const need = (SPARE_ROUT * stage.gain) / gmMax;
-  return loads.length > 0 && loads.every((d) => d.rout[j0] > need);
+  if (loads.length === 0) return false;
+  const need = ((loads[0].cand.setpoints.length === 0 ? SPARE_ROUT_FIXED : SPARE_ROUT) * stage.gain) / gmMax;
+  return loads.every((d) => d.rout[j0] > need);
 }
 
 /**
