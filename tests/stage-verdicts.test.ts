@@ -69,6 +69,24 @@ describe('trade front of a gain stage', () => {
     expect(front.length).toBeGreaterThan(10);
     for (const p of front) expect(p.gainAtSwing >= stage.gain, `swing ${p.swing} V, held gain ${p.gainAtSwing}`).toBe(p.swing >= stage.swing - 1e-9);
   });
+
+  it('a swing its edge bisections leave short of the target by less than their resolution is decided (demo090, audit seed 20261372 #2)', () => {
+    // Each swing edge is bisected to 0.5 mV and lies up to that inside the true one, while the gain held over the
+    // swing target solves its window ends on the circuit. A design read 715.94 mV at the gain target 468 beside a
+    // held gain of 470.4 over 716 mV, and the stage was called infeasible with both as its nearest points; the held
+    // gain proves a swing of at least 716 mV (swing ≥ S ⇔ held gain ≥ G, as above).
+    const stage = {
+      name: 's72', current: 10e-6, gain: 468, swing: 0.716, output: 0.697, objective: 'area',
+      input: { device: 'n', topology: 'cascode', l: { min: 220e-9, max: 300e-9 }, gmid: { min: 10, max: 22 } },
+      load: { topology: 'cascode', l: { min: 550e-9, max: 550e-9 }, gmid: { min: 10, max: 22 } },
+    } as StageSpec;
+    const { results: [r], front } = sizeStage(stage, kits.demo090, { supply: 1.2, corners: ['tt'] });
+    for (const p of front) expect(p.gainAtSwing >= stage.gain, `swing ${p.swing} V, held gain ${p.gainAtSwing}`).toBe(p.swing >= stage.swing - 1e-9);
+    const near = r.nearest;
+    if (near) expect(near.gainAtSwing >= stage.gain || near.swingAtGain >= stage.swing - 1e-9, `held ${near.gainAtSwing}, swing ${near.swingAtGain} V`).toBe(false);
+    expect(r.feasible).toBe(true);
+    expect(r.predicted.swing).toBeGreaterThanOrEqual(stage.swing - 1e-9);
+  });
 });
 
 describe('width limit of a gain stage', () => {

@@ -22,6 +22,8 @@ export interface StageAt {
   gain: number;
   /** Best gain held over the swing target. */
   gainAtSwing: number;
+  /** Whether gainAtSwing has its window ends solved on the circuit (heldGain), else it is read off the search grid. */
+  heldSolved: boolean;
   gbw: number | null;
   cout: number | null;
   /** Fixed gates (stack coordinates): input cascode gate (if any), load gates. */
@@ -77,7 +79,7 @@ export function stageAt(sides: StageSides, corner: string, circuit: StageCircuit
   // at the design point and the last grid points inside the swing edges, where a move's swing check (stage-refine
   // surelyMisses) solves nearby.
   const search = step >= SEARCH_STEP;
-  const trace = traceStage(circuit, stage.output, stage.gain, { step, keep: search ? 'design' : 'all' });
+  const trace = traceStage(circuit, stage.output, stage.gain, { step, keep: search ? 'design' : 'all', swing: solveHeld ? stage.swing : undefined });
   const p = trace.points[trace.j0];
   const cout = coutOf(circuit, p);
   // The search ranks on the grid estimate; reported designs (and the nearest points' climb) have the interval ends
@@ -92,6 +94,7 @@ export function stageAt(sides: StageSides, corner: string, circuit: StageCircuit
     corner, circuit, trace, gates,
     gain: trace.gains[trace.j0],
     gainAtSwing,
+    heldSolved: solveHeld,
     gbw: p ? gbwOf(stage, p.gm, cout) : null,
     cout,
   };
@@ -147,7 +150,7 @@ export type PairJudge = 'search' | 'held' | 'point';
 function pointAt(sides: StageSides, corner: string, circuit: StageCircuit, gates: StageAt['gates']): StageAt {
   const p = stagePoint(circuit, sides.stage.output);
   const trace: StageTrace = { vs: Float64Array.of(sides.stage.output), gains: Float64Array.of(p ? p.gain : 0), points: [p], samples: [p && sampleOf(p)], j0: 0, vlow: null, vhigh: null, swing: 0 };
-  return { corner, circuit, trace, gates, gain: trace.gains[0], gainAtSwing: 0, gbw: null, cout: null };
+  return { corner, circuit, trace, gates, gain: trace.gains[0], gainAtSwing: 0, heldSolved: false, gbw: null, cout: null };
 }
 
 /**

@@ -97,7 +97,7 @@ export function stageAsIs(r: StageResult, spec: StageSpec, kit: KitAccess, corne
       input: { devices: devicesOn(kit, corner, r.input), cascodeGate: ig[0] },
       load: { devices: devicesOn(kit, corner, r.load), gates: lg },
     };
-    const trace = traceStage(circuit, spec.output, spec.gain, { step: TRACE_STEP });
+    const trace = traceStage(circuit, spec.output, spec.gain, { step: TRACE_STEP, swing: spec.swing });
     const p = trace.points[trace.j0];
     const gbw = p ? gbwOf(spec, p.gm, null) : null;
     const railsOk = !p || vinMargin(p.vin, supply) >= 0;

@@ -300,9 +300,10 @@ export function stageFrontPoint(sides: StageSides, d: StageDesign): StageFrontPo
     load: d.load.cand.topology,
     gain: d.nominal.gain,
     swing: d.nominal.trace.swing,
-    // A search-grid trace's held gain is read off its 50 mV samples, up to half its value low at steep swing edges;
-    // with the solved edges as samples a point reaching the swing target shows at least the gain target over it.
-    gainAtSwing: Math.max(d.nominal.gainAtSwing, gainOverSwingWithEdges(t.vs, t.gains, t.j0, sides.stage.swing, t, sides.stage.gain)),
+    // A search-grid trace's held gain is read off its 50 mV samples, linear across a swing edge: up to half its value
+    // low at a steep one, or above the gain target for a window past it. With the solved edges as samples a point
+    // shows the gain target held over the swing target exactly when its swing reaches it.
+    gainAtSwing: Math.max(d.nominal.heldSolved ? d.nominal.gainAtSwing : 0, gainOverSwingWithEdges(t.vs, t.gains, t.j0, sides.stage.swing, t, sides.stage.gain)),
     area: d.area,
     feasible: nominalOk(sides.stage, d) && (d.corners === undefined ? sides.input.ctx.corners.length === 1 : d.corners.every((c) => meets(stageMargins(sides.stage, c)))),
     devices: { input: side(d.input), load: side(d.load) },

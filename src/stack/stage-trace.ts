@@ -3,6 +3,11 @@ import { sampleOf, stagePoint, stageSample, type StageCircuit, type StagePoint, 
 import { swingEdge } from './stage-edge.js';
 import { holdingRun, indexOf, outputGrid } from './stage-swing.js';
 
+/** Finest resolution a swing edge is refined to near the swing target, V. */
+const FINEST_EDGE = 1e-8;
+/** How far below its target a swing still meets it, V (the feasibility checks' allowance for rounding, as stage-port). */
+const SWING_TOLERANCE = 1e-9;
+
 /** A stage's transfer curve on an output grid through the design point, with its swing. */
 export interface StageTrace {
   /** Output voltages of the grid, ascending, V. */
@@ -28,7 +33,7 @@ export interface StageTrace {
  * end of the grid stays there (the circuit holds the gain up to the last point). `keep` 'design': of the solved
  * points only the design point's is built whole (the others' gains and samples are the same).
  */
-export function traceStage(c: StageCircuit, output: number, target: number, opts: { step: number; resolution?: number; keep?: 'all' | 'design' }): StageTrace {
+export function traceStage(c: StageCircuit, output: number, target: number, opts: { step: number; resolution?: number; keep?: 'all' | 'design'; swing?: number }): StageTrace {
   const vs = outputGrid(output, c.supply, opts.step);
   const j0 = indexOf(vs, output);
   const points: Array<StagePoint | null> = new Array(vs.length).fill(null);
@@ -59,15 +64,28 @@ export function traceStage(c: StageCircuit, output: number, target: number, opts
   for (let j = j0 - 1; j >= 0; j--) g = at(j, g);
   // No swing where the design point misses the target (as swingOnGrid).
   if (!(gains[j0] >= target)) return { vs, gains, points, samples, j0, vlow: null, vhigh: null, swing: 0 };
-  const res = opts.resolution ?? 5e-4;
   const solve = (v: number, near: StageSample | null): StageSample | null => stageSample(c, v, near?.load, near ?? undefined);
-  const edge = (inside: number, outside: number): number => swingEdge(solve, vs[inside], vs[outside], gains[inside], gains[outside], target, res, samples[inside]);
   const { lo, hi } = holdingRun(gains, j0, target);
-  const vlow = lo > 0 ? edge(lo, lo - 1) : vs[lo];
-  const vhigh = hi < vs.length - 1 ? edge(hi, hi + 1) : vs[hi];
-  // The edges lie on a sub-mV bisection of decimal grid voltages: their difference is cleared of binary rounding
-  // (1.5075 − 0.2875 = 1.2199999999999998), so a swing that meets its target reads so wherever it is shown.
-  return { vs, gains, points, samples, j0, vlow, vhigh, swing: Math.round((vhigh - vlow) * 1e12) / 1e12 };
+  const edges = (res: number): { vlow: number; vhigh: number; swing: number } => {
+    const edge = (inside: number, outside: number): number => swingEdge(solve, vs[inside], vs[outside], gains[inside], gains[outside], target, res, samples[inside]);
+    const vlow = lo > 0 ? edge(lo, lo - 1) : vs[lo];
+    const vhigh = hi < vs.length - 1 ? edge(hi, hi + 1) : vs[hi];
+    // The edges lie on a sub-mV bisection of decimal grid voltages: their difference is cleared of binary rounding
+    // (1.5075 − 0.2875 = 1.2199999999999998), so a swing that meets its target reads so wherever it is shown.
+    return { vlow, vhigh, swing: Math.round((vhigh - vlow) * 1e12) / 1e12 };
+  };
+  let res = opts.resolution ?? 5e-4;
+  let e = edges(res);
+  // Each bisected edge lies up to `res` inside the true one: a swing that much short of its target may yet meet it,
+  // as the gain held over the target's width (heldGain, its window ends solved) then shows; so the edges are refined
+  // until the verdict is decided.
+  const slack = (lo > 0 ? 1 : 0) + (hi < vs.length - 1 ? 1 : 0);
+  const wanted = opts.swing;
+  while (wanted !== undefined && e.swing < wanted - SWING_TOLERANCE && e.swing + slack * res >= wanted && res > FINEST_EDGE) {
+    res /= 16;
+    e = edges(res);
+  }
+  return { vs, gains, points, samples, j0, ...e };
 }
 
 /**
@@ -78,10 +96,16 @@ export function traceStage(c: StageCircuit, output: number, target: number, opts
  * 0 when no interval of that width fits between the rails.
  */
 export function heldGain(c: StageCircuit, trace: StageTrace, width: number, resolution = 1e-4): number {
-  const { vs, gains, j0 } = trace;
+  const { vs, gains, j0, vlow, vhigh } = trace;
   const output = vs[j0];
   let lo = Math.max(vs[0], output - width);
   let hi = Math.min(output, vs[vs.length - 1] - width);
+  // A swing covering the width holds the best window (an end past a swing edge reads below the target): its ends
+  // stay between the solved edges, where a window as wide as the swing itself ends on both, at the gain target.
+  if (vlow !== null && vhigh !== null && trace.swing >= width - SWING_TOLERANCE) {
+    lo = Math.max(lo, vlow);
+    hi = Math.max(lo, Math.min(hi, vhigh - width));
+  }
   if (!(hi >= lo)) return 0;
   const gainAt = (v: number): number => {
     const q = nearestSample(trace, v);

@@ -208,7 +208,7 @@ export function stageExhaustive(stage: StageSpec, kit: KitAccess, supply: number
     traced++;
     let t;
     try {
-      t = traceStage(circuit, stage.output, stage.gain, { step: 0.02 });
+      t = traceStage(circuit, stage.output, stage.gain, { step: 0.02, swing: stage.swing });
     } catch {
       continue;
     }
@@ -314,7 +314,7 @@ export function stageNearestExhaustive(stage: StageSpec, kit: KitAccess, supply:
     const c = circuit(k);
     let t;
     try {
-      t = traceStage(c, stage.output, stage.gain, { step: 0.02 });
+      t = traceStage(c, stage.output, stage.gain, { step: 0.02, swing: stage.swing });
     } catch {
       continue;
     }
