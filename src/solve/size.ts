@@ -24,6 +24,8 @@ import { bottomRoom, diodeRoomCandidates, narrowestDesign, bottomsTooNarrow } fr
 import { setpointRoomCandidates } from './search/setpoint-room.js';
 import { fromSetpointLine } from './search/setpoint-line.js';
 import { alongValley } from './search/valley.js';
+import { fromOtherSide } from './search/setpoint-side.js';
+import { fromWidest } from './search/widest-probe.js';
 import type { StageFrontPoint } from './stage-types.js';
 import { toWidthLimit, widestAt } from './search/width-edge.js';
 
@@ -252,6 +254,8 @@ function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool:
     const coarse = refine(ctx, [...seeds, ...far], seen, pool, undefined, undefined, CLIMB_ROUNDS, 2);
     if (coarse && better(ctx, coarse, best)) best = coarse;
   }
+  best = fromWidest(ctx, best, seen, pool);
+  best = fromOtherSide(ctx, first, best, seen, pool);
   best = fromSetpointLine(ctx, best, seen, pool);
   best = alongValley(ctx, best, seen, pool);
   // The report uses the full curve; if that loses a target the scan met, take the next best.
