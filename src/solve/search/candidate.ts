@@ -1,4 +1,5 @@
 import type { Candidate } from '../../topology/types.js';
+import type { SolveContext } from '../context.js';
 
 export type { Candidate };
 
@@ -13,6 +14,16 @@ export function coordinates(c: Candidate): number[] {
 /** `c` with setpoint k at v, rounded to the candidate key's µV grid (so the same point reached twice has one key). */
 export function withSetpoint(c: Candidate, k: number, v: number): Candidate {
   return { topology: c.topology, l: c.l, gmid: c.gmid, setpoints: c.setpoints.map((x, j) => (j === k ? Math.round(v * 1e6) / 1e6 : x)) };
+}
+
+/** `c` with device k's gm/ID at g, rounded to 1e-9 (so the same point reached twice has one key). */
+export function withGmid(c: Candidate, k: number, g: number): Candidate {
+  return { topology: c.topology, l: c.l, gmid: c.gmid.map((v, j) => (j === k ? Math.round(g * 1e9) / 1e9 : v)), setpoints: c.setpoints };
+}
+
+/** Whether gm/ID g lies within the search's gm/ID range (to 1e-9, for values stepped onto its ends). */
+export function gmidInRange(ctx: SolveContext, g: number): boolean {
+  return g >= ctx.gmids[0] - 1e-9 && g <= ctx.gmids[ctx.gmids.length - 1] + 1e-9;
 }
 
 /** One value per continuous coordinate of `c` (see coordinates): `gmid` for each device's gm/ID, `setpoint` for each setpoint. */

@@ -1,6 +1,6 @@
 import { topologyOf } from '../../topology/index.js';
 import type { Candidate } from './candidate.js';
-import { perCoordinate, SETPOINT_MIN, withSetpoint } from './candidate.js';
+import { gmidInRange, perCoordinate, SETPOINT_MIN, withSetpoint } from './candidate.js';
 import type { SolveContext } from '../context.js';
 import { candidateWidths, evaluateCandidate, fullyOk, type Evaluated, type Start } from '../evaluate/evaluate.js';
 import { distanceToFeasible, REL_TOL } from '../../policy.js';
@@ -463,7 +463,7 @@ function climb(
       plain.push(d);
       for (const sign of [-1, 1]) {
         const g = c.gmid[k] + (sign * ctx.gmidStep) / 2;
-        if (g >= ctx.gmids[0] - 1e-9 && g <= ctx.gmids[ctx.gmids.length - 1] + 1e-9) plain.push({ ...d, gmid: c.gmid.map((x, i) => (i === k ? g : x)) });
+        if (gmidInRange(ctx, g)) plain.push({ ...d, gmid: c.gmid.map((x, i) => (i === k ? g : x)) });
       }
       const r = raisedToLimit(ctx, d, k);
       if (r) raised.push(r);

@@ -1,6 +1,6 @@
 import type { SolveContext } from '../context.js';
 import { fullyOk, type Evaluated } from '../evaluate/evaluate.js';
-import type { Candidate } from './candidate.js';
+import { gmidInRange, withGmid, type Candidate } from './candidate.js';
 import { better } from './rank.js';
 import { evaluateToPool, refine, type Seen } from './refine.js';
 
@@ -39,7 +39,7 @@ export function alongValley(ctx: SolveContext, best: Evaluated, seen: Seen, pool
         const row = (first + r) % rows.length;
         const [a, sign] = rows[row];
         const x = best.cand.gmid[a] + sign * STRIDES[s] * step;
-        if (!inRange(ctx, x)) continue;
+        if (!gmidInRange(ctx, x)) continue;
         const e = lineBest(ctx, withGmid(best.cand, a, x), 1 - a, step, evaluate);
         if (e && better(ctx, e, best)) {
           next = e;
@@ -59,7 +59,7 @@ export function alongValley(ctx: SolveContext, best: Evaluated, seen: Seen, pool
  * doubling while they improve, then halving around the best down to ROW_FINEST of a step.
  */
 function lineBest(ctx: SolveContext, from: Candidate, b: number, step: number, evaluate: (c: Candidate) => Evaluated | null): Evaluated | null {
-  const at = (g: number): Evaluated | null => (inRange(ctx, g) ? evaluate(withGmid(from, b, g)) : null);
+  const at = (g: number): Evaluated | null => (gmidInRange(ctx, g) ? evaluate(withGmid(from, b, g)) : null);
   const wins = (e: Evaluated | null, than: Evaluated | null): e is Evaluated => e !== null && (than === null || better(ctx, e, than));
   let x = from.gmid[b];
   let cur = at(x);
@@ -91,13 +91,4 @@ function lineBest(ctx: SolveContext, from: Candidate, b: number, step: number, e
     }
   }
   return cur;
-}
-
-function inRange(ctx: SolveContext, g: number): boolean {
-  return g >= ctx.gmids[0] - 1e-9 && g <= ctx.gmids[ctx.gmids.length - 1] + 1e-9;
-}
-
-/** `c` with device k's gm/ID set to g (to 1e-9: the same point reached twice has one key). */
-function withGmid(c: Candidate, k: number, g: number): Candidate {
-  return { topology: c.topology, l: c.l, gmid: c.gmid.map((v, j) => (j === k ? Math.round(g * 1e9) / 1e9 : v)), setpoints: c.setpoints };
 }
