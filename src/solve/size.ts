@@ -8,7 +8,7 @@ import type { KitAccess } from './kit.js';
 import { checkStageCover, checkTableCover } from './table-cover.js';
 import { makeContext, type SolveContext } from './context.js';
 import { screen } from './search/screen.js';
-import { CLIMB_ROUNDS, evaluateOnce, refine, settle, type Seen } from './search/refine.js';
+import { CLIMB_ROUNDS, evaluateOnce, evaluateToPool, refine, settle, type Seen } from './search/refine.js';
 import { reuseOf, type Reuse } from './search/reuse.js';
 import { CandidateMap } from './search/candidate-map.js';
 import type { Candidate } from './search/candidate.js';
@@ -84,13 +84,17 @@ function seedsOf(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[],
   const lengths = (e: Evaluated) => e.cand.l.join(',');
   const taken = new Set([lengths(best)]);
   const seeds = [best];
+  // e as a seed when its length choice has none yet.
+  const takeLengths = (e: Evaluated): void => {
+    if (taken.has(lengths(e))) return;
+    taken.add(lengths(e));
+    seeds.push(e);
+  };
   for (const e of rest) {
     if (seeds.length >= (ok || !ctx.meetOnly ? SEEDS : NEAREST)) break;
     if (ok && !near(ctx.spec.objective, e, best)) break;
     if (!ok && seeds.length >= NEAREST && distanceToFeasible(e.margins) > reach) continue;
-    if (taken.has(lengths(e))) continue;
-    taken.add(lengths(e));
-    seeds.push(e);
+    takeLengths(e);
   }
   // Seeds to spare after every near length choice: near designs of a length choice already taken at other setpoints.
   // Designs of one length choice can lie in separate basins along the setpoints (audit3 A3-15: a triple's bottom at
@@ -116,9 +120,7 @@ function seedsOf(ctx: SolveContext, best: Evaluated, pool: readonly Evaluated[],
       .sort((a, b) => distanceToFeasible(a.margins) - distanceToFeasible(b.margins));
     for (const e of missing) {
       if (seeds.length >= SEEDS) break;
-      if (taken.has(lengths(e))) continue;
-      taken.add(lengths(e));
-      seeds.push(e);
+      takeLengths(e);
     }
   }
   // Short of the targets with every other design of the same lengths (a pool of a few designs: the screen's candidates
@@ -176,10 +178,8 @@ function widestOfShortLengths(ctx: SolveContext, best: Evaluated, pool: Evaluate
   for (const [k, e] of nearest) {
     const c = met.has(k) ? null : widestAt(ctx, e.cand);
     if (!c || seen.has(seen.key(c))) continue;
-    const w = evaluateOnce(ctx, c, seen);
-    if (!w) continue;
-    pool.push(w);
-    if (fullyOk(ctx, w) && near('rout', w, best)) out.push(w);
+    const w = evaluateToPool(ctx, c, seen, pool);
+    if (w && fullyOk(ctx, w) && near('rout', w, best)) out.push(w);
   }
   return out;
 }
