@@ -169,12 +169,12 @@ export function sideCandidates(stage: StageSpec, side: Side, topology: Topology,
   return [...seen.values()];
 }
 
-/** The stack screen of one side with derived targets: Rout `rout`, headroom `h` and the span to match; the side's own spec is kept. */
 /** An input-side candidate with its input device (the bottom) at the top of the side's gm/ID range. */
 export function inputAtTop(side: Side, c: Candidate): Candidate {
   return { ...c, gmid: [side.ctx.gmids[side.ctx.gmids.length - 1], ...c.gmid.slice(1)] };
 }
 
+/** The stack screen of one side with derived targets: Rout `rout`, headroom `h` and the span to match; the side's own spec is kept. */
 function screenAt(side: Side, topology: Topology, rout: number, h: number): Candidate[] {
   const ctx = side.ctx;
   const base = ctx.spec;
