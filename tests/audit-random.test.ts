@@ -8,7 +8,7 @@ import { evaluateCandidate, finalize, nominalOk } from '../src/solve/evaluate/ev
 import { demoKit, ensureDemoTables } from './helpers/cli.js';
 import { exhaustive, type Grid, type RefDesign } from './helpers/exhaustive.js';
 import { heldOnGrid, stageExhaustive, stageNearestExhaustive, stageOf, type StageGrid } from './helpers/stage-exhaustive.js';
-import type { Nearest } from '../src/solve/nearest.js';
+import { captured } from './helpers/nearest-capture.js';
 // A seeded generator (mulberry32), so a seed always draws the same specs.
 import { seededRandom } from '../scripts/bench/stats.js';
 
@@ -40,18 +40,8 @@ import { seededRandom } from '../scripts/bench/stats.js';
  */
 
 // The design behind the tool's nearest headroom, as the search hands it to the report (judged when only the tool finds one).
-const seen: Nearest[] = [];
-vi.mock('../src/solve/nearest.js', async (importOriginal) => {
-  const m = await importOriginal<typeof import('../src/solve/nearest.js')>();
-  return {
-    ...m,
-    nearestPoints: (...a: Parameters<typeof m.nearestPoints>) => {
-      const r = m.nearestPoints(...a);
-      seen.push(r);
-      return r;
-    },
-  };
-});
+vi.mock('../src/solve/nearest.js', async (importOriginal) => (await import('./helpers/nearest-capture.js')).capturing(await importOriginal()));
+const seen = captured;
 
 const SEED = process.env.STACKWRIGHT_AUDIT_SEED;
 const COUNT = Number(process.env.STACKWRIGHT_AUDIT_COUNT ?? 40);

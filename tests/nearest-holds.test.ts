@@ -1,7 +1,7 @@
 import { beforeAll, describe, expect, it, vi } from 'vitest';
 import { sizeStack, type Kit } from '../src/index.js';
 import type { StackSpec } from '../src/design/types.js';
-import type { Nearest } from '../src/solve/nearest.js';
+import { captured } from './helpers/nearest-capture.js';
 import type { Evaluated } from '../src/solve/evaluate/evaluate.js';
 import { sampleAt, type StackOp } from '../src/stack/index.js';
 import { demoKit, ensureDemoTables } from './helpers/cli.js';
@@ -15,18 +15,8 @@ import { exhaustive } from './helpers/exhaustive.js';
 // reference, on a grid fine enough near that design, reaches the figure within 10 mV / 5 %.
 
 // The designs behind the reported figures, as the search hands them to the report.
-const seen: Nearest[] = [];
-vi.mock('../src/solve/nearest.js', async (importOriginal) => {
-  const m = await importOriginal<typeof import('../src/solve/nearest.js')>();
-  return {
-    ...m,
-    nearestPoints: (...a: Parameters<typeof m.nearestPoints>) => {
-      const r = m.nearestPoints(...a);
-      seen.push(r);
-      return r;
-    },
-  };
-});
+vi.mock('../src/solve/nearest.js', async (importOriginal) => (await import('./helpers/nearest-capture.js')).capturing(await importOriginal()));
+const seen = captured;
 
 interface Case {
   id: string;
