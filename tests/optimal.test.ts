@@ -617,6 +617,19 @@ const FEASIBLE: Case[] = [
     id: 'nreed-cascode-stacked-rout-audit4-s1371-145', kit: 'reed180', why: 'highest Rout at the top corner of the gm/ID range',
     spec: { device: 'n', topology: 'cascode-stacked', current: 106e-6, rout: 129e3, headroom: 0.524, span: 1.05, objective: 'rout', l: { min: 800e-9, max: 2e-6 }, gmid: { min: 5, max: 19 } },
   },
+  {
+    // Found by the random audit (tests/audit-random.test.ts, seed 20261373 #5): area 21.02e-12 m² vs reference
+    // 18.26e-12 m² (tool +15 %). Both devices at 800 nm; the area is nearly all the top's, and falls 14 % per 0.25 /V
+    // of its gm/ID down to where the targets leave no design. Above a setpoint the cascode's bias diode is narrower than
+    // the minimum width at every length (its gate voltage, the setpoint plus the top's VGS, too high), and the targets
+    // are met just below that edge; the climbs stopped there at the top's grid point (25.0 /V), since the top's gm/ID
+    // down moves the edge down with it and needs the setpoint down and the bottom's gm/ID up at once. Found since a
+    // climb stalled at a setpoint's edge tries its gm/ID moves with the setpoint moved to their own edge (refine.ts
+    // alongSetpointEdge): 17.66e-12 m², the top at 24.7 /V.
+    // Reference design: l [800e-9, 800e-9], gm/ID [19.5, 24.75], setpoints [0.23125].
+    id: 'nreed-cascode-area-audit4-s1373-5', kit: 'reed180', why: 'least area along the setpoint edge a bias diode at its minimum width sets',
+    spec: { device: 'n', topology: 'cascode', current: 1.68e-6, rout: 302e6, headroom: 0.512, span: 1.63, objective: 'area', l: { min: 180e-9, max: 800e-9 } },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {

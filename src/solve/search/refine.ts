@@ -259,6 +259,9 @@ export function settle(ctx: SolveContext, seen: Seen, pool: Evaluated[], stays?:
 
 // Resolution of a setpoint's realisable edge (setpointEdges), V: the candidate key's.
 const SETPOINT_EDGE_V = 1e-4;
+// Steps of the climb's finest setpoint step a gm/ID move at a setpoint's realisable edge looks for its own edge within
+// (alongSetpointEdge): 8 of 3.125 mV, 25 mV, what the top's VGS moves by for a grid step of its gm/ID in weak inversion.
+const EDGE_REACH = 8;
 // Rounds of moves per climb at most (each improves or halves the steps).
 export const CLIMB_ROUNDS = 16;
 // Ridge steps per climb at most; their difference steps (gm/ID: a grid step / 8; setpoints, V) and box (in steps): the
@@ -378,7 +381,7 @@ function climb(
       if (!improved) {
         // Stalled at the finest steps: the setpoints' realisable edges within the last step, then stop.
         if (gstep / 2 < ctx.gmidStep / 8 && vstep / 2 < 0.003) {
-          if (setpointEdges(vstep)) continue;
+          if (setpointEdges(vstep) || (sizing && fromSetpointEdge(gstep, vstep))) continue;
           break;
         }
         gstep /= 2;
@@ -410,6 +413,72 @@ function climb(
       }
     }
     return improved;
+  }
+
+  /**
+   * The moves along a setpoint's realisable edge from `best` (alongSetpointEdge): whether one improved on it, or else a
+   * climb from the nearest to meeting the targets of those within PLAIN_REACH and smaller (objective area) did (either
+   * becomes `best`). Along the edge the targets bind too, and a step of a gm/ID there often misses one by a little that
+   * a step of the other gm/ID makes up (random audit seed 20261373 #5).
+   */
+  function fromSetpointEdge(gstep: number, vstep: number): boolean {
+    const moves = alongSetpointEdge(gstep, vstep);
+    if (moves.length === 0) return false;
+    if (step(moves)) return true;
+    let from: Evaluated | null = null;
+    for (const m of moves) {
+      const e = seen.get(seen.key(m));
+      if (!e || distanceToFeasible(e.margins) > PLAIN_REACH) continue;
+      if (ctx.spec.objective === 'area' && !(e.area < best.area * (1 - REL_TOL))) continue;
+      if (!from || shortfall(ctx, e) < shortfall(ctx, from)) from = e;
+    }
+    if (!from) return false;
+    const r = climbFrom(from);
+    if (!better(r, best)) return false;
+    best = r;
+    return true;
+  }
+
+  /**
+   * Where `best` sits at a setpoint's realisable edge (its move of `vstep` that way could not be realised): each of its
+   * gm/ID moves (one or two gm/IDs by `gstep`, the setpoints kept) that could not be realised either, with that setpoint
+   * moved back to the move's own edge (alongEdge). The edge moves with the gm/IDs (a bias diode at the minimum width
+   * holds a cascode's gate voltage, which the top's VGS and the setpoint below it share), so at the edge every gm/ID
+   * move that needs the setpoint to follow is lost to the climb's moves of one or two coordinates.
+   */
+  function alongSetpointEdge(gstep: number, vstep: number): Candidate[] {
+    const out: Candidate[] = [];
+    const c = best.cand;
+    const gmidMoves = neighbours(ctx, c, gstep, vstep, true).filter(
+      (n) => n.l.every((l, j) => l === c.l[j]) && n.setpoints.every((v, j) => v === c.setpoints[j]) && seen.get(seen.key(n)) === null,
+    );
+    if (gmidMoves.length === 0) return out;
+    for (let k = 0; k < c.setpoints.length; k++) {
+      for (const sign of [-1, 1]) {
+        if (seen.get(seen.key(withSetpoint(c, k, c.setpoints[k] + sign * vstep))) !== null) continue;
+        for (const n of gmidMoves) {
+          const e = alongEdge(n, k, -sign, vstep);
+          if (e) out.push(e);
+        }
+      }
+    }
+    return out;
+  }
+
+  /**
+   * `n` (not realisable) with setpoint k moved by `sign` to its realisable edge (within SETPOINT_EDGE_V): stepped by
+   * `vstep`, doubling, up to EDGE_REACH steps, to a realisable one, then bisected back; null when none is found.
+   */
+  function alongEdge(n: Candidate, k: number, sign: number, vstep: number): Candidate | null {
+    const from = n.setpoints[k];
+    for (let d = vstep, bad = from; d <= EDGE_REACH * vstep; bad = from + sign * d, d *= 2) {
+      const v = from + sign * d;
+      if (v < SETPOINT_MIN) return null;
+      if (!evaluate(withSetpoint(n, k, v))) continue;
+      const edge = setpointEdge(withSetpoint(n, k, v), k, bad);
+      return withSetpoint(n, k, edge ?? v);
+    }
+    return null;
   }
 
   /**
