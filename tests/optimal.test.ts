@@ -617,6 +617,17 @@ const FEASIBLE: Case[] = [
     id: 'nreed-cascode-stacked-rout-audit4-s1371-145', kit: 'reed180', why: 'highest Rout at the top corner of the gm/ID range',
     spec: { device: 'n', topology: 'cascode-stacked', current: 106e-6, rout: 129e3, headroom: 0.524, span: 1.05, objective: 'rout', l: { min: 800e-9, max: 2e-6 }, gmid: { min: 5, max: 19 } },
   },
+  {
+    // Found by the random audit (tests/audit-random.test.ts, seed 20261385 #90): area 49.93e-12 m² vs reference
+    // 39.74e-12 m² (tool +26 %). The screen's designs (all near 25 /V) ranked the length choices far from where their
+    // climbs end, and the climbs ended at a 500 nm bottom under a 300 nm top; the reference's 800 nm bottom under a
+    // 180 nm top needs one device longer and the other shorter at once, which no single length move makes. Found since
+    // a climb's length moves also take a longer lower and a shorter upper device at once (refine.ts lengthPairs):
+    // 35.80e-12 m² with an 800 nm bottom under a 300 nm top.
+    // Reference design: l [800e-9, 180e-9], gm/ID [21.375, 25.5], setpoints [0.1625].
+    id: 'nreed-cascode-area-audit4-s1385-90', kit: 'reed180', why: 'least area with a longer bottom and a shorter top than the climbs reach one length at a time',
+    spec: { device: 'n', topology: 'cascode', current: 17.5e-6, rout: 1.71e6, headroom: 0.241, span: 1.03, objective: 'area', l: { min: 180e-9, max: 800e-9 } },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {
