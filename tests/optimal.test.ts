@@ -628,6 +628,17 @@ const FEASIBLE: Case[] = [
     id: 'nreed-cascode-area-audit4-s1385-90', kit: 'reed180', why: 'least area with a longer bottom and a shorter top than the climbs reach one length at a time',
     spec: { device: 'n', topology: 'cascode', current: 17.5e-6, rout: 1.71e6, headroom: 0.241, span: 1.03, objective: 'area', l: { min: 180e-9, max: 800e-9 } },
   },
+  {
+    // Found by the random audit (tests/audit-random.test.ts, seed 20261383 #62): area 8.656e-12 m² vs reference
+    // 7.895e-12 m² (tool +9.6 %). The climbs ended with the middle VDS at 375 mV and no slack left on Rout or headroom;
+    // the reference's middle VDS is 475 mV, and on the straight way there the headroom target is missed by up to 4 mV,
+    // so no climb step crosses. Found since the setpoints also jump a few climb steps from the answer, and the jump with
+    // the most slack on Rout and headroom gets a climb (search/setpoint-jump.ts): 8.051e-12 m² at 475 mV.
+    // Reference design: l [500e-9, 500e-9, 500e-9], gm/ID [7.5, 8.5, 7], setpoints [0.275, 0.475].
+    id: 'preed-triple-area-audit4-s1383-62', kit: 'reed180', why: 'least area across a headroom barrier along the middle VDS',
+    grid: { gmidStep: 4, vStep: 0.1 },
+    spec: { device: 'p', topology: 'triple', current: 19.4e-6, rout: 1.69e6, headroom: 0.56, span: 1.69, objective: 'area', l: { min: 500e-9, max: 800e-9 }, gmid: { min: 6, max: 22 }, wmax: 6.68e-6 },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {
