@@ -1000,6 +1000,19 @@ describe('nearest points on the edge of the width limit (exhaustive reference se
     expect(tool.feasible).toBe(false);
     expect(tool.nearest!.routAtHeadroom!).toBeGreaterThanOrEqual(0.95 * ref.routAtHeadroom);
   });
+  it('preed-cascode-headroom-audit4-s1383-100: nearest Rout at the headroom target (random audit seed 20261383 #100)', () => {
+    // nearest.routAtHeadroom 386.7e3 Ω vs reference 434.5e3 Ω (tool -11 %); reference design l [1.3e-6, 300e-9], gm/ID [7.5, 13.904], setpoints [0.33125].
+    // The Rout climb ended with both devices on the width limit and the bottom at its saturation edge (255 mV); along
+    // the setpoint with every device at its widest, Rout at the headroom target has a second, higher peak near 330 mV.
+    // Found since the nearest Rout's answer on the width limit gets the setpoint line's probes and a climb from the
+    // best (setpoint-line.ts nearestAlongSetpoints): 449.9e3 Ω.
+    const spec: StackSpec = { name: 'preed-cascode-headroom-audit4-s1383-100', ...{ device: 'p', topology: 'cascode', current: 26.1e-6, rout: 1.18e6, headroom: 0.375, span: 1.35, objective: 'headroom', l: { min: 300e-9, max: 1.3e-6 }, mismatch: 0.00885, wmax: 16.7e-6 } };
+    const tool = sizeStack(spec, kits.reed180, { supply: SUPPLY.reed180, corners: ['tt'] }).results[0];
+    const ref = exhaustive(spec, kits.reed180, 'cascode', 'tt', { ...GRID, nearest: true });
+    expect(ref.best).toBeUndefined();
+    expect(tool.feasible).toBe(false);
+    expect(tool.nearest!.routAtHeadroom!).toBeGreaterThanOrEqual(0.95 * ref.routAtHeadroom);
+  });
   it('n090-cascode-stacked-headroom-audit3-s16-1065: nearest Rout at the headroom target (audit3 seed 20261216 #1065)', () => {
     // nearest.routAtHeadroom 57.7e3 Ω vs reference 76.54e3 Ω (tool -24.6 %); reference design l [550e-9, 400e-9], gm/ID [6.921, 6.843], setpoints [].
     // The Rout climb ended at l [400e-9, 550e-9], both lengths away; the headroom climb's line probes reached the
