@@ -630,6 +630,28 @@ const FEASIBLE: Case[] = [
     id: 'nreed-cascode-area-audit4-s1373-5', kit: 'reed180', why: 'least area along the setpoint edge a bias diode at its minimum width sets',
     spec: { device: 'n', topology: 'cascode', current: 1.68e-6, rout: 302e6, headroom: 0.512, span: 1.63, objective: 'area', l: { min: 180e-9, max: 800e-9 } },
   },
+  {
+    // Found by the random audit (tests/audit-random.test.ts, seed 20261385 #90): area 49.93e-12 m² vs reference
+    // 39.74e-12 m² (tool +26 %). The screen's designs (all near 25 /V) ranked the length choices far from where their
+    // climbs end, and the climbs ended at a 500 nm bottom under a 300 nm top; the reference's 800 nm bottom under a
+    // 180 nm top needs one device longer and the other shorter at once, which no single length move makes. Found since
+    // a climb's length moves also take a longer lower and a shorter upper device at once (refine.ts lengthPairs):
+    // 35.80e-12 m² with an 800 nm bottom under a 300 nm top.
+    // Reference design: l [800e-9, 180e-9], gm/ID [21.375, 25.5], setpoints [0.1625].
+    id: 'nreed-cascode-area-audit4-s1385-90', kit: 'reed180', why: 'least area with a longer bottom and a shorter top than the climbs reach one length at a time',
+    spec: { device: 'n', topology: 'cascode', current: 17.5e-6, rout: 1.71e6, headroom: 0.241, span: 1.03, objective: 'area', l: { min: 180e-9, max: 800e-9 } },
+  },
+  {
+    // Found by the random audit (tests/audit-random.test.ts, seed 20261383 #62): area 8.656e-12 m² vs reference
+    // 7.895e-12 m² (tool +9.6 %). The climbs ended with the middle VDS at 375 mV and no slack left on Rout or headroom;
+    // the reference's middle VDS is 475 mV, and on the straight way there the headroom target is missed by up to 4 mV,
+    // so no climb step crosses. Found since the setpoints also jump a few climb steps from the answer, and the jump with
+    // the most slack on Rout and headroom gets a climb (search/setpoint-jump.ts): 8.051e-12 m² at 475 mV.
+    // Reference design: l [500e-9, 500e-9, 500e-9], gm/ID [7.5, 8.5, 7], setpoints [0.275, 0.475].
+    id: 'preed-triple-area-audit4-s1383-62', kit: 'reed180', why: 'least area across a headroom barrier along the middle VDS',
+    grid: { gmidStep: 4, vStep: 0.1 },
+    spec: { device: 'p', topology: 'triple', current: 19.4e-6, rout: 1.69e6, headroom: 0.56, span: 1.69, objective: 'area', l: { min: 500e-9, max: 800e-9 }, gmid: { min: 6, max: 22 }, wmax: 6.68e-6 },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {
@@ -987,6 +1009,19 @@ describe('nearest points on the edge of the width limit (exhaustive reference se
     const spec: StackSpec = { name: 'nreed-cascode-stacked-rout-audit2-s1727', ...{ device: 'n', topology: 'cascode-stacked', current: 178e-6, rout: 25.4e3, headroom: 0.56, span: 1.55, objective: 'rout', l: { min: 500e-9, max: 1.3e-6 }, wmax: 11.8e-6 } };
     const tool = sizeStack(spec, kits.reed180, { supply: SUPPLY.reed180, corners: ['tt'] }).results[0];
     const ref = exhaustive(spec, kits.reed180, 'cascode-stacked', 'tt', { ...GRID, nearest: true });
+    expect(ref.best).toBeUndefined();
+    expect(tool.feasible).toBe(false);
+    expect(tool.nearest!.routAtHeadroom!).toBeGreaterThanOrEqual(0.95 * ref.routAtHeadroom);
+  });
+  it('preed-cascode-headroom-audit4-s1383-100: nearest Rout at the headroom target (random audit seed 20261383 #100)', () => {
+    // nearest.routAtHeadroom 386.7e3 Ω vs reference 434.5e3 Ω (tool -11 %); reference design l [1.3e-6, 300e-9], gm/ID [7.5, 13.904], setpoints [0.33125].
+    // The Rout climb ended with both devices on the width limit and the bottom at its saturation edge (255 mV); along
+    // the setpoint with every device at its widest, Rout at the headroom target has a second, higher peak near 330 mV.
+    // Found since the nearest Rout's answer on the width limit gets the setpoint line's probes and a climb from the
+    // best (setpoint-line.ts nearestAlongSetpoints): 449.9e3 Ω.
+    const spec: StackSpec = { name: 'preed-cascode-headroom-audit4-s1383-100', ...{ device: 'p', topology: 'cascode', current: 26.1e-6, rout: 1.18e6, headroom: 0.375, span: 1.35, objective: 'headroom', l: { min: 300e-9, max: 1.3e-6 }, mismatch: 0.00885, wmax: 16.7e-6 } };
+    const tool = sizeStack(spec, kits.reed180, { supply: SUPPLY.reed180, corners: ['tt'] }).results[0];
+    const ref = exhaustive(spec, kits.reed180, 'cascode', 'tt', { ...GRID, nearest: true });
     expect(ref.best).toBeUndefined();
     expect(tool.feasible).toBe(false);
     expect(tool.nearest!.routAtHeadroom!).toBeGreaterThanOrEqual(0.95 * ref.routAtHeadroom);

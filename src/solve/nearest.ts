@@ -7,6 +7,7 @@ import { screen } from './search/screen.js';
 import type { Candidate } from './search/candidate.js';
 import { lineProbes } from './search/line-probes.js';
 import { widthRoomCandidates } from './search/width-room.js';
+import { nearestAlongSetpoints } from './search/setpoint-line.js';
 
 /** The nearest reachable points of an infeasible stack, over the whole allowed design space. */
 export interface Nearest {
@@ -322,6 +323,7 @@ export function nearestPoints(
   let ro = refine(ctx, withOtherBasin(seedsOf(ctx, pool, seen, byRout.top, usable), pool, higherRout), seen, pool, higherRout, routBelowFromUsable(ctx), NEAREST_ROUNDS);
   // The saturation-edge probes (see lineProbes) serve Rout at the headroom target only.
   if (ro) ro = probeFurther(ctx, ro, seen, pool, higherRout, routBelowFromUsable(ctx), true);
+  if (ro) ro = nearestAlongSetpoints(ctx, ro, seen, pool, higherRout, routBelowFromUsable(ctx), NEAREST_ROUNDS);
   // The headroom climb keeps to devices like its seeds', while the lowest headroom can lie far from them (another
   // length, on the width limit): the same probes follow it, after the Rout climb's, which then sees the pool as before.
   if (hr) hr = probeFurther(ctx, hr, seen, pool, lowerHeadroom, headroomHopeless(ctx, byRout));

@@ -26,6 +26,7 @@ import { fromSetpointLine } from './search/setpoint-line.js';
 import { alongValley } from './search/valley.js';
 import { fromOtherSide } from './search/setpoint-side.js';
 import { fromWidest } from './search/widest-probe.js';
+import { fromSlackJump } from './search/setpoint-jump.js';
 import type { StageFrontPoint } from './stage-types.js';
 import { toWidthLimit, widestAt } from './search/width-edge.js';
 
@@ -258,6 +259,7 @@ function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool:
   best = fromOtherSide(ctx, first, best, seen, pool);
   best = fromSetpointLine(ctx, best, seen, pool);
   best = alongValley(ctx, best, seen, pool);
+  best = fromSlackJump(ctx, best, seen, pool);
   // The report uses the full curve; if that loses a target the scan met, take the next best.
   for (let tries = 0; tries < 5 && !finalize(ctx, best); tries++) {
     settle(ctx, seen, pool);

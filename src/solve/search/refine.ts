@@ -119,6 +119,27 @@ function lengthMoves(ctx: SolveContext, c: Candidate, move: (k: number, l: numbe
 }
 
 /**
+ * The length choices with one device a table length longer and another above it a table length shorter (and the
+ * reverse). Area moves between the devices: a longer bottom holds the Rout that a shorter top gives up, and the top's
+ * area falls more than the bottom's rises where the top is the wider; neither single length move gets there.
+ */
+function lengthPairs(ctx: SolveContext, l: readonly number[]): number[][] {
+  const out: number[][] = [];
+  const j = l.map((x) => nearestIndex(ctx.lengths, x));
+  for (let a = 0; a < l.length; a++) {
+    for (let b = a + 1; b < l.length; b++) {
+      for (const d of [1, -1]) {
+        const la = ctx.lengths[j[a] + d];
+        const lb = ctx.lengths[j[b] - d];
+        if (la === undefined || lb === undefined) continue;
+        out.push(l.map((x, i) => (i === a ? la : i === b ? lb : x)));
+      }
+    }
+  }
+  return out;
+}
+
+/**
  * Local refinement: from each seed, hill-climb over the neighbouring moves,
  * halving the gm/ID and setpoint steps when no move improves. Returns the
  * best design of all climbs by `prefer` (default: the spec's targets and
@@ -537,6 +558,8 @@ function climb(
       const r = raisedToLimit(ctx, d, k);
       if (r) raised.push(r);
     });
+    // A longer lower device under a shorter upper one at once, at the same gm/IDs (lengthPairs).
+    for (const l of lengthPairs(ctx, c.l)) plain.push({ topology: c.topology, l, gmid: c.gmid, setpoints: c.setpoints });
     return { plain, raised };
   }
 

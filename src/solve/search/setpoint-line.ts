@@ -3,7 +3,7 @@ import type { SolveContext } from '../context.js';
 import { fullyOk, type Evaluated } from '../evaluate/evaluate.js';
 import { SETPOINT_MIN, withSetpoint, type Candidate } from './candidate.js';
 import { better } from './rank.js';
-import { evaluateOnce, lookOnce, refine, type Seen } from './refine.js';
+import { evaluateOnce, lookOnce, refine, type Hopeless, type Seen } from './refine.js';
 import { routSurelyBelow, surelyMisses } from './quick.js';
 import { widestAt } from './width-edge.js';
 import { setpointRoom } from './line-probes.js';
@@ -35,6 +35,34 @@ export function fromSetpointLine(ctx: SolveContext, best: Evaluated, seen: Seen,
   if (!lead) return best;
   const climbed = refine(ctx, [lead], seen, pool) ?? lead;
   return better(ctx, climbed, best) ? climbed : best;
+}
+
+/**
+ * The nearest Rout at the headroom target's version of fromSetpointLine, by the nearest points' own order (`prefer`,
+ * `hopeless`, climbs of `rounds`): where the climbs' answer `from` sits on the width limit, each setpoint's line with
+ * every device at its widest, and a climb from the best probe that beats `from`. Rout at the headroom target has
+ * separate peaks along a setpoint too (random audit seed 20261383 #100: a reed180 p cascode's at its bottom's
+ * saturation edge at 255 mV and one 75 mV higher, 12 % above it). Returns the better design.
+ */
+export function nearestAlongSetpoints(
+  ctx: SolveContext, from: Evaluated, seen: Seen, pool: Evaluated[], prefer: (a: Evaluated, b: Evaluated) => boolean, hopeless: Hopeless, rounds: number,
+): Evaluated {
+  if (!(from.margins.width < ON_LIMIT)) return from;
+  let lead: Evaluated | undefined;
+  for (const c of setpointLine(ctx, from.cand)) {
+    const k = seen.key(c);
+    let e = seen.get(k);
+    if (e === undefined) {
+      const l = lookOnce(ctx, seen, k, c);
+      if (!l || hopeless(l, from)) continue;
+      e = evaluateOnce(ctx, c, seen, l.start);
+      if (e) pool.push(e);
+    }
+    if (e && prefer(e, lead ?? from)) lead = e;
+  }
+  if (!lead) return from;
+  const climbed = refine(ctx, [lead], seen, pool, prefer, hopeless, rounds) ?? lead;
+  return prefer(climbed, from) ? climbed : from;
 }
 
 /** The probes of fromSetpointLine: each setpoint of `c` on its line (its own value excepted), every device at its widest. */
