@@ -629,6 +629,18 @@ const FEASIBLE: Case[] = [
     // Reference design: l [800e-9, 800e-9], gm/ID [19.5, 24.75], setpoints [0.23125].
     id: 'nreed-cascode-area-audit4-s1373-5', kit: 'reed180', why: 'least area along the setpoint edge a bias diode at its minimum width sets',
     spec: { device: 'n', topology: 'cascode', current: 1.68e-6, rout: 302e6, headroom: 0.512, span: 1.63, objective: 'area', l: { min: 180e-9, max: 800e-9 } },
+  },  {
+    // Found by the random audit (tests/audit-random.test.ts, seed 20261391 #91): headroom 0.6970 V vs reference
+    // 0.6886 V (tool +8.4 mV). All three devices at 800 nm, the middle and top at the gm/ID range's top (22 /V). The
+    // headroom is least with the bottom just saturated, and its saturation edge falls as its gm/ID rises: the best
+    // setpoint below the bottom goes from 243 mV at 18 /V to 228 mV at 20.5 /V, 8 mV less headroom. The climb ended at
+    // 18 /V: the bottom's gm/ID up alone gains under 1 mV (the headroom's resolution), and the pair moves' fixed ratio
+    // of gm/ID and setpoint steps leaves the valley. Found since the valley slides (search/valley.ts) also follow a
+    // lower device's gm/ID with its own setpoint: 0.688 V, the bottom at 20.5 /V and 225 mV.
+    // Reference design: l [800e-9, 800e-9, 800e-9], gm/ID [20.5, 22, 22], setpoints [0.225, 0.2375].
+    id: 'preed-triple-headroom-audit4-s1391-91', kit: 'reed180', why: 'lowest headroom along a valley of the bottom\'s gm/ID and its setpoint',
+    spec: { device: 'p', topology: 'triple', current: 3.17e-6, rout: 52.7e9, headroom: 0.814, span: 1.04, objective: 'headroom', l: { min: 500e-9, max: 800e-9 }, gmid: { min: 6, max: 22 } },
+    grid: { gmidStep: 4, vStep: 0.1 },
   },
   {
     // Found by the random audit (tests/audit-random.test.ts, seed 20261385 #90): area 49.93e-12 m² vs reference
