@@ -643,6 +643,18 @@ const FEASIBLE: Case[] = [
     grid: { gmidStep: 4, vStep: 0.1 },
   },
   {
+    // Found by the random audit (tests/audit-random.test.ts, seed 20261383 #26): Rout 336.0e6 Ω vs reference 375.1e6 Ω
+    // (tool -10 %). Every screened design is far wider than the 30.5 µm limit and none meets the targets, all with a
+    // 1.4 µm bottom; the climbs from them (and from them pulled back to the limit at the screen's low setpoints) ended
+    // with the 2 µm device at the top, 336 MΩ. Found since, with objective Rout and no screened design meeting the
+    // targets, each length choice's nearest design raised to the width limit (setpoints raised until realised) seeds
+    // the climbs too (size.ts widestOfShortLengths): 363.6e6 Ω, all three devices at 1.4 µm.
+    // Reference design: l [2e-6, 1.4e-6, 1.4e-6], gm/ID [12.599, 14.222, 14.535], setpoints [0.25, 0.6375].
+    id: 'p180-triple-rout-audit4-s1383-26', kit: 'demo180', why: 'highest Rout when every screened design is far wider than the width limit',
+    spec: { device: 'p', topology: 'triple', current: 7.39e-6, rout: 239e6, headroom: 0.462, span: 1.66, objective: 'rout', l: { min: 1.4e-6, max: 2e-6 }, gmid: { min: 6, max: 22 }, mismatch: 0.0193, wmax: 30.5e-6 },
+    grid: { gmidStep: 4, vStep: 0.1 },
+  },
+  {
     // Found by the random audit (tests/audit-random.test.ts, seed 20261385 #90): area 49.93e-12 m² vs reference
     // 39.74e-12 m² (tool +26 %). The screen's designs (all near 25 /V) ranked the length choices far from where their
     // climbs end, and the climbs ended at a 500 nm bottom under a 300 nm top; the reference's 800 nm bottom under a

@@ -164,9 +164,18 @@ function lowered(ctx: SolveContext, cands: readonly Candidate[], seen: Seen, poo
  * `best` (near) come back as more seeds. Rout rises with gm/ID into weak inversion, so a length choice's best design can
  * sit on the width limit between the gm/ID grid's points, the grid point below missing a target (audit3 A3-2: both
  * devices at 400 nm and 26.5 /V, 14 % above the answer; the screen's 25.1 /V missed the headroom target).
+ *
+ * When `best` misses the targets too (no screened design meets them: all far wider than the limit), the same for every
+ * length choice, its setpoints raised by LOWER_STEP until realised (the lower gm/ID the limit leaves can put a lower
+ * device's VDSsat above the screen's setpoint), and the SEEDS nearest to the targets within the climb's reach come back.
+ * The climbs from the screen's best designs pulled to the limit settle on the length choices the screen preferred far
+ * from the limit (random audit seed 20261383 #26: a demo180 p triple, every screened design far wider than the limit,
+ * all with a 1.4 µm bottom; their climbs' answer 336 MΩ, the reference's 375 MΩ; with these seeds 364 MΩ, all three
+ * devices at 1.4 µm).
  */
 function widestOfShortLengths(ctx: SolveContext, best: Evaluated, pool: Evaluated[], seen: Seen): Evaluated[] {
-  if (ctx.meetOnly || ctx.spec.objective !== 'rout' || !fullyOk(ctx, best)) return [];
+  if (ctx.meetOnly || ctx.spec.objective !== 'rout') return [];
+  const ok = fullyOk(ctx, best);
   const nearest = new Map<string, Evaluated>();
   const met = new Set<string>();
   for (const e of pool) {
@@ -179,10 +188,18 @@ function widestOfShortLengths(ctx: SolveContext, best: Evaluated, pool: Evaluate
   for (const [k, e] of nearest) {
     const c = met.has(k) ? null : widestAt(ctx, e.cand);
     if (!c || seen.has(seen.key(c))) continue;
-    const w = evaluateToPool(ctx, c, seen, pool);
-    if (w && fullyOk(ctx, w) && near('rout', w, best)) out.push(w);
+    if (ok) {
+      const w = evaluateToPool(ctx, c, seen, pool);
+      if (w && fullyOk(ctx, w) && near('rout', w, best)) out.push(w);
+      continue;
+    }
+    const w = raisedUntilRealised(ctx, c, seen);
+    if (!w || out.includes(w)) continue;
+    if (!pool.includes(w)) pool.push(w);
+    if (distanceToFeasible(w.margins) <= REACH) out.push(w);
   }
-  return out;
+  if (ok) return out;
+  return out.sort((a, b) => distanceToFeasible(a.margins) - distanceToFeasible(b.margins)).slice(0, SEEDS);
 }
 
 /**
@@ -194,6 +211,11 @@ function widestOfShortLengths(ctx: SolveContext, best: Evaluated, pool: Evaluate
 function pulledToWidth(ctx: SolveContext, c: Candidate, seen: Seen): Evaluated | null {
   const fits = toWidthLimit(ctx, c);
   if (!fits || fits === c) return null;
+  return raisedUntilRealised(ctx, fits, seen);
+}
+
+/** `fits` with its setpoints raised by LOWER_STEP until it is realised (below mid-span); null when it never is. */
+function raisedUntilRealised(ctx: SolveContext, fits: Candidate, seen: Seen): Evaluated | null {
   for (let d = 0; fits.setpoints.every((s) => s + d < ctx.vmid); d += LOWER_STEP) {
     const e = evaluateOnce(ctx, { ...fits, setpoints: fits.setpoints.map((s) => Math.round((s + d) * 1e6) / 1e6) }, seen);
     if (e || fits.setpoints.length === 0) return e;
