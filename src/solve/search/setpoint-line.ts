@@ -20,21 +20,12 @@ const ON_LIMIT = 0.01;
  */
 export function fromSetpointLine(ctx: SolveContext, best: Evaluated, seen: Seen, pool: Evaluated[]): Evaluated {
   if (ctx.meetOnly || ctx.spec.objective !== 'rout' || !(best.margins.width < ON_LIMIT) || !fullyOk(ctx, best)) return best;
-  let lead: Evaluated | undefined;
-  for (const c of setpointLine(ctx, best.cand)) {
-    const k = seen.key(c);
-    let e = seen.get(k);
-    if (e === undefined) {
-      const l = lookOnce(ctx, seen, k, c);
-      if (!l || surelyMisses(ctx, l) || routSurelyBelow(l, best.nominal.rout)) continue;
-      e = evaluateOnce(ctx, c, seen, l.start);
-      if (e) pool.push(e);
-    }
-    if (e && better(ctx, e, lead ?? best)) lead = e;
-  }
-  if (!lead) return best;
-  const climbed = refine(ctx, [lead], seen, pool) ?? lead;
-  return better(ctx, climbed, best) ? climbed : best;
+  return alongSetpointLine(
+    ctx, best, seen, pool,
+    (a, b) => better(ctx, a, b),
+    (l, from) => surelyMisses(ctx, l) || routSurelyBelow(l, from.nominal.rout),
+    (lead) => refine(ctx, [lead], seen, pool),
+  );
 }
 
 /**
@@ -48,6 +39,17 @@ export function nearestAlongSetpoints(
   ctx: SolveContext, from: Evaluated, seen: Seen, pool: Evaluated[], prefer: (a: Evaluated, b: Evaluated) => boolean, hopeless: Hopeless, rounds: number,
 ): Evaluated {
   if (!(from.margins.width < ON_LIMIT)) return from;
+  return alongSetpointLine(ctx, from, seen, pool, prefer, hopeless, (lead) => refine(ctx, [lead], seen, pool, prefer, hopeless, rounds));
+}
+
+/**
+ * The probes of setpointLine from `from` that `hopeless` leaves a chance, evaluated once; `climb` from the one `prefer`
+ * ranks first, and the climb's answer when `prefer` ranks it above `from` (else `from`).
+ */
+function alongSetpointLine(
+  ctx: SolveContext, from: Evaluated, seen: Seen, pool: Evaluated[], prefer: (a: Evaluated, b: Evaluated) => boolean, hopeless: Hopeless,
+  climb: (lead: Evaluated) => Evaluated | undefined,
+): Evaluated {
   let lead: Evaluated | undefined;
   for (const c of setpointLine(ctx, from.cand)) {
     const k = seen.key(c);
@@ -61,7 +63,7 @@ export function nearestAlongSetpoints(
     if (e && prefer(e, lead ?? from)) lead = e;
   }
   if (!lead) return from;
-  const climbed = refine(ctx, [lead], seen, pool, prefer, hopeless, rounds) ?? lead;
+  const climbed = climb(lead) ?? lead;
   return prefer(climbed, from) ? climbed : from;
 }
 
