@@ -179,10 +179,14 @@ function sizeOnce(ctx: SolveContext, seen: Seen, key: number, c: Candidate): { a
   return z;
 }
 
-/** A length move for fromLengthMoves, and the shortfall (policy.distanceToFeasible) within which it gets a climb. */
+/**
+ * A length move for fromLengthMoves, and the shortfall (policy.distanceToFeasible) within which it gets a climb;
+ * `fallback`: evaluated only for a length choice none of the other moves reaches.
+ */
 interface LengthMove {
   c: Candidate;
   reach: number;
+  fallback?: boolean;
 }
 
 /**
@@ -200,11 +204,12 @@ function fromLengthMoves(
   if (ctx.spec.objective !== 'area' || !fullyOk(ctx, best)) return best;
   // The nearest move of each length choice within reach: nearest by shortfall is not always best by area.
   const nearest = new Map<string, Evaluated>();
-  for (const { c, reach } of moves) {
+  for (const { c, reach, fallback } of [...moves.filter((m) => !m.fallback), ...moves.filter((m) => m.fallback)]) {
+    const k = c.l.join(',');
+    if (fallback && nearest.has(k)) continue;
     if (!(sizeOnce(ctx, seen, seen.key(c), c).area < best.area * (1 - REL_TOL))) continue;
     const e = evaluateToPool(ctx, c, seen, pool);
     if (!e || distanceToFeasible(e.margins) > reach) continue;
-    const k = c.l.join(',');
     const n = nearest.get(k);
     if (!n || shortfall(ctx, e) < shortfall(ctx, n)) nearest.set(k, e);
   }
@@ -339,9 +344,12 @@ function climb(
   // gm/ID is smaller but short of Rout, made up with its gm/ID and a setpoint a few steps up (random audit seed
   // 20261302 #154: a reed180 cascode's top at 0.5 instead of 0.8 µm, 40 % less area).
   if (sizing) {
-    const { plain, raised } = lengthMovesOfBest();
+    const { plain, raised, stepped } = lengthMovesOfBest();
     if (step(raised)) climbRounds();
-    else best = fromLengthMoves(ctx, best, [...raised.map((c) => ({ c, reach: RAISED_REACH })), ...plain.map((c) => ({ c, reach: PLAIN_REACH }))], seen, pool, better, climbFrom);
+    else {
+      const moves = [...raised.map((c) => ({ c, reach: RAISED_REACH })), ...plain.map((c) => ({ c, reach: PLAIN_REACH }))];
+      best = fromLengthMoves(ctx, best, [...moves, ...stepped.map((c) => ({ c, reach: PLAIN_REACH, fallback: true }))], seen, pool, better, climbFrom);
+    }
   }
   // Stuck where several targets bind at once: steps along the ridge (search/ridge.ts), for a design meeting them. A
   // ridge step can land where the climb's own moves gain again (off the ridge, e.g. a lower gm/ID bought with a
@@ -540,13 +548,20 @@ function climb(
 
   /**
    * best's length moves: alone, with the moved device's gm/ID half a grid step down and up, and with it raised to the
-   * width limit (those it changes). A length choice can meet the targets only between the screen's gm/ID grid points
-   * (random audit seed 20261332 #17: a 220 nm bottom from 28 to 29.7 /V, the headroom missed below and the width limit
-   * above), so no screened design has it, and the move at the same gm/ID misses by more than a climb makes up.
+   * width limit (those it changes); `stepped`: with that gm/ID a whole grid step up when shorter and down when longer,
+   * for the length choices none of the others reaches (fromLengthMoves' fallback). A length choice can meet
+   * the targets only between the screen's gm/ID grid points (random audit seed 20261332 #17: a 220 nm bottom from 28 to
+   * 29.7 /V, the headroom missed below and the width limit above), so no screened design has it, and the move at the
+   * same gm/ID misses by more than a climb makes up. A shorter top can need its gm/ID a whole grid step up for the Rout
+   * it lost (random audit seed 20261401 #151: a reed180 triple's top from 2 to 1.3 µm missed the targets by 0.87 at its
+   * 16.9 /V, by 0.57 half a step up, by 0.23 a whole step up, within PLAIN_REACH; its climb ends 16 % smaller). Only as
+   * a fallback: where another move of the length choice is within reach, its climb is the one known to serve
+   * (marsh-wren-corners' ota-load triple: the whole step's climb ended 8 % larger than the half step's).
    */
-  function lengthMovesOfBest(): { plain: Candidate[]; raised: Candidate[] } {
+  function lengthMovesOfBest(): { plain: Candidate[]; raised: Candidate[]; stepped: Candidate[] } {
     const plain: Candidate[] = [];
     const raised: Candidate[] = [];
+    const stepped: Candidate[] = [];
     const c = best.cand;
     lengthMoves(ctx, c, (k, l) => {
       const d = { topology: c.topology, l: c.l.map((x, i) => (i === k ? l : x)), gmid: c.gmid, setpoints: c.setpoints };
@@ -555,12 +570,16 @@ function climb(
         const g = c.gmid[k] + (sign * ctx.gmidStep) / 2;
         if (gmidInRange(ctx, g)) plain.push({ ...d, gmid: c.gmid.map((x, i) => (i === k ? g : x)) });
       }
+      // And a whole grid step the way that keeps the device's share of Rout: up for a shorter device (its intrinsic
+      // gain, lost with the length, comes back with gm/ID), down for a longer one (gain to spare, and narrower).
+      const g = c.gmid[k] + (l < c.l[k] ? 1 : -1) * ctx.gmidStep;
+      if (gmidInRange(ctx, g)) stepped.push({ ...d, gmid: c.gmid.map((x, i) => (i === k ? g : x)) });
       const r = raisedToLimit(ctx, d, k);
       if (r) raised.push(r);
     });
     // A longer lower device under a shorter upper one at once, at the same gm/IDs (lengthPairs).
     for (const l of lengthPairs(ctx, c.l)) plain.push({ topology: c.topology, l, gmid: c.gmid, setpoints: c.setpoints });
-    return { plain, raised };
+    return { plain, raised, stepped };
   }
 
   function step(moves: Candidate[]): boolean {
