@@ -181,7 +181,7 @@ function sizeOnce(ctx: SolveContext, seen: Seen, key: number, c: Candidate): { a
 
 /**
  * A length move for fromLengthMoves, and the shortfall (policy.distanceToFeasible) within which it gets a climb;
- * `fallback`: evaluated only for a length choice none of the other moves reaches.
+ * `fallback`: evaluated only for a length choice none of the other moves reaches (fallbacks come last in the list).
  */
 interface LengthMove {
   c: Candidate;
@@ -204,7 +204,7 @@ function fromLengthMoves(
   if (ctx.spec.objective !== 'area' || !fullyOk(ctx, best)) return best;
   // The nearest move of each length choice within reach: nearest by shortfall is not always best by area.
   const nearest = new Map<string, Evaluated>();
-  for (const { c, reach, fallback } of [...moves.filter((m) => !m.fallback), ...moves.filter((m) => m.fallback)]) {
+  for (const { c, reach, fallback } of moves) {
     const k = c.l.join(',');
     if (fallback && nearest.has(k)) continue;
     if (!(sizeOnce(ctx, seen, seen.key(c), c).area < best.area * (1 - REL_TOL))) continue;
