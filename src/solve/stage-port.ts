@@ -1,7 +1,7 @@
 import { StackwrightError } from '../errors.js';
 import { specDecimal } from '../units/index.js';
 import type { StageSpec } from '../design/types.js';
-import { biasGates, traceStage, type StackDevice, type StageCircuit } from '../stack/index.js';
+import { biasGates, SWING_TOLERANCE, traceStage, type StackDevice, type StageCircuit } from '../stack/index.js';
 import type { KitAccess } from './kit.js';
 import { change, deviceChanges, type Change, type Harder } from './compare.js';
 import { absolute } from './result.js';
@@ -101,7 +101,7 @@ export function stageAsIs(r: StageResult, spec: StageSpec, kit: KitAccess, corne
     const p = trace.points[trace.j0];
     const gbw = p ? gbwOf(spec, p.gm, null) : null;
     const railsOk = !p || vinMargin(p.vin, supply) >= 0;
-    const feasible = railsOk && trace.swing >= spec.swing - 1e-9 && (spec.gbw === undefined || (gbw ?? 0) >= spec.gbw);
+    const feasible = railsOk && trace.swing >= spec.swing - SWING_TOLERANCE && (spec.gbw === undefined || (gbw ?? 0) >= spec.gbw);
     const out: StageCorner = {
       corner, feasible,
       predicted: {

@@ -1,6 +1,6 @@
 import { topologyOf } from '../topology/index.js';
 import { REL_TOL } from '../policy.js';
-import { nearestSample, sampleOf, stageGain, stagePoint, type StageCircuit, type StagePoint, type StageSample, type StageTrace } from '../stack/index.js';
+import { nearestSample, sampleOf, stageGain, stagePoint, SWING_TOLERANCE, type StageCircuit, type StagePoint, type StageSample, type StageTrace } from '../stack/index.js';
 import { vinMargin } from './stage-rails.js';
 import { coordinates, perCoordinate, SETPOINT_MIN, type Candidate } from './search/candidate.js';
 import { ridgeStepOver, withCoordinate, type RidgeFigures, type RidgePoint } from './search/ridge.js';
@@ -639,7 +639,7 @@ function nearestStage(sides: StageSides, pool: StageDesign[], memos: { input: Si
     const local = climbFrom(held, heldOrder, [swing]);
     if (local && heldOrder(local, heldBy)) heldBy = local;
   }
-  const swingMet = (d: StageDesign) => (d.nominal.trace.swing >= stage.swing - 1e-9 ? 1 : 0);
+  const swingMet = (d: StageDesign) => (d.nominal.trace.swing >= stage.swing - SWING_TOLERANCE ? 1 : 0);
   const gbwOrder: StageOrder = (a, b) => swingMet(a) !== swingMet(b) ? swingMet(a) > swingMet(b) : higher(sides, (d) => d.nominal.gbw ?? 0, gain)(a, b);
   const gbw = stage.gbw !== undefined && swing && swingMet(swing)
     ? top(search, gbwOrder)

@@ -2,7 +2,7 @@ import type { Polarity } from '../table/types.js';
 import { topologyOf } from '../topology/index.js';
 import type { StageSpec, Topology } from '../design/types.js';
 import {
-  gainOverSwingWithEdges, handSideRout, handStageGain, handSwing, saturationVoltage, squareLawCheck,
+  gainOverSwingWithEdges, handSideRout, handStageGain, handSwing, saturationVoltage, squareLawCheck, SWING_TOLERANCE,
   type BiasDevice, type DeviceBias, type StackDevice,
 } from '../stack/index.js';
 import type { BiasResult, DeviceResult } from './types.js';
@@ -224,7 +224,7 @@ function infeasibility(sides: StageSides, best: StageDesign, explored: readonly 
       return { binding: 'error' in c ? verdict(stage, 'table', null, c.corner) : missTarget(stage, stageMargins(stage, c), c, c.corner), nearest };
     }
   }
-  const swingOk = pool.filter((d) => d.nominal.trace.swing >= stage.swing - 1e-9);
+  const swingOk = pool.filter((d) => d.nominal.trace.swing >= stage.swing - SWING_TOLERANCE);
   if (stage.gbw !== undefined && (climbed ? climbed.gbw !== undefined : swingOk.length > 0)) {
     const g = climbed?.gbw ? climbed.gbw.nominal.gbw ?? 0 : Math.max(...swingOk.map((d) => d.nominal.gbw ?? 0));
     return { binding: { target: 'gbw', required: stage.gbw, achieved: g, at: stage.output, device: null, corner: nominal, ...reach }, nearest };

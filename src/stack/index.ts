@@ -14,5 +14,5 @@ export { fitSquareLaw, squareLawCheck, type SquareLawFit } from './squarelaw.js'
 export { inputAtCurrent, solveInput, solved, type InputOp, type InputGuess } from './stage-input.js';
 export { stagePoint, stageGain, stageSample, sampleOf, sideVoltage, parallel, type StageCircuit, type StagePoint, type StageSample } from './stage-point.js';
 export { swingOnGrid, holdingRun, gainOverSwing, gainOverSwingWithEdges, swingAtGain, outputGrid, indexOf as designIndex } from './stage-swing.js';
-export { traceStage, heldGain, nearestSample, type StageTrace } from './stage-trace.js';
+export { traceStage, heldGain, nearestSample, SWING_TOLERANCE, type StageTrace } from './stage-trace.js';
 export { handSideRout, handStageGain, handSwing } from './stage-squarelaw.js';

@@ -5,8 +5,8 @@ import { holdingRun, indexOf, outputGrid } from './stage-swing.js';
 
 /** Finest resolution a swing edge is refined to near the swing target, V. */
 const FINEST_EDGE = 1e-8;
-/** How far below its target a swing still meets it, V (the feasibility checks' allowance for rounding, as stage-port). */
-const SWING_TOLERANCE = 1e-9;
+/** How far below its target a swing still meets it, V: the allowance for rounding of every check of a swing against its target. */
+export const SWING_TOLERANCE = 1e-9;
 
 /** A stage's transfer curve on an output grid through the design point, with its swing. */
 export interface StageTrace {
