@@ -688,6 +688,20 @@ const FEASIBLE: Case[] = [
     grid: { gmidStep: 4, vStep: 0.1 },
     spec: { device: 'n', topology: 'triple', current: 208e-6, rout: 501e6, headroom: 0.763, span: 1.28, objective: 'area', l: { min: 1.3e-6, max: 2e-6 }, gmid: { min: 6, max: 22 } },
   },
+  {
+    // Found by the random audit (tests/audit-random.test.ts, seed 20261403 #31): area 29.12e-12 m² vs reference
+    // 14.76e-12 m² (tool +97 %). Both devices at 800 nm and the area nearly all the top's, as for seed 20261373 #5; the
+    // climb stopped at the setpoint's edge with the top at 26.2 /V and the bottom at 14.3 /V. Along the edge a top
+    // 0.3 /V down moves the setpoint 7 mV down, and the bottom then needs its gm/ID some 2.6 /V up (less VDSsat) to meet
+    // the targets: the edge moves missed them by 2.6, beyond the reach of the climbs from them. And the climb took the
+    // setpoint and gm/ID moves set aside unevaluated (the area bound, the quick look) for realisable, so it saw no edge
+    // where they were the ones at it. Found since an edge move short of the targets is made up by one gm/ID stepped to
+    // where it meets them (refine.ts madeUpAlongEdge), and a move set aside is judged realisable by its look and bias
+    // diodes: 13.21e-12 m², the bottom at 22.5 /V and the top at 24.9 /V, 197 mV.
+    // Reference design: l [800e-9, 800e-9], gm/ID [21.75, 25.125], setpoints [0.2].
+    id: 'nreed-cascode-area-audit4-s1403-31', kit: 'reed180', why: 'least area along a setpoint edge that a lower gm/ID several steps up follows',
+    spec: { device: 'n', topology: 'cascode', current: 1.05e-6, rout: 504e6, headroom: 0.639, span: 1.46, objective: 'area', l: { min: 180e-9, max: 800e-9 } },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {

@@ -90,6 +90,28 @@ export function startOf(ctx: SolveContext, cand: Candidate): Start | 'none' | 'n
 }
 
 /**
+ * The bias diodes of a sized candidate, a diode narrower than the minimum width at a longer table length; null when
+ * no length realises one. Throws a 'range' error where the tables end (callers use rangeSafe).
+ */
+function biasOf(ctx: SolveContext, cand: Candidate, slices: readonly LengthSlice[], sized: SizedStack): BiasDevice[] | null {
+  return biasDevices(topologyOf(cand.topology), slices, sized.gates, ctx.ib, {
+    wmin: ctx.wmin, lengths: ctx.lengths, slice: (l) => ctx.slice(ctx.nominal, l),
+  });
+}
+
+/**
+ * Whether the sizing alone (no DC solve) shows a candidate cannot be realised, as the exact evaluation would find: the
+ * table has no such device, a device is narrower than the minimum width, or no length realises a bias diode.
+ */
+export function sizingUnrealisable(ctx: SolveContext, cand: Candidate): boolean {
+  const r = rangeSafe(() => {
+    const { slices, sized } = sizeOf(ctx, cand);
+    return sized !== null && sized.w.every((w) => w >= ctx.wmin * (1 - 1e-9)) && biasOf(ctx, cand, slices, sized) !== null;
+  });
+  return r !== true;
+}
+
+/**
  * Size and evaluate one candidate exactly; null when the table cannot realise
  * it, a device would be narrower than the minimum width (bias diodes first try
  * longer lengths), or a device below the top one is not saturated at mid-span.
@@ -103,10 +125,7 @@ export function evaluateCandidate(ctx: SolveContext, cand: Candidate, start?: St
     if (st === 'narrow') return reject(ctx, 'narrow');
     const { slices, sized, devices, mid: m } = st;
     if (ctx.saturation === 'require' && saturationMargin(m) < 0) return reject(ctx, 'triode');
-    const shape = topologyOf(cand.topology);
-    const bias = biasDevices(shape, slices, sized.gates, ctx.ib, {
-      wmin: ctx.wmin, lengths: ctx.lengths, slice: (l) => ctx.slice(ctx.nominal, l),
-    });
+    const bias = biasOf(ctx, cand, slices, sized);
     if (!bias) return reject(ctx, 'narrow');
     const nominal = evaluateFrom(devices, sized.gates, ctx.spec, m, SCAN_INTERVALS);
     const sigma = sigmaFor(ctx.coeff, nominal);

@@ -1,8 +1,8 @@
 import { topologyOf } from '../../topology/index.js';
 import type { Candidate } from './candidate.js';
-import { gmidInRange, perCoordinate, SETPOINT_MIN, withSetpoint } from './candidate.js';
+import { gmidInRange, perCoordinate, SETPOINT_MIN, withGmid, withSetpoint } from './candidate.js';
 import type { SolveContext } from '../context.js';
-import { candidateWidths, evaluateCandidate, fullyOk, type Evaluated, type Start } from '../evaluate/evaluate.js';
+import { candidateWidths, evaluateCandidate, fullyOk, sizingUnrealisable, type Evaluated, type Start } from '../evaluate/evaluate.js';
 import { distanceToFeasible, REL_TOL } from '../../policy.js';
 import { better, shortfall, stepTop } from './rank.js';
 import { rejudged, type Reuse, type Seen } from './reuse.js';
@@ -288,6 +288,8 @@ const SETPOINT_EDGE_V = 1e-4;
 // Steps of the climb's finest setpoint step a gm/ID move at a setpoint's realisable edge looks for its own edge within
 // (alongSetpointEdge): 8 of 3.125 mV, 25 mV, what the top's VGS moves by for a grid step of its gm/ID in weak inversion.
 const EDGE_REACH = 8;
+// Grid steps of gm/ID that madeUpBy moves one gm/ID by at most, to make up an edge move's shortfall.
+const MADE_UP_REACH = 4;
 // Rounds of moves per climb at most (each improves or halves the steps).
 export const CLIMB_ROUNDS = 16;
 // Ridge steps per climb at most; their difference steps (gm/ID: a grid step / 8; setpoints, V) and box (in steps): the
@@ -446,9 +448,12 @@ function climb(
 
   /**
    * The moves along a setpoint's realisable edge from `best` (alongSetpointEdge): whether one improved on it, or else a
-   * climb from the nearest to meeting the targets of those within PLAIN_REACH and smaller (objective area) did (either
-   * becomes `best`). Along the edge the targets bind too, and a step of a gm/ID there often misses one by a little that
-   * a step of the other gm/ID makes up (random audit seed 20261373 #5).
+   * climb from the nearest to meeting the targets of those within PLAIN_REACH and smaller (objective area) did, or else
+   * one made up by a gm/ID alone (madeUpAlongEdge) is better (each becomes `best`). Along the edge the targets bind too,
+   * and a step of a gm/ID there often misses one by a little that a step of the other gm/ID makes up (random audit seed
+   * 20261373 #5), or by more that a lower gm/ID several steps away makes up (seed 20261403 #31). The climb comes first:
+   * where both gained, its answer was the smaller (marsh-wren's excitation triple, with saturation edges found from the
+   * quick looks too: 334.3 against 345.0e-12 m²).
    */
   function fromSetpointEdge(gstep: number, vstep: number): boolean {
     const moves = alongSetpointEdge(gstep, vstep);
@@ -461,11 +466,72 @@ function climb(
       if (ctx.spec.objective === 'area' && !(e.area < best.area * (1 - REL_TOL))) continue;
       if (!from || shortfall(ctx, e) < shortfall(ctx, from)) from = e;
     }
-    if (!from) return false;
-    const r = climbFrom(from);
-    if (!better(r, best)) return false;
-    best = r;
+    if (from) {
+      const r = climbFrom(from);
+      if (better(r, best)) {
+        best = r;
+        return true;
+      }
+    }
+    const made = madeUpAlongEdge(moves, gstep);
+    if (!made || !better(made, best)) return false;
+    best = made;
     return true;
+  }
+
+  /**
+   * The best of the edge `moves` short of the targets (and, with objective area, smaller than `best`) with their
+   * shortfall made up by one gm/ID alone (madeUpBy), or null. Along the edge the setpoint falls with the upper gm/ID,
+   * and a lower device then needs its own gm/ID up by more than a climb step (less VDSsat for the lower VDS): with
+   * both devices at 800 nm, a top 0.3 /V down moved the edge 7 mV down, which the bottom made up only 2.6 /V up (random
+   * audit seed 20261403 #31). A lower device's area is small beside a wide top's, so the move still gains.
+   */
+  function madeUpAlongEdge(moves: readonly Candidate[], gstep: number): Evaluated | null {
+    let out: Evaluated | null = null;
+    for (const m of moves) {
+      const e = seen.get(seen.key(m));
+      if (!e || fullyOk(ctx, e)) continue;
+      if (ctx.spec.objective === 'area' && !(e.area < best.area * (1 - REL_TOL))) continue;
+      for (let j = 0; j < m.gmid.length; j++) {
+        for (const sign of [-1, 1]) {
+          const r = madeUpBy(e, j, sign, gstep);
+          if (r && (!out || better(r, out))) out = r;
+        }
+      }
+    }
+    return out;
+  }
+
+  /**
+   * `from` (short of the targets) with gm/ID j moved by `sign`: stepped by `gstep`, doubling, while the shortfall falls
+   * and within MADE_UP_REACH grid steps, to a design meeting every target; then bisected back to the least move that
+   * does (within gstep / 2). Null when none is found.
+   */
+  function madeUpBy(from: Evaluated, j: number, sign: number, gstep: number): Evaluated | null {
+    const g0 = from.cand.gmid[j];
+    let miss = g0;
+    let last = shortfall(ctx, from);
+    for (let d = gstep; d <= MADE_UP_REACH * ctx.gmidStep; d *= 2) {
+      const g = g0 + sign * d;
+      if (!gmidInRange(ctx, g)) return null;
+      const e = evaluate(withGmid(from.cand, j, g));
+      if (!e) return null;
+      if (fullyOk(ctx, e)) {
+        let halvings = 0;
+        for (let w = Math.abs(g - miss); w > gstep / 2; w /= 2) halvings++;
+        const met = edgeOf((x) => {
+          const t = evaluate(withGmid(from.cand, j, x));
+          return t !== null && fullyOk(ctx, t);
+        }, g, miss, halvings);
+        // Evaluated already by the bisection (or above).
+        return evaluate(withGmid(from.cand, j, met));
+      }
+      const s = shortfall(ctx, e);
+      if (!(s < last)) return null;
+      last = s;
+      miss = g;
+    }
+    return null;
   }
 
   /**
@@ -478,20 +544,31 @@ function climb(
   function alongSetpointEdge(gstep: number, vstep: number): Candidate[] {
     const out: Candidate[] = [];
     const c = best.cand;
-    const gmidMoves = neighbours(ctx, c, gstep, vstep, true).filter(
-      (n) => n.l.every((l, j) => l === c.l[j]) && n.setpoints.every((v, j) => v === c.setpoints[j]) && seen.get(seen.key(n)) === null,
-    );
-    if (gmidMoves.length === 0) return out;
+    const edges: Array<[number, number]> = [];
     for (let k = 0; k < c.setpoints.length; k++) {
-      for (const sign of [-1, 1]) {
-        if (seen.get(seen.key(withSetpoint(c, k, c.setpoints[k] + sign * vstep))) !== null) continue;
-        for (const n of gmidMoves) {
-          const e = alongEdge(n, k, -sign, vstep);
-          if (e) out.push(e);
-        }
+      for (const sign of [-1, 1]) if (unrealisable(withSetpoint(c, k, c.setpoints[k] + sign * vstep))) edges.push([k, sign]);
+    }
+    if (edges.length === 0) return out;
+    const gmidMoves = neighbours(ctx, c, gstep, vstep, true).filter(
+      (n) => n.l.every((l, j) => l === c.l[j]) && n.setpoints.every((v, j) => v === c.setpoints[j]) && unrealisable(n),
+    );
+    for (const [k, sign] of edges) {
+      for (const n of gmidMoves) {
+        const e = alongEdge(n, k, -sign, vstep);
+        if (e) out.push(e);
       }
     }
     return out;
+  }
+
+  /**
+   * Whether a move cannot be realised: from its evaluation, else (a move the area bound or its quick look set aside
+   * unevaluated) from its sizing and bias diodes alone (evaluate.sizingUnrealisable), the edge a bias diode at the
+   * minimum width sets; a lower device's saturation edge needs a DC solve, and is taken only from evaluated moves.
+   */
+  function unrealisable(n: Candidate): boolean {
+    const key = seen.key(n);
+    return seen.has(key) ? seen.get(key) === null : sizingUnrealisable(ctx, n);
   }
 
   /**
