@@ -702,6 +702,21 @@ const FEASIBLE: Case[] = [
     id: 'nreed-cascode-area-audit4-s1403-31', kit: 'reed180', why: 'least area along a setpoint edge that a lower gm/ID several steps up follows',
     spec: { device: 'n', topology: 'cascode', current: 1.05e-6, rout: 504e6, headroom: 0.639, span: 1.46, objective: 'area', l: { min: 180e-9, max: 800e-9 } },
   },
+  {
+    // Found by the random audit (tests/audit-random.test.ts, seed 20261405 #31): area 2.047e-9 m² vs reference
+    // 1.754e-9 m² (tool +17 %). No screened design met the targets (the screen's headroom estimate, setpoints plus the
+    // top's VDSsat, leaves 386 mV little room), all with the bottom and middle at 22 /V and the bottom just saturated at
+    // 125 mV; the climbs from them ended with both setpoints near 150 mV. The reference squeezes the top: the middle at
+    // 563 mV. The starts biased that way (otherBias) kept the bottom at its saturation edge, which it leaves at once as
+    // the squeezed middle gives up VDS, and missed the headroom by 284 mV, beyond the climbs' reach. Found since such a
+    // start with a lower device at its saturation edge also seeds a climb with that setpoint a climb step or two up
+    // (search/saturation-lift.ts): at 150 mV it meets the headroom; 1.722e-9 m², gm/ID [16.4, 18.5, 7.1], the middle
+    // at 581 mV.
+    // Reference design: l [1e-6, 1e-6, 1e-6], gm/ID [16.51, 18.5, 11], setpoints [0.175, 0.5625].
+    id: 'p180-triple-area-audit4-s1405-31', kit: 'demo180', why: 'least area with the top squeezed, reached from a squeezed start lifted off the bottom\'s saturation edge',
+    grid: { gmidStep: 4, vStep: 0.1 },
+    spec: { device: 'p', topology: 'triple', current: 118e-6, rout: 7.22e6, headroom: 0.386, span: 1.27, objective: 'area', l: { min: 1e-6, max: 1.4e-6 }, gmid: { min: 6, max: 22 } },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {

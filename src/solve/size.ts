@@ -27,6 +27,7 @@ import { alongValley } from './search/valley.js';
 import { fromOtherSide } from './search/setpoint-side.js';
 import { fromWidest } from './search/widest-probe.js';
 import { fromSlackJump } from './search/setpoint-jump.js';
+import { liftedOffSaturationEdge } from './search/saturation-lift.js';
 import type { StageFrontPoint } from './stage-types.js';
 import { toWidthLimit, widestAt } from './search/width-edge.js';
 
@@ -261,6 +262,12 @@ function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool:
         if (!biased) continue;
         pool.push(biased);
         if (distanceToFeasible(biased.margins) <= REACH) seeds.push(biased);
+        // Beyond reach with a lower device at its saturation edge: that setpoint lifted a step or two instead.
+        const lifted = liftedOffSaturationEdge(ctx, biased, seen, REACH);
+        if (lifted && !seeds.includes(lifted)) {
+          pool.push(lifted);
+          seeds.push(lifted);
+        }
       }
     }
   }
