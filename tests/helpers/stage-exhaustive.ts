@@ -390,6 +390,14 @@ function heldExact(curve: HeldCurve, width: number, above: number, floor: number
 }
 
 /**
+ * Exact held gain over `width` of one traced circuit (as StageNearestAnswer.held, for a single design), for references
+ * that trace their own designs; `t` from traceStage on `c` with every sample kept (keep 'all', the default).
+ */
+export function heldOnCircuit(c: StageCircuit, t: StageTrace, width: number): number {
+  return Math.max(0, heldExact(new HeldCurve(c, t), width, heldBound(t.vs, t.gains, t.j0, width), 0));
+}
+
+/**
  * Exhaustive nearest points of one stage spec with a fixed load topology, at one corner: over every pair of side
  * designs on the grid (input DC voltage at the design point within the rails), the highest gain at the design
  * point, the highest gain held over the swing target (exact on the circuit, see `held`), the widest swing at the gain
