@@ -248,7 +248,7 @@ export interface StageNearestAnswer {
   gbwMeeting: number;
   pairs: number;
   traced: number;
-  /** Pairs whose held gain was bisected on the circuit (heldExact), of those traced. */
+  /** Traced pairs judged on the circuit for the held gain (heldExact: a bisected swing at the best so far, and where that holds the bisection on the gain). */
   exact: number;
   /** The pair holding `held`. */
   heldBy?: { input: Pick<SideOption, 'l' | 'gmid' | 'setpoints'>; load: Pick<SideOption, 'l' | 'gmid' | 'setpoints'> };
