@@ -252,9 +252,12 @@ function auditStage(kits: Record<string, Kit>, kit: string, stage: StageSpec, gr
  * feasible, and that design's circuit (its devices and nominal gates, on the kit's length slices) traced by the stack
  * layer as the reference traces (traceStage, each swing edge bisected on the circuit) has a swing at that gain
  * reaching that swing, its input DC voltage within the rails. A gain held over a swing is the lowest gain on the best
- * window of that width (README), so it reaches a gain exactly when the swing at that gain reaches the width. Not
- * heldOnGrid on the 20 mV curve: linear between samples, it falls short where the gain falls steeply at the window's
- * ends (seed 20261382 #37: 10,196 on the curve of a design whose swing at a gain of 11,039 is 0.505 V).
+ * window of that width (README), so it reaches a gain exactly when the swing at that gain reaches the width; the
+ * reference's own held gain (stageNearestExhaustive `held`) is judged so too, bisected on the gain over the grid's pairs,
+ * so what this adds is the designs off the reference's grid. Not heldOnGrid on the 20 mV curve: linear between samples,
+ * it falls short where the gain falls steeply at the window's ends (seed 20261382 #37: 10,196 on the curve of a design
+ * whose swing at a gain of 11,039 is 0.505 V), and reads high where the curve bends the other way (stage-nearest's
+ * stacked-cascode case: 27.80 on the curve, 27.54 exact); the reference read it so until the held gain was made exact.
  */
 function claimBacked(k: Kit, kit: string, stage: StageSpec, tool: StageResult, kind: 'nearHeld' | 'nearSwing'): boolean {
   const near = tool.nearest!;

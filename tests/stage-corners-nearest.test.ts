@@ -2,10 +2,11 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { parseSpec, sizeStage, type Kit } from '../src/index.js';
 import type { StageSpec } from '../src/design/types.js';
 import { makeSide, sideChecked, sideSized, type Side, type SideDesign } from '../src/solve/stage-side.js';
-import { SEARCH_STEP, TRACE_STEP, evaluateCorner, evaluatePair, stageAt, type StageDesign, type StageSides } from '../src/solve/stage-eval.js';
+import { SEARCH_STEP, TRACE_STEP, evaluateCorner, evaluatePair, stageAt, type StageAt, type StageDesign, type StageSides } from '../src/solve/stage-eval.js';
 import { stageMargins } from '../src/solve/stage-rank.js';
 import { stageVerdict } from '../src/report/stage-rows.js';
 import { demoKits } from './helpers/cli.js';
+import { heldOnCircuit } from './helpers/stage-exhaustive.js';
 
 /*
  * A gain stage's nearest points over every corner (README, "JSON output": nearest.overCorners): the best gain held over
@@ -14,7 +15,9 @@ import { demoKits } from './helpers/cli.js';
  * re-solved). Checked against a plain grid search over the whole allowed space of a common-source or cascode input into
  * a single-device load (every allowed length and gm/ID of each device on a grid, the cascode's setpoint too, every
  * pair), refined on a finer grid around its winners, each figure traced on the reported 20 mV grid with the held
- * gain's window ends solved on the circuit. The reference shares the tool's evaluation of one pair (src/solve/stage-eval.ts), none of its search.
+ * gain exact on the circuit (tests/helpers/stage-exhaustive.ts heldOnCircuit: the highest gain whose swing, each edge
+ * bisected on the circuit, reaches the target). The reference shares the tool's evaluation of one pair
+ * (src/solve/stage-eval.ts), none of its search.
  */
 
 const SUPPLY = 1.8;
@@ -28,14 +31,17 @@ interface Worst {
 
 function worst(sides: StageSides, d: StageDesign, step: number): Worst {
   const n = step === TRACE_STEP ? stageAt(sides, d.nominal.corner, d.nominal.circuit, d.nominal.gates, TRACE_STEP) : d.nominal;
+  // On the reported grid the held gain is exact on the circuit (the reference's own, heldOnCircuit); on the search
+  // grid, to rank, the tool's figure.
+  const heldOf = (at: StageAt) => (step === TRACE_STEP ? heldOnCircuit(at.circuit, at.trace, sides.stage.swing) : at.gainAtSwing);
   let rails = stageMargins(sides.stage, n).vin >= 0;
-  let held = n.gainAtSwing;
+  let held = heldOf(n);
   let swing = n.trace.swing;
   for (const c of CORNERS.slice(1)) {
     const at = evaluateCorner(sides, d, c, step, true);
     if ('error' in at) return { rails: false, held: 0, swing: 0 };
     rails &&= stageMargins(sides.stage, at).vin >= 0;
-    held = Math.min(held, at.gainAtSwing);
+    held = Math.min(held, heldOf(at));
     swing = Math.min(swing, at.trace.swing);
   }
   return { rails, held, swing };

@@ -15,6 +15,9 @@
  *   (gm_in / (2π (cap + C_out)), C_out the tables' cdd of the two output devices) reaches it.
  * Pairs are judged in order of area, so the first pair meeting the targets is the smallest on the grid. The only
  * skip is exact: a pair whose gain at the design point (one solve of the circuit) is below the target has no swing.
+ * The nearest points (stageNearestExhaustive) judge pairs by the same definitions; the gain held over the swing target
+ * is exact on the circuit (the highest gain whose swing, each edge bisected on the circuit, reaches the target; found by
+ * bisection on the gain), not read off the 20 mV curve.
  */
 import type { LengthSlice } from '../../src/device/types.js';
 import type { KitAccess } from '../../src/solve/kit.js';
@@ -23,7 +26,7 @@ import type { Polarity } from '../../src/table/types.js';
 import { topologyOf } from '../../src/topology/index.js';
 import {
   biasDevices, inputAtCurrent, sampleAt, saturationVoltage, sideVoltage, sizeStackDevices, stagePoint, thermalVoltage, traceStage,
-  type StageCircuit, type StackDevice,
+  stageSample, type StageCircuit, type StageSample, type StageTrace, type StackDevice,
 } from '../../src/stack/index.js';
 
 export interface StageGrid {
@@ -226,8 +229,14 @@ export function stageExhaustive(stage: StageSpec, kit: KitAccess, supply: number
 export interface StageNearestAnswer {
   /** Highest gain at the design point over the grid's pairs (input DC voltage within the rails). */
   peak: number;
-  /** Highest gain held over the swing target: over output intervals of the target's width containing the design point, the lowest gain (linear between the 20 mV samples). */
+  /**
+   * Highest gain held over the swing target, exact on the circuit (heldExact): over the grid's pairs, the highest gain
+   * G whose swing at G (the README's: the run of 20 mV samples from the design point with gain ≥ G, each edge bisected
+   * on the circuit) reaches the swing target.
+   */
   held: number;
+  /** The same figure read off each pair's 20 mV curve (heldOnGrid, linear between samples): reads low where the gain falls steeply. */
+  heldGrid: number;
   /** Widest swing at the gain target (0 when no pair reaches the gain target at the design point). */
   swing: number;
   /** Highest gain at the design point among the pairs meeting the targets (swing at the gain target ≥ the swing target); 0 when none does. */
@@ -239,6 +248,8 @@ export interface StageNearestAnswer {
   gbwMeeting: number;
   pairs: number;
   traced: number;
+  /** Traced pairs judged on the circuit for the held gain (heldExact: a bisected swing at the best so far, and where that holds the bisection on the gain). */
+  exact: number;
   /** The pair holding `held`. */
   heldBy?: { input: Pick<SideOption, 'l' | 'gmid' | 'setpoints'>; load: Pick<SideOption, 'l' | 'gmid' | 'setpoints'> };
 }
@@ -267,13 +278,136 @@ export function heldOnGrid(vs: ArrayLike<number>, gains: ArrayLike<number>, j0: 
   return best;
 }
 
+/** How far below its target a swing still meets it, V (as the reference's other swing checks). */
+const SWING_SLACK = 1e-9;
+/** Resolution of a swing edge bisected for the exact held gain, V. */
+const EDGE_RES = 1e-7;
+/** Relative resolution of the held gain's bisection. */
+const GAIN_RES = 1e-6;
+
+/**
+ * Upper bound on the exact held gain of a traced curve, from its 20 mV samples alone: the swing at a gain G is the
+ * run of samples from the design point with gain ≥ G, each edge bisected between the run's last sample and the next
+ * one out, so it reaches `width` only if the run's outer neighbours (the grid's ends where the run reaches them) lie
+ * `width` apart, and G is at most the run's lowest sample. The bound is the best such run's lowest sample.
+ */
+export function heldBound(vs: ArrayLike<number>, gains: ArrayLike<number>, j0: number, width: number): number {
+  const n = vs.length;
+  let best = 0;
+  for (let lo = j0; lo >= 0; lo--) {
+    let m = Infinity;
+    for (let j = lo; j < j0; j++) m = Math.min(m, gains[j]);
+    for (let hi = j0; hi < n; hi++) {
+      m = Math.min(m, gains[hi]);
+      if (!(m > best)) break;
+      const span = (hi < n - 1 ? vs[hi + 1] : vs[n - 1]) - (lo > 0 ? vs[lo - 1] : vs[0]);
+      if (span >= width - SWING_SLACK) {
+        best = m;
+        break;
+      }
+    }
+  }
+  return best;
+}
+
+/** A point solved on the circuit inside one 20 mV gap, `x` its distance from the gap's inner sample, V. */
+interface GapPoint {
+  x: number;
+  gain: number;
+  s: StageSample | null;
+}
+
+/**
+ * One pair's traced curve and its circuit, for swings at any gain: the points solved inside each gap between samples
+ * are kept, so each new gain's edge bisection starts from the points already known (its bracket is the last known
+ * point holding the gain, counted outwards from the gap's inner sample, and the first one not).
+ */
+class HeldCurve {
+  private gaps = new Map<number, GapPoint[]>();
+  constructor(private readonly c: StageCircuit, readonly t: StageTrace) {}
+
+  /** Swing at gain g by the README's definition (see StageNearestAnswer.held); 0 when the design point misses g. */
+  swingAt(g: number): number {
+    const { vs, gains, j0 } = this.t;
+    const n = vs.length;
+    if (!(gains[j0] >= g)) return 0;
+    let lo = j0;
+    while (lo > 0 && gains[lo - 1] >= g) lo--;
+    let hi = j0;
+    while (hi < n - 1 && gains[hi + 1] >= g) hi++;
+    const vlow = lo > 0 ? this.edge(lo, -1, g) : vs[0];
+    const vhigh = hi < n - 1 ? this.edge(hi, 1, g) : vs[n - 1];
+    return vhigh - vlow;
+  }
+
+  /** The edge between sample j (gain ≥ g) and sample j + d (below g), bisected on the circuit to EDGE_RES: the last point holding g. */
+  private edge(j: number, d: 1 | -1, g: number): number {
+    const { vs, gains, samples } = this.t;
+    const key = 2 * j + (d > 0 ? 1 : 0);
+    let pts = this.gaps.get(key);
+    if (!pts) {
+      pts = [{ x: 0, gain: gains[j], s: samples[j] }, { x: Math.abs(vs[j + d] - vs[j]), gain: gains[j + d], s: samples[j + d] }];
+      this.gaps.set(key, pts);
+    }
+    for (;;) {
+      let i = 0;
+      while (i + 1 < pts.length && pts[i + 1].gain >= g) i++;
+      // The outer sample below g (the run stopped there), so i + 1 exists.
+      const a = pts[i];
+      const b = pts[i + 1];
+      if (b.x - a.x <= EDGE_RES) return vs[j] + d * a.x;
+      const x = 0.5 * (a.x + b.x);
+      const s = stageSample(this.c, vs[j] + d * x, a.s?.load, a.s ?? undefined);
+      pts.splice(i + 1, 0, { x, gain: s ? s.gain : 0, s });
+    }
+  }
+
+  meets(g: number, width: number): boolean {
+    return this.swingAt(g) >= width - SWING_SLACK;
+  }
+}
+
+/**
+ * Exact held gain of one traced pair over `width` (StageNearestAnswer.held): the highest gain g whose swing at g reaches
+ * `width`, bisected on g. A higher g gives a narrower or equal swing — its run of samples is within the lower g's, and
+ * each edge, bisected in the same gap, is a crossing of the higher gain, nearer the design point where the gain is
+ * monotone between samples — so the gains that reach `width` are an interval from 0. `above` is heldBound's bound
+ * (reached: the answer); with `floor` > 0 a pair whose swing at `floor` misses `width` is skipped (-1: it cannot hold
+ * more than floor).
+ */
+function heldExact(curve: HeldCurve, width: number, above: number, floor: number): number {
+  if (!(above > 0)) return 0;
+  if (curve.meets(above, width)) return above;
+  let lo = floor;
+  if (floor > 0 && !curve.meets(floor, width)) return -1;
+  let hi = above;
+  for (let k = 0; k < 60 && hi - lo > GAIN_RES * hi; k++) {
+    const m = 0.5 * (lo + hi);
+    if (curve.meets(m, width)) lo = m;
+    else hi = m;
+  }
+  return lo;
+}
+
+/**
+ * Exact held gain over `width` of one traced circuit (as StageNearestAnswer.held, for a single design), for references
+ * that trace their own designs; `t` from traceStage on `c` with every sample kept (keep 'all', the default).
+ */
+export function heldOnCircuit(c: StageCircuit, t: StageTrace, width: number): number {
+  return Math.max(0, heldExact(new HeldCurve(c, t), width, heldBound(t.vs, t.gains, t.j0, width), 0));
+}
+
 /**
  * Exhaustive nearest points of one stage spec with a fixed load topology, at one corner: over every pair of side
  * designs on the grid (input DC voltage at the design point within the rails), the highest gain at the design
- * point, the highest gain held over the swing target, the widest swing at the gain target, and the highest gain at the
- * design point among the pairs meeting the targets (the optima of objectives swing and gain). Pairs go in order of
- * their design-point gain from the two sides' values there (within 1 % of the circuit's, which is then solved);
- * each figure stops once that order cannot beat it (held and swing both need the design-point gain).
+ * point, the highest gain held over the swing target (exact on the circuit, see `held`), the widest swing at the gain
+ * target, and the highest gain at the design point among the pairs meeting the targets (the optima of objectives swing
+ * and gain). Pairs go in order of their design-point gain from the two sides' values there (within 1 % of the
+ * circuit's, which is then solved); each figure stops once that order cannot beat it (held and swing both need the
+ * design-point gain). The held gain is bisected on the circuit (heldExact) only for the traced pairs whose grid bound
+ * (heldBound) exceeds the best held so far, in order of that bound, and only after a bisected swing at that best
+ * shows the pair holds at least as much; the pairs traced are those whose design-point gain could beat the grid
+ * reading, then (when the exact best is below it) those that could beat the exact best.
  */
 export function stageNearestExhaustive(stage: StageSpec, kit: KitAccess, supply: number, corner: string, grid: StageGrid): StageNearestAnswer {
   const inDev = stage.input.device;
@@ -291,6 +425,7 @@ export function stageNearestExhaustive(stage: StageSpec, kit: KitAccess, supply:
   const order = Array.from(est.keys()).sort((x, y) => est[y] - est[x]);
   const circuit = (k: number) => circuitOf(supply, inDev, inputs[Math.floor(k / nl)], loads[k % nl]);
   const withinRails = (vin: number | undefined) => vin !== undefined && vin >= 0 && vin <= supply;
+  const trace = (c: StageCircuit) => traceStage(c, stage.output, stage.gain, { step: 0.02, swing: stage.swing });
   let peak = 0;
   for (const k of order) {
     if (est[k] < peak / 1.02) break;
@@ -302,37 +437,66 @@ export function stageNearestExhaustive(stage: StageSpec, kit: KitAccess, supply:
     }
     if (p && withinRails(p.vin) && p.gain > peak) peak = p.gain;
   }
+  let heldGrid = 0;
   let held = 0;
   let swing = 0;
   let traced = 0;
+  let exact = 0;
   let heldBy: StageNearestAnswer['heldBy'];
   let gainMeeting = 0;
   let gbwMeeting = 0;
-  for (const k of order) {
-    const needSwing = est[k] >= 0.98 * stage.gain;
-    if (!needSwing && est[k] < held / 1.02) break;
-    const c = circuit(k);
-    let t;
-    try {
-      t = traceStage(c, stage.output, stage.gain, { step: 0.02, swing: stage.swing });
-    } catch {
-      continue;
+  // Traced pairs (within the rails) that may hold more than the exact best: their grid bound.
+  let open: Array<{ k: number; bound: number }> = [];
+  let next = 0;
+  // Trace pairs in order while one could beat `least` (the grid reading's best, then the exact best).
+  const traceOn = (least: () => number) => {
+    for (; next < order.length; next++) {
+      const k = order[next];
+      const needSwing = est[k] >= 0.98 * stage.gain;
+      if (!needSwing && est[k] < least() / 1.02) break;
+      const c = circuit(k);
+      let t;
+      try {
+        t = trace(c);
+      } catch {
+        continue;
+      }
+      traced++;
+      if (!withinRails(t.points[t.j0]?.vin)) continue;
+      heldGrid = Math.max(heldGrid, heldOnGrid(t.vs, t.gains, t.j0, stage.swing));
+      const bound = heldBound(t.vs, t.gains, t.j0, stage.swing);
+      if (bound > held) open.push({ k, bound });
+      swing = Math.max(swing, t.swing);
+      if (t.swing >= stage.swing - 1e-9) {
+        gainMeeting = Math.max(gainMeeting, t.gains[t.j0]);
+        if (stage.gbw !== undefined) gbwMeeting = Math.max(gbwMeeting, gbwAt(stage, c, t.points[t.j0]));
+      }
     }
-    traced++;
-    if (!withinRails(t.points[t.j0]?.vin)) continue;
-    const h = heldOnGrid(t.vs, t.gains, t.j0, stage.swing);
-    if (h > held) {
-      held = h;
-      const pick = (o: SideOption) => ({ l: o.l, gmid: o.gmid, setpoints: o.setpoints });
-      heldBy = { input: pick(inputs[Math.floor(k / nl)]), load: pick(loads[k % nl]) };
+  };
+  // The exact held gain of the open pairs, best bound first, until no bound beats the exact best.
+  const settle = () => {
+    open.sort((x, y) => y.bound - x.bound);
+    for (const { k, bound } of open) {
+      if (!(bound > held)) break;
+      const c = circuit(k);
+      const h = heldExact(new HeldCurve(c, trace(c)), stage.swing, bound, held);
+      exact++;
+      if (h > held) {
+        held = h;
+        const pick = (o: SideOption) => ({ l: o.l, gmid: o.gmid, setpoints: o.setpoints });
+        heldBy = { input: pick(inputs[Math.floor(k / nl)]), load: pick(loads[k % nl]) };
+      }
     }
-    swing = Math.max(swing, t.swing);
-    if (t.swing >= stage.swing - 1e-9) {
-      gainMeeting = Math.max(gainMeeting, t.gains[t.j0]);
-      if (stage.gbw !== undefined) gbwMeeting = Math.max(gbwMeeting, gbwAt(stage, c, t.points[t.j0]));
-    }
+    open = [];
+  };
+  traceOn(() => heldGrid);
+  settle();
+  // Soundness: every pair whose design-point gain could exceed the exact best is traced.
+  while (next < order.length && !(est[order[next]] < held / 1.02)) {
+    traceOn(() => held);
+    settle();
   }
-  return { peak, held, swing, gainMeeting, gbwMeeting, pairs: est.length, traced, heldBy };
+  return { peak, held, heldGrid, swing, gainMeeting, gbwMeeting, pairs: est.length, traced, exact, heldBy };
 }
 
 /**
