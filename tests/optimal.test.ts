@@ -717,6 +717,19 @@ const FEASIBLE: Case[] = [
     grid: { gmidStep: 4, vStep: 0.1 },
     spec: { device: 'p', topology: 'triple', current: 118e-6, rout: 7.22e6, headroom: 0.386, span: 1.27, objective: 'area', l: { min: 1e-6, max: 1.4e-6 }, gmid: { min: 6, max: 22 } },
   },
+  {
+    // Found by the random audit (tests/audit-random.test.ts, seed 20261413 #165): area 88.59e-12 m² vs reference
+    // 84.31e-12 m² (tool +5.1 %). Both devices at 1.4 µm, the setpoint at 275 mV, the Rout target binding at the
+    // headroom target; the climbs ended with the top at 23.86 /V and the bottom at 14.97 /V. The top's gm/ID down (the
+    // wide device) saves area that the bottom's up pays back only in part, but along the Rout target the bottom must rise
+    // some 2.5 times as far as the top falls: no pair move of equal steps follows that, and the ridge steps read the
+    // headroom's kink at the Rout target as a wall. Found since the search's answer also trades: a smaller gm/ID move
+    // short of the targets made up by another device's gm/ID alone, again while one gains (refine.ts tradedClimb):
+    // 82.70e-12 m², gm/ID [15.73, 23.56].
+    // Reference design: l [1.4e-6, 1.4e-6], gm/ID [15.75, 23.625], setpoints [0.275].
+    id: 'n180-cascode-area-audit4-s1413-165', kit: 'demo180', why: 'least area along the Rout target, the bottom gm/ID rising 2.5 times as far as the top\'s falls',
+    spec: { device: 'n', topology: 'cascode', current: 5.31e-6, rout: 2.87e9, headroom: 0.525, span: 0.923, objective: 'area', l: { min: 500e-9, max: 1.4e-6 } },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {

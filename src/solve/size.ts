@@ -8,7 +8,7 @@ import type { KitAccess } from './kit.js';
 import { checkStageCover, checkTableCover } from './table-cover.js';
 import { makeContext, type SolveContext } from './context.js';
 import { screen } from './search/screen.js';
-import { CLIMB_ROUNDS, evaluateOnce, evaluateToPool, refine, settle, type Seen } from './search/refine.js';
+import { CLIMB_ROUNDS, evaluateOnce, evaluateToPool, refine, settle, tradedClimb, type Seen } from './search/refine.js';
 import { reuseOf, type Reuse } from './search/reuse.js';
 import { CandidateMap } from './search/candidate-map.js';
 import type { Candidate } from './search/candidate.js';
@@ -289,6 +289,7 @@ function search(ctx: SolveContext, topology: Topology): { best: Evaluated; pool:
   best = fromSetpointLine(ctx, best, seen, pool);
   best = alongValley(ctx, best, seen, pool);
   best = fromSlackJump(ctx, best, seen, pool);
+  best = tradedClimb(ctx, best, seen, pool);
   // The report uses the full curve; if that loses a target the scan met, take the next best.
   for (let tries = 0; tries < 5 && !finalize(ctx, best); tries++) {
     settle(ctx, seen, pool);
