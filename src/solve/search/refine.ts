@@ -149,8 +149,12 @@ export function refine(
   ctx: SolveContext, seeds: readonly Evaluated[], seen: Seen, pool: Evaluated[],
   prefer?: (a: Evaluated, b: Evaluated) => boolean, hopeless?: Hopeless, rounds = CLIMB_ROUNDS, scale = 1,
 ): Evaluated | undefined {
-  const bound = prefer ? () => Infinity : areaBound(ctx);
-  if (!prefer) hopeless = specHopeless(ctx);
+  // With the spec's own order and objective area, a move whose area is no smaller than a design meeting every
+  // target cannot win: its area (from the sizing alone) spares the exact evaluation.
+  const bound = prefer ? () => Infinity : (b: Evaluated) => (ctx.spec.objective === 'area' && fullyOk(ctx, b) ? b.area : Infinity);
+  // By the spec's order nothing short of the nominal targets beats a design meeting every target; short of them,
+  // a move beats one only with a smaller shortfall in rank.better's steps.
+  if (!prefer) hopeless = (l, b) => (fullyOk(ctx, b) ? surelyMisses(ctx, l) : shortfallSurelyAbove(ctx, l, stepTop(shortfall(ctx, b))));
   // The sizing's own climbs (the spec's order, not a meet-only search) also get the ridge steps and raised length moves.
   const sizing = !prefer && !ctx.meetOnly;
   prefer ??= (a, b) => better(ctx, a, b);
@@ -163,31 +167,93 @@ export function refine(
 }
 
 /**
- * With the spec's own order and objective area, a move whose area is no smaller than a design meeting every target
- * cannot win: its area (from the sizing alone) spares the exact evaluation.
- */
-function areaBound(ctx: SolveContext): (b: Evaluated) => number {
-  return (b) => (ctx.spec.objective === 'area' && fullyOk(ctx, b) ? b.area : Infinity);
-}
-
-/**
- * By the spec's order nothing short of the nominal targets beats a design meeting every target; short of them, a move
- * beats one only with a smaller shortfall in rank.better's steps.
- */
-function specHopeless(ctx: SolveContext): Hopeless {
-  return (l, b) => (fullyOk(ctx, b) ? surelyMisses(ctx, l) : shortfallSurelyAbove(ctx, l, stepTop(shortfall(ctx, b))));
-}
-
-/**
- * The sizing's answer `from` (meeting every target, objective area) with one gm/ID traded for another (madeUpTrades),
- * again from each trade that gains (at most TRADES); `from` when none gains. Once per search, on its answer, so it can
- * only improve on it.
+ * The sizing's answer `from` (meeting every target, objective area) with one gm/ID traded for another: each move of one
+ * gm/ID by a climb's finest step that is smaller but short of the targets, made up by another device's gm/ID alone
+ * (bestMadeUp), the best becoming the answer when better, again from there while one gains (at most TRADES); `from`
+ * when none gains. Along the Rout target a wide top's gm/ID down saves area that the narrow bottom's gm/ID up pays back
+ * only in part, but the bottom must rise some 2.5 times as far as the top falls (a demo180 cascode at 1.4 µm: 0.3 /V of
+ * the top for 0.77 /V of the bottom, random audit seed 20261413 #165), which no pair move of equal steps follows, and the
+ * ridge steps read the headroom's kink at the Rout target as a wall. Once per search, on its answer, so it can only
+ * improve on it: tried at each climb's stalls it took the marsh-wren ota-load triple's climbs elsewhere (6.07 against
+ * 5.72e-12 m²), and at the end of every climb, followed by more climb rounds, it cost 3 % more instructions on
+ * marsh-wren (on the answer alone: 0.3 %).
  */
 export function tradedClimb(ctx: SolveContext, from: Evaluated, seen: Seen, pool: Evaluated[]): Evaluated {
   if (ctx.meetOnly || ctx.spec.objective !== 'area' || !fullyOk(ctx, from)) return from;
   const prefer = (a: Evaluated, b: Evaluated) => better(ctx, a, b);
-  const r = climb(ctx, from, seen, pool, prefer, areaBound(ctx), specHopeless(ctx), true, CLIMB_ROUNDS, 1, true);
-  return prefer(r, from) ? r : from;
+  const gstep = ctx.gmidStep / 8;
+  let best = from;
+  for (let t = 0; t < TRADES && fullyOk(ctx, best); t++) {
+    const c = best.cand;
+    let out: Evaluated | null = null;
+    for (let k = 0; k < c.gmid.length; k++) {
+      for (const sign of [-1, 1]) {
+        const g = c.gmid[k] + sign * gstep;
+        if (!gmidInRange(ctx, g)) continue;
+        const n = withGmid(c, k, g);
+        if (!(sizeOnce(ctx, seen, seen.key(n), n).area < best.area * (1 - REL_TOL))) continue;
+        const e = evaluateToPool(ctx, n, seen, pool);
+        if (!e || fullyOk(ctx, e)) continue;
+        const r = bestMadeUp(ctx, seen, pool, e, gstep, prefer, k);
+        if (r && (!out || prefer(r, out))) out = r;
+      }
+    }
+    if (!out || !prefer(out, best)) break;
+    best = out;
+  }
+  return best;
+}
+
+/**
+ * `from` (short of the targets) with its shortfall made up by one gm/ID alone, any but `except`, moved either way
+ * (madeUpBy): the best by `better`, or null when none meets the targets.
+ */
+function bestMadeUp(
+  ctx: SolveContext, seen: Seen, pool: Evaluated[], from: Evaluated, gstep: number,
+  better: (a: Evaluated, b: Evaluated) => boolean, except = -1,
+): Evaluated | null {
+  let out: Evaluated | null = null;
+  for (let j = 0; j < from.cand.gmid.length; j++) {
+    if (j === except) continue;
+    for (const sign of [-1, 1]) {
+      const r = madeUpBy(ctx, seen, pool, from, j, sign, gstep);
+      if (r && (!out || better(r, out))) out = r;
+    }
+  }
+  return out;
+}
+
+/**
+ * `from` (short of the targets) with gm/ID j moved by `sign`: stepped by `gstep`, doubling, while the shortfall falls
+ * and within MADE_UP_REACH grid steps, to a design meeting every target; then bisected back to the least move that
+ * does (within gstep / 2). Null when none is found.
+ */
+function madeUpBy(ctx: SolveContext, seen: Seen, pool: Evaluated[], from: Evaluated, j: number, sign: number, gstep: number): Evaluated | null {
+  const evaluate = (g: number): Evaluated | null => evaluateToPool(ctx, withGmid(from.cand, j, g), seen, pool);
+  const g0 = from.cand.gmid[j];
+  let miss = g0;
+  let last = shortfall(ctx, from);
+  for (let d = gstep; d <= MADE_UP_REACH * ctx.gmidStep; d *= 2) {
+    const g = g0 + sign * d;
+    if (!gmidInRange(ctx, g)) return null;
+    const e = evaluate(g);
+    if (!e) return null;
+    if (fullyOk(ctx, e)) {
+      let halvings = 0;
+      for (let w = Math.abs(g - miss); w > gstep / 2; w /= 2) halvings++;
+      const met = edgeOf((x) => {
+        const t = evaluate(x);
+        return t !== null && fullyOk(ctx, t);
+      }, g, miss, halvings);
+      // Evaluated already by the bisection (or above).
+      return evaluate(met);
+    }
+    const s = shortfall(ctx, e);
+    if (!(s < last)) return null;
+    last = s;
+    miss = g;
+  }
+  return null;
 }
 
 /** A move's sizing alone, once per search: ΣW·L (NaN when the table cannot realise it) and whether it is wider than the limit (or fails). */
@@ -314,7 +380,7 @@ const SETPOINT_EDGE_V = 1e-4;
 const EDGE_REACH = 8;
 // Grid steps of gm/ID that madeUpBy moves one gm/ID by at most, to make up an edge move's shortfall.
 const MADE_UP_REACH = 4;
-// Made-up trades (madeUpTrades) per tradedClimb at most.
+// Made-up trades per tradedClimb at most.
 const TRADES = 8;
 // Rounds of moves per climb at most (each improves or halves the steps).
 export const CLIMB_ROUNDS = 16;
@@ -345,7 +411,7 @@ const RIDGE_CLIMB = 0.5;
 function climb(
   ctx: SolveContext, seed: Evaluated, seen: Seen, pool: Evaluated[],
   better: (a: Evaluated, b: Evaluated) => boolean, bound: (best: Evaluated) => number, hopeless: Hopeless | undefined, sizing: boolean,
-  rounds: number, scale: number, tradesOnly = false,
+  rounds: number, scale: number,
 ): Evaluated {
   const memo = memoOf(seen);
   // One sizing per move and search serves the area bound and the width check.
@@ -363,11 +429,6 @@ function climb(
   const evaluate = (c: Candidate): Evaluated | null => evaluateToPool(ctx, c, seen, pool);
 
   let best = seed;
-  // tradesOnly (tradedClimb): only the made-up trades (madeUpTrades) from the seed, again while one gains.
-  if (tradesOnly) {
-    for (let t = 0; t < TRADES; t++) if (!madeUpTrades(ctx.gmidStep / 8)) break;
-    return best;
-  }
   climbRounds();
   // Where the sizing's climb stops, each length move with its device raised to the width limit (raisedToLimit): where
   // the limit binds, a new length is worth most with the gm/ID that brings the device back to it, a move no step of the
@@ -512,7 +573,7 @@ function climb(
 
   /**
    * The best of the edge `moves` short of the targets (and, with objective area, smaller than `best`) with their
-   * shortfall made up by one gm/ID alone (madeUpBy), or null. Along the edge the setpoint falls with the upper gm/ID,
+   * shortfall made up by one gm/ID alone (bestMadeUp), or null. Along the edge the setpoint falls with the upper gm/ID,
    * and a lower device then needs its own gm/ID up by more than a climb step (less VDSsat for the lower VDS): with
    * both devices at 800 nm, a top 0.3 /V down moved the edge 7 mV down, which the bottom made up only 2.6 /V up (random
    * audit seed 20261403 #31). A lower device's area is small beside a wide top's, so the move still gains.
@@ -523,83 +584,10 @@ function climb(
       const e = seen.get(seen.key(m));
       if (!e || fullyOk(ctx, e)) continue;
       if (ctx.spec.objective === 'area' && !(e.area < best.area * (1 - REL_TOL))) continue;
-      for (let j = 0; j < m.gmid.length; j++) {
-        for (const sign of [-1, 1]) {
-          const r = madeUpBy(e, j, sign, gstep);
-          if (r && (!out || better(r, out))) out = r;
-        }
-      }
+      const r = bestMadeUp(ctx, seen, pool, e, gstep, better);
+      if (r && (!out || better(r, out))) out = r;
     }
     return out;
-  }
-
-  /**
-   * From the sizing's answer (tradedClimb) meeting every target with objective area: each move of one gm/ID by `gstep`
-   * that is smaller but short of the targets, made up by another device's gm/ID alone (madeUpBy); the best, when better
-   * than `best`, becomes `best`. Along the Rout target a wide top's gm/ID down saves area that the narrow bottom's gm/ID
-   * up pays back only in part, but the bottom must rise some 2.5 times as far as the top falls (a demo180 cascode at
-   * 1.4 µm: 0.3 /V of the top for 0.77 /V of the bottom, random audit seed 20261413 #165), which no pair move of equal
-   * steps follows, and the ridge steps read the headroom's kink at the Rout target as a wall. Only on the search's
-   * answer, so it can only improve on it: tried at each climb's stalls it took the marsh-wren ota-load triple's climbs
-   * elsewhere (6.07 against 5.72e-12 m²), and at the end of every climb, followed by more climb rounds, it cost 3 % more
-   * instructions on marsh-wren (on the answer alone: 0.3 %).
-   */
-  function madeUpTrades(gstep: number): boolean {
-    if (ctx.spec.objective !== 'area' || !fullyOk(ctx, best)) return false;
-    const c = best.cand;
-    let out: Evaluated | null = null;
-    for (let k = 0; k < c.gmid.length; k++) {
-      for (const sign of [-1, 1]) {
-        const g = c.gmid[k] + sign * gstep;
-        if (!gmidInRange(ctx, g)) continue;
-        const n = withGmid(c, k, g);
-        if (!(sizeOnce(ctx, seen, seen.key(n), n).area < best.area * (1 - REL_TOL))) continue;
-        const e = evaluate(n);
-        if (!e || fullyOk(ctx, e)) continue;
-        for (let j = 0; j < c.gmid.length; j++) {
-          if (j === k) continue;
-          for (const s of [-1, 1]) {
-            const r = madeUpBy(e, j, s, gstep);
-            if (r && (!out || better(r, out))) out = r;
-          }
-        }
-      }
-    }
-    if (!out || !better(out, best)) return false;
-    best = out;
-    return true;
-  }
-
-  /**
-   * `from` (short of the targets) with gm/ID j moved by `sign`: stepped by `gstep`, doubling, while the shortfall falls
-   * and within MADE_UP_REACH grid steps, to a design meeting every target; then bisected back to the least move that
-   * does (within gstep / 2). Null when none is found.
-   */
-  function madeUpBy(from: Evaluated, j: number, sign: number, gstep: number): Evaluated | null {
-    const g0 = from.cand.gmid[j];
-    let miss = g0;
-    let last = shortfall(ctx, from);
-    for (let d = gstep; d <= MADE_UP_REACH * ctx.gmidStep; d *= 2) {
-      const g = g0 + sign * d;
-      if (!gmidInRange(ctx, g)) return null;
-      const e = evaluate(withGmid(from.cand, j, g));
-      if (!e) return null;
-      if (fullyOk(ctx, e)) {
-        let halvings = 0;
-        for (let w = Math.abs(g - miss); w > gstep / 2; w /= 2) halvings++;
-        const met = edgeOf((x) => {
-          const t = evaluate(withGmid(from.cand, j, x));
-          return t !== null && fullyOk(ctx, t);
-        }, g, miss, halvings);
-        // Evaluated already by the bisection (or above).
-        return evaluate(withGmid(from.cand, j, met));
-      }
-      const s = shortfall(ctx, e);
-      if (!(s < last)) return null;
-      last = s;
-      miss = g;
-    }
-    return null;
   }
 
   /**
