@@ -538,7 +538,8 @@ const FEASIBLE: Case[] = [
     // between the gm/ID grid's points; the screen's designs of these lengths all missed the headroom target).
     id: 'n090-cascode-stacked-rout-audit3-s15-107', kit: 'demo090', why: 'highest Rout under a mismatch budget, on the width limit',
     spec: { device: 'n', topology: 'cascode-stacked', current: 294e-6, rout: 89.5e3, headroom: 0.388, span: 0.953, objective: 'rout', l: { min: 400e-9, max: 750e-9 }, mismatch: 0.00727 },
-  },  {
+  },
+  {
     // Found by audit3 (seed 20261215, #799): Rout 57.74e6 Ω vs reference 61.64e6 Ω (tool -6.3 %). The reference needs
     // a longer bottom and a shorter top at once, on the width limit, which no single climb move makes; found since
     // each length choice with no screened design meeting the targets gets its nearest design raised to the limit
@@ -629,7 +630,8 @@ const FEASIBLE: Case[] = [
     // Reference design: l [800e-9, 800e-9], gm/ID [19.5, 24.75], setpoints [0.23125].
     id: 'nreed-cascode-area-audit4-s1373-5', kit: 'reed180', why: 'least area along the setpoint edge a bias diode at its minimum width sets',
     spec: { device: 'n', topology: 'cascode', current: 1.68e-6, rout: 302e6, headroom: 0.512, span: 1.63, objective: 'area', l: { min: 180e-9, max: 800e-9 } },
-  },  {
+  },
+  {
     // Found by the random audit (tests/audit-random.test.ts, seed 20261391 #91): headroom 0.6970 V vs reference
     // 0.6886 V (tool +8.4 mV). All three devices at 800 nm, the middle and top at the gm/ID range's top (22 /V). The
     // headroom is least with the bottom just saturated, and its saturation edge falls as its gm/ID rises: the best
