@@ -29,6 +29,9 @@ import {
   stageSample, type StageCircuit, type StageSample, type StageTrace, type StackDevice,
 } from '../../src/stack/index.js';
 
+/** How far below its target a swing still meets it, V: every swing check of these references. */
+const SWING_SLACK = 1e-9;
+
 export interface StageGrid {
   /** gm/ID points per device over the side's allowed range (ends included). */
   gmidPoints: number;
@@ -217,8 +220,8 @@ export function stageExhaustive(stage: StageSpec, kit: KitAccess, supply: number
     }
     const vin = t.points[t.j0]?.vin;
     if (vin === undefined || vin < 0 || vin > supply) continue;
-    if (t.swing >= stage.swing - 1e-9 && stage.gbw !== undefined && !(gbwAt(stage, circuit, t.points[t.j0]) >= stage.gbw)) continue;
-    if (t.swing >= stage.swing - 1e-9) {
+    if (t.swing >= stage.swing - SWING_SLACK && stage.gbw !== undefined && !(gbwAt(stage, circuit, t.points[t.j0]) >= stage.gbw)) continue;
+    if (t.swing >= stage.swing - SWING_SLACK) {
       const side = (o: SideOption) => ({ l: o.l, gmid: o.gmid, setpoints: o.setpoints, w: o.devices.map((d) => d.w) });
       return { best: { input: side(a), load: side(b), area, swing: t.swing }, sides: [inputs.length, loads.length], traced };
     }
@@ -278,8 +281,6 @@ export function heldOnGrid(vs: ArrayLike<number>, gains: ArrayLike<number>, j0: 
   return best;
 }
 
-/** How far below its target a swing still meets it, V (as the reference's other swing checks). */
-const SWING_SLACK = 1e-9;
 /** Resolution of a swing edge bisected for the exact held gain, V. */
 const EDGE_RES = 1e-7;
 /** Relative resolution of the held gain's bisection. */
@@ -467,7 +468,7 @@ export function stageNearestExhaustive(stage: StageSpec, kit: KitAccess, supply:
       const bound = heldBound(t.vs, t.gains, t.j0, stage.swing);
       if (bound > held) open.push({ k, bound });
       swing = Math.max(swing, t.swing);
-      if (t.swing >= stage.swing - 1e-9) {
+      if (t.swing >= stage.swing - SWING_SLACK) {
         gainMeeting = Math.max(gainMeeting, t.gains[t.j0]);
         if (stage.gbw !== undefined) gbwMeeting = Math.max(gbwMeeting, gbwAt(stage, c, t.points[t.j0]));
       }
