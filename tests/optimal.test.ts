@@ -732,6 +732,19 @@ const FEASIBLE: Case[] = [
     id: 'n180-cascode-area-audit4-s1413-165', kit: 'demo180', why: 'least area along the Rout target, the bottom gm/ID rising 2.5 times as far as the top\'s falls',
     spec: { device: 'n', topology: 'cascode', current: 5.31e-6, rout: 2.87e9, headroom: 0.525, span: 0.923, objective: 'area', l: { min: 500e-9, max: 1.4e-6 } },
   },
+  {
+    // Found by the random audit (tests/audit-random.test.ts, seed 20261421 #63): area 3.073e-9 m² vs reference
+    // 2.338e-9 m² (tool +31 %). Every screened design missed the targets, the nearest all at setpoints 125/125 mV, and
+    // the four seeds' climbs ended with all devices at 1.3 µm, the middle VDS at 125 mV near its saturation edge and its
+    // gm/ID at the range's top (22 /V, 1.1 mm wide). At the answer's gm/IDs the middle VDS meets the targets again, with
+    // slack, only from about 185 to 220 mV: the setpoint jumps of 2 and 4 climb steps (50, 100 mV) fell on either side.
+    // Found since the jumps take every step from 2 to 4 (search/setpoint-jump.ts): at 200 mV the targets are met with
+    // 0.11 of Rout's ln-margin, and the climb from there ends at 2.257e-9 m², gm/ID [21.4, 21.09, 20.16], 150/194 mV.
+    // Reference design: l [1.3e-6, 1.3e-6, 1.3e-6], gm/ID [21.5, 21.5, 19.5], setpoints [0.15, 0.2].
+    id: 'nreed-triple-area-audit4-s1421-63', kit: 'reed180', why: 'least area on a stretch of the middle VDS between the setpoint jumps',
+    grid: { gmidStep: 4, vStep: 0.1 },
+    spec: { device: 'n', topology: 'triple', current: 195e-6, rout: 1.47e6, headroom: 0.338, span: 1.49, objective: 'area', l: { min: 1.3e-6, max: 2e-6 }, gmid: { min: 6, max: 22 } },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {
