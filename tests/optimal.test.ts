@@ -732,6 +732,18 @@ const FEASIBLE: Case[] = [
     id: 'n180-cascode-area-audit4-s1413-165', kit: 'demo180', why: 'least area along the Rout target, the bottom gm/ID rising 2.5 times as far as the top\'s falls',
     spec: { device: 'n', topology: 'cascode', current: 5.31e-6, rout: 2.87e9, headroom: 0.525, span: 0.923, objective: 'area', l: { min: 500e-9, max: 1.4e-6 } },
   },
+  {
+    // Found by the random audit (tests/audit-random.test.ts, seed 20261425 #74): headroom 0.5650 V vs reference
+    // 0.5554 V (tool +9.6 mV). The bottom (1.4 µm) under the top (0.7 µm) at the width limit: the headroom falls with the
+    // bottom's gm/ID, which the limit caps at 5.91 /V, the top pulled back to it as the bottom's VGS falls. The climb's
+    // finest step took the bottom from 5.76 past the limit to 6.07 /V, and its pull back to the limit looked for a
+    // fitting gm/ID one grid step (2.45 /V) below, where the bottom diode's VGS leaves the top no room (not realisable):
+    // no edge, the move only rejected. Found since the pull bisects between that point and the move for a gm/ID that
+    // fits (search/width-edge.ts): 0.5554 V, gm/ID [5.915, 8.268].
+    // Reference design: l [1.4e-6, 700e-9], gm/ID [5.915, 8.268], setpoints [].
+    id: 'p180-cascode-stacked-headroom-audit4-s1425-74', kit: 'demo180', why: 'lowest headroom with both devices at the width limit, one grid step below it not realisable',
+    spec: { device: 'p', topology: 'cascode-stacked', current: 51.7e-6, rout: 504e3, headroom: 0.671, span: 1.68, objective: 'headroom', l: { min: 700e-9, max: 1.4e-6 }, wmax: 25.9e-6 },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {
