@@ -745,6 +745,30 @@ const FEASIBLE: Case[] = [
     grid: { gmidStep: 4, vStep: 0.1 },
     spec: { device: 'n', topology: 'triple', current: 195e-6, rout: 1.47e6, headroom: 0.338, span: 1.49, objective: 'area', l: { min: 1.3e-6, max: 2e-6 }, gmid: { min: 6, max: 22 } },
   },
+  {
+    // Found by the random audit (tests/audit-random.test.ts, seed 20261425 #74): headroom 0.5650 V vs reference
+    // 0.5554 V (tool +9.6 mV). The bottom (1.4 µm) under the top (0.7 µm) at the width limit: the headroom falls with the
+    // bottom's gm/ID, which the limit caps at 5.91 /V, the top pulled back to it as the bottom's VGS falls. The climb's
+    // finest step took the bottom from 5.76 past the limit to 6.07 /V, and its pull back to the limit looked for a
+    // fitting gm/ID one grid step (2.45 /V) below, where the bottom diode's VGS leaves the top no room (not realisable):
+    // no edge, the move only rejected. Found since the pull bisects between that point and the move for a gm/ID that
+    // fits (search/width-edge.ts): 0.5554 V, gm/ID [5.915, 8.268].
+    // Reference design: l [1.4e-6, 700e-9], gm/ID [5.915, 8.268], setpoints [].
+    id: 'p180-cascode-stacked-headroom-audit4-s1425-74', kit: 'demo180', why: 'lowest headroom with both devices at the width limit, one grid step below it not realisable',
+    spec: { device: 'p', topology: 'cascode-stacked', current: 51.7e-6, rout: 504e3, headroom: 0.671, span: 1.68, objective: 'headroom', l: { min: 700e-9, max: 1.4e-6 }, wmax: 25.9e-6 },
+  },
+  {
+    // Found by the random audit (tests/audit-random.test.ts, seed 20261425 #137): Rout 4.521e6 Ω vs reference
+    // 4.815e6 Ω (tool -6.1 %). The bottom (2 µm) at the top of the gm/ID range, the width limit far off. Along the
+    // setpoint Rout peaks in a stretch some 20 mV wide just above where the headroom target is first met (238 to 260 mV,
+    // 4.8e6 Ω; 4.4e6 Ω on either side): the climbs from the screen's 150 mV stalled 1.4 mV short of the headroom target
+    // in a dip at 159 mV, those from 550 mV rose to a lower peak at 597 mV. The scan of the setpoint line (every device
+    // at its widest, search/setpoint-line.ts) ran only for an answer on the width limit; found since it also runs for
+    // one with a device at the top of the gm/ID range, as far as its gm/ID goes too: 4.854e6 Ω, gm/ID [19, 19].
+    // Reference design: l [2e-6, 700e-9], gm/ID [19, 19], setpoints [0.24375].
+    id: 'n180-cascode-rout-audit4-s1425-137', kit: 'demo180', why: 'highest Rout on a narrow peak along the setpoint, a device at the top of the gm/ID range',
+    spec: { device: 'n', topology: 'cascode', current: 4.9e-6, rout: 4.28e6, headroom: 0.229, span: 1.21, objective: 'rout', l: { min: 700e-9, max: 2e-6 }, gmid: { min: 5, max: 19 } },
+  },
 ];
 
 describe('sizing is optimal within the tables (exhaustive reference search)', () => {

@@ -12,20 +12,30 @@ import { setpointRoom } from './line-probes.js';
 const ON_LIMIT = 0.01;
 
 /**
- * With objective Rout, where the climbs' answer sits on the width limit: each setpoint over its whole range, a climb
- * step (the topology's refineVoltageStep) apart, with every device raised to the width limit (widestAt), and a climb
- * from the best probe that beats the answer. Along such a line Rout has several separate peaks (stretches meeting the
- * targets, between stretches where they need wider devices), some only a couple of steps wide, and a climb stays on
- * the first it reaches. Each probe is evaluated only when its quick look leaves it a chance. Returns the better design.
+ * With objective Rout, where the climbs' answer sits on the width limit or has a device at the top of the gm/ID range
+ * (atWidest): each setpoint over its whole range, a climb step (the topology's refineVoltageStep) apart, with every
+ * device raised to the width limit or the range's top (widestAt), and a climb from the best probe that beats the answer.
+ * Along such a line Rout has several separate peaks (stretches meeting the targets, between stretches where they need
+ * wider devices), some only a couple of steps wide, and a climb stays on the first it reaches. Where the width limit is
+ * far off too: Rout at the headroom target peaked 20 mV wide just above where that target is first met (random audit
+ * seed 20261425 #137, a demo180 cascode, 4.8e6 Ω against 4.4e6 Ω either side), the climbs from below stalled in a
+ * headroom dip short of it, those from above on a lower peak. Each probe is evaluated only when its quick look leaves
+ * it a chance. Returns the better design.
  */
 export function fromSetpointLine(ctx: SolveContext, best: Evaluated, seen: Seen, pool: Evaluated[]): Evaluated {
-  if (ctx.meetOnly || ctx.spec.objective !== 'rout' || !(best.margins.width < ON_LIMIT) || !fullyOk(ctx, best)) return best;
+  if (ctx.meetOnly || ctx.spec.objective !== 'rout' || !atWidest(ctx, best) || !fullyOk(ctx, best)) return best;
   return alongSetpointLine(
     ctx, best, seen, pool,
     (a, b) => better(ctx, a, b),
     (l, from) => surelyMisses(ctx, l) || routSurelyBelow(l, from.nominal.rout),
     (lead) => refine(ctx, [lead], seen, pool),
   );
+}
+
+/** Some device of `e` at its widest: on the width limit, or at the top of the gm/ID range. */
+function atWidest(ctx: SolveContext, e: Evaluated): boolean {
+  const gHi = ctx.gmids[ctx.gmids.length - 1];
+  return e.margins.width < ON_LIMIT || e.cand.gmid.some((g) => g >= gHi - 1e-9);
 }
 
 /**

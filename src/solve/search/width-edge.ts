@@ -15,7 +15,8 @@ export const EDGE_STEPS = 16;
  * the limit (at a fixed bias W = I/jd rises with gm/ID), device by device from the bottom (a lower device's VGS can
  * set the bias of the ones above). Near the width limit (or the highest gm/ID a length reaches) the best designs sit
  * on that edge, between the steps of the climb: a move past it would otherwise only be rejected. Returns the move
- * itself when it fits, or when it does not fit one gm/ID grid step lower either.
+ * itself when it fits, or when it does not fit one gm/ID grid step lower either (nor, when that is not realisable,
+ * anywhere between there and the move).
  */
 export function atWidthEdge(ctx: SolveContext, c: Candidate): Candidate {
   return pullToWidth(ctx, c, false) ?? c;
@@ -42,9 +43,12 @@ function pullToWidth(ctx: SolveContext, c: Candidate, whole: boolean): Candidate
     let hi = g;
     let lo = NaN;
     if (!whole) {
-      // Within one grid step below (where the climb's moves land).
+      // Within one grid step below (where the climb's moves land). Not realisable there (a bottom diode's VGS at the
+      // lower gm/ID leaving the device above no room), the stretch that fits can still lie between it and the move.
       const below = Math.max(ctx.gmids[0], g - ctx.gmidStep);
-      if (fits(k, below)) lo = below;
+      const at = widthAt(ctx, d, k, below);
+      if (at === 'fits') lo = below;
+      else if (at === 'gone') [lo, hi] = fittingBetween(ctx, d, k, below, g);
     } else {
       // The highest grid gm/ID below that fits (scanned down: the lowest ones may not be realisable at all, e.g. a
       // bottom diode's VGS leaving the device above no room), then the edge between it and the next one up. Where none
