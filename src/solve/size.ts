@@ -150,7 +150,7 @@ function lowered(ctx: SolveContext, cands: readonly Candidate[], seen: Seen, poo
     for (let d = LOWER_STEP; ; d += LOWER_STEP) {
       const setpoints = c.setpoints.map((s) => Math.round((s - d) * 1e6) / 1e6);
       if (setpoints.length === 0 || setpoints.some((s) => s < LOWEST_SETPOINT - 1e-9)) break;
-      const e = evaluateOnce(ctx, { ...c, setpoints }, seen);
+      const e = evaluateOnce(ctx, { topology: c.topology, l: c.l, gmid: c.gmid, setpoints }, seen);
       if (e) {
         pool.push(e);
         break;
@@ -218,7 +218,7 @@ function pulledToWidth(ctx: SolveContext, c: Candidate, seen: Seen): Evaluated |
 /** `fits` with its setpoints raised by LOWER_STEP until it is realised (below mid-span); null when it never is. */
 function raisedUntilRealised(ctx: SolveContext, fits: Candidate, seen: Seen): Evaluated | null {
   for (let d = 0; fits.setpoints.every((s) => s + d < ctx.vmid); d += LOWER_STEP) {
-    const e = evaluateOnce(ctx, { ...fits, setpoints: fits.setpoints.map((s) => Math.round((s + d) * 1e6) / 1e6) }, seen);
+    const e = evaluateOnce(ctx, { topology: fits.topology, l: fits.l, gmid: fits.gmid, setpoints: fits.setpoints.map((s) => Math.round((s + d) * 1e6) / 1e6) }, seen);
     if (e || fits.setpoints.length === 0) return e;
   }
   return null;

@@ -85,7 +85,7 @@ function lengthMoves(ctx: { lengths: readonly number[] }, from: Candidate): Arra
     for (const dj of [-1, 1]) {
       const l = ctx.lengths[j + dj];
       if (l === undefined) continue;
-      out.push({ cand: { ...from, l: from.l.map((x, i) => (i === k ? l : x)), gmid: [...from.gmid], setpoints: [...from.setpoints] }, k });
+      out.push({ cand: { topology: from.topology, l: from.l.map((x, i) => (i === k ? l : x)), gmid: [...from.gmid], setpoints: [...from.setpoints] }, k });
     }
   }
   return out;
@@ -304,10 +304,10 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
         // The moved device's gm/ID by a step (the plain length move is the single moves' own), then with one
         // setpoint jump each.
         if (gs !== 0) {
-          const d = sideOf(sides[kind], { ...c, gmid });
+          const d = sideOf(sides[kind], { topology: c.topology, l: c.l, gmid, setpoints: c.setpoints });
           if (d) out.push(d);
         }
-        setpointJumps({ ...c, gmid }, SETPOINT_JUMPS, step.v, kind, out);
+        setpointJumps({ topology: c.topology, l: c.l, gmid, setpoints: c.setpoints }, SETPOINT_JUMPS, step.v, kind, out);
       }
     }
     return out;
@@ -319,7 +319,7 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
     for (let k = 0; k < from.gmid.length; k++) {
       const g = from.gmid[k] - step.g;
       if (!(g >= gLo - 1e-9)) continue;
-      setpointJumps({ ...from, gmid: from.gmid.map((x, i) => (i === k ? g : x)) }, TRADE_JUMPS, step.v, kind, out);
+      setpointJumps({ topology: from.topology, l: from.l, gmid: from.gmid.map((x, i) => (i === k ? g : x)), setpoints: from.setpoints }, TRADE_JUMPS, step.v, kind, out);
     }
     return out;
   };
@@ -329,7 +329,7 @@ function stageClimber(sides: StageSides, pool: StageDesign[], memos: { input: Si
       for (const n of jumps) {
         const v = c.setpoints[j] + n * vstep;
         if (!(v >= SETPOINT_MIN)) continue;
-        const d = sideOf(sides[kind], { ...c, setpoints: c.setpoints.map((x, i) => (i === j ? v : x)) });
+        const d = sideOf(sides[kind], { topology: c.topology, l: c.l, gmid: c.gmid, setpoints: c.setpoints.map((x, i) => (i === j ? v : x)) });
         if (d) out.push(d);
       }
     }

@@ -171,7 +171,7 @@ export function sideCandidates(stage: StageSpec, side: Side, topology: Topology,
 
 /** An input-side candidate with its input device (the bottom) at the top of the side's gm/ID range. */
 export function inputAtTop(side: Side, c: Candidate): Candidate {
-  return { ...c, gmid: [side.ctx.gmids[side.ctx.gmids.length - 1], ...c.gmid.slice(1)] };
+  return { topology: c.topology, l: c.l, gmid: [side.ctx.gmids[side.ctx.gmids.length - 1], ...c.gmid.slice(1)], setpoints: c.setpoints };
 }
 
 /** The stack screen of one side with derived targets: Rout `rout`, headroom `h` and the span to match; the side's own spec is kept. */

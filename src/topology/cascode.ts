@@ -20,7 +20,7 @@ export const cascode: TopologyDescriptor = {
     // as the output falls to the headroom target, so a long bottom alone can carry the Rout target with its setpoint far
     // above the target, where the screen's estimate (s1 + VDSsat2) and its setpoint grid never go.
     const s1 = squeezedSetpoint(vmid, 0, c.setpoints[0], SETPOINT_STEP);
-    return s1 === null ? [] : [{ ...c, setpoints: [s1] }];
+    return s1 === null ? [] : [{ topology: c.topology, l: c.l, gmid: c.gmid, setpoints: [s1] }];
   },
   screen(t) {
     for (const s1 of t.setpointGrid(SETPOINT_STEP)) {

@@ -64,8 +64,8 @@ export const triple: TopologyDescriptor = {
     const setpoints = [c.setpoints[0], s2];
     // Also with the top at the lowest gm/ID: squeezed, it carries the current in triode and gives no gain, so the
     // strongest inversion (the narrowest device) may serve.
-    const out = [{ ...c, setpoints }];
-    if (c.gmid[2] > gmidLow + 1e-9) out.push({ ...c, gmid: [c.gmid[0], c.gmid[1], gmidLow], setpoints });
+    const out = [{ topology: c.topology, l: c.l, gmid: c.gmid, setpoints }];
+    if (c.gmid[2] > gmidLow + 1e-9) out.push({ topology: c.topology, l: c.l, gmid: [c.gmid[0], c.gmid[1], gmidLow], setpoints });
     return out;
   },
   screen(t) {

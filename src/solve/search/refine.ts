@@ -701,12 +701,12 @@ function climb(
       plain.push(d);
       for (const sign of [-1, 1]) {
         const g = c.gmid[k] + (sign * ctx.gmidStep) / 2;
-        if (gmidInRange(ctx, g)) plain.push({ ...d, gmid: c.gmid.map((x, i) => (i === k ? g : x)) });
+        if (gmidInRange(ctx, g)) plain.push({ topology: d.topology, l: d.l, gmid: c.gmid.map((x, i) => (i === k ? g : x)), setpoints: d.setpoints });
       }
       // And a whole grid step the way that keeps the device's share of Rout: up for a shorter device (its intrinsic
       // gain, lost with the length, comes back with gm/ID), down for a longer one (gain to spare, and narrower).
       const g = c.gmid[k] + (l < c.l[k] ? 1 : -1) * ctx.gmidStep;
-      if (gmidInRange(ctx, g)) stepped.push({ ...d, gmid: c.gmid.map((x, i) => (i === k ? g : x)) });
+      if (gmidInRange(ctx, g)) stepped.push({ topology: d.topology, l: d.l, gmid: c.gmid.map((x, i) => (i === k ? g : x)), setpoints: d.setpoints });
       const r = raisedToLimit(ctx, d, k);
       if (r) raised.push(r);
     });
