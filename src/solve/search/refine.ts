@@ -343,6 +343,8 @@ interface Memo {
   edges: Map<number, Candidate | null>;
   /** fromLengthMoves' climbs by their start's key and step scale: the climbs of one search often end at one design. */
   lengthClimbs: Map<string, Evaluated>;
+  /** The climb's two-length moves at the longer device's own area (pairsAtOwnArea), by the answer's key. */
+  pairsAtArea: Map<number, LengthMove[]>;
   /** Realisable-edge version of a setpoint move that could not be realised, by the move's key (null: none). */
   setpointEdges: Map<number, Candidate | null>;
   looks: Map<number, Look | null>;
@@ -352,7 +354,7 @@ const memos = new WeakMap<Seen, Memo>();
 
 function memoOf(seen: Seen): Memo {
   let m = memos.get(seen);
-  if (!m) memos.set(seen, (m = { sizes: new Map(), edges: new Map(), lengthClimbs: new Map(), setpointEdges: new Map(), looks: new Map(), deferred: new Map() }));
+  if (!m) memos.set(seen, (m = { sizes: new Map(), edges: new Map(), lengthClimbs: new Map(), pairsAtArea: new Map(), setpointEdges: new Map(), looks: new Map(), deferred: new Map() }));
   return m;
 }
 
@@ -454,13 +456,13 @@ function climb(
   // gm/ID is smaller but short of Rout, made up with its gm/ID and a setpoint a few steps up (random audit seed
   // 20261302 #154: a reed180 cascode's top at 0.5 instead of 0.8 µm, 40 % less area).
   if (sizing) {
-    const { plain, raised, stepped, kept } = lengthMovesOfBest();
+    const { plain, raised, stepped } = lengthMovesOfBest();
     if (step(raised)) climbRounds();
     else {
       const moves: LengthMove[] = [
         ...raised.map((c) => ({ c, reach: RAISED_REACH })),
         ...plain.map((c) => ({ c, reach: PLAIN_REACH })),
-        ...kept.map(({ c, k }) => ({ c, reach: PLAIN_REACH, madeUp: k })),
+        ...pairsAtOwnArea(),
       ];
       best = fromLengthMoves(ctx, best, [...moves, ...stepped.map((c) => ({ c, reach: PLAIN_REACH, fallback: true }))], seen, pool, better, climbFrom);
     }
@@ -711,9 +713,8 @@ function climb(
    * a fallback: where another move of the length choice is within reach, its climb is the one known to serve
    * (marsh-wren-corners' ota-load triple: the whole step's climb ended 8 % larger than the half step's).
    */
-  function lengthMovesOfBest(): { plain: Candidate[]; raised: Candidate[]; stepped: Candidate[]; kept: Array<{ c: Candidate; k: number }> } {
+  function lengthMovesOfBest(): { plain: Candidate[]; raised: Candidate[]; stepped: Candidate[] } {
     const plain: Candidate[] = [];
-    const kept: Array<{ c: Candidate; k: number }> = [];
     const raised: Candidate[] = [];
     const stepped: Candidate[] = [];
     const c = best.cand;
@@ -731,19 +732,32 @@ function climb(
       const r = raisedToLimit(ctx, d, k);
       if (r) raised.push(r);
     });
-    // A longer lower device under a shorter upper one at once (lengthPairs), at the same gm/IDs, and with the longer
-    // device's gm/ID lowered to keep its own area (atArea): where the longer one is the wider, at the same gm/IDs it gains
-    // more area than the shorter one gives up, and the Rout it gains is slack a lower gm/ID spends on area (random audit
-    // seed 20261421 #146: a demo090 stacked cascode, both devices at 750 nm and the bottom at 30 /V, the 1 µm bottom
-    // under a 550 nm top 38 % larger at the same gm/IDs; at its own area it climbs to 5 % less than both at 750 nm).
+    // A longer lower device under a shorter upper one at once, at the same gm/IDs (lengthPairs).
+    for (const l of lengthPairs(ctx, c.l)) plain.push({ topology: c.topology, l, gmid: c.gmid, setpoints: c.setpoints });
+    return { plain, raised, stepped };
+  }
+
+  /**
+   * best's two-length moves (lengthPairs) with the longer device's gm/ID lowered to keep its own area (atArea), each
+   * with that device to make up its shortfall (fromLengthMoves), once per search and answer. Where the longer one is the
+   * wider, at the same gm/IDs it gains more area than the shorter one gives up, and the Rout it gains is slack that a
+   * lower gm/ID spends on area (random audit seed 20261421 #146: a demo090 stacked cascode, both devices at 750 nm and
+   * the bottom at 30 /V; the 1 µm bottom under a 550 nm top was 38 % larger at the same gm/IDs, and at its own area, made
+   * up, climbs to 5.7 % less than both at 750 nm).
+   */
+  function pairsAtOwnArea(): LengthMove[] {
+    const c = best.cand;
+    const key = seen.key(c);
+    let out = memo.pairsAtArea.get(key);
+    if (out) return out;
+    out = [];
     for (const l of lengthPairs(ctx, c.l)) {
-      const d = { topology: c.topology, l, gmid: c.gmid, setpoints: c.setpoints };
-      plain.push(d);
       const k = l.findIndex((x, i) => x > c.l[i]);
-      const at = atArea(ctx, d, k, best.sized.w[k] * c.l[k]);
-      if (at) kept.push({ c: at, k });
+      const at = atArea(ctx, { topology: c.topology, l, gmid: c.gmid, setpoints: c.setpoints }, k, best.sized.w[k] * c.l[k]);
+      if (at) out.push({ c: at, reach: PLAIN_REACH, madeUp: k });
     }
-    return { plain, raised, stepped, kept };
+    memo.pairsAtArea.set(key, out);
+    return out;
   }
 
   function step(moves: Candidate[]): boolean {
