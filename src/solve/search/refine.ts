@@ -738,9 +738,9 @@ function climb(
   }
 
   /**
-   * best's two-length moves (lengthPairs) with the longer device's gm/ID lowered to keep its own area (atArea), each
-   * with that device to make up its shortfall (fromLengthMoves), once per search and answer. Where the longer one is the
-   * wider, at the same gm/IDs it gains more area than the shorter one gives up, and the Rout it gains is slack that a
+   * best's two-length moves (lengthPairs) where the longer device is the wider, with its gm/ID lowered to keep its own
+   * area (atArea), each with that device to make up its shortfall (fromLengthMoves), once per search and answer. There,
+   * at the same gm/IDs it gains more area than the shorter one gives up, and the Rout it gains is slack that a
    * lower gm/ID spends on area (random audit seed 20261421 #146: a demo090 stacked cascode, both devices at 750 nm and
    * the bottom at 30 /V; the 1 µm bottom under a 550 nm top was 38 % larger at the same gm/IDs, and at its own area, made
    * up, climbs to 5.7 % less than both at 750 nm).
@@ -753,6 +753,7 @@ function climb(
     out = [];
     for (const l of lengthPairs(ctx, c.l)) {
       const k = l.findIndex((x, i) => x > c.l[i]);
+      if (!(best.sized.w[k] > best.sized.w[l.findIndex((x, i) => x < c.l[i])])) continue;
       const at = atArea(ctx, { topology: c.topology, l, gmid: c.gmid, setpoints: c.setpoints }, k, best.sized.w[k] * c.l[k]);
       if (at) out.push({ c: at, reach: PLAIN_REACH, madeUp: k });
     }
