@@ -7,7 +7,7 @@ import { distanceToFeasible, REL_TOL } from '../../policy.js';
 import { better, shortfall, stepTop } from './rank.js';
 import { rejudged, type Reuse, type Seen } from './reuse.js';
 import { lookAt, shortfallSurelyAbove, surelyMisses, type Look } from './quick.js';
-import { anyWider, atWidthEdge, raisedToLimit } from './width-edge.js';
+import { anyWider, atArea, atWidthEdge, raisedToLimit } from './width-edge.js';
 import { ridgeStep } from './ridge.js';
 import { leastSaturated } from '../evaluate/checks.js';
 import { edgeOf } from '../../numeric/index.js';
@@ -277,6 +277,8 @@ interface LengthMove {
   c: Candidate;
   reach: number;
   fallback?: boolean;
+  /** The device whose gm/ID, raised, makes up the move's shortfall (madeUpBy) before it is ranked. */
+  madeUp?: number;
 }
 
 /**
@@ -285,7 +287,8 @@ interface LengthMove {
  * length choices nearest to them, when that is better. A new length often needs a gm/ID or setpoint a few steps away
  * too (on the width limit, a top with less VDSsat for the headroom a raised bottom's VGS takes; a shorter top, its
  * gm/ID and setpoint up for the Rout it lost), which no one step makes. Their areas come from the sizing alone, so
- * only the smaller ones are evaluated.
+ * only the smaller ones are evaluated. A move with a device to make up its shortfall (`madeUp`) is made up first and,
+ * when then smaller than `best` and better than the answer so far, climbed from besides.
  */
 function fromLengthMoves(
   ctx: SolveContext, best: Evaluated, moves: readonly LengthMove[], seen: Seen, pool: Evaluated[],
@@ -294,18 +297,31 @@ function fromLengthMoves(
   if (ctx.spec.objective !== 'area' || !fullyOk(ctx, best)) return best;
   // The nearest move of each length choice within reach: nearest by shortfall is not always best by area.
   const nearest = new Map<string, Evaluated>();
-  for (const { c, reach, fallback } of moves) {
+  // The moves with a shortfall made up (madeUp) that meet every target and are smaller, apart: more climbs, not in
+  // place of the others' (which they would displace, having none).
+  const madeUps: Evaluated[] = [];
+  for (const { c, reach, fallback, madeUp } of moves) {
     const k = c.l.join(',');
     if (fallback && nearest.has(k)) continue;
     if (!(sizeOnce(ctx, seen, seen.key(c), c).area < best.area * (1 - REL_TOL))) continue;
     const e = evaluateToPool(ctx, c, seen, pool);
     if (!e || distanceToFeasible(e.margins) > reach) continue;
+    if (madeUp !== undefined) {
+      const m = fullyOk(ctx, e) ? e : madeUpBy(ctx, seen, pool, e, madeUp, 1, ctx.gmidStep / 8);
+      if (m && m.area < best.area * (1 - REL_TOL)) madeUps.push(m);
+      continue;
+    }
     const n = nearest.get(k);
     if (!n || shortfall(ctx, e) < shortfall(ctx, n)) nearest.set(k, e);
   }
   const froms = [...nearest.values()].sort((a, b) => shortfall(ctx, a) - shortfall(ctx, b)).slice(0, LENGTH_CLIMBS);
   let out = best;
   for (const from of froms) {
+    const r = climbFrom(from);
+    if (better(r, out)) out = r;
+  }
+  for (const from of madeUps.sort((a, b) => a.area - b.area)) {
+    if (!better(from, out)) continue;
     const r = climbFrom(from);
     if (better(r, out)) out = r;
   }
@@ -327,6 +343,8 @@ interface Memo {
   edges: Map<number, Candidate | null>;
   /** fromLengthMoves' climbs by their start's key and step scale: the climbs of one search often end at one design. */
   lengthClimbs: Map<string, Evaluated>;
+  /** The climb's two-length moves at the longer device's own area (pairsAtOwnArea), by the answer's key. */
+  pairsAtArea: Map<number, LengthMove[]>;
   /** Realisable-edge version of a setpoint move that could not be realised, by the move's key (null: none). */
   setpointEdges: Map<number, Candidate | null>;
   looks: Map<number, Look | null>;
@@ -336,7 +354,7 @@ const memos = new WeakMap<Seen, Memo>();
 
 function memoOf(seen: Seen): Memo {
   let m = memos.get(seen);
-  if (!m) memos.set(seen, (m = { sizes: new Map(), edges: new Map(), lengthClimbs: new Map(), setpointEdges: new Map(), looks: new Map(), deferred: new Map() }));
+  if (!m) memos.set(seen, (m = { sizes: new Map(), edges: new Map(), lengthClimbs: new Map(), pairsAtArea: new Map(), setpointEdges: new Map(), looks: new Map(), deferred: new Map() }));
   return m;
 }
 
@@ -441,7 +459,11 @@ function climb(
     const { plain, raised, stepped } = lengthMovesOfBest();
     if (step(raised)) climbRounds();
     else {
-      const moves = [...raised.map((c) => ({ c, reach: RAISED_REACH })), ...plain.map((c) => ({ c, reach: PLAIN_REACH }))];
+      const moves: LengthMove[] = [
+        ...raised.map((c) => ({ c, reach: RAISED_REACH })),
+        ...plain.map((c) => ({ c, reach: PLAIN_REACH })),
+        ...pairsAtOwnArea(),
+      ];
       best = fromLengthMoves(ctx, best, [...moves, ...stepped.map((c) => ({ c, reach: PLAIN_REACH, fallback: true }))], seen, pool, better, climbFrom);
     }
   }
@@ -713,6 +735,30 @@ function climb(
     // A longer lower device under a shorter upper one at once, at the same gm/IDs (lengthPairs).
     for (const l of lengthPairs(ctx, c.l)) plain.push({ topology: c.topology, l, gmid: c.gmid, setpoints: c.setpoints });
     return { plain, raised, stepped };
+  }
+
+  /**
+   * best's two-length moves (lengthPairs) where the longer device is the wider, with its gm/ID lowered to keep its own
+   * area (atArea), each with that device to make up its shortfall (fromLengthMoves), once per search and answer. There,
+   * at the same gm/IDs it gains more area than the shorter one gives up, and the Rout it gains is slack that a
+   * lower gm/ID spends on area (random audit seed 20261421 #146: a demo090 stacked cascode, both devices at 750 nm and
+   * the bottom at 30 /V; the 1 µm bottom under a 550 nm top was 38 % larger at the same gm/IDs, and at its own area, made
+   * up, climbs to 5.7 % less than both at 750 nm).
+   */
+  function pairsAtOwnArea(): LengthMove[] {
+    const c = best.cand;
+    const key = seen.key(c);
+    let out = memo.pairsAtArea.get(key);
+    if (out) return out;
+    out = [];
+    for (const l of lengthPairs(ctx, c.l)) {
+      const k = l.findIndex((x, i) => x > c.l[i]);
+      if (!(best.sized.w[k] > best.sized.w[l.findIndex((x, i) => x < c.l[i])])) continue;
+      const at = atArea(ctx, { topology: c.topology, l, gmid: c.gmid, setpoints: c.setpoints }, k, best.sized.w[k] * c.l[k]);
+      if (at) out.push({ c: at, reach: PLAIN_REACH, madeUp: k });
+    }
+    memo.pairsAtArea.set(key, out);
+    return out;
   }
 
   function step(moves: Candidate[]): boolean {

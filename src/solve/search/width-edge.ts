@@ -129,6 +129,33 @@ export function widestAt(ctx: SolveContext, d: Candidate, keep = -1): Candidate 
 }
 
 /**
+ * `c` (device k made longer) with device k's gm/ID lowered to where its area W·L is `area` again, the others kept, by
+ * bisection (RAISE_STEPS): at a fixed bias W = I/jd falls with gm/ID. Null when it is no larger at its own gm/ID (the
+ * move needs no such change) or larger at every lower one.
+ */
+export function atArea(ctx: SolveContext, c: Candidate, k: number, area: number): Candidate | null {
+  const d: Candidate = { topology: c.topology, l: c.l, gmid: [...c.gmid], setpoints: c.setpoints };
+  const within = (g: number): boolean => {
+    d.gmid[k] = g;
+    const w = candidateWidths(ctx, d);
+    return w !== null && w[k] * d.l[k] <= area;
+  };
+  let hi = c.gmid[k];
+  if (within(hi)) return null;
+  // The highest grid gm/ID below that is within (scanned down: the lowest may not be realisable), then the edge above it.
+  for (let j = ctx.gmids.length - 1; j >= 0; j--) {
+    const x = ctx.gmids[j];
+    if (!(x < hi)) continue;
+    if (within(x)) {
+      d.gmid[k] = Math.round(edgeOf(within, x, hi, RAISE_STEPS) * 1e9) / 1e9;
+      return d;
+    }
+    hi = x;
+  }
+  return null;
+}
+
+/**
  * Device k of `d` fits the width limit at gm/ID g (left in d.gmid[k]), the other devices as they are. Not realisable
  * counts as too wide (a gm/ID beyond what the length reaches at its bias: W = I/jd grows without bound towards it), as
  * in the exhaustive reference's width edge.
