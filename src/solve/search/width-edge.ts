@@ -130,8 +130,8 @@ export function widestAt(ctx: SolveContext, d: Candidate, keep = -1): Candidate 
 
 /**
  * `c` (device k made longer) with device k's gm/ID lowered to where its area W·L is `area` again, the others kept, by
- * bisection (RAISE_STEPS): at a fixed bias W = I/jd falls with gm/ID. Null when it is no larger at its own gm/ID (the
- * move needs no such change) or larger at every lower one.
+ * bisection (RAISE_STEPS): at a fixed bias W = I/jd rises with gm/ID, so a lower one narrows the device. Null when it
+ * is no larger at its own gm/ID (the move needs no such change) or larger at every lower one.
  */
 export function atArea(ctx: SolveContext, c: Candidate, k: number, area: number): Candidate | null {
   const d: Candidate = { topology: c.topology, l: c.l, gmid: [...c.gmid], setpoints: c.setpoints };
