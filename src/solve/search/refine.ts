@@ -170,8 +170,9 @@ export function refine(
  * The sizing's answer `from` (meeting every target, objective area) with one gm/ID traded for another: each move of one
  * gm/ID by a climb's finest step that is smaller but short of the targets, made up by another device's gm/ID alone
  * (bestMadeUp), the best becoming the answer when better, again from there while one gains (at most TRADES); `from`
- * when none gains. Along the Rout target a wide top's gm/ID down saves area that the narrow bottom's gm/ID up pays back
- * only in part, but the bottom must rise some 2.5 times as far as the top falls (a demo180 cascode at 1.4 µm: 0.3 /V of
+ * when none gains; where no trade gains, each such move bisected back to the last gm/ID meeting the targets (gmidEdge)
+ * instead. Along the Rout target a wide top's gm/ID down saves area that the narrow bottom's gm/ID up pays back only
+ * in part, but the bottom must rise some 2.5 times as far as the top falls (a demo180 cascode at 1.4 µm: 0.3 /V of
  * the top for 0.77 /V of the bottom, random audit seed 20261413 #165), which no pair move of equal steps follows, and the
  * ridge steps read the headroom's kink at the Rout target as a wall. Once per search, on its answer, so it can only
  * improve on it: tried at each climb's stalls it took the marsh-wren ota-load triple's climbs elsewhere (6.07 against
@@ -186,6 +187,8 @@ export function tradedClimb(ctx: SolveContext, from: Evaluated, seen: Seen, pool
   for (let t = 0; t < TRADES && fullyOk(ctx, best); t++) {
     const c = best.cand;
     let out: Evaluated | null = null;
+    // The smaller moves short of the targets, for their gm/ID edges (gmidEdge).
+    const misses: Array<[number, number]> = [];
     for (let k = 0; k < c.gmid.length; k++) {
       for (const sign of [-1, 1]) {
         const g = c.gmid[k] + sign * gstep;
@@ -194,7 +197,16 @@ export function tradedClimb(ctx: SolveContext, from: Evaluated, seen: Seen, pool
         if (!(sizeOnce(ctx, seen, seen.key(n), n).area < best.area * (1 - REL_TOL))) continue;
         const e = evaluateToPool(ctx, n, seen, pool);
         if (!e || fullyOk(ctx, e)) continue;
+        misses.push([k, g]);
         const r = bestMadeUp(ctx, seen, pool, e, gstep, prefer, k);
+        if (r && (!out || prefer(r, out))) out = r;
+      }
+    }
+    // Only where no trade gains: taken first, an edge led the marsh-wren-spice excitation triple's trades elsewhere
+    // (754.3 against 752.0e-12 m²; edges after the trades, 751.0e-12 m²).
+    if (!out || !prefer(out, best)) {
+      for (const [k, g] of misses) {
+        const r = gmidEdge(ctx, seen, pool, c, k, g);
         if (r && (!out || prefer(r, out))) out = r;
       }
     }
@@ -202,6 +214,23 @@ export function tradedClimb(ctx: SolveContext, from: Evaluated, seen: Seen, pool
     best = out;
   }
   return best;
+}
+
+/**
+ * `c` (meeting every target) with gm/ID k moved towards `bad` (short of them) to the last value that still meets
+ * them (within 1/16 of the move: GMID_EDGE_HALVINGS), or null when that is its own value. Near the top of weak
+ * inversion a device's width W = I/jd rises steeply with its gm/ID, and the targets can hold over part of the climb's
+ * finest step: a demo180 p cascode's top at 29.69 /V met them down to 29.62 /V at the same bottom, 5 % less area,
+ * while 29.39 /V, a finest step down, missed the headroom (random audit seed 20261437 #61).
+ */
+function gmidEdge(ctx: SolveContext, seen: Seen, pool: Evaluated[], c: Candidate, k: number, bad: number): Evaluated | null {
+  const evaluate = (g: number): Evaluated | null => evaluateToPool(ctx, withGmid(c, k, g), seen, pool);
+  const g = edgeOf((x) => {
+    const t = evaluate(x);
+    return t !== null && fullyOk(ctx, t);
+  }, c.gmid[k], bad, GMID_EDGE_HALVINGS);
+  // Evaluated already by the bisection.
+  return g === c.gmid[k] ? null : evaluate(g);
 }
 
 /**
@@ -398,6 +427,9 @@ const SETPOINT_EDGE_V = 1e-4;
 const EDGE_REACH = 8;
 // Grid steps of gm/ID that madeUpBy moves one gm/ID by at most, to make up an edge move's shortfall.
 const MADE_UP_REACH = 4;
+// Halvings of a tradedClimb move that misses the targets, back to the last gm/ID that meets them (gmidEdge): to 1/16
+// of the move, a grid step / 128.
+const GMID_EDGE_HALVINGS = 4;
 // Made-up trades per tradedClimb at most.
 const TRADES = 8;
 // Rounds of moves per climb at most (each improves or halves the steps).
