@@ -224,13 +224,22 @@ export function tradedClimb(ctx: SolveContext, from: Evaluated, seen: Seen, pool
  * while 29.39 /V, a finest step down, missed the headroom (random audit seed 20261437 #61).
  */
 function gmidEdge(ctx: SolveContext, seen: Seen, pool: Evaluated[], c: Candidate, k: number, bad: number): Evaluated | null {
-  const evaluate = (g: number): Evaluated | null => evaluateToPool(ctx, withGmid(c, k, g), seen, pool);
-  const g = edgeOf((x) => {
-    const t = evaluate(x);
-    return t !== null && fullyOk(ctx, t);
-  }, c.gmid[k], bad, GMID_EDGE_HALVINGS);
+  const g = lastMeeting(ctx, seen, pool, c, k, c.gmid[k], bad, GMID_EDGE_HALVINGS);
   // Evaluated already by the bisection.
-  return g === c.gmid[k] ? null : evaluate(g);
+  return g === c.gmid[k] ? null : evaluateToPool(ctx, withGmid(c, k, g), seen, pool);
+}
+
+/**
+ * Gm/ID k of `c` bisected, in `halvings`, from `good` (meeting every target) towards `bad` (short of them) to the
+ * last value that still meets them (each probe evaluated to the pool).
+ */
+function lastMeeting(
+  ctx: SolveContext, seen: Seen, pool: Evaluated[], c: Candidate, k: number, good: number, bad: number, halvings: number,
+): number {
+  return edgeOf((x) => {
+    const t = evaluateToPool(ctx, withGmid(c, k, x), seen, pool);
+    return t !== null && fullyOk(ctx, t);
+  }, good, bad, halvings);
 }
 
 /**
@@ -270,12 +279,8 @@ function madeUpBy(ctx: SolveContext, seen: Seen, pool: Evaluated[], from: Evalua
     if (fullyOk(ctx, e)) {
       let halvings = 0;
       for (let w = Math.abs(g - miss); w > gstep / 2; w /= 2) halvings++;
-      const met = edgeOf((x) => {
-        const t = evaluate(x);
-        return t !== null && fullyOk(ctx, t);
-      }, g, miss, halvings);
       // Evaluated already by the bisection (or above).
-      return evaluate(met);
+      return evaluate(lastMeeting(ctx, seen, pool, from.cand, j, g, miss, halvings));
     }
     const s = shortfall(ctx, e);
     if (!(s < last)) return null;
